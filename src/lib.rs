@@ -1,0 +1,41 @@
+//! dutyline: compiles a unit-checked pumped-system design file (`*.duty`)
+//! into a calculation package. See DEVELOPERS.md for the codemap.
+//!
+//! The pipeline runs one way: [`syntax`] → [`model`] → engine
+//! ([`fluid`], [`hydraulics`], [`pumps`], [`analysis`]) → outputs.
+
+pub mod diagnostics;
+pub mod hydraulics;
+pub mod model;
+pub mod names;
+pub mod syntax;
+pub mod units;
+
+use diagnostics::Diagnostic;
+pub use model::{Design, FileAccess, NoFiles};
+
+/// Version of the tool, printed in outputs.
+pub const VERSION: &str = env!("CARGO_PKG_VERSION");
+
+/// The result of checking a design: the design when it is valid, and every diagnostic.
+pub struct Checked {
+    pub design: Option<Design>,
+    pub diagnostics: Vec<Diagnostic>,
+}
+
+impl Checked {
+    pub fn has_errors(&self) -> bool {
+        self.diagnostics.iter().any(|d| d.is_error())
+    }
+}
+
+/// Parse and lower a design file. Never panics; all problems are diagnostics.
+pub fn check(source: &str, files: &dyn FileAccess) -> Checked {
+    match syntax::parse(source) {
+        Ok(file) => {
+            let (design, diagnostics) = model::lower(&file, source, files);
+            Checked { design, diagnostics }
+        }
+        Err(diagnostics) => Checked { design: None, diagnostics },
+    }
+}

@@ -1,0 +1,98 @@
+//! The `dutyline` command line: arguments in, library call, diagnostics out.
+
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+
+use dutyline::diagnostics::{self, Diagnostic};
+
+#[derive(Parser)]
+#[command(name = "dutyline", version, about = "Pump and system-curve calculation packages from a unit-checked design file")]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Subcommand)]
+enum Command {
+    /// Check a design file: syntax, units, names, cases.
+    #[command(after_help = "Example:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n\nExit status: 0 valid, 1 design errors (or warnings with --deny-warnings), 2 usage or I/O errors.")]
+    Check {
+        /// The design file (*.duty).
+        file: PathBuf,
+        /// Treat warnings as errors.
+        #[arg(long)]
+        deny_warnings: bool,
+    },
+}
+
+/// Reads files relative to the design file's folder.
+struct DiskFiles {
+    base: PathBuf,
+}
+
+impl dutyline::FileAccess for DiskFiles {
+    fn read_text(&self, path: &str) -> Result<String, String> {
+        let p = self.base.join(path);
+        let bytes = std::fs::read(&p).map_err(|e| e.to_string())?;
+        if bytes.len() > dutyline::syntax::MAX_SOURCE_BYTES {
+            return Err(format!("the file is larger than {} bytes", dutyline::syntax::MAX_SOURCE_BYTES));
+        }
+        String::from_utf8(bytes).map_err(|_| "the file is not UTF-8 text".to_string())
+    }
+}
+
+fn main() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let _ = e.print();
+            return if e.use_stderr() { ExitCode::from(2) } else { ExitCode::SUCCESS };
+        }
+    };
+    match cli.command {
+        Command::Check { file, deny_warnings } => check(&file, deny_warnings),
+    }
+}
+
+/// Read a design file, or print why not.
+fn read_source(path: &Path) -> Result<String, ExitCode> {
+    let name = path.display().to_string();
+    let bytes = std::fs::read(path).map_err(|e| {
+        eprintln!("error: cannot read `{name}`: {e}");
+        ExitCode::from(2)
+    })?;
+    dutyline::syntax::source_from_bytes(bytes).map_err(|d| {
+        eprint!("{}", diagnostics::render(&[d], &name, ""));
+        ExitCode::from(1)
+    })
+}
+
+fn files_for(path: &Path) -> DiskFiles {
+    DiskFiles { base: path.parent().map(Path::to_path_buf).unwrap_or_default() }
+}
+
+fn report(diags: &[Diagnostic], path: &Path, source: &str) {
+    if !diags.is_empty() {
+        eprint!("{}", diagnostics::render(diags, &path.display().to_string(), source));
+    }
+}
+
+fn check(path: &Path, deny_warnings: bool) -> ExitCode {
+    let source = match read_source(path) {
+        Ok(s) => s,
+        Err(code) => return code,
+    };
+    let checked = dutyline::check(&source, &files_for(path));
+    report(&checked.diagnostics, path, &source);
+    let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
+    let warnings = checked.diagnostics.len() - errors;
+    if errors > 0 || (deny_warnings && warnings > 0) {
+        eprintln!("{}: {errors} error(s), {warnings} warning(s)", path.display());
+        ExitCode::from(1)
+    } else {
+        println!("{}: valid ({warnings} warning(s))", path.display());
+        ExitCode::SUCCESS
+    }
+}

@@ -1,0 +1,379 @@
+//! Lowering pump candidates and their curve tables (inline or from CSV).
+
+use uom::si::f64::{Frequency, Length, Power, Ratio, VolumeRate};
+use uom::si::{frequency::hertz, length::meter, power::watt, ratio::ratio, volume_rate::cubic_meter_per_second};
+
+use super::design::*;
+use super::eval::{self, expect_dim, expect_number, Env};
+use super::fields::{missing, read_fields};
+use super::FileAccess;
+use crate::diagnostics::{Diagnostic, Span};
+use crate::syntax::ast::{Arg, ArgKind, Cell, Column, Ident, Number, Row, Statement, StatementKind, Table, UnitText};
+use crate::units::Dimension;
+
+/// Most points accepted in one curve table (grammar/LANGUAGE.md, "Limits").
+pub const MAX_CURVE_POINTS: usize = 200;
+/// Most curves per pump.
+pub const MAX_CURVES: usize = 12;
+
+pub const PUMP_FIELDS: &[&str] =
+    &["speed", "arrangement", "count", "standby", "impeller", "adjust", "min_speed", "max_speed", "min_trim"];
+
+const COLUMNS: &[(&str, Dimension)] = &[
+    ("flow", Dimension::VOLUME_RATE),
+    ("head", Dimension::LENGTH),
+    ("efficiency", Dimension::NONE),
+    ("npshr", Dimension::LENGTH),
+    ("power", Dimension::POWER),
+];
+
+/// Lower `pump NAME "description" { ... }`.
+pub fn lower_pump(
+    args: &[Arg],
+    body: &[Statement],
+    span: Span,
+    env: &Env,
+    files: &dyn FileAccess,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<PumpCandidate> {
+    let name = match args.first() {
+        Some(Arg { kind: ArgKind::Word(w), .. }) => w.clone(),
+        _ => {
+            diags.push(Diagnostic::error("bad-pump", "a pump needs a name", Some(span)).with_help("write `pump P1 \"description\" { ... }`"));
+            return None;
+        }
+    };
+    let description = match args.get(1) {
+        Some(Arg { kind: ArgKind::Text(t), .. }) => t.clone(),
+        Some(a) => {
+            diags.push(Diagnostic::error("bad-pump", "after the pump's name only a quoted description may follow", Some(a.span)));
+            String::new()
+        }
+        None => String::new(),
+    };
+    let f = read_fields(body, &format!("pump {name}"), PUMP_FIELDS, diags);
+    let mut p = PumpCandidate {
+        name: name.clone(),
+        description,
+        rated_speed: Frequency::new::<hertz>(0.0),
+        arrangement: ArrangementKind::Single,
+        count: 1,
+        standby: 0,
+        curves: Vec::new(),
+        impeller: None,
+        adjust: Adjust::None,
+        span,
+    };
+    let mut push = |r: Result<(), Diagnostic>| {
+        if let Err(d) = r {
+            diags.push(d)
+        }
+    };
+    let mut adjust_word = "none".to_string();
+    let (mut min_speed, mut max_speed, mut min_trim) = (0.5, 1.0, 0.8);
+    for field in &f.fields {
+        let e = field.value;
+        push((|| {
+            match field.name {
+                "speed" => {
+                    let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
+                    if v <= 0.0 {
+                        return Err(Diagnostic::error("out-of-range", "the speed must be greater than zero", Some(e.span)));
+                    }
+                    p.rated_speed = Frequency::new::<hertz>(v);
+                }
+                "arrangement" => {
+                    p.arrangement = match eval::expect_word(e, env, "arrangement", &["single", "parallel", "series"])?.as_str() {
+                        "parallel" => ArrangementKind::Parallel,
+                        "series" => ArrangementKind::Series,
+                        _ => ArrangementKind::Single,
+                    }
+                }
+                "count" | "standby" => {
+                    let v = expect_number(e, env, field.name)?;
+                    let lo = if field.name == "count" { 1.0 } else { 0.0 };
+                    if v.fract() != 0.0 || v < lo || v > 12.0 {
+                        return Err(Diagnostic::error("out-of-range", format!("`{}` is a whole number from {lo} to 12", field.name), Some(e.span)));
+                    }
+                    if field.name == "count" {
+                        p.count = v as u32
+                    } else {
+                        p.standby = v as u32
+                    }
+                }
+                "impeller" => {
+                    let v = expect_dim(e, env, Dimension::LENGTH, "impeller diameter")?.si;
+                    if v <= 0.0 {
+                        return Err(Diagnostic::error("out-of-range", "the impeller diameter must be greater than zero", Some(e.span)));
+                    }
+                    p.impeller = Some(Length::new::<meter>(v));
+                }
+                "adjust" => adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?,
+                "min_speed" | "max_speed" | "min_trim" => {
+                    let v = expect_number(e, env, field.name)?;
+                    let hi = if field.name == "max_speed" { 1.2 } else { 1.0 };
+                    if !(v > 0.0 && v <= hi) {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("`{}` is a fraction of the rated value, above 0 and at most {:.0} %", field.name, hi * 100.0),
+                            Some(e.span),
+                        )
+                        .with_help("write it as a percentage, e.g. `min_speed = 60 %`"));
+                    }
+                    match field.name {
+                        "min_speed" => min_speed = v,
+                        "max_speed" => max_speed = v,
+                        _ => min_trim = v,
+                    }
+                }
+                _ => {}
+            }
+            Ok(())
+        })());
+    }
+    if p.arrangement == ArrangementKind::Single && p.count > 1 {
+        if let Some(c) = f.get("count") {
+            diags.push(Diagnostic::error("conflicting-fields", "a single pump has a count of 1", Some(c.value.span))
+                .with_help("set `arrangement = parallel` or `arrangement = series` for several running pumps"));
+        }
+    }
+    p.adjust = match adjust_word.as_str() {
+        "speed" => Adjust::Speed { min_ratio: min_speed, max_ratio: max_speed },
+        "trim" => Adjust::Trim { min_ratio: min_trim },
+        _ => Adjust::None,
+    };
+    if f.get("speed").is_none() {
+        diags.push(missing("speed", &format!("pump {name}"), span, "speed = 1780 rpm"));
+    }
+    for st in &f.rest {
+        match &st.kind {
+            StatementKind::Curve { args, table, .. } => {
+                if p.curves.len() >= MAX_CURVES {
+                    diags.push(Diagnostic::error("too-many", format!("a pump may have at most {MAX_CURVES} curves"), Some(st.span)));
+                    continue;
+                }
+                if let Some(c) = lower_curve(args, table.as_ref(), st.span, p.rated_speed, env, files, diags) {
+                    p.curves.push(c);
+                }
+            }
+            _ => diags.push(
+                Diagnostic::error("unexpected", "a pump holds fields and `curve` tables", Some(st.span))
+                    .with_help("see grammar/LANGUAGE.md, section \"pump\""),
+            ),
+        }
+    }
+    if p.curves.is_empty() {
+        diags.push(missing("curve", &format!("pump {name}"), span, "curve impeller 10 in { ... }"));
+    }
+    Some(p)
+}
+
+/// Lower `curve [impeller D] [speed N] [from "file.csv"] [{ table }]`.
+fn lower_curve(
+    args: &[Arg],
+    table: Option<&Table>,
+    span: Span,
+    rated: Frequency,
+    env: &Env,
+    files: &dyn FileAccess,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<CurveData> {
+    let mut impeller = None;
+    let mut speed = rated;
+    let mut csv: Option<(String, Span)> = None;
+    let mut i = 0;
+    while i < args.len() {
+        let (Arg { kind: ArgKind::Word(w), span: ws }, next) = (&args[i], args.get(i + 1)) else {
+            diags.push(Diagnostic::error("bad-curve", "expected `impeller`, `speed` or `from`", Some(args[i].span)));
+            return None;
+        };
+        let q = |dim: Dimension, what: &str, diags: &mut Vec<Diagnostic>| -> Option<f64> {
+            match next.map(|a| &a.kind) {
+                Some(ArgKind::Quantity { value, unit }) => match eval::quantity_literal(value, unit) {
+                    Ok(q) if q.dim == dim && q.si > 0.0 => Some(q.si),
+                    Ok(q) => {
+                        diags.push(Diagnostic::error("unit-mismatch", format!("{what}: expected {} greater than zero, found {}", dim.describe(), q.dim.describe()), next.map(|a| a.span)));
+                        None
+                    }
+                    Err(d) => {
+                        diags.push(d);
+                        None
+                    }
+                },
+                _ => {
+                    diags.push(Diagnostic::error("bad-curve", format!("`{w}` needs {} after it", dim.describe()), Some(*ws)));
+                    None
+                }
+            }
+        };
+        match w.as_str() {
+            "impeller" => impeller = Some(Length::new::<meter>(q(Dimension::LENGTH, "impeller diameter", diags)?)),
+            "speed" => speed = Frequency::new::<hertz>(q(Dimension::FREQUENCY, "curve speed", diags)?),
+            "from" => match next.map(|a| &a.kind) {
+                Some(ArgKind::Text(t)) => csv = Some((t.clone(), next.map(|a| a.span).unwrap_or(*ws))),
+                _ => {
+                    diags.push(Diagnostic::error("bad-curve", "`from` needs a quoted file name", Some(*ws)));
+                    return None;
+                }
+            },
+            _ => {
+                diags.push(Diagnostic::error("bad-curve", format!("a curve has no `{w}`"), Some(*ws)).with_help("write `curve impeller 12.5 in { ... }`, `curve speed 1480 rpm { ... }` or `curve impeller 12.5 in from \"curve.csv\"`"));
+                return None;
+            }
+        }
+        i += 2;
+    }
+    let owned;
+    let table = match (table, csv) {
+        (Some(_), Some((_, s))) => {
+            diags.push(Diagnostic::error("conflicting-fields", "a curve takes its table inline or from a file, not both", Some(s)));
+            return None;
+        }
+        (Some(t), None) => t,
+        (None, Some((path, s))) => match files.read_text(&path) {
+            Ok(text) => match csv_table(&text, s) {
+                Ok(t) => {
+                    owned = t;
+                    &owned
+                }
+                Err(msg) => {
+                    diags.push(Diagnostic::error("bad-csv", format!("{path}: {msg}"), Some(s)).with_help("the first line names the columns with units, e.g. `flow gpm, head ft, efficiency %`; then one row of numbers per line"));
+                    return None;
+                }
+            },
+            Err(msg) => {
+                diags.push(Diagnostic::error("file-not-read", format!("cannot read `{path}`: {msg}"), Some(s)).with_help("the path is relative to the design file"));
+                return None;
+            }
+        },
+        (None, None) => {
+            diags.push(Diagnostic::error("bad-curve", "the curve has no table", Some(span)).with_help("give the table in braces, or `from \"file.csv\"`"));
+            return None;
+        }
+    };
+    lower_table(table, impeller, speed, env, diags)
+}
+
+/// A CSV curve table turned into the same table form as an inline one. Spans
+/// point at the `from "..."` text; messages carry the CSV line number.
+fn csv_table(text: &str, at: Span) -> Result<Table, String> {
+    let mut lines = text.lines().enumerate().filter(|(_, l)| !l.trim().is_empty() && !l.trim_start().starts_with('#'));
+    let (_, head) = lines.next().ok_or("the file is empty")?;
+    let mut columns = Vec::new();
+    for h in head.split(',') {
+        let mut it = h.split_whitespace();
+        let (Some(n), Some(u), None) = (it.next(), it.next(), it.next()) else {
+            return Err(format!("header cell `{}` is not a column name and a unit", h.trim()));
+        };
+        columns.push(Column { name: Ident { name: n.into(), span: at }, unit: UnitText { text: u.into(), span: at }, span: at });
+    }
+    let mut rows = Vec::new();
+    for (no, line) in lines {
+        let mut cells = Vec::new();
+        for c in line.split(',') {
+            let c = c.trim();
+            let value = if c == "-" || c.is_empty() {
+                None
+            } else {
+                let v: f64 = c.parse().map_err(|_| format!("line {}: `{c}` is not a number", no + 1))?;
+                if !v.is_finite() {
+                    return Err(format!("line {}: `{c}` is not a finite number", no + 1));
+                }
+                Some(Number { text: c.into(), value: v })
+            };
+            cells.push(Cell { value, span: at });
+        }
+        rows.push(Row { cells, span: at });
+    }
+    Ok(Table { columns, rows, span: at })
+}
+
+fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env, diags: &mut Vec<Diagnostic>) -> Option<CurveData> {
+    let before = diags.len();
+    let mut units = Vec::new();
+    for c in &t.columns {
+        let Some((_, dim)) = COLUMNS.iter().find(|(n, _)| *n == c.name.name) else {
+            diags.push(Diagnostic::error("unknown-column", format!("a curve table has no column `{}`", c.name.name), Some(c.name.span))
+                .with_help("columns are `flow`, `head`, `efficiency`, `npshr` and `power`, each with its unit"));
+            continue;
+        };
+        match eval::unit(&c.unit) {
+            Ok(u) if u.dim == *dim => units.push((c.name.name.as_str(), u)),
+            Ok(u) => diags.push(
+                Diagnostic::error("unit-mismatch", format!("column `{}`: expected {}, found {} ({})", c.name.name, dim.describe(), u.dim.describe(), c.unit.text), Some(c.unit.span))
+                    .with_label(format!("expected {}", dim.describe()))
+                    .with_help(eval::example_units(*dim)),
+            ),
+            Err(d) => diags.push(d),
+        }
+    }
+    for need in ["flow", "head"] {
+        if !t.columns.iter().any(|c| c.name.name == need) {
+            diags.push(Diagnostic::error("missing-column", format!("the curve table needs a `{need}` column"), Some(t.span)));
+        }
+    }
+    if diags.len() > before {
+        return None;
+    }
+    if t.rows.len() > MAX_CURVE_POINTS {
+        diags.push(Diagnostic::error("too-many", format!("a curve may have at most {MAX_CURVE_POINTS} points; this one has {}", t.rows.len()), Some(t.span)));
+        return None;
+    }
+    if t.rows.len() < 3 {
+        diags.push(Diagnostic::error("too-few-points", "a curve needs at least 3 points", Some(t.span)).with_help("give points from shut-off to beyond the expected duty"));
+        return None;
+    }
+    let mut c = CurveData { impeller, speed, flow: vec![], head: vec![], efficiency: vec![], npshr: vec![], shaft_power: vec![], span: t.span };
+    for row in &t.rows {
+        if row.cells.len() != units.len() {
+            diags.push(Diagnostic::error("bad-row", format!("this row has {} values; the table has {} columns", row.cells.len(), units.len()), Some(row.span)));
+            continue;
+        }
+        let mut eff = None;
+        let mut npsh = None;
+        let mut pow = None;
+        let mut flow = None;
+        let mut head = None;
+        for ((name, u), cell) in units.iter().zip(&row.cells) {
+            let Some(v) = &cell.value else {
+                if matches!(*name, "flow" | "head") {
+                    diags.push(Diagnostic::error("bad-row", format!("every point needs a {name}"), Some(cell.span)));
+                }
+                continue;
+            };
+            let si = crate::units::Quantity::from_value(v.value, u).si;
+            if !si.is_finite() || si < 0.0 {
+                diags.push(Diagnostic::error("out-of-range", format!("{name} must not be negative"), Some(cell.span)));
+                continue;
+            }
+            match *name {
+                "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),
+                "head" => head = Some(Length::new::<meter>(si)),
+                "efficiency" => {
+                    if si > 1.0 {
+                        diags.push(Diagnostic::error("out-of-range", "an efficiency cannot exceed 100 %", Some(cell.span)).with_help("is the column's unit `%`?"));
+                    }
+                    eff = Some(Ratio::new::<ratio>(si))
+                }
+                "npshr" => npsh = Some(Length::new::<meter>(si)),
+                _ => pow = Some(Power::new::<watt>(si)),
+            }
+        }
+        if let (Some(q), Some(h)) = (flow, head) {
+            if let Some(prev) = c.flow.last() {
+                if q <= *prev {
+                    diags.push(Diagnostic::error("bad-row", "flows must increase down the table", Some(row.span)));
+                }
+            }
+            c.flow.push(q);
+            c.head.push(h);
+            c.efficiency.push(eff);
+            c.npshr.push(npsh);
+            c.shaft_power.push(pow);
+        }
+    }
+    if diags.len() > before {
+        return None;
+    }
+    Some(c)
+}

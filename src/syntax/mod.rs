@@ -1,0 +1,7 @@
+//! Syntax: source text to a spanned tree, and the tree back to canonical text.
+
+pub mod ast;
+pub mod parse;
+
+pub use ast::File;
+pub use parse::{parse, source_from_bytes, MAX_NESTING, MAX_SOURCE_BYTES};

@@ -1,0 +1,296 @@
+//! The unit registry: every accepted unit name with its SI factor, offset, dimension
+//! and the source of its factor.
+
+use super::dimension::Dimension as D;
+use super::unit::PressureReference;
+
+/// One unit name of the registry. `SI value = value * factor + offset`.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct UnitDef {
+    /// The name as it is written in a design file.
+    pub name: &'static str,
+    /// Multiplier to the coherent SI unit of `dim`.
+    pub factor: f64,
+    /// Added after the factor; non-zero only for the Celsius and Fahrenheit scales.
+    pub offset: f64,
+    /// The dimension of the unit.
+    pub dim: D,
+    /// Where the factor comes from.
+    pub source: &'static str,
+    /// What the unit is, in words.
+    pub note: &'static str,
+}
+
+/// Standard acceleration of gravity g_n = 9.80665 m/s² (exact), NIST SP 811 (2008) B.8
+/// footnote to "kilogram-force" and 3rd CGPM (1901).
+const G_N: f64 = 9.80665;
+/// NIST SP 811 (2008) B.8: foot = 3.048 E-01 m (exact).
+const FT: f64 = 0.3048;
+/// NIST SP 811 (2008) B.8: inch = 2.54 E-02 m (exact).
+const IN: f64 = 0.0254;
+/// NIST SP 811 (2008) B.8: pound (avoirdupois) = 4.535 924 E-01 kg; exactly 0.453 592 37 kg.
+const LB: f64 = 0.453_592_37;
+/// Pound-force = 1 lb × g_n = 4.448 221 615 260 5 N; NIST SP 811 (2008) B.8: 4.448 222 E+00 N.
+const LBF: f64 = LB * G_N;
+/// US gallon = 231 in³ = 3.785 411 784 E-03 m³ (exact); NIST SP 811 (2008) B.8: 3.785 412 E-03.
+const GAL: f64 = 3.785_411_784e-3;
+/// Conventional density of mercury 13 595.1 kg/m³ (0 °C) used for "conventional" mercury
+/// column units; NIST SP 811 (2008) B.8 gives inHg (conventional) = 3.386 389 E+03 Pa.
+const HG_DENSITY: f64 = 13_595.1;
+const MIN: f64 = 60.0;
+const HOUR: f64 = 3600.0;
+const DAY: f64 = 86_400.0;
+
+const fn def(
+    name: &'static str,
+    factor: f64,
+    dim: D,
+    source: &'static str,
+    note: &'static str,
+) -> UnitDef {
+    UnitDef {
+        name,
+        factor,
+        offset: 0.0,
+        dim,
+        source,
+        note,
+    }
+}
+
+const SI: &str = "SI unit or decimal multiple (BIPM SI Brochure, 9th ed., 2019)";
+const B8: &str = "NIST SP 811 (2008) Appendix B.8";
+const DEF: &str = "definition";
+const C_OFFSET: f64 = 273.15;
+const F_OFFSET: f64 = 459.67 * 5.0 / 9.0;
+
+static REGISTRY: &[UnitDef] = &[
+    // Length (head is a length too: write m or ft).
+    def("m", 1.0, D::LENGTH, SI, "metre"),
+    def("mm", 1e-3, D::LENGTH, SI, "millimetre"),
+    def("cm", 1e-2, D::LENGTH, SI, "centimetre"),
+    def("km", 1e3, D::LENGTH, SI, "kilometre"),
+    def("in", IN, D::LENGTH, B8, "inch = 0.0254 m exactly"),
+    def("ft", FT, D::LENGTH, B8, "foot = 0.3048 m exactly"),
+    def("yd", 3.0 * FT, D::LENGTH, B8, "yard = 0.9144 m exactly"),
+    def("mi", 5280.0 * FT, D::LENGTH, B8, "mile (international) = 1609.344 m exactly"),
+    // Volume.
+    def("L", 1e-3, D::VOLUME, B8, "litre = 1e-3 m^3 exactly"),
+    def("mL", 1e-6, D::VOLUME, B8, "millilitre"),
+    def("gal", GAL, D::VOLUME, B8, "US liquid gallon = 231 in^3 = 3.785411784 L exactly"),
+    // Volume flow.
+    def("gpm", GAL / MIN, D::VOLUME_RATE, B8, "US gallon per minute (gal and min exact)"),
+    def("MGD", 1e6 * GAL / DAY, D::VOLUME_RATE, B8, "million US gallons per day"),
+    def("cfs", FT * FT * FT, D::VOLUME_RATE, B8, "cubic foot per second"),
+    // Mass.
+    def("kg", 1.0, D::MASS, SI, "kilogram"),
+    def("g", 1e-3, D::MASS, SI, "gram"),
+    def("t", 1e3, D::MASS, B8, "tonne (metric ton) = 1000 kg"),
+    def("lb", LB, D::MASS, B8, "pound mass (avoirdupois) = 0.45359237 kg exactly"),
+    def("lbm", LB, D::MASS, B8, "pound mass, same as lb"),
+    // Time.
+    def("s", 1.0, D::TIME, SI, "second"),
+    def("min", MIN, D::TIME, B8, "minute = 60 s"),
+    def("h", HOUR, D::TIME, B8, "hour = 3600 s"),
+    def("hr", HOUR, D::TIME, B8, "hour, same as h"),
+    def("day", DAY, D::TIME, B8, "day = 86 400 s"),
+    def("week", 7.0 * DAY, D::TIME, DEF, "week = 7 days"),
+    def("year", 365.0 * DAY, D::TIME, B8, "year of 365 days = 3.1536e7 s"),
+    def("yr", 365.0 * DAY, D::TIME, B8, "year of 365 days, same as year"),
+    // Frequency and rotational speed (a revolution counts as one cycle).
+    def("Hz", 1.0, D::FREQUENCY, SI, "hertz = 1/s"),
+    def("rpm", 1.0 / MIN, D::FREQUENCY, DEF, "revolution per minute = 1/60 s^-1"),
+    def("rps", 1.0, D::FREQUENCY, DEF, "revolution per second = 1 s^-1"),
+    // Temperature scales (points when standing alone) and differences.
+    def("K", 1.0, D::TEMPERATURE, SI, "kelvin"),
+    celsius("degC"),
+    celsius("°C"),
+    fahrenheit("degF"),
+    fahrenheit("°F"),
+    def("degR", 5.0 / 9.0, D::TEMPERATURE, B8, "degree Rankine = 5/9 K exactly"),
+    def("delta_K", 1.0, D::TEMPERATURE, SI, "temperature difference in kelvin"),
+    def("delta_degC", 1.0, D::TEMPERATURE, SI, "temperature difference, 1 degC = 1 K"),
+    def("delta_degF", 5.0 / 9.0, D::TEMPERATURE, B8, "temperature difference, 1 degF = 5/9 K"),
+    def("delta_degR", 5.0 / 9.0, D::TEMPERATURE, B8, "temperature difference, 1 degR = 5/9 K"),
+    // Force.
+    def("N", 1.0, D::FORCE, SI, "newton"),
+    def("kN", 1e3, D::FORCE, SI, "kilonewton"),
+    def("lbf", LBF, D::FORCE, B8, "pound-force = lb × 9.80665 m/s^2 (4.448222 N)"),
+    // Pressure.
+    def("Pa", 1.0, D::PRESSURE, SI, "pascal, reference not stated"),
+    def("kPa", 1e3, D::PRESSURE, SI, "kilopascal, reference not stated"),
+    def("MPa", 1e6, D::PRESSURE, SI, "megapascal, reference not stated"),
+    def("bar", 1e5, D::PRESSURE, B8, "bar = 1e5 Pa, reference not stated"),
+    def("psi", LBF / (IN * IN), D::PRESSURE, B8, "lbf/in^2 (6894.757 Pa), reference not stated"),
+    def("atm", 101_325.0, D::PRESSURE, B8, "standard atmosphere = 101 325 Pa exactly"),
+    def("in_Hg", IN * HG_DENSITY * G_N, D::PRESSURE, B8, "inch of mercury, conventional"),
+    def("inHg", IN * HG_DENSITY * G_N, D::PRESSURE, B8, "inch of mercury, same as in_Hg"),
+    def("mmHg", 1e-3 * HG_DENSITY * G_N, D::PRESSURE, B8, "millimetre of mercury, conventional"),
+    def("Pa(g)", 1.0, D::PRESSURE, SI, "pascal, gauge"),
+    def("Pa(a)", 1.0, D::PRESSURE, SI, "pascal, absolute"),
+    def("kPa(g)", 1e3, D::PRESSURE, SI, "kilopascal, gauge"),
+    def("kPa(a)", 1e3, D::PRESSURE, SI, "kilopascal, absolute"),
+    def("MPa(g)", 1e6, D::PRESSURE, SI, "megapascal, gauge"),
+    def("MPa(a)", 1e6, D::PRESSURE, SI, "megapascal, absolute"),
+    def("bar(g)", 1e5, D::PRESSURE, B8, "bar, gauge"),
+    def("bar(a)", 1e5, D::PRESSURE, B8, "bar, absolute"),
+    def("barg", 1e5, D::PRESSURE, B8, "bar, gauge, same as bar(g)"),
+    def("bara", 1e5, D::PRESSURE, B8, "bar, absolute, same as bar(a)"),
+    def("psig", LBF / (IN * IN), D::PRESSURE, B8, "pound-force per square inch, gauge"),
+    def("psia", LBF / (IN * IN), D::PRESSURE, B8, "pound-force per square inch, absolute"),
+    // Power.
+    def("W", 1.0, D::POWER, SI, "watt"),
+    def("kW", 1e3, D::POWER, SI, "kilowatt"),
+    def("MW", 1e6, D::POWER, SI, "megawatt"),
+    def("hp", 550.0 * FT * LBF, D::POWER, B8, "horsepower, 550 ft·lbf/s (745.6999 W)"),
+    // Energy.
+    def("J", 1.0, D::ENERGY, SI, "joule"),
+    def("kJ", 1e3, D::ENERGY, SI, "kilojoule"),
+    def("MJ", 1e6, D::ENERGY, SI, "megajoule"),
+    def("Wh", HOUR, D::ENERGY, B8, "watt hour = 3600 J"),
+    def("kWh", 1e3 * HOUR, D::ENERGY, B8, "kilowatt hour = 3.6e6 J"),
+    def("MWh", 1e6 * HOUR, D::ENERGY, B8, "megawatt hour = 3.6e9 J"),
+    def("Btu", 1_055.055_852_62, D::ENERGY, B8, "British thermal unit (IT), 1055.056 J"),
+    // Viscosity.
+    def("P", 0.1, D::DYNAMIC_VISCOSITY, B8, "poise = 0.1 Pa·s"),
+    def("cP", 1e-3, D::DYNAMIC_VISCOSITY, B8, "centipoise = 1e-3 Pa·s"),
+    def("St", 1e-4, D::KINEMATIC_VISCOSITY, B8, "stokes = 1e-4 m^2/s"),
+    def("cSt", 1e-6, D::KINEMATIC_VISCOSITY, B8, "centistokes = 1e-6 m^2/s"),
+    // Money: one dimension, no exchange rates.
+    def("USD", 1.0, D::MONEY, DEF, "US dollar"),
+    def("EUR", 1.0, D::MONEY, DEF, "euro"),
+    def("GBP", 1.0, D::MONEY, DEF, "pound sterling"),
+    def("CAD", 1.0, D::MONEY, DEF, "Canadian dollar"),
+    def("AUD", 1.0, D::MONEY, DEF, "Australian dollar"),
+    def("cu", 1.0, D::MONEY, DEF, "currency unit, currency-neutral"),
+    // Dimensionless.
+    def("%", 0.01, D::NONE, DEF, "percent = 0.01"),
+    def("deg", std::f64::consts::PI / 180.0, D::NONE, B8, "degree of angle = pi/180 rad"),
+    def("rad", 1.0, D::NONE, SI, "radian (angles are dimensionless)"),
+];
+
+const fn celsius(name: &'static str) -> UnitDef {
+    UnitDef {
+        offset: C_OFFSET,
+        ..def(name, 1.0, D::TEMPERATURE, B8, "degree Celsius: K = degC + 273.15")
+    }
+}
+
+const fn fahrenheit(name: &'static str) -> UnitDef {
+    UnitDef {
+        offset: F_OFFSET,
+        ..def(name, 5.0 / 9.0, D::TEMPERATURE, B8, "degree Fahrenheit: K = (degF + 459.67)/1.8")
+    }
+}
+
+/// All unit names in the registry with their dimension and factor, for documentation and
+/// suggestions. Compound units (`m^3/h`, `kg/m^3`, `Pa*s`) are built by [`super::parse_unit`].
+pub fn registry() -> &'static [UnitDef] {
+    REGISTRY
+}
+
+/// The registry entry of one unit name (case-sensitive), if any.
+pub fn lookup(name: &str) -> Option<&'static UnitDef> {
+    REGISTRY.iter().find(|d| d.name == name)
+}
+
+/// Whether a registry unit is a temperature scale: a temperature point when it stands alone.
+pub(crate) fn is_temperature_scale(def: &UnitDef) -> bool {
+    def.dim == D::TEMPERATURE && !def.name.starts_with("delta_")
+}
+
+/// The pressure reference a registry unit states, if any.
+pub(crate) fn pressure_reference(def: &UnitDef) -> Option<PressureReference> {
+    let n = def.name;
+    if n.ends_with("(g)") || n == "psig" || n == "barg" {
+        Some(PressureReference::Gauge)
+    } else if n.ends_with("(a)") || n == "psia" || n == "bara" {
+        Some(PressureReference::Absolute)
+    } else {
+        None
+    }
+}
+
+/// Whether a registry unit is a currency code.
+pub(crate) fn is_currency(def: &UnitDef) -> bool {
+    def.dim == D::MONEY
+}
+
+/// Nearest known unit names to an unknown one (edit distance, case-insensitive), best first,
+/// at most 3. Names farther than 2 edits (1 for names of up to 2 characters) are not offered.
+pub fn suggest(name: &str) -> Vec<String> {
+    let wanted: Vec<char> = name.to_lowercase().chars().collect();
+    let limit = if wanted.len() <= 2 { 1 } else { 2 };
+    let mut scored: Vec<(usize, usize, &str)> = REGISTRY
+        .iter()
+        .filter_map(|d| {
+            let cand: Vec<char> = d.name.to_lowercase().chars().collect();
+            let dist = edit_distance(&wanted, &cand);
+            let length_gap = cand.len().abs_diff(wanted.len());
+            (dist <= limit && d.name != name).then_some((dist, length_gap, d.name))
+        })
+        .collect();
+    scored.sort_by_key(|&(dist, gap, _)| (dist, gap));
+    scored.into_iter().take(3).map(|s| s.2.to_string()).collect()
+}
+
+/// Optimal string alignment distance (Levenshtein plus adjacent transpositions).
+fn edit_distance(a: &[char], b: &[char]) -> usize {
+    let mut rows = vec![vec![0usize; b.len() + 1]; a.len() + 1];
+    for (i, row) in rows.iter_mut().enumerate() {
+        row[0] = i;
+    }
+    for (j, cell) in rows[0].iter_mut().enumerate() {
+        *cell = j;
+    }
+    for i in 1..=a.len() {
+        for j in 1..=b.len() {
+            let cost = usize::from(a[i - 1] != b[j - 1]);
+            let mut best = (rows[i - 1][j] + 1)
+                .min(rows[i][j - 1] + 1)
+                .min(rows[i - 1][j - 1] + cost);
+            if i > 1 && j > 1 && a[i - 1] == b[j - 2] && a[i - 2] == b[j - 1] {
+                best = best.min(rows[i - 2][j - 2] + 1);
+            }
+            rows[i][j] = best;
+        }
+    }
+    rows[a.len()][b.len()]
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn names_are_unique_and_factors_positive_and_finite() {
+        for (i, d) in REGISTRY.iter().enumerate() {
+            assert!(d.factor.is_finite() && d.factor > 0.0, "{}", d.name);
+            assert!(d.offset == 0.0 || is_temperature_scale(d), "{}", d.name);
+            assert!(!d.source.is_empty() && !d.note.is_empty(), "{}", d.name);
+            assert!(REGISTRY[i + 1..].iter().all(|o| o.name != d.name), "{}", d.name);
+        }
+    }
+
+    #[test]
+    fn suggestions_rank_transpositions_and_case_first() {
+        assert_eq!(suggest("gmp").first().map(String::as_str), Some("gpm"));
+        assert_eq!(suggest("KPA").first().map(String::as_str), Some("kPa"));
+        assert_eq!(suggest("degc").first().map(String::as_str), Some("degC"));
+        assert!(suggest("gpm").iter().all(|s| s != "gpm"));
+        assert!(suggest("zzzzzzzz").is_empty());
+        assert!(suggest("").len() <= 3);
+    }
+
+    #[test]
+    fn edit_distance_counts_edits() {
+        let d = |a: &str, b: &str| {
+            let (a, b): (Vec<char>, Vec<char>) = (a.chars().collect(), b.chars().collect());
+            edit_distance(&a, &b)
+        };
+        assert_eq!(d("gmp", "gpm"), 1);
+        assert_eq!(d("kitten", "sitting"), 3);
+        assert_eq!(d("", "abc"), 3);
+        assert_eq!(d("psi", "psi"), 0);
+    }
+}
