@@ -114,7 +114,12 @@ pub fn render(diagnostics: &[Diagnostic], file_name: &str, source: &str) -> Stri
         let cs = to_codespan(d, source.len());
         if term::emit_to_string(&mut out, &config, &file, &cs).is_err() {
             // Fall back to a plain line so nothing is lost.
-            out.push_str(&format!("{}[{}]: {}\n", severity_word(d.severity), d.code, d.message));
+            out.push_str(&format!(
+                "{}[{}]: {}\n",
+                severity_word(d.severity),
+                d.code,
+                d.message
+            ));
         }
     }
     out
@@ -140,7 +145,9 @@ fn to_codespan(d: &Diagnostic, len: usize) -> CsDiagnostic<()> {
     };
     let mut labels = Vec::new();
     if let Some(span) = d.span {
-        labels.push(Label::primary((), clamp(span, len)).with_message(d.label.clone().unwrap_or_default()));
+        labels.push(
+            Label::primary((), clamp(span, len)).with_message(d.label.clone().unwrap_or_default()),
+        );
     }
     for (span, text) in &d.secondary {
         labels.push(Label::secondary((), clamp(*span, len)).with_message(text.clone()));

@@ -4,10 +4,13 @@
 //! The pipeline runs one way: [`syntax`] → [`model`] → engine
 //! ([`fluid`], [`hydraulics`], [`pumps`], [`analysis`]) → outputs.
 
+pub mod analysis;
 pub mod diagnostics;
+pub mod fluid;
 pub mod hydraulics;
 pub mod model;
 pub mod names;
+pub mod pumps;
 pub mod syntax;
 pub mod units;
 
@@ -34,8 +37,14 @@ pub fn check(source: &str, files: &dyn FileAccess) -> Checked {
     match syntax::parse(source) {
         Ok(file) => {
             let (design, diagnostics) = model::lower(&file, source, files);
-            Checked { design, diagnostics }
+            Checked {
+                design,
+                diagnostics,
+            }
         }
-        Err(diagnostics) => Checked { design: None, diagnostics },
+        Err(diagnostics) => Checked {
+            design: None,
+            diagnostics,
+        },
     }
 }

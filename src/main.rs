@@ -8,7 +8,11 @@ use clap::{Parser, Subcommand};
 use dutyline::diagnostics::{self, Diagnostic};
 
 #[derive(Parser)]
-#[command(name = "dutyline", version, about = "Pump and system-curve calculation packages from a unit-checked design file")]
+#[command(
+    name = "dutyline",
+    version,
+    about = "Pump and system-curve calculation packages from a unit-checked design file"
+)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -17,7 +21,9 @@ struct Cli {
 #[derive(Subcommand)]
 enum Command {
     /// Check a design file: syntax, units, names, cases.
-    #[command(after_help = "Example:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n\nExit status: 0 valid, 1 design errors (or warnings with --deny-warnings), 2 usage or I/O errors.")]
+    #[command(
+        after_help = "Example:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n\nExit status: 0 valid, 1 design errors (or warnings with --deny-warnings), 2 usage or I/O errors."
+    )]
     Check {
         /// The design file (*.duty).
         file: PathBuf,
@@ -37,7 +43,10 @@ impl dutyline::FileAccess for DiskFiles {
         let p = self.base.join(path);
         let bytes = std::fs::read(&p).map_err(|e| e.to_string())?;
         if bytes.len() > dutyline::syntax::MAX_SOURCE_BYTES {
-            return Err(format!("the file is larger than {} bytes", dutyline::syntax::MAX_SOURCE_BYTES));
+            return Err(format!(
+                "the file is larger than {} bytes",
+                dutyline::syntax::MAX_SOURCE_BYTES
+            ));
         }
         String::from_utf8(bytes).map_err(|_| "the file is not UTF-8 text".to_string())
     }
@@ -48,11 +57,18 @@ fn main() -> ExitCode {
         Ok(c) => c,
         Err(e) => {
             let _ = e.print();
-            return if e.use_stderr() { ExitCode::from(2) } else { ExitCode::SUCCESS };
+            return if e.use_stderr() {
+                ExitCode::from(2)
+            } else {
+                ExitCode::SUCCESS
+            };
         }
     };
     match cli.command {
-        Command::Check { file, deny_warnings } => check(&file, deny_warnings),
+        Command::Check {
+            file,
+            deny_warnings,
+        } => check(&file, deny_warnings),
     }
 }
 
@@ -70,12 +86,17 @@ fn read_source(path: &Path) -> Result<String, ExitCode> {
 }
 
 fn files_for(path: &Path) -> DiskFiles {
-    DiskFiles { base: path.parent().map(Path::to_path_buf).unwrap_or_default() }
+    DiskFiles {
+        base: path.parent().map(Path::to_path_buf).unwrap_or_default(),
+    }
 }
 
 fn report(diags: &[Diagnostic], path: &Path, source: &str) {
     if !diags.is_empty() {
-        eprint!("{}", diagnostics::render(diags, &path.display().to_string(), source));
+        eprint!(
+            "{}",
+            diagnostics::render(diags, &path.display().to_string(), source)
+        );
     }
 }
 
@@ -89,7 +110,10 @@ fn check(path: &Path, deny_warnings: bool) -> ExitCode {
     let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
     let warnings = checked.diagnostics.len() - errors;
     if errors > 0 || (deny_warnings && warnings > 0) {
-        eprintln!("{}: {errors} error(s), {warnings} warning(s)", path.display());
+        eprintln!(
+            "{}: {errors} error(s), {warnings} warning(s)",
+            path.display()
+        );
         ExitCode::from(1)
     } else {
         println!("{}: valid ({warnings} warning(s))", path.display());

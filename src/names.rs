@@ -31,7 +31,8 @@ where
             let d = edit_distance(name, c);
             let limit = (name.chars().count().max(c.chars().count()) / 3).max(2);
             let cl = c.to_lowercase();
-            let contains = !lower.is_empty() && (cl.contains(&lower) || lower.contains(&cl)) && cl.len() > 1;
+            let contains =
+                !lower.is_empty() && (cl.contains(&lower) || lower.contains(&cl)) && cl.len() > 1;
             (d <= limit || contains).then(|| (d, c.to_string()))
         })
         .collect();

@@ -3,7 +3,10 @@
 //! Physical values are `uom` quantities (SI inside). Money is not a `uom`
 //! dimension, so prices are plain `f64` in currency units per joule.
 
-use uom::si::f64::{DynamicViscosity, Frequency, Length, MassDensity, Pressure, Ratio, ThermodynamicTemperature, Time, VolumeRate};
+use uom::si::f64::{
+    DynamicViscosity, Frequency, Length, MassDensity, Pressure, Ratio, ThermodynamicTemperature,
+    Time, VolumeRate,
+};
 
 use crate::diagnostics::Span;
 use crate::hydraulics::catalogue::Material;
@@ -83,7 +86,9 @@ pub struct Scenario {
 
 #[derive(Clone, Debug)]
 pub enum Fluid {
-    Water { temperature: ThermodynamicTemperature },
+    Water {
+        temperature: ThermodynamicTemperature,
+    },
     Custom(CustomFluid),
 }
 
@@ -240,7 +245,11 @@ impl Metric {
         ("shaft_power", Metric::ShaftPower),
     ];
     pub fn keyword(self) -> &'static str {
-        Metric::ALL.iter().find(|(_, m)| *m == self).map(|(k, _)| *k).unwrap_or("?")
+        Metric::ALL
+            .iter()
+            .find(|(_, m)| *m == self)
+            .map(|(k, _)| *k)
+            .unwrap_or("?")
     }
 }
 
@@ -287,9 +296,14 @@ pub struct PumpCandidate {
 pub enum Adjust {
     None,
     /// Variable-speed drive, within these fractions of the rated speed.
-    Speed { min_ratio: f64, max_ratio: f64 },
+    Speed {
+        min_ratio: f64,
+        max_ratio: f64,
+    },
     /// Impeller trim down to this fraction of the published diameter.
-    Trim { min_ratio: f64 },
+    Trim {
+        min_ratio: f64,
+    },
 }
 
 /// One published curve table, in SI.

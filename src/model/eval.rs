@@ -47,8 +47,12 @@ pub fn unit(text: &UnitText) -> Result<units::Unit, Diagnostic> {
     units::parse_unit(&text.text).map_err(|e| {
         let start = text.span.start + e.offset.min(text.text.len());
         let end = (start + e.len.max(1)).min(text.span.end.max(start + 1));
-        let mut d = Diagnostic::error("unknown-unit", e.message.clone(), Some(Span::new(start, end)))
-            .with_label("not a known unit");
+        let mut d = Diagnostic::error(
+            "unknown-unit",
+            e.message.clone(),
+            Some(Span::new(start, end)),
+        )
+        .with_label("not a known unit");
         d = if e.suggestions.is_empty() {
             d.with_help("see grammar/LANGUAGE.md for the accepted units")
         } else {
@@ -94,9 +98,13 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
             match env.constants.get(&name) {
                 Some((v, _)) => Ok(v.clone()),
                 None if path.parts.len() == 1 => Ok(Value::Word(name)),
-                None => Err(Diagnostic::error("unknown-name", format!("`{name}` is not a known constant"), Some(path.span))
-                    .with_label("unknown name")
-                    .with_help("constants are defined with `let name = value` before they are used")),
+                None => Err(Diagnostic::error(
+                    "unknown-name",
+                    format!("`{name}` is not a known constant"),
+                    Some(path.span),
+                )
+                .with_label("unknown name")
+                .with_help("constants are defined with `let name = value` before they are used")),
             }
         }
         ExprKind::Paren(inner) => eval(inner, env),
@@ -120,18 +128,28 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
                 BinaryOp::Div => a.div(b),
             };
             r.map(Value::Quantity).map_err(|e| {
-                Diagnostic::error("bad-arithmetic", e.message, Some(expr.span))
-                    .with_label(format!("{} {} {}", describe_quantity(&a), op.symbol(), describe_quantity(&b)))
+                Diagnostic::error("bad-arithmetic", e.message, Some(expr.span)).with_label(format!(
+                    "{} {} {}",
+                    describe_quantity(&a),
+                    op.symbol(),
+                    describe_quantity(&b)
+                ))
             })
         }
     }
 }
 
 fn not_a_number(v: &Value, span: Span) -> Diagnostic {
-    let mut d = Diagnostic::error("expected-number", format!("expected a number, found {}", v.describe()), Some(span))
-        .with_label("not a number");
+    let mut d = Diagnostic::error(
+        "expected-number",
+        format!("expected a number, found {}", v.describe()),
+        Some(span),
+    )
+    .with_label("not a number");
     if let Value::Word(w) = v {
-        d = d.with_help(format!("`{w}` is not a defined constant; define it with `let {w} = ...` first"));
+        d = d.with_help(format!(
+            "`{w}` is not a defined constant; define it with `let {w} = ...` first"
+        ));
     }
     d
 }
@@ -150,7 +168,12 @@ fn literal_span(expr: &Expr) -> Span {
 }
 
 /// Evaluate to a quantity of the expected dimension; `what` names the field.
-pub fn expect_dim(expr: &Expr, env: &Env, dim: Dimension, what: &str) -> Result<Quantity, Diagnostic> {
+pub fn expect_dim(
+    expr: &Expr,
+    env: &Env,
+    dim: Dimension,
+    what: &str,
+) -> Result<Quantity, Diagnostic> {
     let q = eval_quantity(expr, env)?;
     if q.dim != dim {
         let found = match &expr.kind {
@@ -185,7 +208,11 @@ pub fn expect_temperature(expr: &Expr, env: &Env, what: &str) -> Result<f64, Dia
         .with_help("write a temperature as `15 degC`, `59 degF` or `288.15 K`"));
     }
     if q.si <= 0.0 {
-        return Err(Diagnostic::error("out-of-range", format!("{what}: below absolute zero"), Some(expr.span)));
+        return Err(Diagnostic::error(
+            "out-of-range",
+            format!("{what}: below absolute zero"),
+            Some(expr.span),
+        ));
     }
     Ok(q.si)
 }
@@ -199,18 +226,31 @@ pub fn expect_number(expr: &Expr, env: &Env, what: &str) -> Result<f64, Diagnost
 pub fn expect_text(expr: &Expr, env: &Env, what: &str) -> Result<String, Diagnostic> {
     match eval(expr, env)? {
         Value::Text(t) => Ok(t),
-        other => Err(Diagnostic::error("expected-text", format!("{what}: expected a quoted text, found {}", other.describe()), Some(expr.span))
-            .with_help("put text in double quotes: \"...\"")),
+        other => Err(Diagnostic::error(
+            "expected-text",
+            format!("{what}: expected a quoted text, found {}", other.describe()),
+            Some(expr.span),
+        )
+        .with_help("put text in double quotes: \"...\"")),
     }
 }
 
 /// One of a set of keyword values.
-pub fn expect_word(expr: &Expr, env: &Env, what: &str, allowed: &[&str]) -> Result<String, Diagnostic> {
+pub fn expect_word(
+    expr: &Expr,
+    env: &Env,
+    what: &str,
+    allowed: &[&str],
+) -> Result<String, Diagnostic> {
     match eval(expr, env)? {
         Value::Word(w) if allowed.contains(&w.as_str()) => Ok(w),
         other => Err(Diagnostic::error(
             "expected-word",
-            format!("{what}: expected {}, found {}", quote_list(allowed), other.describe()),
+            format!(
+                "{what}: expected {}, found {}",
+                quote_list(allowed),
+                other.describe()
+            ),
             Some(expr.span),
         )
         .with_label(format!("expected {}", quote_list(allowed)))),

@@ -27,8 +27,16 @@ impl<'a> Fields<'a> {
 
 /// Split a body into known fields and other statements. Unknown field names and
 /// repeated fields become diagnostics.
-pub fn read_fields<'a>(body: &'a [Statement], block: &str, allowed: &[&'static str], diags: &mut Vec<Diagnostic>) -> Fields<'a> {
-    let mut out = Fields { fields: Vec::new(), rest: Vec::new() };
+pub fn read_fields<'a>(
+    body: &'a [Statement],
+    block: &str,
+    allowed: &[&'static str],
+    diags: &mut Vec<Diagnostic>,
+) -> Fields<'a> {
+    let mut out = Fields {
+        fields: Vec::new(),
+        rest: Vec::new(),
+    };
     for st in body {
         match &st.kind {
             StatementKind::Assign { path, value } if path.parts.len() == 1 => {
@@ -37,13 +45,21 @@ pub fn read_fields<'a>(body: &'a [Statement], block: &str, allowed: &[&'static s
                     Some(known) => {
                         if let Some(prev) = out.get(known) {
                             diags.push(
-                                Diagnostic::error("duplicate-field", format!("`{name}` is given twice in {block}"), Some(path.span))
-                                    .with_label("given again here")
-                                    .with_secondary(prev.span, "first given here")
-                                    .with_help("keep one of them"),
+                                Diagnostic::error(
+                                    "duplicate-field",
+                                    format!("`{name}` is given twice in {block}"),
+                                    Some(path.span),
+                                )
+                                .with_label("given again here")
+                                .with_secondary(prev.span, "first given here")
+                                .with_help("keep one of them"),
                             );
                         } else {
-                            out.fields.push(Field { name: known, value, span: st.span });
+                            out.fields.push(Field {
+                                name: known,
+                                value,
+                                span: st.span,
+                            });
                         }
                     }
                     None => diags.push(unknown_field(path, block, allowed)),
@@ -62,16 +78,28 @@ pub fn unknown_field(path: &Path, block: &str, allowed: &[&str]) -> Diagnostic {
     let help = if near.is_empty() {
         format!("{block} accepts {}", quote_list(allowed))
     } else {
-        format!("did you mean {}? {block} accepts {}", quote_list(&near), quote_list(allowed))
+        format!(
+            "did you mean {}? {block} accepts {}",
+            quote_list(&near),
+            quote_list(allowed)
+        )
     };
-    Diagnostic::error("unknown-field", format!("{block} has no field `{name}`"), Some(path.span))
-        .with_label("unknown field")
-        .with_help(help)
+    Diagnostic::error(
+        "unknown-field",
+        format!("{block} has no field `{name}`"),
+        Some(path.span),
+    )
+    .with_label("unknown field")
+    .with_help(help)
 }
 
 /// A required field that is missing.
 pub fn missing(field: &str, block: &str, span: Span, example: &str) -> Diagnostic {
-    Diagnostic::error("missing-field", format!("{block} needs `{field}`"), Some(span))
-        .with_label(format!("`{field}` is missing"))
-        .with_help(format!("add a line such as `{example}`"))
+    Diagnostic::error(
+        "missing-field",
+        format!("{block} needs `{field}`"),
+        Some(span),
+    )
+    .with_label(format!("`{field}` is missing"))
+    .with_help(format!("add a line such as `{example}`"))
 }

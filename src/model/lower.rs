@@ -19,13 +19,19 @@ pub const MAX_SEGMENTS: usize = 100;
 pub const MAX_PUMPS: usize = 20;
 
 const TOP_LEVEL: &[&str] = &[
-    "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case", "require", "pump", "motor", "energy",
-    "assume", "note",
+    "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
+    "require", "pump", "motor", "energy", "assume", "note",
 ];
-const ONCE: &[&str] = &["project", "purpose", "fluid", "site", "station", "require", "motor", "energy"];
+const ONCE: &[&str] = &[
+    "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",
+];
 
 /// Lower a parsed file. Returns the design when there were no errors, and all diagnostics.
-pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Design>, Vec<Diagnostic>) {
+pub fn lower(
+    file: &File,
+    source: &str,
+    files: &dyn FileAccess,
+) -> (Option<Design>, Vec<Diagnostic>) {
     let text = |s: Span| source.get(s.start..s.end).unwrap_or("").to_string();
     let mut d: Vec<Diagnostic> = Vec::new();
     let mut env = Env::default();
@@ -34,9 +40,13 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
         if let StatementKind::Let { name, value } = &st.kind {
             if let Some((_, prev)) = env.constants.get(&name.name) {
                 d.push(
-                    Diagnostic::error("duplicate-name", format!("`{}` is defined twice", name.name), Some(name.span))
-                        .with_secondary(*prev, "first defined here")
-                        .with_help("give each constant its own name"),
+                    Diagnostic::error(
+                        "duplicate-name",
+                        format!("`{}` is defined twice", name.name),
+                        Some(name.span),
+                    )
+                    .with_secondary(*prev, "first defined here")
+                    .with_help("give each constant its own name"),
                 );
                 continue;
             }
@@ -103,40 +113,74 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
     if let Some((_, _, body, _)) = of("project").next() {
         lower_project(&mut project, body.unwrap_or(empty), &env, &mut d);
     } else {
-        d.push(missing("project", "the design", Span::new(0, 0), "project { title = \"...\" number = \"...\" }"));
+        d.push(missing(
+            "project",
+            "the design",
+            Span::new(0, 0),
+            "project { title = \"...\" number = \"...\" }",
+        ));
     }
     let mut revisions = Vec::new();
     for (_, args, _, span) in of("revision") {
         match args {
-            [id, Arg { kind: ArgKind::Date(date), .. }, Arg { kind: ArgKind::Text(text), .. }] => {
+            [id, Arg {
+                kind: ArgKind::Date(date),
+                ..
+            }, Arg {
+                kind: ArgKind::Text(text),
+                ..
+            }] => {
                 let id_text = match &id.kind {
                     ArgKind::Word(w) => w.clone(),
                     ArgKind::Number(n) => n.text.clone(),
                     _ => String::new(),
                 };
                 if id_text.is_empty() {
-                    d.push(Diagnostic::error("bad-revision", "a revision id is a word or number such as `A` or `2`", Some(id.span)));
+                    d.push(Diagnostic::error(
+                        "bad-revision",
+                        "a revision id is a word or number such as `A` or `2`",
+                        Some(id.span),
+                    ));
                 } else if let Err(msg) = check_date(date) {
                     d.push(Diagnostic::error("bad-date", msg, Some(args[1].span)));
                 } else {
-                    revisions.push(Revision { id: id_text, date: date.clone(), description: text.clone() });
+                    revisions.push(Revision {
+                        id: id_text,
+                        date: date.clone(),
+                        description: text.clone(),
+                    });
                 }
             }
             _ => d.push(
-                Diagnostic::error("bad-revision", "a revision is `revision ID YYYY-MM-DD \"description\"`", Some(*span))
-                    .with_help("e.g. `revision B 2026-11-30 \"Dry-season case added\"`"),
+                Diagnostic::error(
+                    "bad-revision",
+                    "a revision is `revision ID YYYY-MM-DD \"description\"`",
+                    Some(*span),
+                )
+                .with_help("e.g. `revision B 2026-11-30 \"Dry-season case added\"`"),
             ),
         }
     }
     let text_of = |k: &'static str, d: &mut Vec<Diagnostic>| -> Vec<String> {
-        of(k).filter_map(|(_, args, _, span)| match args {
-            [Arg { kind: ArgKind::Text(t), .. }] => Some(t.clone()),
-            _ => {
-                d.push(Diagnostic::error("bad-text", format!("`{k}` takes one quoted text"), Some(*span)).with_help(format!("write `{k} \"...\"`")));
-                None
-            }
-        })
-        .collect()
+        of(k)
+            .filter_map(|(_, args, _, span)| match args {
+                [Arg {
+                    kind: ArgKind::Text(t),
+                    ..
+                }] => Some(t.clone()),
+                _ => {
+                    d.push(
+                        Diagnostic::error(
+                            "bad-text",
+                            format!("`{k}` takes one quoted text"),
+                            Some(*span),
+                        )
+                        .with_help(format!("write `{k} \"...\"`")),
+                    );
+                    None
+                }
+            })
+            .collect()
     };
     let purpose = text_of("purpose", &mut d).into_iter().next();
     let assumptions = text_of("assume", &mut d);
@@ -144,13 +188,23 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
 
     // The physical setting.
     let fluid = match of("fluid").next() {
-        Some((_, args, body, span)) => lower_fluid(args, body.unwrap_or(empty), *span, &env, &mut d),
+        Some((_, args, body, span)) => {
+            lower_fluid(args, body.unwrap_or(empty), *span, &env, &mut d)
+        }
         None => {
-            d.push(missing("fluid", "the design", Span::new(0, 0), "fluid water { temperature = 15 degC }"));
+            d.push(missing(
+                "fluid",
+                "the design",
+                Span::new(0, 0),
+                "fluid water { temperature = 15 degC }",
+            ));
             None
         }
     };
-    let mut site = Site { elevation: Length::new::<meter>(0.0), barometric_pressure: None };
+    let mut site = Site {
+        elevation: Length::new::<meter>(0.0),
+        barometric_pressure: None,
+    };
     match of("site").next() {
         Some((_, _, body, _)) => {
             let f = read_fields(body.unwrap_or(empty), "site", scenario::SITE_FIELDS, &mut d);
@@ -161,8 +215,12 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
             }
         }
         None => d.push(
-            Diagnostic::warning("site-assumed", "no `site` given: sea level (101.325 kPa) is assumed for NPSH available", None)
-                .with_help("add `site { elevation = 350 m }` or `site { pressure = 97 kPa }`"),
+            Diagnostic::warning(
+                "site-assumed",
+                "no `site` given: sea level (101.325 kPa) is assumed for NPSH available",
+                None,
+            )
+            .with_help("add `site { elevation = 350 m }` or `site { pressure = 97 kPa }`"),
         ),
     }
     let mut centreline = None;
@@ -173,30 +231,73 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
                 Ok(v) => centreline = Some(v),
                 Err(e) => d.push(e),
             },
-            None => d.push(missing("centreline", "station", *span, "centreline = 101.5 m")),
+            None => d.push(missing(
+                "centreline",
+                "station",
+                *span,
+                "centreline = 101.5 m",
+            )),
         }
     } else {
-        d.push(missing("station", "the design", Span::new(0, 0), "station { centreline = 101.5 m }"));
+        d.push(missing(
+            "station",
+            "the design",
+            Span::new(0, 0),
+            "station { centreline = 101.5 m }",
+        ));
     }
 
     let mut tanks: Vec<Tank> = Vec::new();
     for (_, args, body, span) in of("tank") {
-        let Some(Arg { kind: ArgKind::Word(name), span: name_span }) = args.first() else {
-            d.push(Diagnostic::error("bad-tank", "a tank needs a name", Some(*span)).with_help("write `tank sump { level = 101.2 m }`"));
+        let Some(Arg {
+            kind: ArgKind::Word(name),
+            span: name_span,
+        }) = args.first()
+        else {
+            d.push(
+                Diagnostic::error("bad-tank", "a tank needs a name", Some(*span))
+                    .with_help("write `tank sump { level = 101.2 m }`"),
+            );
             continue;
         };
         if name == "pump" {
-            d.push(Diagnostic::error("reserved-name", "`pump` names the pump end of a line; choose another tank name", Some(*name_span)));
+            d.push(Diagnostic::error(
+                "reserved-name",
+                "`pump` names the pump end of a line; choose another tank name",
+                Some(*name_span),
+            ));
             continue;
         }
         if let Some(prev) = tanks.iter().find(|t| &t.name == name) {
-            d.push(Diagnostic::error("duplicate-name", format!("tank `{name}` is defined twice"), Some(*name_span)).with_secondary(prev.span, "first defined here"));
+            d.push(
+                Diagnostic::error(
+                    "duplicate-name",
+                    format!("tank `{name}` is defined twice"),
+                    Some(*name_span),
+                )
+                .with_secondary(prev.span, "first defined here"),
+            );
             continue;
         }
-        let mut tank = Tank { name: name.clone(), level: Length::new::<meter>(0.0), surface_pressure: SurfacePressure::Gauge(scenario::pressure(0.0)), span: *name_span };
-        let f = read_fields(body.unwrap_or(empty), &format!("tank {name}"), scenario::TANK_FIELDS, &mut d);
+        let mut tank = Tank {
+            name: name.clone(),
+            level: Length::new::<meter>(0.0),
+            surface_pressure: SurfacePressure::Gauge(scenario::pressure(0.0)),
+            span: *name_span,
+        };
+        let f = read_fields(
+            body.unwrap_or(empty),
+            &format!("tank {name}"),
+            scenario::TANK_FIELDS,
+            &mut d,
+        );
         if f.get("level").is_none() {
-            d.push(missing("level", &format!("tank {name}"), *span, "level = 101.2 m"));
+            d.push(missing(
+                "level",
+                &format!("tank {name}"),
+                *span,
+                "level = 101.2 m",
+            ));
         }
         for field in &f.fields {
             if let Err(e) = scenario::set_tank(&mut tank, field.name, field.value, &env) {
@@ -211,11 +312,22 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
     let errors_before_lines = d.iter().filter(|x| x.is_error()).count();
     for (_, args, body, span) in of("line") {
         let (name, name_span, from, to) = match args {
-            [Arg { kind: ArgKind::Word(n), span: ns }, Arg { kind: ArgKind::Word(f), .. }, a, Arg { kind: ArgKind::Word(t), .. }, b]
+            [Arg {
+                kind: ArgKind::Word(n),
+                span: ns,
+            }, Arg {
+                kind: ArgKind::Word(f),
+                ..
+            }, a, Arg {
+                kind: ArgKind::Word(t),
+                ..
+            }, b]
                 if f == "from" && t == "to" =>
             {
                 match (&a.kind, &b.kind) {
-                    (ArgKind::Word(x), ArgKind::Word(y)) => (n.clone(), *ns, (x.clone(), a.span), (y.clone(), b.span)),
+                    (ArgKind::Word(x), ArgKind::Word(y)) => {
+                        (n.clone(), *ns, (x.clone(), a.span), (y.clone(), b.span))
+                    }
                     _ => {
                         d.push(bad_line(*span));
                         continue;
@@ -228,7 +340,14 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
             }
         };
         if let Some(prev) = lines.iter().find(|l| l.name == name) {
-            d.push(Diagnostic::error("duplicate-name", format!("line `{name}` is defined twice"), Some(name_span)).with_secondary(prev.span, "first defined here"));
+            d.push(
+                Diagnostic::error(
+                    "duplicate-name",
+                    format!("line `{name}` is defined twice"),
+                    Some(name_span),
+                )
+                .with_secondary(prev.span, "first defined here"),
+            );
             continue;
         }
         let side = match (from.0 == "pump", to.0 == "pump") {
@@ -246,25 +365,61 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
         if !tanks.iter().any(|t| t.name == tank_end.0) {
             let near = nearest(&tank_end.0, tanks.iter().map(|t| t.name.as_str()));
             d.push(
-                Diagnostic::error("unknown-name", format!("there is no tank `{}`", tank_end.0), Some(tank_end.1))
-                    .with_label("unknown tank")
-                    .with_help(if near.is_empty() { "define it with `tank NAME { level = ... }`".to_string() } else { format!("did you mean {}?", eval::quote_list(&near)) }),
+                Diagnostic::error(
+                    "unknown-name",
+                    format!("there is no tank `{}`", tank_end.0),
+                    Some(tank_end.1),
+                )
+                .with_label("unknown tank")
+                .with_help(if near.is_empty() {
+                    "define it with `tank NAME { level = ... }`".to_string()
+                } else {
+                    format!("did you mean {}?", eval::quote_list(&near))
+                }),
             );
             continue;
         }
         let segments = lower_segments(body.unwrap_or(empty), &env, &mut d);
         segment_total += segments.len();
         if segments.is_empty() && body.is_some_and(|b| b.is_empty()) || body.is_none() {
-            d.push(Diagnostic::error("empty-line", format!("line `{name}` has no pipe"), Some(name_span)).with_help("add `pipe MATERIAL SIZE { length = ... }`"));
+            d.push(
+                Diagnostic::error(
+                    "empty-line",
+                    format!("line `{name}` has no pipe"),
+                    Some(name_span),
+                )
+                .with_help("add `pipe MATERIAL SIZE { length = ... }`"),
+            );
         }
-        lines.push(Line { name, side, from: from.0, to: to.0, segments, span: name_span });
+        lines.push(Line {
+            name,
+            side,
+            from: from.0,
+            to: to.0,
+            segments,
+            span: name_span,
+        });
     }
     if segment_total > MAX_SEGMENTS {
-        d.push(Diagnostic::error("too-many", format!("the design has {segment_total} pipe segments; at most {MAX_SEGMENTS} are accepted"), None));
+        d.push(Diagnostic::error(
+            "too-many",
+            format!(
+                "the design has {segment_total} pipe segments; at most {MAX_SEGMENTS} are accepted"
+            ),
+            None,
+        ));
     }
     let line_failed = d.iter().filter(|x| x.is_error()).count() > errors_before_lines;
-    let suction_tanks: Vec<&str> = lines.iter().filter(|l| l.side == Side::Suction).map(|l| l.from.as_str()).collect();
-    let discharge_tanks: Vec<&str> = lines.iter().filter(|l| l.side == Side::Discharge).map(|l| l.to.as_str()).collect();
+    let suction_tanks: Vec<&str> = lines
+        .iter()
+        .filter(|l| l.side == Side::Suction)
+        .map(|l| l.from.as_str())
+        .collect();
+    let discharge_tanks: Vec<&str> = lines
+        .iter()
+        .filter(|l| l.side == Side::Discharge)
+        .map(|l| l.to.as_str())
+        .collect();
     let ends = |names: &[&str], what: &str, d: &mut Vec<Diagnostic>| -> Option<Tank> {
         let first = names.first()?;
         if names.iter().any(|n| n != first) {
@@ -277,34 +432,69 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
     let source = ends(&suction_tanks, "suction", &mut d);
     let destination = ends(&discharge_tanks, "discharge", &mut d);
     if !line_failed && !lines.is_empty() && source.is_none() && suction_tanks.is_empty() {
-        d.push(Diagnostic::error("missing-line", "the design has no suction line", None).with_help("add `line suction from SOURCE to pump { ... }`"));
+        d.push(
+            Diagnostic::error("missing-line", "the design has no suction line", None)
+                .with_help("add `line suction from SOURCE to pump { ... }`"),
+        );
     }
     if !line_failed && !lines.is_empty() && destination.is_none() && discharge_tanks.is_empty() {
-        d.push(Diagnostic::error("missing-line", "the design has no discharge line", None).with_help("add `line discharge from pump to DESTINATION { ... }`"));
+        d.push(
+            Diagnostic::error("missing-line", "the design has no discharge line", None)
+                .with_help("add `line discharge from pump to DESTINATION { ... }`"),
+        );
     }
     if lines.is_empty() && !line_failed {
-        d.push(missing("line", "the design", Span::new(0, 0), "line suction from sump to pump { ... }"));
+        d.push(missing(
+            "line",
+            "the design",
+            Span::new(0, 0),
+            "line suction from sump to pump { ... }",
+        ));
     }
 
     // Pumps.
     let mut pump_list: Vec<PumpCandidate> = Vec::new();
     for (_, args, body, span) in of("pump") {
-        if let Some(p) = pumps::lower_pump(args, body.unwrap_or(empty), *span, &env, files, &mut d) {
+        if let Some(p) = pumps::lower_pump(args, body.unwrap_or(empty), *span, &env, files, &mut d)
+        {
             if let Some(prev) = pump_list.iter().find(|q| q.name == p.name) {
-                d.push(Diagnostic::error("duplicate-name", format!("pump `{}` is defined twice", p.name), Some(*span)).with_secondary(prev.span, "first defined here"));
+                d.push(
+                    Diagnostic::error(
+                        "duplicate-name",
+                        format!("pump `{}` is defined twice", p.name),
+                        Some(*span),
+                    )
+                    .with_secondary(prev.span, "first defined here"),
+                );
                 continue;
             }
             pump_list.push(p);
         }
     }
     if pump_list.len() > MAX_PUMPS {
-        d.push(Diagnostic::error("too-many", format!("the design has {} pumps; at most {MAX_PUMPS} are accepted", pump_list.len()), None));
+        d.push(Diagnostic::error(
+            "too-many",
+            format!(
+                "the design has {} pumps; at most {MAX_PUMPS} are accepted",
+                pump_list.len()
+            ),
+            None,
+        ));
     }
     if pump_list.is_empty() && !of("pump").any(|_| true) {
-        d.push(Diagnostic::warning("no-pumps", "the design has no pump candidates: only system curves are computed", None));
+        d.push(Diagnostic::warning(
+            "no-pumps",
+            "the design has no pump candidates: only system curves are computed",
+            None,
+        ));
     }
 
-    let motor = lower_motor(of("motor").next().and_then(|b| b.2), project.units, &env, &mut d);
+    let motor = lower_motor(
+        of("motor").next().and_then(|b| b.2),
+        project.units,
+        &env,
+        &mut d,
+    );
     let energy = lower_energy(of("energy").next().and_then(|b| b.2), &env, &mut d);
 
     let base = match (fluid, source, destination, centreline) {
@@ -317,7 +507,10 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
             lines,
             pipe_condition: PipeCondition::New,
             hours_per_year: Time::new::<second>(0.0),
-            pump_speeds: pump_list.iter().map(|p| (p.name.clone(), p.rated_speed)).collect(),
+            pump_speeds: pump_list
+                .iter()
+                .map(|p| (p.name.clone(), p.rated_speed))
+                .collect(),
         }),
         _ => None,
     };
@@ -325,12 +518,26 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
     // Cases: the base plus overrides.
     let mut cases: Vec<Case> = Vec::new();
     for (_, args, body, span) in of("case") {
-        let Some(Arg { kind: ArgKind::Word(name), span: name_span }) = args.first() else {
-            d.push(Diagnostic::error("bad-case", "a case needs a name", Some(*span)).with_help("write `case normal { }`"));
+        let Some(Arg {
+            kind: ArgKind::Word(name),
+            span: name_span,
+        }) = args.first()
+        else {
+            d.push(
+                Diagnostic::error("bad-case", "a case needs a name", Some(*span))
+                    .with_help("write `case normal { }`"),
+            );
             continue;
         };
         if let Some(prev) = cases.iter().find(|c| &c.name == name) {
-            d.push(Diagnostic::error("duplicate-name", format!("case `{name}` is defined twice"), Some(*name_span)).with_secondary(prev.span, "first defined here"));
+            d.push(
+                Diagnostic::error(
+                    "duplicate-name",
+                    format!("case `{name}` is defined twice"),
+                    Some(*name_span),
+                )
+                .with_secondary(prev.span, "first defined here"),
+            );
             continue;
         }
         let Some(base) = &base else { continue };
@@ -343,7 +550,14 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
                 StatementKind::Assign { path, value } => {
                     let dotted = path.dotted();
                     if let Some((_, prev)) = set.iter().find(|(p, _)| *p == dotted) {
-                        d.push(Diagnostic::error("duplicate-field", format!("case `{name}` sets `{dotted}` twice"), Some(path.span)).with_secondary(*prev, "first set here"));
+                        d.push(
+                            Diagnostic::error(
+                                "duplicate-field",
+                                format!("case `{name}` sets `{dotted}` twice"),
+                                Some(path.span),
+                            )
+                            .with_secondary(*prev, "first set here"),
+                        );
                         continue;
                     }
                     set.push((dotted.clone(), path.span));
@@ -352,36 +566,83 @@ pub fn lower(file: &File, source: &str, files: &dyn FileAccess) -> (Option<Desig
                         Err(e) => d.push(e),
                     }
                 }
-                _ => d.push(Diagnostic::error("unexpected", "a case holds only overrides such as `sump.level = 101.0 m`", Some(st.span))),
+                _ => d.push(Diagnostic::error(
+                    "unexpected",
+                    "a case holds only overrides such as `sump.level = 101.0 m`",
+                    Some(st.span),
+                )),
             }
         }
-        cases.push(Case { name: name.clone(), scenario: sc, overrides, span: *name_span });
+        cases.push(Case {
+            name: name.clone(),
+            scenario: sc,
+            overrides,
+            span: *name_span,
+        });
     }
     if cases.len() > MAX_CASES {
-        d.push(Diagnostic::error("too-many", format!("the design has {} cases; at most {MAX_CASES} are accepted", cases.len()), None));
+        d.push(Diagnostic::error(
+            "too-many",
+            format!(
+                "the design has {} cases; at most {MAX_CASES} are accepted",
+                cases.len()
+            ),
+            None,
+        ));
     }
     if cases.is_empty() {
         if let Some(base) = &base {
-            d.push(Diagnostic::warning("no-cases", "no `case` given: the base design is analysed as case `design`", None).with_help("add `case normal { }` and cases for low levels and aged pipe"));
-            cases.push(Case { name: "design".into(), scenario: base.clone(), overrides: Vec::new(), span: Span::new(0, 0) });
+            d.push(
+                Diagnostic::warning(
+                    "no-cases",
+                    "no `case` given: the base design is analysed as case `design`",
+                    None,
+                )
+                .with_help("add `case normal { }` and cases for low levels and aged pipe"),
+            );
+            cases.push(Case {
+                name: "design".into(),
+                scenario: base.clone(),
+                overrides: Vec::new(),
+                span: Span::new(0, 0),
+            });
         }
     }
 
     let requirements = match of("require").next() {
-        Some((_, _, body, _)) => lower_requirements(body.unwrap_or(empty), &cases, &env, &text, &mut d),
+        Some((_, _, body, _)) => {
+            lower_requirements(body.unwrap_or(empty), &cases, &env, &text, &mut d)
+        }
         None => Vec::new(),
     };
 
     let has_errors = d.iter().any(|x| x.is_error());
     let design = match base {
-        Some(base) if !has_errors => Some(Design { project, revisions, purpose, assumptions, notes, base, cases, requirements, pumps: pump_list, motor, energy }),
+        Some(base) if !has_errors => Some(Design {
+            project,
+            revisions,
+            purpose,
+            assumptions,
+            notes,
+            base,
+            cases,
+            requirements,
+            pumps: pump_list,
+            motor,
+            energy,
+        }),
         _ => None,
     };
     (design, d)
 }
 
 fn bad_line(span: Span) -> Diagnostic {
-    Diagnostic::error("bad-line", "a line is `line NAME from A to B { ... }`", Some(span)).with_help("e.g. `line discharge from pump to reservoir { ... }`")
+    Diagnostic::error(
+        "bad-line",
+        "a line is `line NAME from A to B { ... }`",
+        Some(span),
+    )
+    .with_help("e.g. `line discharge from pump to reservoir { ... }`")
 }
 
 fn check_date(date: &str) -> Result<(), String> {
@@ -392,22 +653,37 @@ fn check_date(date: &str) -> Result<(), String> {
     }
 }
 
-const PROJECT_FIELDS: &[&str] = &["title", "number", "client", "prepared", "checked", "approved", "units", "style"];
+const PROJECT_FIELDS: &[&str] = &[
+    "title", "number", "client", "prepared", "checked", "approved", "units", "style",
+];
 
 fn lower_project(p: &mut Project, body: &[Statement], env: &Env, d: &mut Vec<Diagnostic>) {
     let f = read_fields(body, "project", PROJECT_FIELDS, d);
     for field in &f.fields {
         let r = match field.name {
-            "units" => eval::expect_word(field.value, env, "report units", &["us", "si"]).map(|w| {
-                p.units = if w == "us" { ReportUnits::Us } else { ReportUnits::Si };
-            }),
+            "units" => {
+                eval::expect_word(field.value, env, "report units", &["us", "si"]).map(|w| {
+                    p.units = if w == "us" {
+                        ReportUnits::Us
+                    } else {
+                        ReportUnits::Si
+                    };
+                })
+            }
             "style" => match eval::eval(field.value, env) {
                 Ok(eval::Value::Word(w)) | Ok(eval::Value::Text(w)) => {
                     p.style = Some(w);
                     p.style_span = Some(field.value.span);
                     Ok(())
                 }
-                Ok(other) => Err(Diagnostic::error("expected-word", format!("style: expected a style name or a quoted path, found {}", other.describe()), Some(field.value.span))),
+                Ok(other) => Err(Diagnostic::error(
+                    "expected-word",
+                    format!(
+                        "style: expected a style name or a quoted path, found {}",
+                        other.describe()
+                    ),
+                    Some(field.value.span),
+                )),
                 Err(e) => Err(e),
             },
             name => eval::expect_text(field.value, env, name).map(|t| {
@@ -427,31 +703,74 @@ fn lower_project(p: &mut Project, body: &[Statement], env: &Env, d: &mut Vec<Dia
         }
     }
     if p.title.is_empty() {
-        d.push(Diagnostic::warning("no-title", "the project has no title", None).with_help("add `title = \"...\"` to `project`"));
+        d.push(
+            Diagnostic::warning("no-title", "the project has no title", None)
+                .with_help("add `title = \"...\"` to `project`"),
+        );
     }
 }
 
-fn lower_motor(body: Option<&[Statement]>, units: ReportUnits, env: &Env, d: &mut Vec<Diagnostic>) -> MotorSettings {
-    let standard = if units == ReportUnits::Us { MotorStandardChoice::Nema } else { MotorStandardChoice::Iec };
-    let mut m = MotorSettings { standard, service_factor: f64::NAN, efficiency: None, drive_efficiency: None };
-    let f = read_fields(body.unwrap_or(&[]), "motor", &["standard", "service_factor", "efficiency", "drive_efficiency"], d);
+fn lower_motor(
+    body: Option<&[Statement]>,
+    units: ReportUnits,
+    env: &Env,
+    d: &mut Vec<Diagnostic>,
+) -> MotorSettings {
+    let standard = if units == ReportUnits::Us {
+        MotorStandardChoice::Nema
+    } else {
+        MotorStandardChoice::Iec
+    };
+    let mut m = MotorSettings {
+        standard,
+        service_factor: f64::NAN,
+        efficiency: None,
+        drive_efficiency: None,
+    };
+    let f = read_fields(
+        body.unwrap_or(&[]),
+        "motor",
+        &[
+            "standard",
+            "service_factor",
+            "efficiency",
+            "drive_efficiency",
+        ],
+        d,
+    );
     for field in &f.fields {
         let r: Result<(), Diagnostic> = (|| {
             match field.name {
                 "standard" => {
-                    m.standard = if eval::expect_word(field.value, env, "motor standard", &["nema", "iec"])? == "nema" { MotorStandardChoice::Nema } else { MotorStandardChoice::Iec }
+                    m.standard =
+                        if eval::expect_word(field.value, env, "motor standard", &["nema", "iec"])?
+                            == "nema"
+                        {
+                            MotorStandardChoice::Nema
+                        } else {
+                            MotorStandardChoice::Iec
+                        }
                 }
                 "service_factor" => {
                     let v = expect_number(field.value, env, "service factor")?;
                     if !(1.0..=1.5).contains(&v) {
-                        return Err(Diagnostic::error("out-of-range", "a service factor lies between 1.0 and 1.5", Some(field.value.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "a service factor lies between 1.0 and 1.5",
+                            Some(field.value.span),
+                        ));
                     }
                     m.service_factor = v;
                 }
                 name => {
                     let v = expect_number(field.value, env, name)?;
                     if !(v > 0.3 && v <= 1.0) {
-                        return Err(Diagnostic::error("out-of-range", format!("{name} lies between 30 % and 100 %"), Some(field.value.span)).with_help("write it as a percentage, e.g. `93.6 %`"));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("{name} lies between 30 % and 100 %"),
+                            Some(field.value.span),
+                        )
+                        .with_help("write it as a percentage, e.g. `93.6 %`"));
                     }
                     if name == "efficiency" {
                         m.efficiency = Some(v)
@@ -468,21 +787,45 @@ fn lower_motor(body: Option<&[Statement]>, units: ReportUnits, env: &Env, d: &mu
     }
     if m.service_factor.is_nan() {
         // Common practice: NEMA open drip-proof motors carry SF 1.15; IEC ratings are used at SF 1.0.
-        m.service_factor = if m.standard == MotorStandardChoice::Nema { 1.15 } else { 1.0 };
+        m.service_factor = if m.standard == MotorStandardChoice::Nema {
+            1.15
+        } else {
+            1.0
+        };
     }
     m
 }
 
 fn lower_energy(body: Option<&[Statement]>, env: &Env, d: &mut Vec<Diagnostic>) -> EnergySettings {
-    let mut e = EnergySettings { price_per_joule: None, currency: "cu".into(), years: 0.0, discount_rate: 0.0, escalation: 0.0 };
-    let f = read_fields(body.unwrap_or(&[]), "energy", &["price", "years", "discount_rate", "escalation"], d);
+    let mut e = EnergySettings {
+        price_per_joule: None,
+        currency: "cu".into(),
+        years: 0.0,
+        discount_rate: 0.0,
+        escalation: 0.0,
+    };
+    let f = read_fields(
+        body.unwrap_or(&[]),
+        "energy",
+        &["price", "years", "discount_rate", "escalation"],
+        d,
+    );
     for field in &f.fields {
         let r: Result<(), Diagnostic> = (|| {
             match field.name {
                 "price" => {
-                    let q = expect_dim(field.value, env, Dimension::MONEY_PER_ENERGY, "energy price")?;
+                    let q = expect_dim(
+                        field.value,
+                        env,
+                        Dimension::MONEY_PER_ENERGY,
+                        "energy price",
+                    )?;
                     if q.si < 0.0 {
-                        return Err(Diagnostic::error("out-of-range", "an energy price must not be negative", Some(field.value.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "an energy price must not be negative",
+                            Some(field.value.span),
+                        ));
                     }
                     e.price_per_joule = Some(q.si);
                     if let crate::syntax::ast::ExprKind::Quantity { unit, .. } = &field.value.kind {
@@ -492,14 +835,22 @@ fn lower_energy(body: Option<&[Statement]>, env: &Env, d: &mut Vec<Diagnostic>) 
                 "years" => {
                     let v = expect_number(field.value, env, "years")?;
                     if !(0.0..=100.0).contains(&v) {
-                        return Err(Diagnostic::error("out-of-range", "the life in years lies between 0 and 100", Some(field.value.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "the life in years lies between 0 and 100",
+                            Some(field.value.span),
+                        ));
                     }
                     e.years = v;
                 }
                 name => {
                     let v = expect_number(field.value, env, name)?;
                     if !(-0.5..=1.0).contains(&v) {
-                        return Err(Diagnostic::error("out-of-range", format!("{name} is a yearly rate, e.g. `5 %`"), Some(field.value.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("{name} is a yearly rate, e.g. `5 %`"),
+                            Some(field.value.span),
+                        ));
                     }
                     if name == "discount_rate" {
                         e.discount_rate = v
@@ -517,21 +868,52 @@ fn lower_energy(body: Option<&[Statement]>, env: &Env, d: &mut Vec<Diagnostic>) 
     e
 }
 
-fn lower_requirements(body: &[Statement], cases: &[Case], env: &Env, text: &dyn Fn(Span) -> String, d: &mut Vec<Diagnostic>) -> Vec<Requirement> {
+fn lower_requirements(
+    body: &[Statement],
+    cases: &[Case],
+    env: &Env,
+    text: &dyn Fn(Span) -> String,
+    d: &mut Vec<Diagnostic>,
+) -> Vec<Requirement> {
     let mut out = Vec::new();
     for st in body {
-        let StatementKind::Condition { path, op, value, cases: scope } = &st.kind else {
-            d.push(Diagnostic::error("bad-requirement", "a requirement is `QUANTITY >= VALUE [for CASE, ...]`", Some(st.span)).with_help("e.g. `flow >= 700 gpm for normal` or `npsh_margin >= 1.3`"));
+        let StatementKind::Condition {
+            path,
+            op,
+            value,
+            cases: scope,
+        } = &st.kind
+        else {
+            d.push(
+                Diagnostic::error(
+                    "bad-requirement",
+                    "a requirement is `QUANTITY >= VALUE [for CASE, ...]`",
+                    Some(st.span),
+                )
+                .with_help("e.g. `flow >= 700 gpm for normal` or `npsh_margin >= 1.3`"),
+            );
             continue;
         };
         let name = path.dotted();
         let Some((_, metric)) = Metric::ALL.iter().find(|(k, _)| *k == name) else {
             let near = nearest(&name, Metric::ALL.iter().map(|(k, _)| *k));
-            d.push(Diagnostic::error("unknown-field", format!("`{name}` cannot be required"), Some(path.span)).with_label("unknown quantity").with_help(format!(
-                "{}requirements constrain {}",
-                if near.is_empty() { String::new() } else { format!("did you mean {}? ", eval::quote_list(&near)) },
-                eval::quote_list(&Metric::ALL.iter().map(|(k, _)| *k).collect::<Vec<_>>())
-            )));
+            d.push(
+                Diagnostic::error(
+                    "unknown-field",
+                    format!("`{name}` cannot be required"),
+                    Some(path.span),
+                )
+                .with_label("unknown quantity")
+                .with_help(format!(
+                    "{}requirements constrain {}",
+                    if near.is_empty() {
+                        String::new()
+                    } else {
+                        format!("did you mean {}? ", eval::quote_list(&near))
+                    },
+                    eval::quote_list(&Metric::ALL.iter().map(|(k, _)| *k).collect::<Vec<_>>())
+                )),
+            );
             continue;
         };
         let dim = match metric {
@@ -554,15 +936,29 @@ fn lower_requirements(body: &[Statement], cases: &[Case], env: &Env, text: &dyn 
                 names.push(c.name.clone());
             } else {
                 let near = nearest(&c.name, cases.iter().map(|k| k.name.as_str()));
-                d.push(Diagnostic::error("unknown-name", format!("there is no case `{}`", c.name), Some(c.span)).with_label("unknown case").with_help(if near.is_empty() {
-                    "requirements name cases defined with `case NAME { ... }`".to_string()
-                } else {
-                    format!("did you mean {}?", eval::quote_list(&near))
-                }));
+                d.push(
+                    Diagnostic::error(
+                        "unknown-name",
+                        format!("there is no case `{}`", c.name),
+                        Some(c.span),
+                    )
+                    .with_label("unknown case")
+                    .with_help(if near.is_empty() {
+                        "requirements name cases defined with `case NAME { ... }`".to_string()
+                    } else {
+                        format!("did you mean {}?", eval::quote_list(&near))
+                    }),
+                );
             }
         }
-        out.push(Requirement { metric: *metric, at_least: *op == crate::syntax::ast::CompareOp::AtLeast, limit_si: limit, text: text(st.span), cases: names, span: st.span });
+        out.push(Requirement {
+            metric: *metric,
+            at_least: *op == crate::syntax::ast::CompareOp::AtLeast,
+            limit_si: limit,
+            text: text(st.span),
+            cases: names,
+            span: st.span,
+        });
     }
     out
 }
-

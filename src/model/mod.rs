@@ -30,6 +30,8 @@ impl FileAccess for NoFiles {
 /// Files from an in-memory map, for tests.
 impl FileAccess for std::collections::BTreeMap<String, String> {
     fn read_text(&self, path: &str) -> Result<String, String> {
-        self.get(path).cloned().ok_or_else(|| "no such file".to_string())
+        self.get(path)
+            .cloned()
+            .ok_or_else(|| "no such file".to_string())
     }
 }

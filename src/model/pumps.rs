@@ -1,14 +1,18 @@
 //! Lowering pump candidates and their curve tables (inline or from CSV).
 
 use uom::si::f64::{Frequency, Length, Power, Ratio, VolumeRate};
-use uom::si::{frequency::hertz, length::meter, power::watt, ratio::ratio, volume_rate::cubic_meter_per_second};
+use uom::si::{
+    frequency::hertz, length::meter, power::watt, ratio::ratio, volume_rate::cubic_meter_per_second,
+};
 
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, Env};
 use super::fields::{missing, read_fields};
 use super::FileAccess;
 use crate::diagnostics::{Diagnostic, Span};
-use crate::syntax::ast::{Arg, ArgKind, Cell, Column, Ident, Number, Row, Statement, StatementKind, Table, UnitText};
+use crate::syntax::ast::{
+    Arg, ArgKind, Cell, Column, Ident, Number, Row, Statement, StatementKind, Table, UnitText,
+};
 use crate::units::Dimension;
 
 /// Most points accepted in one curve table (grammar/LANGUAGE.md, "Limits").
@@ -16,8 +20,17 @@ pub const MAX_CURVE_POINTS: usize = 200;
 /// Most curves per pump.
 pub const MAX_CURVES: usize = 12;
 
-pub const PUMP_FIELDS: &[&str] =
-    &["speed", "arrangement", "count", "standby", "impeller", "adjust", "min_speed", "max_speed", "min_trim"];
+pub const PUMP_FIELDS: &[&str] = &[
+    "speed",
+    "arrangement",
+    "count",
+    "standby",
+    "impeller",
+    "adjust",
+    "min_speed",
+    "max_speed",
+    "min_trim",
+];
 
 const COLUMNS: &[(&str, Dimension)] = &[
     ("flow", Dimension::VOLUME_RATE),
@@ -37,16 +50,29 @@ pub fn lower_pump(
     diags: &mut Vec<Diagnostic>,
 ) -> Option<PumpCandidate> {
     let name = match args.first() {
-        Some(Arg { kind: ArgKind::Word(w), .. }) => w.clone(),
+        Some(Arg {
+            kind: ArgKind::Word(w),
+            ..
+        }) => w.clone(),
         _ => {
-            diags.push(Diagnostic::error("bad-pump", "a pump needs a name", Some(span)).with_help("write `pump P1 \"description\" { ... }`"));
+            diags.push(
+                Diagnostic::error("bad-pump", "a pump needs a name", Some(span))
+                    .with_help("write `pump P1 \"description\" { ... }`"),
+            );
             return None;
         }
     };
     let description = match args.get(1) {
-        Some(Arg { kind: ArgKind::Text(t), .. }) => t.clone(),
+        Some(Arg {
+            kind: ArgKind::Text(t),
+            ..
+        }) => t.clone(),
         Some(a) => {
-            diags.push(Diagnostic::error("bad-pump", "after the pump's name only a quoted description may follow", Some(a.span)));
+            diags.push(Diagnostic::error(
+                "bad-pump",
+                "after the pump's name only a quoted description may follow",
+                Some(a.span),
+            ));
             String::new()
         }
         None => String::new(),
@@ -78,12 +104,23 @@ pub fn lower_pump(
                 "speed" => {
                     let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
                     if v <= 0.0 {
-                        return Err(Diagnostic::error("out-of-range", "the speed must be greater than zero", Some(e.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "the speed must be greater than zero",
+                            Some(e.span),
+                        ));
                     }
                     p.rated_speed = Frequency::new::<hertz>(v);
                 }
                 "arrangement" => {
-                    p.arrangement = match eval::expect_word(e, env, "arrangement", &["single", "parallel", "series"])?.as_str() {
+                    p.arrangement = match eval::expect_word(
+                        e,
+                        env,
+                        "arrangement",
+                        &["single", "parallel", "series"],
+                    )?
+                    .as_str()
+                    {
                         "parallel" => ArrangementKind::Parallel,
                         "series" => ArrangementKind::Series,
                         _ => ArrangementKind::Single,
@@ -93,7 +130,11 @@ pub fn lower_pump(
                     let v = expect_number(e, env, field.name)?;
                     let lo = if field.name == "count" { 1.0 } else { 0.0 };
                     if v.fract() != 0.0 || v < lo || v > 12.0 {
-                        return Err(Diagnostic::error("out-of-range", format!("`{}` is a whole number from {lo} to 12", field.name), Some(e.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("`{}` is a whole number from {lo} to 12", field.name),
+                            Some(e.span),
+                        ));
                     }
                     if field.name == "count" {
                         p.count = v as u32
@@ -104,11 +145,17 @@ pub fn lower_pump(
                 "impeller" => {
                     let v = expect_dim(e, env, Dimension::LENGTH, "impeller diameter")?.si;
                     if v <= 0.0 {
-                        return Err(Diagnostic::error("out-of-range", "the impeller diameter must be greater than zero", Some(e.span)));
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "the impeller diameter must be greater than zero",
+                            Some(e.span),
+                        ));
                     }
                     p.impeller = Some(Length::new::<meter>(v));
                 }
-                "adjust" => adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?,
+                "adjust" => {
+                    adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?
+                }
                 "min_speed" | "max_speed" | "min_trim" => {
                     let v = expect_number(e, env, field.name)?;
                     let hi = if field.name == "max_speed" { 1.2 } else { 1.0 };
@@ -138,32 +185,63 @@ pub fn lower_pump(
         }
     }
     p.adjust = match adjust_word.as_str() {
-        "speed" => Adjust::Speed { min_ratio: min_speed, max_ratio: max_speed },
-        "trim" => Adjust::Trim { min_ratio: min_trim },
+        "speed" => Adjust::Speed {
+            min_ratio: min_speed,
+            max_ratio: max_speed,
+        },
+        "trim" => Adjust::Trim {
+            min_ratio: min_trim,
+        },
         _ => Adjust::None,
     };
     if f.get("speed").is_none() {
-        diags.push(missing("speed", &format!("pump {name}"), span, "speed = 1780 rpm"));
+        diags.push(missing(
+            "speed",
+            &format!("pump {name}"),
+            span,
+            "speed = 1780 rpm",
+        ));
     }
     for st in &f.rest {
         match &st.kind {
             StatementKind::Curve { args, table, .. } => {
                 if p.curves.len() >= MAX_CURVES {
-                    diags.push(Diagnostic::error("too-many", format!("a pump may have at most {MAX_CURVES} curves"), Some(st.span)));
+                    diags.push(Diagnostic::error(
+                        "too-many",
+                        format!("a pump may have at most {MAX_CURVES} curves"),
+                        Some(st.span),
+                    ));
                     continue;
                 }
-                if let Some(c) = lower_curve(args, table.as_ref(), st.span, p.rated_speed, env, files, diags) {
+                if let Some(c) = lower_curve(
+                    args,
+                    table.as_ref(),
+                    st.span,
+                    p.rated_speed,
+                    env,
+                    files,
+                    diags,
+                ) {
                     p.curves.push(c);
                 }
             }
             _ => diags.push(
-                Diagnostic::error("unexpected", "a pump holds fields and `curve` tables", Some(st.span))
-                    .with_help("see grammar/LANGUAGE.md, section \"pump\""),
+                Diagnostic::error(
+                    "unexpected",
+                    "a pump holds fields and `curve` tables",
+                    Some(st.span),
+                )
+                .with_help("see grammar/LANGUAGE.md, section \"pump\""),
             ),
         }
     }
     if p.curves.is_empty() {
-        diags.push(missing("curve", &format!("pump {name}"), span, "curve impeller 10 in { ... }"));
+        diags.push(missing(
+            "curve",
+            &format!("pump {name}"),
+            span,
+            "curve impeller 10 in { ... }",
+        ));
     }
     Some(p)
 }
@@ -183,36 +261,75 @@ fn lower_curve(
     let mut csv: Option<(String, Span)> = None;
     let mut i = 0;
     while i < args.len() {
-        let (Arg { kind: ArgKind::Word(w), span: ws }, next) = (&args[i], args.get(i + 1)) else {
-            diags.push(Diagnostic::error("bad-curve", "expected `impeller`, `speed` or `from`", Some(args[i].span)));
+        let (
+            Arg {
+                kind: ArgKind::Word(w),
+                span: ws,
+            },
+            next,
+        ) = (&args[i], args.get(i + 1))
+        else {
+            diags.push(Diagnostic::error(
+                "bad-curve",
+                "expected `impeller`, `speed` or `from`",
+                Some(args[i].span),
+            ));
             return None;
         };
         let q = |dim: Dimension, what: &str, diags: &mut Vec<Diagnostic>| -> Option<f64> {
             match next.map(|a| &a.kind) {
-                Some(ArgKind::Quantity { value, unit }) => match eval::quantity_literal(value, unit) {
-                    Ok(q) if q.dim == dim && q.si > 0.0 => Some(q.si),
-                    Ok(q) => {
-                        diags.push(Diagnostic::error("unit-mismatch", format!("{what}: expected {} greater than zero, found {}", dim.describe(), q.dim.describe()), next.map(|a| a.span)));
-                        None
+                Some(ArgKind::Quantity { value, unit }) => {
+                    match eval::quantity_literal(value, unit) {
+                        Ok(q) if q.dim == dim && q.si > 0.0 => Some(q.si),
+                        Ok(q) => {
+                            diags.push(Diagnostic::error(
+                                "unit-mismatch",
+                                format!(
+                                    "{what}: expected {} greater than zero, found {}",
+                                    dim.describe(),
+                                    q.dim.describe()
+                                ),
+                                next.map(|a| a.span),
+                            ));
+                            None
+                        }
+                        Err(d) => {
+                            diags.push(d);
+                            None
+                        }
                     }
-                    Err(d) => {
-                        diags.push(d);
-                        None
-                    }
-                },
+                }
                 _ => {
-                    diags.push(Diagnostic::error("bad-curve", format!("`{w}` needs {} after it", dim.describe()), Some(*ws)));
+                    diags.push(Diagnostic::error(
+                        "bad-curve",
+                        format!("`{w}` needs {} after it", dim.describe()),
+                        Some(*ws),
+                    ));
                     None
                 }
             }
         };
         match w.as_str() {
-            "impeller" => impeller = Some(Length::new::<meter>(q(Dimension::LENGTH, "impeller diameter", diags)?)),
-            "speed" => speed = Frequency::new::<hertz>(q(Dimension::FREQUENCY, "curve speed", diags)?),
+            "impeller" => {
+                impeller = Some(Length::new::<meter>(q(
+                    Dimension::LENGTH,
+                    "impeller diameter",
+                    diags,
+                )?))
+            }
+            "speed" => {
+                speed = Frequency::new::<hertz>(q(Dimension::FREQUENCY, "curve speed", diags)?)
+            }
             "from" => match next.map(|a| &a.kind) {
-                Some(ArgKind::Text(t)) => csv = Some((t.clone(), next.map(|a| a.span).unwrap_or(*ws))),
+                Some(ArgKind::Text(t)) => {
+                    csv = Some((t.clone(), next.map(|a| a.span).unwrap_or(*ws)))
+                }
                 _ => {
-                    diags.push(Diagnostic::error("bad-curve", "`from` needs a quoted file name", Some(*ws)));
+                    diags.push(Diagnostic::error(
+                        "bad-curve",
+                        "`from` needs a quoted file name",
+                        Some(*ws),
+                    ));
                     return None;
                 }
             },
@@ -226,7 +343,11 @@ fn lower_curve(
     let owned;
     let table = match (table, csv) {
         (Some(_), Some((_, s))) => {
-            diags.push(Diagnostic::error("conflicting-fields", "a curve takes its table inline or from a file, not both", Some(s)));
+            diags.push(Diagnostic::error(
+                "conflicting-fields",
+                "a curve takes its table inline or from a file, not both",
+                Some(s),
+            ));
             return None;
         }
         (Some(t), None) => t,
@@ -242,12 +363,22 @@ fn lower_curve(
                 }
             },
             Err(msg) => {
-                diags.push(Diagnostic::error("file-not-read", format!("cannot read `{path}`: {msg}"), Some(s)).with_help("the path is relative to the design file"));
+                diags.push(
+                    Diagnostic::error(
+                        "file-not-read",
+                        format!("cannot read `{path}`: {msg}"),
+                        Some(s),
+                    )
+                    .with_help("the path is relative to the design file"),
+                );
                 return None;
             }
         },
         (None, None) => {
-            diags.push(Diagnostic::error("bad-curve", "the curve has no table", Some(span)).with_help("give the table in braces, or `from \"file.csv\"`"));
+            diags.push(
+                Diagnostic::error("bad-curve", "the curve has no table", Some(span))
+                    .with_help("give the table in braces, or `from \"file.csv\"`"),
+            );
             return None;
         }
     };
@@ -257,15 +388,31 @@ fn lower_curve(
 /// A CSV curve table turned into the same table form as an inline one. Spans
 /// point at the `from "..."` text; messages carry the CSV line number.
 fn csv_table(text: &str, at: Span) -> Result<Table, String> {
-    let mut lines = text.lines().enumerate().filter(|(_, l)| !l.trim().is_empty() && !l.trim_start().starts_with('#'));
+    let mut lines = text
+        .lines()
+        .enumerate()
+        .filter(|(_, l)| !l.trim().is_empty() && !l.trim_start().starts_with('#'));
     let (_, head) = lines.next().ok_or("the file is empty")?;
     let mut columns = Vec::new();
     for h in head.split(',') {
         let mut it = h.split_whitespace();
         let (Some(n), Some(u), None) = (it.next(), it.next(), it.next()) else {
-            return Err(format!("header cell `{}` is not a column name and a unit", h.trim()));
+            return Err(format!(
+                "header cell `{}` is not a column name and a unit",
+                h.trim()
+            ));
         };
-        columns.push(Column { name: Ident { name: n.into(), span: at }, unit: UnitText { text: u.into(), span: at }, span: at });
+        columns.push(Column {
+            name: Ident {
+                name: n.into(),
+                span: at,
+            },
+            unit: UnitText {
+                text: u.into(),
+                span: at,
+            },
+            span: at,
+        });
     }
     let mut rows = Vec::new();
     for (no, line) in lines {
@@ -275,20 +422,35 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
             let value = if c == "-" || c.is_empty() {
                 None
             } else {
-                let v: f64 = c.parse().map_err(|_| format!("line {}: `{c}` is not a number", no + 1))?;
+                let v: f64 = c
+                    .parse()
+                    .map_err(|_| format!("line {}: `{c}` is not a number", no + 1))?;
                 if !v.is_finite() {
                     return Err(format!("line {}: `{c}` is not a finite number", no + 1));
                 }
-                Some(Number { text: c.into(), value: v })
+                Some(Number {
+                    text: c.into(),
+                    value: v,
+                })
             };
             cells.push(Cell { value, span: at });
         }
         rows.push(Row { cells, span: at });
     }
-    Ok(Table { columns, rows, span: at })
+    Ok(Table {
+        columns,
+        rows,
+        span: at,
+    })
 }
 
-fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env, diags: &mut Vec<Diagnostic>) -> Option<CurveData> {
+fn lower_table(
+    t: &Table,
+    impeller: Option<Length>,
+    speed: Frequency,
+    _env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<CurveData> {
     let before = diags.len();
     let mut units = Vec::new();
     for c in &t.columns {
@@ -300,33 +462,78 @@ fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env
         match eval::unit(&c.unit) {
             Ok(u) if u.dim == *dim => units.push((c.name.name.as_str(), u)),
             Ok(u) => diags.push(
-                Diagnostic::error("unit-mismatch", format!("column `{}`: expected {}, found {} ({})", c.name.name, dim.describe(), u.dim.describe(), c.unit.text), Some(c.unit.span))
-                    .with_label(format!("expected {}", dim.describe()))
-                    .with_help(eval::example_units(*dim)),
+                Diagnostic::error(
+                    "unit-mismatch",
+                    format!(
+                        "column `{}`: expected {}, found {} ({})",
+                        c.name.name,
+                        dim.describe(),
+                        u.dim.describe(),
+                        c.unit.text
+                    ),
+                    Some(c.unit.span),
+                )
+                .with_label(format!("expected {}", dim.describe()))
+                .with_help(eval::example_units(*dim)),
             ),
             Err(d) => diags.push(d),
         }
     }
     for need in ["flow", "head"] {
         if !t.columns.iter().any(|c| c.name.name == need) {
-            diags.push(Diagnostic::error("missing-column", format!("the curve table needs a `{need}` column"), Some(t.span)));
+            diags.push(Diagnostic::error(
+                "missing-column",
+                format!("the curve table needs a `{need}` column"),
+                Some(t.span),
+            ));
         }
     }
     if diags.len() > before {
         return None;
     }
     if t.rows.len() > MAX_CURVE_POINTS {
-        diags.push(Diagnostic::error("too-many", format!("a curve may have at most {MAX_CURVE_POINTS} points; this one has {}", t.rows.len()), Some(t.span)));
+        diags.push(Diagnostic::error(
+            "too-many",
+            format!(
+                "a curve may have at most {MAX_CURVE_POINTS} points; this one has {}",
+                t.rows.len()
+            ),
+            Some(t.span),
+        ));
         return None;
     }
     if t.rows.len() < 3 {
-        diags.push(Diagnostic::error("too-few-points", "a curve needs at least 3 points", Some(t.span)).with_help("give points from shut-off to beyond the expected duty"));
+        diags.push(
+            Diagnostic::error(
+                "too-few-points",
+                "a curve needs at least 3 points",
+                Some(t.span),
+            )
+            .with_help("give points from shut-off to beyond the expected duty"),
+        );
         return None;
     }
-    let mut c = CurveData { impeller, speed, flow: vec![], head: vec![], efficiency: vec![], npshr: vec![], shaft_power: vec![], span: t.span };
+    let mut c = CurveData {
+        impeller,
+        speed,
+        flow: vec![],
+        head: vec![],
+        efficiency: vec![],
+        npshr: vec![],
+        shaft_power: vec![],
+        span: t.span,
+    };
     for row in &t.rows {
         if row.cells.len() != units.len() {
-            diags.push(Diagnostic::error("bad-row", format!("this row has {} values; the table has {} columns", row.cells.len(), units.len()), Some(row.span)));
+            diags.push(Diagnostic::error(
+                "bad-row",
+                format!(
+                    "this row has {} values; the table has {} columns",
+                    row.cells.len(),
+                    units.len()
+                ),
+                Some(row.span),
+            ));
             continue;
         }
         let mut eff = None;
@@ -337,13 +544,21 @@ fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env
         for ((name, u), cell) in units.iter().zip(&row.cells) {
             let Some(v) = &cell.value else {
                 if matches!(*name, "flow" | "head") {
-                    diags.push(Diagnostic::error("bad-row", format!("every point needs a {name}"), Some(cell.span)));
+                    diags.push(Diagnostic::error(
+                        "bad-row",
+                        format!("every point needs a {name}"),
+                        Some(cell.span),
+                    ));
                 }
                 continue;
             };
             let si = crate::units::Quantity::from_value(v.value, u).si;
             if !si.is_finite() || si < 0.0 {
-                diags.push(Diagnostic::error("out-of-range", format!("{name} must not be negative"), Some(cell.span)));
+                diags.push(Diagnostic::error(
+                    "out-of-range",
+                    format!("{name} must not be negative"),
+                    Some(cell.span),
+                ));
                 continue;
             }
             match *name {
@@ -351,7 +566,14 @@ fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env
                 "head" => head = Some(Length::new::<meter>(si)),
                 "efficiency" => {
                     if si > 1.0 {
-                        diags.push(Diagnostic::error("out-of-range", "an efficiency cannot exceed 100 %", Some(cell.span)).with_help("is the column's unit `%`?"));
+                        diags.push(
+                            Diagnostic::error(
+                                "out-of-range",
+                                "an efficiency cannot exceed 100 %",
+                                Some(cell.span),
+                            )
+                            .with_help("is the column's unit `%`?"),
+                        );
                     }
                     eff = Some(Ratio::new::<ratio>(si))
                 }
@@ -362,7 +584,11 @@ fn lower_table(t: &Table, impeller: Option<Length>, speed: Frequency, _env: &Env
         if let (Some(q), Some(h)) = (flow, head) {
             if let Some(prev) = c.flow.last() {
                 if q <= *prev {
-                    diags.push(Diagnostic::error("bad-row", "flows must increase down the table", Some(row.span)));
+                    diags.push(Diagnostic::error(
+                        "bad-row",
+                        "flows must increase down the table",
+                        Some(row.span),
+                    ));
                 }
             }
             c.flow.push(q);

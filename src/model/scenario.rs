@@ -2,10 +2,13 @@
 //! lines; and applying a case's overrides to it. Each field has one setter,
 //! used both by the base design and by case overrides.
 
-use uom::si::f64::{DynamicViscosity, Frequency, Length, MassDensity, Pressure, ThermodynamicTemperature, Time};
+use uom::si::f64::{
+    DynamicViscosity, Frequency, Length, MassDensity, Pressure, ThermodynamicTemperature, Time,
+};
 use uom::si::{
-    dynamic_viscosity::pascal_second, frequency::hertz, length::meter, mass_density::kilogram_per_cubic_meter,
-    pressure::pascal, thermodynamic_temperature::kelvin, time::second,
+    dynamic_viscosity::pascal_second, frequency::hertz, length::meter,
+    mass_density::kilogram_per_cubic_meter, pressure::pascal, thermodynamic_temperature::kelvin,
+    time::second,
 };
 
 use super::design::*;
@@ -31,7 +34,12 @@ pub fn expect_length(e: &Expr, env: &Env, what: &str) -> Result<Length, Diagnost
 }
 
 /// A pressure field, keeping gauge/absolute; a plain pressure takes `plain_as`.
-pub fn expect_pressure(e: &Expr, env: &Env, what: &str, plain_as_gauge: bool) -> Result<SurfacePressure, Diagnostic> {
+pub fn expect_pressure(
+    e: &Expr,
+    env: &Env,
+    what: &str,
+    plain_as_gauge: bool,
+) -> Result<SurfacePressure, Diagnostic> {
     let q = expect_dim(e, env, Dimension::PRESSURE, what)?;
     Ok(match q.kind {
         QuantityKind::AbsolutePressure => SurfacePressure::Absolute(pressure(q.si)),
@@ -45,7 +53,12 @@ fn positive(v: f64, what: &str, span: Span) -> Result<f64, Diagnostic> {
     if v > 0.0 && v.is_finite() {
         Ok(v)
     } else {
-        Err(Diagnostic::error("out-of-range", format!("{what} must be greater than zero"), Some(span)).with_label("not positive"))
+        Err(Diagnostic::error(
+            "out-of-range",
+            format!("{what} must be greater than zero"),
+            Some(span),
+        )
+        .with_label("not positive"))
     }
 }
 
@@ -53,11 +66,22 @@ fn non_negative(v: f64, what: &str, span: Span) -> Result<f64, Diagnostic> {
     if v >= 0.0 && v.is_finite() {
         Ok(v)
     } else {
-        Err(Diagnostic::error("out-of-range", format!("{what} must not be negative"), Some(span)).with_label("negative"))
+        Err(Diagnostic::error(
+            "out-of-range",
+            format!("{what} must not be negative"),
+            Some(span),
+        )
+        .with_label("negative"))
     }
 }
 
-pub const FLUID_FIELDS: &[&str] = &["temperature", "density", "viscosity", "kinematic_viscosity", "vapor_pressure"];
+pub const FLUID_FIELDS: &[&str] = &[
+    "temperature",
+    "density",
+    "viscosity",
+    "kinematic_viscosity",
+    "vapor_pressure",
+];
 
 /// Set one fluid field.
 pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
@@ -108,13 +132,25 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
 }
 
 /// Lower `fluid water { ... }` or `fluid "name" { ... }`.
-pub fn lower_fluid(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags: &mut Vec<Diagnostic>) -> Option<Fluid> {
+pub fn lower_fluid(
+    args: &[Arg],
+    body: &[Statement],
+    span: Span,
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<Fluid> {
     let f = read_fields(body, "fluid", FLUID_FIELDS, diags);
     for st in &f.rest {
-        diags.push(Diagnostic::error("unexpected", "a fluid holds only fields", Some(st.span)));
+        diags.push(Diagnostic::error(
+            "unexpected",
+            "a fluid holds only fields",
+            Some(st.span),
+        ));
     }
     let mut fluid = match args.first().map(|a| &a.kind) {
-        Some(ArgKind::Word(w)) if w == "water" => Fluid::Water { temperature: ThermodynamicTemperature::new::<kelvin>(288.15) },
+        Some(ArgKind::Word(w)) if w == "water" => Fluid::Water {
+            temperature: ThermodynamicTemperature::new::<kelvin>(288.15),
+        },
         Some(ArgKind::Text(name)) => Fluid::Custom(CustomFluid {
             name: name.clone(),
             temperature: None,
@@ -134,17 +170,30 @@ pub fn lower_fluid(args: &[Arg], body: &[Statement], span: Span, env: &Env, diag
     match &fluid {
         Fluid::Water { .. } => {
             if f.get("temperature").is_none() {
-                diags.push(missing("temperature", "fluid water", span, "temperature = 15 degC"));
+                diags.push(missing(
+                    "temperature",
+                    "fluid water",
+                    span,
+                    "temperature = 15 degC",
+                ));
             }
         }
         Fluid::Custom(_) => {
-            for (req, ex) in [("density", "density = 1030 kg/m^3"), ("vapor_pressure", "vapor_pressure = 2.3 kPa")] {
+            for (req, ex) in [
+                ("density", "density = 1030 kg/m^3"),
+                ("vapor_pressure", "vapor_pressure = 2.3 kPa"),
+            ] {
                 if f.get(req).is_none() {
                     diags.push(missing(req, "a custom fluid", span, ex));
                 }
             }
             if f.get("viscosity").is_none() && f.get("kinematic_viscosity").is_none() {
-                diags.push(missing("viscosity", "a custom fluid", span, "viscosity = 1.2 cP"));
+                diags.push(missing(
+                    "viscosity",
+                    "a custom fluid",
+                    span,
+                    "viscosity = 1.2 cP",
+                ));
             }
         }
     }
@@ -170,11 +219,21 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
                 site.barometric_pressure = Some(p)
             }
             SurfacePressure::Gauge(_) => {
-                return Err(Diagnostic::error("unit-mismatch", "the barometric pressure is absolute, not gauge", Some(e.span))
-                    .with_help("write it as kPa, kPa(a), psia or in_Hg"))
+                return Err(Diagnostic::error(
+                    "unit-mismatch",
+                    "the barometric pressure is absolute, not gauge",
+                    Some(e.span),
+                )
+                .with_help("write it as kPa, kPa(a), psia or in_Hg"))
             }
         },
-        other => return Err(Diagnostic::error("unknown-field", format!("site has no field `{other}`"), Some(e.span))),
+        other => {
+            return Err(Diagnostic::error(
+                "unknown-field",
+                format!("site has no field `{other}`"),
+                Some(e.span),
+            ))
+        }
     }
     Ok(())
 }
@@ -185,7 +244,13 @@ pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(),
     match field {
         "level" => tank.level = expect_length(e, env, "tank level")?,
         "pressure" => tank.surface_pressure = expect_pressure(e, env, "surface pressure", true)?,
-        other => return Err(Diagnostic::error("unknown-field", format!("a tank has no field `{other}`"), Some(e.span))),
+        other => {
+            return Err(Diagnostic::error(
+                "unknown-field",
+                format!("a tank has no field `{other}`"),
+                Some(e.span),
+            ))
+        }
     }
     Ok(())
 }
@@ -209,14 +274,26 @@ pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Resul
             positive(c, "Hazen-Williams C", e.span)?;
             seg.hazen_williams_c = Some(c);
         }
-        other => return Err(Diagnostic::error("unknown-field", format!("a pipe has no field `{other}`"), Some(e.span))),
+        other => {
+            return Err(Diagnostic::error(
+                "unknown-field",
+                format!("a pipe has no field `{other}`"),
+                Some(e.span),
+            ))
+        }
     }
     Ok(())
 }
 
 /// Lower `pipe MATERIAL SIZE { fields }`: the size is `N in schedule S`,
 /// `N in type K`, `N in class 350`, `N in DR 11`, `DN150 schedule 40` or `bore 154 mm`.
-pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags: &mut Vec<Diagnostic>) -> Option<Segment> {
+pub fn lower_pipe(
+    args: &[Arg],
+    body: &[Statement],
+    span: Span,
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<Segment> {
     let fail = |diags: &mut Vec<Diagnostic>, at: Span, msg: &str| {
         diags.push(
             Diagnostic::error("bad-pipe", msg.to_string(), Some(at)).with_help(
@@ -226,19 +303,30 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
         None
     };
     let material = match args.first() {
-        Some(Arg { kind: ArgKind::Word(w), span: s }) => match Material::from_keyword(w) {
+        Some(Arg {
+            kind: ArgKind::Word(w),
+            span: s,
+        }) => match Material::from_keyword(w) {
             Some(m) => m,
             None => {
                 let names: Vec<&str> = Material::all().iter().map(|m| m.keyword()).collect();
                 let near = nearest(w, names.iter().copied());
                 diags.push(
-                    Diagnostic::error("unknown-material", format!("`{w}` is not a known pipe material"), Some(*s))
-                        .with_label("unknown material")
-                        .with_help(format!(
-                            "{}materials: {}",
-                            if near.is_empty() { String::new() } else { format!("did you mean {}? ", eval::quote_list(&near)) },
-                            eval::quote_list(&names)
-                        )),
+                    Diagnostic::error(
+                        "unknown-material",
+                        format!("`{w}` is not a known pipe material"),
+                        Some(*s),
+                    )
+                    .with_label("unknown material")
+                    .with_help(format!(
+                        "{}materials: {}",
+                        if near.is_empty() {
+                            String::new()
+                        } else {
+                            format!("did you mean {}? ", eval::quote_list(&near))
+                        },
+                        eval::quote_list(&names)
+                    )),
                 );
                 return None;
             }
@@ -248,7 +336,9 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
     };
     let (size_label, inner, source) = match args.get(1).map(|a| &a.kind) {
         Some(ArgKind::Word(w)) if w == "bore" => {
-            let Some(a) = args.get(2) else { return fail(diags, span, "`bore` needs an inner diameter") };
+            let Some(a) = args.get(2) else {
+                return fail(diags, span, "`bore` needs an inner diameter");
+            };
             let q = match &a.kind {
                 ArgKind::Quantity { value, unit } => match eval::quantity_literal(value, unit) {
                     Ok(q) => q,
@@ -261,36 +351,72 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
             };
             if q.dim != Dimension::LENGTH {
                 diags.push(
-                    Diagnostic::error("unit-mismatch", format!("pipe bore: expected a length, found {}", q.dim.describe()), Some(a.span))
-                        .with_label("expected a length"),
+                    Diagnostic::error(
+                        "unit-mismatch",
+                        format!("pipe bore: expected a length, found {}", q.dim.describe()),
+                        Some(a.span),
+                    )
+                    .with_label("expected a length"),
                 );
                 return None;
             }
             if q.si <= 0.0 {
                 return fail(diags, a.span, "the bore must be greater than zero");
             }
-            let ArgKind::Quantity { value, unit } = &a.kind else { return None };
-            (format!("bore {} {}", value.text, unit.text), q.si, "given in the design".to_string())
+            let ArgKind::Quantity { value, unit } = &a.kind else {
+                return None;
+            };
+            (
+                format!("bore {} {}", value.text, unit.text),
+                q.si,
+                "given in the design".to_string(),
+            )
         }
         Some(_) => {
-            let Some(size_arg) = args.get(1) else { return None };
+            let Some(size_arg) = args.get(1) else {
+                return None;
+            };
             let nominal = match &size_arg.kind {
                 ArgKind::Quantity { value, unit } if unit.text == "in" => value.text.clone(),
                 ArgKind::Word(w) if w.starts_with("DN") => w.clone(),
-                _ => return fail(diags, size_arg.span, "expected a nominal size such as `6 in`, `1-1/2 in` or `DN150`"),
+                _ => {
+                    return fail(
+                        diags,
+                        size_arg.span,
+                        "expected a nominal size such as `6 in`, `1-1/2 in` or `DN150`",
+                    )
+                }
             };
             let (Some(kind_arg), Some(value_arg)) = (args.get(2), args.get(3)) else {
-                return fail(diags, size_arg.span, "the nominal size needs a schedule, type, class or DR after it");
+                return fail(
+                    diags,
+                    size_arg.span,
+                    "the nominal size needs a schedule, type, class or DR after it",
+                );
             };
             let kind = match &kind_arg.kind {
-                ArgKind::Word(w) if ["schedule", "type", "class", "DR"].contains(&w.as_str()) => w.clone(),
-                _ => return fail(diags, kind_arg.span, "expected `schedule`, `type`, `class` or `DR`"),
+                ArgKind::Word(w) if ["schedule", "type", "class", "DR"].contains(&w.as_str()) => {
+                    w.clone()
+                }
+                _ => {
+                    return fail(
+                        diags,
+                        kind_arg.span,
+                        "expected `schedule`, `type`, `class` or `DR`",
+                    )
+                }
             };
             let value = match &value_arg.kind {
                 ArgKind::Number(n) => n.text.clone(),
                 ArgKind::Word(w) => w.clone(),
                 ArgKind::Quantity { value, unit } => format!("{}{}", value.text, unit.text),
-                _ => return fail(diags, value_arg.span, "expected a schedule, type, class or DR value"),
+                _ => {
+                    return fail(
+                        diags,
+                        value_arg.span,
+                        "expected a schedule, type, class or DR value",
+                    )
+                }
             };
             let schedule = match kind.as_str() {
                 "class" => format!("class {value}"),
@@ -306,7 +432,8 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
                 Ok(p) => (label, p.inner_diameter_m, p.standard.to_string()),
                 Err(e) => {
                     let at = size_arg.span.join(value_arg.span);
-                    let mut d = Diagnostic::error("unknown-pipe-size", e.message, Some(at)).with_label("not in the pipe catalogue");
+                    let mut d = Diagnostic::error("unknown-pipe-size", e.message, Some(at))
+                        .with_label("not in the pipe catalogue");
                     if !e.nearest.is_empty() {
                         d = d.with_help(format!("nearest valid sizes: {}", e.nearest.join(", ")));
                     }
@@ -332,8 +459,12 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
     let f = read_fields(body, "a pipe", SEGMENT_FIELDS, diags);
     for st in &f.rest {
         diags.push(
-            Diagnostic::error("unexpected", "a pipe's braces hold only its fields", Some(st.span))
-                .with_help("fittings follow the pipe on their own lines, outside its braces"),
+            Diagnostic::error(
+                "unexpected",
+                "a pipe's braces hold only its fields",
+                Some(st.span),
+            )
+            .with_help("fittings follow the pipe on their own lines, outside its braces"),
         );
     }
     if f.get("length").is_none() {
@@ -350,40 +481,87 @@ pub fn lower_pipe(args: &[Arg], body: &[Statement], span: Span, env: &Env, diags
 pub const FITTING_FIELDS: &[&str] = &["beta", "angle"];
 
 /// Lower `fitting NAME [* N] [{ beta = 0.75, angle = 20 deg }]`.
-pub fn lower_fitting(args: &[Arg], body: Option<&[Statement]>, span: Span, env: &Env, diags: &mut Vec<Diagnostic>) -> Option<FittingUse> {
+pub fn lower_fitting(
+    args: &[Arg],
+    body: Option<&[Statement]>,
+    span: Span,
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<FittingUse> {
     let (name, name_span) = match args.first() {
-        Some(Arg { kind: ArgKind::Word(w), span }) => (w.as_str(), *span),
+        Some(Arg {
+            kind: ArgKind::Word(w),
+            span,
+        }) => (w.as_str(), *span),
         _ => {
-            diags.push(Diagnostic::error("bad-fitting", "a fitting needs its name", Some(span)).with_help("write e.g. `fitting elbow_90_long * 2`"));
+            diags.push(
+                Diagnostic::error("bad-fitting", "a fitting needs its name", Some(span))
+                    .with_help("write e.g. `fitting elbow_90_long * 2`"),
+            );
             return None;
         }
     };
     let Some(spec) = fittings::fitting(name) else {
         let near = fittings::suggest_fitting(name);
         let help = if near.is_empty() {
-            "grammar/LANGUAGE.md lists the fittings; or write `loss { k = 0.5, why = \"...\" }`".to_string()
+            "grammar/LANGUAGE.md lists the fittings; or write `loss { k = 0.5, why = \"...\" }`"
+                .to_string()
         } else {
             format!("did you mean {}?", eval::quote_list(&near))
         };
-        diags.push(Diagnostic::error("unknown-fitting", format!("`{name}` is not a known fitting"), Some(name_span)).with_label("unknown fitting").with_help(help));
+        diags.push(
+            Diagnostic::error(
+                "unknown-fitting",
+                format!("`{name}` is not a known fitting"),
+                Some(name_span),
+            )
+            .with_label("unknown fitting")
+            .with_help(help),
+        );
         return None;
     };
     let mut count = 1u32;
     match &args[1..] {
         [] => {}
-        [Arg { kind: ArgKind::Star, .. }, Arg { kind: ArgKind::Number(n), span: s }] => {
+        [Arg {
+            kind: ArgKind::Star,
+            ..
+        }, Arg {
+            kind: ArgKind::Number(n),
+            span: s,
+        }] => {
             if n.value.fract() != 0.0 || n.value < 1.0 || n.value > 1000.0 {
-                diags.push(Diagnostic::error("bad-count", "a fitting count is a whole number from 1 to 1000", Some(*s)).with_label("not a count"));
+                diags.push(
+                    Diagnostic::error(
+                        "bad-count",
+                        "a fitting count is a whole number from 1 to 1000",
+                        Some(*s),
+                    )
+                    .with_label("not a count"),
+                );
                 return None;
             }
             count = n.value as u32;
         }
         [first, ..] => {
-            diags.push(Diagnostic::error("bad-fitting", "expected `* count` after the fitting name", Some(first.span)).with_help("write e.g. `fitting elbow_90_long * 2`"));
+            diags.push(
+                Diagnostic::error(
+                    "bad-fitting",
+                    "expected `* count` after the fitting name",
+                    Some(first.span),
+                )
+                .with_help("write e.g. `fitting elbow_90_long * 2`"),
+            );
             return None;
         }
     }
-    let mut use_ = FittingUse { spec, count, beta: None, angle_rad: None, span };
+    let mut use_ = FittingUse {
+        spec,
+        count,
+        beta: None,
+        angle_rad: None,
+        span,
+    };
     if let Some(body) = body {
         let f = read_fields(body, "a fitting", FITTING_FIELDS, diags);
         for field in &f.fields {
@@ -391,33 +569,61 @@ pub fn lower_fitting(args: &[Arg], body: Option<&[Statement]>, span: Span, env: 
                 "beta" => match expect_number(field.value, env, "diameter ratio beta") {
                     Ok(b) if b > 0.0 && b < 1.0 => use_.beta = Some(b),
                     Ok(_) => diags.push(
-                        Diagnostic::error("out-of-range", "beta is the small-to-large diameter ratio, between 0 and 1", Some(field.value.span))
-                            .with_label("not between 0 and 1"),
+                        Diagnostic::error(
+                            "out-of-range",
+                            "beta is the small-to-large diameter ratio, between 0 and 1",
+                            Some(field.value.span),
+                        )
+                        .with_label("not between 0 and 1"),
                     ),
                     Err(d) => diags.push(d),
                 },
                 _ => match expect_number(field.value, env, "included angle") {
                     Ok(a) if a > 0.0 && a <= std::f64::consts::PI => use_.angle_rad = Some(a),
-                    Ok(_) => diags.push(Diagnostic::error("out-of-range", "the included angle lies between 0 and 180 deg", Some(field.value.span))),
+                    Ok(_) => diags.push(Diagnostic::error(
+                        "out-of-range",
+                        "the included angle lies between 0 and 180 deg",
+                        Some(field.value.span),
+                    )),
                     Err(d) => diags.push(d),
                 },
             }
         }
     }
     if spec.needs_beta && use_.beta.is_none() {
-        diags.push(missing("beta", &format!("fitting {name}"), span, "fitting expansion_sudden { beta = 0.75 }"));
+        diags.push(missing(
+            "beta",
+            &format!("fitting {name}"),
+            span,
+            "fitting expansion_sudden { beta = 0.75 }",
+        ));
     }
     if spec.needs_angle && use_.angle_rad.is_none() {
-        diags.push(missing("angle", &format!("fitting {name}"), span, "angle = 20 deg"));
+        diags.push(missing(
+            "angle",
+            &format!("fitting {name}"),
+            span,
+            "angle = 20 deg",
+        ));
     }
     Some(use_)
 }
 
 /// Lower `loss { k = 1.5, why = "..." }` or `loss { equivalent_length = 12 ft, why = "..." }`.
-pub fn lower_loss(body: Option<&[Statement]>, span: Span, env: &Env, diags: &mut Vec<Diagnostic>) -> Option<ExtraLoss> {
+pub fn lower_loss(
+    body: Option<&[Statement]>,
+    span: Span,
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<ExtraLoss> {
     let body = body.unwrap_or(&[]);
     let f = read_fields(body, "a loss", &["k", "equivalent_length", "why"], diags);
-    let mut loss = ExtraLoss { k: None, equivalent_length: None, why: String::new(), span };
+    let mut loss = ExtraLoss {
+        k: None,
+        equivalent_length: None,
+        why: String::new(),
+        span,
+    };
     match f.get("why") {
         Some(w) => match eval::expect_text(w.value, env, "the reason") {
             Ok(t) => loss.why = t,
@@ -428,20 +634,32 @@ pub fn lower_loss(body: Option<&[Statement]>, span: Span, env: &Env, diags: &mut
     if let Some(k) = f.get("k") {
         match expect_number(k.value, env, "loss coefficient K") {
             Ok(v) if v >= 0.0 => loss.k = Some(v),
-            Ok(_) => diags.push(Diagnostic::error("out-of-range", "K must not be negative", Some(k.value.span))),
+            Ok(_) => diags.push(Diagnostic::error(
+                "out-of-range",
+                "K must not be negative",
+                Some(k.value.span),
+            )),
             Err(d) => diags.push(d),
         }
     }
     if let Some(l) = f.get("equivalent_length") {
         match expect_length(l.value, env, "equivalent length") {
             Ok(v) if v.get::<meter>() >= 0.0 => loss.equivalent_length = Some(v),
-            Ok(_) => diags.push(Diagnostic::error("out-of-range", "an equivalent length must not be negative", Some(l.value.span))),
+            Ok(_) => diags.push(Diagnostic::error(
+                "out-of-range",
+                "an equivalent length must not be negative",
+                Some(l.value.span),
+            )),
             Err(d) => diags.push(d),
         }
     }
     match (f.get("k").is_some(), f.get("equivalent_length").is_some()) {
         (false, false) => diags.push(missing("k", "a loss", span, "k = 0.5")),
-        (true, true) => diags.push(Diagnostic::error("conflicting-fields", "give a loss either `k` or `equivalent_length`, not both", Some(span))),
+        (true, true) => diags.push(Diagnostic::error(
+            "conflicting-fields",
+            "give a loss either `k` or `equivalent_length`, not both",
+            Some(span),
+        )),
         _ => {}
     }
     Some(loss)
@@ -451,38 +669,67 @@ pub fn lower_loss(body: Option<&[Statement]>, span: Span, env: &Env, diags: &mut
 pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>) -> Vec<Segment> {
     let mut segments: Vec<Segment> = Vec::new();
     for st in body {
-        let StatementKind::Block { keyword, args, body } = &st.kind else {
+        let StatementKind::Block {
+            keyword,
+            args,
+            body,
+        } = &st.kind
+        else {
             let d = match &st.kind {
                 StatementKind::Assign { path, .. } => unknown_field(path, "a line", &[]),
-                _ => Diagnostic::error("unexpected", "a line holds `pipe`, `fitting` and `loss` statements", Some(st.span)),
+                _ => Diagnostic::error(
+                    "unexpected",
+                    "a line holds `pipe`, `fitting` and `loss` statements",
+                    Some(st.span),
+                ),
             };
             diags.push(d);
             continue;
         };
         match keyword.name.as_str() {
             "pipe" => {
-                if let Some(s) = lower_pipe(args, body.as_deref().unwrap_or(&[]), st.span, env, diags) {
+                if let Some(s) =
+                    lower_pipe(args, body.as_deref().unwrap_or(&[]), st.span, env, diags)
+                {
                     segments.push(s);
                 }
             }
             "fitting" | "loss" => {
-                let item_fitting = if keyword.name == "fitting" { lower_fitting(args, body.as_deref(), st.span, env, diags) } else { None };
-                let item_loss = if keyword.name == "loss" { lower_loss(body.as_deref(), st.span, env, diags) } else { None };
+                let item_fitting = if keyword.name == "fitting" {
+                    lower_fitting(args, body.as_deref(), st.span, env, diags)
+                } else {
+                    None
+                };
+                let item_loss = if keyword.name == "loss" {
+                    lower_loss(body.as_deref(), st.span, env, diags)
+                } else {
+                    None
+                };
                 match segments.last_mut() {
                     Some(seg) => {
                         seg.fittings.extend(item_fitting);
                         seg.losses.extend(item_loss);
                     }
                     None => diags.push(
-                        Diagnostic::error("fitting-before-pipe", format!("this {} comes before any pipe in the line", keyword.name), Some(st.span))
-                            .with_help("fittings and losses belong to the pipe above them; put a `pipe` first"),
+                        Diagnostic::error(
+                            "fitting-before-pipe",
+                            format!("this {} comes before any pipe in the line", keyword.name),
+                            Some(st.span),
+                        )
+                        .with_help(
+                            "fittings and losses belong to the pipe above them; put a `pipe` first",
+                        ),
                     ),
                 }
             }
             other => {
                 let near = nearest(other, ["pipe", "fitting", "loss"]);
-                let mut d = Diagnostic::error("unknown-statement", format!("a line has no `{other}`"), Some(keyword.span))
-                    .with_label("not a line statement");
+                let mut d = Diagnostic::error(
+                    "unknown-statement",
+                    format!("a line has no `{other}`"),
+                    Some(keyword.span),
+                )
+                .with_label("not a line statement");
                 d = d.with_help(if near.is_empty() {
                     "a line holds `pipe`, `fitting` and `loss` statements".to_string()
                 } else {
@@ -496,21 +743,31 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
 }
 
 /// Apply one case override `path = value` to a scenario.
-pub fn apply_override(s: &mut Scenario, path: &Path, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
+pub fn apply_override(
+    s: &mut Scenario,
+    path: &Path,
+    e: &Expr,
+    env: &Env,
+) -> Result<(), Diagnostic> {
     let parts: Vec<&str> = path.parts.iter().map(|p| p.name.as_str()).collect();
     match parts.as_slice() {
         ["roughness"] => {
-            s.pipe_condition = match eval::expect_word(e, env, "roughness", &["new", "aged"])?.as_str() {
-                "aged" => PipeCondition::Aged,
-                _ => PipeCondition::New,
-            }
+            s.pipe_condition =
+                match eval::expect_word(e, env, "roughness", &["new", "aged"])?.as_str() {
+                    "aged" => PipeCondition::Aged,
+                    _ => PipeCondition::New,
+                }
         }
         ["hours"] => s.hours_per_year = expect_hours(e, env)?,
         ["fluid", field] => set_fluid(&mut s.fluid, field, e, env)?,
         ["site", field] if SITE_FIELDS.contains(field) => set_site(&mut s.site, field, e, env)?,
         ["station", "centreline"] => s.centreline = expect_length(e, env, "pump centreline")?,
-        [tank, field] if *tank == s.source.name && TANK_FIELDS.contains(field) => set_tank(&mut s.source, field, e, env)?,
-        [tank, field] if *tank == s.destination.name && TANK_FIELDS.contains(field) => set_tank(&mut s.destination, field, e, env)?,
+        [tank, field] if *tank == s.source.name && TANK_FIELDS.contains(field) => {
+            set_tank(&mut s.source, field, e, env)?
+        }
+        [tank, field] if *tank == s.destination.name && TANK_FIELDS.contains(field) => {
+            set_tank(&mut s.destination, field, e, env)?
+        }
         [pump, "speed"] if s.pump_speeds.iter().any(|(n, _)| n == pump) => {
             let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
             let v = positive(v, "a pump speed", e.span)?;
@@ -523,11 +780,19 @@ pub fn apply_override(s: &mut Scenario, path: &Path, e: &Expr, env: &Env) -> Res
             if !s.lines.iter().any(|l| l.name == *line) {
                 return Err(no_such_path(path, s));
             }
-            let Some(l) = s.lines.iter_mut().find(|l| l.name == *line) else { return Err(no_such_path(path, s)) };
+            let Some(l) = s.lines.iter_mut().find(|l| l.name == *line) else {
+                return Err(no_such_path(path, s));
+            };
             let count = l.segments.len();
             let seg = l.segments.get_mut(n.wrapping_sub(1)).ok_or_else(|| {
-                Diagnostic::error("unknown-path", format!("line `{line}` has {count} pipe segment(s); there is no segment {index}"), Some(path.span))
-                    .with_help("segments are numbered from 1 in the order their `pipe` lines appear")
+                Diagnostic::error(
+                    "unknown-path",
+                    format!(
+                        "line `{line}` has {count} pipe segment(s); there is no segment {index}"
+                    ),
+                    Some(path.span),
+                )
+                .with_help("segments are numbered from 1 in the order their `pipe` lines appear")
             })?;
             set_segment(seg, field, e, env)?;
         }
@@ -540,7 +805,12 @@ pub fn apply_override(s: &mut Scenario, path: &Path, e: &Expr, env: &Env) -> Res
 pub fn expect_hours(e: &Expr, env: &Env) -> Result<Time, Diagnostic> {
     let t = expect_dim(e, env, Dimension::TIME, "operating hours per year")?.si;
     if !(0.0..=8784.0 * 3600.0).contains(&t) {
-        return Err(Diagnostic::error("out-of-range", "operating hours per year lie between 0 and 8784 h", Some(e.span)).with_label("not a yearly number of hours"));
+        return Err(Diagnostic::error(
+            "out-of-range",
+            "operating hours per year lie between 0 and 8784 h",
+            Some(e.span),
+        )
+        .with_label("not a yearly number of hours"));
     }
     Ok(Time::new::<second>(t))
 }
@@ -569,11 +839,23 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
     let written = path.dotted();
     let near = nearest(&written, valid.iter().map(|v| v.as_str()));
     let help = if near.is_empty() {
-        format!("a case may override {}", valid.iter().take(12).map(|v| format!("`{v}`")).collect::<Vec<_>>().join(", "))
+        format!(
+            "a case may override {}",
+            valid
+                .iter()
+                .take(12)
+                .map(|v| format!("`{v}`"))
+                .collect::<Vec<_>>()
+                .join(", ")
+        )
     } else {
         format!("did you mean {}?", eval::quote_list(&near))
     };
-    Diagnostic::error("unknown-path", format!("`{written}` does not name anything a case can override"), Some(path.span))
-        .with_label("nothing by this name")
-        .with_help(help)
+    Diagnostic::error(
+        "unknown-path",
+        format!("`{written}` does not name anything a case can override"),
+        Some(path.span),
+    )
+    .with_label("nothing by this name")
+    .with_help(help)
 }

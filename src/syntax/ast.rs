@@ -29,7 +29,11 @@ pub struct Path {
 impl Path {
     /// The path as written, parts joined by dots.
     pub fn dotted(&self) -> String {
-        self.parts.iter().map(|p| p.name.as_str()).collect::<Vec<_>>().join(".")
+        self.parts
+            .iter()
+            .map(|p| p.name.as_str())
+            .collect::<Vec<_>>()
+            .join(".")
     }
 }
 
@@ -46,11 +50,24 @@ pub enum StatementKind {
     /// `path = expr`
     Assign { path: Path, value: Expr },
     /// `path >= expr [for case, case]`
-    Condition { path: Path, op: CompareOp, value: Expr, cases: Vec<Ident> },
+    Condition {
+        path: Path,
+        op: CompareOp,
+        value: Expr,
+        cases: Vec<Ident>,
+    },
     /// `keyword arg arg { body }`
-    Block { keyword: Ident, args: Vec<Arg>, body: Option<Vec<Statement>> },
+    Block {
+        keyword: Ident,
+        args: Vec<Arg>,
+        body: Option<Vec<Statement>>,
+    },
     /// `curve arg arg { table }`
-    Curve { keyword: Ident, args: Vec<Arg>, table: Option<Table> },
+    Curve {
+        keyword: Ident,
+        args: Vec<Arg>,
+        table: Option<Table>,
+    },
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -80,7 +97,10 @@ pub enum ArgKind {
     Word(String),
     Number(Number),
     /// A number (or nominal fraction such as `1-1/2`) with a unit.
-    Quantity { value: Number, unit: UnitText },
+    Quantity {
+        value: Number,
+        unit: UnitText,
+    },
     Text(String),
     Date(String),
     Star,
@@ -110,14 +130,24 @@ pub struct Expr {
 #[derive(Clone, Debug, PartialEq)]
 pub enum ExprKind {
     Number(Number),
-    Quantity { value: Number, unit: UnitText },
+    Quantity {
+        value: Number,
+        unit: UnitText,
+    },
     Text(String),
     Date(String),
     /// A name: a `let` constant or a keyword value such as `aged` or `nema`.
     Name(Path),
     Neg(Box<Expr>),
-    Binary { op: BinaryOp, left: Box<Expr>, right: Box<Expr> },
-    Power { base: Box<Expr>, exponent: i32 },
+    Binary {
+        op: BinaryOp,
+        left: Box<Expr>,
+        right: Box<Expr>,
+    },
+    Power {
+        base: Box<Expr>,
+        exponent: i32,
+    },
     Paren(Box<Expr>),
 }
 

@@ -28,7 +28,9 @@ pub fn source_from_bytes(bytes: Vec<u8>) -> Result<String, Diagnostic> {
             format!("the file is not valid UTF-8 text (first bad byte at offset {at})"),
             None,
         )
-        .with_help("design files are plain UTF-8 text; was a binary or a file in another encoding given?")
+        .with_help(
+            "design files are plain UTF-8 text; was a binary or a file in another encoding given?",
+        )
     })
 }
 
@@ -50,7 +52,8 @@ pub fn parse(source: &str) -> Result<File, Vec<Diagnostic>> {
     if let Some(d) = check_nesting(source) {
         return Err(vec![d]);
     }
-    let mut pairs = DutyParser::parse(Rule::file, source).map_err(|e| vec![syntax_error(source, e)])?;
+    let mut pairs =
+        DutyParser::parse(Rule::file, source).map_err(|e| vec![syntax_error(source, e)])?;
     let mut errors = Vec::new();
     let mut statements = Vec::new();
     if let Some(file) = pairs.next() {
@@ -108,11 +111,15 @@ fn span(p: &Pair<Rule>) -> Span {
 fn describe(rule: &Rule) -> &'static str {
     match rule {
         Rule::EOI => "end of file",
-        Rule::statement | Rule::let_stmt | Rule::assign | Rule::condition | Rule::block_stmt => "a statement",
+        Rule::statement | Rule::let_stmt | Rule::assign | Rule::condition | Rule::block_stmt => {
+            "a statement"
+        }
         Rule::curve_stmt => "a curve",
         Rule::body => "`{`",
         Rule::ident | Rule::path | Rule::index => "a name",
-        Rule::expr | Rule::term | Rule::factor | Rule::power | Rule::atom | Rule::paren => "a value",
+        Rule::expr | Rule::term | Rule::factor | Rule::power | Rule::atom | Rule::paren => {
+            "a value"
+        }
         Rule::add_op | Rule::mul_op => "an operator",
         Rule::cmp_op => "`>=` or `<=`",
         Rule::number | Rule::integer => "a number",
@@ -134,12 +141,18 @@ fn syntax_error(source: &str, e: pest::error::Error<Rule>) -> Diagnostic {
         pest::error::InputLocation::Span((s, _)) => s,
     };
     let mut expected: Vec<&str> = match &e.variant {
-        pest::error::ErrorVariant::ParsingError { positives, .. } => positives.iter().map(describe).collect(),
+        pest::error::ErrorVariant::ParsingError { positives, .. } => {
+            positives.iter().map(describe).collect()
+        }
         pest::error::ErrorVariant::CustomError { .. } => Vec::new(),
     };
     expected.sort_unstable();
     expected.dedup();
-    let found_text: String = source[pos.min(source.len())..].chars().take_while(|c| !c.is_whitespace()).take(20).collect();
+    let found_text: String = source[pos.min(source.len())..]
+        .chars()
+        .take_while(|c| !c.is_whitespace())
+        .take(20)
+        .collect();
     let found = if pos >= source.len() {
         "end of file".to_string()
     } else if source[pos..].starts_with('\n') || source[pos..].starts_with("\r\n") {
@@ -163,9 +176,13 @@ fn syntax_error(source: &str, e: pest::error::Error<Rule>) -> Diagnostic {
     } else {
         "see grammar/LANGUAGE.md for the statements and values the language accepts"
     };
-    Diagnostic::error("syntax", format!("expected {expected_text}, found {found}"), Some(Span::new(pos, end.max(pos))))
-        .with_label(format!("expected {expected_text}"))
-        .with_help(help)
+    Diagnostic::error(
+        "syntax",
+        format!("expected {expected_text}, found {found}"),
+        Some(Span::new(pos, end.max(pos))),
+    )
+    .with_label(format!("expected {expected_text}"))
+    .with_help(help)
 }
 
 fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
@@ -176,13 +193,19 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
             Rule::let_stmt => {
                 let mut it = inner.into_inner().filter(|x| x.as_rule() != Rule::kw_let);
                 let name = it.next().map(ident).unwrap_or_else(|| empty_ident(sp));
-                let value = it.next().map(|x| expr(x, errors)).unwrap_or_else(|| empty_expr(sp));
+                let value = it
+                    .next()
+                    .map(|x| expr(x, errors))
+                    .unwrap_or_else(|| empty_expr(sp));
                 StatementKind::Let { name, value }
             }
             Rule::assign => {
                 let mut it = inner.into_inner();
                 let path = it.next().map(path).unwrap_or_else(|| empty_path(sp));
-                let value = it.next().map(|x| expr(x, errors)).unwrap_or_else(|| empty_expr(sp));
+                let value = it
+                    .next()
+                    .map(|x| expr(x, errors))
+                    .unwrap_or_else(|| empty_expr(sp));
                 StatementKind::Assign { path, value }
             }
             Rule::condition => {
@@ -194,16 +217,29 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                     match x.as_rule() {
                         Rule::path => path_v = path(x),
                         Rule::cmp_op => {
-                            op = if matches!(x.as_str(), ">=" | "≥") { CompareOp::AtLeast } else { CompareOp::AtMost }
+                            op = if matches!(x.as_str(), ">=" | "≥") {
+                                CompareOp::AtLeast
+                            } else {
+                                CompareOp::AtMost
+                            }
                         }
                         Rule::expr => value = expr(x, errors),
                         Rule::case_scope => {
-                            cases = x.into_inner().filter(|y| y.as_rule() == Rule::ident).map(ident).collect()
+                            cases = x
+                                .into_inner()
+                                .filter(|y| y.as_rule() == Rule::ident)
+                                .map(ident)
+                                .collect()
                         }
                         _ => {}
                     }
                 }
-                StatementKind::Condition { path: path_v, op, value, cases }
+                StatementKind::Condition {
+                    path: path_v,
+                    op,
+                    value,
+                    cases,
+                }
             }
             Rule::block_stmt => {
                 let mut keyword = empty_ident(sp);
@@ -224,7 +260,11 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                         _ => {}
                     }
                 }
-                StatementKind::Block { keyword, args, body }
+                StatementKind::Block {
+                    keyword,
+                    args,
+                    body,
+                }
             }
             Rule::curve_stmt => {
                 let mut keyword = empty_ident(sp);
@@ -232,33 +272,65 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                 let mut tab = None;
                 for x in inner.into_inner() {
                     match x.as_rule() {
-                        Rule::kw_curve => keyword = Ident { name: "curve".into(), span: span(&x) },
+                        Rule::kw_curve => {
+                            keyword = Ident {
+                                name: "curve".into(),
+                                span: span(&x),
+                            }
+                        }
                         Rule::arg => args.push(arg(x, errors)),
                         Rule::table => tab = Some(table(x, errors)),
                         _ => {}
                     }
                 }
-                StatementKind::Curve { keyword, args, table: tab }
+                StatementKind::Curve {
+                    keyword,
+                    args,
+                    table: tab,
+                }
             }
-            _ => StatementKind::Block { keyword: empty_ident(sp), args: Vec::new(), body: None },
+            _ => StatementKind::Block {
+                keyword: empty_ident(sp),
+                args: Vec::new(),
+                body: None,
+            },
         },
-        None => StatementKind::Block { keyword: empty_ident(sp), args: Vec::new(), body: None },
+        None => StatementKind::Block {
+            keyword: empty_ident(sp),
+            args: Vec::new(),
+            body: None,
+        },
     };
     Statement { kind, span: sp }
 }
 
 fn empty_ident(sp: Span) -> Ident {
-    Ident { name: String::new(), span: sp }
+    Ident {
+        name: String::new(),
+        span: sp,
+    }
 }
 fn empty_path(sp: Span) -> Path {
-    Path { parts: Vec::new(), span: sp }
+    Path {
+        parts: Vec::new(),
+        span: sp,
+    }
 }
 fn empty_expr(sp: Span) -> Expr {
-    Expr { kind: ExprKind::Number(Number { text: "0".into(), value: 0.0 }), span: sp }
+    Expr {
+        kind: ExprKind::Number(Number {
+            text: "0".into(),
+            value: 0.0,
+        }),
+        span: sp,
+    }
 }
 
 fn ident(p: Pair<Rule>) -> Ident {
-    Ident { name: p.as_str().to_string(), span: span(&p) }
+    Ident {
+        name: p.as_str().to_string(),
+        span: span(&p),
+    }
 }
 
 fn path(p: Pair<Rule>) -> Path {
@@ -266,7 +338,10 @@ fn path(p: Pair<Rule>) -> Path {
     Path {
         parts: p
             .into_inner()
-            .map(|x| Ident { name: x.as_str().to_string(), span: span(&x) })
+            .map(|x| Ident {
+                name: x.as_str().to_string(),
+                span: span(&x),
+            })
             .collect(),
         span: sp,
     }
@@ -283,9 +358,13 @@ fn parse_number(text: &str, sp: Span, errors: &mut Vec<Diagnostic>) -> f64 {
         Ok(v) if v.is_finite() => v,
         _ => {
             errors.push(
-                Diagnostic::error("number-out-of-range", format!("the number `{text}` is too large to represent"), Some(sp))
-                    .with_label("not a finite number")
-                    .with_help("numbers must lie within about ±1.8e308; check the exponent"),
+                Diagnostic::error(
+                    "number-out-of-range",
+                    format!("the number `{text}` is too large to represent"),
+                    Some(sp),
+                )
+                .with_label("not a finite number")
+                .with_help("numbers must lie within about ±1.8e308; check the exponent"),
             );
             0.0
         }
@@ -308,7 +387,10 @@ fn fraction_value(text: &str) -> Option<f64> {
 }
 
 fn unit_text(p: Pair<Rule>) -> UnitText {
-    UnitText { text: p.as_str().to_string(), span: span(&p) }
+    UnitText {
+        text: p.as_str().to_string(),
+        span: span(&p),
+    }
 }
 
 fn unquote(p: Pair<Rule>) -> String {
@@ -340,8 +422,15 @@ fn unquote(p: Pair<Rule>) -> String {
 /// Remove the common indentation and the blank first/last lines of a `"""` text.
 pub fn dedent(text: &str) -> String {
     let lines: Vec<&str> = text.lines().collect();
-    let start = lines.iter().position(|l| !l.trim().is_empty()).unwrap_or(lines.len());
-    let end = lines.iter().rposition(|l| !l.trim().is_empty()).map(|i| i + 1).unwrap_or(start);
+    let start = lines
+        .iter()
+        .position(|l| !l.trim().is_empty())
+        .unwrap_or(lines.len());
+    let end = lines
+        .iter()
+        .rposition(|l| !l.trim().is_empty())
+        .map(|i| i + 1)
+        .unwrap_or(start);
     let body = &lines[start..end.max(start)];
     let indent = body
         .iter()
@@ -363,20 +452,36 @@ fn arg(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Arg {
             Rule::nominal => {
                 let mut it = x.into_inner();
                 let (frac, unit) = (it.next(), it.next());
-                let text = frac.as_ref().map(|f| f.as_str().to_string()).unwrap_or_default();
+                let text = frac
+                    .as_ref()
+                    .map(|f| f.as_str().to_string())
+                    .unwrap_or_default();
                 let value = fraction_value(&text).unwrap_or_else(|| {
-                    errors.push(Diagnostic::error("bad-fraction", format!("`{text}` is not a valid fraction"), Some(sp)));
+                    errors.push(Diagnostic::error(
+                        "bad-fraction",
+                        format!("`{text}` is not a valid fraction"),
+                        Some(sp),
+                    ));
                     0.0
                 });
                 match unit {
-                    Some(u) => ArgKind::Quantity { value: Number { text, value }, unit: unit_text(u) },
+                    Some(u) => ArgKind::Quantity {
+                        value: Number { text, value },
+                        unit: unit_text(u),
+                    },
                     None => ArgKind::Number(Number { text, value }),
                 }
             }
             Rule::quantity => {
                 let mut it = x.into_inner();
-                let value = it.next().map(|n| number(n, errors)).unwrap_or(Number { text: "0".into(), value: 0.0 });
-                let unit = it.next().map(unit_text).unwrap_or(UnitText { text: String::new(), span: sp });
+                let value = it.next().map(|n| number(n, errors)).unwrap_or(Number {
+                    text: "0".into(),
+                    value: 0.0,
+                });
+                let unit = it.next().map(unit_text).unwrap_or(UnitText {
+                    text: String::new(),
+                    span: sp,
+                });
                 ArgKind::Quantity { value, unit }
             }
             Rule::number => ArgKind::Number(number(x, errors)),
@@ -407,7 +512,14 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
                 };
                 let right = expr(rhs, errors);
                 let s = left.span.join(right.span);
-                left = Expr { kind: ExprKind::Binary { op, left: Box::new(left), right: Box::new(right) }, span: s };
+                left = Expr {
+                    kind: ExprKind::Binary {
+                        op,
+                        left: Box::new(left),
+                        right: Box::new(right),
+                    },
+                    span: s,
+                };
             }
             left
         }
@@ -417,23 +529,42 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
             if negated {
                 it.next();
             }
-            let inner = it.next().map(|x| expr(x, errors)).unwrap_or_else(|| empty_expr(sp));
+            let inner = it
+                .next()
+                .map(|x| expr(x, errors))
+                .unwrap_or_else(|| empty_expr(sp));
             if negated {
-                Expr { kind: ExprKind::Neg(Box::new(inner)), span: sp }
+                Expr {
+                    kind: ExprKind::Neg(Box::new(inner)),
+                    span: sp,
+                }
             } else {
                 inner
             }
         }
         Rule::power => {
             let mut it = p.into_inner();
-            let base = it.next().map(|x| expr(x, errors)).unwrap_or_else(|| empty_expr(sp));
+            let base = it
+                .next()
+                .map(|x| expr(x, errors))
+                .unwrap_or_else(|| empty_expr(sp));
             match it.next() {
                 Some(e) => {
                     let exponent = e.as_str().parse::<i32>().unwrap_or_else(|_| {
-                        errors.push(Diagnostic::error("bad-exponent", "the exponent is too large", Some(span(&e))));
+                        errors.push(Diagnostic::error(
+                            "bad-exponent",
+                            "the exponent is too large",
+                            Some(span(&e)),
+                        ));
                         1
                     });
-                    Expr { kind: ExprKind::Power { base: Box::new(base), exponent }, span: sp }
+                    Expr {
+                        kind: ExprKind::Power {
+                            base: Box::new(base),
+                            exponent,
+                        },
+                        span: sp,
+                    }
                 }
                 None => base,
             }
@@ -443,19 +574,47 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
             None => empty_expr(sp),
         },
         Rule::paren => {
-            let inner = p.into_inner().next().map(|x| expr(x, errors)).unwrap_or_else(|| empty_expr(sp));
-            Expr { kind: ExprKind::Paren(Box::new(inner)), span: sp }
+            let inner = p
+                .into_inner()
+                .next()
+                .map(|x| expr(x, errors))
+                .unwrap_or_else(|| empty_expr(sp));
+            Expr {
+                kind: ExprKind::Paren(Box::new(inner)),
+                span: sp,
+            }
         }
         Rule::quantity => {
             let mut it = p.into_inner();
-            let value = it.next().map(|n| number(n, errors)).unwrap_or(Number { text: "0".into(), value: 0.0 });
-            let unit = it.next().map(unit_text).unwrap_or(UnitText { text: String::new(), span: sp });
-            Expr { kind: ExprKind::Quantity { value, unit }, span: sp }
+            let value = it.next().map(|n| number(n, errors)).unwrap_or(Number {
+                text: "0".into(),
+                value: 0.0,
+            });
+            let unit = it.next().map(unit_text).unwrap_or(UnitText {
+                text: String::new(),
+                span: sp,
+            });
+            Expr {
+                kind: ExprKind::Quantity { value, unit },
+                span: sp,
+            }
         }
-        Rule::number => Expr { kind: ExprKind::Number(number(p, errors)), span: sp },
-        Rule::string => Expr { kind: ExprKind::Text(unquote(p)), span: sp },
-        Rule::date => Expr { kind: ExprKind::Date(p.as_str().to_string()), span: sp },
-        Rule::path => Expr { kind: ExprKind::Name(path(p)), span: sp },
+        Rule::number => Expr {
+            kind: ExprKind::Number(number(p, errors)),
+            span: sp,
+        },
+        Rule::string => Expr {
+            kind: ExprKind::Text(unquote(p)),
+            span: sp,
+        },
+        Rule::date => Expr {
+            kind: ExprKind::Date(p.as_str().to_string()),
+            span: sp,
+        },
+        Rule::path => Expr {
+            kind: ExprKind::Name(path(p)),
+            span: sp,
+        },
         _ => empty_expr(sp),
     }
 }
@@ -471,7 +630,11 @@ fn table(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Table {
                     let csp = span(&c);
                     let mut it = c.into_inner();
                     if let (Some(n), Some(u)) = (it.next(), it.next()) {
-                        columns.push(Column { name: ident(n), unit: unit_text(u), span: csp });
+                        columns.push(Column {
+                            name: ident(n),
+                            unit: unit_text(u),
+                            span: csp,
+                        });
                     }
                 }
             }
@@ -494,5 +657,9 @@ fn table(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Table {
             _ => {}
         }
     }
-    Table { columns, rows, span: sp }
+    Table {
+        columns,
+        rows,
+        span: sp,
+    }
 }

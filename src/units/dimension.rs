@@ -178,7 +178,13 @@ impl fmt::Display for Dimension {
             .iter()
             .zip(self.exponents())
             .filter(|(_, e)| *e != 0)
-            .map(|(s, e)| if e == 1 { s.to_string() } else { format!("{s}^{e}") })
+            .map(|(s, e)| {
+                if e == 1 {
+                    s.to_string()
+                } else {
+                    format!("{s}^{e}")
+                }
+            })
             .collect();
         if parts.is_empty() {
             f.write_str("1")

@@ -77,7 +77,11 @@ fn lex(text: &str) -> Result<Vec<Token>, UnitError> {
                     digits += 1;
                 }
                 if digits == 0 {
-                    return Err(UnitError::new("'⁻' must be followed by a digit", start, end - start));
+                    return Err(UnitError::new(
+                        "'⁻' must be followed by a digit",
+                        start,
+                        end - start,
+                    ));
                 }
                 Token {
                     tok: Tok::Super(sign * value),
@@ -182,7 +186,10 @@ impl<'a> Parser<'a> {
                 _ => break,
             };
             acc.dim = dim.ok_or_else(|| {
-                self.error_at(Some(op), "the dimension exponents of this unit are too large")
+                self.error_at(
+                    Some(op),
+                    "the dimension exponents of this unit are too large",
+                )
             })?;
         }
         Ok(acc)
@@ -207,7 +214,10 @@ impl<'a> Parser<'a> {
         self.compound = true;
         let dim = i8::try_from(n).ok().and_then(|n| base.dim.powi(n));
         let dim = dim.ok_or_else(|| {
-            self.error_at(Some(t), "the dimension exponents of this unit are too large")
+            self.error_at(
+                Some(t),
+                "the dimension exponents of this unit are too large",
+            )
         })?;
         Ok(Acc {
             factor: base.factor.powi(n),
@@ -303,7 +313,11 @@ impl<'a> Parser<'a> {
 fn check_exponent(n: i32, at: Token) -> Result<i32, UnitError> {
     let len = at.end - at.start;
     if n == 0 {
-        return Err(UnitError::new("an exponent of 0 is not allowed", at.start, len));
+        return Err(UnitError::new(
+            "an exponent of 0 is not allowed",
+            at.start,
+            len,
+        ));
     }
     if n.unsigned_abs() > MAX_EXPONENT {
         let msg = format!("exponent {n} is out of range: at most {MAX_EXPONENT} in size");
@@ -383,7 +397,11 @@ pub fn parse_unit(text: &str) -> Result<Unit, UnitError> {
         }
     }
     if !(acc.factor.is_finite() && acc.factor > 0.0) {
-        return Err(UnitError::new("the size of this unit is out of range", 0, text.len()));
+        return Err(UnitError::new(
+            "the size of this unit is out of range",
+            0,
+            text.len(),
+        ));
     }
     let single = parser.atoms.first().map(|a| a.0).filter(|_| bare);
     let affine = single.is_some_and(registry::is_temperature_scale);
@@ -420,9 +438,18 @@ mod tests {
         assert_eq!(unit("m^3/h").dim, Dimension::VOLUME_RATE);
         assert!(close(unit("kg/(m*s)").factor, 1.0));
         assert_eq!(unit("kg/(m·s)").dim, Dimension::DYNAMIC_VISCOSITY);
-        assert_eq!(unit("kg/m/s"), Unit { text: "kg/m/s".into(), ..unit("kg/(m*s)") });
+        assert_eq!(
+            unit("kg/m/s"),
+            Unit {
+                text: "kg/m/s".into(),
+                ..unit("kg/(m*s)")
+            }
+        );
         assert_eq!(unit("1/s").dim, Dimension::FREQUENCY);
-        assert_eq!(unit("1/(m*s)").dim, Dimension::LENGTH.mul(Dimension::TIME).powi(-1).unwrap());
+        assert_eq!(
+            unit("1/(m*s)").dim,
+            Dimension::LENGTH.mul(Dimension::TIME).powi(-1).unwrap()
+        );
         assert_eq!(unit("s^-1").dim, Dimension::FREQUENCY);
         assert_eq!(unit("s^(−1)").dim, Dimension::FREQUENCY);
         assert_eq!(unit("s⁻¹").dim, Dimension::FREQUENCY);
@@ -450,7 +477,10 @@ mod tests {
     #[test]
     fn pressure_references_stand_alone_only() {
         assert_eq!(unit("psig").pressure_ref, Some(PressureReference::Gauge));
-        assert_eq!(unit("kPa(a)").pressure_ref, Some(PressureReference::Absolute));
+        assert_eq!(
+            unit("kPa(a)").pressure_ref,
+            Some(PressureReference::Absolute)
+        );
         assert_eq!(unit("bar(g)").pressure_ref, Some(PressureReference::Gauge));
         assert_eq!(unit("psi").pressure_ref, None);
         let e = err("psig/ft");

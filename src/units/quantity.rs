@@ -125,7 +125,11 @@ impl Quantity {
                 )
             }
             (GaugePressure, GaugePressure) | (AbsolutePressure, AbsolutePressure) => {
-                let what = if self.kind == GaugePressure { "gauge" } else { "absolute" };
+                let what = if self.kind == GaugePressure {
+                    "gauge"
+                } else {
+                    "absolute"
+                };
                 return fail(format!(
                     "cannot add two {what} pressures; write one of them as a pressure \
                      difference (psi, kPa, bar without a reference)"
@@ -133,7 +137,12 @@ impl Quantity {
             }
             _ => return fail(mixed_references()),
         };
-        Quantity { si: self.si + o.si, ..self }.with_kind(kind).finite()
+        Quantity {
+            si: self.si + o.si,
+            ..self
+        }
+        .with_kind(kind)
+        .finite()
     }
 
     /// Difference. Point − point is a difference (Plain); point − difference is a point;
@@ -153,7 +162,12 @@ impl Quantity {
             (a, b) if a == b => Plain,
             _ => return fail(mixed_references()),
         };
-        Quantity { si: self.si - o.si, ..self }.with_kind(kind).finite()
+        Quantity {
+            si: self.si - o.si,
+            ..self
+        }
+        .with_kind(kind)
+        .finite()
     }
 
     fn with_kind(self, kind: QuantityKind) -> Quantity {
@@ -288,15 +302,23 @@ mod tests {
         assert!(near(diff.si, 10.0));
         assert!(near(read(diff, "delta_degF"), 18.0));
         assert!(near(read(diff, "degF"), 18.0)); // a difference read in a scale unit: no offset
-        let warmer = q(20.0, "degC").add(q(9.0, "delta_degF")).expect("point + diff");
+        let warmer = q(20.0, "degC")
+            .add(q(9.0, "delta_degF"))
+            .expect("point + diff");
         assert_eq!(warmer.kind, TemperaturePoint);
         assert!(near(read(warmer, "degC"), 25.0));
-        let cooler = q(20.0, "degC").sub(q(5.0, "delta_K")).expect("point - diff");
+        let cooler = q(20.0, "degC")
+            .sub(q(5.0, "delta_K"))
+            .expect("point - diff");
         assert!(near(read(cooler, "degC"), 15.0));
-        let e = q(20.0, "degC").add(q(20.0, "degC")).expect_err("point + point");
+        let e = q(20.0, "degC")
+            .add(q(20.0, "degC"))
+            .expect_err("point + point");
         assert!(e.message.contains("delta_degC"));
         assert!(q(5.0, "delta_K").sub(q(20.0, "degC")).is_err());
-        assert!(q(20.0, "degC").in_unit(&parse_unit("delta_degC").expect("u")).is_err());
+        assert!(q(20.0, "degC")
+            .in_unit(&parse_unit("delta_degC").expect("u"))
+            .is_err());
         assert!(near(read(q(0.0, "degC"), "degR"), 491.67));
     }
 
@@ -331,15 +353,21 @@ mod tests {
         assert!(near(read(a, "kPa(a)"), 150.0));
         assert!(q(1.0, "psi").sub(q(1.0, "psig")).is_err());
         assert!(q(1.0, "psig").add(q(1.0, "psig")).is_err());
-        assert!(q(1.0, "psig").in_unit(&parse_unit("psia").expect("u")).is_err());
+        assert!(q(1.0, "psig")
+            .in_unit(&parse_unit("psia").expect("u"))
+            .is_err());
         assert!(near(read(q(1.0, "psig"), "kPa"), 6.894_757_293_168));
     }
 
     #[test]
     fn dimension_mismatch_and_overflow_are_errors() {
-        let e = q(1.0, "m").add(q(1.0, "psi")).expect_err("length + pressure");
+        let e = q(1.0, "m")
+            .add(q(1.0, "psi"))
+            .expect_err("length + pressure");
         assert_eq!(e.message, "cannot add a length and a pressure");
-        let e = q(1.0, "m").in_unit(&parse_unit("gpm").expect("u")).expect_err("in gpm");
+        let e = q(1.0, "m")
+            .in_unit(&parse_unit("gpm").expect("u"))
+            .expect_err("in gpm");
         assert!(e.message.contains("volume flow rate"));
         let big = Quantity::number(1e300);
         assert_eq!(big.mul(big).expect_err("overflow").message, TOO_LARGE);
@@ -349,7 +377,9 @@ mod tests {
         assert!(Quantity::number(1.0).div(Quantity::number(0.0)).is_err());
         assert!(Quantity::number(0.0).powi(-1).is_err());
         assert!(q(1.0, "m").powi(200).is_err());
-        assert!(q(2.0, "m").powi(3).is_ok_and(|v| v.dim == Dimension::VOLUME && near(v.si, 8.0)));
+        assert!(q(2.0, "m")
+            .powi(3)
+            .is_ok_and(|v| v.dim == Dimension::VOLUME && near(v.si, 8.0)));
         assert!(Quantity::try_from_value(f64::NAN, &parse_unit("m").expect("u")).is_err());
     }
 }

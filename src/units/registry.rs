@@ -73,20 +73,56 @@ static REGISTRY: &[UnitDef] = &[
     def("in", IN, D::LENGTH, B8, "inch = 0.0254 m exactly"),
     def("ft", FT, D::LENGTH, B8, "foot = 0.3048 m exactly"),
     def("yd", 3.0 * FT, D::LENGTH, B8, "yard = 0.9144 m exactly"),
-    def("mi", 5280.0 * FT, D::LENGTH, B8, "mile (international) = 1609.344 m exactly"),
+    def(
+        "mi",
+        5280.0 * FT,
+        D::LENGTH,
+        B8,
+        "mile (international) = 1609.344 m exactly",
+    ),
     // Volume.
     def("L", 1e-3, D::VOLUME, B8, "litre = 1e-3 m^3 exactly"),
     def("mL", 1e-6, D::VOLUME, B8, "millilitre"),
-    def("gal", GAL, D::VOLUME, B8, "US liquid gallon = 231 in^3 = 3.785411784 L exactly"),
+    def(
+        "gal",
+        GAL,
+        D::VOLUME,
+        B8,
+        "US liquid gallon = 231 in^3 = 3.785411784 L exactly",
+    ),
     // Volume flow.
-    def("gpm", GAL / MIN, D::VOLUME_RATE, B8, "US gallon per minute (gal and min exact)"),
-    def("MGD", 1e6 * GAL / DAY, D::VOLUME_RATE, B8, "million US gallons per day"),
-    def("cfs", FT * FT * FT, D::VOLUME_RATE, B8, "cubic foot per second"),
+    def(
+        "gpm",
+        GAL / MIN,
+        D::VOLUME_RATE,
+        B8,
+        "US gallon per minute (gal and min exact)",
+    ),
+    def(
+        "MGD",
+        1e6 * GAL / DAY,
+        D::VOLUME_RATE,
+        B8,
+        "million US gallons per day",
+    ),
+    def(
+        "cfs",
+        FT * FT * FT,
+        D::VOLUME_RATE,
+        B8,
+        "cubic foot per second",
+    ),
     // Mass.
     def("kg", 1.0, D::MASS, SI, "kilogram"),
     def("g", 1e-3, D::MASS, SI, "gram"),
     def("t", 1e3, D::MASS, B8, "tonne (metric ton) = 1000 kg"),
-    def("lb", LB, D::MASS, B8, "pound mass (avoirdupois) = 0.45359237 kg exactly"),
+    def(
+        "lb",
+        LB,
+        D::MASS,
+        B8,
+        "pound mass (avoirdupois) = 0.45359237 kg exactly",
+    ),
     def("lbm", LB, D::MASS, B8, "pound mass, same as lb"),
     // Time.
     def("s", 1.0, D::TIME, SI, "second"),
@@ -95,37 +131,145 @@ static REGISTRY: &[UnitDef] = &[
     def("hr", HOUR, D::TIME, B8, "hour, same as h"),
     def("day", DAY, D::TIME, B8, "day = 86 400 s"),
     def("week", 7.0 * DAY, D::TIME, DEF, "week = 7 days"),
-    def("year", 365.0 * DAY, D::TIME, B8, "year of 365 days = 3.1536e7 s"),
-    def("yr", 365.0 * DAY, D::TIME, B8, "year of 365 days, same as year"),
+    def(
+        "year",
+        365.0 * DAY,
+        D::TIME,
+        B8,
+        "year of 365 days = 3.1536e7 s",
+    ),
+    def(
+        "yr",
+        365.0 * DAY,
+        D::TIME,
+        B8,
+        "year of 365 days, same as year",
+    ),
     // Frequency and rotational speed (a revolution counts as one cycle).
     def("Hz", 1.0, D::FREQUENCY, SI, "hertz = 1/s"),
-    def("rpm", 1.0 / MIN, D::FREQUENCY, DEF, "revolution per minute = 1/60 s^-1"),
-    def("rps", 1.0, D::FREQUENCY, DEF, "revolution per second = 1 s^-1"),
+    def(
+        "rpm",
+        1.0 / MIN,
+        D::FREQUENCY,
+        DEF,
+        "revolution per minute = 1/60 s^-1",
+    ),
+    def(
+        "rps",
+        1.0,
+        D::FREQUENCY,
+        DEF,
+        "revolution per second = 1 s^-1",
+    ),
     // Temperature scales (points when standing alone) and differences.
     def("K", 1.0, D::TEMPERATURE, SI, "kelvin"),
     celsius("degC"),
     celsius("°C"),
     fahrenheit("degF"),
     fahrenheit("°F"),
-    def("degR", 5.0 / 9.0, D::TEMPERATURE, B8, "degree Rankine = 5/9 K exactly"),
-    def("delta_K", 1.0, D::TEMPERATURE, SI, "temperature difference in kelvin"),
-    def("delta_degC", 1.0, D::TEMPERATURE, SI, "temperature difference, 1 degC = 1 K"),
-    def("delta_degF", 5.0 / 9.0, D::TEMPERATURE, B8, "temperature difference, 1 degF = 5/9 K"),
-    def("delta_degR", 5.0 / 9.0, D::TEMPERATURE, B8, "temperature difference, 1 degR = 5/9 K"),
+    def(
+        "degR",
+        5.0 / 9.0,
+        D::TEMPERATURE,
+        B8,
+        "degree Rankine = 5/9 K exactly",
+    ),
+    def(
+        "delta_K",
+        1.0,
+        D::TEMPERATURE,
+        SI,
+        "temperature difference in kelvin",
+    ),
+    def(
+        "delta_degC",
+        1.0,
+        D::TEMPERATURE,
+        SI,
+        "temperature difference, 1 degC = 1 K",
+    ),
+    def(
+        "delta_degF",
+        5.0 / 9.0,
+        D::TEMPERATURE,
+        B8,
+        "temperature difference, 1 degF = 5/9 K",
+    ),
+    def(
+        "delta_degR",
+        5.0 / 9.0,
+        D::TEMPERATURE,
+        B8,
+        "temperature difference, 1 degR = 5/9 K",
+    ),
     // Force.
     def("N", 1.0, D::FORCE, SI, "newton"),
     def("kN", 1e3, D::FORCE, SI, "kilonewton"),
-    def("lbf", LBF, D::FORCE, B8, "pound-force = lb × 9.80665 m/s^2 (4.448222 N)"),
+    def(
+        "lbf",
+        LBF,
+        D::FORCE,
+        B8,
+        "pound-force = lb × 9.80665 m/s^2 (4.448222 N)",
+    ),
     // Pressure.
     def("Pa", 1.0, D::PRESSURE, SI, "pascal, reference not stated"),
-    def("kPa", 1e3, D::PRESSURE, SI, "kilopascal, reference not stated"),
-    def("MPa", 1e6, D::PRESSURE, SI, "megapascal, reference not stated"),
-    def("bar", 1e5, D::PRESSURE, B8, "bar = 1e5 Pa, reference not stated"),
-    def("psi", LBF / (IN * IN), D::PRESSURE, B8, "lbf/in^2 (6894.757 Pa), reference not stated"),
-    def("atm", 101_325.0, D::PRESSURE, B8, "standard atmosphere = 101 325 Pa exactly"),
-    def("in_Hg", IN * HG_DENSITY * G_N, D::PRESSURE, B8, "inch of mercury, conventional"),
-    def("inHg", IN * HG_DENSITY * G_N, D::PRESSURE, B8, "inch of mercury, same as in_Hg"),
-    def("mmHg", 1e-3 * HG_DENSITY * G_N, D::PRESSURE, B8, "millimetre of mercury, conventional"),
+    def(
+        "kPa",
+        1e3,
+        D::PRESSURE,
+        SI,
+        "kilopascal, reference not stated",
+    ),
+    def(
+        "MPa",
+        1e6,
+        D::PRESSURE,
+        SI,
+        "megapascal, reference not stated",
+    ),
+    def(
+        "bar",
+        1e5,
+        D::PRESSURE,
+        B8,
+        "bar = 1e5 Pa, reference not stated",
+    ),
+    def(
+        "psi",
+        LBF / (IN * IN),
+        D::PRESSURE,
+        B8,
+        "lbf/in^2 (6894.757 Pa), reference not stated",
+    ),
+    def(
+        "atm",
+        101_325.0,
+        D::PRESSURE,
+        B8,
+        "standard atmosphere = 101 325 Pa exactly",
+    ),
+    def(
+        "in_Hg",
+        IN * HG_DENSITY * G_N,
+        D::PRESSURE,
+        B8,
+        "inch of mercury, conventional",
+    ),
+    def(
+        "inHg",
+        IN * HG_DENSITY * G_N,
+        D::PRESSURE,
+        B8,
+        "inch of mercury, same as in_Hg",
+    ),
+    def(
+        "mmHg",
+        1e-3 * HG_DENSITY * G_N,
+        D::PRESSURE,
+        B8,
+        "millimetre of mercury, conventional",
+    ),
     def("Pa(g)", 1.0, D::PRESSURE, SI, "pascal, gauge"),
     def("Pa(a)", 1.0, D::PRESSURE, SI, "pascal, absolute"),
     def("kPa(g)", 1e3, D::PRESSURE, SI, "kilopascal, gauge"),
@@ -135,14 +279,38 @@ static REGISTRY: &[UnitDef] = &[
     def("bar(g)", 1e5, D::PRESSURE, B8, "bar, gauge"),
     def("bar(a)", 1e5, D::PRESSURE, B8, "bar, absolute"),
     def("barg", 1e5, D::PRESSURE, B8, "bar, gauge, same as bar(g)"),
-    def("bara", 1e5, D::PRESSURE, B8, "bar, absolute, same as bar(a)"),
-    def("psig", LBF / (IN * IN), D::PRESSURE, B8, "pound-force per square inch, gauge"),
-    def("psia", LBF / (IN * IN), D::PRESSURE, B8, "pound-force per square inch, absolute"),
+    def(
+        "bara",
+        1e5,
+        D::PRESSURE,
+        B8,
+        "bar, absolute, same as bar(a)",
+    ),
+    def(
+        "psig",
+        LBF / (IN * IN),
+        D::PRESSURE,
+        B8,
+        "pound-force per square inch, gauge",
+    ),
+    def(
+        "psia",
+        LBF / (IN * IN),
+        D::PRESSURE,
+        B8,
+        "pound-force per square inch, absolute",
+    ),
     // Power.
     def("W", 1.0, D::POWER, SI, "watt"),
     def("kW", 1e3, D::POWER, SI, "kilowatt"),
     def("MW", 1e6, D::POWER, SI, "megawatt"),
-    def("hp", 550.0 * FT * LBF, D::POWER, B8, "horsepower, 550 ft·lbf/s (745.6999 W)"),
+    def(
+        "hp",
+        550.0 * FT * LBF,
+        D::POWER,
+        B8,
+        "horsepower, 550 ft·lbf/s (745.6999 W)",
+    ),
     // Energy.
     def("J", 1.0, D::ENERGY, SI, "joule"),
     def("kJ", 1e3, D::ENERGY, SI, "kilojoule"),
@@ -150,12 +318,36 @@ static REGISTRY: &[UnitDef] = &[
     def("Wh", HOUR, D::ENERGY, B8, "watt hour = 3600 J"),
     def("kWh", 1e3 * HOUR, D::ENERGY, B8, "kilowatt hour = 3.6e6 J"),
     def("MWh", 1e6 * HOUR, D::ENERGY, B8, "megawatt hour = 3.6e9 J"),
-    def("Btu", 1_055.055_852_62, D::ENERGY, B8, "British thermal unit (IT), 1055.056 J"),
+    def(
+        "Btu",
+        1_055.055_852_62,
+        D::ENERGY,
+        B8,
+        "British thermal unit (IT), 1055.056 J",
+    ),
     // Viscosity.
     def("P", 0.1, D::DYNAMIC_VISCOSITY, B8, "poise = 0.1 Pa·s"),
-    def("cP", 1e-3, D::DYNAMIC_VISCOSITY, B8, "centipoise = 1e-3 Pa·s"),
-    def("St", 1e-4, D::KINEMATIC_VISCOSITY, B8, "stokes = 1e-4 m^2/s"),
-    def("cSt", 1e-6, D::KINEMATIC_VISCOSITY, B8, "centistokes = 1e-6 m^2/s"),
+    def(
+        "cP",
+        1e-3,
+        D::DYNAMIC_VISCOSITY,
+        B8,
+        "centipoise = 1e-3 Pa·s",
+    ),
+    def(
+        "St",
+        1e-4,
+        D::KINEMATIC_VISCOSITY,
+        B8,
+        "stokes = 1e-4 m^2/s",
+    ),
+    def(
+        "cSt",
+        1e-6,
+        D::KINEMATIC_VISCOSITY,
+        B8,
+        "centistokes = 1e-6 m^2/s",
+    ),
     // Money: one dimension, no exchange rates.
     def("USD", 1.0, D::MONEY, DEF, "US dollar"),
     def("EUR", 1.0, D::MONEY, DEF, "euro"),
@@ -165,21 +357,39 @@ static REGISTRY: &[UnitDef] = &[
     def("cu", 1.0, D::MONEY, DEF, "currency unit, currency-neutral"),
     // Dimensionless.
     def("%", 0.01, D::NONE, DEF, "percent = 0.01"),
-    def("deg", std::f64::consts::PI / 180.0, D::NONE, B8, "degree of angle = pi/180 rad"),
+    def(
+        "deg",
+        std::f64::consts::PI / 180.0,
+        D::NONE,
+        B8,
+        "degree of angle = pi/180 rad",
+    ),
     def("rad", 1.0, D::NONE, SI, "radian (angles are dimensionless)"),
 ];
 
 const fn celsius(name: &'static str) -> UnitDef {
     UnitDef {
         offset: C_OFFSET,
-        ..def(name, 1.0, D::TEMPERATURE, B8, "degree Celsius: K = degC + 273.15")
+        ..def(
+            name,
+            1.0,
+            D::TEMPERATURE,
+            B8,
+            "degree Celsius: K = degC + 273.15",
+        )
     }
 }
 
 const fn fahrenheit(name: &'static str) -> UnitDef {
     UnitDef {
         offset: F_OFFSET,
-        ..def(name, 5.0 / 9.0, D::TEMPERATURE, B8, "degree Fahrenheit: K = (degF + 459.67)/1.8")
+        ..def(
+            name,
+            5.0 / 9.0,
+            D::TEMPERATURE,
+            B8,
+            "degree Fahrenheit: K = (degF + 459.67)/1.8",
+        )
     }
 }
 
@@ -231,7 +441,11 @@ pub fn suggest(name: &str) -> Vec<String> {
         })
         .collect();
     scored.sort_by_key(|&(dist, gap, _)| (dist, gap));
-    scored.into_iter().take(3).map(|s| s.2.to_string()).collect()
+    scored
+        .into_iter()
+        .take(3)
+        .map(|s| s.2.to_string())
+        .collect()
 }
 
 /// Optimal string alignment distance (Levenshtein plus adjacent transpositions).
@@ -268,7 +482,11 @@ mod tests {
             assert!(d.factor.is_finite() && d.factor > 0.0, "{}", d.name);
             assert!(d.offset == 0.0 || is_temperature_scale(d), "{}", d.name);
             assert!(!d.source.is_empty() && !d.note.is_empty(), "{}", d.name);
-            assert!(REGISTRY[i + 1..].iter().all(|o| o.name != d.name), "{}", d.name);
+            assert!(
+                REGISTRY[i + 1..].iter().all(|o| o.name != d.name),
+                "{}",
+                d.name
+            );
         }
     }
 

@@ -54,7 +54,10 @@ impl Unit {
 pub(crate) fn currency_in(text: &str) -> Option<(usize, &'static str)> {
     let is_name_char = |c: char| c.is_ascii_alphanumeric() || c == '_';
     let mut start = None;
-    for (i, c) in text.char_indices().chain(std::iter::once((text.len(), ' '))) {
+    for (i, c) in text
+        .char_indices()
+        .chain(std::iter::once((text.len(), ' ')))
+    {
         match (is_name_char(c), start) {
             (true, None) => start = Some(i),
             (false, Some(s)) => {

@@ -1,0 +1,257 @@
+//! Analysis: every case's system curve, every case × candidate duty point,
+//! the checks a reviewer asks for, power and energy, and the ranking.
+//!
+//! Pure functions of a [`Design`]; the outputs (report, results, diff) read an
+//! [`Analysis`] and never recompute engineering values.
+
+pub mod checks;
+pub mod duty;
+pub mod selection;
+pub mod system;
+
+use crate::model::{Design, Side};
+pub use system::{CaseSystem, FluidState, Losses, SegmentState, G};
+
+/// Number of points of each tabulated system curve.
+pub const SYSTEM_CURVE_POINTS: usize = 31;
+
+/// The whole analysis of a design.
+#[derive(Clone, Debug)]
+pub struct Analysis {
+    pub cases: Vec<CaseResult>,
+    /// Per candidate, the fitted published curves (shared by all cases).
+    pub candidates: Vec<duty::CandidateCurves>,
+    pub selection: selection::Selection,
+    /// Engineering warnings that belong to no single check.
+    pub warnings: Vec<Warning>,
+    /// The largest flow of the tabulated curves, m³/s (same for all cases, for plots).
+    pub flow_max: f64,
+    /// Per candidate, the motor selected over all cases (None without power data).
+    pub motors: Vec<Option<crate::pumps::MotorChoice>>,
+}
+
+/// A remark of the analysis, with the design-file line where it applies when known.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Warning {
+    pub code: &'static str,
+    pub message: String,
+    pub span: Option<crate::diagnostics::Span>,
+}
+
+/// One point of a system curve.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SystemPoint {
+    pub flow: f64,
+    pub head: f64,
+    pub static_head: f64,
+    pub friction: f64,
+    pub minor: f64,
+}
+
+#[derive(Clone, Debug)]
+pub struct CaseResult {
+    pub name: String,
+    pub overrides: Vec<String>,
+    pub hours_per_year: f64,
+    /// `None` when the case could not be set up (the error is in `error`).
+    pub system: Option<CaseSystem>,
+    pub error: Option<String>,
+    pub system_curve: Vec<SystemPoint>,
+    pub pumps: Vec<duty::PumpResult>,
+}
+
+/// Analyse a design.
+pub fn analyse(design: &Design) -> Analysis {
+    let mut warnings = Vec::new();
+    let candidates: Vec<duty::CandidateCurves> = design
+        .pumps
+        .iter()
+        .map(duty::CandidateCurves::fit)
+        .collect();
+    for c in &candidates {
+        for w in &c.warnings {
+            warnings.push(Warning {
+                code: "pump-curve",
+                message: format!("pump {}: {w}", c.name),
+                span: Some(c.span),
+            });
+        }
+    }
+    let systems: Vec<Result<CaseSystem, String>> = design
+        .cases
+        .iter()
+        .map(|c| CaseSystem::new(&c.scenario).map_err(|e| e.message))
+        .collect();
+    let mut cases: Vec<CaseResult> = Vec::new();
+    for (case, sys) in design.cases.iter().zip(systems) {
+        let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
+        let (system, error) = match sys {
+            Ok(s) => (Some(s), None),
+            Err(e) => {
+                warnings.push(Warning {
+                    code: "case-failed",
+                    message: format!("case {}: {e}", case.name),
+                    span: Some(case.span),
+                });
+                (None, Some(e))
+            }
+        };
+        let pumps = match &system {
+            Some(s) => candidates
+                .iter()
+                .zip(&design.pumps)
+                .map(|(cc, p)| duty::evaluate(design, case, s, p, cc))
+                .collect(),
+            None => Vec::new(),
+        };
+        cases.push(CaseResult {
+            name: case.name.clone(),
+            overrides: case.overrides.clone(),
+            hours_per_year: hours,
+            system,
+            error,
+            system_curve: Vec::new(),
+            pumps,
+        });
+    }
+    // One flow range for all tables and plots: past the largest duty and the pump curves.
+    let mut flow_max: f64 = 0.0;
+    for c in &cases {
+        for p in &c.pumps {
+            if let Some(d) = &p.duty {
+                flow_max = flow_max.max(1.25 * d.flow);
+            }
+            if let Some(last) = p.operating_curve.last() {
+                flow_max = flow_max.max(last.flow);
+            }
+        }
+    }
+    for r in &design.requirements {
+        if r.metric == crate::model::Metric::Flow {
+            flow_max = flow_max.max(1.5 * r.limit_si);
+        }
+    }
+    if flow_max <= 0.0 {
+        // No pumps and no flow requirement: up to 3 m/s in the discharge pipe next to the pump.
+        flow_max = cases
+            .iter()
+            .filter_map(|c| c.system.as_ref())
+            .filter_map(|s| {
+                s.segments
+                    .iter()
+                    .find(|x| x.side == Side::Discharge)
+                    .map(|x| 3.0 * x.area)
+            })
+            .fold(0.0, f64::max);
+    }
+    if flow_max <= 0.0 || !flow_max.is_finite() {
+        flow_max = 0.1;
+    }
+    for c in &mut cases {
+        if let Some(s) = &c.system {
+            c.system_curve = (0..SYSTEM_CURVE_POINTS)
+                .map(|i| {
+                    let q = flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64;
+                    let l = s.losses(q);
+                    SystemPoint {
+                        flow: q,
+                        head: s.static_head + l.friction + l.minor,
+                        static_head: s.static_head,
+                        friction: l.friction,
+                        minor: l.minor,
+                    }
+                })
+                .collect();
+        }
+    }
+    warnings.extend(system_warnings(design, &cases));
+    let motors = motor_pass(design, &mut cases);
+    let selection = selection::rank(design, &cases);
+    Analysis {
+        cases,
+        candidates,
+        selection,
+        warnings,
+        flow_max,
+        motors,
+    }
+}
+
+/// Size each candidate's motor over all its cases and add the `motor` check to each duty.
+fn motor_pass(design: &Design, cases: &mut [CaseResult]) -> Vec<Option<crate::pumps::MotorChoice>> {
+    let mut out = Vec::new();
+    for (i, p) in design.pumps.iter().enumerate() {
+        let per_pump = p.count.max(1) as f64;
+        let max_shaft = cases
+            .iter()
+            .filter_map(|c| c.pumps.get(i)?.duty.as_ref()?.shaft_power)
+            .fold(0.0, f64::max)
+            / per_pump;
+        let runout = cases
+            .iter()
+            .filter_map(|c| c.pumps.get(i)?.operating_curve.last()?.shaft_power)
+            .fold(0.0, f64::max)
+            / per_pump;
+        if max_shaft <= 0.0 {
+            out.push(None);
+            continue;
+        }
+        let (check, choice) = checks::motor_check(design, max_shaft, runout.max(max_shaft));
+        for c in cases.iter_mut() {
+            if let Some(r) = c.pumps.get_mut(i) {
+                if r.duty.is_some() {
+                    r.checks.push(check.clone());
+                }
+            }
+        }
+        out.push(choice);
+    }
+    out
+}
+
+/// Warnings about the piping that do not depend on a pump: missing entrance or exit losses.
+fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
+    let mut out = Vec::new();
+    let base = &design.base;
+    let has = |side: Side, prefix: &str| {
+        base.lines
+            .iter()
+            .filter(|l| l.side == side)
+            .flat_map(|l| &l.segments)
+            .flat_map(|s| &s.fittings)
+            .any(|f| f.spec.name.starts_with(prefix))
+    };
+    if let Some(l) = base.lines.iter().find(|l| l.side == Side::Suction) {
+        if !has(Side::Suction, "entrance") && !has(Side::Suction, "foot_valve") {
+            out.push(Warning { code: "no-entrance-loss", message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name), span: Some(l.span) });
+        }
+    }
+    if let Some(l) = base.lines.iter().rev().find(|l| l.side == Side::Discharge) {
+        if !has(Side::Discharge, "exit") {
+            out.push(Warning {
+                code: "no-exit-loss",
+                message: format!(
+                    "line {}: no `exit` fitting; the exit loss (one velocity head) is not counted",
+                    l.name
+                ),
+                span: Some(l.span),
+            });
+        }
+    }
+    for c in cases {
+        if let Some(s) = &c.system {
+            if s.static_head <= 0.0 {
+                out.push(Warning {
+                    code: "static-head",
+                    message: format!("case {}: the static head is {:.2} m (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction", c.name, s.static_head),
+                    span: None,
+                });
+            }
+            let npsh0 = s.npsh_available(0.0);
+            if npsh0 <= 0.0 {
+                out.push(Warning { code: "npsh-negative", message: format!("case {}: NPSH available is {npsh0:.2} m even at zero flow: the liquid would boil at the pump suction", c.name), span: None });
+            }
+        }
+    }
+    out
+}

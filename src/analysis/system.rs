@@ -1,0 +1,348 @@
+//! One case's hydraulics: fluid state, static head, and the system curve as a
+//! function of flow, with the suction-side losses that NPSH available needs.
+//!
+//! Energy equation between the two free surfaces (Bernoulli with losses, e.g.
+//! White, *Fluid Mechanics*, 7th ed., §3.7 and §6.9): the pump adds
+//! H(Q) = (z₂ − z₁) + (p₂ − p₁)/(ρg) + Σ f·L/D·v²/2g + Σ K·v²/2g,
+//! the free-surface velocities being negligible. Wall friction is Darcy-Weisbach
+//! with the friction factor of [`crate::hydraulics::friction`], or
+//! Hazen-Williams for segments with a C value; minor losses use each fitting's
+//! K method on the velocity of the segment that carries it.
+
+use uom::si::{
+    dynamic_viscosity::pascal_second, length::meter, mass_density::kilogram_per_cubic_meter,
+    pressure::pascal, thermodynamic_temperature::kelvin,
+};
+
+use crate::fluid;
+use crate::hydraulics::fittings::{self, FittingSpec, KContext};
+use crate::hydraulics::friction::{self, FlowRegime};
+use crate::hydraulics::roughness;
+use crate::model::{Fluid, PipeCondition, Scenario, Side, SurfacePressure};
+
+/// Standard acceleration of gravity, 9.80665 m/s² (CGPM 1901; NIST SP 330).
+pub const G: f64 = 9.80665;
+/// Standard sea-level atmosphere, 101 325 Pa (U.S. Standard Atmosphere 1976).
+pub const STANDARD_ATMOSPHERE_PA: f64 = 101_325.0;
+
+/// The fluid as it is in one case.
+#[derive(Clone, Debug, PartialEq)]
+pub struct FluidState {
+    pub name: String,
+    pub temperature_k: Option<f64>,
+    pub density: f64,
+    pub viscosity: f64,
+    pub vapor_pressure: f64,
+    /// Where the properties come from.
+    pub source: String,
+}
+
+/// One pipe segment, resolved for a case.
+#[derive(Clone, Debug)]
+pub struct SegmentState {
+    pub line: String,
+    pub side: Side,
+    pub index: usize,
+    pub material: &'static str,
+    pub size_label: String,
+    pub diameter_source: String,
+    pub length: f64,
+    pub inner_diameter: f64,
+    pub area: f64,
+    /// Absolute roughness used by Darcy-Weisbach (also for equivalent lengths).
+    pub roughness: f64,
+    pub roughness_source: String,
+    pub hazen_williams_c: Option<f64>,
+    pub fittings: Vec<FittingState>,
+    /// Sum of constant K values on this segment (fittings × count, and `loss { k }`).
+    pub k_constant: f64,
+    /// Equivalent lengths of `loss { equivalent_length }`, m.
+    pub equivalent_length: f64,
+}
+
+#[derive(Clone, Debug)]
+pub struct FittingState {
+    pub spec: &'static FittingSpec,
+    pub count: u32,
+    pub beta: Option<f64>,
+    pub angle_rad: Option<f64>,
+}
+
+/// Head losses at one flow, m of fluid.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct Losses {
+    pub friction: f64,
+    pub minor: f64,
+    pub suction: f64,
+}
+
+/// A case's hydraulic model.
+#[derive(Clone, Debug)]
+pub struct CaseSystem {
+    pub fluid: FluidState,
+    pub barometric_pa: f64,
+    pub barometric_source: String,
+    pub source_level: f64,
+    pub destination_level: f64,
+    pub centreline: f64,
+    pub source_abs_pa: f64,
+    pub destination_abs_pa: f64,
+    pub static_head: f64,
+    pub segments: Vec<SegmentState>,
+    pub pipe_condition: PipeCondition,
+}
+
+/// Why a case could not be set up.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SystemError {
+    pub message: String,
+}
+
+fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
+    match p {
+        SurfacePressure::Gauge(g) => barometric + g.get::<pascal>(),
+        SurfacePressure::Absolute(a) => a.get::<pascal>(),
+    }
+}
+
+impl CaseSystem {
+    /// Resolve a scenario: fluid properties, barometric pressure, pipes.
+    pub fn new(s: &Scenario) -> Result<CaseSystem, SystemError> {
+        let (barometric_pa, barometric_source) = match s.site.barometric_pressure {
+            Some(p) => (p.get::<pascal>(), "given in the design".to_string()),
+            None => {
+                let z = s.site.elevation.get::<meter>();
+                let p = fluid::barometric_pressure_pa(z)
+                    .map_err(|e| SystemError { message: e.message })?;
+                (
+                    p,
+                    format!("U.S. Standard Atmosphere 1976 at {z:.0} m elevation"),
+                )
+            }
+        };
+        let source_abs_pa = absolute(s.source.surface_pressure, barometric_pa);
+        let destination_abs_pa = absolute(s.destination.surface_pressure, barometric_pa);
+        if source_abs_pa <= 0.0 || destination_abs_pa <= 0.0 {
+            return Err(SystemError { message: "a tank's absolute surface pressure is zero or negative (a vacuum below absolute zero)".into() });
+        }
+        let fluid = match &s.fluid {
+            Fluid::Water { temperature } => {
+                let t = temperature.get::<kelvin>();
+                let p = fluid::water(t, source_abs_pa)
+                    .map_err(|e| SystemError { message: e.message })?;
+                FluidState {
+                    name: "water".into(),
+                    temperature_k: Some(t),
+                    density: p.density_kg_m3,
+                    viscosity: p.dynamic_viscosity_pa_s,
+                    vapor_pressure: p.vapor_pressure_pa,
+                    source: "IAPWS-IF97 (density, vapour pressure) and IAPWS 2008 (viscosity)"
+                        .into(),
+                }
+            }
+            Fluid::Custom(c) => FluidState {
+                name: c.name.clone(),
+                temperature_k: c.temperature.map(|t| t.get::<kelvin>()),
+                density: c.density.get::<kilogram_per_cubic_meter>(),
+                viscosity: c.viscosity.get::<pascal_second>(),
+                vapor_pressure: c.vapor_pressure.get::<pascal>(),
+                source: "given in the design".into(),
+            },
+        };
+        let mut segments = Vec::new();
+        let mut ordered: Vec<&crate::model::Line> =
+            s.lines.iter().filter(|l| l.side == Side::Suction).collect();
+        ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
+        for line in ordered {
+            for (i, seg) in line.segments.iter().enumerate() {
+                let d = seg.inner_diameter.get::<meter>();
+                let entry = roughness::roughness(seg.material);
+                let (roughness, roughness_source) = match seg.roughness {
+                    Some(r) => (r.get::<meter>(), "given in the design".to_string()),
+                    None => match s.pipe_condition {
+                        PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
+                        PipeCondition::Aged => (
+                            entry.aged_m,
+                            format!("{} (aged: {})", entry.source, entry.aged_note),
+                        ),
+                    },
+                };
+                let mut k_constant = 0.0;
+                let mut fits = Vec::new();
+                for f in &seg.fittings {
+                    let ctx = KContext {
+                        reynolds: 1e5,
+                        inner_diameter_m: d,
+                        beta: f.beta,
+                        angle_rad: f.angle_rad,
+                    };
+                    fittings::k_value(f.spec, ctx).map_err(|e| SystemError {
+                        message: format!(
+                            "fitting `{}` on line `{}`: {}",
+                            f.spec.name, line.name, e.message
+                        ),
+                    })?;
+                    fits.push(FittingState {
+                        spec: f.spec,
+                        count: f.count,
+                        beta: f.beta,
+                        angle_rad: f.angle_rad,
+                    });
+                }
+                let mut equivalent_length = 0.0;
+                for l in &seg.losses {
+                    k_constant += l.k.unwrap_or(0.0);
+                    equivalent_length +=
+                        l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
+                }
+                for f in &fits {
+                    if fittings::is_constant(f.spec) {
+                        k_constant += f.count as f64 * k_of(f, 1e6, d);
+                    }
+                }
+                segments.push(SegmentState {
+                    line: line.name.clone(),
+                    side: line.side,
+                    index: i,
+                    material: seg.material.keyword(),
+                    size_label: seg.size_label.clone(),
+                    diameter_source: seg.diameter_source.clone(),
+                    length: seg.length.get::<meter>(),
+                    inner_diameter: d,
+                    area: std::f64::consts::PI * d * d / 4.0,
+                    roughness,
+                    roughness_source,
+                    hazen_williams_c: seg.hazen_williams_c,
+                    fittings: fits,
+                    k_constant,
+                    equivalent_length,
+                });
+            }
+        }
+        let rho_g = fluid.density * G;
+        let static_head = s.destination.level.get::<meter>() - s.source.level.get::<meter>()
+            + (destination_abs_pa - source_abs_pa) / rho_g;
+        Ok(CaseSystem {
+            fluid,
+            barometric_pa,
+            barometric_source,
+            source_level: s.source.level.get::<meter>(),
+            destination_level: s.destination.level.get::<meter>(),
+            centreline: s.centreline.get::<meter>(),
+            source_abs_pa,
+            destination_abs_pa,
+            static_head,
+            segments,
+            pipe_condition: s.pipe_condition,
+        })
+    }
+
+    /// Reynolds number in a segment at flow q (m³/s).
+    pub fn reynolds(&self, seg: &SegmentState, q: f64) -> f64 {
+        let v = q.abs() / seg.area;
+        self.fluid.density * v * seg.inner_diameter / self.fluid.viscosity
+    }
+
+    /// Darcy friction factor and regime in a segment at flow q.
+    pub fn friction(&self, seg: &SegmentState, q: f64) -> friction::Friction {
+        friction::darcy_friction_factor(
+            self.reynolds(seg, q).max(1e-9),
+            seg.roughness / seg.inner_diameter,
+        )
+    }
+
+    /// Wall-friction and minor losses of one segment at flow q, m.
+    pub fn segment_losses(&self, seg: &SegmentState, q: f64) -> (f64, f64) {
+        if q <= 0.0 {
+            return (0.0, 0.0);
+        }
+        let v = q / seg.area;
+        let velocity_head = v * v / (2.0 * G);
+        let re = self.reynolds(seg, q);
+        let f = self.friction(seg, q).f;
+        let wall = match seg.hazen_williams_c {
+            Some(c) => friction::hazen_williams_head_loss_m(q, seg.inner_diameter, seg.length, c),
+            None => f * seg.length / seg.inner_diameter * velocity_head,
+        };
+        let mut k = seg.k_constant;
+        for fit in &seg.fittings {
+            if !fittings::is_constant(fit.spec) {
+                k += fit.count as f64 * k_of(fit, re, seg.inner_diameter);
+            }
+        }
+        let equivalent = match seg.hazen_williams_c {
+            Some(c) if seg.equivalent_length > 0.0 => friction::hazen_williams_head_loss_m(
+                q,
+                seg.inner_diameter,
+                seg.equivalent_length,
+                c,
+            ),
+            _ => f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+        };
+        (wall, k * velocity_head + equivalent)
+    }
+
+    /// All losses at flow q.
+    pub fn losses(&self, q: f64) -> Losses {
+        let mut out = Losses::default();
+        for seg in &self.segments {
+            let (wall, minor) = self.segment_losses(seg, q);
+            out.friction += wall;
+            out.minor += minor;
+            if seg.side == Side::Suction {
+                out.suction += wall + minor;
+            }
+        }
+        out
+    }
+
+    /// System head at flow q, m.
+    pub fn head(&self, q: f64) -> f64 {
+        let l = self.losses(q);
+        self.static_head + l.friction + l.minor
+    }
+
+    /// NPSH available at the pump suction at flow q, m: the absolute pressure head on
+    /// the source surface, plus the source level above the pump centreline, minus the
+    /// suction losses, minus the vapour-pressure head (ANSI/HI 9.6.1; Karassik et al.,
+    /// *Pump Handbook*, 4th ed., ch. 2).
+    pub fn npsh_available(&self, q: f64) -> f64 {
+        let rho_g = self.fluid.density * G;
+        self.source_abs_pa / rho_g + (self.source_level - self.centreline)
+            - self.losses(q).suction
+            - self.fluid.vapor_pressure / rho_g
+    }
+
+    /// Velocity in the segment next to the pump on a side, m/s.
+    pub fn pump_velocity(&self, side: Side, q: f64) -> Option<f64> {
+        let seg = match side {
+            Side::Suction => self.segments.iter().rev().find(|s| s.side == Side::Suction),
+            Side::Discharge => self.segments.iter().find(|s| s.side == Side::Discharge),
+        }?;
+        Some(q / seg.area)
+    }
+
+    /// The regimes met at flow q, with the segment each occurs in.
+    pub fn regimes(&self, q: f64) -> Vec<(usize, FlowRegime, f64)> {
+        self.segments
+            .iter()
+            .enumerate()
+            .map(|(i, s)| (i, self.friction(s, q).regime, self.reynolds(s, q)))
+            .collect()
+    }
+}
+
+/// K of one fitting (one piece) at a Reynolds number in a pipe of diameter d.
+/// Its parameters were validated when the case was set up ([`CaseSystem::new`]).
+pub fn k_of(f: &FittingState, re: f64, d: f64) -> f64 {
+    fittings::k_value(
+        f.spec,
+        KContext {
+            reynolds: re,
+            inner_diameter_m: d,
+            beta: f.beta,
+            angle_rad: f.angle_rad,
+        },
+    )
+    .unwrap_or(f64::NAN)
+}

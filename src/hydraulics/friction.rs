@@ -1,0 +1,310 @@
+//! Pipe friction: the Darcy friction factor over all flow regimes, the correlations it
+//! is built from, and the Hazen–Williams method.
+//!
+//! [`darcy_friction_factor`] is what the system curve uses:
+//! - Re <= 2000: laminar, f = 64/Re ([`laminar`]);
+//! - Re >= 4000: Colebrook (1939), solved to convergence ([`colebrook`]);
+//! - 2000 < Re < 4000: the *critical zone* that Moody (1944) leaves undefined. There the
+//!   shape of Churchill's (1977) all-regime equation is used, multiplied by a correction
+//!   factor whose logarithm runs linearly in ln Re from f_laminar/f_Churchill at Re 2000
+//!   to f_Colebrook/f_Churchill at Re 4000 ([`transitional_friction_factor`]). The result
+//!   meets 64/Re at 2000 and Colebrook at 4000 exactly (so f is continuous in Re),
+//!   follows a published transition shape in between, and keeps f·Re² (hence head loss at
+//!   fixed pipe and fluid) increasing with flow, which the system curve needs.
+//!   Churchill's own equation is within about 3 % of both ends for eps/D <= 0.05, so the
+//!   correction is small (tests check it stays within 5 %).
+
+mod colebrook;
+mod explicit;
+mod hazen_williams;
+
+pub use colebrook::{
+    colebrook, colebrook_warm, solve_colebrook, von_karman_fully_rough, ColebrookSolution,
+};
+pub use explicit::{churchill_1977, haaland_1983, laminar, swamee_jain_1976};
+pub use hazen_williams::{
+    hazen_williams_head_loss_m, hazen_williams_psi_per_ft, hazen_williams_validity,
+    HAZEN_WILLIAMS_SI_CONSTANT, HAZEN_WILLIAMS_US_CONSTANT,
+};
+
+use std::fmt;
+
+/// Highest Reynolds number treated as laminar (common practice; Moody 1944 chart).
+pub const LAMINAR_LIMIT_RE: f64 = 2000.0;
+/// Lowest Reynolds number treated as fully turbulent (common practice; Moody 1944 chart).
+pub const TURBULENT_LIMIT_RE: f64 = 4000.0;
+/// Largest relative roughness on Moody's (1944) chart; beyond it a warning is given.
+pub const MOODY_MAX_RELATIVE_ROUGHNESS: f64 = 0.05;
+/// Largest Reynolds number on Moody's (1944) chart; beyond it a warning is given.
+pub const MOODY_MAX_RE: f64 = 1e8;
+
+/// Label for the correlation used in the laminar regime.
+pub const LAMINAR_NAME: &str = "laminar 64/Re (Hagen-Poiseuille)";
+/// Label for the correlation used in the transitional regime.
+pub const TRANSITIONAL_NAME: &str =
+    "Churchill (1977) shape scaled to 64/Re at Re 2000 and Colebrook at Re 4000";
+/// Label for the correlation used in the turbulent regime.
+pub const TURBULENT_NAME: &str = "Colebrook-White (1939)";
+/// Label returned with a NaN friction factor for inputs without a meaning.
+pub const INVALID_NAME: &str = "invalid input";
+
+/// Flow regime by Reynolds number.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum FlowRegime {
+    /// Re <= 2000.
+    Laminar,
+    /// 2000 < Re < 4000.
+    Transitional,
+    /// Re >= 4000.
+    Turbulent,
+}
+
+/// A Darcy friction factor with the regime and the correlation that produced it.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Friction {
+    /// Darcy (Moody) friction factor, dimensionless.
+    pub f: f64,
+    /// Regime the Reynolds number falls in.
+    pub regime: FlowRegime,
+    /// Name of the correlation used, for reports.
+    pub correlation: &'static str,
+}
+
+/// A friction-factor request that has no answer.
+#[derive(Clone, Debug, PartialEq)]
+pub struct FrictionError {
+    /// Human-readable explanation naming the offending values.
+    pub message: String,
+}
+
+impl FrictionError {
+    /// Builds an error from any message.
+    pub fn new(message: impl Into<String>) -> Self {
+        Self {
+            message: message.into(),
+        }
+    }
+
+    pub(crate) fn invalid(re: f64, rr: f64) -> Self {
+        Self::new(format!(
+            "friction factor needs a finite Reynolds number > 0 and a finite relative \
+             roughness >= 0; got Re = {re}, eps/D = {rr}"
+        ))
+    }
+}
+
+impl fmt::Display for FrictionError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.message)
+    }
+}
+
+impl std::error::Error for FrictionError {}
+
+/// True when `re` and `rr` are inside every correlation's mathematical domain
+/// (finite, Re > 0, eps/D >= 0).
+pub(crate) fn valid_inputs(re: f64, rr: f64) -> bool {
+    re.is_finite() && re > 0.0 && rr.is_finite() && rr >= 0.0
+}
+
+/// Regime for a Reynolds number (2000 / 4000 limits, common practice).
+pub fn flow_regime(re: f64) -> FlowRegime {
+    if re <= LAMINAR_LIMIT_RE {
+        FlowRegime::Laminar
+    } else if re < TURBULENT_LIMIT_RE {
+        FlowRegime::Transitional
+    } else {
+        FlowRegime::Turbulent
+    }
+}
+
+/// Darcy friction factor for any Re > 0 and relative roughness eps/D >= 0: laminar
+/// 64/Re up to Re 2000, Colebrook (1939) from Re 4000, and the continuous Churchill-shaped
+/// bridge of [`transitional_friction_factor`] in between (see the module documentation).
+///
+/// For inputs without a meaning (non-finite, Re <= 0, eps/D < 0, eps/D >= 3.7) the result
+/// has `f = NaN` and `correlation == INVALID_NAME`; use [`checked_darcy_friction_factor`]
+/// for an error, and [`friction_warnings`] for validity-range warnings.
+pub fn darcy_friction_factor(re: f64, relative_roughness: f64) -> Friction {
+    checked_darcy_friction_factor(re, relative_roughness).unwrap_or(Friction {
+        f: f64::NAN,
+        regime: flow_regime(re),
+        correlation: INVALID_NAME,
+    })
+}
+
+/// As [`darcy_friction_factor`], returning an error instead of NaN.
+pub fn checked_darcy_friction_factor(re: f64, rr: f64) -> Result<Friction, FrictionError> {
+    if !valid_inputs(re, rr) {
+        return Err(FrictionError::invalid(re, rr));
+    }
+    let regime = flow_regime(re);
+    let (f, correlation) = match regime {
+        FlowRegime::Laminar => {
+            // Colebrook's domain limit applies to every regime so the answer does not
+            // depend on the flow for an impossible roughness.
+            if rr >= 3.7 {
+                return Err(FrictionError::new(format!(
+                    "relative roughness {rr} is not physical (Colebrook needs eps/D < 3.7)"
+                )));
+            }
+            (laminar(re), LAMINAR_NAME)
+        }
+        FlowRegime::Transitional => (transitional_friction_factor(re, rr)?, TRANSITIONAL_NAME),
+        FlowRegime::Turbulent => (solve_colebrook(re, rr, None)?.f, TURBULENT_NAME),
+    };
+    if !f.is_finite() {
+        return Err(FrictionError::new(format!(
+            "friction factor overflows at Re = {re:e} (64/Re exceeds the largest number)"
+        )));
+    }
+    Ok(Friction {
+        f,
+        regime,
+        correlation,
+    })
+}
+
+/// The transitional bridge for 2000 <= Re <= 4000:
+/// f = f_Ch(Re) · c_2000^(1-w) · c_4000^w, w = ln(Re/2000) / ln 2,
+/// c_2000 = (64/2000) / f_Ch(2000), c_4000 = f_Colebrook(4000) / f_Ch(4000),
+/// with f_Ch from Churchill (1977) ([`churchill_1977`]).
+///
+/// This is an interpolation in the critical zone, not a physical model: flow there
+/// alternates between laminar and turbulent (Moody 1944 shows no curve). It is chosen
+/// because it is continuous with both neighbours, follows Churchill's published
+/// transition shape, and keeps f·Re² increasing with Re. Outside 2000..4000 the bridge is
+/// still evaluated (it extrapolates), but [`darcy_friction_factor`] only uses it inside.
+pub fn transitional_friction_factor(re: f64, rr: f64) -> Result<f64, FrictionError> {
+    if !valid_inputs(re, rr) {
+        return Err(FrictionError::invalid(re, rr));
+    }
+    let turbulent_end = solve_colebrook(TURBULENT_LIMIT_RE, rr, None)?.f;
+    let ln_c_low = (laminar(LAMINAR_LIMIT_RE) / churchill_1977(LAMINAR_LIMIT_RE, rr)).ln();
+    let ln_c_high = (turbulent_end / churchill_1977(TURBULENT_LIMIT_RE, rr)).ln();
+    let w = (re / LAMINAR_LIMIT_RE).ln() / (TURBULENT_LIMIT_RE / LAMINAR_LIMIT_RE).ln();
+    let f = churchill_1977(re, rr) * ((1.0 - w) * ln_c_low + w * ln_c_high).exp();
+    if f.is_finite() && f > 0.0 {
+        Ok(f)
+    } else {
+        Err(FrictionError::new(format!(
+            "transitional friction factor is not finite at Re {re}, eps/D {rr}"
+        )))
+    }
+}
+
+/// Warnings for a friction-factor evaluation outside the ranges where the correlations
+/// are established; empty when inside.
+pub fn friction_warnings(re: f64, rr: f64) -> Vec<String> {
+    let mut warnings = Vec::new();
+    if !valid_inputs(re, rr) {
+        warnings.push(FrictionError::invalid(re, rr).message);
+        return warnings;
+    }
+    if flow_regime(re) == FlowRegime::Transitional {
+        warnings.push(format!(
+            "Re = {re:.0} is in the critical zone 2000-4000 where the friction factor is \
+             uncertain (Moody 1944); an interpolated value is used"
+        ));
+    }
+    if re > MOODY_MAX_RE {
+        warnings.push(format!(
+            "Re = {re:.3e} is beyond the 1e8 of Moody's (1944) chart and of the Colebrook \
+             data"
+        ));
+    }
+    if rr > MOODY_MAX_RELATIVE_ROUGHNESS {
+        warnings.push(format!(
+            "relative roughness {rr} is beyond the 0.05 of Moody's (1944) chart; \
+             Colebrook is extrapolated"
+        ));
+    }
+    warnings
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const ROUGHNESSES: [f64; 7] = [0.0, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 0.05];
+
+    #[test]
+    fn regimes_and_labels() {
+        let f = darcy_friction_factor(1500.0, 1e-3);
+        assert_eq!(
+            (f.regime, f.correlation),
+            (FlowRegime::Laminar, LAMINAR_NAME)
+        );
+        let f = darcy_friction_factor(3000.0, 1e-3);
+        assert_eq!(f.regime, FlowRegime::Transitional);
+        let f = darcy_friction_factor(4000.0, 1e-3);
+        assert_eq!(
+            (f.regime, f.correlation),
+            (FlowRegime::Turbulent, TURBULENT_NAME)
+        );
+    }
+
+    #[test]
+    fn bridge_is_continuous_at_both_ends() {
+        for rr in ROUGHNESSES {
+            let below = darcy_friction_factor(2000.0, rr).f;
+            let above = darcy_friction_factor(2000.0 * (1.0 + 1e-12), rr).f;
+            assert!((above / below - 1.0).abs() < 1e-9, "rr {rr} at 2000");
+            let below = darcy_friction_factor(4000.0 * (1.0 - 1e-12), rr).f;
+            let above = darcy_friction_factor(4000.0, rr).f;
+            assert!((above / below - 1.0).abs() < 1e-9, "rr {rr} at 4000");
+        }
+    }
+
+    #[test]
+    fn bridge_correction_to_churchill_is_small() {
+        for rr in ROUGHNESSES {
+            for i in 0..=40 {
+                let re = 2000.0 * 2f64.powf(f64::from(i) / 40.0);
+                let ratio =
+                    transitional_friction_factor(re, rr).expect("ok") / churchill_1977(re, rr);
+                assert!((ratio - 1.0).abs() < 0.05, "rr {rr} Re {re}: {ratio}");
+            }
+        }
+    }
+
+    #[test]
+    fn head_loss_rises_with_flow_through_every_regime() {
+        // At fixed pipe and fluid, h_f is proportional to f Re^2.
+        for rr in ROUGHNESSES.iter().copied().chain([0.2, 1.0]) {
+            let mut previous = 0.0;
+            for i in 0..=4000 {
+                let re = 10f64.powf(1.0 + 7.0 * f64::from(i) / 4000.0);
+                let f = darcy_friction_factor(re, rr).f;
+                let loss = f * re * re;
+                assert!(loss > previous, "rr {rr}: f Re^2 fell at Re {re}");
+                previous = loss;
+            }
+        }
+    }
+
+    #[test]
+    fn invalid_inputs() {
+        for (re, rr) in [
+            (0.0, 0.0),
+            (-1.0, 0.0),
+            (f64::NAN, 0.0),
+            (1e5, -1e-3),
+            (1e5, 3.7),
+        ] {
+            assert!(checked_darcy_friction_factor(re, rr).is_err(), "{re} {rr}");
+            let f = darcy_friction_factor(re, rr);
+            assert!(f.f.is_nan() && f.correlation == INVALID_NAME);
+        }
+        assert!(checked_darcy_friction_factor(100.0, 3.7).is_err());
+        assert_eq!(friction_warnings(f64::NAN, 0.0).len(), 1);
+    }
+
+    #[test]
+    fn warnings_name_the_limit() {
+        assert!(friction_warnings(1e5, 1e-3).is_empty());
+        assert!(friction_warnings(3000.0, 1e-3)[0].contains("critical zone"));
+        assert!(friction_warnings(2e8, 1e-3)[0].contains("1e8"));
+        assert!(friction_warnings(1e5, 0.1)[0].contains("0.05"));
+    }
+}
