@@ -6,11 +6,13 @@
 
 pub mod analysis;
 pub mod diagnostics;
+pub mod display;
 pub mod fluid;
 pub mod hydraulics;
 pub mod model;
 pub mod names;
 pub mod pumps;
+pub mod results;
 pub mod syntax;
 pub mod units;
 

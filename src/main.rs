@@ -31,6 +31,23 @@ enum Command {
         #[arg(long)]
         deny_warnings: bool,
     },
+    /// Compute and print the results: system curves, duty points, checks, selection.
+    #[command(
+        after_help = "Examples:\n  dutyline results examples-demo/orchard-lift-rev-a.duty\n  dutyline results examples-demo/orchard-lift-rev-a.duty --format json > results.json\n\nExit status: 0 computed, 1 design errors, 2 usage or I/O errors."
+    )]
+    Results {
+        /// The design file (*.duty).
+        file: PathBuf,
+        /// Output format.
+        #[arg(long, value_enum, default_value = "text")]
+        format: Format,
+    },
+}
+
+#[derive(Clone, Copy, clap::ValueEnum)]
+enum Format {
+    Text,
+    Json,
 }
 
 /// Reads files relative to the design file's folder.
@@ -69,6 +86,7 @@ fn main() -> ExitCode {
             file,
             deny_warnings,
         } => check(&file, deny_warnings),
+        Command::Results { file, format } => results(&file, format),
     }
 }
 
@@ -119,4 +137,39 @@ fn check(path: &Path, deny_warnings: bool) -> ExitCode {
         println!("{}: valid ({warnings} warning(s))", path.display());
         ExitCode::SUCCESS
     }
+}
+
+/// Check a design and report; the design when it is valid.
+fn load(path: &Path) -> Result<(String, dutyline::Checked), ExitCode> {
+    let source = read_source(path)?;
+    let checked = dutyline::check(&source, &files_for(path));
+    let errors = checked.diagnostics.iter().any(|d| d.is_error());
+    if errors {
+        report(&checked.diagnostics, path, &source);
+        return Err(ExitCode::from(1));
+    }
+    Ok((source, checked))
+}
+
+fn results(path: &Path, format: Format) -> ExitCode {
+    let (source, checked) = match load(path) {
+        Ok(x) => x,
+        Err(code) => return code,
+    };
+    let Some(design) = &checked.design else {
+        return ExitCode::from(1);
+    };
+    let analysis = dutyline::analysis::analyse(design);
+    let out = match format {
+        Format::Json => dutyline::results::to_json(
+            design,
+            &analysis,
+            &path.display().to_string(),
+            &source,
+            &checked.diagnostics,
+        ),
+        Format::Text => dutyline::results::to_text(design, &analysis),
+    };
+    print!("{out}");
+    ExitCode::SUCCESS
 }

@@ -86,6 +86,8 @@ fn applies(r: &crate::model::Requirement, case: &Case) -> bool {
 /// Checks of one duty point that need nothing beyond the case.
 pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -> Vec<Check> {
     let mut out = Vec::new();
+    let units = crate::display::Units::new(design.project.units);
+    let (hd, vel) = (units.head(), units.velocity());
     // Operating region.
     out.push(match d.flow_ratio_to_bep {
         Some(r) => {
@@ -131,8 +133,12 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
                 Status::Pass
             };
             let mut msg = format!(
-                "NPSH available {:.2} m is {:.2} times the NPSH required {:.2} m (limit {:.2}); excess {:.2} m",
-                d.npsh_available, ratio, nr, ratio_limit, excess
+                "NPSH available {} is {:.2} times the NPSH required {} (limit {:.2}); excess {}",
+                hd.fmt(d.npsh_available),
+                ratio,
+                hd.fmt(nr),
+                ratio_limit,
+                hd.fmt(excess)
             );
             if d.npsh_available <= nr {
                 msg.push_str(": the pump will cavitate");
@@ -144,7 +150,7 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
             if d.npsh_available <= 0.0 { Status::Fail } else { Status::Warn },
             None,
             Some(ratio_limit),
-            format!("NPSH available is {:.2} m; the curve gives no NPSH required at this flow: obtain it from the manufacturer", d.npsh_available),
+            format!("NPSH available is {}; the curve gives no NPSH required at this flow: obtain it from the manufacturer", hd.fmt(d.npsh_available)),
             &ratio_source,
         ),
     });
@@ -172,7 +178,12 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
             status,
             Some(v),
             Some(hi),
-            format!("{label} velocity at the pump {v:.2} m/s, {note} {lo}–{hi} m/s"),
+            format!(
+                "{label} velocity at the pump {}, {note} ({}–{})",
+                vel.fmt(v),
+                vel.num(lo),
+                vel.fmt(hi)
+            ),
             "typical velocities, common practice",
         ));
     }
@@ -224,10 +235,6 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
         out.push(check);
     }
     out
-}
-
-fn sig(v: f64) -> String {
-    format!("{v:.4}")
 }
 
 /// The motor check of a candidate over all its cases: the smallest standard rating that

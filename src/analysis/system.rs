@@ -156,16 +156,16 @@ impl CaseSystem {
         for line in ordered {
             for (i, seg) in line.segments.iter().enumerate() {
                 let d = seg.inner_diameter.get::<meter>();
-                let entry = roughness::roughness(seg.material);
-                let (roughness, roughness_source) = match seg.roughness {
-                    Some(r) => (r.get::<meter>(), "given in the design".to_string()),
-                    None => match s.pipe_condition {
+                let (roughness, roughness_source) = match (seg.roughness, roughness::roughness(seg.material)) {
+                    (Some(r), _) => (r.get::<meter>(), "given in the design".to_string()),
+                    (None, Some(entry)) => match s.pipe_condition {
                         PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
-                        PipeCondition::Aged => (
-                            entry.aged_m,
-                            format!("{} (aged: {})", entry.source, entry.aged_note),
-                        ),
+                        PipeCondition::Aged => (entry.aged_m, format!("{} (aged: {})", entry.source, entry.aged_note)),
                     },
+                    (None, None) if seg.hazen_williams_c.is_some() => (0.0, "not used (Hazen-Williams)".to_string()),
+                    (None, None) => {
+                        return Err(SystemError { message: format!("line {} segment {}: material `{}` has no tabulated roughness; give `roughness = ...`", line.name, i + 1, seg.material.keyword()) })
+                    }
                 };
                 let mut k_constant = 0.0;
                 let mut fits = Vec::new();

@@ -108,9 +108,19 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
             }
         }
         ExprKind::Paren(inner) => eval(inner, env),
-        ExprKind::Neg(inner) => match eval(inner, env)? {
-            Value::Quantity(q) => Ok(Value::Quantity(q.neg())),
-            other => Err(not_a_number(&other, inner.span)),
+        ExprKind::Neg(inner) => match &inner.kind {
+            // `-5 degC` is a negative temperature, not the negation of one.
+            ExprKind::Quantity { value, unit } => {
+                let neg = Number {
+                    text: format!("-{}", value.text),
+                    value: -value.value,
+                };
+                quantity_literal(&neg, unit).map(Value::Quantity)
+            }
+            _ => match eval(inner, env)? {
+                Value::Quantity(q) => Ok(Value::Quantity(q.neg())),
+                other => Err(not_a_number(&other, inner.span)),
+            },
         },
         ExprKind::Power { base, exponent } => {
             let q = eval_quantity(base, env)?;

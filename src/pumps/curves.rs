@@ -67,7 +67,7 @@ fn fit_optional(
     Ok(Some(curve))
 }
 
-/// Fits every column of a table with its default method (see [`super::fit`]).
+/// Fits every column of a table with its default method (see [`mod@super::fit`]).
 ///
 /// Errors: columns of different lengths, a speed or diameter that is not a positive
 /// finite number, efficiencies above 1 (percent given instead of a fraction), and any

@@ -204,8 +204,11 @@ fn validate(flow: &[f64], values: &[f64], needed: usize) -> Result<(), PumpError
     }
     if flow.len() < needed {
         return Err(PumpError::new(format!(
-            "{} points given but the fit needs at least {needed}",
-            flow.len()
+            "{} given but the fit needs at least {needed}",
+            match flow.len() {
+                1 => "1 point".to_string(),
+                n => format!("{n} points"),
+            }
         )));
     }
     if let Some(i) = flow.iter().position(|q| !q.is_finite()) {

@@ -11,10 +11,10 @@
 //! Map of the module:
 //! - [`curves`]: the published table ([`CurveTable`]), its fitted form ([`PumpCurves`])
 //!   and the best efficiency point ([`best_efficiency_point`]).
-//! - [`fit`]: least-squares polynomials ([`lsq`]) and the Fritsch–Carlson monotone
+//! - [`mod@fit`]: least-squares polynomials ([`lsq`]) and the Fritsch–Carlson monotone
 //!   spline ([`spline`]) behind one [`FittedCurve`].
 //! - [`affinity`]: the pump at another speed or trimmed diameter ([`ScaledPump`]),
-//!   [`speed_for_duty`] and [`trim_for_duty`]; [`family`] interpolates between several
+//!   [`speed_for_duty`] and [`trim_for_duty`]; [`mod@family`] interpolates between several
 //!   published curves.
 //! - [`arrangement`]: identical pumps in parallel, in series, duty/standby.
 //! - [`duty`]: the pump/system intersection ([`solve_duty`]) and Brent's root finder.

@@ -52,46 +52,47 @@ fn fail<T>(message: impl Into<String>) -> Result<T, QuantityError> {
 
 const TOO_LARGE: &str = "result is too large";
 const TOO_LARGE_DIM: &str = "result is too large: its dimension exponents overflow";
+const TWO_POINTS: &str =
+    "cannot add two temperatures; did you mean a temperature difference (delta_degC)?";
+const MIXED_REFERENCES: &str = "cannot combine a gauge and an absolute pressure: converting \
+     between them needs the barometric pressure, which is not known here";
 
+// The arithmetic returns `Result`, so the agreed names `add`, `sub`, ... are plain
+// methods rather than operator traits.
+#[allow(clippy::should_implement_trait)]
 impl Quantity {
+    fn new(si: f64, dim: Dimension, kind: QuantityKind) -> Quantity {
+        Quantity { si, dim, kind }
+    }
+
     /// A number written in `unit`: applies factor and offset and sets the kind
     /// (`20 degC` is the point 293.15 K; `20 psig` is a gauge pressure). A non-finite
     /// `value` gives a non-finite `si`; use [`Quantity::try_from_value`] to reject it.
     pub fn from_value(value: f64, unit: &Unit) -> Quantity {
         let offset = if unit.affine { unit.offset } else { 0.0 };
-        Quantity {
-            si: value * unit.factor + offset,
-            dim: unit.dim,
-            kind: unit.kind(),
-        }
+        Quantity::new(value * unit.factor + offset, unit.dim, unit.kind())
     }
 
     /// Like [`Quantity::from_value`], but an error if the SI value is not finite.
     pub fn try_from_value(value: f64, unit: &Unit) -> Result<Quantity, QuantityError> {
-        let q = Quantity::from_value(value, unit);
-        q.finite()
+        Quantity::from_value(value, unit).finite()
     }
 
     /// A dimensionless number.
     pub fn number(v: f64) -> Quantity {
-        Quantity {
-            si: v,
-            dim: Dimension::NONE,
-            kind: QuantityKind::Plain,
-        }
+        Quantity::new(v, Dimension::NONE, QuantityKind::Plain)
     }
 
     /// "a temperature", "a temperature difference", "a gauge pressure", "a length", ...
     pub fn describe(&self) -> String {
-        match self.kind {
-            QuantityKind::TemperaturePoint => "a temperature".to_string(),
-            QuantityKind::GaugePressure => "a gauge pressure".to_string(),
-            QuantityKind::AbsolutePressure => "an absolute pressure".to_string(),
-            QuantityKind::Plain if self.dim == Dimension::TEMPERATURE => {
-                "a temperature difference".to_string()
-            }
-            QuantityKind::Plain => self.dim.describe(),
-        }
+        let text = match self.kind {
+            QuantityKind::TemperaturePoint => "a temperature",
+            QuantityKind::GaugePressure => "a gauge pressure",
+            QuantityKind::AbsolutePressure => "an absolute pressure",
+            _ if self.dim == Dimension::TEMPERATURE => "a temperature difference",
+            _ => return self.dim.describe(),
+        };
+        text.to_string()
     }
 
     fn finite(self) -> Result<Quantity, QuantityError> {
@@ -102,30 +103,27 @@ impl Quantity {
         }
     }
 
-    fn same_dim(&self, o: &Quantity, verb: &str, joint: &str) -> Result<(), QuantityError> {
+    fn same_dim(&self, o: &Quantity, verb: &str) -> Result<(), QuantityError> {
         if self.dim == o.dim {
-            Ok(())
-        } else {
-            let (a, b) = (self.describe(), o.describe());
-            fail(format!("cannot {verb} {a} {joint} {b}"))
+            return Ok(());
         }
+        fail(format!(
+            "cannot {verb} {} and {}",
+            self.describe(),
+            o.describe()
+        ))
     }
 
-    /// Sum. A point plus a difference is a point; two points cannot be added; gauge and
-    /// absolute pressures never meet.
+    /// Sum. A point plus a difference is a point; two points (temperatures, two gauge or
+    /// two absolute pressures) cannot be added; gauge and absolute pressures never meet.
     pub fn add(self, o: Quantity) -> Result<Quantity, QuantityError> {
         use QuantityKind::*;
-        self.same_dim(&o, "add", "and")?;
+        self.same_dim(&o, "add")?;
         let kind = match (self.kind, o.kind) {
             (k, Plain) | (Plain, k) => k,
-            (TemperaturePoint, TemperaturePoint) => {
-                return fail(
-                    "cannot add two temperatures; did you mean a temperature difference \
-                     (delta_degC)?",
-                )
-            }
-            (GaugePressure, GaugePressure) | (AbsolutePressure, AbsolutePressure) => {
-                let what = if self.kind == GaugePressure {
+            (TemperaturePoint, TemperaturePoint) => return fail(TWO_POINTS),
+            (a, b) if a == b => {
+                let what = if a == GaugePressure {
                     "gauge"
                 } else {
                     "absolute"
@@ -135,21 +133,16 @@ impl Quantity {
                      difference (psi, kPa, bar without a reference)"
                 ));
             }
-            _ => return fail(mixed_references()),
+            _ => return fail(MIXED_REFERENCES),
         };
-        Quantity {
-            si: self.si + o.si,
-            ..self
-        }
-        .with_kind(kind)
-        .finite()
+        Quantity::new(self.si + o.si, self.dim, kind).finite()
     }
 
     /// Difference. Point − point is a difference (Plain); point − difference is a point;
     /// a difference minus a point is an error.
     pub fn sub(self, o: Quantity) -> Result<Quantity, QuantityError> {
         use QuantityKind::*;
-        self.same_dim(&o, "subtract", "and")?;
+        self.same_dim(&o, "subtract")?;
         let kind = match (self.kind, o.kind) {
             (k, Plain) => k,
             (Plain, _) => {
@@ -160,46 +153,31 @@ impl Quantity {
                 ))
             }
             (a, b) if a == b => Plain,
-            _ => return fail(mixed_references()),
+            _ => return fail(MIXED_REFERENCES),
         };
-        Quantity {
-            si: self.si - o.si,
-            ..self
-        }
-        .with_kind(kind)
-        .finite()
-    }
-
-    fn with_kind(self, kind: QuantityKind) -> Quantity {
-        Quantity { kind, ..self }
+        Quantity::new(self.si - o.si, self.dim, kind).finite()
     }
 
     /// Product. Points enter by their SI value (kelvin from absolute zero, pascal above the
     /// stated reference); the result is always Plain.
     pub fn mul(self, o: Quantity) -> Result<Quantity, QuantityError> {
-        let Some(dim) = self.dim.checked_mul(o.dim) else {
-            return fail(TOO_LARGE_DIM);
-        };
-        Quantity::plain(self.si * o.si, dim).finite()
+        let dim = self
+            .dim
+            .checked_mul(o.dim)
+            .map_or_else(|| fail(TOO_LARGE_DIM), Ok)?;
+        Quantity::new(self.si * o.si, dim, QuantityKind::Plain).finite()
     }
 
     /// Quotient, with the same rules as [`Quantity::mul`]; division by zero is an error.
     pub fn div(self, o: Quantity) -> Result<Quantity, QuantityError> {
-        let Some(dim) = self.dim.checked_div(o.dim) else {
-            return fail(TOO_LARGE_DIM);
-        };
+        let dim = self
+            .dim
+            .checked_div(o.dim)
+            .map_or_else(|| fail(TOO_LARGE_DIM), Ok)?;
         if o.si == 0.0 {
             return fail("division by zero");
         }
-        Quantity::plain(self.si / o.si, dim).finite()
-    }
-
-    fn plain(si: f64, dim: Dimension) -> Quantity {
-        Quantity {
-            si,
-            dim,
-            kind: QuantityKind::Plain,
-        }
+        Quantity::new(self.si / o.si, dim, QuantityKind::Plain).finite()
     }
 
     /// Negation. A negated temperature point is no longer a point (Plain, in kelvin);
@@ -210,23 +188,17 @@ impl Quantity {
             QuantityKind::TemperaturePoint => QuantityKind::Plain,
             k => k,
         };
-        Quantity {
-            si: -self.si,
-            dim: self.dim,
-            kind,
-        }
+        Quantity::new(-self.si, self.dim, kind)
     }
 
     /// Integer power; the result is Plain. Points enter by their SI value.
     pub fn powi(self, n: i32) -> Result<Quantity, QuantityError> {
         let dim = i8::try_from(n).ok().and_then(|n| self.dim.powi(n));
-        let Some(dim) = dim else {
-            return fail(TOO_LARGE_DIM);
-        };
+        let dim = dim.map_or_else(|| fail(TOO_LARGE_DIM), Ok)?;
         if n < 0 && self.si == 0.0 {
             return fail("division by zero");
         }
-        Quantity::plain(self.si.powi(n), dim).finite()
+        Quantity::new(self.si.powi(n), dim, QuantityKind::Plain).finite()
     }
 
     /// Convert to a number in the given unit (inverse of `from_value`); Err if dimensions
@@ -237,11 +209,10 @@ impl Quantity {
     pub fn in_unit(&self, unit: &Unit) -> Result<f64, QuantityError> {
         use QuantityKind::*;
         if self.dim != unit.dim {
+            let (what, measures) = (self.describe(), unit.dim.describe());
             return fail(format!(
-                "cannot express {} in {}, which measures {}",
-                self.describe(),
-                unit.text,
-                unit.dim.describe()
+                "cannot express {what} in {}, which measures {measures}",
+                unit.text
             ));
         }
         let value = match (self.kind, unit.kind()) {
@@ -254,36 +225,29 @@ impl Quantity {
                 ))
             }
             (GaugePressure, AbsolutePressure) | (AbsolutePressure, GaugePressure) => {
-                return fail(mixed_references())
+                return fail(MIXED_REFERENCES)
             }
             _ => self.si / unit.factor,
         };
-        if value.is_finite() {
-            Ok(value)
-        } else {
-            fail(TOO_LARGE)
-        }
+        Quantity::number(value).finite().map(|q| q.si)
     }
-}
-
-fn mixed_references() -> &'static str {
-    "cannot combine a gauge and an absolute pressure: converting between them needs the \
-     barometric pressure, which is not known here"
 }
 
 #[cfg(test)]
 mod tests {
     use super::super::parse_unit;
     use super::*;
+    use QuantityKind::*;
 
     fn q(value: f64, unit: &str) -> Quantity {
         let u = parse_unit(unit).unwrap_or_else(|e| panic!("{unit}: {e}"));
         Quantity::from_value(value, &u)
     }
 
-    fn read(x: Quantity, unit: &str) -> f64 {
+    /// The value of `x` in `unit`, or NaN if it cannot be expressed there.
+    fn read(x: Result<Quantity, QuantityError>, unit: &str) -> f64 {
         let u = parse_unit(unit).unwrap_or_else(|e| panic!("{unit}: {e}"));
-        x.in_unit(&u).unwrap_or_else(|e| panic!("{unit}: {e}"))
+        x.and_then(|x| x.in_unit(&u)).unwrap_or(f64::NAN)
     }
 
     fn near(a: f64, b: f64) -> bool {
@@ -292,94 +256,89 @@ mod tests {
 
     #[test]
     fn temperature_points_and_differences() {
-        use QuantityKind::*;
-        assert!(near(q(68.0, "degF").si, 293.15)); // NIST SP 811 (2008) B.9: T/K = (t/°F + 459.67)/1.8
-        assert_eq!(q(20.0, "degC").kind, TemperaturePoint);
-        assert_eq!(q(300.0, "K").kind, TemperaturePoint);
+        assert_eq!(
+            (q(20.0, "degC").kind, q(300.0, "K").kind),
+            (TemperaturePoint, TemperaturePoint)
+        );
         assert_eq!(q(5.0, "delta_degC").kind, Plain);
-        let diff = q(20.0, "degC").sub(q(10.0, "degC")).expect("point - point");
-        assert_eq!((diff.kind, diff.dim), (Plain, Dimension::TEMPERATURE));
-        assert!(near(diff.si, 10.0));
-        assert!(near(read(diff, "delta_degF"), 18.0));
+        let diff = q(20.0, "degC").sub(q(10.0, "degC"));
+        assert!(diff
+            .as_ref()
+            .is_ok_and(|d| d.kind == Plain && d.dim == Dimension::TEMPERATURE));
+        assert!(near(read(diff.clone(), "delta_degF"), 18.0));
         assert!(near(read(diff, "degF"), 18.0)); // a difference read in a scale unit: no offset
-        let warmer = q(20.0, "degC")
-            .add(q(9.0, "delta_degF"))
-            .expect("point + diff");
-        assert_eq!(warmer.kind, TemperaturePoint);
+        let warmer = q(20.0, "degC").add(q(9.0, "delta_degF"));
+        assert!(warmer.as_ref().is_ok_and(|w| w.kind == TemperaturePoint));
         assert!(near(read(warmer, "degC"), 25.0));
-        let cooler = q(20.0, "degC")
-            .sub(q(5.0, "delta_K"))
-            .expect("point - diff");
-        assert!(near(read(cooler, "degC"), 15.0));
-        let e = q(20.0, "degC")
-            .add(q(20.0, "degC"))
-            .expect_err("point + point");
-        assert!(e.message.contains("delta_degC"));
+        assert!(near(
+            read(q(20.0, "degC").sub(q(5.0, "delta_K")), "degC"),
+            15.0
+        ));
+        assert!(near(read(Ok(q(0.0, "degC")), "degR"), 491.67)); // NIST SP 811 (2008) B.9
         assert!(q(5.0, "delta_K").sub(q(20.0, "degC")).is_err());
-        assert!(q(20.0, "degC")
-            .in_unit(&parse_unit("delta_degC").expect("u"))
-            .is_err());
-        assert!(near(read(q(0.0, "degC"), "degR"), 491.67));
+        assert!(read(Ok(q(20.0, "degC")), "delta_degC").is_nan());
     }
 
     #[test]
     fn products_of_points_use_absolute_si_values_and_are_plain() {
-        let t = q(20.0, "degC");
-        let twice = Quantity::number(2.0).mul(t).expect("product");
-        assert_eq!(twice.kind, QuantityKind::Plain);
-        assert!(near(twice.si, 586.3));
-        let k = q(0.6, "W/(m*degC)");
-        assert!(near(k.si, 0.6) && k.kind == QuantityKind::Plain);
-        assert_eq!(t.neg().kind, QuantityKind::Plain);
-        assert_eq!(q(3.0, "psig").neg().kind, QuantityKind::GaugePressure);
+        let twice = Quantity::number(2.0).mul(q(20.0, "degC"));
+        assert!(twice.is_ok_and(|t| t.kind == Plain && near(t.si, 586.3)));
+        assert_eq!(
+            q(0.6, "W/(m*degC)"),
+            Quantity::new(0.6, q(0.6, "W/(m*K)").dim, Plain)
+        );
+        assert_eq!(q(20.0, "degC").neg().kind, Plain);
+        assert_eq!(q(3.0, "psig").neg().kind, GaugePressure);
     }
 
     #[test]
     fn gauge_and_absolute_pressures() {
-        use QuantityKind::*;
-        assert_eq!(q(10.0, "psig").kind, GaugePressure);
-        assert_eq!(q(10.0, "bar(a)").kind, AbsolutePressure);
+        assert_eq!(
+            (q(1.0, "psig").kind, q(1.0, "bar(a)").kind),
+            (GaugePressure, AbsolutePressure)
+        );
         assert_eq!(q(10.0, "psi").kind, Plain);
         assert!(q(10.0, "psig").add(q(14.7, "psia")).is_err());
         assert!(q(10.0, "psia").sub(q(1.0, "kPa(g)")).is_err());
-        let d = q(30.0, "psig").sub(q(10.0, "psig")).expect("gauge - gauge");
-        assert_eq!(d.kind, Plain);
-        assert!(near(read(d, "psi"), 20.0));
-        let g = q(30.0, "psig").add(q(2.0, "psi")).expect("gauge + plain");
-        assert_eq!(g.kind, GaugePressure);
-        assert!(near(read(g, "psig"), 32.0));
-        let a = q(2.0, "bar(a)").sub(q(50.0, "kPa")).expect("abs - plain");
-        assert_eq!(a.kind, AbsolutePressure);
-        assert!(near(read(a, "kPa(a)"), 150.0));
         assert!(q(1.0, "psi").sub(q(1.0, "psig")).is_err());
         assert!(q(1.0, "psig").add(q(1.0, "psig")).is_err());
-        assert!(q(1.0, "psig")
-            .in_unit(&parse_unit("psia").expect("u"))
-            .is_err());
-        assert!(near(read(q(1.0, "psig"), "kPa"), 6.894_757_293_168));
+        assert!(q(1.0, "bar(a)").add(q(1.0, "bar(a)")).is_err());
+        let d = q(30.0, "psig").sub(q(10.0, "psig"));
+        assert!(d.as_ref().is_ok_and(|d| d.kind == Plain));
+        assert!(near(read(d, "psi"), 20.0));
+        let g = q(30.0, "psig").add(q(2.0, "psi"));
+        assert!(g.as_ref().is_ok_and(|g| g.kind == GaugePressure));
+        assert!(near(read(g, "psig"), 32.0));
+        let a = q(2.0, "bar(a)").sub(q(50.0, "kPa"));
+        assert!(a.as_ref().is_ok_and(|a| a.kind == AbsolutePressure));
+        assert!(near(read(a, "kPa(a)"), 150.0));
+        assert!(read(Ok(q(1.0, "psig")), "psia").is_nan());
+        assert!(near(read(Ok(q(1.0, "psig")), "kPa"), 6.894_757_293_168)); // NIST SP 811 (2008) B.8: 6.894 757 E+03 Pa
     }
 
     #[test]
     fn dimension_mismatch_and_overflow_are_errors() {
+        let e = q(1.0, "m").add(q(1.0, "psi")).map_err(|e| e.message);
+        assert_eq!(e, Err("cannot add a length and a pressure".to_string()));
         let e = q(1.0, "m")
-            .add(q(1.0, "psi"))
-            .expect_err("length + pressure");
-        assert_eq!(e.message, "cannot add a length and a pressure");
-        let e = q(1.0, "m")
-            .in_unit(&parse_unit("gpm").expect("u"))
-            .expect_err("in gpm");
-        assert!(e.message.contains("volume flow rate"));
-        let big = Quantity::number(1e300);
-        assert_eq!(big.mul(big).expect_err("overflow").message, TOO_LARGE);
-        let max = Quantity::number(f64::MAX);
-        assert_eq!(max.add(max).expect_err("overflow").message, TOO_LARGE);
-        assert_eq!(max.neg().sub(max).expect_err("overflow").message, TOO_LARGE);
+            .in_unit(&parse_unit("gpm").expect("unit"))
+            .map_err(|e| e.message);
+        assert!(e.is_err_and(|m| m.contains("volume flow rate")));
+        let (big, max) = (Quantity::number(1e300), Quantity::number(f64::MAX));
+        for overflow in [
+            big.mul(big),
+            max.add(max),
+            max.neg().sub(max),
+            big.div(Quantity::number(1e-300)),
+        ] {
+            assert_eq!(overflow.map_err(|e| e.message), Err(TOO_LARGE.to_string()));
+        }
         assert!(Quantity::number(1.0).div(Quantity::number(0.0)).is_err());
         assert!(Quantity::number(0.0).powi(-1).is_err());
         assert!(q(1.0, "m").powi(200).is_err());
         assert!(q(2.0, "m")
             .powi(3)
             .is_ok_and(|v| v.dim == Dimension::VOLUME && near(v.si, 8.0)));
-        assert!(Quantity::try_from_value(f64::NAN, &parse_unit("m").expect("u")).is_err());
+        assert!(Quantity::try_from_value(f64::NAN, &parse_unit("m").expect("unit")).is_err());
     }
 }

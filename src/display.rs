@@ -1,0 +1,258 @@
+//! Report units: SI engine values shown in the design's chosen units.
+//! The one place where outputs (report, text results, diff) turn SI into
+//! the units a reader sees. Factors are NIST SP 811 (2008), Appendix B.
+
+use crate::model::ReportUnits;
+
+/// A unit of display: label, and SI value → displayed value.
+#[derive(Clone, Copy, Debug)]
+pub struct Shown {
+    pub label: &'static str,
+    factor: f64,
+    offset: f64,
+    /// Decimal places usually shown.
+    pub decimals: usize,
+}
+
+impl Shown {
+    pub fn value(&self, si: f64) -> f64 {
+        si / self.factor - self.offset
+    }
+    /// "123.4 gpm"
+    pub fn fmt(&self, si: f64) -> String {
+        format!("{:.*} {}", self.decimals, self.value(si), self.label)
+    }
+    /// "123.4" without the unit.
+    pub fn num(&self, si: f64) -> String {
+        format!("{:.*}", self.decimals, self.value(si))
+    }
+}
+
+const FT: f64 = 0.3048;
+const IN: f64 = 0.0254;
+const GAL: f64 = 3.785411784e-3;
+const PSI: f64 = 6894.757;
+const HP: f64 = 745.69987;
+
+/// The display units of one report.
+#[derive(Clone, Copy, Debug)]
+pub struct Units {
+    pub system: ReportUnits,
+}
+
+impl Units {
+    pub fn new(system: ReportUnits) -> Units {
+        Units { system }
+    }
+    fn pick(&self, si: Shown, us: Shown) -> Shown {
+        match self.system {
+            ReportUnits::Si => si,
+            ReportUnits::Us => us,
+        }
+    }
+    pub fn flow(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m³/h",
+                factor: 1.0 / 3600.0,
+                offset: 0.0,
+                decimals: 1,
+            },
+            Shown {
+                label: "gpm",
+                factor: GAL / 60.0,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
+    }
+    pub fn head(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "ft",
+                factor: FT,
+                offset: 0.0,
+                decimals: 1,
+            },
+        )
+    }
+    pub fn elevation(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "ft",
+                factor: FT,
+                offset: 0.0,
+                decimals: 1,
+            },
+        )
+    }
+    pub fn length(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 1,
+            },
+            Shown {
+                label: "ft",
+                factor: FT,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
+    }
+    pub fn diameter(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "mm",
+                factor: 1e-3,
+                offset: 0.0,
+                decimals: 1,
+            },
+            Shown {
+                label: "in",
+                factor: IN,
+                offset: 0.0,
+                decimals: 3,
+            },
+        )
+    }
+    pub fn roughness(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "mm",
+                factor: 1e-3,
+                offset: 0.0,
+                decimals: 4,
+            },
+            Shown {
+                label: "in",
+                factor: IN,
+                offset: 0.0,
+                decimals: 5,
+            },
+        )
+    }
+    pub fn pressure(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "kPa",
+                factor: 1e3,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "psi",
+                factor: PSI,
+                offset: 0.0,
+                decimals: 2,
+            },
+        )
+    }
+    pub fn power(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "kW",
+                factor: 1e3,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "hp",
+                factor: HP,
+                offset: 0.0,
+                decimals: 2,
+            },
+        )
+    }
+    pub fn velocity(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m/s",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "ft/s",
+                factor: FT,
+                offset: 0.0,
+                decimals: 2,
+            },
+        )
+    }
+    pub fn temperature(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "°C",
+                factor: 1.0,
+                offset: 273.15,
+                decimals: 1,
+            },
+            Shown {
+                label: "°F",
+                factor: 5.0 / 9.0,
+                offset: 459.67,
+                decimals: 1,
+            },
+        )
+    }
+    pub fn density(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "kg/m³",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 1,
+            },
+            Shown {
+                label: "lb/ft³",
+                factor: 0.45359237 / (FT * FT * FT),
+                offset: 0.0,
+                decimals: 2,
+            },
+        )
+    }
+    pub fn viscosity(&self) -> Shown {
+        Shown {
+            label: "cP",
+            factor: 1e-3,
+            offset: 0.0,
+            decimals: 3,
+        }
+    }
+    pub fn speed(&self) -> Shown {
+        Shown {
+            label: "rpm",
+            factor: 1.0,
+            offset: 0.0,
+            decimals: 0,
+        }
+    }
+    pub fn energy(&self) -> Shown {
+        Shown {
+            label: "kWh",
+            factor: 3.6e6,
+            offset: 0.0,
+            decimals: 0,
+        }
+    }
+}
+
+/// A fraction as a percentage, "76.5 %".
+pub fn percent(f: f64) -> String {
+    format!("{:.1} %", 100.0 * f)
+}

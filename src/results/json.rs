@@ -1,0 +1,409 @@
+//! The JSON view of an analysis. Field order is the contract's; SI units with the
+//! unit in the key; ratios as fractions; `null` where a value does not exist.
+
+// JSON keys carry SI unit symbols (`head_m`, `shaft_power_W`) as the contract says.
+#![allow(non_snake_case)]
+
+use serde::Serialize;
+
+use crate::analysis::checks::Check;
+use crate::analysis::duty::PumpResult;
+use crate::analysis::{Analysis, CaseResult};
+use crate::diagnostics::{line_col, Diagnostic};
+use crate::model::{ArrangementKind, Design};
+
+/// The format string; changes when anything is removed or renamed.
+pub const FORMAT: &str = "dutyline-results/1";
+
+#[derive(Serialize)]
+struct Doc<'a> {
+    format: &'static str,
+    tool_version: &'static str,
+    source: Source<'a>,
+    project: Project<'a>,
+    cases: Vec<Case<'a>>,
+    selection: Selection<'a>,
+    warnings: Vec<Warn>,
+}
+
+#[derive(Serialize)]
+struct Source<'a> {
+    path: &'a str,
+    sha256: String,
+}
+
+#[derive(Serialize)]
+struct Project<'a> {
+    title: &'a str,
+    number: &'a str,
+    client: &'a str,
+    revision: Option<&'a str>,
+    units: &'static str,
+}
+
+#[derive(Serialize)]
+struct Case<'a> {
+    name: &'a str,
+    overrides: &'a [String],
+    hours_per_year: f64,
+    error: Option<&'a str>,
+    fluid: Option<Fluid<'a>>,
+    barometric_pressure_Pa: Option<f64>,
+    levels: Option<Levels>,
+    static_head_m: Option<f64>,
+    segments: Vec<Segment<'a>>,
+    system_curve: Vec<Point>,
+    pumps: Vec<Pump<'a>>,
+}
+
+#[derive(Serialize)]
+struct Fluid<'a> {
+    name: &'a str,
+    temperature_K: Option<f64>,
+    density_kg_m3: f64,
+    dynamic_viscosity_Pa_s: f64,
+    vapor_pressure_Pa: f64,
+    source: &'a str,
+}
+
+#[derive(Serialize)]
+struct Levels {
+    source_m: f64,
+    destination_m: f64,
+    pump_centreline_m: f64,
+    source_gauge_pressure_Pa: f64,
+    destination_gauge_pressure_Pa: f64,
+}
+
+#[derive(Serialize)]
+struct Segment<'a> {
+    line: &'a str,
+    side: &'static str,
+    index: usize,
+    material: &'static str,
+    size: &'a str,
+    length_m: f64,
+    inner_diameter_m: f64,
+    roughness_m: f64,
+    friction_model: &'static str,
+    hazen_williams_c: Option<f64>,
+    fittings: Vec<Fitting<'a>>,
+    k_total: f64,
+    equivalent_length_m: f64,
+}
+
+#[derive(Serialize)]
+struct Fitting<'a> {
+    name: &'a str,
+    count: u32,
+    k: f64,
+    source: &'a str,
+}
+
+#[derive(Serialize)]
+struct Point {
+    flow_m3_s: f64,
+    head_m: f64,
+    static_head_m: f64,
+    friction_head_m: f64,
+    minor_head_m: f64,
+}
+
+#[derive(Serialize)]
+struct Arrangement {
+    kind: &'static str,
+    count: u32,
+    standby: u32,
+}
+
+#[derive(Serialize)]
+struct Pump<'a> {
+    name: &'a str,
+    arrangement: Arrangement,
+    speed_rpm: f64,
+    impeller_diameter_m: Option<f64>,
+    duty: Option<Duty>,
+    failure: Option<&'a str>,
+    checks: Vec<CheckOut<'a>>,
+    annual_energy_J: Option<f64>,
+    annual_energy_cost: Option<f64>,
+    warnings: &'a [String],
+}
+
+#[derive(Serialize)]
+struct Duty {
+    flow_m3_s: f64,
+    head_m: f64,
+    flow_per_pump_m3_s: f64,
+    head_per_pump_m: f64,
+    efficiency: Option<f64>,
+    hydraulic_power_W: f64,
+    shaft_power_W: Option<f64>,
+    input_power_W: Option<f64>,
+    bep_flow_m3_s: Option<f64>,
+    flow_ratio_to_bep: Option<f64>,
+    npsh_available_m: f64,
+    npsh_required_m: Option<f64>,
+    suction_velocity_m_s: Option<f64>,
+    discharge_velocity_m_s: Option<f64>,
+    extrapolated: bool,
+}
+
+#[derive(Serialize)]
+struct CheckOut<'a> {
+    id: &'static str,
+    status: &'static str,
+    value: Option<f64>,
+    limit: Option<f64>,
+    message: &'a str,
+    source: &'a str,
+}
+
+#[derive(Serialize)]
+struct Selection<'a> {
+    recommended: Option<&'a str>,
+    criterion: &'static str,
+    criteria: &'a str,
+    refusal: Option<&'a str>,
+    ranking: Vec<Ranked<'a>>,
+}
+
+#[derive(Serialize)]
+struct Ranked<'a> {
+    name: &'a str,
+    qualifies: bool,
+    score: Option<f64>,
+    annual_energy_J: Option<f64>,
+    annual_energy_cost: Option<f64>,
+    life_energy_cost: Option<f64>,
+    mean_efficiency: Option<f64>,
+    why: &'a str,
+}
+
+#[derive(Serialize)]
+struct Warn {
+    code: String,
+    message: String,
+    line: Option<usize>,
+    column: Option<usize>,
+}
+
+fn finite(v: f64) -> Option<f64> {
+    v.is_finite().then_some(v)
+}
+
+fn case<'a>(c: &'a CaseResult) -> Case<'a> {
+    let s = c.system.as_ref();
+    Case {
+        name: &c.name,
+        overrides: &c.overrides,
+        hours_per_year: c.hours_per_year,
+        error: c.error.as_deref(),
+        fluid: s.map(|s| Fluid {
+            name: &s.fluid.name,
+            temperature_K: s.fluid.temperature_k,
+            density_kg_m3: s.fluid.density,
+            dynamic_viscosity_Pa_s: s.fluid.viscosity,
+            vapor_pressure_Pa: s.fluid.vapor_pressure,
+            source: &s.fluid.source,
+        }),
+        barometric_pressure_Pa: s.map(|s| s.barometric_pa),
+        levels: s.map(|s| Levels {
+            source_m: s.source_level,
+            destination_m: s.destination_level,
+            pump_centreline_m: s.centreline,
+            source_gauge_pressure_Pa: s.source_abs_pa - s.barometric_pa,
+            destination_gauge_pressure_Pa: s.destination_abs_pa - s.barometric_pa,
+        }),
+        static_head_m: s.map(|s| s.static_head),
+        segments: s
+            .map(|s| {
+                s.segments
+                    .iter()
+                    .map(|g| Segment {
+                        line: &g.line,
+                        side: g.side.keyword(),
+                        index: g.index,
+                        material: g.material,
+                        size: &g.size_label,
+                        length_m: g.length,
+                        inner_diameter_m: g.inner_diameter,
+                        roughness_m: g.roughness,
+                        friction_model: if g.hazen_williams_c.is_some() {
+                            "hazen-williams"
+                        } else {
+                            "darcy-colebrook"
+                        },
+                        hazen_williams_c: g.hazen_williams_c,
+                        fittings: g
+                            .fittings
+                            .iter()
+                            .map(|f| Fitting {
+                                name: f.spec.name,
+                                count: f.count,
+                                k: crate::analysis::system::k_of(
+                                    f,
+                                    s.reynolds(g, design_flow(c)),
+                                    g.inner_diameter,
+                                ),
+                                source: f.spec.source,
+                            })
+                            .collect(),
+                        k_total: g.k_constant,
+                        equivalent_length_m: g.equivalent_length,
+                    })
+                    .collect()
+            })
+            .unwrap_or_default(),
+        system_curve: c
+            .system_curve
+            .iter()
+            .map(|p| Point {
+                flow_m3_s: p.flow,
+                head_m: p.head,
+                static_head_m: p.static_head,
+                friction_head_m: p.friction,
+                minor_head_m: p.minor,
+            })
+            .collect(),
+        pumps: c.pumps.iter().map(pump).collect(),
+    }
+}
+
+/// The flow at which fitting K values are reported: the first duty of the case, or
+/// the middle of the curve range.
+fn design_flow(c: &CaseResult) -> f64 {
+    c.pumps
+        .iter()
+        .find_map(|p| p.duty.as_ref().map(|d| d.flow))
+        .unwrap_or_else(|| {
+            c.system_curve
+                .get(c.system_curve.len() / 2)
+                .map(|p| p.flow)
+                .unwrap_or(0.0)
+        })
+}
+
+fn check(c: &Check) -> CheckOut<'_> {
+    CheckOut {
+        id: c.id,
+        status: c.status.keyword(),
+        value: c.value.and_then(finite),
+        limit: c.limit.and_then(finite),
+        message: &c.message,
+        source: &c.source,
+    }
+}
+
+fn pump(p: &PumpResult) -> Pump<'_> {
+    Pump {
+        name: &p.name,
+        arrangement: Arrangement {
+            kind: match p.arrangement {
+                ArrangementKind::Single => "single",
+                ArrangementKind::Parallel => "parallel",
+                ArrangementKind::Series => "series",
+            },
+            count: p.count,
+            standby: p.standby,
+        },
+        speed_rpm: p.speed_rpm,
+        impeller_diameter_m: p.impeller_diameter_m,
+        duty: p.duty.as_ref().map(|d| Duty {
+            flow_m3_s: d.flow,
+            head_m: d.head,
+            flow_per_pump_m3_s: d.flow_per_pump,
+            head_per_pump_m: d.head_per_pump,
+            efficiency: d.efficiency,
+            hydraulic_power_W: d.hydraulic_power,
+            shaft_power_W: d.shaft_power,
+            input_power_W: d.input_power,
+            bep_flow_m3_s: d.bep_flow,
+            flow_ratio_to_bep: d.flow_ratio_to_bep,
+            npsh_available_m: d.npsh_available,
+            npsh_required_m: d.npsh_required,
+            suction_velocity_m_s: d.suction_velocity,
+            discharge_velocity_m_s: d.discharge_velocity,
+            extrapolated: d.extrapolated,
+        }),
+        failure: p.failure.as_deref(),
+        checks: p.checks.iter().map(check).collect(),
+        annual_energy_J: p.energy.map(|e| e.energy_j),
+        annual_energy_cost: p.energy.and_then(|e| e.cost),
+        warnings: &p.warnings,
+    }
+}
+
+/// The results document as pretty JSON. `warnings` are the design's diagnostics of
+/// warning severity plus the analysis warnings.
+pub fn to_json(
+    design: &Design,
+    analysis: &Analysis,
+    path: &str,
+    source: &str,
+    diagnostics: &[Diagnostic],
+) -> String {
+    let mut warnings: Vec<Warn> = diagnostics
+        .iter()
+        .map(|d| {
+            let lc = d.span.map(|s| line_col(source, s.start));
+            Warn {
+                code: d.code.to_string(),
+                message: d.message.clone(),
+                line: lc.map(|x| x.0),
+                column: lc.map(|x| x.1),
+            }
+        })
+        .collect();
+    for w in &analysis.warnings {
+        let lc = w.span.map(|s| line_col(source, s.start));
+        warnings.push(Warn {
+            code: w.code.to_string(),
+            message: w.message.clone(),
+            line: lc.map(|x| x.0),
+            column: lc.map(|x| x.1),
+        });
+    }
+    let sel = &analysis.selection;
+    let doc = Doc {
+        format: FORMAT,
+        tool_version: crate::VERSION,
+        source: Source {
+            path,
+            sha256: super::sha256_hex(source),
+        },
+        project: Project {
+            title: &design.project.title,
+            number: &design.project.number,
+            client: &design.project.client,
+            revision: design.revisions.last().map(|r| r.id.as_str()),
+            units: design.project.units.keyword(),
+        },
+        cases: analysis.cases.iter().map(case).collect(),
+        selection: Selection {
+            recommended: sel.recommended.as_deref(),
+            criterion: sel.criterion,
+            criteria: &sel.criteria_text,
+            refusal: sel.refusal.as_deref(),
+            ranking: sel
+                .ranking
+                .iter()
+                .map(|r| Ranked {
+                    name: &r.name,
+                    qualifies: r.qualifies,
+                    score: finite(r.score),
+                    annual_energy_J: r.annual_energy_j,
+                    annual_energy_cost: r.annual_cost,
+                    life_energy_cost: r.life_cost,
+                    mean_efficiency: r.mean_efficiency,
+                    why: &r.why,
+                })
+                .collect(),
+        },
+        warnings,
+    };
+    let mut s =
+        serde_json::to_string_pretty(&doc).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
+    s.push('\n');
+    s
+}
