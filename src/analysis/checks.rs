@@ -214,12 +214,7 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
                     if ok { Status::Pass } else { Status::Fail },
                     Some(v),
                     Some(r.limit_si),
-                    format!(
-                        "`{}`: {} (SI value {})",
-                        r.text,
-                        if ok { "met" } else { "not met" },
-                        sig(v)
-                    ),
+                    format!("`{}`: {}", r.text, if ok { "met" } else { "not met" }),
                     "the design's requirement",
                 )
             }
