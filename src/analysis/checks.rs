@@ -204,10 +204,12 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
         };
         let check = match value {
             Some(v) => {
+                // A solved duty meets its target to the solver's tolerance (1e-9 relative).
+                let tol = 1e-7 * r.limit_si.abs();
                 let ok = if r.at_least {
-                    v >= r.limit_si
+                    v >= r.limit_si - tol
                 } else {
-                    v <= r.limit_si
+                    v <= r.limit_si + tol
                 };
                 Check::new(
                     "requirement",
