@@ -12,6 +12,7 @@ pub mod hydraulics;
 pub mod model;
 pub mod names;
 pub mod pumps;
+pub mod report;
 pub mod results;
 pub mod syntax;
 pub mod units;

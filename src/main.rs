@@ -42,6 +42,20 @@ enum Command {
         #[arg(long, value_enum, default_value = "text")]
         format: Format,
     },
+    /// Build the PDF calculation package.
+    #[command(
+        after_help = "Examples:\n  dutyline build examples-demo/orchard-lift-rev-a.duty\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf --style letter\n\nThe PDF goes next to the design file unless -o is given. It is written to a temporary file and renamed, so a failed build leaves an existing PDF untouched.\nExit status: 0 built, 1 design or style errors, 2 usage or I/O errors."
+    )]
+    Build {
+        /// The design file (*.duty).
+        file: PathBuf,
+        /// Output PDF path (default: the design file with .pdf).
+        #[arg(short = 'o', long = "output")]
+        output: Option<PathBuf>,
+        /// A built-in style (`letter`, `a4`) or the path of a style file (TOML).
+        #[arg(long)]
+        style: Option<String>,
+    },
 }
 
 #[derive(Clone, Copy, clap::ValueEnum)]
@@ -87,6 +101,11 @@ fn main() -> ExitCode {
             deny_warnings,
         } => check(&file, deny_warnings),
         Command::Results { file, format } => results(&file, format),
+        Command::Build {
+            file,
+            output,
+            style,
+        } => build(&file, output, style),
     }
 }
 
@@ -172,4 +191,120 @@ fn results(path: &Path, format: Format) -> ExitCode {
     };
     print!("{out}");
     ExitCode::SUCCESS
+}
+
+/// Resolve the style: the command line's, the design's, or the units' default.
+fn load_style(
+    arg: Option<&str>,
+    design: &dutyline::Design,
+    base: &Path,
+) -> Result<dutyline::report::layout::style::Style, ExitCode> {
+    use dutyline::report::layout::style::Style;
+    let choice = arg
+        .map(str::to_string)
+        .or_else(|| design.project.style.clone())
+        .unwrap_or_else(|| dutyline::report::builtin_style_for(design).to_string());
+    if let Some(s) = Style::builtin(&choice) {
+        return Ok(s);
+    }
+    let path = if arg.is_some() {
+        PathBuf::from(&choice)
+    } else {
+        base.join(&choice)
+    };
+    let text = std::fs::read_to_string(&path).map_err(|e| {
+        eprintln!("error: `{choice}` is not a built-in style ({}) and cannot be read as a style file: {e}", Style::builtin_names().join(", "));
+        ExitCode::from(2)
+    })?;
+    Style::from_toml(&text).map_err(|e| {
+        eprintln!(
+            "error[style]: {}\n  --> {}:{}:{}\n  = help: {}",
+            e.message,
+            path.display(),
+            e.line,
+            e.column,
+            e.help
+        );
+        ExitCode::from(1)
+    })
+}
+
+/// Write bytes to `path` whole or not at all: a temporary file in the same folder, then a rename.
+fn write_atomically(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
+    use std::io::Write;
+    let dir = path
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
+    let name = path
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "out".into());
+    let tmp = dir.join(format!(".{name}.tmp{}", std::process::id()));
+    let result = (|| {
+        let mut f = std::fs::File::create(&tmp)?;
+        f.write_all(bytes)?;
+        f.sync_all()?;
+        std::fs::rename(&tmp, path)
+    })();
+    if result.is_err() {
+        let _ = std::fs::remove_file(&tmp);
+    }
+    result
+}
+
+fn build(path: &Path, output: Option<PathBuf>, style: Option<String>) -> ExitCode {
+    let out = output.unwrap_or_else(|| path.with_extension("pdf"));
+    if let (Ok(a), Ok(b)) = (std::fs::canonicalize(path), std::fs::canonicalize(&out)) {
+        if a == b {
+            eprintln!(
+                "error: the output `{}` is the design file itself; choose another -o",
+                out.display()
+            );
+            return ExitCode::from(2);
+        }
+    }
+    if out == path {
+        eprintln!(
+            "error: the output `{}` is the design file itself; choose another -o",
+            out.display()
+        );
+        return ExitCode::from(2);
+    }
+    let (source, checked) = match load(path) {
+        Ok(x) => x,
+        Err(code) => return code,
+    };
+    report(&checked.diagnostics, path, &source);
+    let Some(design) = &checked.design else {
+        return ExitCode::from(1);
+    };
+    let base = path.parent().map(Path::to_path_buf).unwrap_or_default();
+    let style = match load_style(style.as_deref(), design, &base) {
+        Ok(s) => s,
+        Err(code) => return code,
+    };
+    let analysis = dutyline::analysis::analyse(design);
+    let bytes = match dutyline::report::render_pdf(design, &analysis, &source, &style, None) {
+        Ok(b) => b,
+        Err(e) => {
+            eprintln!("error: the package could not be laid out: {e}");
+            return ExitCode::from(1);
+        }
+    };
+    match write_atomically(&out, &bytes) {
+        Ok(()) => {
+            println!(
+                "{}: wrote {} ({} bytes)",
+                path.display(),
+                out.display(),
+                bytes.len()
+            );
+            ExitCode::SUCCESS
+        }
+        Err(e) => {
+            eprintln!("error: cannot write `{}`: {e}", out.display());
+            ExitCode::from(2)
+        }
+    }
 }

@@ -57,6 +57,8 @@ pub struct CaseResult {
     pub system: Option<CaseSystem>,
     pub error: Option<String>,
     pub system_curve: Vec<SystemPoint>,
+    /// NPSH available at each flow of `system_curve`, m.
+    pub npsh_available_curve: Vec<f64>,
     pub pumps: Vec<duty::PumpResult>,
 }
 
@@ -111,6 +113,7 @@ pub fn analyse(design: &Design) -> Analysis {
             system,
             error,
             system_curve: Vec::new(),
+            npsh_available_curve: Vec::new(),
             pumps,
         });
     }
@@ -161,6 +164,11 @@ pub fn analyse(design: &Design) -> Analysis {
                         minor: l.minor,
                     }
                 })
+                .collect();
+            c.npsh_available_curve = c
+                .system_curve
+                .iter()
+                .map(|p| s.npsh_available(p.flow))
                 .collect();
         }
     }

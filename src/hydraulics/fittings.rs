@@ -4,9 +4,10 @@
 //! Methods and sources:
 //! - Darby 3-K: K = K1/Re + Ki (1 + Kd / Dn^0.3), Dn the nominal diameter in
 //!   inches. Darby, R. (1999), "Correlate pressure drops through fittings",
-//!   Chemical Engineering 106(7), 101-104 (with the 2001 follow-up, Chemical
-//!   Engineering 108(4), 127-130), constants also in Darby, Chemical Engineering
-//!   Fluid Mechanics, 2nd ed. (2001). Stated for laminar and turbulent flow.
+//!   Chemical Engineering 106(7), July 1999, 101-104 (co-credited to P. Silverberg
+//!   by `fluids`; follow-up letter Silverberg, Chemical Engineering 108(4), April
+//!   2001, 127-130); the constants are also in Darby, Chemical Engineering Fluid
+//!   Mechanics, 2nd ed. (2001) (from memory). Stated for laminar and turbulent flow.
 //!   Dn is found from the actual inner diameter by interpolating the ASME B36.10M
 //!   schedule 40 NPS-versus-ID table (Dn = NPS exactly for schedule 40 pipe), as the
 //!   `fluids` package does; outside NPS 1/8-24 it is extrapolated and a warning is

@@ -138,7 +138,7 @@ pub(super) fn format_nominal(eighths: u16) -> String {
     }
     let mut num = rest;
     let mut den = 8;
-    while num % 2 == 0 {
+    while num.is_multiple_of(2) {
         num /= 2;
         den /= 2;
     }

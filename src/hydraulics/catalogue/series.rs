@@ -7,13 +7,15 @@ use super::nominal::{
 use super::nonsteel as ns;
 use super::steel as st;
 use super::{CatalogueError, Material, PipeSize};
-use crate::hydraulics::nearest::nearest_by_edit_distance;
+use crate::hydraulics::nearest::{edit_distance, nearest_by_edit_distance};
 
 /// Metres per inch, exact (NIST SP 811, Appendix B).
 const METRES_PER_INCH: f64 = 0.0254;
 
 /// Sizes suggested on each side of a requested size in the same schedule.
 const NEIGHBOURS_EACH_SIDE: usize = 2;
+/// Other schedules suggested for the requested size.
+const SAME_SIZE_SUGGESTIONS: usize = 4;
 
 /// Material families that share tables.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -65,50 +67,59 @@ struct Series {
     inner: Inner,
 }
 
-const fn wrought(key: &'static str, table: &'static [(u16, f64)]) -> Series {
+const fn table(
+    family: Family,
+    key: &'static str,
+    outside: Outside,
+    inner: Inner,
+    rows: &'static [(u16, f64)],
+) -> Series {
     Series {
-        family: Family::WroughtSteel,
+        family,
         key,
-        outside: Outside::Ips,
-        walls: Walls::Table(table),
-        inner: Inner::NominalWall,
+        outside,
+        walls: Walls::Table(rows),
+        inner,
     }
 }
-const fn stainless(key: &'static str, table: &'static [(u16, f64)]) -> Series {
-    Series {
-        family: Family::Stainless,
+const fn wrought(key: &'static str, rows: &'static [(u16, f64)]) -> Series {
+    table(
+        Family::WroughtSteel,
         key,
-        outside: Outside::Ips,
-        walls: Walls::Table(table),
-        inner: Inner::NominalWall,
-    }
+        Outside::Ips,
+        Inner::NominalWall,
+        rows,
+    )
 }
-const fn pvc(key: &'static str, table: &'static [(u16, f64)]) -> Series {
-    Series {
-        family: Family::Pvc,
+const fn stainless(key: &'static str, rows: &'static [(u16, f64)]) -> Series {
+    table(
+        Family::Stainless,
         key,
-        outside: Outside::Ips,
-        walls: Walls::Table(table),
-        inner: Inner::PvcMeanWall,
-    }
+        Outside::Ips,
+        Inner::NominalWall,
+        rows,
+    )
 }
-const fn copper(key: &'static str, table: &'static [(u16, f64)]) -> Series {
-    Series {
-        family: Family::Copper,
-        key,
-        outside: Outside::CopperTube,
-        walls: Walls::Table(table),
-        inner: Inner::NominalWall,
-    }
+const fn pvc(key: &'static str, rows: &'static [(u16, f64)]) -> Series {
+    table(Family::Pvc, key, Outside::Ips, Inner::PvcMeanWall, rows)
 }
-const fn ductile(key: &'static str, table: &'static [(u16, f64)]) -> Series {
-    Series {
-        family: Family::DuctileIron,
+const fn copper(key: &'static str, rows: &'static [(u16, f64)]) -> Series {
+    table(
+        Family::Copper,
         key,
-        outside: Outside::DuctileIron,
-        walls: Walls::Table(table),
-        inner: Inner::DuctileIron,
-    }
+        Outside::CopperTube,
+        Inner::NominalWall,
+        rows,
+    )
+}
+const fn ductile(key: &'static str, rows: &'static [(u16, f64)]) -> Series {
+    table(
+        Family::DuctileIron,
+        key,
+        Outside::DuctileIron,
+        Inner::DuctileIron,
+        rows,
+    )
 }
 const fn pe(index: usize) -> Series {
     let (dr, key, sizes) = ns::PE_DR_SERIES[index];
@@ -174,6 +185,18 @@ fn standard_of(material: Material) -> &'static str {
             "ASTM D3035 / F714 IPS DR series (minimum wall OD/DR; mean ID = OD - 2.12t, PPI Handbook)"
         }
         Material::CastIron | Material::Concrete | Material::Other => "",
+    }
+}
+
+/// The standard's short name, for messages.
+fn short_standard(family: Family) -> &'static str {
+    match family {
+        Family::WroughtSteel => "ASME B36.10M",
+        Family::Stainless => "ASME B36.19M",
+        Family::Pvc => "ASTM D1785",
+        Family::Copper => "ASTM B88",
+        Family::DuctileIron => "AWWA C151",
+        Family::Hdpe => "the ASTM D3035 / F714 DR series",
     }
 }
 
@@ -285,9 +308,9 @@ pub fn pipe_size(
                 "{} is not listed for {} in {}",
                 spelling(material, eighths, series.key),
                 material.keyword(),
-                standard_of(material)
+                short_standard(family)
             ),
-            nearest: nearest_valid(material, family, eighths, Some(series)),
+            nearest: nearest_valid(material, family, eighths, Some(series), series.key),
         }),
     }
 }
@@ -308,16 +331,35 @@ pub fn sizes(material: Material) -> Vec<(String, String)> {
         .collect()
 }
 
-/// Same size in the other schedules, then nearby sizes in the requested schedule.
+/// Same size in up to four other schedules (those listed nearest to the requested
+/// schedule, or nearest in spelling when it is unknown), then up to two smaller and
+/// two larger sizes in the requested schedule.
 fn nearest_valid(
     material: Material,
     family: Family,
     eighths: u16,
     wanted: Option<&Series>,
+    typed_key: &str,
 ) -> Vec<String> {
-    let mut out: Vec<String> = series_of(family)
-        .filter(|s| s.dimensions_in(material, eighths).is_some())
-        .map(|s| spelling(material, eighths, s.key))
+    let family_series: Vec<&Series> = series_of(family).collect();
+    let wanted_index = wanted.and_then(|w| family_series.iter().position(|s| s.key == w.key));
+    let mut same_size: Vec<(usize, usize, &Series)> = family_series
+        .iter()
+        .enumerate()
+        .filter(|(_, s)| s.dimensions_in(material, eighths).is_some())
+        .map(|(i, s)| {
+            let closeness = match wanted_index {
+                Some(w) => i.abs_diff(w),
+                None => edit_distance(typed_key, s.key),
+            };
+            (closeness, i, *s)
+        })
+        .collect();
+    same_size.sort_by_key(|(closeness, i, _)| (*closeness, *i));
+    let mut out: Vec<String> = same_size
+        .iter()
+        .take(SAME_SIZE_SUGGESTIONS)
+        .map(|(_, _, s)| spelling(material, eighths, s.key))
         .collect();
     if let Some(series) = wanted {
         let all = series.nominal_sizes();
@@ -353,9 +395,9 @@ fn schedule_error(
     if family == Family::Stainless {
         message.push_str("; stainless schedules carry an S, e.g. 40S");
     }
-    let mut nearest = nearest_valid(material, family, eighths, None);
+    let typed = normalise_schedule(material, schedule);
+    let mut nearest = nearest_valid(material, family, eighths, None, &typed);
     if nearest.is_empty() {
-        let typed = normalise_schedule(material, schedule);
         nearest = nearest_by_edit_distance(&typed, keys.iter().copied(), 3, 3)
             .into_iter()
             .filter_map(|k| series_of(family).find(|s| s.key == k))
@@ -393,7 +435,7 @@ fn nominal_error(
         Some(s) => {
             let names: Vec<String> = s.nominal_sizes().into_iter().map(format_nominal).collect();
             let typed = nominal.trim().trim_end_matches(['i', 'n', ' ', '"']);
-            nearest_by_edit_distance(typed, names.iter().map(String::as_str), 4, 8)
+            nearest_by_edit_distance(typed, names.iter().map(String::as_str), 4, 2)
                 .into_iter()
                 .map(|n| format!("{n} in {}", schedule_phrase(material, s.key)))
                 .collect()

@@ -10,6 +10,9 @@
 //! standards are rounded conversions of them (e.g. NPS 18 OD 18.000 in = 457.2 mm
 //! is printed as 457 mm).
 
+// Wall thicknesses such as 0.318 in are table data, not approximations of 1/pi.
+#![allow(clippy::approx_constant)]
+
 /// Outside diameters (in) of the NPS series (iron pipe size, IPS), shared by
 /// ASME B36.10M, ASME B36.19M, ASTM D1785 (PVC) and IPS-sized PE pipe.
 pub(super) const IPS_OUTSIDE_DIAMETER_IN: &[(u16, f64)] = &[

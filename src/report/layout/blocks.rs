@@ -1,0 +1,481 @@
+//! Blocks to chunks: headings, paragraphs, listings, figures, contents, callouts.
+//! Tables and key/value lists live in `table.rs`, the title block in `title.rs`.
+
+use super::chart;
+use super::document::{Block, CalloutKind, Span};
+use super::font::{Face, FontSet};
+use super::page::{HeadingEntry, Item, Stroke, PT_PER_MM};
+use super::paginate::Chunk;
+use super::style::Style;
+use super::text::{break_preformatted, wrap, Line};
+use super::{table, title, LayoutError};
+
+/// What every block needs to lay itself out.
+pub struct Ctx<'a> {
+    /// The embedded faces.
+    pub fonts: &'a FontSet,
+    /// The style.
+    pub style: &'a Style,
+    /// Width of the text body in points.
+    pub width: f64,
+    /// Height of the text body in points.
+    pub body_height: f64,
+}
+
+impl Ctx<'_> {
+    /// Line pitch for a font size.
+    pub fn line_height(&self, size: f64) -> f64 {
+        size * self.style.text.line_spacing
+    }
+
+    /// Baseline offset from the top of a line box, centring the face's ascent and
+    /// descent in the line pitch.
+    pub fn baseline(&self, size: f64) -> f64 {
+        let asc = self.fonts.ascent(Face::Regular, size);
+        let desc = self.fonts.descent(Face::Regular, size);
+        (self.line_height(size) - asc - desc) / 2.0 + asc
+    }
+
+    /// Lines as stacked items starting at `(x, top)`; returns the items and the height.
+    pub fn stack(&self, lines: &[Line], x: f64, size: f64, limit: f64) -> (Vec<Item>, f64) {
+        let lh = self.line_height(size);
+        let mut items = Vec::new();
+        for (i, line) in lines.iter().enumerate() {
+            let base = i as f64 * lh + self.baseline(size);
+            items.extend(line.items(x, base, size, self.style.text.colour, limit));
+        }
+        (items, lines.len() as f64 * lh)
+    }
+}
+
+/// Numbers the headings ("3", "3.2", "3.2.1") in document order.
+pub fn collect_headings(blocks: &[Block]) -> Vec<HeadingEntry> {
+    let mut counters = [0usize; 3];
+    let mut entries = Vec::new();
+    for block in blocks {
+        if let Block::Heading { level, text } = block {
+            let level = (*level).clamp(1, 3);
+            let depth = usize::from(level);
+            counters[depth - 1] += 1;
+            for c in counters.iter_mut().skip(depth) {
+                *c = 0;
+            }
+            let number = counters[..depth]
+                .iter()
+                .map(|c| c.to_string())
+                .collect::<Vec<_>>()
+                .join(".");
+            entries.push(HeadingEntry {
+                level,
+                number,
+                text: text.clone(),
+                page: 0,
+            });
+        }
+    }
+    entries
+}
+
+/// Lays out every block into chunks. `headings` supplies numbers and (on the second
+/// pass) page numbers for the contents.
+pub fn chunks(
+    ctx: &Ctx,
+    title_text: &str,
+    blocks: &[Block],
+    headings: &[HeadingEntry],
+) -> Result<Vec<Chunk>, LayoutError> {
+    let mut out = Vec::new();
+    let (mut heading, mut figure, mut table_no) = (0, 0, 0);
+    for block in blocks {
+        match block {
+            Block::Heading { .. } => {
+                if let Some(entry) = headings.get(heading) {
+                    let mut c = heading_chunk(ctx, entry);
+                    c.heading = Some(heading);
+                    out.push(c);
+                }
+                heading += 1;
+            }
+            Block::Paragraph(spans) => out.extend(paragraph_chunks(ctx, spans)),
+            Block::Preformatted {
+                lines,
+                line_numbers,
+            } => out.extend(preformatted_chunks(ctx, lines, *line_numbers)),
+            Block::Table {
+                columns,
+                rows,
+                caption,
+            } => {
+                table_no += 1;
+                let label = caption.as_deref().map(|c| (format!("Table {table_no}"), c));
+                out.extend(table::table_chunks(ctx, columns, rows, label)?);
+            }
+            Block::KeyValue(pairs) => out.extend(table::key_value_chunks(ctx, pairs)),
+            Block::Figure {
+                chart,
+                height_mm,
+                caption,
+            } => {
+                figure += 1;
+                out.push(figure_chunk(ctx, chart, *height_mm, figure, caption)?);
+            }
+            Block::Contents => out.extend(contents_chunks(ctx, headings)),
+            Block::TitleBlock {
+                lines,
+                seal_box,
+                signatures,
+            } => out.extend(title::title_chunks(
+                ctx, title_text, lines, *seal_box, signatures,
+            )),
+            Block::PageBreak => out.push(Chunk {
+                new_page: true,
+                drop_at_top: true,
+                ..Chunk::default()
+            }),
+            Block::Spacer(mm) => out.push(Chunk {
+                height: if mm.is_finite() {
+                    mm.clamp(0.0, 500.0)
+                } else {
+                    0.0
+                } * PT_PER_MM,
+                drop_at_top: true,
+                ..Chunk::default()
+            }),
+            Block::Callout { kind, text } => out.extend(callout_chunks(ctx, *kind, text)),
+        }
+    }
+    Ok(out)
+}
+
+fn heading_chunk(ctx: &Ctx, entry: &HeadingEntry) -> Chunk {
+    let t = &ctx.style.text;
+    let level = usize::from(entry.level.clamp(1, 3));
+    let size = t.heading_sizes_pt[level - 1];
+    let number_w = ctx.fonts.width(Face::Bold, &entry.number, size);
+    let indent = if entry.number.is_empty() {
+        0.0
+    } else {
+        number_w + size * 0.8
+    };
+    let lines = wrap(
+        ctx.fonts,
+        &[(Face::Bold, &entry.text)],
+        size,
+        ctx.width - indent,
+    );
+    let lh = size * 1.25;
+    let base = (lh - size) / 2.0 + ctx.fonts.ascent(Face::Bold, size) * 0.9;
+    let mut chunk = Chunk::default();
+    let number = wrap(
+        ctx.fonts,
+        &[(Face::Bold, &entry.number)],
+        size,
+        f64::INFINITY,
+    );
+    if let Some(n) = number.first() {
+        chunk
+            .items
+            .extend(n.items(0.0, base, size, t.colour, ctx.width));
+    }
+    for (i, line) in lines.iter().enumerate() {
+        let y = base + i as f64 * lh;
+        chunk
+            .items
+            .extend(line.items(indent, y, size, t.colour, ctx.width));
+    }
+    chunk.height = lines.len() as f64 * lh + 3.0;
+    if level == 1 {
+        let y = chunk.height;
+        chunk.items.push(Item::line(
+            (0.0, y),
+            (ctx.width, y),
+            Stroke::solid(0.5, t.rule_colour),
+        ));
+        chunk.height += 5.0;
+    }
+    chunk.space_before = [16.0, 11.0, 8.0][level - 1];
+    chunk.keep_with_next = true;
+    chunk
+}
+
+/// Spans as `(face, text)` pieces.
+pub fn pieces(spans: &[Span]) -> Vec<(Face, &str)> {
+    spans
+        .iter()
+        .map(|s| match s {
+            Span::Plain(t) => (Face::Regular, t.as_str()),
+            Span::Bold(t) => (Face::Bold, t.as_str()),
+            Span::Mono(t) => (Face::Mono, t.as_str()),
+        })
+        .collect()
+}
+
+/// Groups lines into chunks: the first two and last two stay together (no orphans or
+/// widows), the others break anywhere.
+fn line_groups(count: usize) -> Vec<std::ops::Range<usize>> {
+    if count <= 4 {
+        return vec![0..count];
+    }
+    let mut groups = vec![0..2];
+    groups.extend((2..count - 2).map(|i| i..i + 1));
+    groups.push(count - 2..count);
+    groups
+}
+
+fn paragraph_chunks(ctx: &Ctx, spans: &[Span]) -> Vec<Chunk> {
+    let size = ctx.style.text.base_size_pt;
+    let lines = wrap(ctx.fonts, &pieces(spans), size, ctx.width);
+    let mut out = Vec::new();
+    for (i, range) in line_groups(lines.len()).into_iter().enumerate() {
+        let (items, height) = ctx.stack(&lines[range], 0.0, size, ctx.width);
+        out.push(Chunk {
+            height,
+            items,
+            space_before: if i == 0 {
+                ctx.style.text.paragraph_gap_pt
+            } else {
+                0.0
+            },
+            ..Chunk::default()
+        });
+    }
+    out
+}
+
+fn preformatted_chunks(ctx: &Ctx, lines: &[String], numbers: bool) -> Vec<Chunk> {
+    let t = &ctx.style.text;
+    let size = t.mono_size_pt;
+    let lh = size * 1.28;
+    let base = (lh - size) / 2.0 + ctx.fonts.ascent(Face::Mono, size) * 0.9;
+    let digits = lines.len().max(1).to_string().len().max(2);
+    let gutter = if numbers {
+        ctx.fonts.width(Face::Mono, &"8".repeat(digits), size) + 7.0
+    } else {
+        0.0
+    };
+    let mark = ctx.fonts.width(Face::Mono, "↪ ", size);
+    let code_x = gutter + 3.0;
+    let avail = ctx.width - code_x;
+    let rule = Stroke::solid(0.3, ctx.style.chart.grid_colour);
+    let mut out = Vec::new();
+    for (n, text) in lines.iter().enumerate() {
+        let parts = break_preformatted(ctx.fonts, text, Face::Mono, size, avail, avail - mark);
+        for (k, part) in parts.iter().enumerate() {
+            let mut chunk = Chunk {
+                height: lh,
+                space_before: if n == 0 && k == 0 {
+                    t.paragraph_gap_pt
+                } else {
+                    0.0
+                },
+                ..Chunk::default()
+            };
+            if numbers && k == 0 {
+                let label = wrap(
+                    ctx.fonts,
+                    &[(Face::Mono, &(n + 1).to_string())],
+                    size,
+                    gutter,
+                );
+                if let Some(l) = label.first() {
+                    let x = gutter - 4.0 - l.width;
+                    chunk
+                        .items
+                        .extend(l.items(x, base, size, t.muted_colour, gutter));
+                }
+            }
+            let x = if k == 0 {
+                code_x
+            } else {
+                let m = wrap(ctx.fonts, &[(Face::Mono, "↪")], size, f64::INFINITY);
+                if let Some(l) = m.first() {
+                    chunk
+                        .items
+                        .extend(l.items(code_x, base, size, t.muted_colour, ctx.width));
+                }
+                code_x + mark
+            };
+            chunk
+                .items
+                .extend(part.items(x, base, size, t.colour, ctx.width));
+            if numbers {
+                chunk
+                    .items
+                    .push(Item::line((gutter, 0.0), (gutter, lh), rule));
+            }
+            out.push(chunk);
+        }
+    }
+    out
+}
+
+fn figure_chunk(
+    ctx: &Ctx,
+    chart_data: &chart::Chart,
+    height_mm: f64,
+    number: usize,
+    caption: &str,
+) -> Result<Chunk, LayoutError> {
+    let t = &ctx.style.text;
+    let size = t.small_size_pt + 0.4;
+    let label = format!("Figure {number}");
+    let rest = if caption.is_empty() {
+        String::new()
+    } else {
+        format!(": {caption}")
+    };
+    let lines = wrap(
+        ctx.fonts,
+        &[(Face::Bold, &label), (Face::Regular, &rest)],
+        size,
+        ctx.width,
+    );
+    let (mut caption_items, caption_h) = ctx.stack(&lines, 0.0, size, ctx.width);
+    let requested = if height_mm.is_finite() {
+        height_mm * PT_PER_MM
+    } else {
+        0.0
+    };
+    let chart_h = requested.clamp(60.0, ctx.body_height - caption_h - 12.0);
+    let mut items =
+        chart::draw(chart_data, ctx.style, ctx.fonts, ctx.width, chart_h).map_err(|message| {
+            LayoutError::Chart {
+                figure: label.clone(),
+                message,
+            }
+        })?;
+    for item in &mut caption_items {
+        item.translate(0.0, chart_h + 5.0);
+    }
+    items.extend(caption_items);
+    Ok(Chunk {
+        height: chart_h + 5.0 + caption_h,
+        items,
+        space_before: t.paragraph_gap_pt * 2.0,
+        ..Chunk::default()
+    })
+}
+
+fn contents_chunks(ctx: &Ctx, headings: &[HeadingEntry]) -> Vec<Chunk> {
+    let t = &ctx.style.text;
+    let size = t.base_size_pt;
+    let mut out = vec![heading_like(ctx, "Contents")];
+    let page_w = ctx.fonts.width(Face::Regular, "8888", size);
+    let dot_w = ctx.fonts.width(Face::Regular, ".", size);
+    for h in headings {
+        let depth = f64::from(h.level.clamp(1, 3) - 1);
+        let face = if h.level == 1 {
+            Face::Bold
+        } else {
+            Face::Regular
+        };
+        let indent = depth * size * 1.6;
+        let number_w = size * (2.2 + 0.6 * depth);
+        let text_x = indent + number_w;
+        let text_w = ctx.width - text_x - page_w - 4.0 * dot_w;
+        let lines = wrap(ctx.fonts, &[(face, &h.text)], size, text_w);
+        let (mut items, height) = ctx.stack(&lines, text_x, size, text_x + text_w);
+        let number = wrap(ctx.fonts, &[(face, &h.number)], size, f64::INFINITY);
+        let base = ctx.baseline(size);
+        if let Some(n) = number.first() {
+            items.extend(n.items(indent, base, size, t.colour, text_x));
+        }
+        let last_base = base + (lines.len() as f64 - 1.0) * ctx.line_height(size);
+        let last_end = text_x + lines.last().map_or(0.0, |l| l.width);
+        let page = if h.page == 0 {
+            "0".to_string()
+        } else {
+            h.page.to_string()
+        };
+        let pn = wrap(ctx.fonts, &[(face, &page)], size, f64::INFINITY);
+        let pn_w = pn.first().map_or(0.0, |l| l.width);
+        if let Some(p) = pn.first() {
+            items.extend(p.items(ctx.width - pn_w, last_base, size, t.colour, ctx.width));
+        }
+        let leader_from = last_end + dot_w;
+        let leader_to = ctx.width - page_w - dot_w;
+        let dots = (((leader_to - leader_from) / (2.0 * dot_w)).floor().max(0.0)) as usize;
+        if dots > 0 {
+            let leader = ". ".repeat(dots);
+            let l = wrap(
+                ctx.fonts,
+                &[(Face::Regular, leader.trim_end())],
+                size,
+                f64::INFINITY,
+            );
+            if let Some(l) = l.first() {
+                let x = leader_to - l.width;
+                items.extend(l.items(x, last_base, size, t.muted_colour, leader_to));
+            }
+        }
+        out.push(Chunk {
+            height,
+            items,
+            space_before: if h.level == 1 { size * 0.5 } else { 0.0 },
+            ..Chunk::default()
+        });
+    }
+    out
+}
+
+/// An unnumbered heading in level-1 style (not listed in the contents).
+pub fn heading_like(ctx: &Ctx, text: &str) -> Chunk {
+    let entry = HeadingEntry {
+        level: 1,
+        number: String::new(),
+        text: text.to_string(),
+        page: 0,
+    };
+    let mut c = heading_chunk(ctx, &entry);
+    c.items
+        .retain(|i| !matches!(i, Item::Text(r) if r.text.is_empty()));
+    c
+}
+
+fn callout_chunks(ctx: &Ctx, kind: CalloutKind, text: &[Span]) -> Vec<Chunk> {
+    let t = &ctx.style.text;
+    let size = t.base_size_pt;
+    let pad = 6.0;
+    let bar = 2.2;
+    let label = match kind {
+        CalloutKind::Caution => "CAUTION",
+        CalloutKind::Note => "NOTE",
+    };
+    let mut all = vec![(Face::Bold, label), (Face::Regular, "  ")];
+    all.extend(pieces(text));
+    let inner = ctx.width - 2.0 * pad - bar;
+    let lines = wrap(ctx.fonts, &all, size, inner);
+    let per_chunk = (((ctx.body_height * 0.9 - 2.0 * pad) / ctx.line_height(size)) as usize).max(1);
+    let outline_colour = match kind {
+        CalloutKind::Caution => t.colour,
+        CalloutKind::Note => t.rule_colour,
+    };
+    let mut out = Vec::new();
+    for (i, group) in lines.chunks(per_chunk).enumerate() {
+        let (mut items, h) = ctx.stack(group, bar + pad, size, bar + pad + inner);
+        for item in &mut items {
+            item.translate(0.0, pad);
+        }
+        let height = h + 2.0 * pad;
+        let outline = Stroke::solid(0.6, outline_colour);
+        items.insert(
+            0,
+            Item::rect(0.0, 0.0, ctx.width, height, Some(outline), None),
+        );
+        items.insert(
+            1,
+            Item::rect(0.0, 0.0, bar, height, None, Some(outline_colour)),
+        );
+        out.push(Chunk {
+            height,
+            items,
+            space_before: if i == 0 {
+                t.paragraph_gap_pt * 1.5
+            } else {
+                0.0
+            },
+            ..Chunk::default()
+        });
+    }
+    out
+}

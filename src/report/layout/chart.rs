@@ -1,0 +1,410 @@
+//! Chart data model (filled by the report sections, no plotters types) and its
+//! drawing with plotters into layout items: framed plot, grid, labelled axes (a second
+//! y axis when used), series, duty-point markers with value labels, reference lines,
+//! and a legend below the plot.
+
+use super::chart_backend::{Recorder, UNITS_PER_PT};
+use super::chart_marks::{
+    clip_polyline, draw_legend, draw_markers, draw_reference_lines, legend_rows,
+};
+use super::font::{Face, FontSet};
+use super::page::Item;
+use super::style::{Colour, LineStyle, Style};
+use super::ticks::{Axis, NiceRange};
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
+use std::cell::{Cell, RefCell};
+use std::rc::Rc;
+
+/// Which y axis a series or mark belongs to.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum YAxis {
+    /// The left (primary) axis.
+    #[default]
+    Left,
+    /// The right (secondary) axis.
+    Right,
+}
+
+/// A line through data points.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Series {
+    /// Legend text (series with an empty name stay out of the legend).
+    pub name: String,
+    /// `(x, y)` points in drawing order; non-finite points break the line.
+    pub points: Vec<(f64, f64)>,
+    /// Axis of the y values.
+    pub axis: YAxis,
+    /// Picks colour and line style from the style's palette.
+    pub style_index: usize,
+    /// Force a dashed line whatever the style says.
+    pub dashed: bool,
+    /// Mark every data point.
+    pub markers: bool,
+}
+
+/// A labelled point, e.g. a duty point "Q = 42.0 m³/h, H = 31.2 m".
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Marker {
+    /// X value.
+    pub x: f64,
+    /// Y value.
+    pub y: f64,
+    /// Label beside the marker; `'\n'` starts a new label line.
+    pub label: String,
+    /// Axis of `y`.
+    pub axis: YAxis,
+}
+
+/// A horizontal reference line across the plot, e.g. a motor rating.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct HLine {
+    /// Y value.
+    pub y: f64,
+    /// Label at the right end of the line.
+    pub label: String,
+    /// Axis of `y`.
+    pub axis: YAxis,
+}
+
+/// Everything one plot shows.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Chart {
+    /// X axis title with units, e.g. "Flow Q [m³/h]".
+    pub x_label: String,
+    /// Left y axis title.
+    pub y_label: String,
+    /// Right y axis title; a right axis is drawn when this is set or anything uses it.
+    pub y2_label: Option<String>,
+    /// Fixed x range; automatic (from 0 for positive data) when `None`.
+    pub x_range: Option<(f64, f64)>,
+    /// Fixed left y range.
+    pub y_range: Option<(f64, f64)>,
+    /// Fixed right y range; by default its ticks line up with the left grid.
+    pub y2_range: Option<(f64, f64)>,
+    /// Lines.
+    pub series: Vec<Series>,
+    /// Labelled points (duty points).
+    pub points: Vec<Marker>,
+    /// Horizontal reference lines.
+    pub hlines: Vec<HLine>,
+    /// Draw a legend below the plot.
+    pub legend: bool,
+}
+
+impl Default for Chart {
+    fn default() -> Self {
+        Chart {
+            x_label: String::new(),
+            y_label: String::new(),
+            y2_label: None,
+            x_range: None,
+            y_range: None,
+            y2_range: None,
+            series: Vec::new(),
+            points: Vec::new(),
+            hlines: Vec::new(),
+            legend: true,
+        }
+    }
+}
+
+impl Chart {
+    /// Whether a right axis is drawn.
+    pub fn uses_right_axis(&self) -> bool {
+        self.y2_label.is_some()
+            || self.series.iter().any(|s| s.axis == YAxis::Right)
+            || self.points.iter().any(|p| p.axis == YAxis::Right)
+            || self.hlines.iter().any(|h| h.axis == YAxis::Right)
+    }
+}
+
+/// Colour and dash of series `index` under `style`.
+pub fn series_look(style: &Style, series: &Series) -> (Colour, LineStyle) {
+    let c = &style.chart;
+    let colour = c.palette.get(series.style_index % c.palette.len().max(1));
+    let dash = c
+        .line_styles
+        .get(series.style_index % c.line_styles.len().max(1));
+    let dash = if series.dashed {
+        LineStyle::Dashed
+    } else {
+        dash.copied().unwrap_or(LineStyle::Solid)
+    };
+    (colour.copied().unwrap_or(style.text.colour), dash)
+}
+
+/// Plotters colour of a style colour.
+pub fn rgb(c: Colour) -> RGBColor {
+    RGBColor(c.r, c.g, c.b)
+}
+
+/// Size in backend units.
+pub fn units(pt: f64) -> i32 {
+    (pt * UNITS_PER_PT).round() as i32
+}
+
+/// Min and max of the finite values (`None` when there are none).
+fn extent(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
+    values
+        .filter(|v| v.is_finite())
+        .fold(None, |acc, v| match acc {
+            None => Some((v, v)),
+            Some((lo, hi)) => Some((f64::min(lo, v), f64::max(hi, v))),
+        })
+}
+
+/// The three axes of a chart.
+pub struct Axes {
+    /// X.
+    pub x: Axis,
+    /// Left y.
+    pub y: Axis,
+    /// Right y (a copy of `y` when unused).
+    pub y2: Axis,
+}
+
+/// Axis ranges from the fixed ranges or the data.
+pub fn axes(chart: &Chart, width: f64, plot_height: f64) -> Axes {
+    let x_target = ((width / 65.0).round() as usize).clamp(3, 10);
+    let y_target = ((plot_height / 38.0).round() as usize).clamp(3, 9);
+    let series_x = chart
+        .series
+        .iter()
+        .flat_map(|s| s.points.iter().map(|p| p.0));
+    let xs = extent(series_x.chain(chart.points.iter().map(|p| p.x)));
+    let ys_of = |side: YAxis| {
+        let s = chart
+            .series
+            .iter()
+            .filter(move |s| s.axis == side)
+            .flat_map(|s| s.points.iter().map(|p| p.1));
+        let m = chart
+            .points
+            .iter()
+            .filter(move |p| p.axis == side)
+            .map(|p| p.y);
+        let h = chart
+            .hlines
+            .iter()
+            .filter(move |h| h.axis == side)
+            .map(|h| h.y);
+        extent(s.chain(m).chain(h))
+    };
+    let auto = |e: Option<(f64, f64)>, target| {
+        let (lo, hi) = e.unwrap_or((0.0, 1.0));
+        Axis::auto(lo, hi, true, target)
+    };
+    let x = match chart.x_range {
+        Some((a, b)) => Axis::fixed(a, b, x_target),
+        None => auto(xs, x_target),
+    };
+    let y = match chart.y_range {
+        Some((a, b)) => Axis::fixed(a, b, y_target),
+        None => auto(ys_of(YAxis::Left), y_target),
+    };
+    let y2 = match chart.y2_range {
+        Some((a, b)) => Axis::fixed(a, b, y_target),
+        None => {
+            let (lo, hi) = ys_of(YAxis::Right).unwrap_or((0.0, 1.0));
+            if chart.y_range.is_none() && y.intervals() >= 2 {
+                Axis::matched(lo, hi, true, y.intervals())
+            } else {
+                Axis::auto(lo, hi, true, y_target)
+            }
+        }
+    };
+    Axes { x, y, y2 }
+}
+
+/// Draws `chart` into a `width` x `height` point box; items are relative to the box's
+/// top left corner.
+pub fn draw(
+    chart: &Chart,
+    style: &Style,
+    fonts: &FontSet,
+    width: f64,
+    height: f64,
+) -> Result<Vec<Item>, String> {
+    let cs = &style.chart;
+    let label_pt = cs.label_size_pt;
+    let desc_pt = label_pt + 0.6;
+    let right_axis = chart.uses_right_axis();
+    let rows = if chart.legend {
+        legend_rows(chart, fonts, label_pt, width)
+    } else {
+        Vec::new()
+    };
+    let legend_h = if rows.is_empty() {
+        0.0
+    } else {
+        rows.len() as f64 * label_pt * 1.6 + 8.0
+    };
+    let plot_h = (height - legend_h).max(height * 0.5);
+    let ax = axes(chart, width, plot_h);
+
+    let widest = |a: &Axis| {
+        a.ticks
+            .iter()
+            .map(|t| fonts.width(Face::Regular, &a.format(*t), label_pt))
+            .fold(0.0, f64::max)
+    };
+    let tick = 3.0;
+    let y_area = widest(&ax.y) + tick + 6.0 + desc_pt * 1.5;
+    let y2_area = if right_axis {
+        widest(&ax.y2) + tick + 6.0 + desc_pt * 1.5
+    } else {
+        0.0
+    };
+    let x_area = label_pt + tick + 6.0 + desc_pt * 1.6;
+    let last_x = ax.x.ticks.last().map_or(String::new(), |t| ax.x.format(*t));
+    let right_margin = if right_axis {
+        2.0
+    } else {
+        fonts.width(Face::Regular, &last_x, label_pt) / 2.0 + 3.0
+    };
+
+    let items = Rc::new(RefCell::new(Vec::new()));
+    let dash = Rc::new(Cell::new(LineStyle::Solid));
+    let backend = Recorder::new(fonts, width, height, Rc::clone(&items), Rc::clone(&dash));
+    let root = backend.into_drawing_area();
+    let (plot_area, legend_area) = root.split_vertically(units(plot_h));
+    let e = |e: DrawingAreaErrorKind<_>| e.to_string();
+
+    let mut ctx = ChartBuilder::on(&plot_area)
+        .margin_top(units(label_pt * 0.8))
+        .margin_right(units(right_margin))
+        .x_label_area_size(units(x_area))
+        .y_label_area_size(units(y_area))
+        .right_y_label_area_size(units(y2_area))
+        .build_cartesian_2d(NiceRange(ax.x.clone()), NiceRange(ax.y.clone()))
+        .map_err(e)?
+        .set_secondary_coord(NiceRange(ax.x.clone()), NiceRange(ax.y2.clone()));
+
+    let axis_colour = rgb(cs.axis_colour);
+    let grid = ShapeStyle {
+        color: rgb(cs.grid_colour).to_rgba(),
+        filled: false,
+        stroke_width: units(0.4).max(1) as u32,
+    };
+    let axis_line = ShapeStyle {
+        color: axis_colour.to_rgba(),
+        filled: false,
+        stroke_width: units(0.6).max(1) as u32,
+    };
+    let label_font = ("sans-serif", f64::from(units(label_pt)))
+        .into_font()
+        .color(&axis_colour);
+    let desc_font = ("sans-serif", f64::from(units(desc_pt)))
+        .into_font()
+        .color(&rgb(style.text.colour));
+    let fx = |v: &f64| ax.x.format(*v);
+    let fy = |v: &f64| ax.y.format(*v);
+    let fy2 = |v: &f64| ax.y2.format(*v);
+    ctx.configure_mesh()
+        .bold_line_style(grid)
+        .light_line_style(TRANSPARENT)
+        .axis_style(axis_line)
+        .set_all_tick_mark_size(units(tick))
+        .x_labels(ax.x.ticks.len().max(2))
+        .y_labels(ax.y.ticks.len().max(2))
+        .x_label_formatter(&fx)
+        .y_label_formatter(&fy)
+        .label_style(label_font.clone())
+        .axis_desc_style(desc_font.clone())
+        .x_desc(chart.x_label.as_str())
+        .y_desc(chart.y_label.as_str())
+        .draw()
+        .map_err(e)?;
+    if right_axis {
+        ctx.configure_secondary_axes()
+            .axis_style(axis_line)
+            .set_all_tick_mark_size(units(tick))
+            .y_labels(ax.y2.ticks.len().max(2))
+            .y_label_formatter(&fy2)
+            .label_style(label_font)
+            .draw()
+            .map_err(e)?;
+    }
+    let (px, py) = ctx.plotting_area().get_pixel_range();
+    if let Some(text) = chart.y2_label.as_deref().filter(|t| !t.is_empty()) {
+        // Drawn here rather than by plotters so it reads upwards like the left title.
+        let at = (units(width) - units(desc_pt * 0.4), (py.start + py.end) / 2);
+        let style = desc_font
+            .transform(FontTransform::Rotate270)
+            .pos(Pos::new(HPos::Center, VPos::Bottom));
+        root.draw(&Text::new(text.to_string(), at, style))
+            .map_err(e)?;
+    }
+    root.draw(&Rectangle::new(
+        [(px.start, py.start), (px.end, py.end)],
+        axis_line,
+    ))
+    .map_err(e)?;
+
+    let mut drawn_lines: Vec<Vec<(i32, i32)>> = Vec::new();
+    for series in &chart.series {
+        let (colour, line) = series_look(style, series);
+        let shape = ShapeStyle {
+            color: rgb(colour).to_rgba(),
+            filled: false,
+            stroke_width: units(cs.line_width_pt).max(1) as u32,
+        };
+        let y_axis = match series.axis {
+            YAxis::Left => &ax.y,
+            YAxis::Right => &ax.y2,
+        };
+        for piece in clip_polyline(&series.points, &ax.x, y_axis) {
+            let pixels: Vec<(i32, i32)> = match series.axis {
+                YAxis::Left => piece.iter().map(|p| ctx.backend_coord(p)).collect(),
+                YAxis::Right => piece
+                    .iter()
+                    .map(|p| ctx.borrow_secondary().backend_coord(p))
+                    .collect(),
+            };
+            dash.set(line);
+            let drawn = root.draw(&PathElement::new(pixels.clone(), shape));
+            dash.set(LineStyle::Solid);
+            drawn.map_err(e)?;
+            drawn_lines.push(pixels);
+        }
+        if series.markers {
+            for p in series
+                .points
+                .iter()
+                .filter(|p| ax.x.contains(p.0) && y_axis.contains(p.1))
+            {
+                let at = match series.axis {
+                    YAxis::Left => ctx.backend_coord(p),
+                    YAxis::Right => ctx.borrow_secondary().backend_coord(p),
+                };
+                root.draw(&Circle::new(at, units(1.6), shape.filled()))
+                    .map_err(e)?;
+            }
+        }
+    }
+    let coord = |x: f64, y: f64, side: YAxis| match side {
+        YAxis::Left => ctx.backend_coord(&(x, y)),
+        YAxis::Right => ctx.borrow_secondary().backend_coord(&(x, y)),
+    };
+    let plot_box = (px.clone(), py.clone());
+    draw_reference_lines(&root, chart, style, fonts, &ax, &coord, &plot_box, &dash).map_err(e)?;
+    draw_markers(
+        &root,
+        chart,
+        style,
+        fonts,
+        &ax,
+        &coord,
+        &plot_box,
+        &drawn_lines,
+    )
+    .map_err(e)?;
+    if !rows.is_empty() {
+        draw_legend(&legend_area, chart, style, fonts, &rows, px.start, &dash).map_err(e)?;
+    }
+    drop(ctx);
+    drop(root);
+    let out = items.borrow().clone();
+    Ok(out)
+}

@@ -1,0 +1,224 @@
+//! The document model the report sections are written in: a flat list of blocks that
+//! the layout engine flows into pages.
+
+use super::chart::Chart;
+
+/// A whole report.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Document {
+    /// Document title: the PDF title and the big line of the title block.
+    pub title: String,
+    /// Running header and footer texts.
+    pub meta: PageMeta,
+    /// Seed of the PDF file identifier, e.g. the SHA-256 of the source file; the same
+    /// seed and content give byte-identical output.
+    pub id_seed: String,
+    /// The content, in reading order.
+    pub blocks: Vec<Block>,
+}
+
+/// Texts repeated on every page.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct PageMeta {
+    /// Header, left (e.g. the project name).
+    pub header_left: String,
+    /// Header, right (e.g. "Calc 2024-017 · Rev B").
+    pub header_right: String,
+    /// Footer, left (e.g. "source SHA-256 1a2b3c4d…"); the right side is "page N of M".
+    pub footer_left: String,
+}
+
+/// A run of text in one face.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Span {
+    /// Body text.
+    Plain(String),
+    /// Bold text.
+    Bold(String),
+    /// Monospaced text (identifiers, file names, values copied from the source).
+    Mono(String),
+}
+
+impl Span {
+    /// Plain text span.
+    pub fn plain(text: impl Into<String>) -> Span {
+        Span::Plain(text.into())
+    }
+    /// Bold span.
+    pub fn bold(text: impl Into<String>) -> Span {
+        Span::Bold(text.into())
+    }
+    /// Monospaced span.
+    pub fn mono(text: impl Into<String>) -> Span {
+        Span::Mono(text.into())
+    }
+}
+
+/// Horizontal alignment inside a table column.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Align {
+    /// Flush left (text).
+    #[default]
+    Left,
+    /// Centred.
+    Center,
+    /// Flush right (numbers).
+    Right,
+}
+
+/// One table column.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Column {
+    /// Header text (wraps like any cell).
+    pub header: String,
+    /// Share of the table width; the fractions of all columns are normalised to 1.
+    pub width_fraction: f64,
+    /// Alignment of the header and the cells.
+    pub align: Align,
+}
+
+impl Column {
+    /// A column with the given header, width share and alignment.
+    pub fn new(header: impl Into<String>, width_fraction: f64, align: Align) -> Column {
+        Column {
+            header: header.into(),
+            width_fraction,
+            align,
+        }
+    }
+}
+
+/// The kind of a boxed note.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CalloutKind {
+    /// A safety or validity warning ("CAUTION").
+    Caution,
+    /// A remark ("NOTE").
+    Note,
+}
+
+/// One signature row of the title block.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Signatory {
+    /// Role, e.g. "Prepared", "Checked", "Approved".
+    pub role: String,
+    /// Printed name (may be empty: the line is left to fill in by hand).
+    pub name: String,
+    /// Date text (may be empty).
+    pub date: String,
+}
+
+impl Signatory {
+    /// A signature row.
+    pub fn new(role: impl Into<String>, name: impl Into<String>, date: impl Into<String>) -> Self {
+        Signatory {
+            role: role.into(),
+            name: name.into(),
+            date: date.into(),
+        }
+    }
+}
+
+/// A unit of content.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Block {
+    /// A section heading, numbered automatically ("3", "3.2", "3.2.1") and listed in
+    /// the contents. Levels outside 1..=3 are clamped.
+    Heading {
+        /// 1, 2 or 3.
+        level: u8,
+        /// Heading text without its number.
+        text: String,
+    },
+    /// Running text, wrapped by font metrics (ragged right). A `'\n'` forces a break.
+    Paragraph(Vec<Span>),
+    /// Monospaced lines (source listings); long lines wrap with a continuation mark,
+    /// and the block splits across pages.
+    Preformatted {
+        /// The lines, without line terminators; tabs expand to 4 columns.
+        lines: Vec<String>,
+        /// Print 1-based line numbers in a gutter.
+        line_numbers: bool,
+    },
+    /// A table with a header row repeated on every page it spans.
+    Table {
+        /// Columns (header, width share, alignment).
+        columns: Vec<Column>,
+        /// Rows; each must have one cell per column.
+        rows: Vec<Vec<String>>,
+        /// Caption printed above as "Table N: caption" (numbered automatically).
+        caption: Option<String>,
+    },
+    /// A two-column list of terms and values.
+    KeyValue(Vec<(String, String)>),
+    /// A chart with a caption "Figure N: caption" below; never split across pages.
+    Figure {
+        /// What to plot.
+        chart: Chart,
+        /// Height of the chart (legend included), capped at the page body.
+        height_mm: f64,
+        /// Caption text.
+        caption: String,
+    },
+    /// Table of contents with dot leaders and page numbers.
+    Contents,
+    /// The boxed title block of the calculation package.
+    TitleBlock {
+        /// Key/value lines: project, calculation number, client, revision, tool...
+        lines: Vec<(String, String)>,
+        /// Draw a blank box for the reviewer's seal or stamp.
+        seal_box: bool,
+        /// Signature rows (prepared / checked / approved).
+        signatures: Vec<Signatory>,
+    },
+    /// Start a new page (ignored at the top of a page).
+    PageBreak,
+    /// Vertical space in millimetres (dropped at the top of a page).
+    Spacer(f64),
+    /// A boxed paragraph for cautions and notes.
+    Callout {
+        /// Caution or note; sets the label.
+        kind: CalloutKind,
+        /// The text.
+        text: Vec<Span>,
+    },
+}
+
+impl Block {
+    /// A heading block.
+    pub fn heading(level: u8, text: impl Into<String>) -> Block {
+        Block::Heading {
+            level,
+            text: text.into(),
+        }
+    }
+
+    /// A paragraph of plain text.
+    pub fn text(text: impl Into<String>) -> Block {
+        Block::Paragraph(vec![Span::plain(text)])
+    }
+
+    /// A caution box with plain text.
+    pub fn caution(text: impl Into<String>) -> Block {
+        Block::Callout {
+            kind: CalloutKind::Caution,
+            text: vec![Span::plain(text)],
+        }
+    }
+
+    /// A note box with plain text.
+    pub fn note(text: impl Into<String>) -> Block {
+        Block::Callout {
+            kind: CalloutKind::Note,
+            text: vec![Span::plain(text)],
+        }
+    }
+
+    /// A source listing with line numbers, split from one text.
+    pub fn listing(source: &str) -> Block {
+        Block::Preformatted {
+            lines: source.lines().map(str::to_string).collect(),
+            line_numbers: true,
+        }
+    }
+}
