@@ -66,6 +66,13 @@ pub fn lower(
             StatementKind::Let { .. } => {}
             StatementKind::Block { keyword, args, body } => {
                 let kw = keyword.name.as_str();
+                if kw == "include" {
+                    d.push(
+                        Diagnostic::error("reserved", "`include` is reserved for a later version of the language", Some(keyword.span))
+                            .with_help("for now a design is one file; curve tables can come from CSV with `curve ... from \"file.csv\"`"),
+                    );
+                    continue;
+                }
                 let Some(known) = TOP_LEVEL.iter().find(|k| **k == kw) else {
                     let near = nearest(kw, TOP_LEVEL.iter().copied());
                     d.push(

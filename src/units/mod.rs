@@ -91,9 +91,9 @@
 //!
 //! All currencies share one dimension, money, with factor 1: dutyline has **no exchange
 //! rates** and never converts. So that two currencies never meet silently, one unit may
-//! name at most one currency (`USD/EUR` is an error) and a design uses one currency
-//! throughout: the model feeds every unit to a [`CurrencyGuard`], which rejects a second
-//! currency and points at it. [`Unit::currency`] tells a unit's currency; `cu` is a
+//! name at most one currency (`USD/EUR` is an error). A consumer that meets several money
+//! values feeds their units to a [`CurrencyGuard`], which rejects a second currency and
+//! points at it (today the design has one money field, `energy.price`). [`Unit::currency`] tells a unit's currency; `cu` is a
 //! currency of its own ("currency unit") for currency-neutral designs.
 //!
 //! ## Time, rotation and angles
