@@ -18,7 +18,12 @@ fn demos() -> Vec<(String, String)> {
         .filter_map(|e| e.ok())
         .map(|e| e.path())
         .filter(|p| p.extension().is_some_and(|x| x == "duty"))
-        .map(|p| (p.display().to_string(), std::fs::read_to_string(&p).unwrap()))
+        .map(|p| {
+            (
+                p.display().to_string(),
+                std::fs::read_to_string(&p).unwrap(),
+            )
+        })
         .collect();
     v.sort();
     v
@@ -30,12 +35,21 @@ fn every_demo_passes_check_and_has_duty_points() {
     assert!(all.len() >= 2);
     for (name, src) in all {
         let c = dutyline::check(&src, &DemoFiles);
-        assert!(!c.has_errors(), "{name}:\n{}", render(&c.diagnostics, &name, &src));
+        assert!(
+            !c.has_errors(),
+            "{name}:\n{}",
+            render(&c.diagnostics, &name, &src)
+        );
         let d = c.design.unwrap();
         let a = dutyline::analysis::analyse(&d);
         for case in &a.cases {
             for p in &case.pumps {
-                assert!(p.duty.is_some() || p.checks.iter().any(|c| c.id == "duty-point"), "{name} {} {}", case.name, p.name);
+                assert!(
+                    p.duty.is_some() || p.checks.iter().any(|c| c.id == "duty-point"),
+                    "{name} {} {}",
+                    case.name,
+                    p.name
+                );
             }
         }
         assert!(a.selection.recommended.is_some() || a.selection.refusal.is_some());
@@ -77,16 +91,28 @@ fn dimension_mismatch_points_at_the_literal() {
     assert_eq!(e.len(), 1, "{e:?}");
     assert_eq!(e[0].0, "unit-mismatch");
     assert_eq!((e[0].1, e[0].2), (11, 44));
-    assert!(e[0].3.contains("expected a length, found a pressure (psi)"), "{}", e[0].3);
+    assert!(
+        e[0].3.contains("expected a length, found a pressure (psi)"),
+        "{}",
+        e[0].3
+    );
 }
 
 #[test]
 fn unknown_unit_suggests_the_nearest() {
     let src = BASE.replace("level = 10 m", "level = 10 fet");
     let c = dutyline::check(&src, &dutyline::NoFiles);
-    let d = c.diagnostics.iter().find(|d| d.code == "unknown-unit").expect("unknown unit");
+    let d = c
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "unknown-unit")
+        .expect("unknown unit");
     assert_eq!(line_col(&src, d.span.unwrap().start), (3, 21));
-    assert!(d.help.as_deref().unwrap_or("").contains("`ft`"), "{:?}", d.help);
+    assert!(
+        d.help.as_deref().unwrap_or("").contains("`ft`"),
+        "{:?}",
+        d.help
+    );
 }
 
 #[test]
@@ -105,10 +131,21 @@ fn unknown_and_duplicate_names_and_bad_overrides_are_all_reported_in_one_run() {
 
 #[test]
 fn unknown_pipe_size_lists_nearest_valid_ones() {
-    let src = BASE.replace("pipe steel 4 in schedule 40 { length = 10 m }", "pipe steel 4 in schedule 45 { length = 10 m }");
+    let src = BASE.replace(
+        "pipe steel 4 in schedule 40 { length = 10 m }",
+        "pipe steel 4 in schedule 45 { length = 10 m }",
+    );
     let c = dutyline::check(&src, &dutyline::NoFiles);
-    let d = c.diagnostics.iter().find(|d| d.code == "unknown-pipe-size").expect("size error");
-    assert!(d.help.as_deref().unwrap_or("").contains("4 in schedule 40"), "{:?}", d.help);
+    let d = c
+        .diagnostics
+        .iter()
+        .find(|d| d.code == "unknown-pipe-size")
+        .expect("size error");
+    assert!(
+        d.help.as_deref().unwrap_or("").contains("4 in schedule 40"),
+        "{:?}",
+        d.help
+    );
 }
 
 #[test]
@@ -139,7 +176,10 @@ fn absurd_inputs_get_clean_diagnostics() {
 
 #[test]
 fn two_builds_are_byte_identical_and_name_every_duty() {
-    let (name, src) = demos().into_iter().find(|(n, _)| n.contains("orchard")).unwrap();
+    let (name, src) = demos()
+        .into_iter()
+        .find(|(n, _)| n.contains("orchard"))
+        .unwrap();
     let c = dutyline::check(&src, &DemoFiles);
     let d = c.design.unwrap_or_else(|| panic!("{name}"));
     let a = dutyline::analysis::analyse(&d);

@@ -26,6 +26,9 @@ const ONCE: &[&str] = &[
     "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",
 ];
 
+/// A top-level block: keyword, arguments, body, span.
+type TopBlock<'a> = (&'static str, &'a [Arg], Option<&'a [Statement]>, Span);
+
 /// Lower a parsed file. Returns the design when there were no errors, and all diagnostics.
 pub fn lower(
     file: &File,
@@ -60,7 +63,7 @@ pub fn lower(
     }
     // Group the other statements by keyword, checking names and singletons.
     let mut seen: Vec<(&str, Span)> = Vec::new();
-    let mut blocks: Vec<(&str, &[Arg], Option<&[Statement]>, Span)> = Vec::new();
+    let mut blocks: Vec<TopBlock> = Vec::new();
     for st in &file.statements {
         match &st.kind {
             StatementKind::Let { .. } => {}

@@ -373,9 +373,7 @@ pub fn lower_pipe(
             )
         }
         Some(_) => {
-            let Some(size_arg) = args.get(1) else {
-                return None;
-            };
+            let size_arg = args.get(1)?;
             let nominal = match &size_arg.kind {
                 ArgKind::Quantity { value, unit } if unit.text == "in" => value.text.clone(),
                 ArgKind::Word(w) if w.starts_with("DN") => w.clone(),

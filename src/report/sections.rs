@@ -714,14 +714,6 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
                 ..Default::default()
             });
         }
-        if let Some(s) = &c.system {
-            let pts: Vec<(f64, f64)> = r
-                .operating_curve
-                .iter()
-                .map(|q| (fl.value(q.flow), hd.value(s.npsh_available(q.flow))))
-                .collect();
-            let _ = pts;
-        }
         if let Some(d) = &r.duty {
             markers.push(Marker {
                 x: fl.value(d.flow),
@@ -802,38 +794,32 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
             axis: YAxis::Left,
         });
     }
+    let per = p.count.max(1) as f64;
     let markers: Vec<Marker> = results
         .iter()
         .filter_map(|(c, r)| {
-            r.duty.as_ref().and_then(|d| {
-                d.shaft_power.map(|s| Marker {
-                    x: fl.value(
-                        d.flow / p.count.max(1) as f64
-                            * if p.arrangement == crate::model::ArrangementKind::Parallel {
-                                1.0
-                            } else {
-                                1.0
-                            },
-                    ),
-                    y: pw.value(s / p.count.max(1) as f64),
-                    label: format!("{}: {}", c.name, pw.fmt(s / p.count.max(1) as f64)),
-                    axis: YAxis::Left,
-                })
+            let d = r.duty.as_ref()?;
+            let s = d.shaft_power?;
+            Some(Marker {
+                x: fl.value(d.flow),
+                y: pw.value(s / per),
+                label: format!("{}: {}", c.name, pw.fmt(s / per)),
+                axis: YAxis::Left,
             })
         })
         .collect();
-    let _ = markers;
     b.push(Block::Figure {
         chart: Chart {
             x_label: format!("Flow of the arrangement ({})", fl.label),
             y_label: format!("Shaft power per pump ({})", pw.label),
             series,
             hlines,
+            points: markers,
             ..Default::default()
         },
         height_mm: 80.0,
         caption: format!(
-            "Pump {}: shaft power per pump along the curve, with the motor rating",
+            "Pump {}: shaft power per pump along the curve, duty points and the motor rating",
             p.name
         ),
     });
