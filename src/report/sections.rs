@@ -880,7 +880,7 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
             Column::new("Speed (rpm)", 0.08, Align::Right),
             Column::new(format!("Flow ({})", fl.label), 0.09, Align::Right),
             Column::new(format!("Head ({})", hd.label), 0.09, Align::Right),
-            Column::new("Efficiency", 0.10, Align::Right),
+            Column::new("Eff.", 0.10, Align::Right),
             Column::new("Flow / BEP", 0.08, Align::Right),
             Column::new(format!("NPSHa / NPSHr ({})", hd.label), 0.13, Align::Right),
             Column::new(format!("Velocity suct. / disch. ({})", u.velocity().label), 0.13, Align::Right),

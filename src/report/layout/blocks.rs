@@ -1,5 +1,6 @@
-//! Blocks to chunks: headings, paragraphs, listings, figures, contents, callouts.
-//! Tables and key/value lists live in `table.rs`, the title block in `title.rs`.
+//! Blocks to chunks: headings, paragraphs, figures and callouts. Tables and key/value
+//! lists live in `table.rs`, listings in `listing.rs`, the contents in `contents.rs`,
+//! the title block in `title.rs`.
 
 use super::chart;
 use super::document::{Block, CalloutKind, Span};
@@ -7,8 +8,13 @@ use super::font::{Face, FontSet};
 use super::page::{HeadingEntry, Item, Stroke, PT_PER_MM};
 use super::paginate::Chunk;
 use super::style::Style;
-use super::text::{break_preformatted, wrap, Line};
-use super::{table, title, LayoutError};
+use super::text::{wrap, Line};
+use super::{contents, listing, table, title, LayoutError};
+
+/// Figure height used when the requested one is not a positive number.
+const DEFAULT_FIGURE_MM: f64 = 80.0;
+/// Smallest figure height; below it axes and legend leave no room for the plot.
+const MIN_FIGURE_MM: f64 = 45.0;
 
 /// What every block needs to lay itself out.
 pub struct Ctx<'a> {
@@ -100,7 +106,7 @@ pub fn chunks(
             Block::Preformatted {
                 lines,
                 line_numbers,
-            } => out.extend(preformatted_chunks(ctx, lines, *line_numbers)),
+            } => out.extend(listing::preformatted_chunks(ctx, lines, *line_numbers)),
             Block::Table {
                 columns,
                 rows,
@@ -119,7 +125,7 @@ pub fn chunks(
                 figure += 1;
                 out.push(figure_chunk(ctx, chart, *height_mm, figure, caption)?);
             }
-            Block::Contents => out.extend(contents_chunks(ctx, headings)),
+            Block::Contents => out.extend(contents::contents_chunks(ctx, headings)),
             Block::TitleBlock {
                 lines,
                 seal_box,
@@ -212,13 +218,13 @@ pub fn pieces(spans: &[Span]) -> Vec<(Face, &str)> {
 
 /// Groups lines into chunks: the first two and last two stay together (no orphans or
 /// widows), the others break anywhere.
-fn line_groups(count: usize) -> Vec<std::ops::Range<usize>> {
+fn line_groups(count: usize) -> Vec<(usize, usize)> {
     if count <= 4 {
-        return vec![0..count];
+        return vec![(0, count)];
     }
-    let mut groups = vec![0..2];
-    groups.extend((2..count - 2).map(|i| i..i + 1));
-    groups.push(count - 2..count);
+    let mut groups = vec![(0, 2)];
+    groups.extend((2..count - 2).map(|i| (i, i + 1)));
+    groups.push((count - 2, count));
     groups
 }
 
@@ -226,8 +232,8 @@ fn paragraph_chunks(ctx: &Ctx, spans: &[Span]) -> Vec<Chunk> {
     let size = ctx.style.text.base_size_pt;
     let lines = wrap(ctx.fonts, &pieces(spans), size, ctx.width);
     let mut out = Vec::new();
-    for (i, range) in line_groups(lines.len()).into_iter().enumerate() {
-        let (items, height) = ctx.stack(&lines[range], 0.0, size, ctx.width);
+    for (i, (a, b)) in line_groups(lines.len()).into_iter().enumerate() {
+        let (items, height) = ctx.stack(&lines[a..b], 0.0, size, ctx.width);
         out.push(Chunk {
             height,
             items,
@@ -238,73 +244,6 @@ fn paragraph_chunks(ctx: &Ctx, spans: &[Span]) -> Vec<Chunk> {
             },
             ..Chunk::default()
         });
-    }
-    out
-}
-
-fn preformatted_chunks(ctx: &Ctx, lines: &[String], numbers: bool) -> Vec<Chunk> {
-    let t = &ctx.style.text;
-    let size = t.mono_size_pt;
-    let lh = size * 1.28;
-    let base = (lh - size) / 2.0 + ctx.fonts.ascent(Face::Mono, size) * 0.9;
-    let digits = lines.len().max(1).to_string().len().max(2);
-    let gutter = if numbers {
-        ctx.fonts.width(Face::Mono, &"8".repeat(digits), size) + 7.0
-    } else {
-        0.0
-    };
-    let mark = ctx.fonts.width(Face::Mono, "↪ ", size);
-    let code_x = gutter + 3.0;
-    let avail = ctx.width - code_x;
-    let rule = Stroke::solid(0.3, ctx.style.chart.grid_colour);
-    let mut out = Vec::new();
-    for (n, text) in lines.iter().enumerate() {
-        let parts = break_preformatted(ctx.fonts, text, Face::Mono, size, avail, avail - mark);
-        for (k, part) in parts.iter().enumerate() {
-            let mut chunk = Chunk {
-                height: lh,
-                space_before: if n == 0 && k == 0 {
-                    t.paragraph_gap_pt
-                } else {
-                    0.0
-                },
-                ..Chunk::default()
-            };
-            if numbers && k == 0 {
-                let label = wrap(
-                    ctx.fonts,
-                    &[(Face::Mono, &(n + 1).to_string())],
-                    size,
-                    gutter,
-                );
-                if let Some(l) = label.first() {
-                    let x = gutter - 4.0 - l.width;
-                    chunk
-                        .items
-                        .extend(l.items(x, base, size, t.muted_colour, gutter));
-                }
-            }
-            let x = if k == 0 {
-                code_x
-            } else {
-                let m = wrap(ctx.fonts, &[(Face::Mono, "↪")], size, f64::INFINITY);
-                if let Some(l) = m.first() {
-                    chunk
-                        .items
-                        .extend(l.items(code_x, base, size, t.muted_colour, ctx.width));
-                }
-                code_x + mark
-            };
-            chunk
-                .items
-                .extend(part.items(x, base, size, t.colour, ctx.width));
-            if numbers {
-                chunk
-                    .items
-                    .push(Item::line((gutter, 0.0), (gutter, lh), rule));
-            }
-            out.push(chunk);
-        }
     }
     out
 }
@@ -331,12 +270,13 @@ fn figure_chunk(
         ctx.width,
     );
     let (mut caption_items, caption_h) = ctx.stack(&lines, 0.0, size, ctx.width);
-    let requested = if height_mm.is_finite() {
+    let requested = if height_mm.is_finite() && height_mm > 0.0 {
         height_mm * PT_PER_MM
     } else {
-        0.0
+        DEFAULT_FIGURE_MM * PT_PER_MM
     };
-    let chart_h = requested.clamp(60.0, ctx.body_height - caption_h - 12.0);
+    let max_h = (ctx.body_height - caption_h - 12.0).max(30.0);
+    let chart_h = requested.clamp((MIN_FIGURE_MM * PT_PER_MM).min(max_h), max_h);
     let mut items =
         chart::draw(chart_data, ctx.style, ctx.fonts, ctx.width, chart_h).map_err(|message| {
             LayoutError::Chart {
@@ -354,68 +294,6 @@ fn figure_chunk(
         space_before: t.paragraph_gap_pt * 2.0,
         ..Chunk::default()
     })
-}
-
-fn contents_chunks(ctx: &Ctx, headings: &[HeadingEntry]) -> Vec<Chunk> {
-    let t = &ctx.style.text;
-    let size = t.base_size_pt;
-    let mut out = vec![heading_like(ctx, "Contents")];
-    let page_w = ctx.fonts.width(Face::Regular, "8888", size);
-    let dot_w = ctx.fonts.width(Face::Regular, ".", size);
-    for h in headings {
-        let depth = f64::from(h.level.clamp(1, 3) - 1);
-        let face = if h.level == 1 {
-            Face::Bold
-        } else {
-            Face::Regular
-        };
-        let indent = depth * size * 1.6;
-        let number_w = size * (2.2 + 0.6 * depth);
-        let text_x = indent + number_w;
-        let text_w = ctx.width - text_x - page_w - 4.0 * dot_w;
-        let lines = wrap(ctx.fonts, &[(face, &h.text)], size, text_w);
-        let (mut items, height) = ctx.stack(&lines, text_x, size, text_x + text_w);
-        let number = wrap(ctx.fonts, &[(face, &h.number)], size, f64::INFINITY);
-        let base = ctx.baseline(size);
-        if let Some(n) = number.first() {
-            items.extend(n.items(indent, base, size, t.colour, text_x));
-        }
-        let last_base = base + (lines.len() as f64 - 1.0) * ctx.line_height(size);
-        let last_end = text_x + lines.last().map_or(0.0, |l| l.width);
-        let page = if h.page == 0 {
-            "0".to_string()
-        } else {
-            h.page.to_string()
-        };
-        let pn = wrap(ctx.fonts, &[(face, &page)], size, f64::INFINITY);
-        let pn_w = pn.first().map_or(0.0, |l| l.width);
-        if let Some(p) = pn.first() {
-            items.extend(p.items(ctx.width - pn_w, last_base, size, t.colour, ctx.width));
-        }
-        let leader_from = last_end + dot_w;
-        let leader_to = ctx.width - page_w - dot_w;
-        let dots = (((leader_to - leader_from) / (2.0 * dot_w)).floor().max(0.0)) as usize;
-        if dots > 0 {
-            let leader = ". ".repeat(dots);
-            let l = wrap(
-                ctx.fonts,
-                &[(Face::Regular, leader.trim_end())],
-                size,
-                f64::INFINITY,
-            );
-            if let Some(l) = l.first() {
-                let x = leader_to - l.width;
-                items.extend(l.items(x, last_base, size, t.muted_colour, leader_to));
-            }
-        }
-        out.push(Chunk {
-            height,
-            items,
-            space_before: if h.level == 1 { size * 0.5 } else { 0.0 },
-            ..Chunk::default()
-        });
-    }
-    out
 }
 
 /// An unnumbered heading in level-1 style (not listed in the contents).

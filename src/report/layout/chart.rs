@@ -5,7 +5,7 @@
 
 use super::chart_backend::{Recorder, UNITS_PER_PT};
 use super::chart_marks::{
-    clip_polyline, draw_legend, draw_markers, draw_reference_lines, legend_rows,
+    clip_polyline, draw_legend, draw_markers, draw_reference_lines, legend_rows, PlotFrame,
 };
 use super::font::{Face, FontSet};
 use super::page::Item;
@@ -135,12 +135,12 @@ pub fn series_look(style: &Style, series: &Series) -> (Colour, LineStyle) {
 }
 
 /// Plotters colour of a style colour.
-pub fn rgb(c: Colour) -> RGBColor {
+pub(crate) fn rgb(c: Colour) -> RGBColor {
     RGBColor(c.r, c.g, c.b)
 }
 
 /// Size in backend units.
-pub fn units(pt: f64) -> i32 {
+pub(crate) fn units(pt: f64) -> i32 {
     (pt * UNITS_PER_PT).round() as i32
 }
 
@@ -155,7 +155,7 @@ fn extent(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
 }
 
 /// The three axes of a chart.
-pub struct Axes {
+pub(crate) struct Axes {
     /// X.
     pub x: Axis,
     /// Left y.
@@ -165,7 +165,7 @@ pub struct Axes {
 }
 
 /// Axis ranges from the fixed ranges or the data.
-pub fn axes(chart: &Chart, width: f64, plot_height: f64) -> Axes {
+pub(crate) fn axes(chart: &Chart, width: f64, plot_height: f64) -> Axes {
     let x_target = ((width / 65.0).round() as usize).clamp(3, 10);
     let y_target = ((plot_height / 38.0).round() as usize).clamp(3, 9);
     let series_x = chart
@@ -219,7 +219,7 @@ pub fn axes(chart: &Chart, width: f64, plot_height: f64) -> Axes {
 
 /// Draws `chart` into a `width` x `height` point box; items are relative to the box's
 /// top left corner.
-pub fn draw(
+pub(crate) fn draw(
     chart: &Chart,
     style: &Style,
     fonts: &FontSet,
@@ -230,15 +230,26 @@ pub fn draw(
     let label_pt = cs.label_size_pt;
     let desc_pt = label_pt + 0.6;
     let right_axis = chart.uses_right_axis();
-    let rows = if chart.legend {
+    let row_h = label_pt * 1.6;
+    // The legend may take at most 40 % of the figure; rows beyond that are cut and
+    // counted in a closing note.
+    let max_rows = (((height * 0.4 - 8.0) / row_h).floor().max(1.0)) as usize;
+    let mut rows = if chart.legend {
         legend_rows(chart, fonts, label_pt, width)
     } else {
         Vec::new()
     };
+    let mut omitted = 0;
+    if rows.len() > max_rows {
+        let keep = max_rows.saturating_sub(1).max(1);
+        omitted = rows[keep..].iter().map(Vec::len).sum();
+        rows.truncate(keep);
+    }
+    let note_rows = usize::from(omitted > 0);
     let legend_h = if rows.is_empty() {
         0.0
     } else {
-        rows.len() as f64 * label_pt * 1.6 + 8.0
+        (rows.len() + note_rows) as f64 * row_h + 8.0
     };
     let plot_h = (height - legend_h).max(height * 0.5);
     let ax = axes(chart, width, plot_h);
@@ -387,21 +398,29 @@ pub fn draw(
         YAxis::Left => ctx.backend_coord(&(x, y)),
         YAxis::Right => ctx.borrow_secondary().backend_coord(&(x, y)),
     };
-    let plot_box = (px.clone(), py.clone());
-    draw_reference_lines(&root, chart, style, fonts, &ax, &coord, &plot_box, &dash).map_err(e)?;
-    draw_markers(
-        &root,
+    let frame = PlotFrame {
         chart,
         style,
         fonts,
-        &ax,
-        &coord,
-        &plot_box,
-        &drawn_lines,
-    )
-    .map_err(e)?;
+        ax: &ax,
+        coord: &coord,
+        plot: (px.clone(), py.clone()),
+    };
+    let taken = draw_reference_lines(&root, &frame, &dash).map_err(e)?;
+    draw_markers(&root, &frame, &drawn_lines, &taken).map_err(e)?;
     if !rows.is_empty() {
         draw_legend(&legend_area, chart, style, fonts, &rows, px.start, &dash).map_err(e)?;
+        if omitted > 0 {
+            let note = format!("… and {omitted} more series not listed");
+            let y = units(8.0 + rows.len() as f64 * row_h + label_pt * 0.5);
+            let font = ("sans-serif", f64::from(units(label_pt)))
+                .into_font()
+                .color(&rgb(style.text.muted_colour))
+                .pos(Pos::new(HPos::Left, VPos::Center));
+            legend_area
+                .draw(&Text::new(note, (px.start, y), font))
+                .map_err(e)?;
+        }
     }
     drop(ctx);
     drop(root);

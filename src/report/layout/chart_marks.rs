@@ -19,6 +19,22 @@ pub type CoordFn<'c> = dyn Fn(f64, f64, YAxis) -> (i32, i32) + 'c;
 /// Pixel ranges (x, y) of the plotting area.
 pub type PlotBox = (Range<i32>, Range<i32>);
 
+/// What the annotation painters need to know about the plot.
+pub struct PlotFrame<'c> {
+    /// The chart being drawn.
+    pub chart: &'c Chart,
+    /// The report style.
+    pub style: &'c Style,
+    /// The embedded faces.
+    pub fonts: &'c FontSet,
+    /// The chart's axes.
+    pub ax: &'c Axes,
+    /// Data to backend pixels.
+    pub coord: &'c CoordFn<'c>,
+    /// Pixel ranges of the plotting area.
+    pub plot: PlotBox,
+}
+
 /// Cuts a polyline to the axes' rectangle (Liang–Barsky per segment); non-finite
 /// points break the line. Returns the visible pieces, each with two or more points.
 pub fn clip_polyline(points: &[(f64, f64)], x: &Axis, y: &Axis) -> Vec<Vec<(f64, f64)>> {
@@ -188,16 +204,21 @@ pub fn draw_legend(
 }
 
 /// Draws the horizontal reference lines (dashed) with their labels.
+/// Returns the boxes of the labels, which the duty-point labels then avoid.
 pub fn draw_reference_lines(
     root: &Area,
-    chart: &Chart,
-    style: &Style,
-    fonts: &FontSet,
-    ax: &Axes,
-    coord: &CoordFn,
-    plot: &PlotBox,
+    frame: &PlotFrame,
     dash: &Cell<LineStyle>,
-) -> DrawResult {
+) -> Result<Vec<Rect>, DrawingAreaErrorKind<RecorderError>> {
+    let mut boxes = Vec::new();
+    let PlotFrame {
+        chart,
+        style,
+        fonts,
+        ax,
+        coord,
+        plot,
+    } = frame;
     let cs = &style.chart;
     let size = cs.label_size_pt - 0.3;
     for h in &chart.hlines {
@@ -226,10 +247,11 @@ pub fn draw_reference_lines(
             };
             let lines = [h.label.clone()];
             let at = (b.0 - units(3.0) - w, top);
+            boxes.push((at.0, at.1, at.0 + w, at.1 + units(size * 1.25)));
             label_box(root, fonts, &lines, at, size, cs.axis_colour)?;
         }
     }
-    Ok(())
+    Ok(boxes)
 }
 
 /// Text lines on a white ground with the top left corner at `at`.
@@ -285,7 +307,8 @@ fn samples(lines: &[Vec<(i32, i32)>]) -> Vec<(i32, i32)> {
     out
 }
 
-type Rect = (i32, i32, i32, i32); // x0, y0, x1, y1
+/// A pixel box: x0, y0, x1, y1.
+pub type Rect = (i32, i32, i32, i32);
 
 fn overlaps(a: &Rect, b: &Rect) -> bool {
     a.0 < b.2 && b.0 < a.2 && a.1 < b.3 && b.1 < a.3
@@ -294,17 +317,21 @@ fn overlaps(a: &Rect, b: &Rect) -> bool {
 /// Draws the duty-point markers and their labels. Each label goes to the side of its
 /// marker (right/left, above/below) that stays inside the plot, avoids other labels
 /// and markers, and covers the fewest points of the drawn curves.
-#[allow(clippy::too_many_arguments)]
+/// `obstacles` are boxes already taken (reference-line labels).
 pub fn draw_markers(
     root: &Area,
-    chart: &Chart,
-    style: &Style,
-    fonts: &FontSet,
-    ax: &Axes,
-    coord: &CoordFn,
-    plot: &PlotBox,
+    frame: &PlotFrame,
     drawn: &[Vec<(i32, i32)>],
+    obstacles: &[Rect],
 ) -> DrawResult {
+    let PlotFrame {
+        chart,
+        style,
+        fonts,
+        ax,
+        coord,
+        plot,
+    } = frame;
     let cs = &style.chart;
     let size = cs.label_size_pt - 0.2;
     let visible: Vec<_> = chart
@@ -322,6 +349,7 @@ pub fn draw_markers(
     let mut placed: Vec<Rect> = visible
         .iter()
         .map(|(_, p)| (p.0 - r, p.1 - r, p.0 + r, p.1 + r))
+        .chain(obstacles.iter().copied())
         .collect();
     let mut labels = Vec::new();
     for (m, p) in &visible {

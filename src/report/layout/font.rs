@@ -233,10 +233,9 @@ fn parse_cmap(cmap: &[u8]) -> Result<Vec<u16>, String> {
         let platform = read_u16(cmap, record)?;
         let encoding = read_u16(cmap, record + 2)?;
         let offset = read_u32(cmap, record + 4)? as usize;
-        if (platform == 3 && encoding == 1) || (platform == 0 && subtable.is_none()) {
-            if read_u16(cmap, offset)? == 4 {
-                subtable = Some(offset);
-            }
+        let unicode = (platform == 3 && encoding == 1) || (platform == 0 && subtable.is_none());
+        if unicode && read_u16(cmap, offset)? == 4 {
+            subtable = Some(offset);
         }
     }
     let base = subtable.ok_or("no Unicode format 4 cmap subtable")?;

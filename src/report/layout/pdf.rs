@@ -80,7 +80,10 @@ pub fn write(
     };
     let mut warnings = Vec::new();
     let mut bytes = doc.save(&opts, &mut warnings);
-    let digest = hex(&digest128(&[id_seed.as_bytes(), &bytes]));
+    // Everything before the trailer is deterministic; the trailer holds printpdf's
+    // counter-based /ID, replaced here.
+    let body_end = find_last(&bytes, b"trailer").unwrap_or(bytes.len());
+    let digest = hex(&digest128(&[id_seed.as_bytes(), &bytes[..body_end]]));
     set_trailer_id(&mut bytes, &digest)?;
     Ok(bytes)
 }

@@ -327,7 +327,7 @@ fn key_error(text: &str, key: &str, message: String, help: &str) -> StyleError {
 
 fn help_for(message: &str) -> String {
     let help = if message.contains("unknown field") {
-        "remove the key or correct its spelling; the keys this table accepts are listed above"
+        "remove the key or correct its spelling; the message lists the keys this table accepts"
     } else if message.contains("missing field") {
         "add the missing key; styles/letter.toml lists every key with a sensible value"
     } else if message.contains("colour") {

@@ -146,7 +146,7 @@ pub fn subset(font: &FontFile, chars: &BTreeSet<char>) -> Result<Vec<u8>, String
             tables.push((*tag, data.to_vec()));
         }
     }
-    tables.sort_by(|a, b| a.0.cmp(&b.0));
+    tables.sort_by_key(|t| t.0);
     Ok(assemble(tables))
 }
 

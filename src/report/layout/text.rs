@@ -82,7 +82,7 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
     let mut tokens = Vec::new();
     let mut word: Vec<Glyph> = Vec::new();
     for &(face, text) in pieces {
-        for ch in text.chars() {
+        for ch in text.chars().filter(|c| *c != '\r') {
             if ch == '\n' || ch == ' ' || ch == '\t' {
                 if !word.is_empty() {
                     tokens.push(Token::Word(std::mem::take(&mut word)));
@@ -168,7 +168,7 @@ pub fn break_preformatted(
 ) -> Vec<Line> {
     let mut expanded = String::with_capacity(text.len());
     let mut column = 0;
-    for ch in text.chars() {
+    for ch in text.chars().filter(|c| *c != '\r') {
         if ch == '\t' {
             let n = 4 - column % 4;
             expanded.extend(std::iter::repeat_n(' ', n));
@@ -277,6 +277,14 @@ mod tests {
         }
         let joined: Vec<String> = lines.iter().map(Line::text).collect();
         assert_eq!(joined.join(" "), text);
+    }
+
+    #[test]
+    fn carriage_returns_are_dropped_and_newlines_break() {
+        let f = fonts().expect("fonts");
+        let lines = wrap_plain(f, "first\r\nsecond", Face::Regular, 9.0, 500.0);
+        let texts: Vec<String> = lines.iter().map(Line::text).collect();
+        assert_eq!(texts, ["first", "second"]);
     }
 
     #[test]

@@ -106,9 +106,11 @@ impl Axis {
     }
 
     /// A fixed range given by the caller; ticks at a nice step inside it.
+    /// A reversed range is put in order; an empty or non-finite one falls back to
+    /// `0..1`.
     pub fn fixed(lo: f64, hi: f64, target: usize) -> Axis {
-        let (lo, hi) = if lo.is_finite() && hi.is_finite() && lo < hi {
-            (lo, hi)
+        let (lo, hi) = if lo.is_finite() && hi.is_finite() && lo != hi {
+            (lo.min(hi), lo.max(hi))
         } else {
             (0.0, 1.0)
         };
@@ -143,7 +145,17 @@ impl Axis {
     }
 
     /// Tick label text: rounded to the step's precision, never "-0".
+    /// Very large or very small scales switch to exponent notation ("2.5e7").
     pub fn format(&self, value: f64) -> String {
+        let magnitude = self.lo.abs().max(self.hi.abs());
+        if magnitude >= 1e7 || (self.step < 1e-4 && magnitude < 1e-2) {
+            let exponent = magnitude.log10().floor();
+            let digits = decimals_for(self.step / 10f64.powf(exponent)).min(6);
+            if value == 0.0 {
+                return "0".to_string();
+            }
+            return format!("{value:.digits$e}");
+        }
         let text = format!("{:.*}", self.decimals, value);
         if text.starts_with('-') && text[1..].chars().all(|c| c == '0' || c == '.') {
             text[1..].to_string()
@@ -220,6 +232,18 @@ mod tests {
         let second = Axis::matched(0.0, 83.0, true, primary.intervals());
         assert_eq!(second.intervals(), primary.intervals());
         assert!(second.hi >= 83.0);
+    }
+
+    #[test]
+    fn extreme_scales_use_exponents() {
+        let big = Axis::auto(0.0, 4.2e13, true, 5);
+        assert_eq!(big.format(1e13), "1e13");
+        let small = Axis::auto(0.0, 1e-9, true, 5);
+        assert!(
+            small.format(small.ticks[1]).contains("e-"),
+            "{}",
+            small.format(small.ticks[1])
+        );
     }
 
     #[test]
