@@ -12,6 +12,8 @@ use crate::analysis::{Analysis, CaseResult};
 use crate::diagnostics::{line_col, Diagnostic};
 use crate::model::{ArrangementKind, Design};
 
+mod inputs;
+
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";
 
@@ -22,6 +24,8 @@ struct Doc<'a> {
     source: Source<'a>,
     project: Project<'a>,
     cases: Vec<Case<'a>>,
+    /// Added field: each candidate's published curve points and fit methods.
+    candidates: Vec<inputs::Candidate<'a>>,
     selection: Selection<'a>,
     warnings: Vec<Warn>,
 }
@@ -49,6 +53,10 @@ struct Case<'a> {
     error: Option<&'a str>,
     fluid: Option<Fluid<'a>>,
     barometric_pressure_Pa: Option<f64>,
+    /// Added field: true when the design states the barometric pressure; otherwise it
+    /// comes from `site_elevation_m` by the U.S. Standard Atmosphere 1976.
+    barometric_pressure_given: bool,
+    site_elevation_m: Option<f64>,
     levels: Option<Levels>,
     static_head_m: Option<f64>,
     segments: Vec<Segment<'a>>,
@@ -88,6 +96,8 @@ struct Segment<'a> {
     friction_model: &'static str,
     hazen_williams_c: Option<f64>,
     fittings: Vec<Fitting<'a>>,
+    /// Added field: the `loss { ... }` entries of the segment as written.
+    losses: Vec<inputs::Loss<'a>>,
     k_total: f64,
     equivalent_length_m: f64,
 }
@@ -97,6 +107,9 @@ struct Fitting<'a> {
     name: &'a str,
     count: u32,
     k: f64,
+    /// Added fields: d_small / d_large and the total included angle of size changes.
+    beta: Option<f64>,
+    angle_deg: Option<f64>,
     source: &'a str,
 }
 
@@ -192,8 +205,9 @@ fn finite(v: f64) -> Option<f64> {
     v.is_finite().then_some(v)
 }
 
-fn case<'a>(c: &'a CaseResult) -> Case<'a> {
+fn case<'a>(c: &'a CaseResult, d: Option<&'a crate::model::Case>) -> Case<'a> {
     let s = c.system.as_ref();
+    let site = d.map(|d| &d.scenario.site);
     Case {
         name: &c.name,
         overrides: &c.overrides,
@@ -208,6 +222,8 @@ fn case<'a>(c: &'a CaseResult) -> Case<'a> {
             source: &s.fluid.source,
         }),
         barometric_pressure_Pa: s.map(|s| s.barometric_pa),
+        barometric_pressure_given: site.is_some_and(|x| x.barometric_pressure.is_some()),
+        site_elevation_m: site.map(|x| x.elevation.get::<uom::si::length::meter>()),
         levels: s.map(|s| Levels {
             source_m: s.source_level,
             destination_m: s.destination_level,
@@ -246,9 +262,12 @@ fn case<'a>(c: &'a CaseResult) -> Case<'a> {
                                     s.reynolds(g, design_flow(c)),
                                     g.inner_diameter,
                                 ),
+                                beta: f.beta,
+                                angle_deg: f.angle_rad.map(f64::to_degrees),
                                 source: f.spec.source,
                             })
                             .collect(),
+                        losses: inputs::losses(d, &g.line, g.index),
                         k_total: g.k_constant,
                         equivalent_length_m: g.equivalent_length,
                     })
@@ -379,7 +398,12 @@ pub fn to_json(
             revision: design.revisions.last().map(|r| r.id.as_str()),
             units: design.project.units.keyword(),
         },
-        cases: analysis.cases.iter().map(case).collect(),
+        cases: analysis
+            .cases
+            .iter()
+            .map(|c| case(c, design.cases.iter().find(|d| d.name == c.name)))
+            .collect(),
+        candidates: inputs::candidates(design, analysis),
         selection: Selection {
             recommended: sel.recommended.as_deref(),
             criterion: sel.criterion,
