@@ -10,6 +10,7 @@
 
 pub mod analysis;
 pub mod diagnostics;
+pub mod diff;
 pub mod display;
 pub mod fluid;
 pub mod hydraulics;

@@ -42,6 +42,34 @@ enum Command {
         #[arg(long, value_enum, default_value = "text")]
         format: Format,
     },
+    /// Rewrite design files in the canonical layout (comments kept).
+    #[command(
+        after_help = "Examples:\n  dutyline fmt examples-demo/*.duty\n  dutyline fmt --check design.duty\n  cat design.duty | dutyline fmt -\n\nFiles are rewritten atomically and only when they change. `-` reads standard input and writes standard output.\nExit status: 0 formatted (or already canonical), 1 with --check when a file would change or on syntax errors, 2 usage or I/O errors."
+    )]
+    Fmt {
+        /// Design files, or `-` for standard input.
+        #[arg(required = true)]
+        files: Vec<PathBuf>,
+        /// Change nothing; exit 1 and show the lines that would change.
+        #[arg(long)]
+        check: bool,
+    },
+    /// Show what changed between two revisions: inputs and their effect on every duty point.
+    #[command(
+        after_help = "Examples:\n  dutyline diff examples-demo/orchard-lift-rev-a.duty examples-demo/orchard-lift-rev-b.duty\n  git show HEAD~1:design.duty | dutyline diff - design.duty --format json\n\nExit status: 0 whether or not there are differences (1 with --exit-code when there are), 1 design errors, 2 usage or I/O errors."
+    )]
+    Diff {
+        /// The earlier revision, or `-` for standard input.
+        old: PathBuf,
+        /// The later revision, or `-` for standard input.
+        new: PathBuf,
+        /// Output format.
+        #[arg(long, value_enum, default_value = "text")]
+        format: Format,
+        /// Exit 1 when there are differences, as `git diff --exit-code` does.
+        #[arg(long)]
+        exit_code: bool,
+    },
     /// Build the PDF calculation package.
     #[command(
         after_help = "Examples:\n  dutyline build examples-demo/orchard-lift-rev-a.duty\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf --style letter\n\nThe PDF goes next to the design file unless -o is given. It is written to a temporary file and renamed, so a failed build leaves an existing PDF untouched.\nExit status: 0 built, 1 design or style errors, 2 usage or I/O errors."
@@ -55,6 +83,9 @@ enum Command {
         /// A built-in style (`letter`, `a4`) or the path of a style file (TOML).
         #[arg(long)]
         style: Option<String>,
+        /// An earlier revision of the design: adds a "changes since" section.
+        #[arg(long, value_name = "OLD")]
+        compare: Option<PathBuf>,
     },
 }
 
@@ -105,14 +136,28 @@ fn main() -> ExitCode {
             file,
             output,
             style,
-        } => build(&file, output, style),
+            compare,
+        } => build(&file, output, style, compare),
+        Command::Fmt { files, check } => fmt(&files, check),
+        Command::Diff {
+            old,
+            new,
+            format,
+            exit_code,
+        } => diff(&old, &new, format, exit_code),
     }
 }
 
-/// Read a design file, or print why not.
+/// Read a design file (or standard input for `-`), or print why not.
 fn read_source(path: &Path) -> Result<String, ExitCode> {
     let name = path.display().to_string();
-    let bytes = std::fs::read(path).map_err(|e| {
+    let bytes = if path == Path::new("-") {
+        let mut buf = Vec::new();
+        std::io::Read::read_to_end(&mut std::io::stdin(), &mut buf).map(|_| buf)
+    } else {
+        std::fs::read(path)
+    }
+    .map_err(|e| {
         eprintln!("error: cannot read `{name}`: {e}");
         ExitCode::from(2)
     })?;
@@ -253,7 +298,12 @@ fn write_atomically(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
     result
 }
 
-fn build(path: &Path, output: Option<PathBuf>, style: Option<String>) -> ExitCode {
+fn build(
+    path: &Path,
+    output: Option<PathBuf>,
+    style: Option<String>,
+    compare: Option<PathBuf>,
+) -> ExitCode {
     let out = output.unwrap_or_else(|| path.with_extension("pdf"));
     if let (Ok(a), Ok(b)) = (std::fs::canonicalize(path), std::fs::canonicalize(&out)) {
         if a == b {
@@ -285,13 +335,25 @@ fn build(path: &Path, output: Option<PathBuf>, style: Option<String>) -> ExitCod
         Err(code) => return code,
     };
     let analysis = dutyline::analysis::analyse(design);
-    let bytes = match dutyline::report::render_pdf(design, &analysis, &source, &style, None) {
-        Ok(b) => b,
-        Err(e) => {
-            eprintln!("error: the package could not be laid out: {e}");
-            return ExitCode::from(1);
-        }
+    let changes = match &compare {
+        Some(old) => match load(old) {
+            Ok((_, old_checked)) => old_checked.design.as_ref().map(|od| {
+                let oa = dutyline::analysis::analyse(od);
+                let d = dutyline::diff::diff(od, &oa, design, &analysis);
+                dutyline::report::changes_from_diff(od, &d)
+            }),
+            Err(code) => return code,
+        },
+        None => None,
     };
+    let bytes =
+        match dutyline::report::render_pdf(design, &analysis, &source, &style, changes.as_ref()) {
+            Ok(b) => b,
+            Err(e) => {
+                eprintln!("error: the package could not be laid out: {e}");
+                return ExitCode::from(1);
+            }
+        };
     match write_atomically(&out, &bytes) {
         Ok(()) => {
             println!(
@@ -306,5 +368,108 @@ fn build(path: &Path, output: Option<PathBuf>, style: Option<String>) -> ExitCod
             eprintln!("error: cannot write `{}`: {e}", out.display());
             ExitCode::from(2)
         }
+    }
+}
+
+fn fmt(files: &[PathBuf], check: bool) -> ExitCode {
+    let mut worst = ExitCode::SUCCESS;
+    if files
+        .iter()
+        .filter(|f| f.as_path() == Path::new("-"))
+        .count()
+        > 1
+    {
+        eprintln!("error: `-` (standard input) may be given once");
+        return ExitCode::from(2);
+    }
+    for path in files {
+        let source = match read_source(path) {
+            Ok(s) => s,
+            Err(code) => return code,
+        };
+        let formatted = match dutyline::syntax::format_source(&source) {
+            Ok(f) => f,
+            Err(diags) => {
+                report(&diags, path, &source);
+                worst = ExitCode::from(1);
+                continue;
+            }
+        };
+        if path == Path::new("-") {
+            if check {
+                if formatted != source {
+                    print_changed_lines(path, &source, &formatted);
+                    worst = ExitCode::from(1);
+                }
+            } else {
+                print!("{formatted}");
+            }
+            continue;
+        }
+        if formatted == source {
+            continue;
+        }
+        if check {
+            print_changed_lines(path, &source, &formatted);
+            worst = ExitCode::from(1);
+        } else if let Err(e) = write_atomically(path, formatted.as_bytes()) {
+            eprintln!("error: cannot write `{}`: {e}", path.display());
+            return ExitCode::from(2);
+        } else {
+            println!("formatted {}", path.display());
+        }
+    }
+    worst
+}
+
+/// A short account of what formatting would change: the first differing lines.
+fn print_changed_lines(path: &Path, old: &str, new: &str) {
+    let a: Vec<&str> = old.lines().collect();
+    let b: Vec<&str> = new.lines().collect();
+    let first = a
+        .iter()
+        .zip(&b)
+        .position(|(x, y)| x != y)
+        .unwrap_or(a.len().min(b.len()));
+    println!(
+        "{} is not in canonical layout; from line {}:",
+        path.display(),
+        first + 1
+    );
+    for l in a.iter().skip(first).take(6) {
+        println!("- {l}");
+    }
+    for l in b.iter().skip(first).take(6) {
+        println!("+ {l}");
+    }
+}
+
+fn diff(old: &Path, new: &Path, format: Format, exit_code: bool) -> ExitCode {
+    if old == Path::new("-") && new == Path::new("-") {
+        eprintln!("error: only one of OLD and NEW may be `-` (standard input)");
+        return ExitCode::from(2);
+    }
+    let (_, old_checked) = match load(old) {
+        Ok(x) => x,
+        Err(code) => return code,
+    };
+    let (_, new_checked) = match load(new) {
+        Ok(x) => x,
+        Err(code) => return code,
+    };
+    let (Some(od), Some(nd)) = (&old_checked.design, &new_checked.design) else {
+        return ExitCode::from(1);
+    };
+    let oa = dutyline::analysis::analyse(od);
+    let na = dutyline::analysis::analyse(nd);
+    let d = dutyline::diff::diff(od, &oa, nd, &na);
+    match format {
+        Format::Text => print!("{}", dutyline::diff::render_text(&d)),
+        Format::Json => print!("{}", dutyline::diff::to_json(&d)),
+    }
+    if exit_code && dutyline::diff::has_differences(&d) {
+        ExitCode::from(1)
+    } else {
+        ExitCode::SUCCESS
     }
 }

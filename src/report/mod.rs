@@ -31,3 +31,91 @@ pub fn render_pdf(
     let doc = sections::document(design, analysis, source, &sha, changes);
     layout::render(&doc, style).map_err(|e| e.to_string())
 }
+
+/// The changes section's content from a diff, in the new design's report units.
+pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections::Changes {
+    let u = crate::display::Units::new(d.report_units);
+    let (fl, hd, pw) = (u.flow(), u.head(), u.power());
+    let mut rows = Vec::new();
+    let cell = |v: Option<f64>, f: &dyn Fn(f64) -> String| v.map(f).unwrap_or_else(|| "—".into());
+    for r in &d.results.rows {
+        let quantities: [(&str, &crate::diff::NumberChange, &dyn Fn(f64) -> String); 5] = [
+            ("duty flow", &r.flow_m3_s, &|v| fl.fmt(v)),
+            ("duty head", &r.head_m, &|v| hd.fmt(v)),
+            ("efficiency", &r.efficiency, &|v| crate::display::percent(v)),
+            ("shaft power", &r.shaft_power, &|v| pw.fmt(v)),
+            ("NPSH margin (ratio)", &r.npsh_margin, &|v| {
+                format!("{v:.2}")
+            }),
+        ];
+        for (name, c, f) in quantities {
+            rows.push(vec![
+                r.case.clone(),
+                r.pump.clone(),
+                name.to_string(),
+                cell(c.before, f),
+                cell(c.after, f),
+                c.change_percent
+                    .map(|p| format!("{p:+.1} %"))
+                    .unwrap_or_else(|| "—".into()),
+            ]);
+        }
+    }
+    for c in &d.results.cases_added {
+        rows.push(vec![
+            c.clone(),
+            "all".into(),
+            "case added".into(),
+            "—".into(),
+            "new".into(),
+            "—".into(),
+        ]);
+    }
+    for c in &d.results.cases_removed {
+        rows.push(vec![
+            c.clone(),
+            "all".into(),
+            "case removed".into(),
+            "was analysed".into(),
+            "—".into(),
+            "—".into(),
+        ]);
+    }
+    sections::Changes {
+        old_revision: old
+            .revisions
+            .last()
+            .map(|r| r.id.clone())
+            .unwrap_or_else(|| "(none)".into()),
+        inputs: d.inputs.iter().map(|c| c.render()).collect(),
+        results: rows,
+        checks: d
+            .results
+            .checks
+            .iter()
+            .map(|c| {
+                vec![
+                    c.case.clone(),
+                    c.pump.clone(),
+                    c.check.clone(),
+                    c.before.unwrap_or("—").to_string(),
+                    c.after.unwrap_or("—").to_string(),
+                    c.message.clone(),
+                ]
+            })
+            .collect(),
+        recommendation: {
+            let r = &d.results.recommendation;
+            let name = |x: &Option<String>| x.clone().unwrap_or_else(|| "none".into());
+            if r.changed {
+                format!(
+                    "The recommendation changed: {} → {}.",
+                    name(&r.before),
+                    name(&r.after)
+                )
+            } else {
+                format!("The recommendation is unchanged: {}.", name(&r.after))
+            }
+        },
+    }
+}

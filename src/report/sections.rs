@@ -15,6 +15,9 @@ pub struct Changes {
     pub inputs: Vec<String>,
     /// Rows: case, pump, quantity, before, after, change.
     pub results: Vec<Vec<String>>,
+    /// Rows: case, pump, check, before, after, message.
+    pub checks: Vec<Vec<String>>,
+    pub recommendation: String,
 }
 
 /// Build the document.
@@ -155,19 +158,37 @@ fn changes_section(b: &mut Vec<Block>, ch: &Changes) {
             caption: None,
         });
     }
-    b.push(Block::heading(2, "Effect on the results"));
+    b.push(Block::heading(2, "Effect on the duty points"));
     b.push(Block::Table {
         columns: vec![
             Column::new("Case", 0.16, Align::Left),
-            Column::new("Pump", 0.12, Align::Left),
+            Column::new("Pump", 0.10, Align::Left),
             Column::new("Quantity", 0.22, Align::Left),
-            Column::new("Before", 0.17, Align::Right),
-            Column::new("After", 0.17, Align::Right),
+            Column::new("Before", 0.18, Align::Right),
+            Column::new("After", 0.18, Align::Right),
             Column::new("Change", 0.16, Align::Right),
         ],
         rows: ch.results.clone(),
         caption: None,
     });
+    b.push(Block::heading(2, "Checks whose status changed"));
+    if ch.checks.is_empty() {
+        b.push(Block::text("No check changed its status."));
+    } else {
+        b.push(Block::Table {
+            columns: vec![
+                Column::new("Case", 0.13, Align::Left),
+                Column::new("Pump", 0.08, Align::Left),
+                Column::new("Check", 0.20, Align::Left),
+                Column::new("Before", 0.08, Align::Left),
+                Column::new("After", 0.08, Align::Left),
+                Column::new("Finding now", 0.43, Align::Left),
+            ],
+            rows: ch.checks.clone(),
+            caption: None,
+        });
+    }
+    b.push(Block::text(ch.recommendation.clone()));
 }
 
 fn design_basis(b: &mut Vec<Block>, d: &Design, a: &Analysis, u: &Units) {
@@ -412,8 +433,15 @@ fn method(b: &mut Vec<Block>, d: &Design) {
     let _ = d;
 }
 
-fn palette_index(i: usize) -> usize {
-    i
+/// Cases per system-curve table and per plot, so columns and legends stay legible.
+pub const CASES_PER_GROUP: usize = 6;
+
+fn group_label(k: usize, groups: usize) -> String {
+    if groups > 1 {
+        format!(" (part {} of {groups})", k + 1)
+    } else {
+        String::new()
+    }
 }
 
 fn system_curves(b: &mut Vec<Block>, a: &Analysis, u: &Units) {
@@ -424,64 +452,70 @@ fn system_curves(b: &mut Vec<Block>, a: &Analysis, u: &Units) {
         .iter()
         .filter(|c| !c.system_curve.is_empty())
         .collect();
-    let mut columns = vec![Column::new(
-        format!("Flow ({})", fl.label),
-        0.16,
-        Align::Right,
-    )];
-    let w = 0.84 / cases.len().max(1) as f64;
-    for c in &cases {
-        columns.push(Column::new(
-            format!("{} ({})", c.name, hd.label),
-            w,
+    let groups = cases.len().div_ceil(CASES_PER_GROUP).max(1);
+    for (k, group) in cases.chunks(CASES_PER_GROUP).enumerate() {
+        let mut columns = vec![Column::new(
+            format!("Flow ({})", fl.label),
+            0.16,
             Align::Right,
-        ));
-    }
-    let n = cases.first().map(|c| c.system_curve.len()).unwrap_or(0);
-    let rows: Vec<Vec<String>> = (0..n)
-        .step_by(2)
-        .map(|i| {
-            let mut r = vec![fl.num(cases[0].system_curve[i].flow)];
-            for c in &cases {
-                r.push(
-                    c.system_curve
-                        .get(i)
-                        .map(|p| hd.num(p.head))
-                        .unwrap_or_default(),
-                );
-            }
-            r
-        })
-        .collect();
-    b.push(Block::Table {
-        columns,
-        rows,
-        caption: Some("System head against flow, every case".into()),
-    });
-    let chart = Chart {
-        x_label: format!("Flow ({})", fl.label),
-        y_label: format!("Head ({})", hd.label),
-        series: cases
-            .iter()
-            .enumerate()
-            .map(|(i, c)| Series {
-                name: format!("system, {}", c.name),
-                points: c
-                    .system_curve
-                    .iter()
-                    .map(|p| (fl.value(p.flow), hd.value(p.head)))
-                    .collect(),
-                style_index: palette_index(i),
-                ..Default::default()
+        )];
+        let w = 0.84 / group.len().max(1) as f64;
+        for c in group {
+            columns.push(Column::new(
+                format!("{} ({})", c.name, hd.label),
+                w,
+                Align::Right,
+            ));
+        }
+        let n = group[0].system_curve.len();
+        let rows: Vec<Vec<String>> = (0..n)
+            .step_by(2)
+            .map(|i| {
+                let mut r = vec![fl.num(group[0].system_curve[i].flow)];
+                for c in group {
+                    r.push(
+                        c.system_curve
+                            .get(i)
+                            .map(|p| hd.num(p.head))
+                            .unwrap_or_default(),
+                    );
+                }
+                r
             })
-            .collect(),
-        ..Default::default()
-    };
-    b.push(Block::Figure {
-        chart,
-        height_mm: 95.0,
-        caption: "System curves of all cases".into(),
-    });
+            .collect();
+        b.push(Block::Table {
+            columns,
+            rows,
+            caption: Some(format!(
+                "System head against flow{}",
+                group_label(k, groups)
+            )),
+        });
+        let chart = Chart {
+            x_label: format!("Flow ({})", fl.label),
+            y_label: format!("Head ({})", hd.label),
+            series: group
+                .iter()
+                .enumerate()
+                .map(|(i, c)| Series {
+                    name: format!("system, {}", c.name),
+                    points: c
+                        .system_curve
+                        .iter()
+                        .map(|p| (fl.value(p.flow), hd.value(p.head)))
+                        .collect(),
+                    style_index: i,
+                    ..Default::default()
+                })
+                .collect(),
+            ..Default::default()
+        };
+        b.push(Block::Figure {
+            chart,
+            height_mm: 95.0,
+            caption: format!("System curves{}", group_label(k, groups)),
+        });
+    }
 }
 
 fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) {
@@ -630,185 +664,191 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
         .iter()
         .filter_map(|c| c.pumps.get(i).map(|r| (c, r)))
         .collect();
-    let mut series = Vec::new();
-    let mut markers = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        series.push(Series {
-            name: format!("system, {}", c.name),
-            points: c
-                .system_curve
-                .iter()
-                .map(|p| (fl.value(p.flow), hd.value(p.head)))
-                .collect(),
-            style_index: k,
-            dashed: true,
-            ..Default::default()
-        });
-        let same_curve = k > 0 && results[k - 1].1.operating_curve == r.operating_curve;
-        if !same_curve && !r.operating_curve.is_empty() {
+    let all_results = results;
+    let groups = all_results.len().div_ceil(CASES_PER_GROUP).max(1);
+    for (gk, results) in all_results.chunks(CASES_PER_GROUP).enumerate() {
+        let part = group_label(gk, groups);
+        let mut series = Vec::new();
+        let mut markers = Vec::new();
+        for (k, (c, r)) in results.iter().enumerate() {
             series.push(Series {
-                name: format!(
-                    "pump {} at {:.0} rpm{}",
-                    p.name,
-                    r.speed_rpm,
-                    if results.len() > 1 {
-                        format!(" ({})", c.name)
-                    } else {
-                        String::new()
-                    }
-                ),
-                points: r
-                    .operating_curve
+                name: format!("system, {}", c.name),
+                points: c
+                    .system_curve
                     .iter()
-                    .map(|q| (fl.value(q.flow), hd.value(q.head)))
+                    .map(|p| (fl.value(p.flow), hd.value(p.head)))
                     .collect(),
-                style_index: k,
-                ..Default::default()
-            });
-        }
-        if let Some(d) = &r.duty {
-            markers.push(Marker {
-                x: fl.value(d.flow),
-                y: hd.value(d.head),
-                label: format!("{}: {} @ {}", c.name, fl.fmt(d.flow), hd.fmt(d.head)),
-                axis: YAxis::Left,
-            });
-        }
-    }
-    // Efficiency on the right axis (the published curve at rated speed).
-    if let Some(r) = results.first().map(|x| x.1) {
-        let eff: Vec<(f64, f64)> = r
-            .operating_curve
-            .iter()
-            .filter_map(|q| q.efficiency.map(|e| (fl.value(q.flow), e * 100.0)))
-            .collect();
-        if !eff.is_empty() {
-            series.push(Series {
-                name: format!("efficiency ({})", results[0].0.name),
-                points: eff,
-                axis: YAxis::Right,
-                style_index: 7,
-                ..Default::default()
-            });
-        }
-    }
-    b.push(Block::Figure {
-        chart: Chart { x_label: format!("Flow ({})", fl.label), y_label: format!("Head ({})", hd.label), y2_label: Some("Efficiency (%)".into()), y2_range: Some((0.0, 100.0)), series, points: markers, ..Default::default() },
-        height_mm: 110.0,
-        caption: format!("Pump {}: head curves as run in each case, system curves and duty points; efficiency on the right axis", p.name),
-    });
-    // NPSH plot.
-    let mut series = Vec::new();
-    let mut markers = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        let npshr: Vec<(f64, f64)> = r
-            .operating_curve
-            .iter()
-            .filter_map(|q| q.npshr.map(|n| (fl.value(q.flow), hd.value(n))))
-            .collect();
-        if !npshr.is_empty() && (k == 0 || results[k - 1].1.operating_curve != r.operating_curve) {
-            series.push(Series {
-                name: format!("NPSHr ({})", c.name),
-                points: npshr,
-                style_index: k,
-                ..Default::default()
-            });
-        }
-        if let Some(d) = &r.duty {
-            markers.push(Marker {
-                x: fl.value(d.flow),
-                y: hd.value(d.npsh_available),
-                label: format!("NPSHa {}: {}", c.name, hd.fmt(d.npsh_available)),
-                axis: YAxis::Left,
-            });
-        }
-    }
-    let npsha_curves: Vec<Series> = results
-        .iter()
-        .enumerate()
-        .filter_map(|(k, (c, _))| {
-            let pts: Vec<(f64, f64)> = c
-                .system_curve
-                .iter()
-                .zip(&c.npsh_available_curve)
-                .map(|(p, n)| (fl.value(p.flow), hd.value(*n)))
-                .collect();
-            (!pts.is_empty()).then(|| Series {
-                name: format!("NPSHa ({})", c.name),
-                points: pts,
                 style_index: k,
                 dashed: true,
                 ..Default::default()
-            })
-        })
-        .collect();
-    series.extend(npsha_curves);
-    b.push(Block::Figure {
-        chart: Chart {
-            x_label: format!("Flow ({})", fl.label),
-            y_label: format!("NPSH ({})", hd.label),
-            y_range: None,
-            series,
-            points: markers,
-            ..Default::default()
-        },
-        height_mm: 85.0,
-        caption: format!(
-            "Pump {}: NPSH required against NPSH available per case",
-            p.name
-        ),
-    });
-    // Power plot.
-    let mut series = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        if k > 0 && results[k - 1].1.operating_curve == r.operating_curve {
-            continue;
+            });
+            let same_curve = k > 0 && results[k - 1].1.operating_curve == r.operating_curve;
+            if !same_curve && !r.operating_curve.is_empty() {
+                series.push(Series {
+                    name: format!(
+                        "pump {} at {:.0} rpm{}",
+                        p.name,
+                        r.speed_rpm,
+                        if results.len() > 1 {
+                            format!(" ({})", c.name)
+                        } else {
+                            String::new()
+                        }
+                    ),
+                    points: r
+                        .operating_curve
+                        .iter()
+                        .map(|q| (fl.value(q.flow), hd.value(q.head)))
+                        .collect(),
+                    style_index: k,
+                    ..Default::default()
+                });
+            }
+            if let Some(d) = &r.duty {
+                markers.push(Marker {
+                    x: fl.value(d.flow),
+                    y: hd.value(d.head),
+                    label: format!("{}: {} @ {}", c.name, fl.fmt(d.flow), hd.fmt(d.head)),
+                    axis: YAxis::Left,
+                });
+            }
         }
-        let pts: Vec<(f64, f64)> = r
-            .operating_curve
+        // Efficiency on the right axis (the published curve at rated speed).
+        if let Some(r) = results.first().map(|x| x.1) {
+            let eff: Vec<(f64, f64)> = r
+                .operating_curve
+                .iter()
+                .filter_map(|q| q.efficiency.map(|e| (fl.value(q.flow), e * 100.0)))
+                .collect();
+            if !eff.is_empty() {
+                series.push(Series {
+                    name: format!("efficiency ({})", results[0].0.name),
+                    points: eff,
+                    axis: YAxis::Right,
+                    style_index: 7,
+                    ..Default::default()
+                });
+            }
+        }
+        b.push(Block::Figure {
+        chart: Chart { x_label: format!("Flow ({})", fl.label), y_label: format!("Head ({})", hd.label), y2_label: Some("Efficiency (%)".into()), y2_range: Some((0.0, 100.0)), series, points: markers, ..Default::default() },
+        height_mm: 110.0,
+        caption: format!("Pump {}: head curves as run in each case, system curves and duty points; efficiency on the right axis{part}", p.name),
+    });
+        // NPSH plot.
+        let mut series = Vec::new();
+        let mut markers = Vec::new();
+        for (k, (c, r)) in results.iter().enumerate() {
+            let npshr: Vec<(f64, f64)> = r
+                .operating_curve
+                .iter()
+                .filter_map(|q| q.npshr.map(|n| (fl.value(q.flow), hd.value(n))))
+                .collect();
+            if !npshr.is_empty()
+                && (k == 0 || results[k - 1].1.operating_curve != r.operating_curve)
+            {
+                series.push(Series {
+                    name: format!("NPSHr ({})", c.name),
+                    points: npshr,
+                    style_index: k,
+                    ..Default::default()
+                });
+            }
+            if let Some(d) = &r.duty {
+                markers.push(Marker {
+                    x: fl.value(d.flow),
+                    y: hd.value(d.npsh_available),
+                    label: format!("NPSHa {}: {}", c.name, hd.fmt(d.npsh_available)),
+                    axis: YAxis::Left,
+                });
+            }
+        }
+        let npsha_curves: Vec<Series> = results
             .iter()
-            .filter_map(|q| {
-                q.shaft_power
-                    .map(|w| (fl.value(q.flow), pw.value(w / p.count.max(1) as f64)))
+            .enumerate()
+            .filter_map(|(k, (c, _))| {
+                let pts: Vec<(f64, f64)> = c
+                    .system_curve
+                    .iter()
+                    .zip(&c.npsh_available_curve)
+                    .map(|(p, n)| (fl.value(p.flow), hd.value(*n)))
+                    .collect();
+                (!pts.is_empty()).then(|| Series {
+                    name: format!("NPSHa ({})", c.name),
+                    points: pts,
+                    style_index: k,
+                    dashed: true,
+                    ..Default::default()
+                })
             })
             .collect();
-        if !pts.is_empty() {
-            series.push(Series {
-                name: format!("shaft power per pump ({})", c.name),
-                points: pts,
-                style_index: k,
+        series.extend(npsha_curves);
+        b.push(Block::Figure {
+            chart: Chart {
+                x_label: format!("Flow ({})", fl.label),
+                y_label: format!("NPSH ({})", hd.label),
+                y_range: None,
+                series,
+                points: markers,
                 ..Default::default()
+            },
+            height_mm: 85.0,
+            caption: format!(
+                "Pump {}: NPSH required against NPSH available per case{part}",
+                p.name
+            ),
+        });
+        // Power plot.
+        let mut series = Vec::new();
+        for (k, (c, r)) in results.iter().enumerate() {
+            if k > 0 && results[k - 1].1.operating_curve == r.operating_curve {
+                continue;
+            }
+            let pts: Vec<(f64, f64)> = r
+                .operating_curve
+                .iter()
+                .filter_map(|q| {
+                    q.shaft_power
+                        .map(|w| (fl.value(q.flow), pw.value(w / p.count.max(1) as f64)))
+                })
+                .collect();
+            if !pts.is_empty() {
+                series.push(Series {
+                    name: format!("shaft power per pump ({})", c.name),
+                    points: pts,
+                    style_index: k,
+                    ..Default::default()
+                });
+            }
+        }
+        let mut hlines = Vec::new();
+        if let Some(Some(m)) = a.motors.get(i) {
+            hlines.push(HLine {
+                y: pw.value(m.rating_w),
+                label: format!("motor {}", m.rating_label),
+                axis: YAxis::Left,
+            });
+            hlines.push(HLine {
+                y: pw.value(m.rating_w * m.service_factor),
+                label: format!("rating × SF {:.2}", m.service_factor),
+                axis: YAxis::Left,
             });
         }
-    }
-    let mut hlines = Vec::new();
-    if let Some(Some(m)) = a.motors.get(i) {
-        hlines.push(HLine {
-            y: pw.value(m.rating_w),
-            label: format!("motor {}", m.rating_label),
-            axis: YAxis::Left,
-        });
-        hlines.push(HLine {
-            y: pw.value(m.rating_w * m.service_factor),
-            label: format!("rating × SF {:.2}", m.service_factor),
-            axis: YAxis::Left,
-        });
-    }
-    let per = p.count.max(1) as f64;
-    let markers: Vec<Marker> = results
-        .iter()
-        .filter_map(|(c, r)| {
-            let d = r.duty.as_ref()?;
-            let s = d.shaft_power?;
-            Some(Marker {
-                x: fl.value(d.flow),
-                y: pw.value(s / per),
-                label: format!("{}: {}", c.name, pw.fmt(s / per)),
-                axis: YAxis::Left,
+        let per = p.count.max(1) as f64;
+        let markers: Vec<Marker> = results
+            .iter()
+            .filter_map(|(c, r)| {
+                let d = r.duty.as_ref()?;
+                let s = d.shaft_power?;
+                Some(Marker {
+                    x: fl.value(d.flow),
+                    y: pw.value(s / per),
+                    label: format!("{}: {}", c.name, pw.fmt(s / per)),
+                    axis: YAxis::Left,
+                })
             })
-        })
-        .collect();
-    b.push(Block::Figure {
+            .collect();
+        b.push(Block::Figure {
         chart: Chart {
             x_label: format!("Flow of the arrangement ({})", fl.label),
             y_label: format!("Shaft power per pump ({})", pw.label),
@@ -819,10 +859,10 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
         },
         height_mm: 80.0,
         caption: format!(
-            "Pump {}: shaft power per pump along the curve, duty points and the motor rating",
-            p.name
-        ),
+            "Pump {}: shaft power per pump along the curve, duty points and the motor rating{part}", p.name),
     });
+    }
+    let results = all_results;
     // Duty table.
     b.push(Block::heading(2, format!("Duty points of {}", p.name)));
     let rows: Vec<Vec<String>> = results

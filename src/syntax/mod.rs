@@ -1,7 +1,10 @@
 //! Syntax: source text to a spanned tree, and the tree back to canonical text.
 
 pub mod ast;
+pub mod comments;
+pub mod format;
 pub mod parse;
 
 pub use ast::File;
+pub use format::format_source;
 pub use parse::{parse, source_from_bytes, MAX_NESTING, MAX_SOURCE_BYTES};

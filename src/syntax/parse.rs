@@ -103,9 +103,11 @@ fn check_nesting(source: &str) -> Option<Diagnostic> {
     None
 }
 
+/// The place of a pair, without the white space and comments the grammar skips
+/// after a rule's last token (so a statement's span ends at its last token).
 fn span(p: &Pair<Rule>) -> Span {
     let s = p.as_span();
-    Span::new(s.start(), s.end())
+    Span::new(s.start(), s.start() + super::comments::code_len(s.as_str()))
 }
 
 fn describe(rule: &Rule) -> &'static str {
