@@ -98,9 +98,17 @@ pub fn document(
 
     // 4. Purpose.
     b.push(Block::heading(1, "Purpose and scope"));
-    b.push(Block::text(design.purpose.clone().unwrap_or_else(|| {
-        "The design file states no purpose.".into()
-    })));
+    match &design.purpose {
+        // Paragraphs are separated by blank lines; line breaks inside one are the author's wrapping.
+        Some(text) => {
+            for para in text.split("\n\n").filter(|p| !p.trim().is_empty()) {
+                b.push(Block::text(
+                    para.split_whitespace().collect::<Vec<_>>().join(" "),
+                ));
+            }
+        }
+        None => b.push(Block::text("The design file states no purpose.")),
+    }
     b.push(Block::text(format!(
         "The calculation covers {} operating case(s) and {} pump candidate(s). Values are reported in {} units; the engine works in SI.",
         analysis.cases.len(),
