@@ -15,6 +15,8 @@ struct DutyParser;
 pub const MAX_SOURCE_BYTES: usize = 1 << 20;
 /// Deepest nesting of `(` and `{` accepted.
 pub const MAX_NESTING: usize = 32;
+/// Most terms in one sum or product (keeps expression trees shallow).
+pub const MAX_OPERANDS: usize = 64;
 
 /// Decode a file's bytes as UTF-8, or say where it is not.
 pub fn source_from_bytes(bytes: Vec<u8>) -> Result<String, Diagnostic> {
@@ -505,7 +507,20 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
                 Some(x) => expr(x, errors),
                 None => return empty_expr(sp),
             };
+            let mut operands = 1;
             while let (Some(op), Some(rhs)) = (it.next(), it.next()) {
+                operands += 1;
+                if operands > MAX_OPERANDS {
+                    errors.push(
+                        Diagnostic::error(
+                            "too-long",
+                            format!("an expression may have at most {MAX_OPERANDS} terms"),
+                            Some(sp),
+                        )
+                        .with_help("split it with `let` constants"),
+                    );
+                    return left;
+                }
                 let op = match op.as_str() {
                     "+" => BinaryOp::Add,
                     "-" | "−" => BinaryOp::Sub,
