@@ -103,7 +103,7 @@ struct DiskFiles {
 impl dutyline::FileAccess for DiskFiles {
     fn read_text(&self, path: &str) -> Result<String, String> {
         let p = self.base.join(path);
-        let bytes = std::fs::read(&p).map_err(|e| e.to_string())?;
+        let bytes = read_capped(&p).map_err(|e| e.to_string())?;
         if bytes.len() > dutyline::syntax::MAX_SOURCE_BYTES {
             return Err(format!(
                 "the file is larger than {} bytes",
@@ -148,19 +148,37 @@ fn main() -> ExitCode {
     }
 }
 
+/// Reads at most one byte more than `MAX_SOURCE_BYTES`, so that an enormous file (or an
+/// endless one such as `/dev/zero`) is refused without being loaded whole. `-` is
+/// standard input.
+fn read_capped(path: &Path) -> std::io::Result<Vec<u8>> {
+    use std::io::Read;
+    let mut bytes = Vec::new();
+    let cap = dutyline::syntax::MAX_SOURCE_BYTES as u64 + 1;
+    if path == Path::new("-") {
+        std::io::stdin().take(cap).read_to_end(&mut bytes)?;
+    } else {
+        std::fs::File::open(path)?
+            .take(cap)
+            .read_to_end(&mut bytes)?;
+    }
+    Ok(bytes)
+}
+
 /// Read a design file (or standard input for `-`), or print why not.
 fn read_source(path: &Path) -> Result<String, ExitCode> {
     let name = path.display().to_string();
-    let bytes = if path == Path::new("-") {
-        let mut buf = Vec::new();
-        std::io::Read::read_to_end(&mut std::io::stdin(), &mut buf).map(|_| buf)
-    } else {
-        std::fs::read(path)
-    }
-    .map_err(|e| {
+    let bytes = read_capped(path).map_err(|e| {
         eprintln!("error: cannot read `{name}`: {e}");
         ExitCode::from(2)
     })?;
+    if bytes.len() > dutyline::syntax::MAX_SOURCE_BYTES {
+        eprintln!(
+            "error[file-too-large]: `{name}` is larger than {} bytes, the limit for design files",
+            dutyline::syntax::MAX_SOURCE_BYTES
+        );
+        return Err(ExitCode::from(1));
+    }
     dutyline::syntax::source_from_bytes(bytes).map_err(|d| {
         eprint!("{}", diagnostics::render(&[d], &name, ""));
         ExitCode::from(1)
@@ -257,10 +275,17 @@ fn load_style(
     } else {
         base.join(&choice)
     };
-    let text = std::fs::read_to_string(&path).map_err(|e| {
-        eprintln!("error: `{choice}` is not a built-in style ({}) and cannot be read as a style file: {e}", Style::builtin_names().join(", "));
-        ExitCode::from(2)
-    })?;
+    let text = read_capped(&path)
+        .and_then(|b| {
+            if b.len() > dutyline::syntax::MAX_SOURCE_BYTES {
+                return Err(std::io::Error::other("the file is too large for a style file"));
+            }
+            String::from_utf8(b).map_err(|_| std::io::Error::other("the file is not UTF-8 text"))
+        })
+        .map_err(|e| {
+            eprintln!("error: `{choice}` is not a built-in style ({}) and cannot be read as a style file: {e}", Style::builtin_names().join(", "));
+            ExitCode::from(2)
+        })?;
     Style::from_toml(&text).map_err(|e| {
         eprintln!(
             "error[style]: {}\n  --> {}:{}:{}\n  = help: {}",

@@ -28,6 +28,8 @@ pub struct CandidateCurves {
     /// The curve evaluated (the chosen impeller at the curves' speed), and its trim ratio
     /// relative to that curve.
     pub evaluated: Option<(PumpCurves, f64)>,
+    /// Best efficiency point of the evaluated curve (before trim and speed), found once.
+    pub evaluated_bep: Option<pumps::Bep>,
     pub warnings: Vec<String>,
 }
 
@@ -76,11 +78,15 @@ impl CandidateCurves {
         }
         let good: Vec<&PumpCurves> = published.iter().filter_map(|r| r.as_ref().ok()).collect();
         let evaluated = choose(p, &good, &mut warnings);
+        let evaluated_bep = evaluated
+            .as_ref()
+            .and_then(|(c, _)| pumps::best_efficiency_point(c));
         CandidateCurves {
             name: p.name.clone(),
             span: p.span,
             published,
             evaluated,
+            evaluated_bep,
             warnings,
         }
     }
@@ -443,7 +449,12 @@ pub fn evaluate(
         1.0
     };
     let input_power = shaft_power.map(|s| s / motor_efficiency.0 / drive);
-    let bep = pumps::best_efficiency_point(base).map(|b| b.flow * scaled.flow_scale());
+    let bep = cc.evaluated_bep.map(|b| b.flow * scaled.flow_scale());
+    if let (crate::model::Fluid::Custom(_), Some(b)) = (&case.scenario.fluid, bep) {
+        let nu = sys.fluid.viscosity / sys.fluid.density;
+        let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
+        out.warnings.extend(w);
+    }
     let duty = Duty {
         flow: q,
         head: h,
@@ -470,23 +481,11 @@ pub fn evaluate(
             cost: design.energy.price_per_joule.map(|pr| pr * e),
         }
     });
-    for (i, regime, re) in sys.regimes(q) {
-        let seg = &sys.segments[i];
-        if regime == crate::hydraulics::friction::FlowRegime::Transitional {
-            out.warnings.push(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1));
-        }
-        if let Some(c) = seg.hazen_williams_c {
-            for w in crate::hydraulics::friction::hazen_williams_validity(
-                q / seg.area,
-                seg.inner_diameter,
-                c,
-                sys.fluid.temperature_k.unwrap_or(288.15),
-            ) {
-                out.warnings
-                    .push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
-            }
-        }
-    }
+    let custom_fluid = match &case.scenario.fluid {
+        crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
+        crate::model::Fluid::Water { .. } => None,
+    };
+    out.warnings.extend(sys.flow_warnings(q, custom_fluid));
     out.checks = checks::duty_checks(design, case, &duty, p);
     out.duty = Some(duty);
     out

@@ -152,24 +152,22 @@ pub fn analyse(design: &Design) -> Analysis {
     }
     for c in &mut cases {
         if let Some(s) = &c.system {
-            c.system_curve = (0..SYSTEM_CURVE_POINTS)
+            let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = (0..SYSTEM_CURVE_POINTS)
                 .map(|i| {
                     let q = flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64;
                     let l = s.losses(q);
-                    SystemPoint {
+                    let point = SystemPoint {
                         flow: q,
                         head: s.static_head + l.friction + l.minor,
                         static_head: s.static_head,
                         friction: l.friction,
                         minor: l.minor,
-                    }
+                    };
+                    (point, s.npsh_available_after(l.suction))
                 })
-                .collect();
-            c.npsh_available_curve = c
-                .system_curve
-                .iter()
-                .map(|p| s.npsh_available(p.flow))
-                .collect();
+                .unzip();
+            c.system_curve = curve;
+            c.npsh_available_curve = npsh;
         }
     }
     warnings.extend(system_warnings(design, &cases));

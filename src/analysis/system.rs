@@ -56,6 +56,10 @@ pub struct SegmentState {
     pub fittings: Vec<FittingState>,
     /// Sum of constant K values on this segment (fittings × count, and `loss { k }`).
     pub k_constant: f64,
+    /// The Reynolds-dependent fittings (2-K, 3-K) have K = K1/Re + K_fixed: the sums over
+    /// them of count × K1 and of count × K_fixed, so that a flow costs one division.
+    pub k_laminar_sum: f64,
+    pub k_fixed_sum: f64,
     /// Equivalent lengths of `loss { equivalent_length }`, m.
     pub equivalent_length: f64,
 }
@@ -195,9 +199,15 @@ impl CaseSystem {
                     equivalent_length +=
                         l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
                 }
+                let (mut k_laminar_sum, mut k_fixed_sum) = (0.0, 0.0);
                 for f in &fits {
+                    let n = f.count as f64;
                     if fittings::is_constant(f.spec) {
-                        k_constant += f.count as f64 * k_of(f, 1e6, d);
+                        k_constant += n * k_of(f, 1e6, d);
+                    } else {
+                        // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
+                        k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
+                        k_fixed_sum += n * k_of(f, 0.0, d);
                     }
                 }
                 segments.push(SegmentState {
@@ -215,6 +225,8 @@ impl CaseSystem {
                     hazen_williams_c: seg.hazen_williams_c,
                     fittings: fits,
                     k_constant,
+                    k_laminar_sum,
+                    k_fixed_sum,
                     equivalent_length,
                 });
             }
@@ -259,26 +271,35 @@ impl CaseSystem {
         let v = q / seg.area;
         let velocity_head = v * v / (2.0 * G);
         let re = self.reynolds(seg, q);
-        let f = self.friction(seg, q).f;
-        let wall = match seg.hazen_williams_c {
-            Some(c) => friction::hazen_williams_head_loss_m(q, seg.inner_diameter, seg.length, c),
-            None => f * seg.length / seg.inner_diameter * velocity_head,
-        };
-        let mut k = seg.k_constant;
-        for fit in &seg.fittings {
-            if !fittings::is_constant(fit.spec) {
-                k += fit.count as f64 * k_of(fit, re, seg.inner_diameter);
+        // Wall friction and equivalent lengths by the segment's one method; the Darcy
+        // friction factor is only solved for when Darcy-Weisbach is used.
+        let (wall, equivalent) = match seg.hazen_williams_c {
+            Some(c) => {
+                let d = seg.inner_diameter;
+                let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
+                let equivalent = if seg.equivalent_length > 0.0 {
+                    friction::hazen_williams_head_loss_m(q, d, seg.equivalent_length, c)
+                } else {
+                    0.0
+                };
+                (wall, equivalent)
             }
-        }
-        let equivalent = match seg.hazen_williams_c {
-            Some(c) if seg.equivalent_length > 0.0 => friction::hazen_williams_head_loss_m(
-                q,
-                seg.inner_diameter,
-                seg.equivalent_length,
-                c,
-            ),
-            _ => f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+            None => {
+                let f = self.friction(seg, q).f;
+                (
+                    f * seg.length / seg.inner_diameter * velocity_head,
+                    f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+                )
+            }
         };
+        // Σ count·(K1/Re + K_fixed) of the 2-K and 3-K fittings; like `k_value`, the
+        // K1/Re term is dropped at Re = 0.
+        let laminar = if re > 0.0 {
+            seg.k_laminar_sum / re
+        } else {
+            0.0
+        };
+        let k = seg.k_constant + seg.k_fixed_sum + laminar;
         (wall, k * velocity_head + equivalent)
     }
 
@@ -307,9 +328,15 @@ impl CaseSystem {
     /// suction losses, minus the vapour-pressure head (ANSI/HI 9.6.1; Karassik et al.,
     /// *Pump Handbook*, 4th ed., ch. 2).
     pub fn npsh_available(&self, q: f64) -> f64 {
+        self.npsh_available_after(self.losses(q).suction)
+    }
+
+    /// NPSH available, m, for a suction-line loss already computed (see
+    /// [`CaseSystem::npsh_available`]).
+    pub fn npsh_available_after(&self, suction_loss: f64) -> f64 {
         let rho_g = self.fluid.density * G;
         self.source_abs_pa / rho_g + (self.source_level - self.centreline)
-            - self.losses(q).suction
+            - suction_loss
             - self.fluid.vapor_pressure / rho_g
     }
 
@@ -320,6 +347,42 @@ impl CaseSystem {
             Side::Discharge => self.segments.iter().find(|s| s.side == Side::Discharge),
         }?;
         Some(q / seg.area)
+    }
+
+    /// Validity warnings at flow q, one per segment and remark: the laminar-turbulent
+    /// transition, Darcy-Weisbach beyond Moody's (1944) chart, and Hazen-Williams outside
+    /// its range (water only: `custom_fluid` names a liquid that is not water).
+    pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>) -> Vec<String> {
+        let mut out = Vec::new();
+        for (i, regime, re) in self.regimes(q) {
+            let seg = &self.segments[i];
+            if regime == FlowRegime::Transitional {
+                out.push(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1));
+            }
+            if let Some(c) = seg.hazen_williams_c {
+                let mut ws = friction::hazen_williams_validity(
+                    q / seg.area,
+                    seg.inner_diameter,
+                    c,
+                    self.fluid.temperature_k.unwrap_or(288.15),
+                );
+                if let Some(name) = custom_fluid {
+                    ws.push(format!("Hazen-Williams is fitted to water, not to `{name}`; use Darcy-Weisbach with Colebrook"));
+                }
+                for w in ws {
+                    out.push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
+                }
+            } else if regime != FlowRegime::Laminar {
+                // Beyond Moody's chart (Re > 1e8, eps/D > 0.05). The first warning of
+                // `friction_warnings` in the transition is the one given just above.
+                let rr = seg.roughness / seg.inner_diameter;
+                let skip = usize::from(regime == FlowRegime::Transitional);
+                for w in friction::friction_warnings(re, rr).into_iter().skip(skip) {
+                    out.push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
+                }
+            }
+        }
+        out
     }
 
     /// The regimes met at flow q, with the segment each occurs in.

@@ -202,9 +202,11 @@ pub fn lower_pump(
             "speed = 1780 rpm",
         ));
     }
+    let mut curve_written = false;
     for st in &f.rest {
         match &st.kind {
             StatementKind::Curve { args, table, .. } => {
+                curve_written = true;
                 if p.curves.len() >= MAX_CURVES {
                     diags.push(Diagnostic::error(
                         "too-many",
@@ -235,7 +237,8 @@ pub fn lower_pump(
             ),
         }
     }
-    if p.curves.is_empty() {
+    // A curve that failed has its own error; only a pump without any is missing one.
+    if !curve_written {
         diags.push(missing(
             "curve",
             &format!("pump {name}"),

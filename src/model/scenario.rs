@@ -473,6 +473,16 @@ pub fn lower_pipe(
             diags.push(d);
         }
     }
+    if let Some(l) = f.get("length").filter(|_| seg.length.get::<meter>() == 0.0) {
+        diags.push(
+            Diagnostic::warning(
+                "zero-length",
+                "a pipe of zero length: no wall friction is counted; its fittings and losses still use its bore",
+                Some(l.value.span),
+            )
+            .with_help("give the pipe's length, or keep it at zero only to carry fittings"),
+        );
+    }
     Some(seg)
 }
 

@@ -2,7 +2,7 @@
 
 use super::PumpError;
 
-/// Number of grid intervals scanned for sign changes by [`solve_duty`].
+/// Number of grid intervals on which [`solve_duty`] samples the pump curve for crossings.
 pub const DUTY_GRID_INTERVALS: usize = 200;
 /// Relative tolerance on flow of each duty root.
 pub const DUTY_REL_TOL: f64 = 1e-10;
@@ -208,10 +208,18 @@ pub fn brent(
 /// `q_end` is the end of the pump data domain times the extrapolation factor the
 /// caller allows (1.0 to stay on the published curve, 1.1 to allow 10 %).
 ///
-/// Method: g(q) = pump − system is sampled on [`DUTY_GRID_INTERVALS`] equal intervals;
-/// each interval with a sign change (or a grid node where g = 0) holds a crossing, which
-/// [`brent`] refines to [`DUTY_REL_TOL`] relative in q within [`DUTY_MAX_ITER`]
-/// iterations. Two crossings closer together than one grid interval can be missed.
+/// Precondition: `system_head` does not fall with flow. Every system curve meets it
+/// (static head plus losses that grow with flow); the engine's is tested for it across
+/// all flow regimes. `pump_head` may have any shape.
+///
+/// Method: the pump head is sampled on [`DUTY_GRID_INTERVALS`] equal intervals. Where it
+/// does not rise from one node to the next, g(q) = pump − system cannot rise either, so a
+/// run of such intervals holds at most one crossing and g is needed only at the run's
+/// ends; where the pump head rises (a drooping curve), g is sampled at every node. Each
+/// bracket with a sign change (or a node where g = 0) holds a crossing, which [`brent`]
+/// refines to [`DUTY_REL_TOL`] relative in q within [`DUTY_MAX_ITER`] iterations. Two
+/// crossings closer together than one grid interval can be missed. For a falling pump
+/// curve this costs two system evaluations plus Brent's, instead of one per node.
 ///
 /// Outcome:
 /// - the pump is still above the system at q_end → [`DutyOutcome::CurveEndsBeforeSystem`];
@@ -234,36 +242,52 @@ pub fn solve_duty(
         };
     }
     let g = |q: f64| pump_head(q) - system_head(q);
-    let grid: Vec<f64> = (0..=DUTY_GRID_INTERVALS)
-        .map(|i| q_end * i as f64 / DUTY_GRID_INTERVALS as f64)
+    let node = |i: usize| q_end * i as f64 / DUTY_GRID_INTERVALS as f64;
+    let pump: Vec<f64> = (0..=DUTY_GRID_INTERVALS)
+        .map(|i| pump_head(node(i)))
         .collect();
-    let values: Vec<f64> = grid.iter().map(|&q| g(q)).collect();
-    if let Some(i) = values.iter().position(|v| !v.is_finite()) {
-        return DutyOutcome::NoSolution {
-            message: format!(
-                "the pump or system head is not finite at {} m3/s (pump {}, system {})",
-                grid[i],
-                pump_head(grid[i]),
-                system_head(grid[i])
-            ),
-        };
+    // The nodes where g is needed: both ends, and both ends of every interval over which
+    // the pump head rises (or is not finite, so that the error below names it).
+    let rises =
+        |i: usize| pump[i + 1] > pump[i] || !pump[i].is_finite() || !pump[i + 1].is_finite();
+    let nodes: Vec<usize> = (0..=DUTY_GRID_INTERVALS)
+        .filter(|&i| i == 0 || i == DUTY_GRID_INTERVALS || rises(i - 1) || rises(i))
+        .collect();
+    let mut values = Vec::with_capacity(nodes.len());
+    for &i in &nodes {
+        let v = g(node(i));
+        if !v.is_finite() {
+            return DutyOutcome::NoSolution {
+                message: format!(
+                    "the pump or system head is not finite at {} m3/s (pump {}, system {})",
+                    node(i),
+                    pump_head(node(i)),
+                    system_head(node(i))
+                ),
+            };
+        }
+        values.push(v);
     }
     let mut roots = Vec::new();
-    for i in 0..DUTY_GRID_INTERVALS {
-        let (g0, g1) = (values[i], values[i + 1]);
+    for k in 0..nodes.len() - 1 {
+        let (g0, g1) = (values[k], values[k + 1]);
+        let (q0, q1) = (node(nodes[k]), node(nodes[k + 1]));
         if g0 == 0.0 {
-            roots.push(grid[i]);
+            roots.push(q0);
         } else if g1 != 0.0 && (g0 > 0.0) != (g1 > 0.0) {
-            match brent(g, grid[i], grid[i + 1], DUTY_REL_TOL, DUTY_MAX_ITER) {
+            // Brent's tolerance is floored by its bracket width: scale it so that a bracket
+            // of several grid intervals is refined as finely as one interval would be.
+            let intervals = (nodes[k + 1] - nodes[k]) as f64;
+            match brent(g, q0, q1, DUTY_REL_TOL / intervals, DUTY_MAX_ITER) {
                 Ok(q) => roots.push(q),
                 Err(e) => return DutyOutcome::NoSolution { message: e.message },
             }
         }
     }
-    if values[DUTY_GRID_INTERVALS] == 0.0 {
+    let g_end = values[values.len() - 1];
+    if g_end == 0.0 {
         roots.push(q_end);
     }
-    let g_end = values[DUTY_GRID_INTERVALS];
     if g_end > 0.0 {
         return DutyOutcome::CurveEndsBeforeSystem {
             end_flow: q_end,
@@ -328,6 +352,37 @@ mod tests {
         let (q, h) = out.point().expect("point");
         assert!((q - 0.02).abs() < 1e-12);
         assert!((h - 30.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn falling_pump_needs_few_system_evaluations() {
+        let calls = std::cell::Cell::new(0usize);
+        let system = |q: f64| {
+            calls.set(calls.get() + 1);
+            10.0 + 20_000.0 * q * q
+        };
+        // pump 50 − 5000 q² meets 10 + 20 000 q² at q = 0.04 (h = 42).
+        let out = solve_duty(&|q| 50.0 - 5000.0 * q * q, &system, 0.08);
+        let (q, h) = out.point().expect("point");
+        assert!((q - 0.04).abs() < 1e-13 && (h - 42.0).abs() < 1e-9);
+        assert!(calls.get() < 30, "{} system evaluations", calls.get());
+    }
+
+    #[test]
+    fn drooping_pump_finds_both_crossings() {
+        // pump 40 + 400 q − 10 000 q² (peak 44 m at 0.02) against a flat 42 m system:
+        // crossings at q = 0.02 ∓ √0.0002.
+        let out = solve_duty(&|q| 40.0 + 400.0 * q - 10_000.0 * q * q, &|_| 42.0, 0.05);
+        let DutyOutcome::Point {
+            all_flows, flow, ..
+        } = out
+        else {
+            panic!("{out:?}");
+        };
+        let d = 0.0002f64.sqrt();
+        assert_eq!(all_flows.len(), 2);
+        assert!((all_flows[0] - (0.02 - d)).abs() < 1e-11, "{all_flows:?}");
+        assert!((flow - (0.02 + d)).abs() < 1e-11, "{flow}");
     }
 
     #[test]

@@ -20,6 +20,7 @@
 //! - [`duty`]: the pump/system intersection ([`solve_duty`]) and Brent's root finder.
 //! - [`motor`]: NEMA MG 1 and IEC 60072-1 standard ratings and motor selection.
 //! - [`energy`]: hydraulic, shaft and input power; annual energy; present worth.
+//! - [`viscous`]: whether a viscous liquid needs the water curve corrected (ANSI/HI 9.6.7).
 
 pub mod affinity;
 pub mod arrangement;
@@ -31,6 +32,7 @@ pub mod fit;
 pub mod lsq;
 pub mod motor;
 pub mod spline;
+pub mod viscous;
 
 pub use affinity::{speed_for_duty, trim_for_duty, ScaledPump, SpeedForDuty};
 pub use arrangement::{combined_head, ArrangedPump, Arrangement};
@@ -45,6 +47,7 @@ pub use fit::{fit, FitMethod, FitResiduals, FittedCurve, Quantity};
 pub use motor::{
     default_service_factor, select_motor, standard_ratings_w, MotorChoice, MotorStandard,
 };
+pub use viscous::{viscosity_parameter_b, viscosity_warning};
 
 use std::fmt;
 

@@ -32,6 +32,9 @@ pub fn render_pdf(
     layout::render(&doc, style).map_err(|e| e.to_string())
 }
 
+/// A quantity of the changes table: its name, its change and how to show a value.
+type Quantity<'a> = (&'a str, &'a crate::diff::NumberChange, &'a dyn Fn(f64) -> String);
+
 /// The changes section's content from a diff, in the new design's report units.
 pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections::Changes {
     let u = crate::display::Units::new(d.report_units);
@@ -39,7 +42,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
     let mut rows = Vec::new();
     let cell = |v: Option<f64>, f: &dyn Fn(f64) -> String| v.map(f).unwrap_or_else(|| "—".into());
     for r in &d.results.rows {
-        let quantities: [(&str, &crate::diff::NumberChange, &dyn Fn(f64) -> String); 5] = [
+        let quantities: [Quantity; 5] = [
             ("duty flow", &r.flow_m3_s, &|v| fl.fmt(v)),
             ("duty head", &r.head_m, &|v| hd.fmt(v)),
             ("efficiency", &r.efficiency, &|v| crate::display::percent(v)),

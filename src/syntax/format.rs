@@ -250,7 +250,7 @@ impl<'a> Printer<'a> {
                 }
                 text.push_str(cell);
                 let pad = widths[j].saturating_sub(cell.chars().count());
-                text.extend(std::iter::repeat(' ').take(pad));
+                text.extend(std::iter::repeat_n(' ', pad));
             }
             let end = self.tight_end(*span);
             self.emit(depth, text.trim_end(), end, limit);

@@ -135,7 +135,9 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     line.clear();
                 }
                 let mut rest: &[Glyph] = &w;
-                while rest.iter().map(|g| g.width).sum::<f64>() > max_width {
+                // Each pass takes at least one glyph, so the loop ends even when
+                // `max_width` is negative (an empty rest is never "too wide").
+                while !rest.is_empty() && rest.iter().map(|g| g.width).sum::<f64>() > max_width {
                     let n = fit_count(rest, max_width);
                     lines.push(finish(fonts, &rest[..n]));
                     rest = &rest[n..];
@@ -185,8 +187,10 @@ pub fn break_preformatted(
     let mut lines = Vec::new();
     let mut rest: &[Glyph] = &glyphs;
     let mut width = first_width;
+    // Each pass takes at least one glyph (`fit_count`), and an empty rest ends the loop,
+    // so it runs at most once per glyph, whatever the widths (negative or NaN included).
     loop {
-        if rest.iter().map(|g| g.width).sum::<f64>() <= width {
+        if rest.is_empty() || rest.iter().map(|g| g.width).sum::<f64>() <= width {
             lines.push(finish_keep_spaces(fonts, rest));
             return lines;
         }
@@ -310,6 +314,19 @@ mod tests {
         assert_eq!(lines.len(), 1);
         assert_eq!(lines[0].text(), "Flow: 12 m³/h");
         assert_eq!(lines[0].runs[0].face, Face::Bold);
+    }
+
+    #[test]
+    fn degenerate_widths_still_end() {
+        let f = fonts().expect("fonts");
+        for width in [-10.0, 0.0, f64::NAN] {
+            let lines = wrap_plain(f, "abc defgh", Face::Regular, 10.0, width);
+            let text: String = lines.iter().map(Line::text).collect();
+            assert_eq!(text.replace(' ', ""), "abcdefgh", "width {width}");
+            let pieces = break_preformatted(f, "abc", Face::Mono, 8.0, width, width);
+            let text: String = pieces.iter().map(Line::text).collect();
+            assert_eq!(text, "abc", "width {width}");
+        }
     }
 
     #[test]
