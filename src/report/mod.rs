@@ -33,7 +33,11 @@ pub fn render_pdf(
 }
 
 /// A quantity of the changes table: its name, its change and how to show a value.
-type Quantity<'a> = (&'a str, &'a crate::diff::NumberChange, &'a dyn Fn(f64) -> String);
+type Quantity<'a> = (
+    &'a str,
+    &'a crate::diff::NumberChange,
+    &'a dyn Fn(f64) -> String,
+);
 
 /// The changes section's content from a diff, in the new design's report units.
 pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections::Changes {
