@@ -132,14 +132,23 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
             } else {
                 Status::Pass
             };
-            let mut msg = format!(
-                "NPSH available {} is {:.2} times the NPSH required {} (limit {:.2}); excess {}",
-                hd.fmt(d.npsh_available),
-                ratio,
-                hd.fmt(nr),
-                ratio_limit,
-                hd.fmt(excess)
-            );
+            let mut msg = if d.npsh_available <= 0.0 {
+                format!(
+                    "NPSH available is {} (zero or negative): the liquid boils before it reaches the impeller; NPSH required {} (limit ratio {:.2})",
+                    hd.fmt(d.npsh_available),
+                    hd.fmt(nr),
+                    ratio_limit
+                )
+            } else {
+                format!(
+                    "NPSH available {} is {:.2} times the NPSH required {} (limit {:.2}); excess {}",
+                    hd.fmt(d.npsh_available),
+                    ratio,
+                    hd.fmt(nr),
+                    ratio_limit,
+                    hd.fmt(excess)
+                )
+            };
             if d.npsh_available <= nr {
                 msg.push_str(": the pump will cavitate");
             }

@@ -434,6 +434,7 @@ fn method(b: &mut Vec<Block>, d: &Design) {
         "Affinity laws: at speed ratio r, Q ∝ r, H ∝ r², P ∝ r³, efficiency unchanged; NPSHr ∝ r² (common practice). Impeller trim uses the constant-width trim law (Q ∝ D, H ∝ D², P ∝ D³), an approximation to be confirmed by the manufacturer. Identical pumps in parallel share the flow (H(Q/n)); in series they add head (n·H(Q)).",
         "Duty point: the largest-flow crossing of pump (or arrangement) head and system head, found by a 200-interval scan and Brent's (1973) method to 10⁻¹⁰ relative. Variable-speed pumps are set to the speed that meets the case's flow requirement.",
         "NPSH available = p_abs,surface/(ρg) + (z_surface − z_centreline) − h_suction losses − p_vapour/(ρg) (ANSI/HI 9.6.1). Power: hydraulic ρ·g·Q·H, shaft = hydraulic / η_pump, input = shaft / (η_motor·η_drive). Energy per year = input power × hours of each case; life-cycle energy cost as the present worth of a uniform series, discounted at the stated rate with escalation (Hydraulic Institute and Europump, Pump Life Cycle Costs, 2001).",
+        "Viscous liquids: for a liquid other than water the pump-performance viscosity parameter B of ANSI/HI 9.6.7 is computed at each duty; above B = 1 a warning asks for the viscosity correction of head, flow and efficiency, which this calculation does not apply to the published water curves.",
     ];
     for p in paras {
         b.push(Block::text(p));
