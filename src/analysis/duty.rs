@@ -30,6 +30,9 @@ pub struct CandidateCurves {
     pub evaluated: Option<(PumpCurves, f64)>,
     /// Best efficiency point of the evaluated curve (before trim and speed), found once.
     pub evaluated_bep: Option<pumps::Bep>,
+    /// Each usable published curve's head fit sampled over its data range (flow m³/s,
+    /// head m), at its published speed, for plots of the whole impeller family.
+    pub published_head_samples: Vec<Vec<(f64, f64)>>,
     pub warnings: Vec<String>,
 }
 
@@ -81,12 +84,25 @@ impl CandidateCurves {
         let evaluated_bep = evaluated
             .as_ref()
             .and_then(|(c, _)| pumps::best_efficiency_point(c));
+        let published_head_samples = good
+            .iter()
+            .map(|c| {
+                let (a, b) = c.head.domain();
+                (0..PUMP_CURVE_POINTS)
+                    .map(|i| {
+                        let q = a + (b - a) * i as f64 / (PUMP_CURVE_POINTS - 1) as f64;
+                        (q, c.head.eval(q))
+                    })
+                    .collect()
+            })
+            .collect();
         CandidateCurves {
             name: p.name.clone(),
             span: p.span,
             published,
             evaluated,
             evaluated_bep,
+            published_head_samples,
             warnings,
         }
     }

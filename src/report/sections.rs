@@ -722,6 +722,40 @@ fn candidate(b: &mut Vec<Block>, d: &Design, a: &Analysis, i: usize, u: &Units) 
                 });
             }
         }
+        // The whole published family (each impeller or speed), thin and dotted, when there are several.
+        let cc = &a.candidates[i];
+        if cc.published_head_samples.len() > 1 {
+            let good: Vec<&crate::model::CurveData> = p
+                .curves
+                .iter()
+                .zip(&cc.published)
+                .filter(|(_, r)| r.is_ok())
+                .map(|(c, _)| c)
+                .collect();
+            for (data, pts) in good.iter().zip(&cc.published_head_samples) {
+                let label = match data.impeller {
+                    Some(dm) => format!(
+                        "published {} at {:.0} rpm",
+                        u.diameter().fmt(dm.get::<uom::si::length::meter>()),
+                        data.speed.get::<uom::si::frequency::cycle_per_minute>()
+                    ),
+                    None => format!(
+                        "published at {:.0} rpm",
+                        data.speed.get::<uom::si::frequency::cycle_per_minute>()
+                    ),
+                };
+                series.push(Series {
+                    name: label,
+                    points: pts
+                        .iter()
+                        .map(|(q, h)| (fl.value(*q), hd.value(*h)))
+                        .collect(),
+                    style_index: 6,
+                    dashed: true,
+                    ..Default::default()
+                });
+            }
+        }
         // Efficiency on the right axis (the published curve at rated speed).
         if let Some(r) = results.first().map(|x| x.1) {
             let eff: Vec<(f64, f64)> = r
