@@ -37,7 +37,7 @@
 mod table;
 
 use crate::hydraulics::catalogue::darby_nominal_diameter_in;
-use crate::hydraulics::nearest::nearest_by_edit_distance;
+use crate::names::nearest_within as nearest_by_edit_distance;
 
 use table::FITTINGS;
 

@@ -3,5 +3,4 @@
 pub mod catalogue;
 pub mod fittings;
 pub mod friction;
-pub(crate) mod nearest;
 pub mod roughness;

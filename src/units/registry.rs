@@ -222,14 +222,13 @@ pub(crate) fn is_currency(def: &UnitDef) -> bool {
 /// Nearest known unit names to an unknown one (edit distance, case-insensitive), best first,
 /// at most 3. Names farther than 2 edits (1 for names of up to 2 characters) are not offered.
 pub fn suggest(name: &str) -> Vec<String> {
-    let wanted: Vec<char> = name.to_lowercase().chars().collect();
-    let limit = if wanted.len() <= 2 { 1 } else { 2 };
+    let wanted = name.to_lowercase().chars().count();
+    let limit = if wanted <= 2 { 1 } else { 2 };
     let mut scored: Vec<(usize, usize, &str)> = REGISTRY
         .iter()
         .filter_map(|d| {
-            let cand: Vec<char> = d.name.to_lowercase().chars().collect();
-            let dist = edit_distance(&wanted, &cand);
-            let length_gap = cand.len().abs_diff(wanted.len());
+            let dist = crate::names::edit_distance(name, d.name);
+            let length_gap = d.name.to_lowercase().chars().count().abs_diff(wanted);
             (dist <= limit).then_some((dist, length_gap, d.name))
         })
         .collect();
@@ -239,30 +238,6 @@ pub fn suggest(name: &str) -> Vec<String> {
         .take(3)
         .map(|s| s.2.to_string())
         .collect()
-}
-
-/// Optimal string alignment distance (Levenshtein plus adjacent transpositions).
-fn edit_distance(a: &[char], b: &[char]) -> usize {
-    let mut rows = vec![vec![0usize; b.len() + 1]; a.len() + 1];
-    for (i, row) in rows.iter_mut().enumerate() {
-        row[0] = i;
-    }
-    for (j, cell) in rows[0].iter_mut().enumerate() {
-        *cell = j;
-    }
-    for i in 1..=a.len() {
-        for j in 1..=b.len() {
-            let cost = usize::from(a[i - 1] != b[j - 1]);
-            let mut best = (rows[i - 1][j] + 1)
-                .min(rows[i][j - 1] + 1)
-                .min(rows[i - 1][j - 1] + cost);
-            if i > 1 && j > 1 && a[i - 1] == b[j - 2] && a[i - 2] == b[j - 1] {
-                best = best.min(rows[i - 2][j - 2] + 1);
-            }
-            rows[i][j] = best;
-        }
-    }
-    rows[a.len()][b.len()]
 }
 
 #[cfg(test)]
@@ -291,17 +266,5 @@ mod tests {
         assert_eq!(suggest("psig").first().map(String::as_str), Some("psig"));
         assert!(suggest("zzzzzzzz").is_empty());
         assert!(suggest("").len() <= 3);
-    }
-
-    #[test]
-    fn edit_distance_counts_edits() {
-        let d = |a: &str, b: &str| {
-            let (a, b): (Vec<char>, Vec<char>) = (a.chars().collect(), b.chars().collect());
-            edit_distance(&a, &b)
-        };
-        assert_eq!(d("gmp", "gpm"), 1);
-        assert_eq!(d("kitten", "sitting"), 3);
-        assert_eq!(d("", "abc"), 3);
-        assert_eq!(d("psi", "psi"), 0);
     }
 }

@@ -7,7 +7,7 @@ use super::nominal::{
 use super::nonsteel as ns;
 use super::steel as st;
 use super::{CatalogueError, Material, PipeSize};
-use crate::hydraulics::nearest::{edit_distance, nearest_by_edit_distance};
+use crate::names::{edit_distance, nearest_within as nearest_by_edit_distance};
 
 /// Metres per inch, exact (NIST SP 811, Appendix B).
 const METRES_PER_INCH: f64 = 0.0254;
