@@ -103,3 +103,28 @@ pub fn missing(field: &str, block: &str, span: Span, example: &str) -> Diagnosti
     .with_label(format!("`{field}` is missing"))
     .with_help(format!("add a line such as `{example}`"))
 }
+
+/// The name a block starts with (`tank sump`, `case dry`, `pump P1`), or a diagnostic
+/// saying the `what` needs one, with an example.
+pub fn block_name<'a>(
+    args: &'a [crate::syntax::ast::Arg],
+    span: Span,
+    code: &'static str,
+    what: &str,
+    example: &str,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<(&'a String, Span)> {
+    match args.first() {
+        Some(crate::syntax::ast::Arg {
+            kind: crate::syntax::ast::ArgKind::Word(name),
+            span,
+        }) => Some((name, *span)),
+        _ => {
+            diags.push(
+                Diagnostic::error(code, format!("{what} needs a name"), Some(span))
+                    .with_help(format!("write `{example}`")),
+            );
+            None
+        }
+    }
+}

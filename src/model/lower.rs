@@ -5,7 +5,7 @@ use uom::si::{length::meter, time::second};
 
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, Env};
-use super::fields::{missing, read_fields};
+use super::fields::{block_name, missing, read_fields};
 use super::scenario::{self, expect_length, lower_fluid, lower_segments};
 use super::{pumps, FileAccess};
 use crate::diagnostics::{Diagnostic, Span};
@@ -259,22 +259,21 @@ pub fn lower(
 
     let mut tanks: Vec<Tank> = Vec::new();
     for (_, args, body, span) in of("tank") {
-        let Some(Arg {
-            kind: ArgKind::Word(name),
-            span: name_span,
-        }) = args.first()
-        else {
-            d.push(
-                Diagnostic::error("bad-tank", "a tank needs a name", Some(*span))
-                    .with_help("write `tank sump { level = 101.2 m }`"),
-            );
+        let Some((name, name_span)) = block_name(
+            args,
+            *span,
+            "bad-tank",
+            "a tank",
+            "tank sump { level = 101.2 m }",
+            &mut d,
+        ) else {
             continue;
         };
         if name == "pump" {
             d.push(Diagnostic::error(
                 "reserved-name",
                 "`pump` names the pump end of a line; choose another tank name",
-                Some(*name_span),
+                Some(name_span),
             ));
             continue;
         }
@@ -283,7 +282,7 @@ pub fn lower(
                 Diagnostic::error(
                     "duplicate-name",
                     format!("tank `{name}` is defined twice"),
-                    Some(*name_span),
+                    Some(name_span),
                 )
                 .with_secondary(prev.span, "first defined here"),
             );
@@ -293,7 +292,7 @@ pub fn lower(
             name: name.clone(),
             level: Length::new::<meter>(0.0),
             surface_pressure: SurfacePressure::Gauge(scenario::pressure(0.0)),
-            span: *name_span,
+            span: name_span,
         };
         let f = read_fields(
             body.unwrap_or(empty),
@@ -528,15 +527,9 @@ pub fn lower(
     // Cases: the base plus overrides.
     let mut cases: Vec<Case> = Vec::new();
     for (_, args, body, span) in of("case") {
-        let Some(Arg {
-            kind: ArgKind::Word(name),
-            span: name_span,
-        }) = args.first()
+        let Some((name, name_span)) =
+            block_name(args, *span, "bad-case", "a case", "case normal { }", &mut d)
         else {
-            d.push(
-                Diagnostic::error("bad-case", "a case needs a name", Some(*span))
-                    .with_help("write `case normal { }`"),
-            );
             continue;
         };
         if let Some(prev) = cases.iter().find(|c| &c.name == name) {
@@ -544,7 +537,7 @@ pub fn lower(
                 Diagnostic::error(
                     "duplicate-name",
                     format!("case `{name}` is defined twice"),
-                    Some(*name_span),
+                    Some(name_span),
                 )
                 .with_secondary(prev.span, "first defined here"),
             );
@@ -587,7 +580,7 @@ pub fn lower(
             name: name.clone(),
             scenario: sc,
             overrides,
-            span: *name_span,
+            span: name_span,
         });
     }
     if cases.len() > MAX_CASES {

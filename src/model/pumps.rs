@@ -7,7 +7,7 @@ use uom::si::{
 
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, Env};
-use super::fields::{missing, read_fields};
+use super::fields::{block_name, missing, read_fields};
 use super::FileAccess;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::syntax::ast::{
@@ -49,19 +49,15 @@ pub fn lower_pump(
     files: &dyn FileAccess,
     diags: &mut Vec<Diagnostic>,
 ) -> Option<PumpCandidate> {
-    let name = match args.first() {
-        Some(Arg {
-            kind: ArgKind::Word(w),
-            ..
-        }) => w.clone(),
-        _ => {
-            diags.push(
-                Diagnostic::error("bad-pump", "a pump needs a name", Some(span))
-                    .with_help("write `pump P1 \"description\" { ... }`"),
-            );
-            return None;
-        }
-    };
+    let (name, _) = block_name(
+        args,
+        span,
+        "bad-pump",
+        "a pump",
+        "pump P1 \"description\" { ... }",
+        diags,
+    )?;
+    let name = name.clone();
     let description = match args.get(1) {
         Some(Arg {
             kind: ArgKind::Text(t),
