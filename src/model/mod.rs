@@ -12,26 +12,109 @@ pub use design::*;
 pub use lower::{lower, MAX_CASES, MAX_PUMPS, MAX_SEGMENTS};
 pub use pumps::{MAX_CURVES, MAX_CURVE_POINTS};
 
-/// The only door to other files (CSV curve tables): the caller decides what
-/// a path means. The CLI reads relative to the design file; tests use a map.
+/// The only door to other files (CSV curve tables, style files): the caller decides
+/// what a path means. The CLI reads regular files inside the design file's folder (see
+/// grammar/LANGUAGE.md, "File access"); tests use a map.
 pub trait FileAccess {
-    fn read_text(&self, path: &str) -> Result<String, String>;
+    fn read_text(&self, path: &str) -> Result<String, FileError>;
+}
+
+/// Why a file could not be read. File content never appears in these, so a refused
+/// file cannot leak into a diagnostic.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub enum FileError {
+    /// Nothing at that path.
+    NotFound,
+    /// More than `syntax::MAX_SOURCE_BYTES` bytes; `line` is where the limit is crossed.
+    TooLarge { line: usize },
+    /// Not UTF-8 text; the first bad byte is at `line`:`column`.
+    NotUtf8 { line: usize, column: usize },
+    /// A folder, FIFO, device or socket (named in `kind`), never opened.
+    NotRegularFile { kind: &'static str },
+    /// Outside the design file's folder and every folder the user allowed, or absolute.
+    OutsideAllowed,
+    /// Any other reason the system gave (permissions, ...).
+    Unreadable(String),
+    /// No file access was given (a source checked without a folder).
+    Unavailable,
+}
+
+impl FileError {
+    /// The diagnostic code for this kind of failure.
+    pub fn code(&self) -> &'static str {
+        match self {
+            FileError::TooLarge { .. } => "file-too-large",
+            FileError::NotUtf8 { .. } => "invalid-utf8",
+            FileError::NotRegularFile { .. } => "not-a-regular-file",
+            FileError::OutsideAllowed => "file-not-allowed",
+            FileError::NotFound | FileError::Unreadable(_) | FileError::Unavailable => {
+                "file-not-read"
+            }
+        }
+    }
+
+    /// What to do about it.
+    pub fn help(&self) -> &'static str {
+        match self {
+            FileError::NotFound => "the path is relative to the folder of the design file",
+            FileError::TooLarge { .. } => "files read by a design are limited to 1 MiB (1 048 576 bytes); is this the right file?",
+            FileError::NotUtf8 { .. } => "save the file as UTF-8 text (from a spreadsheet: CSV UTF-8)",
+            FileError::NotRegularFile { .. } => "give the path of an ordinary file; folders, FIFOs, devices and sockets are not read",
+            FileError::OutsideAllowed => "a design reads only files in its own folder or below: copy the file there, or allow its folder on the command line with `--allow-dir DIR`",
+            FileError::Unreadable(_) => "check that the file exists and may be read",
+            FileError::Unavailable => "check the design from a file so that its folder is known",
+        }
+    }
+}
+
+impl std::fmt::Display for FileError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            FileError::NotFound => write!(f, "no such file"),
+            FileError::TooLarge { line } => write!(
+                f,
+                "the file is larger than {} bytes (the limit is crossed on line {line})",
+                crate::syntax::MAX_SOURCE_BYTES
+            ),
+            FileError::NotUtf8 { line, column } => write!(
+                f,
+                "the file is not UTF-8 text (first bad byte at line {line}, column {column})"
+            ),
+            FileError::NotRegularFile { kind } => write!(f, "it is {kind}, not a regular file"),
+            FileError::OutsideAllowed => write!(
+                f,
+                "the path is absolute or leaves the design file's folder, and no `--allow-dir` allows it"
+            ),
+            FileError::Unreadable(reason) => write!(f, "{reason}"),
+            FileError::Unavailable => write!(f, "no file access was given"),
+        }
+    }
+}
+
+impl From<crate::syntax::TextError> for FileError {
+    fn from(error: crate::syntax::TextError) -> FileError {
+        match error.problem {
+            crate::syntax::TextProblem::TooLarge => FileError::TooLarge { line: error.line },
+            crate::syntax::TextProblem::NotUtf8 => FileError::NotUtf8 {
+                line: error.line,
+                column: error.column,
+            },
+        }
+    }
 }
 
 /// File access that finds nothing (for sources without imports).
 pub struct NoFiles;
 
 impl FileAccess for NoFiles {
-    fn read_text(&self, path: &str) -> Result<String, String> {
-        Err(format!("no file access was given to read `{path}`"))
+    fn read_text(&self, _path: &str) -> Result<String, FileError> {
+        Err(FileError::Unavailable)
     }
 }
 
 /// Files from an in-memory map, for tests.
 impl FileAccess for std::collections::BTreeMap<String, String> {
-    fn read_text(&self, path: &str) -> Result<String, String> {
-        self.get(path)
-            .cloned()
-            .ok_or_else(|| "no such file".to_string())
+    fn read_text(&self, path: &str) -> Result<String, FileError> {
+        self.get(path).cloned().ok_or(FileError::NotFound)
     }
 }

@@ -361,14 +361,14 @@ fn lower_curve(
                     return None;
                 }
             },
-            Err(msg) => {
+            Err(error) => {
                 diags.push(
                     Diagnostic::error(
-                        "file-not-read",
-                        format!("cannot read `{path}`: {msg}"),
+                        error.code(),
+                        format!("cannot read `{path}`: {error}"),
                         Some(s),
                     )
-                    .with_help("the path is relative to the design file"),
+                    .with_help(error.help()),
                 );
                 return None;
             }
@@ -397,8 +397,8 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
         let mut it = h.split_whitespace();
         let (Some(n), Some(u), None) = (it.next(), it.next(), it.next()) else {
             return Err(format!(
-                "header cell `{}` is not a column name and a unit",
-                h.trim()
+                "the header (the first line) must name each column with its unit, e.g. `flow m^3/h, head m`; column {} does not",
+                columns.len() + 1
             ));
         };
         columns.push(Column {
@@ -423,9 +423,13 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
             } else {
                 let v: f64 = c
                     .parse()
-                    .map_err(|_| format!("line {}: `{c}` is not a number", no + 1))?;
+                    .map_err(|_| format!("line {}: `{}` is not a number", no + 1, quoted(c)))?;
                 if !v.is_finite() {
-                    return Err(format!("line {}: `{c}` is not a finite number", no + 1));
+                    return Err(format!(
+                        "line {}: `{}` is not a finite number",
+                        no + 1,
+                        quoted(c)
+                    ));
                 }
                 Some(Number {
                     text: c.into(),
@@ -441,6 +445,17 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
         rows,
         span: at,
     })
+}
+
+/// A cell of a curve row as quoted in a diagnostic: at most 24 characters, so a file
+/// that is not a curve table never shows more than a fragment of itself.
+fn quoted(cell: &str) -> String {
+    const MAX_QUOTED_CHARS: usize = 24;
+    let mut cut: String = cell.chars().take(MAX_QUOTED_CHARS).collect();
+    if cell.chars().nth(MAX_QUOTED_CHARS).is_some() {
+        cut.push('…');
+    }
+    cut
 }
 
 fn lower_table(

@@ -7,4 +7,6 @@ pub mod parse;
 
 pub use ast::File;
 pub use format::format_source;
-pub use parse::{parse, source_from_bytes, MAX_NESTING, MAX_SOURCE_BYTES};
+pub use parse::{
+    decode_text, parse, source_from_bytes, TextError, TextProblem, MAX_NESTING, MAX_SOURCE_BYTES,
+};

@@ -17,39 +17,141 @@ pub const MAX_SOURCE_BYTES: usize = 1 << 20;
 pub const MAX_NESTING: usize = 32;
 /// Most terms in one sum or product (keeps expression trees shallow).
 pub const MAX_OPERANDS: usize = 64;
+/// Most characters of a line shown under a size or encoding diagnostic.
+const EXCERPT_CHARS: usize = 120;
 
-/// Decode a file's bytes as UTF-8, or say where it is not.
-pub fn source_from_bytes(bytes: Vec<u8>) -> Result<String, Diagnostic> {
+/// Why bytes are not a text dutyline reads.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum TextProblem {
+    /// More than [`MAX_SOURCE_BYTES`] bytes.
+    TooLarge,
+    /// A byte sequence that is not UTF-8.
+    NotUtf8,
+}
+
+/// Bytes refused as text, with the place of the problem: the first bad byte, or the
+/// byte where the size limit is crossed.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct TextError {
+    pub problem: TextProblem,
+    /// 1-based line of the place.
+    pub line: usize,
+    /// 1-based column (in characters) of the place.
+    pub column: usize,
+    /// The line up to a little after the place, when short enough to show.
+    excerpt: Option<String>,
+}
+
+impl TextError {
+    /// The diagnostic for a design file, with a span into [`TextError::render_text`].
+    pub fn diagnostic(&self) -> Diagnostic {
+        let (line, column) = (self.line, self.column);
+        let diagnostic = match self.problem {
+            TextProblem::TooLarge => Diagnostic::error(
+                "file-too-large",
+                format!("the file is larger than the limit: design files are limited to {MAX_SOURCE_BYTES} bytes, and line {line} crosses it at column {column}"),
+                None,
+            )
+            .with_label("the limit is crossed here")
+            .with_help("large curve tables belong in CSV files imported with `curve ... from \"file.csv\"`; a design itself is rarely more than a few hundred lines"),
+            TextProblem::NotUtf8 => Diagnostic::error(
+                "invalid-utf8",
+                format!("the file is not valid UTF-8 text: the first bad byte is at line {line}, column {column}"),
+                None,
+            )
+            .with_label("not UTF-8")
+            .with_help("design files are plain UTF-8 text; was a binary or a file in another encoding given? Save it as UTF-8"),
+        };
+        Diagnostic {
+            span: self.excerpt.as_ref().map(|_| self.span()),
+            ..diagnostic
+        }
+    }
+
+    /// A text to render [`TextError::diagnostic`] against: blank lines, then the
+    /// offending line cut short, so line and column are right and no long line is printed.
+    pub fn render_text(&self) -> String {
+        let mut text = "\n".repeat(self.line - 1);
+        text.push_str(self.excerpt.as_deref().unwrap_or_default());
+        text.push('\n');
+        text
+    }
+
+    fn span(&self) -> Span {
+        let excerpt = self.excerpt.as_deref().unwrap_or_default();
+        let start = self.line - 1
+            + excerpt
+                .char_indices()
+                .nth(self.column - 1)
+                .map_or(excerpt.len(), |(i, _)| i);
+        let width = match self.problem {
+            TextProblem::NotUtf8 => char::REPLACEMENT_CHARACTER.len_utf8(),
+            TextProblem::TooLarge => 1,
+        };
+        Span::new(start, start + width)
+    }
+}
+
+/// Decode a file's bytes as UTF-8 text of at most [`MAX_SOURCE_BYTES`] bytes, or say
+/// where it is not.
+pub fn decode_text(bytes: Vec<u8>) -> Result<String, TextError> {
     if bytes.len() > MAX_SOURCE_BYTES {
-        return Err(too_large(bytes.len()));
+        return Err(locate(&bytes, MAX_SOURCE_BYTES, TextProblem::TooLarge));
     }
     String::from_utf8(bytes).map_err(|e| {
         let at = e.utf8_error().valid_up_to();
-        Diagnostic::error(
-            "invalid-utf8",
-            format!("the file is not valid UTF-8 text (first bad byte at offset {at})"),
-            None,
-        )
-        .with_help(
-            "design files are plain UTF-8 text; was a binary or a file in another encoding given?",
-        )
+        locate(e.as_bytes(), at, TextProblem::NotUtf8)
     })
 }
 
-fn too_large(len: usize) -> Diagnostic {
-    Diagnostic::error(
-        "file-too-large",
-        format!("the file is {len} bytes; design files are limited to {MAX_SOURCE_BYTES} bytes"),
-        None,
-    )
-    .with_help("large curve tables belong in CSV files imported with `curve ... from \"file.csv\"`")
+/// Decode a design file's bytes, or the located diagnostic (rendered against
+/// [`TextError::render_text`]) saying why not.
+pub fn source_from_bytes(bytes: Vec<u8>) -> Result<String, Diagnostic> {
+    decode_text(bytes).map_err(|e| e.diagnostic())
+}
+
+/// Line, column and a short excerpt of the line around byte `at`.
+fn locate(bytes: &[u8], at: usize, problem: TextProblem) -> TextError {
+    let line_start = bytes[..at]
+        .iter()
+        .rposition(|&b| b == b'\n')
+        .map_or(0, |i| i + 1);
+    let line = 1 + bytes[..line_start].iter().filter(|&&b| b == b'\n').count();
+    let line_end = bytes[at..]
+        .iter()
+        .position(|&b| b == b'\n')
+        .map_or(bytes.len(), |i| at + i);
+    let text = String::from_utf8_lossy(&bytes[line_start..line_end]);
+    let column = 1 + String::from_utf8_lossy(&bytes[line_start..at])
+        .chars()
+        .count();
+    let excerpt = (column <= EXCERPT_CHARS).then(|| {
+        let mut cut: String = text.chars().take(EXCERPT_CHARS).collect();
+        if text.chars().nth(EXCERPT_CHARS).is_some() {
+            cut.push('…');
+        }
+        cut
+    });
+    TextError {
+        problem,
+        line,
+        column,
+        excerpt,
+    }
 }
 
 /// Parse a design file. Errors are returned as diagnostics; a file with a
 /// syntax error yields no tree.
 pub fn parse(source: &str) -> Result<File, Vec<Diagnostic>> {
     if source.len() > MAX_SOURCE_BYTES {
-        return Err(vec![too_large(source.len())]);
+        let at = (0..=MAX_SOURCE_BYTES)
+            .rev()
+            .find(|&i| source.is_char_boundary(i))
+            .unwrap_or(0);
+        let mut d = locate(source.as_bytes(), at, TextProblem::TooLarge).diagnostic();
+        let width = source[at..].chars().next().map_or(0, char::len_utf8);
+        d.span = Some(Span::new(at, at + width));
+        return Err(vec![d]);
     }
     if let Some(d) = check_nesting(source) {
         return Err(vec![d]);

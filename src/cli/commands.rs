@@ -1,0 +1,362 @@
+//! One function per subcommand: read, call the library, write; every failure is a
+//! [`CliError`] returned to `run`.
+
+use std::io::Write;
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use dutyline::analysis::Analysis;
+use dutyline::diagnostics::Diagnostic;
+use dutyline::report::layout::style::{Style, StyleError};
+
+use super::error::{CliError, EXIT_DESIGN, EXIT_NO_SELECTION};
+use super::files::{self, DiskFiles};
+use super::output::{self, Out};
+
+/// The output format of `results` and `diff`.
+#[derive(Clone, Copy, clap::ValueEnum)]
+pub enum Format {
+    Text,
+    Json,
+}
+
+/// A design read and checked, with the files it may read.
+pub struct Loaded {
+    pub source: String,
+    pub checked: dutyline::Checked,
+    pub files: DiskFiles,
+}
+
+/// Read and check a design; diagnostics with any error make it a [`CliError::Rejected`].
+pub fn load(path: &Path, allowed: &[PathBuf]) -> Result<Loaded, CliError> {
+    let source = files::read_named(path)?;
+    let files = DiskFiles::for_design(path, allowed)?;
+    let checked = dutyline::check(&source, &files);
+    if checked.has_errors() {
+        return Err(rejected(path, source, checked.diagnostics, None));
+    }
+    Ok(Loaded {
+        source,
+        checked,
+        files,
+    })
+}
+
+fn rejected(
+    path: &Path,
+    source: String,
+    diagnostics: Vec<Diagnostic>,
+    summary: Option<String>,
+) -> CliError {
+    CliError::Rejected {
+        file: path.display().to_string(),
+        source,
+        diagnostics,
+        summary,
+    }
+}
+
+/// The design of a checked file without errors (always present then).
+fn design_of(loaded: &Loaded) -> Result<&dutyline::Design, CliError> {
+    loaded.checked.design.as_ref().ok_or_else(|| {
+        CliError::Usage(
+            "the design has no errors but could not be built; please report this".into(),
+        )
+    })
+}
+
+/// 0 when every case was analysed and a candidate is recommended, else 3.
+fn analysis_status(analysis: &Analysis) -> ExitCode {
+    let failed_case = analysis.cases.iter().any(|c| c.error.is_some());
+    if failed_case || analysis.selection.recommended.is_none() {
+        ExitCode::from(EXIT_NO_SELECTION)
+    } else {
+        ExitCode::SUCCESS
+    }
+}
+
+pub fn check(
+    out: &mut Out,
+    path: &Path,
+    allowed: &[PathBuf],
+    deny_warnings: bool,
+) -> Result<ExitCode, CliError> {
+    let source = files::read_named(path)?;
+    let files = DiskFiles::for_design(path, allowed)?;
+    let checked = dutyline::check(&source, &files);
+    let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
+    let warnings = checked.diagnostics.len() - errors;
+    if errors > 0 || (deny_warnings && warnings > 0) {
+        let summary = format!(
+            "{}: {errors} error(s), {warnings} warning(s)",
+            path.display()
+        );
+        return Err(rejected(path, source, checked.diagnostics, Some(summary)));
+    }
+    output::diagnostics(&checked.diagnostics, path, &source);
+    writeln!(out, "{}: valid ({warnings} warning(s))", path.display()).map_err(CliError::stdout)?;
+    Ok(ExitCode::SUCCESS)
+}
+
+pub fn results(
+    out: &mut Out,
+    path: &Path,
+    allowed: &[PathBuf],
+    format: Format,
+) -> Result<ExitCode, CliError> {
+    let loaded = load(path, allowed)?;
+    let design = design_of(&loaded)?;
+    let analysis = dutyline::analysis::analyse(design);
+    let text = match format {
+        Format::Json => dutyline::results::to_json(
+            design,
+            &analysis,
+            &path.display().to_string(),
+            &loaded.source,
+            &loaded.checked.diagnostics,
+        ),
+        Format::Text => dutyline::results::to_text(design, &analysis),
+    };
+    output::text(out, &text)?;
+    Ok(analysis_status(&analysis))
+}
+
+/// The options of `build`.
+pub struct BuildOptions {
+    pub output: Option<PathBuf>,
+    pub style: Option<String>,
+    pub compare: Option<PathBuf>,
+    pub force: bool,
+}
+
+pub fn build(
+    out: &mut Out,
+    path: &Path,
+    allowed: &[PathBuf],
+    options: BuildOptions,
+) -> Result<ExitCode, CliError> {
+    let target = options.output.unwrap_or_else(|| path.with_extension("pdf"));
+    let to_stdout = target == Path::new("-");
+    if !to_stdout {
+        check_output(path, &target, options.force)?;
+    }
+    let loaded = load(path, allowed)?;
+    output::diagnostics(&loaded.checked.diagnostics, path, &loaded.source);
+    let design = design_of(&loaded)?;
+    let style = load_style(options.style.as_deref(), design, &loaded.files)?;
+    let analysis = dutyline::analysis::analyse(design);
+    let changes = match &options.compare {
+        Some(old) => {
+            let old_loaded = load(old, allowed)?;
+            let old_design = design_of(&old_loaded)?;
+            let old_analysis = dutyline::analysis::analyse(old_design);
+            let diff = dutyline::diff::diff(old_design, &old_analysis, design, &analysis);
+            Some(dutyline::report::changes_from_diff(old_design, &diff))
+        }
+        None => None,
+    };
+    let bytes =
+        dutyline::report::render_pdf(design, &analysis, &loaded.source, &style, changes.as_ref())
+            .map_err(|e| {
+            let diagnostic = Diagnostic::error(
+                "layout",
+                format!("the package could not be laid out: {e}"),
+                None,
+            );
+            rejected(path, String::new(), vec![diagnostic], None)
+        })?;
+    let wrote = format!(
+        "{}: wrote {} ({} bytes)\n",
+        path.display(),
+        target.display(),
+        bytes.len()
+    );
+    if to_stdout {
+        output::bytes(out, &bytes)?;
+        output::error_text(&wrote);
+    } else {
+        check_output(path, &target, options.force)?;
+        files::write_atomically(&target, &bytes)?;
+        output::text(out, &wrote)?;
+    }
+    Ok(analysis_status(&analysis))
+}
+
+/// The output may be written: not the design itself, and a kind of file `build` replaces.
+fn check_output(design: &Path, target: &Path, force: bool) -> Result<(), CliError> {
+    let same = target == design
+        || matches!(
+            (std::fs::canonicalize(design), std::fs::canonicalize(target)),
+            (Ok(a), Ok(b)) if a == b
+        );
+    if same {
+        return Err(CliError::Write {
+            path: target.to_path_buf(),
+            problem: super::error::WriteProblem::IsTheInput,
+        });
+    }
+    files::check_target(target, true, force)
+}
+
+/// Resolve the style: the command line's, the design's, or the units' default. A style
+/// file named on the command line may be anywhere; one named in the design obeys the
+/// design's file-access rule.
+fn load_style(
+    argument: Option<&str>,
+    design: &dutyline::Design,
+    files: &DiskFiles,
+) -> Result<Style, CliError> {
+    let choice = argument
+        .map(str::to_string)
+        .or_else(|| design.project.style.clone())
+        .unwrap_or_else(|| dutyline::report::builtin_style_for(design).to_string());
+    if let Some(style) = Style::builtin(&choice) {
+        return Ok(style);
+    }
+    let not_found_help = || {
+        Some(format!(
+            "`{choice}` is neither a built-in style ({}) nor a style file (TOML)",
+            Style::builtin_names().join(", ")
+        ))
+    };
+    let path = match argument {
+        Some(_) => PathBuf::from(&choice),
+        None => files.resolve(&choice).map_err(|error| CliError::Read {
+            path: PathBuf::from(&choice),
+            help: matches!(error, dutyline::model::FileError::NotFound)
+                .then(not_found_help)
+                .flatten(),
+            error,
+        })?,
+    };
+    let text = files::read_named(&path).map_err(|error| match error {
+        CliError::Read {
+            path,
+            error: dutyline::model::FileError::NotFound,
+            ..
+        } => CliError::Read {
+            path,
+            error: dutyline::model::FileError::NotFound,
+            help: not_found_help(),
+        },
+        other => other,
+    })?;
+    Style::from_toml(&text).map_err(|error| {
+        let diagnostic = style_diagnostic(&error, &text);
+        rejected(&path, text, vec![diagnostic], None)
+    })
+}
+
+/// A style-file error as a diagnostic pointing at its line and column.
+fn style_diagnostic(error: &StyleError, text: &str) -> Diagnostic {
+    let span = (error.line > 0).then(|| {
+        let line_start: usize = text
+            .split_inclusive('\n')
+            .take(error.line - 1)
+            .map(str::len)
+            .sum();
+        let line = text[line_start..].lines().next().unwrap_or_default();
+        let offset = line
+            .char_indices()
+            .nth(error.column.saturating_sub(1))
+            .map_or(line.len(), |(i, _)| i);
+        let token = line[offset..]
+            .find(|c: char| c.is_whitespace() || c == '=')
+            .unwrap_or(line.len() - offset);
+        let width = token.max(line[offset..].chars().next().map_or(0, char::len_utf8));
+        dutyline::diagnostics::Span::new(line_start + offset, line_start + offset + width)
+    });
+    Diagnostic::error("style", error.message.clone(), span).with_help(error.help.clone())
+}
+
+pub fn fmt(out: &mut Out, paths: &[PathBuf], check: bool) -> Result<ExitCode, CliError> {
+    let stdin = Path::new("-");
+    if paths.iter().filter(|f| f.as_path() == stdin).count() > 1 {
+        return Err(CliError::Usage(
+            "`-` (standard input) may be given once".into(),
+        ));
+    }
+    let mut worst = ExitCode::SUCCESS;
+    for path in paths {
+        let source = files::read_named(path)?;
+        let formatted = match dutyline::syntax::format_source(&source) {
+            Ok(f) => f,
+            Err(diagnostics) => {
+                output::diagnostics(&diagnostics, path, &source);
+                worst = ExitCode::from(EXIT_DESIGN);
+                continue;
+            }
+        };
+        // Standard input is echoed even when canonical (unless checking).
+        let echo = path == stdin && !check;
+        if formatted == source && !echo {
+            continue;
+        }
+        if check {
+            print_changed_lines(out, path, &source, &formatted)?;
+            worst = ExitCode::from(EXIT_DESIGN);
+        } else if path == stdin {
+            output::text(out, &formatted)?;
+        } else {
+            let real = std::fs::canonicalize(path).unwrap_or_else(|_| path.clone());
+            files::check_target(&real, false, false)?;
+            files::write_atomically(&real, formatted.as_bytes())?;
+            writeln!(out, "formatted {}", path.display()).map_err(CliError::stdout)?;
+        }
+    }
+    Ok(worst)
+}
+
+/// A short account of what formatting would change: the first differing lines.
+fn print_changed_lines(out: &mut Out, path: &Path, old: &str, new: &str) -> Result<(), CliError> {
+    let a: Vec<&str> = old.lines().collect();
+    let b: Vec<&str> = new.lines().collect();
+    let first = a
+        .iter()
+        .zip(&b)
+        .position(|(x, y)| x != y)
+        .unwrap_or(a.len().min(b.len()));
+    let mut text = format!(
+        "{} is not in canonical layout; from line {}:\n",
+        path.display(),
+        first + 1
+    );
+    for line in a.iter().skip(first).take(6) {
+        text.push_str(&format!("- {line}\n"));
+    }
+    for line in b.iter().skip(first).take(6) {
+        text.push_str(&format!("+ {line}\n"));
+    }
+    output::text(out, &text)
+}
+
+pub fn diff(
+    out: &mut Out,
+    old: &Path,
+    new: &Path,
+    allowed: &[PathBuf],
+    format: Format,
+    exit_code: bool,
+) -> Result<ExitCode, CliError> {
+    if old == Path::new("-") && new == Path::new("-") {
+        return Err(CliError::Usage(
+            "only one of OLD and NEW may be `-` (standard input)".into(),
+        ));
+    }
+    let old_loaded = load(old, allowed)?;
+    let new_loaded = load(new, allowed)?;
+    let (old_design, new_design) = (design_of(&old_loaded)?, design_of(&new_loaded)?);
+    let old_analysis = dutyline::analysis::analyse(old_design);
+    let new_analysis = dutyline::analysis::analyse(new_design);
+    let diff = dutyline::diff::diff(old_design, &old_analysis, new_design, &new_analysis);
+    let text = match format {
+        Format::Text => dutyline::diff::render_text(&diff),
+        Format::Json => dutyline::diff::to_json(&diff),
+    };
+    output::text(out, &text)?;
+    if exit_code && dutyline::diff::has_differences(&diff) {
+        Ok(ExitCode::from(EXIT_DESIGN))
+    } else {
+        Ok(ExitCode::SUCCESS)
+    }
+}
