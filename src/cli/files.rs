@@ -128,26 +128,27 @@ impl DiskFiles {
             Some(p) if design != Path::new("-") && !p.as_os_str().is_empty() => p,
             _ => Path::new("."),
         };
-        let canonical_folder = |path: &Path| {
-            let real = fs::canonicalize(path).map_err(|error| CliError::Read {
-                path: path.to_path_buf(),
-                error: io_error(error),
-                help: None,
-            })?;
-            if real.is_dir() {
-                Ok(real)
-            } else {
-                Err(CliError::Usage(format!(
-                    "`--allow-dir {}` is not a folder",
-                    path.display()
-                )))
-            }
+        let base = fs::canonicalize(folder).map_err(|error| CliError::Read {
+            path: folder.to_path_buf(),
+            error: io_error(error),
+            help: None,
+        })?;
+        let allowed_folder = |dir: &PathBuf| match fs::canonicalize(dir) {
+            Ok(real) if real.is_dir() => Ok(real),
+            Ok(_) => Err(CliError::Usage(format!(
+                "`--allow-dir {}`: not a folder",
+                dir.display()
+            ))),
+            Err(e) => Err(CliError::Usage(format!(
+                "`--allow-dir {}`: {e}",
+                dir.display()
+            ))),
         };
         Ok(DiskFiles {
-            base: canonical_folder(folder)?,
+            base,
             allowed: allowed
                 .iter()
-                .map(|dir| canonical_folder(dir))
+                .map(allowed_folder)
                 .collect::<Result<_, _>>()?,
         })
     }
