@@ -105,7 +105,7 @@ enum Command {
         "\n\nExit status: 0 built, every case analysed and a candidate recommended; 1 design or style errors; 2 usage or I/O errors (including a refused output); 3 built, but no candidate recommended or a case could not be analysed; 141 standard output closed early."
     ))]
     Build {
-        /// The design file (*.duty), or `-` for standard input.
+        /// The design file (*.duty), or `-` for standard input (then -o is needed).
         file: PathBuf,
         #[command(flatten)]
         access: Access,

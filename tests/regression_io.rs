@@ -251,6 +251,59 @@ fn a_style_file_error_shows_its_source_line() {
     assert!(!dir.join("k.pdf").exists());
 }
 
+#[test]
+fn file_access_errors_are_typed_and_their_help_follows_the_kind() {
+    // Issue 19: `FileAccess` returned a `String`, so the diagnostic's help could not tell
+    // a missing file from a refused one.
+    use dutyline::model::FileError;
+    struct Refusing(FileError);
+    impl dutyline::FileAccess for Refusing {
+        fn read_text(&self, _path: &str) -> Result<String, FileError> {
+            Err(self.0.clone())
+        }
+    }
+    let source = std::fs::read_to_string(
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("examples-demo/kestrel-booster.duty"),
+    )
+    .unwrap();
+    let kinds = [
+        (
+            FileError::NotFound,
+            "file-not-read",
+            "relative to the folder",
+        ),
+        (FileError::TooLarge { line: 9 }, "file-too-large", "1 MiB"),
+        (
+            FileError::NotUtf8 { line: 2, column: 5 },
+            "invalid-utf8",
+            "UTF-8",
+        ),
+        (
+            FileError::NotRegularFile {
+                kind: "a FIFO (named pipe)",
+            },
+            "not-a-regular-file",
+            "ordinary file",
+        ),
+        (FileError::OutsideAllowed, "file-not-allowed", "--allow-dir"),
+    ];
+    for (error, code, help) in kinds {
+        let checked = dutyline::check(&source, &Refusing(error.clone()));
+        let d = checked
+            .diagnostics
+            .iter()
+            .find(|d| d.code == code)
+            .unwrap_or_else(|| panic!("{error:?}: {:?}", checked.diagnostics));
+        assert!(d.message.contains(&error.to_string()), "{}", d.message);
+        assert!(
+            d.help.as_deref().unwrap_or_default().contains(help),
+            "{error:?}: {:?}",
+            d.help
+        );
+        assert!(d.span.is_some(), "at the `from` of the curve");
+    }
+}
+
 // ---- Every rejection located ----------------------------------------------------------
 
 #[test]

@@ -135,7 +135,15 @@ pub fn build(
     allowed: &[PathBuf],
     options: BuildOptions,
 ) -> Result<ExitCode, CliError> {
-    let target = options.output.unwrap_or_else(|| path.with_extension("pdf"));
+    let target = match options.output {
+        Some(output) => output,
+        None if path == Path::new("-") => {
+            return Err(CliError::Usage(
+                "a design read from standard input needs `-o OUT.pdf` (or `-o -`)".into(),
+            ))
+        }
+        None => path.with_extension("pdf"),
+    };
     let to_stdout = target == Path::new("-");
     if !to_stdout {
         check_output(path, &target, options.force)?;
