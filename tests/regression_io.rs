@@ -359,7 +359,8 @@ fn file_too_large_points_at_the_line_where_the_limit_is_crossed() {
 
 // ---- File access ------------------------------------------------------------------
 
-const SECRET: &str = "SECRET-LINE-do-not-print";
+/// Longer than the 24 characters a diagnostic may quote of a CSV.
+const SECRET: &str = "SECRET-LINE-which-must-never-be-printed";
 
 /// A folder beside the test's with a file that must never be read or echoed.
 fn outside_secret(dir: &Path) -> PathBuf {
@@ -519,11 +520,21 @@ fn a_curve_row_is_quoted_cut_short_and_a_bad_header_not_at_all() {
     let shown: String = long_cell.chars().take(24).collect();
     assert!(r.stderr.contains(&format!("`{shown}…`")), "{}", r.stderr);
     assert!(!r.stderr.contains(SECRET), "{}", r.stderr);
-    // A first line that is not a header is not quoted.
-    std::fs::write(dir.join("rows.csv"), format!("{SECRET}\n0, 76\n")).unwrap();
-    let r = run(&dir, &["check", design.to_str().unwrap()]);
-    assert!(r.stderr.contains("error[bad-csv]"), "{}", r.stderr);
-    assert!(!r.stderr.contains(SECRET), "{}", r.stderr);
+    // A first line that is not a header is not quoted, nor a long name or unit in one.
+    for header in [
+        SECRET.to_string(),
+        format!("flow {SECRET}"),
+        format!("{SECRET} m"),
+    ] {
+        std::fs::write(dir.join("rows.csv"), format!("{header}\n0, 76\n")).unwrap();
+        let r = run(&dir, &["check", design.to_str().unwrap()]);
+        assert!(
+            r.stderr.contains("error[bad-csv]"),
+            "{header}: {}",
+            r.stderr
+        );
+        assert!(!r.stderr.contains(SECRET), "{header}: {}", r.stderr);
+    }
 }
 
 #[test]

@@ -7,6 +7,7 @@ use std::process::ExitCode;
 
 use dutyline::analysis::Analysis;
 use dutyline::diagnostics::Diagnostic;
+use dutyline::model::FileError;
 use dutyline::report::layout::style::{Style, StyleError};
 
 use super::error::{CliError, EXIT_DESIGN, EXIT_NO_SELECTION};
@@ -221,34 +222,33 @@ fn load_style(
     if let Some(style) = Style::builtin(&choice) {
         return Ok(style);
     }
-    let not_found_help = || {
-        Some(format!(
-            "`{choice}` is neither a built-in style ({}) nor a style file (TOML)",
-            Style::builtin_names().join(", ")
-        ))
-    };
-    let path = match argument {
-        Some(_) => PathBuf::from(&choice),
-        None => files.resolve(&choice).map_err(|error| CliError::Read {
-            path: PathBuf::from(&choice),
-            help: matches!(error, dutyline::model::FileError::NotFound)
-                .then(not_found_help)
-                .flatten(),
-            error,
-        })?,
-    };
-    let text = files::read_named(&path).map_err(|error| match error {
+    // A missing file may be a misspelt built-in name: say which names exist.
+    let with_names = |error: CliError| match error {
         CliError::Read {
             path,
-            error: dutyline::model::FileError::NotFound,
+            error: FileError::NotFound,
             ..
         } => CliError::Read {
             path,
-            error: dutyline::model::FileError::NotFound,
-            help: not_found_help(),
+            error: FileError::NotFound,
+            help: Some(format!(
+                "`{choice}` is neither a built-in style ({}) nor a style file (TOML)",
+                Style::builtin_names().join(", ")
+            )),
         },
         other => other,
-    })?;
+    };
+    let path = match argument {
+        Some(_) => PathBuf::from(&choice),
+        None => files.resolve(&choice).map_err(|error| {
+            with_names(CliError::Read {
+                path: PathBuf::from(&choice),
+                error,
+                help: None,
+            })
+        })?,
+    };
+    let text = files::read_named(&path).map_err(with_names)?;
     Style::from_toml(&text).map_err(|error| {
         let diagnostic = style_diagnostic(&error, &text);
         rejected(&path, text, vec![diagnostic], None)

@@ -401,6 +401,13 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
                 columns.len() + 1
             ));
         };
+        // Names and units are quoted in later messages: only short ones are taken.
+        if n.chars().count() > MAX_QUOTED_CHARS || u.chars().count() > MAX_QUOTED_CHARS {
+            return Err(format!(
+                "column {} of the header is longer than a column name and a unit",
+                columns.len() + 1
+            ));
+        }
         columns.push(Column {
             name: Ident {
                 name: n.into(),
@@ -447,10 +454,12 @@ fn csv_table(text: &str, at: Span) -> Result<Table, String> {
     })
 }
 
+/// Most characters of a CSV file quoted in a diagnostic.
+const MAX_QUOTED_CHARS: usize = 24;
+
 /// A cell of a curve row as quoted in a diagnostic: at most 24 characters, so a file
 /// that is not a curve table never shows more than a fragment of itself.
 fn quoted(cell: &str) -> String {
-    const MAX_QUOTED_CHARS: usize = 24;
     let mut cut: String = cell.chars().take(MAX_QUOTED_CHARS).collect();
     if cell.chars().nth(MAX_QUOTED_CHARS).is_some() {
         cut.push('…');
