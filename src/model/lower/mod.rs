@@ -48,6 +48,7 @@ pub fn lower(
     let base = base_scenario(setting, network, &pump_list);
     let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
     let requirements = requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
         Some(base) if !has_errors => Some(Design {

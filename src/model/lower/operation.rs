@@ -4,6 +4,7 @@ use crate::diagnostics::Diagnostic;
 use crate::model::design::*;
 use crate::model::eval::{self, expect_dim, expect_number, Env};
 use crate::model::fields::read_fields;
+use crate::model::ranges;
 use crate::syntax::ast::Statement;
 use crate::units::Dimension;
 
@@ -128,7 +129,8 @@ pub fn lower_energy(
                             Some(field.value.span),
                         ));
                     }
-                    e.price_per_joule = Some(q.si);
+                    e.price_per_joule =
+                        Some(env.in_range(&ranges::ENERGY_PRICE, q.si, field.value.span)?);
                     if let crate::syntax::ast::ExprKind::Quantity { unit, .. } = &field.value.kind {
                         e.currency = unit.text.split('/').next().unwrap_or("cu").to_string();
                     }
@@ -153,6 +155,7 @@ pub fn lower_energy(
                             Some(field.value.span),
                         ));
                     }
+                    let v = env.in_range(&ranges::YEARLY_RATE, v, field.value.span)?;
                     if name == "discount_rate" {
                         e.discount_rate = v
                     } else {

@@ -7,7 +7,7 @@ use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::Env;
 use crate::model::fields::{missing, read_fields};
-use crate::model::scenario::{self, expect_length, lower_fluid};
+use crate::model::scenario::{self, expect_level, lower_fluid};
 
 use super::Blocks;
 
@@ -79,7 +79,7 @@ fn lower_station(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> Opt
     };
     let fields = read_fields(block.statements(), "station", &["centreline"], diags);
     match fields.get("centreline") {
-        Some(c) => match expect_length(c.value, env, "pump centreline") {
+        Some(c) => match expect_level(c.value, env, "pump centreline") {
             Ok(v) => Some(v),
             Err(e) => {
                 diags.push(e);
