@@ -3,8 +3,10 @@
 pub mod ast;
 pub mod comments;
 pub mod format;
+pub mod limits;
 pub mod parse;
 
 pub use ast::File;
 pub use format::format_source;
+pub use limits::{MAX_IDENTIFIER_CHARS, MAX_TEXT_CHARS};
 pub use parse::{parse, source_from_bytes, MAX_NESTING, MAX_SOURCE_BYTES};

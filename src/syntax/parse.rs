@@ -54,6 +54,10 @@ pub fn parse(source: &str) -> Result<File, Vec<Diagnostic>> {
     if let Some(d) = check_nesting(source) {
         return Err(vec![d]);
     }
+    let too_long = super::limits::check_lengths(source);
+    if !too_long.is_empty() {
+        return Err(too_long);
+    }
     let mut pairs =
         DutyParser::parse(Rule::file, source).map_err(|e| vec![syntax_error(source, e)])?;
     let mut errors = Vec::new();
