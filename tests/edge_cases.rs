@@ -491,10 +491,11 @@ fn boiling_water_with_a_suction_lift_has_negative_npsh() {
 
 #[test]
 fn beyond_moodys_chart_is_a_warning_not_silence() {
-    // 300 mm of roughness in a 4 in pipe: eps/D about 2.9, beyond the chart's 0.05.
+    // 20 mm of roughness in a 4 in pipe (bore 102.3 mm): eps/D = 20/102.3 = 0.20, beyond the
+    // chart's 0.05 (300 mm was used before the input ranges made it impossible, issue 11).
     let r = run(&design(&[(
         "pipe steel 4 in schedule 40 { length = 100 m }",
-        "pipe steel 4 in schedule 40 { length = 100 m, roughness = 300 mm }",
+        "pipe steel 4 in schedule 40 { length = 100 m, roughness = 20 mm }",
     )]));
     assert!(has_warning(
         r.pump("P"),
@@ -503,7 +504,7 @@ fn beyond_moodys_chart_is_a_warning_not_silence() {
     // A liquid of almost no viscosity: Re far past the chart's 1e8.
     let r = run(&design(&[(
         "fluid water { temperature = 15 degC }",
-        "fluid \"thin\" { density = 1000 kg/m^3, viscosity = 0.0001 cP, vapor_pressure = 2 kPa }",
+        "fluid \"thin\" { density = 1000 kg/m^3, viscosity = 0.001 cP, vapor_pressure = 2 kPa }",
     )]));
     assert!(has_warning(
         r.pump("P"),

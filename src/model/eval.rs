@@ -40,6 +40,23 @@ fn describe_quantity(q: &Quantity) -> String {
 #[derive(Default)]
 pub struct Env {
     pub constants: BTreeMap<String, (Value, Span)>,
+    /// Warnings of setters that return only an error (unusual values); `lower` drains them.
+    pub warnings: std::cell::RefCell<Vec<Diagnostic>>,
+}
+
+impl Env {
+    /// Check a value against its range ([`super::ranges`]): an error outside the possible
+    /// range; a warning, kept here, outside the usual band.
+    pub fn in_range(
+        &self,
+        range: &super::ranges::Range,
+        si: f64,
+        span: Span,
+    ) -> Result<f64, Diagnostic> {
+        let (v, warning) = range.check(si, span)?;
+        self.warnings.borrow_mut().extend(warning);
+        Ok(v)
+    }
 }
 
 /// Turn a unit as written into a unit, or a located diagnostic with suggestions.

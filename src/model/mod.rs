@@ -6,6 +6,7 @@ pub mod eval;
 mod fields;
 mod lower;
 mod pumps;
+pub mod ranges;
 pub mod scenario;
 
 pub use design::*;

@@ -8,7 +8,7 @@ use uom::si::{
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, Env};
 use super::fields::{block_name, missing, read_fields};
-use super::FileAccess;
+use super::{ranges, FileAccess};
 use crate::diagnostics::{Diagnostic, Span};
 use crate::syntax::ast::{
     Arg, ArgKind, Cell, Column, Ident, Number, Row, Statement, StatementKind, Table, UnitText,
@@ -106,7 +106,8 @@ pub fn lower_pump(
                             Some(e.span),
                         ));
                     }
-                    p.rated_speed = Frequency::new::<hertz>(v);
+                    p.rated_speed =
+                        Frequency::new::<hertz>(env.in_range(&ranges::PUMP_SPEED, v, e.span)?);
                 }
                 "arrangement" => {
                     p.arrangement = match eval::expect_word(
@@ -147,7 +148,11 @@ pub fn lower_pump(
                             Some(e.span),
                         ));
                     }
-                    p.impeller = Some(Length::new::<meter>(v));
+                    p.impeller = Some(Length::new::<meter>(env.in_range(
+                        &ranges::IMPELLER,
+                        v,
+                        e.span,
+                    )?));
                 }
                 "adjust" => {
                     adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?
@@ -471,7 +476,7 @@ fn lower_table(
     t: &Table,
     impeller: Option<Length>,
     speed: Frequency,
-    _env: &Env,
+    env: &Env,
     diags: &mut Vec<Diagnostic>,
 ) -> Option<CurveData> {
     let before = diags.len();
@@ -576,13 +581,30 @@ fn lower_table(
                 continue;
             };
             let si = crate::units::Quantity::from_value(v.value, u).si;
-            if !si.is_finite() || si < 0.0 {
-                diags.push(Diagnostic::error(
-                    "out-of-range",
-                    format!("{name} must not be negative"),
-                    Some(cell.span),
-                ));
+            if si < 0.0 {
+                diags.push(
+                    Diagnostic::error(
+                        "out-of-range",
+                        format!("negative values are not allowed in the `{name}` column"),
+                        Some(cell.span),
+                    )
+                    .with_label("negative")
+                    .with_help("a curve table gives magnitudes from shut-off (zero flow) upwards"),
+                );
                 continue;
+            }
+            let range = match *name {
+                "flow" => Some(&ranges::CURVE_FLOW),
+                "head" => Some(&ranges::CURVE_HEAD),
+                "npshr" => Some(&ranges::CURVE_NPSHR),
+                "power" => Some(&ranges::CURVE_POWER),
+                _ => None,
+            };
+            if let Some(range) = range {
+                if let Err(d) = env.in_range(range, si, cell.span) {
+                    diags.push(d);
+                    continue;
+                }
             }
             match *name {
                 "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),

@@ -14,6 +14,7 @@ use uom::si::{
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, expect_temperature, Env};
 use super::fields::{missing, read_fields, unknown_field};
+use super::ranges;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::hydraulics::catalogue::{self, Material};
 use crate::hydraulics::fittings;
@@ -31,6 +32,13 @@ pub fn pressure(si: f64) -> Pressure {
 /// A length field.
 pub fn expect_length(e: &Expr, env: &Env, what: &str) -> Result<Length, Diagnostic> {
     Ok(length(expect_dim(e, env, Dimension::LENGTH, what)?.si))
+}
+
+/// A level (tank level, pump centreline) from the design's datum, checked against
+/// [`ranges::LEVEL`].
+pub fn expect_level(e: &Expr, env: &Env, what: &str) -> Result<Length, Diagnostic> {
+    let v = expect_length(e, env, what)?.get::<meter>();
+    Ok(length(env.in_range(&ranges::LEVEL, v, e.span)?))
 }
 
 /// A pressure field, keeping gauge/absolute; a plain pressure takes `plain_as`.
@@ -101,11 +109,11 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
             c.temperature = Some(ThermodynamicTemperature::new::<kelvin>(expect_temperature(e, env, "fluid temperature")?))
         }
         (Fluid::Custom(c), "density") => {
-            let v = positive(expect_dim(e, env, Dimension::DENSITY, "density")?.si, "density", e.span)?;
+            let v = env.in_range(&ranges::DENSITY, expect_dim(e, env, Dimension::DENSITY, "density")?.si, e.span)?;
             c.density = MassDensity::new::<kilogram_per_cubic_meter>(v);
         }
         (Fluid::Custom(c), "viscosity") => {
-            let v = positive(expect_dim(e, env, Dimension::DYNAMIC_VISCOSITY, "viscosity")?.si, "viscosity", e.span)?;
+            let v = env.in_range(&ranges::VISCOSITY, expect_dim(e, env, Dimension::DYNAMIC_VISCOSITY, "viscosity")?.si, e.span)?;
             c.viscosity = DynamicViscosity::new::<pascal_second>(v);
         }
         (Fluid::Custom(c), "kinematic_viscosity") => {
@@ -116,7 +124,8 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
             )?;
             // Stored as dynamic viscosity; needs the density, which is read first (see lower_fluid).
             let rho = c.density.get::<kilogram_per_cubic_meter>();
-            c.viscosity = DynamicViscosity::new::<pascal_second>(nu * rho);
+            let mu = if rho > 0.0 { env.in_range(&ranges::VISCOSITY, nu * rho, e.span)? } else { nu * rho };
+            c.viscosity = DynamicViscosity::new::<pascal_second>(mu);
         }
         (Fluid::Custom(c), "vapor_pressure") => {
             let q = expect_dim(e, env, Dimension::PRESSURE, "vapour pressure")?;
@@ -124,7 +133,7 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
                 return Err(Diagnostic::error("unit-mismatch", "vapour pressure is an absolute pressure", Some(e.span))
                     .with_help("write it as kPa, kPa(a) or psia"));
             }
-            c.vapor_pressure = pressure(non_negative(q.si, "vapour pressure", e.span)?);
+            c.vapor_pressure = pressure(env.in_range(&ranges::VAPOUR_PRESSURE, q.si, e.span)?);
         }
         (_, other) => return Err(Diagnostic::error("unknown-field", format!("the fluid has no field `{other}`"), Some(e.span))),
     }
@@ -212,10 +221,13 @@ pub const SITE_FIELDS: &[&str] = &["elevation", "pressure"];
 
 pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
-        "elevation" => site.elevation = expect_length(e, env, "site elevation")?,
+        "elevation" => {
+            let v = expect_length(e, env, "site elevation")?.get::<meter>();
+            site.elevation = length(env.in_range(&ranges::SITE_ELEVATION, v, e.span)?);
+        }
         "pressure" => match expect_pressure(e, env, "barometric pressure", false)? {
             SurfacePressure::Absolute(p) => {
-                positive(p.get::<pascal>(), "barometric pressure", e.span)?;
+                env.in_range(&ranges::BAROMETRIC_PRESSURE, p.get::<pascal>(), e.span)?;
                 site.barometric_pressure = Some(p)
             }
             SurfacePressure::Gauge(_) => {
@@ -242,8 +254,19 @@ pub const TANK_FIELDS: &[&str] = &["level", "pressure"];
 
 pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
-        "level" => tank.level = expect_length(e, env, "tank level")?,
-        "pressure" => tank.surface_pressure = expect_pressure(e, env, "surface pressure", true)?,
+        "level" => tank.level = expect_level(e, env, "tank level")?,
+        "pressure" => {
+            let p = expect_pressure(e, env, "surface pressure", true)?;
+            match p {
+                SurfacePressure::Gauge(g) => {
+                    env.in_range(&ranges::GAUGE_PRESSURE, g.get::<pascal>(), e.span)?
+                }
+                SurfacePressure::Absolute(a) => {
+                    env.in_range(&ranges::ABSOLUTE_PRESSURE, a.get::<pascal>(), e.span)?
+                }
+            };
+            tank.surface_pressure = p;
+        }
         other => {
             return Err(Diagnostic::error(
                 "unknown-field",
@@ -262,17 +285,21 @@ pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Resul
         "length" => {
             let l = expect_length(e, env, "pipe length")?;
             non_negative(l.get::<meter>(), "a pipe length", e.span)?;
-            seg.length = l;
+            seg.length = length(env.in_range(&ranges::PIPE_LENGTH, l.get::<meter>(), e.span)?);
         }
         "roughness" => {
             let r = expect_length(e, env, "roughness")?;
             non_negative(r.get::<meter>(), "roughness", e.span)?;
-            seg.roughness = Some(r);
+            seg.roughness = Some(length(env.in_range(
+                &ranges::ROUGHNESS,
+                r.get::<meter>(),
+                e.span,
+            )?));
         }
         "hazen_williams_c" => {
             let c = expect_number(e, env, "Hazen-Williams C")?;
             positive(c, "Hazen-Williams C", e.span)?;
-            seg.hazen_williams_c = Some(c);
+            seg.hazen_williams_c = Some(env.in_range(&ranges::HAZEN_WILLIAMS_C, c, e.span)?);
         }
         other => {
             return Err(Diagnostic::error(
@@ -362,6 +389,11 @@ pub fn lower_pipe(
             }
             if q.si <= 0.0 {
                 return fail(diags, a.span, "the bore must be greater than zero");
+            }
+            // Out of range: an error, but the segment is kept so its fittings do not
+            // also report that they come before any pipe.
+            if let Err(d) = env.in_range(&ranges::PIPE_BORE, q.si, a.span) {
+                diags.push(d);
             }
             let ArgKind::Quantity { value, unit } = &a.kind else {
                 return None;
@@ -468,12 +500,17 @@ pub fn lower_pipe(
     if f.get("length").is_none() {
         diags.push(missing("length", "a pipe", span, "length = 120 ft"));
     }
+    let mut length_failed = false;
     for field in &f.fields {
         if let Err(d) = set_segment(&mut seg, field.name, field.value, env) {
+            length_failed |= field.name == "length";
             diags.push(d);
         }
     }
-    if let Some(l) = f.get("length").filter(|_| seg.length.get::<meter>() == 0.0) {
+    if let Some(l) = f
+        .get("length")
+        .filter(|_| seg.length.get::<meter>() == 0.0 && !length_failed)
+    {
         diags.push(
             Diagnostic::warning(
                 "zero-length",
@@ -641,7 +678,10 @@ pub fn lower_loss(
     }
     if let Some(k) = f.get("k") {
         match expect_number(k.value, env, "loss coefficient K") {
-            Ok(v) if v >= 0.0 => loss.k = Some(v),
+            Ok(v) if v >= 0.0 => match env.in_range(&ranges::LOSS_K, v, k.value.span) {
+                Ok(v) => loss.k = Some(v),
+                Err(d) => diags.push(d),
+            },
             Ok(_) => diags.push(Diagnostic::error(
                 "out-of-range",
                 "K must not be negative",
@@ -652,7 +692,12 @@ pub fn lower_loss(
     }
     if let Some(l) = f.get("equivalent_length") {
         match expect_length(l.value, env, "equivalent length") {
-            Ok(v) if v.get::<meter>() >= 0.0 => loss.equivalent_length = Some(v),
+            Ok(v) if v.get::<meter>() >= 0.0 => {
+                match env.in_range(&ranges::PIPE_LENGTH, v.get::<meter>(), l.value.span) {
+                    Ok(v) => loss.equivalent_length = Some(length(v)),
+                    Err(d) => diags.push(d),
+                }
+            }
             Ok(_) => diags.push(Diagnostic::error(
                 "out-of-range",
                 "an equivalent length must not be negative",
@@ -769,7 +814,7 @@ pub fn apply_override(
         ["hours"] => s.hours_per_year = expect_hours(e, env)?,
         ["fluid", field] => set_fluid(&mut s.fluid, field, e, env)?,
         ["site", field] if SITE_FIELDS.contains(field) => set_site(&mut s.site, field, e, env)?,
-        ["station", "centreline"] => s.centreline = expect_length(e, env, "pump centreline")?,
+        ["station", "centreline"] => s.centreline = expect_level(e, env, "pump centreline")?,
         [tank, field] if *tank == s.source.name && TANK_FIELDS.contains(field) => {
             set_tank(&mut s.source, field, e, env)?
         }
@@ -779,6 +824,7 @@ pub fn apply_override(
         [pump, "speed"] if s.pump_speeds.iter().any(|(n, _)| n == pump) => {
             let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
             let v = positive(v, "a pump speed", e.span)?;
+            let v = env.in_range(&ranges::PUMP_SPEED, v, e.span)?;
             if let Some(entry) = s.pump_speeds.iter_mut().find(|(n, _)| n == pump) {
                 entry.1 = Frequency::new::<hertz>(v);
             }

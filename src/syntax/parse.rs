@@ -156,6 +156,10 @@ pub fn parse(source: &str) -> Result<File, Vec<Diagnostic>> {
     if let Some(d) = check_nesting(source) {
         return Err(vec![d]);
     }
+    let too_long = super::limits::check_lengths(source);
+    if !too_long.is_empty() {
+        return Err(too_long);
+    }
     let mut pairs =
         DutyParser::parse(Rule::file, source).map_err(|e| vec![syntax_error(source, e)])?;
     let mut errors = Vec::new();
@@ -477,6 +481,14 @@ fn parse_number(text: &str, sp: Span, errors: &mut Vec<Diagnostic>) -> f64 {
     }
 }
 
+/// A table cell such as `-10`: the text as written, the value negative.
+fn signed_number(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Number {
+    let text = p.as_str().to_string();
+    let digits = text.trim_start_matches(['-', '−']);
+    let value = -parse_number(digits, span(&p), errors);
+    Number { text, value }
+}
+
 /// Value of a nominal fraction such as `1-1/2` or `3/4`.
 fn fraction_value(text: &str) -> Option<f64> {
     let (whole, frac) = match text.split_once('-') {
@@ -766,6 +778,9 @@ fn table(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Table {
                         let v = c.into_inner().next();
                         let value = match v {
                             Some(v) if v.as_rule() == Rule::number => Some(number(v, errors)),
+                            Some(v) if v.as_rule() == Rule::signed => {
+                                Some(signed_number(v, errors))
+                            }
                             _ => None,
                         };
                         Cell { value, span: csp }

@@ -228,7 +228,7 @@ fn line_groups(count: usize) -> Vec<(usize, usize)> {
     groups
 }
 
-fn paragraph_chunks(ctx: &Ctx, spans: &[Span]) -> Vec<Chunk> {
+pub(super) fn paragraph_chunks(ctx: &Ctx, spans: &[Span]) -> Vec<Chunk> {
     let size = ctx.style.text.base_size_pt;
     let lines = wrap(ctx.fonts, &pieces(spans), size, ctx.width);
     let mut out = Vec::new();

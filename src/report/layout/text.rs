@@ -135,15 +135,17 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     line.clear();
                 }
                 let mut rest: &[Glyph] = &w;
+                let mut rest_width = word_width;
                 // Each pass takes at least one glyph, so the loop ends even when
                 // `max_width` is negative (an empty rest is never "too wide").
-                while !rest.is_empty() && rest.iter().map(|g| g.width).sum::<f64>() > max_width {
+                while !rest.is_empty() && wider_than(rest, &mut rest_width, max_width) {
                     let n = fit_count(rest, max_width);
+                    rest_width -= width_of(&rest[..n]);
                     lines.push(finish(fonts, &rest[..n]));
                     rest = &rest[n..];
                 }
                 line.extend_from_slice(rest);
-                line_width = rest.iter().map(|g| g.width).sum();
+                line_width = width_of(rest);
             }
         }
     }
@@ -186,19 +188,39 @@ pub fn break_preformatted(
         .collect();
     let mut lines = Vec::new();
     let mut rest: &[Glyph] = &glyphs;
+    let mut rest_width = width_of(rest);
     let mut width = first_width;
     // Each pass takes at least one glyph (`fit_count`), and an empty rest ends the loop,
     // so it runs at most once per glyph, whatever the widths (negative or NaN included).
     loop {
-        if rest.is_empty() || rest.iter().map(|g| g.width).sum::<f64>() <= width {
+        if rest.is_empty() || !wider_than(rest, &mut rest_width, width) {
             lines.push(finish_keep_spaces(fonts, rest));
             return lines;
         }
         let n = fit_count(rest, width);
+        rest_width -= width_of(&rest[..n]);
         lines.push(finish_keep_spaces(fonts, &rest[..n]));
         rest = &rest[n..];
         width = next_width;
     }
+}
+
+fn width_of(glyphs: &[Glyph]) -> f64 {
+    glyphs.iter().map(|g| g.width).sum()
+}
+
+/// Whether `glyphs` are wider than `max_width`, given `running`, their width kept by
+/// subtraction as pieces are taken off the front. A clearly wider rest is decided from
+/// the running width alone, so breaking a long word stays linear in its length; near the
+/// limit the width is summed afresh (and `running` reset), so rounding in the running
+/// width never lets a piece exceed the measure.
+fn wider_than(glyphs: &[Glyph], running: &mut f64, max_width: f64) -> bool {
+    // One point of margin is far above the rounding of any sum of glyph widths.
+    if *running > max_width + 1.0 {
+        return true;
+    }
+    *running = width_of(glyphs);
+    *running > max_width
 }
 
 fn glyph(fonts: &FontSet, face: Face, ch: char, size: f64) -> Glyph {

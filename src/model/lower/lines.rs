@@ -1,0 +1,213 @@
+//! The lines: suction (tank to pump) and discharge (pump to tank), each a series of
+//! pipe segments, and the source and destination tanks they connect.
+
+use super::{duplicate_name, Block, Blocks, MAX_SEGMENTS};
+use crate::diagnostics::{Diagnostic, Span};
+use crate::model::design::*;
+use crate::model::eval::{self, Env};
+use crate::model::fields::missing;
+use crate::model::scenario::lower_segments;
+use crate::names::nearest;
+use crate::syntax::ast::{Arg, ArgKind};
+
+/// The lines and the tanks at their ends.
+pub struct Network {
+    pub lines: Vec<Line>,
+    pub source: Option<Tank>,
+    pub destination: Option<Tank>,
+}
+
+/// Every line, the segment limit, and the one source and one destination tank.
+pub fn lower_lines(
+    blocks: &Blocks,
+    tanks: &[Tank],
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Network {
+    let mut lines: Vec<Line> = Vec::new();
+    let errors_before = diags.iter().filter(|x| x.is_error()).count();
+    for block in blocks.all("line") {
+        if let Some(line) = lower_line(block, &lines, tanks, env, diags) {
+            lines.push(line);
+        }
+    }
+    let segment_total: usize = lines.iter().map(|l| l.segments.len()).sum();
+    if segment_total > MAX_SEGMENTS {
+        diags.push(Diagnostic::error(
+            "too-many",
+            format!(
+                "the design has {segment_total} pipe segments; at most {MAX_SEGMENTS} are accepted"
+            ),
+            None,
+        ));
+    }
+    let line_failed = diags.iter().filter(|x| x.is_error()).count() > errors_before;
+    let suction_tanks = tank_names(&lines, Side::Suction);
+    let discharge_tanks = tank_names(&lines, Side::Discharge);
+    let source = end_tank(&suction_tanks, "suction", tanks, diags);
+    let destination = end_tank(&discharge_tanks, "discharge", tanks, diags);
+    if !line_failed && !lines.is_empty() && source.is_none() && suction_tanks.is_empty() {
+        diags.push(
+            Diagnostic::error("missing-line", "the design has no suction line", None)
+                .with_help("add `line suction from SOURCE to pump { ... }`"),
+        );
+    }
+    if !line_failed && !lines.is_empty() && destination.is_none() && discharge_tanks.is_empty() {
+        diags.push(
+            Diagnostic::error("missing-line", "the design has no discharge line", None)
+                .with_help("add `line discharge from pump to DESTINATION { ... }`"),
+        );
+    }
+    if lines.is_empty() && !line_failed {
+        diags.push(missing(
+            "line",
+            "the design",
+            Span::new(0, 0),
+            "line suction from sump to pump { ... }",
+        ));
+    }
+    Network {
+        lines,
+        source,
+        destination,
+    }
+}
+
+/// One `line NAME from A to B { ... }`, or `None` (with a diagnostic) when its shape,
+/// name or tank is wrong.
+fn lower_line(
+    block: &Block,
+    earlier: &[Line],
+    tanks: &[Tank],
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<Line> {
+    let Some((name, name_span, from, to)) = line_ends(block.args) else {
+        diags.push(bad_line(block.span));
+        return None;
+    };
+    if let Some(first) = earlier.iter().find(|l| l.name == name) {
+        diags.push(duplicate_name(
+            &format!("line `{name}`"),
+            name_span,
+            first.span,
+        ));
+        return None;
+    }
+    let side = match (from.0 == "pump", to.0 == "pump") {
+        (false, true) => Side::Suction,
+        (true, false) => Side::Discharge,
+        _ => {
+            diags.push(
+                Diagnostic::error("bad-line", "a line runs from a tank to `pump` (suction) or from `pump` to a tank (discharge)", Some(block.span))
+                    .with_help("e.g. `line suction from sump to pump { ... }`"),
+            );
+            return None;
+        }
+    };
+    let tank_end = if side == Side::Suction { &from } else { &to };
+    if !tanks.iter().any(|t| t.name == tank_end.0) {
+        diags.push(unknown_tank(&tank_end.0, tank_end.1, tanks));
+        return None;
+    }
+    let segments = lower_segments(block.statements(), env, diags);
+    if segments.is_empty() && block.body.is_some_and(|b| b.is_empty()) || block.body.is_none() {
+        diags.push(
+            Diagnostic::error(
+                "empty-line",
+                format!("line `{name}` has no pipe"),
+                Some(name_span),
+            )
+            .with_help("add `pipe MATERIAL SIZE { length = ... }`"),
+        );
+    }
+    Some(Line {
+        name,
+        side,
+        from: from.0,
+        to: to.0,
+        segments,
+        span: name_span,
+    })
+}
+
+/// A named end of a line: the word and where it is written.
+type End = (String, Span);
+
+/// Name, name span and the two ends of `NAME from A to B`, when the arguments have that shape.
+fn line_ends(args: &[Arg]) -> Option<(String, Span, End, End)> {
+    match args {
+        [Arg {
+            kind: ArgKind::Word(n),
+            span: ns,
+        }, Arg {
+            kind: ArgKind::Word(f),
+            ..
+        }, a, Arg {
+            kind: ArgKind::Word(t),
+            ..
+        }, b]
+            if f == "from" && t == "to" =>
+        {
+            match (&a.kind, &b.kind) {
+                (ArgKind::Word(x), ArgKind::Word(y)) => {
+                    Some((n.clone(), *ns, (x.clone(), a.span), (y.clone(), b.span)))
+                }
+                _ => None,
+            }
+        }
+        _ => None,
+    }
+}
+
+fn unknown_tank(name: &str, span: Span, tanks: &[Tank]) -> Diagnostic {
+    let near = nearest(name, tanks.iter().map(|t| t.name.as_str()));
+    Diagnostic::error(
+        "unknown-name",
+        format!("there is no tank `{name}`"),
+        Some(span),
+    )
+    .with_label("unknown tank")
+    .with_help(if near.is_empty() {
+        "define it with `tank NAME { level = ... }`".to_string()
+    } else {
+        format!("did you mean {}?", eval::quote_list(&near))
+    })
+}
+
+/// The tank at the far end of each line on one side, in file order.
+fn tank_names(lines: &[Line], side: Side) -> Vec<&str> {
+    lines
+        .iter()
+        .filter(|l| l.side == side)
+        .map(|l| match side {
+            Side::Suction => l.from.as_str(),
+            Side::Discharge => l.to.as_str(),
+        })
+        .collect()
+}
+
+/// The one tank every line of a side connects to.
+fn end_tank(
+    names: &[&str],
+    what: &str,
+    tanks: &[Tank],
+    diags: &mut Vec<Diagnostic>,
+) -> Option<Tank> {
+    let first = names.first()?;
+    if names.iter().any(|n| n != first) {
+        diags.push(Diagnostic::error("bad-line", format!("all {what} lines must connect to the same tank"), None)
+            .with_help("dutyline analyses one source and one destination; lines on one side run in series in file order"));
+        return None;
+    }
+    tanks.iter().find(|t| t.name == *first).cloned()
+}
+
+fn bad_line(span: Span) -> Diagnostic {
+    Diagnostic::error(
+        "bad-line",
+        "a line is `line NAME from A to B { ... }`",
+        Some(span),
+    )
+    .with_help("e.g. `line discharge from pump to reservoir { ... }`")
+}

@@ -1,0 +1,120 @@
+//! Lowering the syntax tree to a [`Design`]: the phases, in the order they run.
+//!
+//! Each phase reads the grouped top-level [`Blocks`] and what earlier phases produced,
+//! pushes its diagnostics, and hands its result on. Diagnostics come out in phase order.
+
+mod blocks;
+mod candidates;
+mod cases;
+mod constants;
+mod lines;
+mod operation;
+mod project;
+mod requirements;
+mod setting;
+mod tanks;
+
+use uom::si::f64::Time;
+use uom::si::time::second;
+
+use super::design::*;
+use super::FileAccess;
+use crate::diagnostics::{Diagnostic, Span};
+use crate::syntax::ast::File;
+
+pub use blocks::{Block, Blocks};
+
+/// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
+pub const MAX_CASES: usize = 200;
+pub const MAX_SEGMENTS: usize = 100;
+pub const MAX_PUMPS: usize = 20;
+
+/// Lower a parsed file. Returns the design when there were no errors, and all diagnostics.
+pub fn lower(
+    file: &File,
+    source: &str,
+    files: &dyn FileAccess,
+) -> (Option<Design>, Vec<Diagnostic>) {
+    let mut diags: Vec<Diagnostic> = Vec::new();
+    let env = constants::lower_constants(file, &mut diags);
+    let blocks = Blocks::group(file, &mut diags);
+    let texts = project::lower_texts(&blocks, &env, &mut diags);
+    let setting = setting::lower_setting(&blocks, &env, &mut diags);
+    let tanks = tanks::lower_tanks(&blocks, &env, &mut diags);
+    let network = lines::lower_lines(&blocks, &tanks, &env, &mut diags);
+    let pump_list = candidates::lower_candidates(&blocks, &env, files, &mut diags);
+    let motor = operation::lower_motor(blocks.body("motor"), texts.project.units, &env, &mut diags);
+    let energy = operation::lower_energy(blocks.body("energy"), &env, &mut diags);
+    let base = base_scenario(setting, network, &pump_list);
+    let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
+    let requirements = requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    diags.extend(env.warnings.take());
+    let has_errors = diags.iter().any(|x| x.is_error());
+    let design = match base {
+        Some(base) if !has_errors => Some(Design {
+            project: texts.project,
+            revisions: texts.revisions,
+            purpose: texts.purpose,
+            assumptions: texts.assumptions,
+            notes: texts.notes,
+            base,
+            cases,
+            requirements,
+            pumps: pump_list,
+            motor,
+            energy,
+        }),
+        _ => None,
+    };
+    (design, diags)
+}
+
+/// The base scenario, when fluid, both ends and the centreline are known.
+fn base_scenario(
+    setting: setting::Setting,
+    network: lines::Network,
+    pump_list: &[PumpCandidate],
+) -> Option<Scenario> {
+    let setting::Setting {
+        fluid,
+        site,
+        centreline,
+    } = setting;
+    let lines::Network {
+        lines,
+        source,
+        destination,
+    } = network;
+    match (fluid, source, destination, centreline) {
+        (Some(fluid), Some(source), Some(destination), Some(centreline)) => Some(Scenario {
+            fluid,
+            site,
+            source,
+            destination,
+            centreline,
+            lines,
+            pipe_condition: PipeCondition::New,
+            hours_per_year: Time::new::<second>(0.0),
+            pump_speeds: pump_list
+                .iter()
+                .map(|p| (p.name.clone(), p.rated_speed))
+                .collect(),
+        }),
+        _ => None,
+    }
+}
+
+/// The one "defined twice" diagnostic: `what` names the thing (e.g. "tank `sump`").
+pub(super) fn duplicate_name(what: &str, span: Span, first: Span) -> Diagnostic {
+    Diagnostic::error(
+        "duplicate-name",
+        format!("{what} is defined twice"),
+        Some(span),
+    )
+    .with_secondary(first, "first defined here")
+}
+
+/// The source text under a span (empty when the span is out of range).
+fn source_text(source: &str, span: Span) -> String {
+    source.get(span.start..span.end).unwrap_or("").to_string()
+}

@@ -1,0 +1,173 @@
+//! Operation settings: the motor standard and margins, and the energy price and life.
+
+use crate::diagnostics::Diagnostic;
+use crate::model::design::*;
+use crate::model::eval::{self, expect_dim, expect_number, Env};
+use crate::model::fields::read_fields;
+use crate::model::ranges;
+use crate::syntax::ast::Statement;
+use crate::units::Dimension;
+
+pub fn lower_motor(
+    body: Option<&[Statement]>,
+    units: ReportUnits,
+    env: &Env,
+    d: &mut Vec<Diagnostic>,
+) -> MotorSettings {
+    let standard = if units == ReportUnits::Us {
+        MotorStandardChoice::Nema
+    } else {
+        MotorStandardChoice::Iec
+    };
+    let mut m = MotorSettings {
+        standard,
+        service_factor: f64::NAN,
+        efficiency: None,
+        drive_efficiency: None,
+    };
+    let f = read_fields(
+        body.unwrap_or(&[]),
+        "motor",
+        &[
+            "standard",
+            "service_factor",
+            "efficiency",
+            "drive_efficiency",
+        ],
+        d,
+    );
+    for field in &f.fields {
+        let r: Result<(), Diagnostic> = (|| {
+            match field.name {
+                "standard" => {
+                    m.standard =
+                        if eval::expect_word(field.value, env, "motor standard", &["nema", "iec"])?
+                            == "nema"
+                        {
+                            MotorStandardChoice::Nema
+                        } else {
+                            MotorStandardChoice::Iec
+                        }
+                }
+                "service_factor" => {
+                    let v = expect_number(field.value, env, "service factor")?;
+                    if !(1.0..=1.5).contains(&v) {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "a service factor lies between 1.0 and 1.5",
+                            Some(field.value.span),
+                        ));
+                    }
+                    m.service_factor = v;
+                }
+                name => {
+                    let v = expect_number(field.value, env, name)?;
+                    if !(v > 0.3 && v <= 1.0) {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("{name} lies between 30 % and 100 %"),
+                            Some(field.value.span),
+                        )
+                        .with_help("write it as a percentage, e.g. `93.6 %`"));
+                    }
+                    if name == "efficiency" {
+                        m.efficiency = Some(v)
+                    } else {
+                        m.drive_efficiency = Some(v)
+                    }
+                }
+            }
+            Ok(())
+        })();
+        if let Err(e) = r {
+            d.push(e);
+        }
+    }
+    if m.service_factor.is_nan() {
+        // Common practice: NEMA open drip-proof motors carry SF 1.15; IEC ratings are used at SF 1.0.
+        m.service_factor = if m.standard == MotorStandardChoice::Nema {
+            1.15
+        } else {
+            1.0
+        };
+    }
+    m
+}
+
+pub fn lower_energy(
+    body: Option<&[Statement]>,
+    env: &Env,
+    d: &mut Vec<Diagnostic>,
+) -> EnergySettings {
+    let mut e = EnergySettings {
+        price_per_joule: None,
+        currency: "cu".into(),
+        years: 0.0,
+        discount_rate: 0.0,
+        escalation: 0.0,
+    };
+    let f = read_fields(
+        body.unwrap_or(&[]),
+        "energy",
+        &["price", "years", "discount_rate", "escalation"],
+        d,
+    );
+    for field in &f.fields {
+        let r: Result<(), Diagnostic> = (|| {
+            match field.name {
+                "price" => {
+                    let q = expect_dim(
+                        field.value,
+                        env,
+                        Dimension::MONEY_PER_ENERGY,
+                        "energy price",
+                    )?;
+                    if q.si < 0.0 {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "an energy price must not be negative",
+                            Some(field.value.span),
+                        ));
+                    }
+                    e.price_per_joule =
+                        Some(env.in_range(&ranges::ENERGY_PRICE, q.si, field.value.span)?);
+                    if let crate::syntax::ast::ExprKind::Quantity { unit, .. } = &field.value.kind {
+                        e.currency = unit.text.split('/').next().unwrap_or("cu").to_string();
+                    }
+                }
+                "years" => {
+                    let v = expect_number(field.value, env, "years")?;
+                    if !(0.0..=100.0).contains(&v) {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "the life in years lies between 0 and 100",
+                            Some(field.value.span),
+                        ));
+                    }
+                    e.years = v;
+                }
+                name => {
+                    let v = expect_number(field.value, env, name)?;
+                    if !(-0.5..=1.0).contains(&v) {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            format!("{name} is a yearly rate, e.g. `5 %`"),
+                            Some(field.value.span),
+                        ));
+                    }
+                    let v = env.in_range(&ranges::YEARLY_RATE, v, field.value.span)?;
+                    if name == "discount_rate" {
+                        e.discount_rate = v
+                    } else {
+                        e.escalation = v
+                    }
+                }
+            }
+            Ok(())
+        })();
+        if let Err(x) = r {
+            d.push(x);
+        }
+    }
+    e
+}
