@@ -285,7 +285,9 @@ pub fn evaluate(
         arrangement: p.arrangement,
         count: p.count,
         standby: p.standby,
-        speed_rpm: 0.0,
+        // The rated speed until a usable curve says otherwise: an unusable curve must
+        // not print "pump P at 0 rpm" (issue 11).
+        speed_rpm: p.rated_speed.get::<cycle_per_minute>(),
         impeller_diameter_m: None,
         duty: None,
         failure: None,

@@ -23,6 +23,11 @@ pub struct Block<'a> {
 }
 
 impl<'a> Block<'a> {
+    /// The keyword as written at the start of the statement.
+    pub fn keyword_span(&self) -> Span {
+        Span::new(self.span.start, self.span.start + self.keyword.len())
+    }
+
     /// The statements of the body (none when there are no braces).
     pub fn statements(&self) -> &'a [Statement] {
         self.body.unwrap_or(&[])
@@ -43,6 +48,14 @@ impl<'a> Blocks<'a> {
     /// Every block with this keyword, in file order.
     pub fn all<'s>(&'s self, keyword: &'s str) -> impl Iterator<Item = &'s Block<'a>> + 's {
         self.list.iter().filter(move |b| b.keyword == keyword)
+    }
+
+    /// Where a design-wide "missing" diagnostic points: the keyword of the `project`
+    /// block, else of the first block, else the start of the file.
+    pub fn first_line_span(&self) -> Span {
+        self.one("project")
+            .or(self.list.first())
+            .map_or(Span::new(0, 0), |b| b.keyword_span())
     }
 
     /// The body of the singleton block with this keyword, if it is there and has braces.

@@ -35,15 +35,21 @@ pub fn lower_candidates(
         }
         pump_list.push(pump);
     }
-    if pump_list.len() > MAX_PUMPS {
-        diags.push(Diagnostic::error(
-            "too-many",
-            format!(
-                "the design has {} pumps; at most {MAX_PUMPS} are accepted",
-                pump_list.len()
+    if let Some(first_over) = pump_list.get(MAX_PUMPS) {
+        diags.push(
+            Diagnostic::error(
+                "too-many",
+                format!(
+                    "the design has {} pumps; at most {MAX_PUMPS} are accepted",
+                    pump_list.len()
+                ),
+                Some(first_over.span),
+            )
+            .with_label(format!("pump {} of {}", MAX_PUMPS + 1, pump_list.len()))
+            .with_help(
+                "compare the candidates in groups: copies of the design with at most 20 pumps each",
             ),
-            None,
-        ));
+        );
     }
     if pump_list.is_empty() && blocks.one("pump").is_none() {
         diags.push(Diagnostic::warning(

@@ -22,15 +22,19 @@ pub fn lower_cases(
             cases.push(case);
         }
     }
-    if cases.len() > MAX_CASES {
-        diags.push(Diagnostic::error(
-            "too-many",
-            format!(
-                "the design has {} cases; at most {MAX_CASES} are accepted",
-                cases.len()
-            ),
-            None,
-        ));
+    if let Some(first_over) = cases.get(MAX_CASES) {
+        diags.push(
+            Diagnostic::error(
+                "too-many",
+                format!(
+                    "the design has {} cases; at most {MAX_CASES} are accepted",
+                    cases.len()
+                ),
+                Some(first_over.span),
+            )
+            .with_label(format!("case {} of {}", MAX_CASES + 1, cases.len()))
+            .with_help("split the cases over several design files (copies differing only in their cases), or drop cases that repeat another's conditions"),
+        );
     }
     if cases.is_empty() {
         if let Some(base) = base {

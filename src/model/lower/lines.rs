@@ -31,40 +31,12 @@ pub fn lower_lines(
             lines.push(line);
         }
     }
-    let segment_total: usize = lines.iter().map(|l| l.segments.len()).sum();
-    if segment_total > MAX_SEGMENTS {
-        diags.push(Diagnostic::error(
-            "too-many",
-            format!(
-                "the design has {segment_total} pipe segments; at most {MAX_SEGMENTS} are accepted"
-            ),
-            None,
-        ));
-    }
+    check_segment_count(&lines, diags);
     let line_failed = diags.iter().filter(|x| x.is_error()).count() > errors_before;
-    let suction_tanks = tank_names(&lines, Side::Suction);
-    let discharge_tanks = tank_names(&lines, Side::Discharge);
-    let source = end_tank(&suction_tanks, "suction", tanks, diags);
-    let destination = end_tank(&discharge_tanks, "discharge", tanks, diags);
-    if !line_failed && !lines.is_empty() && source.is_none() && suction_tanks.is_empty() {
-        diags.push(
-            Diagnostic::error("missing-line", "the design has no suction line", None)
-                .with_help("add `line suction from SOURCE to pump { ... }`"),
-        );
-    }
-    if !line_failed && !lines.is_empty() && destination.is_none() && discharge_tanks.is_empty() {
-        diags.push(
-            Diagnostic::error("missing-line", "the design has no discharge line", None)
-                .with_help("add `line discharge from pump to DESTINATION { ... }`"),
-        );
-    }
-    if lines.is_empty() && !line_failed {
-        diags.push(missing(
-            "line",
-            "the design",
-            Span::new(0, 0),
-            "line suction from sump to pump { ... }",
-        ));
+    let source = end_tank(&lines, Side::Suction, tanks, diags);
+    let destination = end_tank(&lines, Side::Discharge, tanks, diags);
+    if !line_failed {
+        missing_side(&lines, blocks, diags);
     }
     Network {
         lines,
@@ -175,32 +147,88 @@ fn unknown_tank(name: &str, span: Span, tanks: &[Tank]) -> Diagnostic {
     })
 }
 
-/// The tank at the far end of each line on one side, in file order.
-fn tank_names(lines: &[Line], side: Side) -> Vec<&str> {
-    lines
-        .iter()
-        .filter(|l| l.side == side)
-        .map(|l| match side {
-            Side::Suction => l.from.as_str(),
-            Side::Discharge => l.to.as_str(),
-        })
-        .collect()
+/// The tank at the far end of a line.
+fn far_tank(line: &Line) -> &str {
+    match line.side {
+        Side::Suction => &line.from,
+        Side::Discharge => &line.to,
+    }
 }
 
-/// The one tank every line of a side connects to.
+/// The one tank every line of a side connects to; an error at the first line that
+/// connects elsewhere.
 fn end_tank(
-    names: &[&str],
-    what: &str,
+    lines: &[Line],
+    side: Side,
     tanks: &[Tank],
     diags: &mut Vec<Diagnostic>,
 ) -> Option<Tank> {
-    let first = names.first()?;
-    if names.iter().any(|n| n != first) {
-        diags.push(Diagnostic::error("bad-line", format!("all {what} lines must connect to the same tank"), None)
+    let mut on_side = lines.iter().filter(|l| l.side == side);
+    let first = far_tank(on_side.next()?);
+    if let Some(other) = on_side.find(|l| far_tank(l) != first) {
+        let what = if side == Side::Suction {
+            "suction"
+        } else {
+            "discharge"
+        };
+        diags.push(Diagnostic::error("bad-line", format!("all {what} lines must connect to the same tank"), Some(other.span))
+            .with_label(format!("this {what} line connects to `{}`, the first to `{first}`", far_tank(other)))
             .with_help("dutyline analyses one source and one destination; lines on one side run in series in file order"));
         return None;
     }
-    tanks.iter().find(|t| t.name == *first).cloned()
+    tanks.iter().find(|t| t.name == first).cloned()
+}
+
+/// At most [`MAX_SEGMENTS`] pipes in all lines; the error points at the first one over.
+fn check_segment_count(lines: &[Line], diags: &mut Vec<Diagnostic>) {
+    let total: usize = lines.iter().map(|l| l.segments.len()).sum();
+    if let Some(first_over) = lines.iter().flat_map(|l| &l.segments).nth(MAX_SEGMENTS) {
+        diags.push(
+            Diagnostic::error(
+                "too-many",
+                format!("the design has {total} pipe segments; at most {MAX_SEGMENTS} are accepted"),
+                Some(first_over.span),
+            )
+            .with_label(format!("segment {} of {total}", MAX_SEGMENTS + 1))
+            .with_help("merge consecutive pipes of the same material and size into one with the summed length; their fittings follow it"),
+        );
+    }
+}
+
+/// A design needs one suction and one discharge line: when either side (or both) has
+/// none, say so at the line that is there, or at the top of the design.
+fn missing_side(lines: &[Line], blocks: &Blocks, diags: &mut Vec<Diagnostic>) {
+    let Some(first) = lines.first() else {
+        diags.push(missing(
+            "line",
+            "the design",
+            blocks.first_line_span(),
+            "line suction from sump to pump { ... }",
+        ));
+        return;
+    };
+    if !lines.iter().any(|l| l.side == Side::Suction) {
+        diags.push(
+            Diagnostic::error(
+                "missing-line",
+                "the design has no suction line",
+                Some(first.span),
+            )
+            .with_label("a discharge line, but no line brings water to the pump")
+            .with_help("add `line suction from SOURCE to pump { ... }` above this line"),
+        );
+    }
+    if !lines.iter().any(|l| l.side == Side::Discharge) {
+        diags.push(
+            Diagnostic::error(
+                "missing-line",
+                "the design has no discharge line",
+                Some(first.span),
+            )
+            .with_label("a suction line, but no line takes water from the pump")
+            .with_help("add `line discharge from pump to DESTINATION { ... }` below this line"),
+        );
+    }
 }
 
 fn bad_line(span: Span) -> Diagnostic {

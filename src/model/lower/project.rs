@@ -26,7 +26,7 @@ pub fn lower_texts(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> T
         diags.push(missing(
             "project",
             "the design",
-            Span::new(0, 0),
+            blocks.first_line_span(),
             "project { title = \"...\" number = \"...\" }",
         ));
     }

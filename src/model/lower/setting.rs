@@ -3,7 +3,7 @@
 use uom::si::f64::Length;
 use uom::si::length::meter;
 
-use crate::diagnostics::{Diagnostic, Span};
+use crate::diagnostics::Diagnostic;
 use crate::model::design::*;
 use crate::model::eval::Env;
 use crate::model::fields::{missing, read_fields};
@@ -26,7 +26,7 @@ pub fn lower_setting(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) ->
             diags.push(missing(
                 "fluid",
                 "the design",
-                Span::new(0, 0),
+                blocks.first_line_span(),
                 "fluid water { temperature = 15 degC }",
             ));
             None
@@ -72,7 +72,7 @@ fn lower_station(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> Opt
         diags.push(missing(
             "station",
             "the design",
-            Span::new(0, 0),
+            blocks.first_line_span(),
             "station { centreline = 101.5 m }",
         ));
         return None;

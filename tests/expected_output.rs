@@ -1,0 +1,154 @@
+//! Expected-output tests for what users read: the rendered diagnostics (source line,
+//! underline, label, help; no colour) of the broken designs in tests/designs/broken/,
+//! grouped by stage; `fmt` output and the `results` text of each demo; the `diff` text
+//! between the orchard revisions. The expected texts live in tests/expected/.
+//!
+//! Bless (rewrite) them after an intended change with
+//! `DUTYLINE_BLESS=1 cargo test --test expected_output`, then read the git diff.
+
+use std::path::{Path, PathBuf};
+
+struct DemoFiles;
+impl dutyline::FileAccess for DemoFiles {
+    fn read_text(&self, path: &str) -> Result<String, String> {
+        std::fs::read_to_string(format!("examples-demo/{path}")).map_err(|e| e.to_string())
+    }
+}
+
+fn blessing() -> bool {
+    std::env::var_os("DUTYLINE_BLESS").is_some()
+}
+
+/// A readable line diff: each differing line with its number, expected then actual.
+fn line_diff(expected: &str, actual: &str) -> String {
+    let (e, a): (Vec<&str>, Vec<&str>) = (expected.lines().collect(), actual.lines().collect());
+    let mut out = String::new();
+    for i in 0..e.len().max(a.len()) {
+        let (x, y) = (e.get(i), a.get(i));
+        if x != y {
+            out.push_str(&format!(
+                "line {}:\n  - {}\n  + {}\n",
+                i + 1,
+                x.unwrap_or(&"<none>"),
+                y.unwrap_or(&"<none>")
+            ));
+        }
+    }
+    out
+}
+
+/// Compare `actual` with the file, or write it when blessing. Returns a failure message.
+fn expect(path: &Path, actual: &str) -> Option<String> {
+    if blessing() {
+        std::fs::create_dir_all(path.parent().unwrap()).unwrap();
+        std::fs::write(path, actual).unwrap();
+        return None;
+    }
+    let expected = std::fs::read_to_string(path).unwrap_or_default();
+    (expected != actual).then(|| {
+        format!(
+            "{} differs (bless with DUTYLINE_BLESS=1):\n{}",
+            path.display(),
+            line_diff(&expected, actual)
+        )
+    })
+}
+
+fn files(dir: &str, ext: &str) -> Vec<PathBuf> {
+    let mut out = Vec::new();
+    for entry in std::fs::read_dir(dir).unwrap().flatten() {
+        let p = entry.path();
+        if p.is_dir() {
+            out.extend(files(p.to_str().unwrap(), ext));
+        } else if p.extension().is_some_and(|x| x == ext) {
+            out.push(p);
+        }
+    }
+    out.sort();
+    out
+}
+
+fn finish(failures: Vec<String>) {
+    assert!(failures.is_empty(), "{}", failures.join("\n"));
+}
+
+#[test]
+fn broken_designs_render_their_diagnostics() {
+    let mut failures = Vec::new();
+    let mut codes = std::collections::BTreeSet::new();
+    for path in files("tests/designs/broken", "duty") {
+        let source = std::fs::read_to_string(&path).unwrap();
+        let checked = dutyline::check(&source, &dutyline::NoFiles);
+        assert!(
+            checked.has_errors() || !checked.diagnostics.is_empty(),
+            "{} is not broken",
+            path.display()
+        );
+        codes.extend(checked.diagnostics.iter().map(|d| d.code));
+        let name = path.strip_prefix("tests/designs/broken").unwrap();
+        let rendered = dutyline::diagnostics::render(
+            &checked.diagnostics,
+            &name.display().to_string(),
+            &source,
+        );
+        let expected = Path::new("tests/expected/diagnostics")
+            .join(name)
+            .with_extension("txt");
+        failures.extend(expect(&expected, &rendered));
+    }
+    // The stages' own codes this folder exists to show, each at least once.
+    for code in [
+        "syntax",
+        "too-deep",
+        "too-long",
+        "number-out-of-range",
+        "unknown-unit",
+        "unit-mismatch",
+        "unknown-name",
+        "duplicate-name",
+        "unknown-field",
+        "unknown-statement",
+        "missing-line",
+        "missing-field",
+        "fitting-before-pipe",
+        "out-of-range",
+        "unusual-value",
+        "too-many",
+    ] {
+        assert!(codes.contains(code), "no broken design shows `{code}`");
+    }
+    finish(failures);
+}
+
+#[test]
+fn demos_format_results_and_diff_as_expected() {
+    let mut failures = Vec::new();
+    let mut checked_demos = Vec::new();
+    for path in files("examples-demo", "duty") {
+        let source = std::fs::read_to_string(&path).unwrap();
+        let stem = path.file_stem().unwrap().to_str().unwrap().to_string();
+        let formatted = dutyline::syntax::format_source(&source).expect("demo formats");
+        failures.extend(expect(
+            &Path::new("tests/expected/fmt").join(format!("{stem}.duty")),
+            &formatted,
+        ));
+        let checked = dutyline::check(&source, &DemoFiles);
+        let design = checked.design.expect("demo is valid");
+        let analysis = dutyline::analysis::analyse(&design);
+        let text = dutyline::results::to_text(&design, &analysis);
+        failures.extend(expect(
+            &Path::new("tests/expected/results").join(format!("{stem}.txt")),
+            &text,
+        ));
+        checked_demos.push((stem, design, analysis));
+    }
+    let find = |stem: &str| checked_demos.iter().find(|d| d.0 == stem).expect("demo");
+    let (old, new) = (find("orchard-lift-rev-a"), find("orchard-lift-rev-b"));
+    let diff = dutyline::diff::diff(&old.1, &old.2, &new.1, &new.2);
+    let text = dutyline::diff::render_text(&diff);
+    failures.extend(expect(
+        Path::new("tests/expected/diff/orchard-lift-rev-a-to-b.txt"),
+        &text,
+    ));
+    finish(failures);
+}

@@ -1,0 +1,249 @@
+//! Regression tests for hostile and broken input: each names the issue and the failure
+//! it fixes, and failed before the fix.
+
+use dutyline::diagnostics::{line_col, Diagnostic};
+
+const DEMO: &str = include_str!("../examples-demo/orchard-lift-rev-a.duty");
+
+/// The demo with one piece of text replaced (the piece must be there).
+fn demo_with(from: &str, to: &str) -> String {
+    assert!(DEMO.contains(from), "the demo has no `{from}`");
+    DEMO.replacen(from, to, 1)
+}
+
+fn diagnostics(src: &str) -> Vec<Diagnostic> {
+    dutyline::check(src, &dutyline::NoFiles).diagnostics
+}
+
+/// The first error with this code, its line and column and the text under its span.
+fn error_at(src: &str, code: &str) -> (Diagnostic, (usize, usize), String) {
+    let all = diagnostics(src);
+    let d = all
+        .iter()
+        .find(|d| d.is_error() && d.code == code)
+        .unwrap_or_else(|| {
+            let got: Vec<_> = all.iter().map(|d| (d.code, d.message.clone())).collect();
+            panic!("no `{code}` error; got {got:?}")
+        })
+        .clone();
+    let span = d.span.expect("the error is located");
+    let text = src[span.start..span.end].to_string();
+    (d, line_col(src, span.start), text)
+}
+
+/// Line (1-based) of the first occurrence of `needle` in `src`.
+fn line_of(src: &str, needle: &str) -> usize {
+    src[..src.find(needle).expect("needle")]
+        .matches('\n')
+        .count()
+        + 1
+}
+
+#[test]
+fn tiny_bore_is_a_located_error() {
+    // Issue 11: `pipe steel bore 1e-300 m` passed check and printed NaN heads.
+    let src = demo_with("pipe steel 8 in schedule 40", "pipe steel bore 1e-300 m");
+    let (d, (line, _), text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "1e-300 m");
+    assert_eq!(line, line_of(&src, "bore 1e-300"));
+    assert!(d.message.contains("pipe bore"), "{}", d.message);
+    // The pipe's fittings are not reported as coming before any pipe as well.
+    assert!(!diagnostics(&src)
+        .iter()
+        .any(|d| d.code == "fitting-before-pipe"));
+}
+
+#[test]
+fn huge_energy_price_is_a_located_error() {
+    // Issue 11: `price = 1e308 EUR/kWh` printed `inf EUR`.
+    let src = demo_with("price = 0.118 USD/kWh", "price = 1e308 EUR/kWh");
+    let (d, _, text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "1e308 EUR/kWh");
+    assert_eq!(
+        line_col(&src, d.span.unwrap().start).0,
+        line_of(&src, "1e308")
+    );
+    assert!(d.message.contains("energy price"), "{}", d.message);
+}
+
+#[test]
+fn huge_pipe_length_is_a_located_error() {
+    // Issue 11: `length = 1e308 m` gave a solver message with `-inf`.
+    let src = demo_with("length = 18 ft", "length = 1e308 m");
+    let (d, _, text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "1e308 m");
+    assert!(d.message.contains("pipe length"), "{}", d.message);
+    // And no zero-length warning for the length that was refused.
+    assert!(!diagnostics(&src).iter().any(|d| d.code == "zero-length"));
+}
+
+#[test]
+fn tiny_hazen_williams_c_is_a_located_error() {
+    // Issue 11: `hazen_williams_c = 1e-300` gave `inf` heads.
+    let src = demo_with(
+        "{ length = 18 ft }",
+        "{ length = 18 ft, hazen_williams_c = 1e-300 }",
+    );
+    let (d, _, text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "1e-300");
+    assert!(d.message.contains("Hazen-Williams C"), "{}", d.message);
+}
+
+#[test]
+fn huge_curve_head_is_a_located_error() {
+    // Issue 11: a curve head of `1e308` gave "RMS NaN m".
+    let row = "        0          186       0              -";
+    let src = demo_with(row, "        0          1e308       0              -");
+    let (d, (line, _), text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "1e308");
+    assert_eq!(line, line_of(&src, "1e308"));
+    assert!(d.message.contains("curve head"), "{}", d.message);
+}
+
+#[test]
+fn negative_curve_cell_names_its_column() {
+    // Issue 11: a curve row `-10` was read as `-` and `10` ("this row has 5 values").
+    let row = "        200        184       41             6.0";
+    let src = demo_with(row, "        200        -10       41             6.0");
+    let (d, _, text) = error_at(&src, "out-of-range");
+    assert_eq!(text, "-10");
+    assert_eq!(
+        d.message,
+        "negative values are not allowed in the `head` column"
+    );
+    assert!(!diagnostics(&src).iter().any(|d| d.code == "bad-row"));
+}
+
+#[test]
+fn long_tank_name_fails_at_check() {
+    // Issue 11: a 100 000-character tank name passed check and results, then build failed
+    // with "the header row is taller than half a page".
+    let name = format!("t{}", "a".repeat(99_999));
+    let src = DEMO.replace("wet_well", &name);
+    let (d, (line, column), _) = error_at(&src, "too-long");
+    assert_eq!((line, column), (line_of(&src, "tank t"), 6));
+    assert!(d.message.contains("100000 characters"), "{}", d.message);
+}
+
+#[test]
+fn long_pump_name_fails_at_check_quickly() {
+    // Issue 11: a 100 000-character pump name took 9 s and 160 MB.
+    let src = demo_with(
+        "pump A \"End",
+        &format!("pump {} \"End", "A".repeat(100_000)),
+    );
+    let start = std::time::Instant::now();
+    let (_, _, text) = error_at(&src, "too-long");
+    assert_eq!(text.len(), 100_000);
+    assert!(start.elapsed().as_secs_f64() < 5.0, "{:?}", start.elapsed());
+}
+
+#[test]
+fn long_text_is_a_located_error() {
+    // Issue 11: texts had no length limit (10 000 characters now).
+    let src = format!("{DEMO}\nnote \"{}\"\n", "x".repeat(10_001));
+    let (_, (line, column), _) = error_at(&src, "too-long");
+    assert_eq!((line, column), (line_of(&src, "note \"x"), 6));
+}
+
+fn pdf_of(src: &str) -> Vec<u8> {
+    let c = dutyline::check(src, &dutyline::NoFiles);
+    let design = c.design.expect("valid design");
+    let analysis = dutyline::analysis::analyse(&design);
+    let style = dutyline::report::layout::style::Style::builtin("letter").expect("style");
+    dutyline::report::render_pdf(&design, &analysis, src, &style, None).expect("pdf")
+}
+
+#[test]
+fn many_comment_lines_do_not_make_a_thousand_pages() {
+    // Issue 11: 100 000 comment lines produced a 1 327-page PDF.
+    let src = format!("{DEMO}{}", "# c\n".repeat(100_000));
+    let pdf = pdf_of(&src);
+    let pages = lopdf::Document::load_mem(&pdf)
+        .expect("pdf")
+        .get_pages()
+        .len();
+    // The demo alone is about 17 pages; the listing may add at most 30.
+    assert!(pages < 60, "{pages} pages");
+}
+
+#[test]
+fn one_mebibyte_comment_line_builds_in_linear_time() {
+    // Issue 11: a single 1 MiB comment line took 6.5 s (release; 145 s in a debug build)
+    // because the listing re-summed the rest of the line for every printed piece.
+    let room = dutyline::syntax::MAX_SOURCE_BYTES - DEMO.len() - 3;
+    let src = format!("{DEMO}# {}\n", "x".repeat(room));
+    let start = std::time::Instant::now();
+    let pdf = pdf_of(&src);
+    assert!(pdf.starts_with(b"%PDF"));
+    // Debug build on a shared 2-core machine: about 2 s measured; quadratic was 145 s.
+    assert!(
+        start.elapsed().as_secs_f64() < 40.0,
+        "{:?}",
+        start.elapsed()
+    );
+}
+
+#[test]
+fn too_many_cases_points_at_the_first_case_over() {
+    // Issue 11: `too-many` had no line:column.
+    let extra: String = (0..200).map(|n| format!("case c{n} {{ }}\n")).collect();
+    let src = format!("{DEMO}{extra}");
+    let (d, (line, _), text) = error_at(&src, "too-many");
+    // The demo has 4 cases, so case 201 is `c196`.
+    assert_eq!(text, "c196");
+    assert_eq!(line, line_of(&src, "case c196 "));
+    assert!(d.help.is_some());
+}
+
+#[test]
+fn too_many_pumps_points_at_the_first_pump_over() {
+    // Issue 11: `too-many` pumps had no line:column.
+    let start = DEMO.find("pump A ").unwrap();
+    let pump = &DEMO[start..];
+    let end = pump.find("\n}\n").unwrap() + 3;
+    let pump = &pump[..end];
+    let extra: String = (0..20)
+        .map(|n| pump.replacen("pump A ", &format!("pump X{n} "), 1))
+        .collect();
+    let src = format!("{DEMO}{extra}");
+    let (d, (line, _), _) = error_at(&src, "too-many");
+    assert!(d.message.contains("pumps"), "{}", d.message);
+    assert!(
+        line > DEMO.lines().count(),
+        "points into the added pumps, line {line}"
+    );
+}
+
+#[test]
+fn too_many_segments_points_at_the_first_segment_over() {
+    // Issue 11: `too-many` segments had no line:column.
+    let extra = "    pipe steel 8 in schedule 40 { length = 1 ft }\n".repeat(100);
+    let src = demo_with(
+        "    fitting entrance_rounded\n",
+        &format!("    fitting entrance_rounded\n{extra}"),
+    );
+    let (d, (line, column), _) = error_at(&src, "too-many");
+    assert!(d.message.contains("pipe segments"), "{}", d.message);
+    // Segment 101: the suction line's own pipe, then 100 more; the 101st is the 100th added.
+    assert_eq!(
+        (line, column),
+        (line_of(&src, "fitting entrance_rounded") + 100, 5)
+    );
+}
+
+#[test]
+fn missing_discharge_line_is_located() {
+    // Issue 11: `missing-line` had no line:column.
+    let start = DEMO.find("line discharge").unwrap();
+    let end = DEMO.find("case normal").unwrap();
+    let src = format!("{}{}", &DEMO[..start], &DEMO[end..]);
+    let (d, (line, _), text) = error_at(&src, "missing-line");
+    assert_eq!(text, "suction");
+    assert_eq!(line, line_of(&src, "line suction"));
+    assert!(d
+        .help
+        .as_deref()
+        .unwrap_or("")
+        .contains("line discharge from pump"));
+}
