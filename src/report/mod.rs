@@ -40,12 +40,12 @@ type Quantity<'a> = (
 );
 
 /// The changes section's content from a diff, in the new design's report units.
-pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections::Changes {
-    let u = crate::display::Units::new(d.report_units);
-    let (fl, hd, pw) = (u.flow(), u.head(), u.power());
+pub fn changes_from_diff(old: &Design, diff: &crate::diff::DesignDiff) -> sections::Changes {
+    let units = crate::display::Units::new(diff.report_units);
+    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
     let mut rows = Vec::new();
     let cell = |v: Option<f64>, f: &dyn Fn(f64) -> String| v.map(f).unwrap_or_else(|| "—".into());
-    for r in &d.results.rows {
+    for r in &diff.results.rows {
         let quantities: [Quantity; 5] = [
             ("duty flow", &r.flow_m3_s, &|v| fl.fmt(v)),
             ("duty head", &r.head_m, &|v| hd.fmt(v)),
@@ -68,7 +68,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             ]);
         }
     }
-    for c in &d.results.cases_added {
+    for c in &diff.results.cases_added {
         rows.push(vec![
             c.clone(),
             "all".into(),
@@ -78,7 +78,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             "—".into(),
         ]);
     }
-    for c in &d.results.cases_removed {
+    for c in &diff.results.cases_removed {
         rows.push(vec![
             c.clone(),
             "all".into(),
@@ -94,9 +94,9 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             .last()
             .map(|r| r.id.clone())
             .unwrap_or_else(|| "(none)".into()),
-        inputs: d.inputs.iter().map(|c| c.render()).collect(),
+        inputs: diff.inputs.iter().map(|c| c.render()).collect(),
         results: rows,
-        checks: d
+        checks: diff
             .results
             .checks
             .iter()
@@ -112,7 +112,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             })
             .collect(),
         recommendation: {
-            let r = &d.results.recommendation;
+            let r = &diff.results.recommendation;
             let name = |x: &Option<String>| x.clone().unwrap_or_else(|| "none".into());
             if r.changed {
                 format!(
