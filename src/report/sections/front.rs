@@ -19,10 +19,7 @@ pub(super) fn title_block(blocks: &mut Vec<Block>, design: &Design, sha256: &str
                 .map(|r| format!("{} — {} — {}", r.id, r.date, r.description))
                 .unwrap_or_else(|| "—".into()),
         ),
-        (
-            "Subject".into(),
-            "Pump selection: system curves, duty points, NPSH, power and energy".into(),
-        ),
+        ("Subject".into(), super::SUBJECT.into()),
         ("Source file SHA-256".into(), sha256.to_string()),
         (
             "Prepared with".into(),

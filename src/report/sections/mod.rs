@@ -14,7 +14,7 @@ mod references;
 mod selection;
 mod system_curves;
 
-use super::layout::document::{Block, Document, PageMeta};
+use super::layout::document::{Block, Document, PageMeta, PdfInfo};
 use crate::analysis::Analysis;
 use crate::display::Units;
 use crate::model::Design;
@@ -67,13 +67,32 @@ pub fn document(
     Document {
         title: format!("{} — {}", project.number, project.title),
         meta: PageMeta {
-            header_left: format!("{} · {}", project.title, project.number),
+            header_left: project.title.clone(),
+            header_number: project.number.clone(),
             header_right: revision_text,
             footer_left: format!("source SHA-256 {}…", &sha256[..sha256.len().min(12)]),
+        },
+        info: PdfInfo {
+            author: project.prepared.clone(),
+            subject: SUBJECT.to_string(),
+            date: design.revisions.last().and_then(|r| iso_date(&r.date)),
         },
         id_seed: sha256.to_string(),
         blocks,
     }
+}
+
+/// The package's subject line (title block and PDF information).
+pub const SUBJECT: &str = "Pump selection: system curves, duty points, NPSH, power and energy";
+
+/// `(year, month, day)` of an ISO 8601 calendar date "YYYY-MM-DD"; `None` otherwise.
+fn iso_date(text: &str) -> Option<(i32, u8, u8)> {
+    let mut parts = text.trim().splitn(3, '-');
+    let year: i32 = parts.next()?.parse().ok()?;
+    let month: u8 = parts.next()?.parse().ok()?;
+    let day: u8 = parts.next()?.parse().ok()?;
+    ((1..=9999).contains(&year) && (1..=12).contains(&month) && (1..=31).contains(&day))
+        .then_some((year, month, day))
 }
 
 /// Cases per system-curve table and per plot, so columns and legends stay legible.
