@@ -137,6 +137,9 @@ impl Signatory {
 }
 
 /// A unit of content.
+// A figure carries its chart inline; blocks are few (hundreds per package), so the
+// size of the largest variant does not matter and boxing would only burden callers.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Clone, PartialEq)]
 pub enum Block {
     /// A section heading, numbered automatically ("3", "3.2", "3.2.1") and listed in

@@ -1,13 +1,14 @@
-//! A pump candidate's chapter: its summary, published curves and fits, head, NPSH
-//! and power plots per group of cases, the duty table and the remarks.
+//! A pump candidate's chapter: its summary, published curves and fits, the plots
+//! (`plots.rs`), the duty table and the remarks.
 
-use super::{dedup, group_label, CASES_PER_GROUP};
+mod plots;
+
+use super::{dedup, group_label};
 use crate::analysis::duty::{CandidateCurves, PumpResult};
 use crate::analysis::{Analysis, CaseResult};
 use crate::display::{percent, Units};
 use crate::model::{Design, PumpCandidate};
 use crate::pumps::MotorChoice;
-use crate::report::layout::chart::{Chart, HLine, Marker, Series, YAxis};
 use crate::report::layout::document::{Align, Block, Column};
 
 /// A case with this candidate's result in it.
@@ -31,12 +32,14 @@ pub(super) fn chapter(
         .iter()
         .filter_map(|c| c.pumps.get(index).map(|r| (c, r)))
         .collect();
-    let groups = all_results.len().div_ceil(CASES_PER_GROUP).max(1);
-    for (group, results) in all_results.chunks(CASES_PER_GROUP).enumerate() {
+    plots::published_plot(blocks, pump, curves, units);
+    let per_plot = plots::cases_per_plot(&all_results);
+    let groups = all_results.len().div_ceil(per_plot).max(1);
+    for (group, results) in all_results.chunks(per_plot).enumerate() {
         let part = group_label(group, groups);
-        head_plot(blocks, pump, curves, results, &part, units);
-        npsh_plot(blocks, pump, results, &part, units);
-        power_plot(blocks, pump, motor, results, &part, units);
+        plots::head_plot(blocks, pump, results, &part, units);
+        plots::npsh_plot(blocks, pump, curves, results, &part, units);
+        plots::power_plot(blocks, pump, motor, results, &part, units);
     }
     duty_table(blocks, pump, &all_results, units);
     remarks(blocks, pump, &all_results);
@@ -195,265 +198,6 @@ fn published_curves(
             caption: Some(fit_note),
         });
     }
-}
-
-/// Head curves as run in each case, system curves, duty points and efficiency.
-fn head_plot(
-    blocks: &mut Vec<Block>,
-    pump: &PumpCandidate,
-    curves: &CandidateCurves,
-    results: &[CaseRun],
-    part: &str,
-    units: &Units,
-) {
-    let (fl, hd) = (units.flow(), units.head());
-    let mut series = Vec::new();
-    let mut markers = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        series.push(Series {
-            name: format!("system, {}", c.name),
-            points: c
-                .system_curve
-                .iter()
-                .map(|point| (fl.value(point.flow), hd.value(point.head)))
-                .collect(),
-            style_index: k,
-            dashed: true,
-            ..Default::default()
-        });
-        let same_curve = k > 0 && results[k - 1].1.operating_curve == r.operating_curve;
-        if !same_curve && !r.operating_curve.is_empty() {
-            series.push(Series {
-                name: format!(
-                    "pump {} at {:.0} rpm{}",
-                    pump.name,
-                    r.speed_rpm,
-                    if results.len() > 1 {
-                        format!(" ({})", c.name)
-                    } else {
-                        String::new()
-                    }
-                ),
-                points: r
-                    .operating_curve
-                    .iter()
-                    .map(|q| (fl.value(q.flow), hd.value(q.head)))
-                    .collect(),
-                style_index: k,
-                ..Default::default()
-            });
-        }
-        if let Some(duty) = &r.duty {
-            markers.push(Marker {
-                x: fl.value(duty.flow),
-                y: hd.value(duty.head),
-                label: format!("{}: {} @ {}", c.name, fl.fmt(duty.flow), hd.fmt(duty.head)),
-                axis: YAxis::Left,
-            });
-        }
-    }
-    // The whole published family (each impeller or speed), thin and dotted, when there are several.
-    if curves.published_head_samples.len() > 1 {
-        let good: Vec<&crate::model::CurveData> = pump
-            .curves
-            .iter()
-            .zip(&curves.published)
-            .filter(|(_, r)| r.is_ok())
-            .map(|(c, _)| c)
-            .collect();
-        for (data, pts) in good.iter().zip(&curves.published_head_samples) {
-            let label = match data.impeller {
-                Some(dm) => format!(
-                    "published {} at {:.0} rpm",
-                    units.diameter().fmt(dm.get::<uom::si::length::meter>()),
-                    data.speed.get::<uom::si::frequency::cycle_per_minute>()
-                ),
-                None => format!(
-                    "published at {:.0} rpm",
-                    data.speed.get::<uom::si::frequency::cycle_per_minute>()
-                ),
-            };
-            series.push(Series {
-                name: label,
-                points: pts
-                    .iter()
-                    .map(|(q, h)| (fl.value(*q), hd.value(*h)))
-                    .collect(),
-                style_index: 6,
-                dashed: true,
-                ..Default::default()
-            });
-        }
-    }
-    // Efficiency on the right axis (the published curve at rated speed).
-    if let Some(r) = results.first().map(|x| x.1) {
-        let eff: Vec<(f64, f64)> = r
-            .operating_curve
-            .iter()
-            .filter_map(|q| q.efficiency.map(|e| (fl.value(q.flow), e * 100.0)))
-            .collect();
-        if !eff.is_empty() {
-            series.push(Series {
-                name: format!("efficiency ({})", results[0].0.name),
-                points: eff,
-                axis: YAxis::Right,
-                style_index: 7,
-                ..Default::default()
-            });
-        }
-    }
-    blocks.push(Block::Figure {
-    chart: Chart { x_label: format!("Flow ({})", fl.label), y_label: format!("Head ({})", hd.label), y2_label: Some("Efficiency (%)".into()), y2_range: Some((0.0, 100.0)), series, points: markers, ..Default::default() },
-    height_mm: 110.0,
-    caption: format!("Pump {}: head curves as run in each case, system curves and duty points; efficiency on the right axis{part}", pump.name),
-});
-}
-
-/// NPSH required along the curve against NPSH available per case.
-fn npsh_plot(
-    blocks: &mut Vec<Block>,
-    pump: &PumpCandidate,
-    results: &[CaseRun],
-    part: &str,
-    units: &Units,
-) {
-    let (fl, hd) = (units.flow(), units.head());
-    let mut series = Vec::new();
-    let mut markers = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        let npshr: Vec<(f64, f64)> = r
-            .operating_curve
-            .iter()
-            .filter_map(|q| q.npshr.map(|n| (fl.value(q.flow), hd.value(n))))
-            .collect();
-        if !npshr.is_empty() && (k == 0 || results[k - 1].1.operating_curve != r.operating_curve) {
-            series.push(Series {
-                name: format!("NPSHr ({})", c.name),
-                points: npshr,
-                style_index: k,
-                ..Default::default()
-            });
-        }
-        if let Some(duty) = &r.duty {
-            markers.push(Marker {
-                x: fl.value(duty.flow),
-                y: hd.value(duty.npsh_available),
-                label: format!("NPSHa {}: {}", c.name, hd.fmt(duty.npsh_available)),
-                axis: YAxis::Left,
-            });
-        }
-    }
-    let npsha_curves: Vec<Series> = results
-        .iter()
-        .enumerate()
-        .filter_map(|(k, (c, _))| {
-            let pts: Vec<(f64, f64)> = c
-                .system_curve
-                .iter()
-                .zip(&c.npsh_available_curve)
-                .map(|(point, n)| (fl.value(point.flow), hd.value(*n)))
-                .collect();
-            (!pts.is_empty()).then(|| Series {
-                name: format!("NPSHa ({})", c.name),
-                points: pts,
-                style_index: k,
-                dashed: true,
-                ..Default::default()
-            })
-        })
-        .collect();
-    series.extend(npsha_curves);
-    blocks.push(Block::Figure {
-        chart: Chart {
-            x_label: format!("Flow ({})", fl.label),
-            y_label: format!("NPSH ({})", hd.label),
-            y_range: None,
-            series,
-            points: markers,
-            ..Default::default()
-        },
-        height_mm: 85.0,
-        caption: format!(
-            "Pump {}: NPSH required against NPSH available per case{part}",
-            pump.name
-        ),
-    });
-}
-
-/// Shaft power per pump along the curve, the duty points and the motor lines.
-fn power_plot(
-    blocks: &mut Vec<Block>,
-    pump: &PumpCandidate,
-    motor: Option<&MotorChoice>,
-    results: &[CaseRun],
-    part: &str,
-    units: &Units,
-) {
-    let (fl, pw) = (units.flow(), units.power());
-    let mut series = Vec::new();
-    for (k, (c, r)) in results.iter().enumerate() {
-        if k > 0 && results[k - 1].1.operating_curve == r.operating_curve {
-            continue;
-        }
-        let pts: Vec<(f64, f64)> = r
-            .operating_curve
-            .iter()
-            .filter_map(|q| {
-                q.shaft_power
-                    .map(|w| (fl.value(q.flow), pw.value(w / pump.count.max(1) as f64)))
-            })
-            .collect();
-        if !pts.is_empty() {
-            series.push(Series {
-                name: format!("shaft power per pump ({})", c.name),
-                points: pts,
-                style_index: k,
-                ..Default::default()
-            });
-        }
-    }
-    let mut hlines = Vec::new();
-    if let Some(m) = motor {
-        hlines.push(HLine {
-            y: pw.value(m.rating_w),
-            label: format!("motor {}", m.rating_label),
-            axis: YAxis::Left,
-        });
-        hlines.push(HLine {
-            y: pw.value(m.rating_w * m.service_factor),
-            label: format!("rating × SF {:.2}", m.service_factor),
-            axis: YAxis::Left,
-        });
-    }
-    let per = pump.count.max(1) as f64;
-    let markers: Vec<Marker> = results
-        .iter()
-        .filter_map(|(c, r)| {
-            let duty = r.duty.as_ref()?;
-            let s = duty.shaft_power?;
-            Some(Marker {
-                x: fl.value(duty.flow),
-                y: pw.value(s / per),
-                label: format!("{}: {}", c.name, pw.fmt(s / per)),
-                axis: YAxis::Left,
-            })
-        })
-        .collect();
-    blocks.push(Block::Figure {
-        chart: Chart {
-            x_label: format!("Flow of the arrangement ({})", fl.label),
-            y_label: format!("Shaft power per pump ({})", pw.label),
-            series,
-            hlines,
-            points: markers,
-            ..Default::default()
-        },
-        height_mm: 80.0,
-        caption: format!(
-            "Pump {}: shaft power per pump along the curve, duty points and the motor rating{part}",
-            pump.name
-        ),
-    });
 }
 
 /// The duty point of every case: speed, flow, head, efficiency, NPSH, velocities, power.
