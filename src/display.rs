@@ -26,6 +26,38 @@ impl Shown {
     pub fn num(&self, si: f64) -> String {
         format!("{:.*}", self.decimals, self.value(si))
     }
+    /// As [`Shown::fmt`], typeset for print: a minus sign (U+2212), never "−0.0".
+    pub fn text(&self, si: f64) -> String {
+        format!("{} {}", typeset(self.value(si), self.decimals), self.label)
+    }
+    /// As [`Shown::num`], typeset for print: a minus sign (U+2212), never "−0.0".
+    pub fn figure(&self, si: f64) -> String {
+        typeset(self.value(si), self.decimals)
+    }
+}
+
+/// A number with `decimals` places for print: the minus sign U+2212 for negatives,
+/// and a value that rounds to zero printed without a sign ("0.0", never "-0.0").
+pub fn typeset(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(digits) if digits.chars().any(|c| c.is_ascii_digit() && c != '0') => {
+            format!("\u{2212}{digits}")
+        }
+        Some(digits) => digits.to_string(),
+        None => text,
+    }
+}
+
+/// A signed change for print, "+0.2 %", "−1.5 %", and "0.0 %" for a change that
+/// rounds to zero.
+pub fn signed_percent(percent: f64, decimals: usize) -> String {
+    let text = typeset(percent, decimals);
+    if text.starts_with('\u{2212}') || text.chars().all(|c| c == '0' || c == '.') {
+        format!("{text} %")
+    } else {
+        format!("+{text} %")
+    }
 }
 
 const FT: f64 = 0.3048;

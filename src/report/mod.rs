@@ -47,12 +47,12 @@ pub fn changes_from_diff(old: &Design, diff: &crate::diff::DesignDiff) -> sectio
     let cell = |v: Option<f64>, f: &dyn Fn(f64) -> String| v.map(f).unwrap_or_else(|| "—".into());
     for r in &diff.results.rows {
         let quantities: [Quantity; 5] = [
-            ("duty flow", &r.flow_m3_s, &|v| fl.fmt(v)),
-            ("duty head", &r.head_m, &|v| hd.fmt(v)),
+            ("duty flow", &r.flow_m3_s, &|v| fl.text(v)),
+            ("duty head", &r.head_m, &|v| hd.text(v)),
             ("efficiency", &r.efficiency, &|v| crate::display::percent(v)),
-            ("shaft power", &r.shaft_power, &|v| pw.fmt(v)),
+            ("shaft power", &r.shaft_power, &|v| pw.text(v)),
             ("NPSH margin (ratio)", &r.npsh_margin, &|v| {
-                format!("{v:.2}")
+                crate::display::typeset(v, 2)
             }),
         ];
         for (name, c, f) in quantities {
@@ -63,7 +63,7 @@ pub fn changes_from_diff(old: &Design, diff: &crate::diff::DesignDiff) -> sectio
                 cell(c.before, f),
                 cell(c.after, f),
                 c.change_percent
-                    .map(|p| format!("{p:+.1} %"))
+                    .map(|p| crate::display::signed_percent(p, 1))
                     .unwrap_or_else(|| "—".into()),
             ]);
         }

@@ -180,6 +180,9 @@ pub enum Block {
         /// Caption text.
         caption: String,
     },
+    /// A displayed equation, centred, numbered "(N)" at the right margin
+    /// (numbered automatically). Set in Unicode math: ρ, ·, superscripts, subscripts.
+    Equation(String),
     /// Table of contents with dot leaders and page numbers.
     Contents,
     /// The boxed title block of the calculation package.

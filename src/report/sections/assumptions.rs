@@ -33,7 +33,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
     if !analysis.warnings.is_empty() {
         blocks.push(Block::heading(2, "Warnings of the analysis"));
         for w in &analysis.warnings {
-            blocks.push(Block::note(w.message.clone()));
+            blocks.push(Block::note(super::wording::plain(&w.message)));
         }
     }
     blocks.push(Block::heading(2, "Cautions"));

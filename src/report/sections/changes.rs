@@ -17,7 +17,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, changes: &Changes) {
         blocks.push(Block::Table {
             columns: vec![Column::new("Change", 1.0, Align::Left)],
             rows: changes.inputs.iter().map(|s| vec![s.clone()]).collect(),
-            caption: None,
+            caption: Some("Inputs changed since the earlier revision".into()),
         });
     }
     blocks.push(Block::heading(2, "Effect on the duty points"));
@@ -31,7 +31,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, changes: &Changes) {
             Column::new("Change", 0.16, Align::Right),
         ],
         rows: changes.results.clone(),
-        caption: None,
+        caption: Some("Duty points before and after".into()),
     });
     blocks.push(Block::heading(2, "Checks whose status changed"));
     if changes.checks.is_empty() {
@@ -47,7 +47,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, changes: &Changes) {
                 Column::new("Finding now", 0.43, Align::Left),
             ],
             rows: changes.checks.clone(),
-            caption: None,
+            caption: Some("Checks whose status changed".into()),
         });
     }
     blocks.push(Block::text(changes.recommendation.clone()));

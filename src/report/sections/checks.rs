@@ -13,8 +13,8 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
     let mut rows = Vec::new();
     for c in &analysis.cases {
         for p in &c.pumps {
-            for changes in &p.checks {
-                let mark = match changes.status {
+            for check in &p.checks {
+                let mark = match check.status {
                     Status::Pass => "pass",
                     Status::Warn => "WARN",
                     Status::Fail => "FAIL",
@@ -22,15 +22,14 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
                 rows.push(vec![
                     c.name.clone(),
                     p.name.clone(),
-                    changes.id.to_string(),
+                    check.id.to_string(),
                     mark.to_string(),
-                    changes.message.clone(),
-                    changes.source.clone(),
+                    super::wording::plain(&check.message),
+                    super::sources::publication(&check.source, units),
                 ]);
             }
         }
     }
-    let _ = units;
     blocks.push(Block::Table {
         columns: vec![
             Column::new("Case", 0.11, Align::Left),
@@ -41,6 +40,6 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
             Column::new("Source of the limit", 0.22, Align::Left),
         ],
         rows,
-        caption: None,
+        caption: Some("Checks per case and candidate, with the source of each limit".into()),
     });
 }

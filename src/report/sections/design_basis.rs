@@ -27,7 +27,7 @@ pub(super) fn chapter(
         fittings(blocks, design, case, system, units);
     }
     cases(blocks, analysis);
-    requirements(blocks, design);
+    requirements(blocks, design, units);
 }
 
 /// Fluid properties and barometric pressure per case, with their sources.
@@ -44,12 +44,12 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
                 system
                     .fluid
                     .temperature_k
-                    .map(|t| units.temperature().fmt(t))
+                    .map(|t| units.temperature().text(t))
                     .unwrap_or_else(|| "—".into()),
-                units.density().fmt(system.fluid.density),
-                units.viscosity().fmt(system.fluid.viscosity),
-                units.pressure().fmt(system.fluid.vapor_pressure),
-                units.pressure().fmt(system.barometric_pa),
+                units.density().text(system.fluid.density),
+                units.viscosity().text(system.fluid.viscosity),
+                units.pressure().text(system.fluid.vapor_pressure),
+                units.pressure().text(system.barometric_pa),
             ]
         })
         .collect();
@@ -68,16 +68,19 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
     });
     if let Some(system) = analysis.cases.iter().find_map(|case| case.system.as_ref()) {
         blocks.push(Block::KeyValue(vec![
-            ("Fluid properties".into(), system.fluid.source.clone()),
+            (
+                "Fluid properties".into(),
+                super::sources::publication(&system.fluid.source, units),
+            ),
             (
                 "Barometric pressure".into(),
-                system.barometric_source.clone(),
+                super::sources::publication(&system.barometric_source, units),
             ),
             (
                 "Site elevation".into(),
                 units
                     .elevation()
-                    .fmt(design.base.site.elevation.get::<uom::si::length::meter>()),
+                    .text(design.base.site.elevation.get::<uom::si::length::meter>()),
             ),
         ]));
     }
@@ -110,23 +113,25 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             .map(|(case, system)| {
                 vec![
                     case.name.clone(),
-                    units.elevation().fmt(system.source_level),
-                    units.elevation().fmt(system.destination_level),
-                    units.elevation().fmt(system.centreline),
+                    units.elevation().text(system.source_level),
+                    units.elevation().text(system.destination_level),
+                    units.elevation().text(system.centreline),
                     format!(
                         "{} / {}",
                         units
                             .pressure()
-                            .fmt(system.source_abs_pa - system.barometric_pa),
+                            .text(system.source_abs_pa - system.barometric_pa),
                         units
                             .pressure()
-                            .fmt(system.destination_abs_pa - system.barometric_pa)
+                            .text(system.destination_abs_pa - system.barometric_pa)
                     ),
-                    units.head().fmt(system.static_head),
+                    units.head().text(system.static_head),
                 ]
             })
             .collect(),
-        caption: None,
+        caption: Some(
+            "Surface levels, pump datum, surface pressures and static head per case".into(),
+        ),
     });
 }
 
@@ -147,15 +152,16 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
             .map(|g| {
                 vec![
                     format!("{} {}", g.line, g.index + 1),
-                    format!("{} {}", g.material, g.size_label),
-                    units.diameter().fmt(g.inner_diameter),
-                    units.length().fmt(g.length),
+                    format!("{} {}", g.material.replace('_', " "), g.size_label),
+                    units.diameter().text(g.inner_diameter),
+                    units.length().text(g.length),
                     g.hazen_williams_c
-                        .map(|case| format!("C = {case}"))
-                        .unwrap_or_else(|| units.roughness().fmt(g.roughness)),
+                        .map(|hazen_c| format!("C = {hazen_c}"))
+                        .unwrap_or_else(|| units.roughness().text(g.roughness)),
                     format!(
-                        "diameter: {}; roughness: {}",
-                        g.diameter_source, g.roughness_source
+                        "{}; {}",
+                        super::sources::labelled("diameter", &g.diameter_source, units),
+                        super::sources::labelled("roughness", &g.roughness_source, units)
                     ),
                 ]
             })
@@ -191,7 +197,7 @@ fn fittings(
                     "{:.3}",
                     crate::analysis::system::k_of(f, re, g.inner_diameter)
                 ),
-                f.spec.source.to_string(),
+                super::sources::publication(f.spec.source, units),
             ]);
         }
     }
@@ -203,7 +209,7 @@ fn fittings(
                     (_, Some(le)) => {
                         format!(
                             "L = {}",
-                            units.length().fmt(le.get::<uom::si::length::meter>())
+                            units.length().text(le.get::<uom::si::length::meter>())
                         )
                     }
                     _ => "—".into(),
@@ -229,7 +235,7 @@ fn fittings(
         ],
         rows,
         caption: Some(match q {
-            Some(q) => format!("K values at the first duty flow of case {} ({}); Reynolds-dependent K change with flow", case.name, units.flow().fmt(q)),
+            Some(q) => format!("K values at the first duty flow of case {} ({}); Reynolds-dependent K change with flow", case.name, units.flow().text(q)),
             None => "K values at Re = 10⁵".into(),
         }),
     });
@@ -254,24 +260,24 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
                     if case.overrides.is_empty() {
                         "none (base design)".into()
                     } else {
-                        case.overrides.join("; ")
+                        super::wording::plain(&case.overrides.join("; "))
                     },
                 ]
             })
             .collect(),
-        caption: None,
+        caption: Some("Operating cases, their hours per year and what each changes".into()),
     });
 }
 
 /// The requirements as written and the cases they apply to.
-fn requirements(blocks: &mut Vec<Block>, design: &Design) {
+fn requirements(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
     blocks.push(Block::heading(2, "Requirements"));
     if design.requirements.is_empty() {
         blocks.push(Block::text("The design states no requirements; the checks use the default limits given in the Checks section."));
     } else {
         blocks.push(Block::Table {
             columns: vec![
-                Column::new("Requirement as written", 0.7, Align::Left),
+                Column::new("Requirement", 0.7, Align::Left),
                 Column::new("Applies to", 0.3, Align::Left),
             ],
             rows: design
@@ -279,7 +285,7 @@ fn requirements(blocks: &mut Vec<Block>, design: &Design) {
                 .iter()
                 .map(|r| {
                     vec![
-                        r.text.clone(),
+                        super::wording::requirement(r, units),
                         if r.cases.is_empty() {
                             "every case".into()
                         } else {
@@ -288,7 +294,7 @@ fn requirements(blocks: &mut Vec<Block>, design: &Design) {
                     ]
                 })
                 .collect(),
-            caption: None,
+            caption: Some("Requirements of the design and the cases they apply to".into()),
         });
     }
 }

@@ -64,7 +64,7 @@ pub(super) fn revision_history(blocks: &mut Vec<Block>, design: &Design) {
                 .map(|r| vec![r.id.clone(), r.date.clone(), r.description.clone()])
                 .collect()
         },
-        caption: None,
+        caption: Some("Revisions of this calculation".into()),
     });
     blocks.push(Block::PageBreak);
     blocks.push(Block::Contents);

@@ -12,7 +12,9 @@ mod front;
 mod method;
 mod references;
 mod selection;
+mod sources;
 mod system_curves;
+mod wording;
 
 use super::layout::document::{Block, Document, PageMeta, PdfInfo};
 use crate::analysis::Analysis;
@@ -53,7 +55,7 @@ pub fn document(
         changes::chapter(&mut blocks, changes);
     }
     design_basis::chapter(&mut blocks, design, analysis, &units);
-    method::chapter(&mut blocks, design);
+    method::chapter(&mut blocks, &units);
     system_curves::chapter(&mut blocks, analysis, &units);
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);

@@ -35,7 +35,7 @@ pub(super) fn chapter(
                     (k + 1).to_string(),
                     r.name.clone(),
                     r.annual_energy_j
-                        .map(|e| units.energy().fmt(e))
+                        .map(|e| units.energy().text(e))
                         .unwrap_or_else(|| "—".into()),
                     r.annual_cost
                         .map(|c| format!("{c:.0} {cur}"))
@@ -48,7 +48,7 @@ pub(super) fn chapter(
                 ]
             })
             .collect(),
-        caption: None,
+        caption: Some("Ranking of the candidates".into()),
     });
     match (&s.recommended, &s.refusal) {
         (Some(n), _) => blocks.push(Block::Paragraph(vec![Span::bold(format!("Recommended: pump {n}. ")), Span::plain("Subject to certified curves from the manufacturer and the review of this calculation.")])),

@@ -34,12 +34,12 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
         let rows: Vec<Vec<String>> = (0..n)
             .step_by(2)
             .map(|i| {
-                let mut r = vec![fl.num(group[0].system_curve[i].flow)];
+                let mut r = vec![fl.figure(group[0].system_curve[i].flow)];
                 for c in group {
                     r.push(
                         c.system_curve
                             .get(i)
-                            .map(|p| hd.num(p.head))
+                            .map(|p| hd.figure(p.head))
                             .unwrap_or_default(),
                     );
                 }

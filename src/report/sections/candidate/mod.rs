@@ -132,7 +132,7 @@ fn published_curves(
             Some(dm) => format!(
                 "Curve {}: impeller {} at {:.0} rpm",
                 k + 1,
-                units.diameter().fmt(dm.get::<uom::si::length::meter>()),
+                units.diameter().text(dm.get::<uom::si::length::meter>()),
                 data.speed.get::<uom::si::frequency::cycle_per_minute>()
             ),
             None => format!(
@@ -147,19 +147,19 @@ fn published_curves(
                     v.map(f).unwrap_or_else(|| "—".into())
                 };
                 vec![
-                    fl.num(data.flow[j].get::<uom::si::volume_rate::cubic_meter_per_second>()),
-                    hd.num(data.head[j].get::<uom::si::length::meter>()),
+                    fl.figure(data.flow[j].get::<uom::si::volume_rate::cubic_meter_per_second>()),
+                    hd.figure(data.head[j].get::<uom::si::length::meter>()),
                     m(
                         data.efficiency[j].map(|e| e.get::<uom::si::ratio::ratio>()),
                         &|e| format!("{:.1}", e * 100.0),
                     ),
                     m(
                         data.npshr[j].map(|e| e.get::<uom::si::length::meter>()),
-                        &|e| hd.num(e),
+                        &|e| hd.figure(e),
                     ),
                     m(
                         data.shaft_power[j].map(|e| e.get::<uom::si::power::watt>()),
-                        &|e| pw.num(e),
+                        &|e| pw.figure(e),
                     ),
                 ]
             })
@@ -170,8 +170,8 @@ fn published_curves(
                 format!(
                     "{label}. Head fit: {}, largest residual {} (RMS {}).",
                     c.head.method(),
-                    hd.fmt(r.max_abs),
-                    hd.fmt(r.rms)
+                    hd.text(r.max_abs),
+                    hd.text(r.rms)
                 ) + &c
                     .efficiency
                     .as_ref()
@@ -211,33 +211,33 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
             Some(duty) => vec![
                 c.name.clone(),
                 format!("{:.0}", r.speed_rpm),
-                fl.num(duty.flow),
-                hd.num(duty.head),
+                fl.figure(duty.flow),
+                hd.figure(duty.head),
                 duty.efficiency.map(percent).unwrap_or_else(|| "—".into()),
                 duty.flow_ratio_to_bep
                     .map(|x| format!("{:.0} %", x * 100.0))
                     .unwrap_or_else(|| "—".into()),
                 format!(
                     "{} / {}",
-                    hd.num(duty.npsh_available),
+                    hd.figure(duty.npsh_available),
                     duty.npsh_required
-                        .map(|n| hd.num(n))
+                        .map(|n| hd.figure(n))
                         .unwrap_or_else(|| "—".into())
                 ),
                 format!(
                     "{} / {}",
                     duty.suction_velocity
-                        .map(|v| units.velocity().num(v))
+                        .map(|v| units.velocity().figure(v))
                         .unwrap_or_default(),
                     duty.discharge_velocity
-                        .map(|v| units.velocity().num(v))
+                        .map(|v| units.velocity().figure(v))
                         .unwrap_or_default()
                 ),
                 duty.shaft_power
-                    .map(|s| pw.num(s))
+                    .map(|s| pw.figure(s))
                     .unwrap_or_else(|| "—".into()),
                 duty.input_power
-                    .map(|s| pw.num(s))
+                    .map(|s| pw.figure(s))
                     .unwrap_or_else(|| "—".into()),
             ],
             None => vec![
@@ -281,7 +281,7 @@ fn remarks(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]) {
     if !warnings.is_empty() {
         blocks.push(Block::heading(2, format!("Remarks on {}", pump.name)));
         for w in dedup(warnings) {
-            blocks.push(Block::note(w));
+            blocks.push(Block::note(super::wording::plain(&w)));
         }
     }
 }

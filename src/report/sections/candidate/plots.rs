@@ -59,7 +59,7 @@ fn curve_name(data: &CurveData, units: &Units) -> String {
     match data.impeller {
         Some(dm) => format!(
             "{} at {rpm:.0} rpm",
-            units.diameter().fmt(dm.get::<uom::si::length::meter>())
+            units.diameter().text(dm.get::<uom::si::length::meter>())
         ),
         None => format!("{rpm:.0} rpm"),
     }
@@ -154,8 +154,8 @@ pub(super) fn published_plot(
             y: hd.value(bep.head),
             label: format!(
                 "BEP {} @ {}, {}",
-                fl.fmt(bep.flow),
-                hd.fmt(bep.head),
+                fl.text(bep.flow),
+                hd.text(bep.head),
                 crate::display::percent(bep.efficiency)
             ),
             axis: YAxis::Left,
@@ -174,7 +174,7 @@ pub(super) fn published_plot(
         .map(|c| {
             let d = c
                 .impeller_diameter_m
-                .map(|d| format!("{} ", units.diameter().fmt(d)))
+                .map(|d| format!("{} ", units.diameter().text(d)))
                 .unwrap_or_default();
             format!("{d}at {:.0} rpm", c.speed_rpm)
         })
@@ -254,8 +254,8 @@ pub(super) fn head_plot(
                 label: format!(
                     "{}: {} @ {}",
                     case.name,
-                    fl.fmt(duty.flow),
-                    hd.fmt(duty.head)
+                    fl.text(duty.flow),
+                    hd.text(duty.head)
                 ),
                 axis: YAxis::Left,
             });
@@ -357,7 +357,7 @@ pub(super) fn npsh_plot(
             markers.push(Marker {
                 x: fl.value(duty.flow),
                 y: hd.value(duty.npsh_available),
-                label: format!("NPSHa {}: {}", case.name, hd.fmt(duty.npsh_available)),
+                label: format!("NPSHa {}: {}", case.name, hd.text(duty.npsh_available)),
                 axis: YAxis::Left,
             });
         }
@@ -462,7 +462,7 @@ pub(super) fn power_plot(
             Some(Marker {
                 x: fl.value(duty.flow),
                 y: pw.value(shaft / per),
-                label: format!("{}: {}", case.name, pw.fmt(shaft / per)),
+                label: format!("{}: {}", case.name, pw.text(shaft / per)),
                 axis: YAxis::Left,
             })
         })
