@@ -362,10 +362,10 @@ fn build(
     let analysis = dutyline::analysis::analyse(design);
     let changes = match &compare {
         Some(old) => match load(old) {
-            Ok((_, old_checked)) => old_checked.design.as_ref().map(|od| {
+            Ok((old_source, old_checked)) => old_checked.design.as_ref().map(|od| {
                 let oa = dutyline::analysis::analyse(od);
                 let d = dutyline::diff::diff(od, &oa, design, &analysis);
-                dutyline::report::changes_from_diff(od, &d)
+                dutyline::report::changes_from_diff(od, &d, &old_source)
             }),
             Err(code) => return code,
         },

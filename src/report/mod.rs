@@ -39,8 +39,13 @@ type Quantity<'a> = (
     &'a dyn Fn(f64) -> String,
 );
 
-/// The changes section's content from a diff, in the new design's report units.
-pub fn changes_from_diff(old: &Design, diff: &crate::diff::DesignDiff) -> sections::Changes {
+/// The changes section's content from a diff, in the new design's report units;
+/// `old_source` is the compared revision's file, whose SHA-256 the section prints.
+pub fn changes_from_diff(
+    old: &Design,
+    diff: &crate::diff::DesignDiff,
+    old_source: &str,
+) -> sections::Changes {
     let units = crate::display::Units::new(diff.report_units);
     let (fl, hd, pw) = (units.flow(), units.head(), units.power());
     let mut rows = Vec::new();
@@ -89,6 +94,7 @@ pub fn changes_from_diff(old: &Design, diff: &crate::diff::DesignDiff) -> sectio
         ]);
     }
     sections::Changes {
+        old_sha256: crate::results::sha256_hex(old_source),
         old_revision: old
             .revisions
             .last()

@@ -2,7 +2,7 @@
 //! points, check statuses and the recommendation.
 
 use super::Changes;
-use crate::report::layout::document::{Align, Block, Column};
+use crate::report::layout::document::{Align, Block, Column, Span};
 
 /// "Changes since revision X", placed after the purpose.
 pub(super) fn chapter(blocks: &mut Vec<Block>, changes: &Changes) {
@@ -10,13 +10,25 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, changes: &Changes) {
         1,
         format!("Changes since revision {}", changes.old_revision),
     ));
+    blocks.push(Block::Paragraph(vec![
+        Span::plain(format!(
+            "Compared with revision {}, source file SHA-256 ",
+            changes.old_revision
+        )),
+        Span::mono(changes.old_sha256.clone()),
+        Span::plain("."),
+    ]));
     blocks.push(Block::heading(2, "Input changes"));
     if changes.inputs.is_empty() {
         blocks.push(Block::text("No input changed."));
     } else {
         blocks.push(Block::Table {
             columns: vec![Column::new("Change", 1.0, Align::Left)],
-            rows: changes.inputs.iter().map(|s| vec![s.clone()]).collect(),
+            rows: changes
+                .inputs
+                .iter()
+                .map(|s| vec![super::wording::plain(s)])
+                .collect(),
             caption: Some("Inputs changed since the earlier revision".into()),
         });
     }

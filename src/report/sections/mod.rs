@@ -24,6 +24,8 @@ use crate::model::Design;
 /// Extra content: a changes section comparing with an earlier revision.
 pub struct Changes {
     pub old_revision: String,
+    /// SHA-256 of the compared revision's source file (hex).
+    pub old_sha256: String,
     pub inputs: Vec<String>,
     /// Rows: case, pump, quantity, before, after, change.
     pub results: Vec<Vec<String>>,
