@@ -309,6 +309,20 @@ impl Units {
             },
         )
     }
+    /// Costs per volume are printed per m³ (SI) or per 1000 gal (US): the factor from
+    /// a cost per m³, and the unit's name.
+    pub fn volume_per_cost_unit(&self) -> f64 {
+        match self.system {
+            ReportUnits::Si => 1.0,
+            ReportUnits::Us => 1000.0 * GAL,
+        }
+    }
+    pub fn volume_cost_unit(&self) -> &'static str {
+        match self.system {
+            ReportUnits::Si => "m³",
+            ReportUnits::Us => "1000 gal",
+        }
+    }
     pub fn energy(&self) -> Shown {
         Shown {
             label: "kWh",
