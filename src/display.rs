@@ -26,6 +26,71 @@ impl Shown {
     pub fn num(&self, si: f64) -> String {
         format!("{:.*}", self.decimals, self.value(si))
     }
+    /// A value and the limit it is compared with, each with its unit, with as many more
+    /// decimals (up to four) as it takes for two different values not to print alike,
+    /// so that "4.92 ft/s is above 4.92 ft/s" cannot happen.
+    pub fn fmt_against(&self, value: f64, limit: f64) -> (String, String) {
+        let decimals = decimals_apart(self.decimals, self.value(value), self.value(limit));
+        (
+            format!("{:.*} {}", decimals, self.value(value), self.label),
+            format!("{:.*} {}", decimals, self.value(limit), self.label),
+        )
+    }
+    /// As [`Shown::fmt`], typeset for print: a minus sign (U+2212), never "−0.0".
+    pub fn text(&self, si: f64) -> String {
+        format!("{} {}", typeset(self.value(si), self.decimals), self.label)
+    }
+    /// As [`Shown::num`], typeset for print: a minus sign (U+2212), never "−0.0".
+    pub fn figure(&self, si: f64) -> String {
+        typeset(self.value(si), self.decimals)
+    }
+}
+
+/// The fewest decimals, from `base` up to `base + 4`, at which `a` and `b` print
+/// differently (or `base` when they are equal).
+fn decimals_apart(base: usize, a: f64, b: f64) -> usize {
+    let mut decimals = base;
+    while a != b && decimals < base + 4 && format!("{a:.decimals$}") == format!("{b:.decimals$}") {
+        decimals += 1;
+    }
+    decimals
+}
+
+/// A ratio and its limit with two decimals or more (see [`Shown::fmt_against`]).
+pub fn ratio_against(value: f64, limit: f64) -> (String, String) {
+    let decimals = decimals_apart(2, value, limit);
+    (format!("{value:.decimals$}"), format!("{limit:.decimals$}"))
+}
+
+/// A fraction and its limit as percentages with one decimal or more.
+pub fn percent_against(value: f64, limit: f64) -> (String, String) {
+    let (a, b) = (100.0 * value, 100.0 * limit);
+    let decimals = decimals_apart(1, a, b);
+    (format!("{a:.decimals$} %"), format!("{b:.decimals$} %"))
+}
+
+/// A number with `decimals` places for print: the minus sign U+2212 for negatives,
+/// and a value that rounds to zero printed without a sign ("0.0", never "-0.0").
+pub fn typeset(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(digits) if digits.chars().any(|c| c.is_ascii_digit() && c != '0') => {
+            format!("\u{2212}{digits}")
+        }
+        Some(digits) => digits.to_string(),
+        None => text,
+    }
+}
+
+/// A signed change for print, "+0.2 %", "−1.5 %", and "0.0 %" for a change that
+/// rounds to zero.
+pub fn signed_percent(percent: f64, decimals: usize) -> String {
+    let text = typeset(percent, decimals);
+    if text.starts_with('\u{2212}') || text.chars().all(|c| c == '0' || c == '.') {
+        format!("{text} %")
+    } else {
+        format!("+{text} %")
+    }
 }
 
 const FT: f64 = 0.3048;
@@ -240,6 +305,54 @@ impl Units {
             factor: 1.0,
             offset: 0.0,
             decimals: 0,
+        }
+    }
+    /// Energy per volume delivered: kWh/m³, or kWh per 1000 US gallons.
+    pub fn specific_energy(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "kWh/m³",
+                factor: 3.6e6,
+                offset: 0.0,
+                decimals: 3,
+            },
+            Shown {
+                label: "kWh/1000 gal",
+                factor: 3.6e6 / (1000.0 * GAL),
+                offset: 0.0,
+                decimals: 3,
+            },
+        )
+    }
+    /// Volume: m³, or US gallons.
+    pub fn volume(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m³",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 0,
+            },
+            Shown {
+                label: "gal",
+                factor: GAL,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
+    }
+    /// Costs per volume are printed per m³ (SI) or per 1000 gal (US): the factor from
+    /// a cost per m³, and the unit's name.
+    pub fn volume_per_cost_unit(&self) -> f64 {
+        match self.system {
+            ReportUnits::Si => 1.0,
+            ReportUnits::Us => 1000.0 * GAL,
+        }
+    }
+    pub fn volume_cost_unit(&self) -> &'static str {
+        match self.system {
+            ReportUnits::Si => "m³",
+            ReportUnits::Us => "1000 gal",
         }
     }
     pub fn energy(&self) -> Shown {

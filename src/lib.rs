@@ -44,7 +44,15 @@ impl Checked {
 pub fn check(source: &str, files: &dyn FileAccess) -> Checked {
     match syntax::parse(source) {
         Ok(file) => {
-            let (design, diagnostics) = model::lower(&file, source, files);
+            let (mut design, mut diagnostics) = model::lower(&file, source, files);
+            // Cases whose water cannot be analysed are errors at check time (issue 10.5).
+            if let Some(d) = &design {
+                let water = model::scenario::water_state_errors(d);
+                if !water.is_empty() {
+                    diagnostics.extend(water);
+                    design = None;
+                }
+            }
             Checked {
                 design,
                 diagnostics,

@@ -158,9 +158,12 @@ fn requirement_checks_that_change_status_are_listed() {
             .find(|c| c.name == case)
             .and_then(|c| c.pumps.iter().find(|p| p.name == pump))
             .and_then(|p| {
-                p.checks
-                    .iter()
-                    .find(|c| c.id == "requirement" && c.message.contains("npsh_margin"))
+                p.checks.iter().find(|c| {
+                    c.id == "requirement"
+                        && c.subject
+                            .as_deref()
+                            .is_some_and(|s| s.contains("npsh_margin"))
+                })
             })
             .map(|c| c.status.keyword())
     };

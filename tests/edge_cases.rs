@@ -221,7 +221,7 @@ fn negative_static_head_warns_and_an_oversized_pump_finds_no_duty() {
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
     assert!(
-        c.message.contains("no duty point on the curve"),
+        c.message.contains("no published data there"),
         "{}",
         c.message
     );
@@ -361,12 +361,8 @@ fn pump_below_the_static_head_fails_with_both_heads() {
     assert!(p.duty.is_none());
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
-    assert!(
-        c.message.contains("shut-off head 49.886 m"),
-        "{}",
-        c.message
-    );
-    assert!(c.message.contains("static head 60.000 m"), "{}", c.message);
+    assert!(c.message.contains("shut-off head 49.89 m"), "{}", c.message);
+    assert!(c.message.contains("static head 60.00 m"), "{}", c.message);
     assert_eq!(c.limit, Some(60.0));
     assert!(p.failure.is_some());
     assert!(r.analysis.selection.recommended.is_none());
@@ -401,7 +397,7 @@ fn drooping_curve_crossing_twice_is_named() {
 }
 
 #[test]
-fn duty_past_the_last_curve_point_is_extrapolated_or_fails() {
+fn duty_past_the_last_curve_point_fails_with_no_published_data() {
     let six = [
         (
             "pipe steel 4 in schedule 40 { length = 10 m }",
@@ -412,18 +408,26 @@ fn duty_past_the_last_curve_point_is_extrapolated_or_fails() {
             "pipe steel 6 in schedule 40 { length = 100 m }",
         ),
     ];
+    // Just past the last published point (within 10 % of it): a failure, never an
+    // extrapolated duty (issue 10.4).
     let mut within = six.to_vec();
     within.push(("tank b { level = 40 m }", "tank b { level = 34 m }"));
     let r = run(&design(&within));
     let p = r.pump("P");
-    let d = p.duty.as_ref().expect("duty");
-    assert!(d.extrapolated);
-    assert!(has_warning(
-        p,
-        "beyond the end of the published curve: extrapolated"
-    ));
-    assert_eq!(r.json["cases"][0]["pumps"][0]["duty"]["extrapolated"], true);
-    // Lower static head: beyond the 10 % allowance, no duty point.
+    assert!(p.duty.is_none());
+    let c = check(p, "duty-point");
+    assert_eq!(c.status, Status::Fail);
+    assert!(
+        c.message.contains("no published data there"),
+        "{}",
+        c.message
+    );
+    // The value is the flow per pump, the limit the end of the published curve (80 m³/h).
+    let (value, limit) = (c.value.expect("flow"), c.limit.expect("end"));
+    assert!(value > limit && value < 1.1 * limit, "{value} {limit}");
+    assert!((limit - 80.0 / 3600.0).abs() < 1e-12, "{limit}");
+    assert!(r.analysis.selection.recommended.is_none());
+    // Lower static head: farther beyond, no duty point either.
     let mut beyond = six.to_vec();
     beyond.push(("tank b { level = 40 m }", "tank b { level = 30 m }"));
     let r = run(&design(&beyond));
@@ -431,7 +435,11 @@ fn duty_past_the_last_curve_point_is_extrapolated_or_fails() {
     assert!(p.duty.is_none());
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
-    assert!(c.message.contains("at its end"), "{}", c.message);
+    assert!(
+        c.message.contains("no published data there"),
+        "{}",
+        c.message
+    );
 }
 
 #[test]
@@ -451,10 +459,19 @@ fn parallel_pair_is_on_its_curve_where_one_pump_alone_runs_off_it() {
     assert_eq!(d2.head_per_pump, d2.head);
     assert!(!d2.extrapolated && d2.crossings == 1);
     assert!(d2.flow_per_pump < 80.0 / 3600.0, "on the published curve");
-    // The same pump alone on this system runs past the end of its curve.
-    let d1 = one.duty.as_ref().expect("single duty");
-    assert!(d1.extrapolated && has_warning(one, "extrapolated"));
-    assert!(d1.flow > d2.flow_per_pump);
+    // The same pump alone on this system runs past the end of its curve: it fails, and
+    // so does the parallel set's one-pump-alone check in the same case.
+    assert!(one.duty.is_none());
+    assert!(check(one, "duty-point")
+        .message
+        .contains("no published data there"));
+    let alone = check(pair, "one-pump-alone");
+    assert_eq!(alone.status, Status::Fail);
+    assert!(
+        alone.message.contains("no published data there"),
+        "{}",
+        alone.message
+    );
     // The JSON documents the arrangement and the per-pump duty.
     let j = &r.json["cases"][0]["pumps"][1];
     assert_eq!(j["arrangement"]["kind"], "parallel");

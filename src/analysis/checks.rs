@@ -1,9 +1,14 @@
 //! The checks a reviewer asks for, each with its value, limit, status and the
-//! source of its limit.
+//! source of its limit (the limits and their sources live in [`super::limits`]).
+//!
+//! Messages are in the design's report units, never in input syntax; limits are
+//! compared in SI and printed so that a value and its limit never contradict each
+//! other after rounding ([`crate::display::Shown::fmt_against`]).
 
-use super::duty::Duty;
-use crate::model::{Case, Design, Metric, MotorStandardChoice, PumpCandidate};
-use crate::pumps::{self, MotorStandard};
+use super::duty::{Duty, Headroom};
+use super::limits::{self, CheckId, Limit, Source};
+use crate::display::Units;
+use crate::model::{Case, Design, Metric, PumpCandidate, Requirement};
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
 pub enum Status {
@@ -25,24 +30,30 @@ impl Status {
 /// One check of one duty.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Check {
-    /// `operating-region`, `npsh-margin`, `motor`, `velocity`, `requirement`, `duty-point`.
-    pub id: &'static str,
+    pub id: CheckId,
     pub status: Status,
     pub value: Option<f64>,
     pub limit: Option<f64>,
+    /// In report units, plain language.
     pub message: String,
-    /// Where the limit comes from.
+    /// Where the limit comes from, as printed (`origin.text()`).
     pub source: String,
+    /// Where the limit comes from, typed.
+    pub origin: Source,
+    /// What the check is about when an id has several per duty: the velocity's side
+    /// (`suction`, `discharge`) or the requirement as written in the design.
+    pub subject: Option<String>,
 }
 
 impl Check {
-    pub fn new(
-        id: &'static str,
+    /// A check with a typed source.
+    pub fn typed(
+        id: CheckId,
         status: Status,
         value: Option<f64>,
         limit: Option<f64>,
         message: String,
-        source: &str,
+        origin: Source,
     ) -> Check {
         Check {
             id,
@@ -50,263 +61,349 @@ impl Check {
             value,
             limit,
             message,
-            source: source.to_string(),
+            source: origin.text(),
+            origin,
+            subject: None,
         }
     }
-    pub fn fail(
-        id: &'static str,
-        value: Option<f64>,
-        limit: Option<f64>,
-        message: &str,
-        source: &str,
-    ) -> Check {
-        Check::new(id, Status::Fail, value, limit, message.to_string(), source)
+
+    /// The same check about a subject (see [`Check::subject`]).
+    pub fn about(mut self, subject: impl Into<String>) -> Check {
+        self.subject = Some(subject.into());
+        self
     }
 }
 
-/// Preferred operating region, fraction of BEP flow: 70–120 % (ANSI/HI 9.6.3, from memory).
-pub const POR: (f64, f64) = (0.70, 1.20);
-/// Wider band outside which operation is a failure: 50–130 % of BEP flow (common practice
-/// as a stand-in for the manufacturer's allowable operating region).
-pub const AOR: (f64, f64) = (0.50, 1.30);
-/// Default NPSH margin ratio NPSHa/NPSHr when the design gives none: 1.3, within the
-/// 1.1–2.0 range ANSI/HI 9.6.1 gives for general water services (from memory).
-pub const DEFAULT_NPSH_RATIO: f64 = 1.3;
-/// Smallest NPSH excess NPSHa − NPSHr, m: about 1 m (3 ft), common practice.
-pub const MIN_NPSH_EXCESS_M: f64 = 1.0;
-/// Typical velocities, m/s (common practice): suction 0.6–1.5 m/s (2–5 ft/s),
-/// discharge 1.5–3 m/s (5–10 ft/s).
-pub const SUCTION_VELOCITY: (f64, f64) = (0.6, 1.5);
-pub const DISCHARGE_VELOCITY: (f64, f64) = (1.5, 3.0);
+/// Preferred operating region, fraction of BEP flow (see [`limits::POR_LOW`]).
+pub const POR: (f64, f64) = (limits::POR_LOW.value, limits::POR_HIGH.value);
+/// Fail outside this band of BEP flow (see [`limits::AOR_LOW`]).
+pub const AOR: (f64, f64) = (limits::AOR_LOW.value, limits::AOR_HIGH.value);
+/// Default NPSH margin ratio (see [`limits::NPSH_RATIO`]).
+pub const DEFAULT_NPSH_RATIO: f64 = limits::NPSH_RATIO.value;
+/// Smallest NPSH excess, m (see [`limits::NPSH_EXCESS_M`]).
+pub const MIN_NPSH_EXCESS_M: f64 = limits::NPSH_EXCESS_M.value;
+/// Typical suction velocities, m/s (see [`limits::SUCTION_VELOCITY_LOW`]).
+pub const SUCTION_VELOCITY: (f64, f64) = (
+    limits::SUCTION_VELOCITY_LOW.value,
+    limits::SUCTION_VELOCITY_HIGH.value,
+);
+/// Typical discharge velocities, m/s (see [`limits::DISCHARGE_VELOCITY_LOW`]).
+pub const DISCHARGE_VELOCITY: (f64, f64) = (
+    limits::DISCHARGE_VELOCITY_LOW.value,
+    limits::DISCHARGE_VELOCITY_HIGH.value,
+);
 
-fn applies(r: &crate::model::Requirement, case: &Case) -> bool {
+fn applies(r: &Requirement, case: &Case) -> bool {
     r.cases.is_empty() || r.cases.contains(&case.name)
 }
 
-/// Checks of one duty point that need nothing beyond the case.
-pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -> Vec<Check> {
-    let mut out = Vec::new();
-    let units = crate::display::Units::new(design.project.units);
-    let (hd, vel) = (units.head(), units.velocity());
-    // Operating region.
-    out.push(match d.flow_ratio_to_bep {
-        Some(r) => {
-            let status = if (POR.0..=POR.1).contains(&r) {
-                Status::Pass
-            } else if (AOR.0..=AOR.1).contains(&r) {
-                Status::Warn
-            } else {
-                Status::Fail
-            };
-            let limit = if r < 1.0 { POR.0 } else { POR.1 };
-            Check::new(
-                "operating-region",
-                status,
-                Some(r),
-                Some(limit),
-                format!("flow per pump is {:.0} % of BEP flow (preferred {:.0}–{:.0} %)", 100.0 * r, 100.0 * POR.0, 100.0 * POR.1),
-                "ANSI/HI 9.6.3 preferred operating region 70–120 % of BEP flow (from memory); outside 50–130 % fails (common practice)",
-            )
-        }
-        None => Check::new("operating-region", Status::Warn, None, None, "no efficiency data: the best efficiency point is unknown".into(), "pump curve data"),
-    });
-    // NPSH margin.
-    let required_ratio = design
+/// The NPSH margin ratio a case must meet: the design's largest `npsh_margin >=`
+/// requirement, else the default.
+pub fn npsh_ratio_limit(design: &Design, case: &Case) -> Limit {
+    design
         .requirements
         .iter()
         .filter(|r| r.metric == Metric::NpshMargin && r.at_least && applies(r, case))
         .map(|r| r.limit_si)
-        .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
-    let (ratio_limit, ratio_source) = match required_ratio {
-        Some(r) => (r, "the design's requirement".to_string()),
-        None => (DEFAULT_NPSH_RATIO, "default ratio 1.3 after ANSI/HI 9.6.1 guidance (from memory); 1 m excess (common practice)".to_string()),
-    };
-    out.push(match d.npsh_required {
-        Some(nr) if nr > 0.0 => {
-            let ratio = d.npsh_available / nr;
-            let excess = d.npsh_available - nr;
-            let status = if d.npsh_available <= nr || ratio < ratio_limit {
-                Status::Fail
-            } else if excess < MIN_NPSH_EXCESS_M {
-                Status::Warn
-            } else {
-                Status::Pass
-            };
-            let mut msg = if d.npsh_available <= 0.0 {
-                format!(
-                    "NPSH available is {} (zero or negative): the liquid boils before it reaches the impeller; NPSH required {} (limit ratio {:.2})",
-                    hd.fmt(d.npsh_available),
-                    hd.fmt(nr),
-                    ratio_limit
-                )
-            } else {
-                format!(
-                    "NPSH available {} is {:.2} times the NPSH required {} (limit {:.2}); excess {}",
-                    hd.fmt(d.npsh_available),
-                    ratio,
-                    hd.fmt(nr),
-                    ratio_limit,
-                    hd.fmt(excess)
-                )
-            };
-            if d.npsh_available <= nr {
-                msg.push_str(": the pump will cavitate");
-            }
-            Check::new("npsh-margin", status, Some(ratio), Some(ratio_limit), msg, &ratio_source)
-        }
-        _ => Check::new(
-            "npsh-margin",
-            if d.npsh_available <= 0.0 { Status::Fail } else { Status::Warn },
+        .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))))
+        .map(|value| Limit {
+            value,
+            source: Source::DesignRequirement,
+        })
+        .unwrap_or(limits::NPSH_RATIO)
+}
+
+/// Checks of one duty point that need nothing beyond the case.
+pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -> Vec<Check> {
+    let units = Units::new(design.project.units);
+    let mut out = vec![operating_region(d)];
+    out.push(npsh_margin(
+        &units,
+        d.npsh_available,
+        d.npsh_required,
+        npsh_ratio_limit(design, case),
+    ));
+    out.extend(velocity_checks(&units, d));
+    for r in design.requirements.iter().filter(|r| applies(r, case)) {
+        out.push(requirement_check(&units, r, d));
+    }
+    out
+}
+
+fn operating_region(d: &Duty) -> Check {
+    let Some(r) = d.flow_ratio_to_bep else {
+        return Check::typed(
+            CheckId::OperatingRegion,
+            Status::Warn,
             None,
-            Some(ratio_limit),
-            format!("NPSH available is {}; the curve gives no NPSH required at this flow: obtain it from the manufacturer", hd.fmt(d.npsh_available)),
-            &ratio_source,
+            None,
+            "no efficiency data: the best efficiency point is unknown".into(),
+            Source::DesignData("pump curve data"),
+        );
+    };
+    let status = if (POR.0..=POR.1).contains(&r) {
+        Status::Pass
+    } else if (AOR.0..=AOR.1).contains(&r) {
+        Status::Warn
+    } else {
+        Status::Fail
+    };
+    let limit = if r < 1.0 {
+        limits::POR_LOW
+    } else {
+        limits::POR_HIGH
+    };
+    let origin = if status == Status::Fail {
+        limits::AOR_LOW.source
+    } else {
+        limit.source
+    };
+    Check::typed(
+        CheckId::OperatingRegion,
+        status,
+        Some(r),
+        Some(limit.value),
+        format!(
+            "flow per pump is {:.0} % of BEP flow (preferred {:.0}–{:.0} %, outside {:.0}–{:.0} % fails)",
+            100.0 * r,
+            100.0 * POR.0,
+            100.0 * POR.1,
+            100.0 * AOR.0,
+            100.0 * AOR.1
         ),
-    });
-    // Velocities.
+        origin,
+    )
+}
+
+/// NPSH available against NPSH required (NPSH3, 3 % head drop) at one point.
+pub fn npsh_margin(units: &Units, available: f64, required: Option<f64>, ratio: Limit) -> Check {
+    let hd = units.head();
+    let Some(nr) = required.filter(|n| *n > 0.0) else {
+        return Check::typed(
+            CheckId::NpshMargin,
+            if available <= 0.0 {
+                Status::Fail
+            } else {
+                Status::Warn
+            },
+            None,
+            Some(ratio.value),
+            format!(
+                "NPSH available is {}; the curve gives no NPSH required at this flow: obtain it from the manufacturer",
+                hd.fmt(available)
+            ),
+            ratio.source,
+        );
+    };
+    let r = available / nr;
+    let excess = available - nr;
+    let status = if available <= nr || r < ratio.value {
+        Status::Fail
+    } else if excess < MIN_NPSH_EXCESS_M {
+        Status::Warn
+    } else {
+        Status::Pass
+    };
+    let (rs, ls) = crate::display::ratio_against(r, ratio.value);
+    let mut msg = if available <= 0.0 {
+        format!(
+            "NPSH available is {} (zero or negative): the liquid boils before it reaches the impeller; NPSH required {} (limit ratio {ls})",
+            hd.fmt(available),
+            hd.fmt(nr)
+        )
+    } else {
+        let (es, el) = hd.fmt_against(excess, MIN_NPSH_EXCESS_M);
+        format!(
+            "NPSH available {} is {rs} times the NPSH required {} (limit {ls}); excess {es} (at least {el})",
+            hd.fmt(available),
+            hd.fmt(nr)
+        )
+    };
+    if available <= nr {
+        msg.push_str(": the pump will cavitate");
+    }
+    let origin = if status == Status::Warn {
+        limits::NPSH_EXCESS_M.source
+    } else {
+        ratio.source
+    };
+    Check::typed(
+        CheckId::NpshMargin,
+        status,
+        Some(r),
+        Some(ratio.value),
+        msg,
+        origin,
+    )
+}
+
+fn velocity_checks(units: &Units, d: &Duty) -> Vec<Check> {
+    let vel = units.velocity();
+    let mut out = Vec::new();
     for (label, v, (lo, hi)) in [
         ("suction", d.suction_velocity, SUCTION_VELOCITY),
         ("discharge", d.discharge_velocity, DISCHARGE_VELOCITY),
     ] {
         let Some(v) = v else { continue };
-        let (status, note) = if v > hi {
+        let (status, note, bound) = if v > hi {
             (
                 Status::Warn,
                 "above the typical range: check losses, noise, erosion and surge",
+                hi,
             )
         } else if v < lo {
             (
                 Status::Pass,
                 "below the typical range (larger pipe than usual)",
+                lo,
             )
         } else {
-            (Status::Pass, "within the typical range")
+            (Status::Pass, "within the typical range", hi)
         };
-        out.push(Check::new(
-            "velocity",
-            status,
-            Some(v),
-            Some(hi),
-            format!(
-                "{label} velocity at the pump {}, {note} ({}–{})",
-                vel.fmt(v),
-                vel.num(lo),
-                vel.fmt(hi)
-            ),
-            "typical velocities, common practice",
-        ));
-    }
-    // The design's own requirements.
-    for r in design.requirements.iter().filter(|r| applies(r, case)) {
-        let value = match r.metric {
-            Metric::Flow => Some(d.flow),
-            Metric::Head => Some(d.head),
-            Metric::NpshMargin => d
-                .npsh_required
-                .filter(|n| *n > 0.0)
-                .map(|n| d.npsh_available / n),
-            Metric::NpshExcess => d.npsh_required.map(|n| d.npsh_available - n),
-            Metric::Efficiency => d.efficiency,
-            Metric::SuctionVelocity => d.suction_velocity,
-            Metric::DischargeVelocity => d.discharge_velocity,
-            Metric::ShaftPower => d.shaft_power,
-        };
-        let check = match value {
-            Some(v) => {
-                // A solved duty meets its target to the solver's tolerance (1e-9 relative).
-                let tol = 1e-7 * r.limit_si.abs();
-                let ok = if r.at_least {
-                    v >= r.limit_si - tol
-                } else {
-                    v <= r.limit_si + tol
-                };
-                Check::new(
-                    "requirement",
-                    if ok { Status::Pass } else { Status::Fail },
-                    Some(v),
-                    Some(r.limit_si),
-                    format!("`{}`: {}", r.text, if ok { "met" } else { "not met" }),
-                    "the design's requirement",
-                )
-            }
-            None => Check::new(
-                "requirement",
-                Status::Fail,
-                None,
-                Some(r.limit_si),
-                format!("`{}`: no value to compare (missing curve data)", r.text),
-                "the design's requirement",
-            ),
-        };
-        out.push(check);
+        let (vs, _) = vel.fmt_against(v, bound);
+        let (los, _) = vel.fmt_against(lo, v);
+        let (his, _) = vel.fmt_against(hi, v);
+        out.push(
+            Check::typed(
+                CheckId::Velocity,
+                status,
+                Some(v),
+                Some(hi),
+                format!("{label} velocity at the pump {vs}, {note} ({los} to {his})"),
+                limits::SUCTION_VELOCITY_LOW.source,
+            )
+            .about(label),
+        );
     }
     out
 }
 
-/// The motor check of a candidate over all its cases: the smallest standard rating that
-/// carries the largest operating shaft power within its service factor, and whether it is
-/// non-overloading to the end of the curve (run-out).
-pub fn motor_check(
-    design: &Design,
-    max_shaft_per_pump: f64,
-    runout_per_pump: f64,
-) -> (Check, Option<pumps::MotorChoice>) {
-    let std = match design.motor.standard {
-        MotorStandardChoice::Nema => MotorStandard::Nema,
-        MotorStandardChoice::Iec => MotorStandard::Iec,
+/// A requirement in report units and plain words: "flow at least 560.0 m³/h (case peak)".
+pub fn requirement_text(units: &Units, r: &Requirement) -> String {
+    let word = if r.at_least { "at least" } else { "at most" };
+    let cases = match r.cases.len() {
+        0 => String::new(),
+        1 => format!(" (case {})", r.cases[0]),
+        _ => format!(" (cases {})", r.cases.join(", ")),
     };
-    let series = match std {
-        MotorStandard::Nema => "NEMA MG 1 standard horsepower ratings",
-        MotorStandard::Iec => "IEC 60072-1 standard output ratings",
+    format!(
+        "{} {word} {}{cases}",
+        metric_words(r.metric),
+        metric_value(units, r.metric, r.limit_si)
+    )
+}
+
+fn metric_words(m: Metric) -> &'static str {
+    match m {
+        Metric::Flow => "flow",
+        Metric::Head => "head",
+        Metric::NpshMargin => "NPSH margin ratio",
+        Metric::NpshExcess => "NPSH excess",
+        Metric::Efficiency => "pump efficiency",
+        Metric::SuctionVelocity => "suction velocity",
+        Metric::DischargeVelocity => "discharge velocity",
+        Metric::ShaftPower => "shaft power",
+    }
+}
+
+/// A value of a requirement's quantity in report units.
+pub fn metric_value(units: &Units, m: Metric, si: f64) -> String {
+    match m {
+        Metric::Flow => units.flow().fmt(si),
+        Metric::Head | Metric::NpshExcess => units.head().fmt(si),
+        Metric::NpshMargin => format!("{si:.2}"),
+        Metric::Efficiency => crate::display::percent(si),
+        Metric::SuctionVelocity | Metric::DischargeVelocity => units.velocity().fmt(si),
+        Metric::ShaftPower => units.power().fmt(si),
+    }
+}
+
+fn requirement_check(units: &Units, r: &Requirement, d: &Duty) -> Check {
+    let value = match r.metric {
+        Metric::Flow => Some(d.flow),
+        Metric::Head => Some(d.head),
+        Metric::NpshMargin => d
+            .npsh_required
+            .filter(|n| *n > 0.0)
+            .map(|n| d.npsh_available / n),
+        Metric::NpshExcess => d.npsh_required.map(|n| d.npsh_available - n),
+        Metric::Efficiency => d.efficiency,
+        Metric::SuctionVelocity => d.suction_velocity,
+        Metric::DischargeVelocity => d.discharge_velocity,
+        Metric::ShaftPower => d.shaft_power,
     };
-    match pumps::select_motor(
-        std,
-        max_shaft_per_pump,
-        runout_per_pump,
-        design.motor.service_factor,
-    ) {
-        Ok(m) => {
-            let status = if m.non_overloading && m.within_nameplate {
-                Status::Pass
+    let text = requirement_text(units, r);
+    let check = match value {
+        Some(v) => {
+            // A solved duty meets its target to the solver's tolerance (1e-9 relative).
+            let tol = 1e-7 * r.limit_si.abs();
+            let ok = if r.at_least {
+                v >= r.limit_si - tol
             } else {
-                Status::Warn
+                v <= r.limit_si + tol
             };
-            let mut msg = format!(
-                "{} motor per pump (service factor {:.2}): largest operating shaft power {:.2} kW is {:.0} % of rating; run-out {:.2} kW is {:.0} %",
-                m.rating_label,
-                m.service_factor,
-                max_shaft_per_pump / 1000.0,
-                100.0 * m.loading_ratio,
-                runout_per_pump / 1000.0,
-                100.0 * m.runout_loading_ratio
-            );
-            msg.push_str(if m.non_overloading {
-                "; non-overloading to run-out"
-            } else {
-                "; OVERLOADS at run-out: size up or limit the flow"
-            });
-            (
-                Check::new(
-                    "motor",
-                    status,
-                    Some(m.loading_ratio),
-                    Some(m.service_factor),
-                    msg,
-                    series,
+            Check::typed(
+                CheckId::Requirement,
+                if ok { Status::Pass } else { Status::Fail },
+                Some(v),
+                Some(r.limit_si),
+                format!(
+                    "{text}: {}, {}",
+                    if ok { "met" } else { "not met" },
+                    metric_value(units, r.metric, v)
                 ),
-                Some(m),
+                Source::DesignRequirement,
             )
         }
-        Err(e) => (
-            Check::new(
-                "motor",
-                Status::Fail,
-                Some(max_shaft_per_pump),
-                None,
-                e.message,
-                series,
-            ),
+        None => Check::typed(
+            CheckId::Requirement,
+            Status::Fail,
             None,
+            Some(r.limit_si),
+            format!("{text}: no value to compare (missing curve data)"),
+            Source::DesignRequirement,
         ),
-    }
+    };
+    check.about(r.text.clone())
+}
+
+/// The headroom check of an adjusted pump: warn below [`limits::HEADROOM`], fail
+/// when the limit is short of what the requirement needs.
+pub fn headroom_check(headroom: &Option<Headroom>) -> Option<Check> {
+    let h = headroom.as_ref()?;
+    let what = match h.limit {
+        super::duty::AdjustLimit::Speed => "speed",
+        super::duty::AdjustLimit::Trim => "impeller diameter",
+    };
+    let Some(fraction) = h.fraction() else {
+        return Some(Check::typed(
+            CheckId::Headroom,
+            Status::Fail,
+            None,
+            Some(limits::HEADROOM.value),
+            format!("the flow requirement cannot be reached at any {what}"),
+            limits::HEADROOM.source,
+        ));
+    };
+    let needed = h.needed.unwrap_or(0.0);
+    let status = if fraction < -1e-9 {
+        Status::Fail
+    } else if fraction < limits::HEADROOM.value {
+        Status::Warn
+    } else {
+        Status::Pass
+    };
+    let (fs, ls) = crate::display::percent_against(fraction, limits::HEADROOM.value);
+    Some(Check::typed(
+        CheckId::Headroom,
+        status,
+        Some(fraction),
+        Some(limits::HEADROOM.value),
+        format!(
+            "{what} needed {:.1} % of the published value against a limit of {:.1} %: headroom {fs} (at least {ls})",
+            100.0 * needed,
+            100.0 * h.limit_value,
+        ),
+        limits::HEADROOM.source,
+    ))
 }

@@ -7,14 +7,16 @@ use uom::si::{
 };
 
 use super::checks::{self, Check};
-use super::system::{CaseSystem, G};
+use super::limits::{CheckId, Source};
+use super::system::{CaseSystem, NpshTerms, SegmentAtFlow, G};
 use crate::diagnostics::Span;
 use crate::model::{Adjust, ArrangementKind, Case, Design, Metric, PumpCandidate, Side};
 use crate::pumps::{self, DutyOutcome, PumpCurves, ScaledPump};
 
-/// Flow range allowed past the end of the published curve, as a fraction of it.
-/// Points beyond the data are flagged as extrapolated.
-pub const EXTRAPOLATION_ALLOWANCE: f64 = 0.10;
+/// How far past the end of the published curve the duty solve searches, as a fraction
+/// of it, so that a crossing just beyond the data is found and reported as a failure
+/// ("no published data there") rather than as no crossing at all.
+pub const SEARCH_BEYOND_CURVE: f64 = 0.10;
 /// Points of each tabulated pump curve.
 pub const PUMP_CURVE_POINTS: usize = 41;
 
@@ -205,6 +207,41 @@ pub struct PumpPoint {
     pub shaft_power: Option<f64>,
 }
 
+/// What limits an adjusted pump: its speed (variable-speed drive) or its impeller (trim).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum AdjustLimit {
+    Speed,
+    Trim,
+}
+
+impl AdjustLimit {
+    pub fn keyword(self) -> &'static str {
+        match self {
+            AdjustLimit::Speed => "speed",
+            AdjustLimit::Trim => "trim",
+        }
+    }
+}
+
+/// The speed or diameter a case needs against the limit the design allows.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Headroom {
+    pub limit: AdjustLimit,
+    /// Needed ratio to the published curve's speed or diameter; `None` when the
+    /// requirement cannot be reached at any ratio.
+    pub needed: Option<f64>,
+    /// The largest ratio allowed: `max_speed` for speed, 1.0 (the published impeller) for trim.
+    pub limit_value: f64,
+}
+
+impl Headroom {
+    /// (limit − needed) / limit, negative when the limit is short of the need.
+    pub fn fraction(&self) -> Option<f64> {
+        self.needed
+            .map(|n| (self.limit_value - n) / self.limit_value)
+    }
+}
+
 /// The duty of one candidate in one case.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Duty {
@@ -215,17 +252,31 @@ pub struct Duty {
     pub flow_per_pump: f64,
     pub head_per_pump: f64,
     pub efficiency: Option<f64>,
+    /// ρ·g·Q·H of the arrangement, W.
     pub hydraulic_power: f64,
     /// Shaft power of all running pumps, W.
     pub shaft_power: Option<f64>,
     /// Electrical input of all running pumps (motor and drive efficiency), W.
     pub input_power: Option<f64>,
+    /// Motor efficiency used for the input power (fraction).
+    pub motor_efficiency: f64,
+    /// Drive efficiency used (1.0 without a variable-frequency drive).
+    pub drive_efficiency: f64,
+    /// Input energy per volume delivered, J/m³ (input power / flow).
+    pub specific_energy: Option<f64>,
+    /// Hydraulic power / electrical input (fraction).
+    pub wire_to_water_efficiency: Option<f64>,
     pub bep_flow: Option<f64>,
     pub flow_ratio_to_bep: Option<f64>,
     pub npsh_available: f64,
+    /// NPSH available term by term; the terms sum to `npsh_available`.
+    pub npsh_terms: NpshTerms,
     pub npsh_required: Option<f64>,
     pub suction_velocity: Option<f64>,
     pub discharge_velocity: Option<f64>,
+    /// Every segment at the duty flow.
+    pub segments: Vec<SegmentAtFlow>,
+    /// Always false: a duty beyond the published curve fails (kept for the JSON field).
     pub extrapolated: bool,
     pub crossings: usize,
 }
@@ -235,6 +286,10 @@ pub struct Duty {
 pub struct YearEnergy {
     pub energy_j: f64,
     pub cost: Option<f64>,
+    /// Running hours per year: the case's hours, or the fixed volume ÷ delivered flow.
+    pub hours: f64,
+    /// Volume delivered per year, m³.
+    pub volume_m3: f64,
 }
 
 #[derive(Clone, Debug)]
@@ -253,12 +308,205 @@ pub struct PumpResult {
     pub energy: Option<YearEnergy>,
     pub warnings: Vec<String>,
     /// Motor input efficiency used, and where it comes from.
-    pub motor_efficiency: (f64, &'static str),
+    pub motor_efficiency: (f64, String),
+    /// Speed or diameter needed against its limit (`adjust = speed` or `trim` only).
+    pub headroom: Option<Headroom>,
+    /// Flow of the arrangement at the limit (maximum speed, largest impeller allowed),
+    /// m³/s; `None` when the curves do not meet within the published data.
+    pub capacity_flow: Option<f64>,
 }
 
-/// Default motor efficiency when the design gives none: 93 %, a typical premium-efficiency
-/// (IE3 / NEMA Premium) motor of 10–50 kW at full load (common practice).
+/// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
+/// class value of the selected rating): 93 %, a typical premium-efficiency motor of
+/// 10–50 kW at full load (common practice).
 pub const DEFAULT_MOTOR_EFFICIENCY: f64 = 0.93;
+/// Variable-frequency drive efficiency when the design gives none: 97 % at full load
+/// (common practice).
+pub const DEFAULT_DRIVE_EFFICIENCY: f64 = 0.97;
+
+/// The largest `flow >=` requirement of a case, m³/s.
+pub fn required_flow(design: &Design, case_name: &str) -> Option<f64> {
+    design
+        .requirements
+        .iter()
+        .filter(|r| {
+            r.metric == Metric::Flow
+                && r.at_least
+                && (r.cases.is_empty() || r.cases.iter().any(|c| c == case_name))
+        })
+        .map(|r| r.limit_si)
+        .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))))
+}
+
+/// Pumps in parallel and in series of an arrangement.
+pub fn stages(p: &PumpCandidate) -> (u32, u32) {
+    match p.arrangement {
+        ArrangementKind::Single => (1, 1),
+        ArrangementKind::Parallel => (p.count.max(1), 1),
+        ArrangementKind::Series => (1, p.count.max(1)),
+    }
+}
+
+/// Drive efficiency of a candidate: the design's, or the default, on `adjust = speed`.
+pub fn drive_efficiency(design: &Design, p: &PumpCandidate) -> f64 {
+    if matches!(p.adjust, Adjust::Speed { .. }) {
+        design
+            .motor
+            .drive_efficiency
+            .unwrap_or(DEFAULT_DRIVE_EFFICIENCY)
+    } else {
+        1.0
+    }
+}
+
+/// Shaft power of `parallel` × `series` pumps at total flow q (m³/s), W: ρgQH/η per
+/// pump where the curve gives an efficiency, else the published shaft power.
+pub fn arrangement_power(
+    scaled: &ScaledPump,
+    density: f64,
+    parallel: f64,
+    series: f64,
+    q: f64,
+) -> Option<f64> {
+    let qp = q / parallel;
+    let hp = scaled.eval_head(qp);
+    let per = match scaled.eval_efficiency(qp) {
+        Some(e) if e > 0.02 => Some(density * G * qp * hp / e),
+        _ => scaled.eval_shaft_power(qp),
+    };
+    per.map(|w| w * parallel * series)
+}
+
+/// The speed and diameter ratios of a case and its headroom, adjusted to the case's
+/// flow requirement for `adjust = speed` or `trim`.
+fn adjust_to_requirement(
+    design: &Design,
+    case: &Case,
+    sys: &CaseSystem,
+    p: &PumpCandidate,
+    base: &PumpCurves,
+    ratios: (f64, f64),
+    out: &mut PumpResult,
+) -> (f64, f64) {
+    let (n_par, n_ser) = stages(p);
+    let (mut speed_ratio, mut diameter_ratio) = ratios;
+    let units = crate::display::Units::new(design.project.units);
+    let required = required_flow(design, &case.name);
+    match (p.adjust, required) {
+        (
+            Adjust::Speed {
+                min_ratio,
+                max_ratio,
+            },
+            Some(q),
+        ) => {
+            let h = sys.head(q) / n_ser as f64;
+            let qp = q / n_par as f64;
+            let needed = pumps::speed_for_duty(base, qp, h, 0.05, 3.0_f64.max(max_ratio))
+                .ok()
+                .map(|s| s.speed_ratio);
+            out.headroom = Some(Headroom {
+                limit: AdjustLimit::Speed,
+                needed,
+                limit_value: max_ratio,
+            });
+            match needed {
+                Some(r) if r < min_ratio => speed_ratio = min_ratio,
+                Some(r) if r <= max_ratio * (1.0 + 1e-12) => speed_ratio = r,
+                Some(_) | None => {
+                    speed_ratio = max_ratio;
+                    out.warnings.push(format!(
+                        "the flow requirement {} cannot be met within the maximum speed ({:.0} % of the published speed): the pump runs at its maximum speed",
+                        units.flow().fmt(q),
+                        100.0 * max_ratio
+                    ));
+                }
+            }
+            if let Some(r) = needed.filter(|r| *r < min_ratio) {
+                out.warnings.push(format!(
+                    "the flow requirement needs {:.0} % speed, below the minimum speed {:.0} %: the pump runs at its minimum speed",
+                    100.0 * r,
+                    100.0 * min_ratio
+                ));
+            }
+        }
+        (Adjust::Trim { min_ratio }, Some(q)) => {
+            let h = sys.head(q) / n_ser as f64;
+            let qp = q / n_par as f64;
+            let needed = pumps::trim_for_duty(base, qp, h, 0.05).ok().map(|(d, _)| d);
+            out.headroom = Some(Headroom {
+                limit: AdjustLimit::Trim,
+                needed,
+                limit_value: 1.0,
+            });
+            match needed {
+                Some(d) if d >= min_ratio => diameter_ratio = d,
+                Some(_) => {
+                    diameter_ratio = min_ratio;
+                    out.warnings.push(format!(
+                        "the flow requirement {} needs a trim below the smallest allowed ({:.0} %): the impeller is trimmed to the smallest allowed",
+                        units.flow().fmt(q),
+                        100.0 * min_ratio
+                    ));
+                }
+                None => out.warnings.push(format!(
+                    "the flow requirement {} cannot be met even with the published impeller: it is not trimmed",
+                    units.flow().fmt(q)
+                )),
+            }
+        }
+        (Adjust::Speed { .. } | Adjust::Trim { .. }, None) => out.warnings.push(
+            "this case states no flow requirement to adjust to: the pump runs as published".into(),
+        ),
+        _ => {}
+    }
+    (speed_ratio, diameter_ratio)
+}
+
+/// Why a solve found no duty point, in report units.
+fn describe_failure(design: &Design, outcome: &DutyOutcome) -> String {
+    let u = crate::display::Units::new(design.project.units);
+    let (fl, hd) = (u.flow(), u.head());
+    match outcome {
+        DutyOutcome::ShutoffBelowStatic {
+            shutoff_head,
+            static_head,
+        } => format!(
+            "no duty point: the shut-off head {} is below the static head {}",
+            hd.fmt(*shutoff_head),
+            hd.fmt(*static_head)
+        ),
+        DutyOutcome::CurveEndsBeforeSystem {
+            end_flow,
+            pump_head,
+            system_head,
+        } => format!(
+            "no duty point within the published data: at {} the pump still gives {} against {} of system head; no published data there",
+            fl.fmt(*end_flow),
+            hd.fmt(*pump_head),
+            hd.fmt(*system_head)
+        ),
+        DutyOutcome::NoSolution { message } => format!("no duty point: {message}"),
+        DutyOutcome::Point { flow, head, .. } => {
+            format!("duty point at {} and {}", fl.fmt(*flow), hd.fmt(*head))
+        }
+    }
+}
+
+/// The flow of an arrangement (m³/s) where its curve meets the system curve within the
+/// published data, or `None`.
+pub fn meeting_flow(
+    scaled: &ScaledPump,
+    sys: &CaseSystem,
+    parallel: f64,
+    series: f64,
+) -> Option<f64> {
+    let (_, end) = scaled.domain();
+    let head = |q: f64| series * scaled.eval_head(q / parallel);
+    pumps::solve_duty(&head, &|q| sys.head(q), end * parallel)
+        .point()
+        .map(|(q, _)| q)
+}
 
 /// Evaluate one candidate in one case.
 pub fn evaluate(
@@ -268,16 +516,12 @@ pub fn evaluate(
     p: &PumpCandidate,
     cc: &CandidateCurves,
 ) -> PumpResult {
-    let (n_par, n_ser) = match p.arrangement {
-        ArrangementKind::Single => (1u32, 1u32),
-        ArrangementKind::Parallel => (p.count, 1),
-        ArrangementKind::Series => (1, p.count),
-    };
+    let (n_par, n_ser) = stages(p);
     let motor_efficiency = match design.motor.efficiency {
-        Some(e) => (e, "given in the design"),
+        Some(e) => (e, "given in the design".to_string()),
         None => (
             DEFAULT_MOTOR_EFFICIENCY,
-            "assumed: typical premium-efficiency motor (common practice)",
+            "assumed: typical premium-efficiency motor (common practice)".to_string(),
         ),
     };
     let mut out = PumpResult {
@@ -296,17 +540,28 @@ pub fn evaluate(
         energy: None,
         warnings: Vec::new(),
         motor_efficiency,
+        headroom: None,
+        capacity_flow: None,
     };
-    let Some((base, trim)) = &cc.evaluated else {
-        let why = "no usable pump curve".to_string();
-        out.checks.push(Check::fail(
-            "duty-point",
-            None,
-            None,
-            &why,
-            "the curve tables of the design",
+    let fail = |out: &mut PumpResult, why: String, value, limit, source: Source| {
+        out.checks.push(Check::typed(
+            CheckId::DutyPoint,
+            checks::Status::Fail,
+            value,
+            limit,
+            why.clone(),
+            source,
         ));
         out.failure = Some(why);
+    };
+    let Some((base, trim)) = &cc.evaluated else {
+        fail(
+            &mut out,
+            "no usable pump curve".into(),
+            None,
+            None,
+            Source::DesignData("the curve tables of the design"),
+        );
         return out;
     };
     let case_speed = case
@@ -316,85 +571,35 @@ pub fn evaluate(
         .find(|(n, _)| *n == p.name)
         .map(|(_, s)| s.get::<cycle_per_minute>())
         .unwrap_or(base.speed_rpm);
-    let mut speed_ratio = case_speed / base.speed_rpm;
-    let mut diameter_ratio = *trim;
-    let required_flow = design
-        .requirements
-        .iter()
-        .filter(|r| {
-            r.metric == Metric::Flow
-                && r.at_least
-                && (r.cases.is_empty() || r.cases.contains(&case.name))
-        })
-        .map(|r| r.limit_si)
-        .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))));
-    match (p.adjust, required_flow) {
-        (
-            Adjust::Speed {
-                min_ratio,
-                max_ratio,
-            },
-            Some(q),
-        ) => {
-            let h = sys.head(q) / n_ser as f64;
-            match pumps::speed_for_duty(base, q / n_par as f64, h, min_ratio, max_ratio) {
-                Ok(s) => {
-                    speed_ratio = s.speed_ratio;
-                    out.warnings.extend(s.warnings);
-                }
-                Err(e) => out
-                    .warnings
-                    .push(format!("speed not adjusted: {}", e.message)),
-            }
-        }
-        (Adjust::Trim { min_ratio }, Some(q)) => {
-            let h = sys.head(q) / n_ser as f64;
-            match pumps::trim_for_duty(base, q / n_par as f64, h, min_ratio) {
-                Ok((r, w)) => {
-                    diameter_ratio = r;
-                    out.warnings.extend(w);
-                }
-                Err(e) => out
-                    .warnings
-                    .push(format!("impeller not trimmed: {}", e.message)),
-            }
-        }
-        (Adjust::Speed { .. } | Adjust::Trim { .. }, None) => out.warnings.push(
-            "`adjust` needs a `flow >=` requirement for this case; the pump runs as published"
-                .into(),
-        ),
-        _ => {}
-    }
+    let (speed_ratio, diameter_ratio) = adjust_to_requirement(
+        design,
+        case,
+        sys,
+        p,
+        base,
+        (case_speed / base.speed_rpm, *trim),
+        &mut out,
+    );
     let scaled = match ScaledPump::new(base, speed_ratio, diameter_ratio) {
         Ok(s) => s,
         Err(e) => {
-            out.checks.push(Check::fail(
-                "duty-point",
+            fail(
+                &mut out,
+                e.message,
                 None,
                 None,
-                &e.message,
-                "affinity laws",
-            ));
-            out.failure = Some(e.message);
+                Source::DesignData("affinity laws"),
+            );
             return out;
         }
     };
+    let (par, ser) = (n_par as f64, n_ser as f64);
+    out.capacity_flow = capacity(p, base, *trim, case_speed / base.speed_rpm, sys, par, ser);
     out.warnings.extend(scaled.warnings().iter().cloned());
     out.speed_rpm = scaled.speed_rpm();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     let rho = sys.fluid.density;
-    let par = n_par as f64;
-    let ser = n_ser as f64;
     let head_arr = |q: f64| ser * scaled.eval_head(q / par);
-    let power_arr = |q: f64| -> Option<f64> {
-        let qp = q / par;
-        let hp = scaled.eval_head(qp);
-        let per = match scaled.eval_efficiency(qp) {
-            Some(e) if e > 0.02 => Some(rho * G * qp * hp / e),
-            _ => scaled.eval_shaft_power(qp),
-        };
-        per.map(|w| w * par * ser)
-    };
     let (_, q_data_end) = scaled.domain();
     let q_end = q_data_end * par;
     out.operating_curve = (0..PUMP_CURVE_POINTS)
@@ -405,15 +610,16 @@ pub fn evaluate(
                 head: head_arr(q),
                 efficiency: scaled.eval_efficiency(q / par),
                 npshr: scaled.eval_npshr(q / par),
-                shaft_power: power_arr(q),
+                shaft_power: arrangement_power(&scaled, rho, par, ser, q),
             }
         })
         .collect();
     let outcome = pumps::solve_duty(
         &head_arr,
         &|q| sys.head(q),
-        q_end * (1.0 + EXTRAPOLATION_ALLOWANCE),
+        q_end * (1.0 + SEARCH_BEYOND_CURVE),
     );
+    let units = crate::display::Units::new(design.project.units);
     let (q, h, crossings) = match &outcome {
         DutyOutcome::Point {
             flow,
@@ -426,7 +632,6 @@ pub fn evaluate(
             (*flow, *head, *crossings)
         }
         other => {
-            let why = other.describe();
             let (value, limit) = match other {
                 DutyOutcome::ShutoffBelowStatic {
                     shutoff_head,
@@ -439,34 +644,35 @@ pub fn evaluate(
                 } => (Some(*pump_head), Some(*system_head)),
                 _ => (None, None),
             };
-            out.checks.push(Check::fail(
-                "duty-point",
+            let why = describe_failure(design, other);
+            fail(
+                &mut out,
+                why,
                 value,
                 limit,
-                &why,
-                "pump curve against system curve",
-            ));
-            out.failure = Some(why);
+                Source::DesignData("pump curve against system curve"),
+            );
             return out;
         }
     };
     let qp = q / par;
-    let extrapolated = qp > q_data_end * (1.0 + 1e-9);
-    if extrapolated {
-        out.warnings.push(format!(
-            "the duty flow per pump lies {:.1} % beyond the end of the published curve: extrapolated",
-            100.0 * (qp / q_data_end - 1.0)
-        ));
+    if qp > q_data_end * (1.0 + 1e-9) {
+        let why = format!(
+            "the pump and system curves meet at {} per pump, beyond the end of the published curve at {}: no published data there",
+            units.flow().fmt(qp),
+            units.flow().fmt(q_data_end)
+        );
+        fail(
+            &mut out,
+            why,
+            Some(qp),
+            Some(q_data_end),
+            Source::DesignData("the published curve's flow range"),
+        );
+        return out;
     }
     let efficiency = scaled.eval_efficiency(qp).filter(|e| *e > 0.0);
-    let hydraulic_power = pumps::hydraulic_power_w(rho, q, h);
-    let shaft_power = power_arr(q);
-    let drive = if matches!(p.adjust, Adjust::Speed { .. }) {
-        design.motor.drive_efficiency.unwrap_or(1.0)
-    } else {
-        1.0
-    };
-    let input_power = shaft_power.map(|s| s / motor_efficiency.0 / drive);
+    let shaft_power = arrangement_power(&scaled, rho, par, ser, q);
     let bep = cc.evaluated_bep.map(|b| b.flow * scaled.flow_scale());
     if let (crate::model::Fluid::Custom(_), Some(b)) = (&case.scenario.fluid, bep) {
         let nu = sys.fluid.viscosity / sys.fluid.density;
@@ -479,32 +685,97 @@ pub fn evaluate(
         flow_per_pump: qp,
         head_per_pump: h / ser,
         efficiency,
-        hydraulic_power,
+        hydraulic_power: pumps::hydraulic_power_w(rho, q, h),
         shaft_power,
-        input_power,
+        input_power: None,
+        motor_efficiency: out.motor_efficiency.0,
+        drive_efficiency: drive_efficiency(design, p),
+        specific_energy: None,
+        wire_to_water_efficiency: None,
         bep_flow: bep,
         flow_ratio_to_bep: bep.filter(|b| *b > 0.0).map(|b| qp / b),
         npsh_available: sys.npsh_available(q),
+        npsh_terms: sys.npsh_terms(q),
         npsh_required: scaled.eval_npshr(qp),
         suction_velocity: sys.pump_velocity(Side::Suction, q),
         discharge_velocity: sys.pump_velocity(Side::Discharge, q),
-        extrapolated,
+        segments: sys.segments_at(q),
+        extrapolated: false,
         crossings,
     };
-    out.energy = input_power.map(|w| {
-        let e =
-            pumps::annual_energy_j(w, case.scenario.hours_per_year.get::<uom::si::time::hour>());
-        YearEnergy {
-            energy_j: e,
-            cost: design.energy.price_per_joule.map(|pr| pr * e),
-        }
-    });
     let custom_fluid = match &case.scenario.fluid {
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
         crate::model::Fluid::Water { .. } => None,
     };
     out.warnings.extend(sys.flow_warnings(q, custom_fluid));
     out.checks = checks::duty_checks(design, case, &duty, p);
+    out.checks.extend(checks::headroom_check(&out.headroom));
     out.duty = Some(duty);
+    set_input_power(design, case, &mut out, None);
     out
+}
+
+/// The arrangement's flow at the limit the design allows: the maximum speed and the
+/// largest impeller (the published one before trim for `adjust = trim`).
+fn capacity(
+    p: &PumpCandidate,
+    base: &PumpCurves,
+    trim: f64,
+    case_speed_ratio: f64,
+    sys: &CaseSystem,
+    par: f64,
+    ser: f64,
+) -> Option<f64> {
+    let (speed, diameter) = match p.adjust {
+        Adjust::Speed { max_ratio, .. } => (max_ratio, trim),
+        Adjust::Trim { .. } => (case_speed_ratio, 1.0),
+        Adjust::None => (case_speed_ratio, trim),
+    };
+    let scaled = ScaledPump::new(base, speed, diameter).ok()?;
+    meeting_flow(&scaled, sys, par, ser)
+}
+
+/// The volume a case fixes per year, m³: its hours × its largest `flow >=` requirement.
+pub fn fixed_volume(design: &Design, case: &Case) -> Option<f64> {
+    let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
+    let q = required_flow(design, &case.name)?;
+    (hours > 0.0 && q > 0.0).then_some(hours * 3600.0 * q)
+}
+
+/// Input power, specific energy, wire-to-water efficiency and the year's energy of a
+/// result, with a motor efficiency (and its source) when the motor pass gives one.
+/// Where the case fixes a volume the running hours are volume ÷ delivered flow.
+pub fn set_input_power(
+    design: &Design,
+    case: &Case,
+    out: &mut PumpResult,
+    motor_efficiency: Option<(f64, String)>,
+) {
+    if let Some(m) = motor_efficiency {
+        out.motor_efficiency = m;
+    }
+    let Some(d) = out.duty.as_mut() else { return };
+    d.motor_efficiency = out.motor_efficiency.0;
+    d.input_power = d
+        .shaft_power
+        .map(|s| s / d.motor_efficiency / d.drive_efficiency);
+    d.specific_energy = d.input_power.filter(|_| d.flow > 0.0).map(|w| w / d.flow);
+    d.wire_to_water_efficiency = d
+        .input_power
+        .filter(|w| *w > 0.0)
+        .map(|w| d.hydraulic_power / w);
+    let case_hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
+    let (hours, volume) = match fixed_volume(design, case) {
+        Some(v) if d.flow > 0.0 => (v / d.flow / 3600.0, v),
+        _ => (case_hours, case_hours * 3600.0 * d.flow),
+    };
+    out.energy = d.input_power.map(|w| {
+        let e = pumps::annual_energy_j(w, hours);
+        YearEnergy {
+            energy_j: e,
+            cost: design.energy.price_per_joule.map(|pr| pr * e),
+            hours,
+            volume_m3: volume,
+        }
+    });
 }

@@ -4,13 +4,17 @@
 //! Pure functions of a [`Design`]; the outputs (report, results, diff) read an
 //! [`Analysis`] and never recompute engineering values.
 
+pub mod capacity;
 pub mod checks;
 pub mod duty;
+pub mod limits;
+pub mod motor;
+pub mod parallel;
 pub mod selection;
 pub mod system;
 
 use crate::model::{Design, Side};
-pub use system::{CaseSystem, FluidState, Losses, SegmentState, G};
+pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
 
 /// Number of points of each tabulated system curve.
 pub const SYSTEM_CURVE_POINTS: usize = 31;
@@ -28,6 +32,14 @@ pub struct Analysis {
     pub flow_max: f64,
     /// Per candidate, the motor selected over all cases (None without power data).
     pub motors: Vec<Option<crate::pumps::MotorChoice>>,
+    /// Per candidate, the motor with the findings behind it (largest duty, run-out).
+    pub motor_sizing: Vec<Option<motor::MotorSizing>>,
+    /// Per candidate, one pump of a parallel set alone (`None` for other arrangements).
+    pub one_alone: Vec<Option<parallel::OneAlone>>,
+    /// Per candidate, per case: the flow at the limit (maximum speed, largest impeller), m³/s.
+    pub capacity: Vec<Vec<Option<f64>>>,
+    /// The requirement × case matrix.
+    pub requirement_matrix: Vec<capacity::RequirementRow>,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -171,53 +183,31 @@ pub fn analyse(design: &Design) -> Analysis {
         }
     }
     warnings.extend(system_warnings(design, &cases));
-    let motors = motor_pass(design, &mut cases);
+    let motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
+    let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
+    warnings.extend(capacity::governing_warnings(design, &cases));
     let selection = selection::rank(design, &cases);
     Analysis {
+        capacity: capacity::capacity_table(design, &cases),
+        requirement_matrix: capacity::requirement_matrix(design, &cases),
+        motors: motor_sizing
+            .iter()
+            .map(|m| m.as_ref().map(|m| m.choice.clone()))
+            .collect(),
+        motor_sizing,
+        one_alone,
         cases,
         candidates,
         selection,
         warnings,
         flow_max,
-        motors,
     }
-}
-
-/// Size each candidate's motor over all its cases and add the `motor` check to each duty.
-fn motor_pass(design: &Design, cases: &mut [CaseResult]) -> Vec<Option<crate::pumps::MotorChoice>> {
-    let mut out = Vec::new();
-    for (i, p) in design.pumps.iter().enumerate() {
-        let per_pump = p.count.max(1) as f64;
-        let max_shaft = cases
-            .iter()
-            .filter_map(|c| c.pumps.get(i)?.duty.as_ref()?.shaft_power)
-            .fold(0.0, f64::max)
-            / per_pump;
-        let runout = cases
-            .iter()
-            .filter_map(|c| c.pumps.get(i)?.operating_curve.last()?.shaft_power)
-            .fold(0.0, f64::max)
-            / per_pump;
-        if max_shaft <= 0.0 {
-            out.push(None);
-            continue;
-        }
-        let (check, choice) = checks::motor_check(design, max_shaft, runout.max(max_shaft));
-        for c in cases.iter_mut() {
-            if let Some(r) = c.pumps.get_mut(i) {
-                if r.duty.is_some() {
-                    r.checks.push(check.clone());
-                }
-            }
-        }
-        out.push(choice);
-    }
-    out
 }
 
 /// Warnings about the piping that do not depend on a pump: missing entrance or exit losses.
 fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     let mut out = Vec::new();
+    let units = crate::display::Units::new(design.project.units);
     let base = &design.base;
     let has = |side: Side, prefix: &str| {
         base.lines
@@ -237,7 +227,7 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             out.push(Warning {
                 code: "no-exit-loss",
                 message: format!(
-                    "line {}: no `exit` fitting; the exit loss (one velocity head) is not counted",
+                    "line {}: no exit fitting; the exit loss (one velocity head) is not counted",
                     l.name
                 ),
                 span: Some(l.span),
@@ -249,13 +239,13 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             if s.static_head <= 0.0 {
                 out.push(Warning {
                     code: "static-head",
-                    message: format!("case {}: the static head is {:.2} m (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction", c.name, s.static_head),
+                    message: format!("case {}: the static head is {} (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction", c.name, units.head().fmt(s.static_head)),
                     span: None,
                 });
             }
             let npsh0 = s.npsh_available(0.0);
             if npsh0 <= 0.0 {
-                out.push(Warning { code: "npsh-negative", message: format!("case {}: NPSH available is {npsh0:.2} m even at zero flow: the liquid would boil at the pump suction", c.name), span: None });
+                out.push(Warning { code: "npsh-negative", message: format!("case {}: NPSH available is {} even at zero flow: the liquid would boil at the pump suction", c.name, units.head().fmt(npsh0)), span: None });
             }
         }
     }

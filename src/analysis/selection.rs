@@ -1,10 +1,14 @@
 //! Ranking the candidates and recommending one, or saying why none qualifies.
 //!
-//! Criteria, in order: (1) a candidate qualifies when every case has a duty
-//! point and no check fails; (2) qualifying candidates are ranked by life-cycle
-//! energy cost when an energy price and operating hours are given, else by
-//! yearly energy, else by the mean pump efficiency over the cases; (3) ties go
-//! to the larger smallest NPSH margin ratio.
+//! Criteria, in order: (1) a candidate qualifies when every case was analysed, has a
+//! duty point and no check fails; failing candidates are listed after every qualifying
+//! one; (2) qualifying candidates are ranked on an equal basis (issue 10.2): energy per
+//! volume delivered. Where a case fixes a volume (its hours × its flow requirement)
+//! each candidate runs that volume ÷ its delivered flow; where a case states hours but
+//! no flow, each candidate runs those hours and its energy counts per volume it
+//! delivers. With an energy price the score is the life-cycle energy cost per volume,
+//! without one the specific energy, and without hours the mean pump efficiency;
+//! (3) ties go to the larger smallest NPSH margin ratio.
 
 use super::checks::Status;
 use super::CaseResult;
@@ -17,10 +21,19 @@ pub struct Ranked {
     pub qualifies: bool,
     /// The ranking value (lower is better for costs and energy; efficiency is negated).
     pub score: f64,
+    /// Energy and cost per year on the ranking basis (hours adjusted to fixed volumes).
     pub annual_energy_j: Option<f64>,
     pub annual_cost: Option<f64>,
     pub life_cost: Option<f64>,
+    /// Volume delivered per year on the ranking basis, m³.
+    pub annual_volume_m3: Option<f64>,
+    /// Energy per volume over the year, J/m³.
+    pub specific_energy_j_m3: Option<f64>,
+    /// Life-cycle energy cost ÷ (yearly volume × years), currency per m³.
+    pub life_cost_per_m3: Option<f64>,
     pub mean_efficiency: Option<f64>,
+    /// Hydraulic energy ÷ electrical energy over the year.
+    pub mean_wire_to_water: Option<f64>,
     pub min_npsh_ratio: Option<f64>,
     pub warnings: usize,
     pub why: String,
@@ -31,9 +44,50 @@ pub struct Selection {
     pub recommended: Option<String>,
     pub criterion: &'static str,
     pub criteria_text: String,
+    /// The basis of the ranking in one sentence.
+    pub basis: String,
     pub ranking: Vec<Ranked>,
     /// Why nothing is recommended, when nothing is.
     pub refusal: Option<String>,
+}
+
+/// Why a candidate does not qualify, and how many warnings it has.
+fn failures(cases: &[CaseResult], i: usize) -> (Vec<String>, usize) {
+    let mut fails: Vec<String> = Vec::new();
+    let mut warnings = 0;
+    for c in cases {
+        let Some(r) = c.pumps.get(i) else {
+            fails.push(format!(
+                "case {} could not be analysed ({})",
+                c.name,
+                c.error.as_deref().unwrap_or("no result")
+            ));
+            continue;
+        };
+        if r.duty.is_none() {
+            fails.push(format!("no duty point in case {}", c.name));
+        }
+        for ch in &r.checks {
+            match ch.status {
+                Status::Fail => fails.push(format!("{} fails in case {}", ch.id, c.name)),
+                Status::Warn => warnings += 1,
+                Status::Pass => {}
+            }
+        }
+    }
+    fails.dedup();
+    (fails, warnings)
+}
+
+fn lcc_method(design: &Design) -> LccMethod {
+    if design.energy.discount_rate != 0.0 || design.energy.escalation != 0.0 {
+        LccMethod::Discounted {
+            rate: design.energy.discount_rate,
+            escalation: design.energy.escalation,
+        }
+    } else {
+        LccMethod::Simple
+    }
 }
 
 /// Rank the candidates over the analysed cases.
@@ -41,63 +95,55 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
     let priced = design.energy.price_per_joule.is_some();
     let hours: f64 = cases.iter().map(|c| c.hours_per_year).sum();
     let criterion = if priced && hours > 0.0 {
-        "life-cycle energy cost"
+        "life-cycle energy cost per volume"
     } else if hours > 0.0 {
-        "yearly energy"
+        "energy per volume"
     } else {
         "mean efficiency"
     };
-    let method = if design.energy.discount_rate != 0.0 || design.energy.escalation != 0.0 {
-        LccMethod::Discounted {
-            rate: design.energy.discount_rate,
-            escalation: design.energy.escalation,
-        }
-    } else {
-        LccMethod::Simple
-    };
+    let method = lcc_method(design);
     let mut ranking: Vec<Ranked> = Vec::new();
     for (i, p) in design.pumps.iter().enumerate() {
-        let results: Vec<_> = cases
+        let results: Vec<_> = cases.iter().filter_map(|c| c.pumps.get(i)).collect();
+        let (fails, warnings) = failures(cases, i);
+        let with_hours: Vec<_> = results
             .iter()
-            .filter_map(|c| c.pumps.get(i).map(|r| (c, r)))
+            .filter(|r| r.energy.is_some_and(|e| e.hours > 0.0))
             .collect();
-        let mut fails: Vec<String> = Vec::new();
-        let mut warnings = 0;
-        for (c, r) in &results {
-            if r.duty.is_none() {
-                fails.push(format!("no duty point in case {}", c.name));
-            }
-            for ch in &r.checks {
-                match ch.status {
-                    Status::Fail => fails.push(format!("{} fails in case {}", ch.id, c.name)),
-                    Status::Warn => warnings += 1,
-                    Status::Pass => {}
-                }
-            }
-        }
-        fails.dedup();
-        let energy: Option<f64> = results
+        let energy: Option<f64> = with_hours
             .iter()
-            .map(|(_, r)| r.energy.map(|e| e.energy_j))
+            .map(|r| r.energy.map(|e| e.energy_j))
+            .sum();
+        let volume: Option<f64> = with_hours
+            .iter()
+            .map(|r| r.energy.map(|e| e.volume_m3))
+            .sum();
+        let hydraulic: f64 = with_hours
+            .iter()
+            .filter_map(|r| Some(r.duty.as_ref()?.hydraulic_power * r.energy?.hours * 3600.0))
             .sum();
         let cost: Option<f64> = if priced {
-            results
+            with_hours
                 .iter()
-                .map(|(_, r)| r.energy.and_then(|e| e.cost))
+                .map(|r| r.energy.and_then(|e| e.cost))
                 .sum()
         } else {
             None
         };
         let life =
             cost.and_then(|c| pumps::life_cycle_energy_cost(c, design.energy.years, method).ok());
+        let specific = energy.zip(volume.filter(|v| *v > 0.0)).map(|(e, v)| e / v);
+        let life_per_m3 = life
+            .zip(volume.filter(|v| *v > 0.0 && design.energy.years > 0.0))
+            .map(|(l, v)| l / (v * design.energy.years));
         let effs: Vec<f64> = results
             .iter()
-            .filter_map(|(_, r)| r.duty.as_ref().and_then(|d| d.efficiency))
+            .filter_map(|r| r.duty.as_ref().and_then(|d| d.efficiency))
             .collect();
         let mean_eff = (!effs.is_empty()).then(|| effs.iter().sum::<f64>() / effs.len() as f64);
         let min_npsh = results
             .iter()
-            .filter_map(|(_, r)| {
+            .filter_map(|r| {
                 r.duty.as_ref().and_then(|d| {
                     d.npsh_required
                         .filter(|n| *n > 0.0)
@@ -106,13 +152,13 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
             })
             .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.min(b))));
         let score = match criterion {
-            "life-cycle energy cost" => life.or(cost).unwrap_or(f64::INFINITY),
-            "yearly energy" => energy.unwrap_or(f64::INFINITY),
+            "life-cycle energy cost per volume" => life_per_m3.unwrap_or(f64::INFINITY),
+            "energy per volume" => specific.unwrap_or(f64::INFINITY),
             _ => -mean_eff.unwrap_or(0.0),
         };
         let qualifies = fails.is_empty();
         let why = if qualifies {
-            format!("qualifies: duty point in every case, no failing check ({warnings} warning(s))")
+            format!("qualifies: every case analysed with a duty point, no failing check ({warnings} warning(s))")
         } else {
             format!(
                 "does not qualify: {}",
@@ -126,7 +172,11 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
             annual_energy_j: energy,
             annual_cost: cost,
             life_cost: life,
+            annual_volume_m3: volume,
+            specific_energy_j_m3: specific,
+            life_cost_per_m3: life_per_m3,
             mean_efficiency: mean_eff,
+            mean_wire_to_water: energy.filter(|e| *e > 0.0).map(|e| hydraulic / e),
             min_npsh_ratio: min_npsh,
             warnings,
             why,
@@ -151,7 +201,7 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
         Some("the design has no pump candidates".to_string())
     } else if recommended.is_none() {
         Some(format!(
-            "no candidate qualifies: {}",
+            "no recommendation: no candidate qualifies: {}",
             ranking
                 .iter()
                 .map(|r| format!("{} {}", r.name, r.why))
@@ -161,20 +211,63 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
     } else {
         None
     };
-    let criteria_text = format!(
-        "A candidate qualifies when every case has a duty point and no check fails. Qualifying candidates are ranked by {criterion}{}; ties go to the larger smallest NPSH margin.",
-        match (criterion, method) {
-            ("life-cycle energy cost", LccMethod::Discounted { rate, escalation }) =>
-                format!(" over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", design.energy.years, rate * 100.0, escalation * 100.0),
-            ("life-cycle energy cost", _) => format!(" over {:.0} years, undiscounted", design.energy.years),
-            _ => String::new(),
-        }
-    );
     Selection {
         recommended,
         criterion,
-        criteria_text,
+        criteria_text: criteria_text(design, criterion, method),
+        basis: basis(design, cases, criterion),
         ranking,
         refusal,
     }
+}
+
+fn criteria_text(design: &Design, criterion: &str, method: LccMethod) -> String {
+    format!(
+        "A candidate qualifies when every case is analysed, has a duty point and no check fails; candidates that do not qualify are listed after those that do. Qualifying candidates are ranked by {criterion}{}; ties go to the larger smallest NPSH margin.",
+        match (criterion, method) {
+            ("life-cycle energy cost per volume", LccMethod::Discounted { rate, escalation }) =>
+                format!(" over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", design.energy.years, rate * 100.0, escalation * 100.0),
+            ("life-cycle energy cost per volume", _) => format!(" over {:.0} years, undiscounted", design.energy.years),
+            _ => String::new(),
+        }
+    )
+}
+
+/// The basis sentence printed beside the ranking.
+fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
+    let fixed: Vec<&str> = design
+        .cases
+        .iter()
+        .filter(|c| super::duty::fixed_volume(design, c).is_some())
+        .map(|c| c.name.as_str())
+        .collect();
+    let open: Vec<&str> = cases
+        .iter()
+        .filter(|c| c.hours_per_year > 0.0 && !fixed.contains(&c.name.as_str()))
+        .map(|c| c.name.as_str())
+        .collect();
+    if criterion == "mean efficiency" {
+        return "No case states operating hours, so energy cannot be compared: qualifying candidates are ranked by their mean pump efficiency over the cases.".into();
+    }
+    let mut s = format!(
+        "Candidates are compared per volume delivered ({}).",
+        if criterion.starts_with("life") {
+            "life-cycle energy cost per cubic metre or gallon"
+        } else {
+            "energy per cubic metre or gallon"
+        }
+    );
+    if !fixed.is_empty() {
+        s.push_str(&format!(
+            " Cases {} fix the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
+            fixed.join(", ")
+        ));
+    }
+    if !open.is_empty() {
+        s.push_str(&format!(
+            " Cases {} state hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
+            open.join(", ")
+        ));
+    }
+    s
 }

@@ -395,6 +395,115 @@ impl CaseSystem {
     }
 }
 
+/// NPSH available term by term, m of the case's fluid, signed so that they sum to
+/// NPSH available (ANSI/HI 9.6.1; Karassik et al., *Pump Handbook*, 4th ed., ch. 2).
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct NpshTerms {
+    /// Barometric pressure head p_baro/(ρg), m.
+    pub barometric_head: f64,
+    /// Gauge pressure on the source surface as head (p_abs − p_baro)/(ρg), m.
+    pub surface_pressure_head: f64,
+    /// Source level minus the pump datum (centreline), m.
+    pub static_suction_head: f64,
+    /// Minus the vapour-pressure head, −p_v/(ρg), m.
+    pub vapour_pressure_head: f64,
+    /// Minus the wall-friction loss of the suction segments, m.
+    pub suction_friction_head: f64,
+    /// Minus the minor (fitting and stated) losses of the suction segments, m.
+    pub suction_minor_head: f64,
+}
+
+impl NpshTerms {
+    /// The sum of the terms: NPSH available, m.
+    pub fn sum(&self) -> f64 {
+        self.barometric_head
+            + self.surface_pressure_head
+            + self.static_suction_head
+            + self.vapour_pressure_head
+            + self.suction_friction_head
+            + self.suction_minor_head
+    }
+}
+
+/// One segment at one flow: what a reviewer needs to recompute its losses.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SegmentAtFlow {
+    pub line: String,
+    pub side: Side,
+    /// Position within its line (0-based).
+    pub index: usize,
+    /// Flow, m³/s.
+    pub flow: f64,
+    /// Mean velocity Q/A, m/s.
+    pub velocity: f64,
+    /// Velocity head v²/2g, m.
+    pub velocity_head: f64,
+    /// Reynolds number ρvD/μ.
+    pub reynolds: f64,
+    /// Darcy friction factor; `None` on a Hazen-Williams segment.
+    pub friction_factor: Option<f64>,
+    /// Wall-friction loss, m.
+    pub friction_head: f64,
+    /// Minor loss (fittings, stated K and equivalent lengths), m.
+    pub minor_head: f64,
+    /// K of one piece of every fitting on the segment at this Reynolds number, in order.
+    pub fittings_k: Vec<f64>,
+}
+
+impl CaseSystem {
+    /// NPSH available at flow q (m³/s), term by term (see [`NpshTerms`]).
+    pub fn npsh_terms(&self, q: f64) -> NpshTerms {
+        let rho_g = self.fluid.density * G;
+        let (mut friction, mut minor) = (0.0, 0.0);
+        for seg in self.segments.iter().filter(|s| s.side == Side::Suction) {
+            let (wall, m) = self.segment_losses(seg, q);
+            friction += wall;
+            minor += m;
+        }
+        NpshTerms {
+            barometric_head: self.barometric_pa / rho_g,
+            surface_pressure_head: (self.source_abs_pa - self.barometric_pa) / rho_g,
+            static_suction_head: self.source_level - self.centreline,
+            vapour_pressure_head: -self.fluid.vapor_pressure / rho_g,
+            suction_friction_head: -friction,
+            suction_minor_head: -minor,
+        }
+    }
+
+    /// Every segment at flow q (m³/s), in the order of [`CaseSystem::segments`].
+    pub fn segments_at(&self, q: f64) -> Vec<SegmentAtFlow> {
+        self.segments
+            .iter()
+            .map(|seg| {
+                let velocity = q / seg.area;
+                let reynolds = self.reynolds(seg, q);
+                let (friction_head, minor_head) = self.segment_losses(seg, q);
+                SegmentAtFlow {
+                    line: seg.line.clone(),
+                    side: seg.side,
+                    index: seg.index,
+                    flow: q,
+                    velocity,
+                    velocity_head: velocity * velocity / (2.0 * G),
+                    reynolds,
+                    friction_factor: match seg.hazen_williams_c {
+                        Some(_) => None,
+                        None if q > 0.0 => Some(self.friction(seg, q).f),
+                        None => None,
+                    },
+                    friction_head,
+                    minor_head,
+                    fittings_k: seg
+                        .fittings
+                        .iter()
+                        .map(|f| k_of(f, reynolds, seg.inner_diameter))
+                        .collect(),
+                }
+            })
+            .collect()
+    }
+}
+
 /// K of one fitting (one piece) at a Reynolds number in a pipe of diameter d.
 /// Its parameters were validated when the case was set up ([`CaseSystem::new`]).
 pub fn k_of(f: &FittingState, re: f64, d: f64) -> f64 {

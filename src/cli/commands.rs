@@ -160,7 +160,11 @@ pub fn build(
             let old_design = design_of(&old_loaded)?;
             let old_analysis = dutyline::analysis::analyse(old_design);
             let diff = dutyline::diff::diff(old_design, &old_analysis, design, &analysis);
-            Some(dutyline::report::changes_from_diff(old_design, &diff))
+            Some(dutyline::report::changes_from_diff(
+                old_design,
+                &diff,
+                &old_loaded.source,
+            ))
         }
         None => None,
     };

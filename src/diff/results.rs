@@ -204,9 +204,10 @@ fn row(case: &str, pump: &str, before: Option<&PumpResult>, after: Option<&PumpR
 
 /// The name a check is matched by between the two analyses.
 fn check_key(c: &Check) -> String {
-    match c.id {
-        "requirement" => format!("requirement {}", requirement_key(&c.message)),
-        "velocity" => match c.message.split_whitespace().next() {
+    let subject = c.subject.as_deref().unwrap_or(&c.message);
+    match c.id.as_str() {
+        "requirement" => format!("requirement {}", requirement_key(subject)),
+        "velocity" => match subject.split_whitespace().next() {
             Some(side) => format!("velocity {side}"),
             None => "velocity".to_string(),
         },

@@ -289,6 +289,9 @@ pub struct PumpCandidate {
     pub impeller: Option<Length>,
     /// Adjust the pump to meet the flow requirement.
     pub adjust: Adjust,
+    /// The motor's nameplate rating per pump when the design states it (`motor_rating`);
+    /// `None` selects the smallest standard rating that carries every duty.
+    pub motor_rating: Option<uom::si::f64::Power>,
     pub span: Span,
 }
 

@@ -30,6 +30,7 @@ pub const PUMP_FIELDS: &[&str] = &[
     "min_speed",
     "max_speed",
     "min_trim",
+    "motor_rating",
 ];
 
 const COLUMNS: &[(&str, Dimension)] = &[
@@ -84,6 +85,7 @@ pub fn lower_pump(
         curves: Vec::new(),
         impeller: None,
         adjust: Adjust::None,
+        motor_rating: None,
         span,
     };
     let mut push = |r: Result<(), Diagnostic>| {
@@ -153,6 +155,17 @@ pub fn lower_pump(
                         v,
                         e.span,
                     )?));
+                }
+                "motor_rating" => {
+                    let v = expect_dim(e, env, Dimension::POWER, "motor rating")?.si;
+                    if v.is_nan() || v <= 0.0 {
+                        return Err(Diagnostic::error(
+                            "out-of-range",
+                            "the motor rating must be greater than zero",
+                            Some(e.span),
+                        ));
+                    }
+                    p.motor_rating = Some(uom::si::f64::Power::new::<watt>(v));
                 }
                 "adjust" => {
                     adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?

@@ -913,3 +913,76 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
     .with_label("nothing by this name")
     .with_help(help)
 }
+
+/// Check-time errors for a case whose water cannot be analysed (issue 10.5): at or
+/// below its freezing point (273.15 K; IAPWS-IF97 region 1 starts there), or at or
+/// above its boiling point at the source surface (vapour pressure by IAPWS-IF97 Eq. 30
+/// at or above the surface's absolute pressure: it flashes before reaching the pump).
+/// Values are in the design's report units.
+pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
+    let units = crate::display::Units::new(design.project.units);
+    let mut out = Vec::new();
+    for case in &design.cases {
+        let Fluid::Water { temperature } = &case.scenario.fluid else {
+            continue;
+        };
+        let span = if case.span == Span::new(0, 0) {
+            design.base.source.span
+        } else {
+            case.span
+        };
+        let t = temperature.get::<kelvin>();
+        let shown = units.temperature().fmt(t);
+        if t <= crate::fluid::water::FREEZING_POINT_K {
+            out.push(
+                Diagnostic::error(
+                    "out-of-range",
+                    format!(
+                        "case {}: water at {shown} is at or below its freezing point ({}): the case cannot be analysed",
+                        case.name,
+                        units.temperature().fmt(crate::fluid::water::FREEZING_POINT_K)
+                    ),
+                    Some(span),
+                )
+                .with_help("give the water a temperature above freezing, or describe the liquid with `fluid NAME { ... }`"),
+            );
+            continue;
+        }
+        let site = &case.scenario.site;
+        let barometric = match site.barometric_pressure {
+            Some(p) => Ok(p.get::<pascal>()),
+            None => crate::fluid::barometric_pressure_pa(site.elevation.get::<meter>())
+                .map_err(|e| e.message),
+        };
+        let Ok(barometric) = barometric else { continue };
+        let surface = match case.scenario.source.surface_pressure {
+            SurfacePressure::Gauge(g) => barometric + g.get::<pascal>(),
+            SurfacePressure::Absolute(a) => a.get::<pascal>(),
+        };
+        let boils = match crate::fluid::saturation_pressure_pa(t) {
+            Ok(pv) => (pv >= surface).then_some(pv),
+            Err(_) => Some(f64::INFINITY),
+        };
+        if let Some(pv) = boils {
+            let vapour = if pv.is_finite() {
+                format!("its vapour pressure {}", units.pressure().fmt(pv))
+            } else {
+                "it is above its critical point".to_string()
+            };
+            out.push(
+                Diagnostic::error(
+                    "out-of-range",
+                    format!(
+                        "case {}: water at {shown} boils at the surface of tank {}: {vapour} is at or above the surface's absolute pressure {}; the case cannot be analysed",
+                        case.name,
+                        case.scenario.source.name,
+                        units.pressure().fmt(surface)
+                    ),
+                    Some(span),
+                )
+                .with_help("lower the temperature or raise the pressure on the source tank"),
+            );
+        }
+    }
+    out
+}

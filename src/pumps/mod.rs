@@ -18,7 +18,8 @@
 //!   published curves.
 //! - [`arrangement`]: identical pumps in parallel, in series, duty/standby.
 //! - [`duty`]: the pump/system intersection ([`solve_duty`]) and Brent's root finder.
-//! - [`motor`]: NEMA MG 1 and IEC 60072-1 standard ratings and motor selection.
+//! - [`motor`]: NEMA MG 1 and IEC 60072-1 standard ratings and motor selection;
+//!   [`motor_efficiency`]: IE3 class efficiencies by rating and poles (IEC 60034-30-1).
 //! - [`energy`]: hydraulic, shaft and input power; annual energy; present worth.
 //! - [`viscous`]: whether a viscous liquid needs the water curve corrected (ANSI/HI 9.6.7).
 
@@ -31,6 +32,7 @@ pub mod family;
 pub mod fit;
 pub mod lsq;
 pub mod motor;
+pub mod motor_efficiency;
 pub mod spline;
 pub mod viscous;
 
@@ -45,7 +47,8 @@ pub use energy::{
 pub use family::{family, FamilyKind, FamilyPoint, PumpFamily};
 pub use fit::{fit, FitMethod, FitResiduals, FittedCurve, Quantity};
 pub use motor::{
-    default_service_factor, select_motor, standard_ratings_w, MotorChoice, MotorStandard,
+    default_service_factor, motor_of_rating, select_motor, standard_ratings_w, MotorChoice,
+    MotorStandard,
 };
 pub use viscous::{viscosity_parameter_b, viscosity_warning};
 

@@ -10,11 +10,13 @@
 //!   0.55, 0.75, 1.1, 1.5, 2.2, 3, 4, 5.5, 7.5, 11, 15, 18.5, 22, 30, 37, 45, 55, 75, 90,
 //!   110, 132, 160, 200, 250, 315, 355, 400, 450, 500, 560, 630, 710, 800, 900, 1000 kW.
 //!
-//! Service factor: the motor may carry rating × service factor continuously. Defaults
-//! ([`default_service_factor`]), common practice: 1.0 for IEC motors (IEC ratings carry
-//! no service factor), 1.15 for NEMA open drip-proof motors. No other sizing margin (such
-//! as the +10–15 % some engineers add on small motors) is applied: only the service
-//! factor the design states.
+//! Sizing rule (common practice, after NEMA MG 1 and IEC 60034-1): the nameplate rating,
+//! without the service factor, covers the largest shaft power at every operating point.
+//! The service factor is a margin for abnormal conditions and is reported only; makers
+//! commonly void it on inverter supply (NEMA MG 1 Parts 30 and 31), so it is taken as
+//! 1.0 on a variable-frequency drive. IEC 60034-1 rates continuous duty (S1) and defines
+//! no service factor. Defaults ([`default_service_factor`]), common practice: 1.0 for
+//! IEC motors, 1.15 for NEMA open drip-proof motors. No other sizing margin is applied.
 
 use super::PumpError;
 
@@ -145,24 +147,27 @@ pub struct MotorChoice {
     /// Nameplate rating, W.
     pub rating_w: f64,
     /// Nameplate rating as the series states it ("15 hp", "11 kW").
-    pub rating_label: &'static str,
-    /// Service factor applied.
+    pub rating_label: String,
+    /// Service factor on the nameplate: reported as margin, never used for sizing.
     pub service_factor: f64,
-    /// Largest shaft power over the operating range divided by the rating.
+    /// Largest shaft power over the operating points divided by the rating.
     pub loading_ratio: f64,
-    /// Run-out shaft power divided by the rating.
+    /// Largest shaft power along the curve to run-out divided by the rating.
     pub runout_loading_ratio: f64,
     /// The largest operating shaft power is within the nameplate rating.
     pub within_nameplate: bool,
-    /// The run-out power is within rating × service factor.
+    /// The shaft power along the whole curve to run-out is within the nameplate rating.
     pub non_overloading: bool,
-    /// Remarks: running into the service factor, overloading at run-out.
+    /// Remarks: above nameplate at duty, overloading at run-out.
     pub warnings: Vec<String>,
 }
 
-/// Smallest standard rating whose rating × `service_factor` carries `max_shaft_power_w`
-/// (the largest shaft power over the operating range), checked separately for the
-/// run-out power (non-overloading when run-out ≤ rating × service factor).
+/// Smallest standard rating whose nameplate (service factor not counted) carries
+/// `max_shaft_power_w`, the largest shaft power at every operating point; it is
+/// non-overloading when `runout_power_w` (the largest along the whole curve to its end)
+/// is within the nameplate too. The service factor is validated and reported only:
+/// NEMA MG 1 treats it as a margin for abnormal conditions, and IEC 60034-1 rates
+/// continuous duty (S1) without one (sizing rule: common practice).
 ///
 /// Comparisons allow a relative 1e-9 so that a power equal to a rating selects it.
 /// Errors: non-finite or non-positive maximum power, negative run-out power, a service
@@ -174,54 +179,104 @@ pub fn select_motor(
     runout_power_w: f64,
     service_factor: f64,
 ) -> Result<MotorChoice, PumpError> {
-    super::require_positive("largest shaft power (W)", max_shaft_power_w)?;
-    super::require_non_negative("run-out shaft power (W)", runout_power_w)?;
+    check_inputs(max_shaft_power_w, runout_power_w, service_factor)?;
+    let ratings = series(std);
+    let Some(&(rating_w, rating_label)) = ratings
+        .iter()
+        .find(|(w, _)| *w >= max_shaft_power_w * SLACK)
+    else {
+        let (largest, label) = ratings.last().copied().unwrap_or((0.0, "none"));
+        return Err(PumpError::new(format!(
+            "shaft power {:.1} kW exceeds the largest standard rating ({label}, {:.1} kW)",
+            max_shaft_power_w / 1000.0,
+            largest / 1000.0
+        )));
+    };
+    Ok(assess(
+        std,
+        rating_w,
+        rating_label.to_string(),
+        max_shaft_power_w,
+        runout_power_w,
+        service_factor,
+    ))
+}
+
+/// A motor of a stated nameplate rating (W) judged by the rule of [`select_motor`].
+/// The label is the series' when the rating is a standard one.
+pub fn motor_of_rating(
+    std: MotorStandard,
+    rating_w: f64,
+    max_shaft_power_w: f64,
+    runout_power_w: f64,
+    service_factor: f64,
+) -> Result<MotorChoice, PumpError> {
+    check_inputs(max_shaft_power_w, runout_power_w, service_factor)?;
+    super::require_positive("motor rating (W)", rating_w)?;
+    let label = series(std)
+        .iter()
+        .find(|(w, _)| (w - rating_w).abs() <= 1e-6 * rating_w)
+        .map(|(_, l)| l.to_string())
+        .unwrap_or_else(|| match std {
+            MotorStandard::Nema => format!("{:.3} hp", rating_w / WATTS_PER_HP),
+            MotorStandard::Iec => format!("{:.3} kW", rating_w / 1000.0),
+        });
+    Ok(assess(
+        std,
+        rating_w,
+        label,
+        max_shaft_power_w,
+        runout_power_w,
+        service_factor,
+    ))
+}
+
+/// Relative allowance so that a power equal to a rating is within it.
+const SLACK: f64 = 1.0 - 1e-9;
+
+fn check_inputs(max_w: f64, runout_w: f64, service_factor: f64) -> Result<(), PumpError> {
+    super::require_positive("largest shaft power (W)", max_w)?;
+    super::require_non_negative("run-out shaft power (W)", runout_w)?;
     if !(service_factor.is_finite() && (1.0..=1.5).contains(&service_factor)) {
         return Err(PumpError::new(format!(
             "service factor must lie between 1.0 and 1.5, got {service_factor}"
         )));
     }
-    let slack = 1.0 - 1e-9;
-    let ratings = series(std);
-    let Some(&(rating_w, rating_label)) = ratings
-        .iter()
-        .find(|(w, _)| w * service_factor >= max_shaft_power_w * slack)
-    else {
-        let (largest, label) = ratings.last().copied().unwrap_or((0.0, "none"));
-        return Err(PumpError::new(format!(
-            "shaft power {:.1} kW exceeds the largest standard rating ({label}, {:.1} kW) times \
-             the service factor {service_factor}",
-            max_shaft_power_w / 1000.0,
-            largest / 1000.0
-        )));
-    };
-    let within_nameplate = max_shaft_power_w * slack <= rating_w;
-    let non_overloading = runout_power_w * slack <= rating_w * service_factor;
+    Ok(())
+}
+
+fn assess(
+    std: MotorStandard,
+    rating_w: f64,
+    rating_label: String,
+    max_w: f64,
+    runout_w: f64,
+    service_factor: f64,
+) -> MotorChoice {
+    let within_nameplate = max_w * SLACK <= rating_w;
+    let non_overloading = runout_w * SLACK <= rating_w;
     let mut warnings = Vec::new();
     if !within_nameplate {
         warnings.push(format!(
-            "the {rating_label} motor runs into its service factor: {:.1} % of nameplate at the \
-             largest operating power",
-            100.0 * max_shaft_power_w / rating_w
+            "the {rating_label} motor is loaded above its nameplate at duty: {:.1} % of rating",
+            100.0 * max_w / rating_w
         ));
     }
     if !non_overloading {
         warnings.push(format!(
-            "the {rating_label} motor is overloaded at run-out: {:.2} kW against {:.2} kW \
-             (rating × service factor {service_factor})",
-            runout_power_w / 1000.0,
-            rating_w * service_factor / 1000.0
+            "the {rating_label} motor is overloaded along the curve to run-out: {:.1} % of rating",
+            100.0 * runout_w / rating_w
         ));
     }
-    Ok(MotorChoice {
+    MotorChoice {
         standard: std,
         rating_w,
         rating_label,
         service_factor,
-        loading_ratio: max_shaft_power_w / rating_w,
-        runout_loading_ratio: runout_power_w / rating_w,
+        loading_ratio: max_w / rating_w,
+        runout_loading_ratio: runout_w / rating_w,
         within_nameplate,
         non_overloading,
         warnings,
-    })
+    }
 }

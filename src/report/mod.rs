@@ -39,20 +39,25 @@ type Quantity<'a> = (
     &'a dyn Fn(f64) -> String,
 );
 
-/// The changes section's content from a diff, in the new design's report units.
-pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections::Changes {
-    let u = crate::display::Units::new(d.report_units);
-    let (fl, hd, pw) = (u.flow(), u.head(), u.power());
+/// The changes section's content from a diff, in the new design's report units;
+/// `old_source` is the compared revision's file, whose SHA-256 the section prints.
+pub fn changes_from_diff(
+    old: &Design,
+    diff: &crate::diff::DesignDiff,
+    old_source: &str,
+) -> sections::Changes {
+    let units = crate::display::Units::new(diff.report_units);
+    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
     let mut rows = Vec::new();
     let cell = |v: Option<f64>, f: &dyn Fn(f64) -> String| v.map(f).unwrap_or_else(|| "—".into());
-    for r in &d.results.rows {
+    for r in &diff.results.rows {
         let quantities: [Quantity; 5] = [
-            ("duty flow", &r.flow_m3_s, &|v| fl.fmt(v)),
-            ("duty head", &r.head_m, &|v| hd.fmt(v)),
+            ("duty flow", &r.flow_m3_s, &|v| fl.text(v)),
+            ("duty head", &r.head_m, &|v| hd.text(v)),
             ("efficiency", &r.efficiency, &|v| crate::display::percent(v)),
-            ("shaft power", &r.shaft_power, &|v| pw.fmt(v)),
+            ("shaft power", &r.shaft_power, &|v| pw.text(v)),
             ("NPSH margin (ratio)", &r.npsh_margin, &|v| {
-                format!("{v:.2}")
+                crate::display::typeset(v, 2)
             }),
         ];
         for (name, c, f) in quantities {
@@ -63,12 +68,12 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
                 cell(c.before, f),
                 cell(c.after, f),
                 c.change_percent
-                    .map(|p| format!("{p:+.1} %"))
+                    .map(|p| crate::display::signed_percent(p, 1))
                     .unwrap_or_else(|| "—".into()),
             ]);
         }
     }
-    for c in &d.results.cases_added {
+    for c in &diff.results.cases_added {
         rows.push(vec![
             c.clone(),
             "all".into(),
@@ -78,7 +83,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             "—".into(),
         ]);
     }
-    for c in &d.results.cases_removed {
+    for c in &diff.results.cases_removed {
         rows.push(vec![
             c.clone(),
             "all".into(),
@@ -89,14 +94,15 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
         ]);
     }
     sections::Changes {
+        old_sha256: crate::results::sha256_hex(old_source),
         old_revision: old
             .revisions
             .last()
             .map(|r| r.id.clone())
             .unwrap_or_else(|| "(none)".into()),
-        inputs: d.inputs.iter().map(|c| c.render()).collect(),
+        inputs: diff.inputs.iter().map(|c| c.render()).collect(),
         results: rows,
-        checks: d
+        checks: diff
             .results
             .checks
             .iter()
@@ -112,7 +118,7 @@ pub fn changes_from_diff(old: &Design, d: &crate::diff::DesignDiff) -> sections:
             })
             .collect(),
         recommendation: {
-            let r = &d.results.recommendation;
+            let r = &diff.results.recommendation;
             let name = |x: &Option<String>| x.clone().unwrap_or_else(|| "none".into());
             if r.changed {
                 format!(

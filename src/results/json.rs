@@ -12,6 +12,7 @@ use crate::analysis::{Analysis, CaseResult};
 use crate::diagnostics::{line_col, Diagnostic};
 use crate::model::{ArrangementKind, Design};
 
+mod engineering;
 mod inputs;
 
 /// The format string; changes when anything is removed or renamed.
@@ -26,6 +27,8 @@ struct Doc<'a> {
     cases: Vec<Case<'a>>,
     /// Added field: each candidate's published curve points and fit methods.
     candidates: Vec<inputs::Candidate<'a>>,
+    /// Wave 2: each requirement across the cases, with each candidate's status.
+    requirement_matrix: Vec<engineering::RequirementOut<'a>>,
     selection: Selection<'a>,
     warnings: Vec<Warn>,
 }
@@ -58,6 +61,8 @@ struct Case<'a> {
     barometric_pressure_given: bool,
     site_elevation_m: Option<f64>,
     levels: Option<Levels>,
+    /// Wave 2: `new` or `aged`, the pipe condition the case's roughness comes from.
+    pipe_condition: Option<&'static str>,
     static_head_m: Option<f64>,
     segments: Vec<Segment<'a>>,
     system_curve: Vec<Point>,
@@ -93,6 +98,8 @@ struct Segment<'a> {
     length_m: f64,
     inner_diameter_m: f64,
     roughness_m: f64,
+    /// Wave 2: where the roughness used comes from (table and condition, or given).
+    roughness_source: &'a str,
     friction_model: &'static str,
     hazen_williams_c: Option<f64>,
     fittings: Vec<Fitting<'a>>,
@@ -135,16 +142,22 @@ struct Pump<'a> {
     arrangement: Arrangement,
     speed_rpm: f64,
     impeller_diameter_m: Option<f64>,
-    duty: Option<Duty>,
+    duty: Option<Duty<'a>>,
     failure: Option<&'a str>,
     checks: Vec<CheckOut<'a>>,
     annual_energy_J: Option<f64>,
     annual_energy_cost: Option<f64>,
+    /// Wave 2: running hours and volume per year on the ranking basis.
+    running_hours_per_year: Option<f64>,
+    annual_volume_m3: Option<f64>,
+    /// Wave 2: the flow of the arrangement at its limit (maximum speed, largest impeller).
+    capacity_flow_m3_s: Option<f64>,
+    motor_efficiency_source: &'a str,
     warnings: &'a [String],
 }
 
 #[derive(Serialize)]
-struct Duty {
+struct Duty<'a> {
     flow_m3_s: f64,
     head_m: f64,
     flow_per_pump_m3_s: f64,
@@ -160,6 +173,16 @@ struct Duty {
     suction_velocity_m_s: Option<f64>,
     discharge_velocity_m_s: Option<f64>,
     extrapolated: bool,
+    /// Wave 2 (docs/results-json.md).
+    motor_efficiency: f64,
+    drive_efficiency: f64,
+    specific_energy_J_m3: Option<f64>,
+    wire_to_water_efficiency: Option<f64>,
+    npsh_margin_ratio: Option<f64>,
+    npsh_excess_m: Option<f64>,
+    npsh_terms: engineering::NpshTermsOut,
+    segments: Vec<engineering::SegmentOut<'a>>,
+    headroom: Option<engineering::HeadroomOut>,
 }
 
 #[derive(Serialize)]
@@ -177,6 +200,8 @@ struct Selection<'a> {
     recommended: Option<&'a str>,
     criterion: &'static str,
     criteria: &'a str,
+    /// Wave 2: the basis of the ranking in one sentence.
+    basis: &'a str,
     refusal: Option<&'a str>,
     ranking: Vec<Ranked<'a>>,
 }
@@ -190,6 +215,11 @@ struct Ranked<'a> {
     annual_energy_cost: Option<f64>,
     life_energy_cost: Option<f64>,
     mean_efficiency: Option<f64>,
+    /// Wave 2: the equal basis of the ranking.
+    annual_volume_m3: Option<f64>,
+    specific_energy_J_m3: Option<f64>,
+    life_cost_per_m3: Option<f64>,
+    mean_wire_to_water_efficiency: Option<f64>,
     why: &'a str,
 }
 
@@ -231,6 +261,7 @@ fn case<'a>(c: &'a CaseResult, d: Option<&'a crate::model::Case>) -> Case<'a> {
             source_gauge_pressure_Pa: s.source_abs_pa - s.barometric_pa,
             destination_gauge_pressure_Pa: s.destination_abs_pa - s.barometric_pa,
         }),
+        pipe_condition: s.map(|s| s.pipe_condition.keyword()),
         static_head_m: s.map(|s| s.static_head),
         segments: s
             .map(|s| {
@@ -245,6 +276,7 @@ fn case<'a>(c: &'a CaseResult, d: Option<&'a crate::model::Case>) -> Case<'a> {
                         length_m: g.length,
                         inner_diameter_m: g.inner_diameter,
                         roughness_m: g.roughness,
+                        roughness_source: &g.roughness_source,
                         friction_model: if g.hazen_williams_c.is_some() {
                             "hazen-williams"
                         } else {
@@ -305,7 +337,7 @@ fn design_flow(c: &CaseResult) -> f64 {
 
 fn check(c: &Check) -> CheckOut<'_> {
     CheckOut {
-        id: c.id,
+        id: c.id.as_str(),
         status: c.status.keyword(),
         value: c.value.and_then(finite),
         limit: c.limit.and_then(finite),
@@ -344,11 +376,27 @@ fn pump(p: &PumpResult) -> Pump<'_> {
             suction_velocity_m_s: d.suction_velocity,
             discharge_velocity_m_s: d.discharge_velocity,
             extrapolated: d.extrapolated,
+            motor_efficiency: d.motor_efficiency,
+            drive_efficiency: d.drive_efficiency,
+            specific_energy_J_m3: d.specific_energy,
+            wire_to_water_efficiency: d.wire_to_water_efficiency,
+            npsh_margin_ratio: d
+                .npsh_required
+                .filter(|n| *n > 0.0)
+                .map(|n| d.npsh_available / n),
+            npsh_excess_m: d.npsh_required.map(|n| d.npsh_available - n),
+            npsh_terms: engineering::npsh_terms(&d.npsh_terms),
+            segments: engineering::segments(&d.segments),
+            headroom: p.headroom.as_ref().map(engineering::headroom),
         }),
         failure: p.failure.as_deref(),
         checks: p.checks.iter().map(check).collect(),
         annual_energy_J: p.energy.map(|e| e.energy_j),
         annual_energy_cost: p.energy.and_then(|e| e.cost),
+        running_hours_per_year: p.energy.map(|e| e.hours),
+        annual_volume_m3: p.energy.map(|e| e.volume_m3),
+        capacity_flow_m3_s: p.capacity_flow,
+        motor_efficiency_source: &p.motor_efficiency.1,
         warnings: &p.warnings,
     }
 }
@@ -404,10 +452,16 @@ pub fn to_json(
             .map(|c| case(c, design.cases.iter().find(|d| d.name == c.name)))
             .collect(),
         candidates: inputs::candidates(design, analysis),
+        requirement_matrix: engineering::requirement_matrix(
+            design,
+            analysis,
+            &analysis.requirement_matrix,
+        ),
         selection: Selection {
             recommended: sel.recommended.as_deref(),
             criterion: sel.criterion,
             criteria: &sel.criteria_text,
+            basis: &sel.basis,
             refusal: sel.refusal.as_deref(),
             ranking: sel
                 .ranking
@@ -420,6 +474,10 @@ pub fn to_json(
                     annual_energy_cost: r.annual_cost,
                     life_energy_cost: r.life_cost,
                     mean_efficiency: r.mean_efficiency,
+                    annual_volume_m3: r.annual_volume_m3,
+                    specific_energy_J_m3: r.specific_energy_j_m3,
+                    life_cost_per_m3: r.life_cost_per_m3,
+                    mean_wire_to_water_efficiency: r.mean_wire_to_water,
                     why: &r.why,
                 })
                 .collect(),

@@ -10,14 +10,7 @@ use crate::model::Design;
 /// The text summary.
 pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     let u = Units::new(design.project.units);
-    let (fl, hd, pw, vel, len, dia) = (
-        u.flow(),
-        u.head(),
-        u.power(),
-        u.velocity(),
-        u.length(),
-        u.diameter(),
-    );
+    let (fl, hd, vel, len, dia) = (u.flow(), u.head(), u.velocity(), u.length(), u.diameter());
     let mut o = String::new();
     let p = &design.project;
     let _ = writeln!(o, "dutyline results {}", crate::VERSION);
@@ -58,6 +51,16 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
             u.pressure().fmt(s.barometric_pa)
         );
         let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
+        let _ = writeln!(
+            o,
+            "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {} absolute; pipe condition {}",
+            u.elevation().fmt(s.source_level),
+            u.elevation().fmt(s.destination_level),
+            u.elevation().fmt(s.centreline),
+            u.pressure().fmt(s.source_abs_pa),
+            u.pressure().fmt(s.destination_abs_pa),
+            s.pipe_condition.keyword()
+        );
         for g in &s.segments {
             let _ = writeln!(
                 o,
@@ -70,7 +73,11 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 len.fmt(g.length),
                 match g.hazen_williams_c {
                     Some(cv) => format!("Hazen-Williams C {cv}"),
-                    None => format!("roughness {}", u.roughness().fmt(g.roughness)),
+                    None => format!(
+                        "roughness {} (source: {})",
+                        u.roughness().fmt(g.roughness),
+                        g.roughness_source.trim_start_matches("roughness: ")
+                    ),
                 }
             );
         }
@@ -109,13 +116,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     if let Some(b) = d.flow_ratio_to_bep {
                         let _ = writeln!(o, "    flow / BEP flow: {}", percent(b));
                     }
-                    let _ = writeln!(o, "    NPSHa: {}", hd.fmt(d.npsh_available));
-                    if let Some(n) = d.npsh_required {
-                        let _ = writeln!(o, "    NPSHr: {}", hd.fmt(n));
-                    }
-                    if let Some(sp) = d.shaft_power {
-                        let _ = writeln!(o, "    shaft power: {}", pw.fmt(sp));
-                    }
+                    duty_detail(&mut o, &u, d);
                     if let (Some(v1), Some(v2)) = (d.suction_velocity, d.discharge_velocity) {
                         let _ = writeln!(
                             o,
@@ -133,6 +134,18 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     );
                 }
             }
+            if let Some(q) = r.capacity_flow {
+                let _ = writeln!(o, "    capacity at the limit: {}", fl.fmt(q));
+            }
+            if let Some(e) = r.energy {
+                let _ = writeln!(
+                    o,
+                    "    per year: {} h, {}, {}",
+                    format_args!("{:.0}", e.hours),
+                    u.volume().fmt(e.volume_m3),
+                    u.energy().fmt(e.energy_j)
+                );
+            }
             for ch in &r.checks {
                 let _ = writeln!(
                     o,
@@ -147,10 +160,27 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
             }
         }
     }
+    candidates(&mut o, design, analysis);
     let sel = &analysis.selection;
     let _ = writeln!(o, "\nselection by {}:", sel.criterion);
+    let _ = writeln!(o, "  basis: {}", sel.basis);
     for (i, r) in sel.ranking.iter().enumerate() {
         let _ = writeln!(o, "  {}. {}: {}", i + 1, r.name, r.why);
+        if let Some(se) = r.specific_energy_j_m3 {
+            let _ = writeln!(
+                o,
+                "     energy per volume {}{}",
+                u.specific_energy().fmt(se),
+                r.life_cost_per_m3
+                    .map(|c| format!(
+                        ", life-cycle energy cost per volume {:.4} {} per {}",
+                        c * u.volume_per_cost_unit(),
+                        design.energy.currency,
+                        u.volume_cost_unit()
+                    ))
+                    .unwrap_or_default()
+            );
+        }
     }
     match (&sel.recommended, &sel.refusal) {
         (Some(n), _) => {
@@ -165,4 +195,168 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         let _ = writeln!(o, "warning {}: {}", w.code, w.message);
     }
     o
+}
+
+/// The terms a reviewer recomputes at one duty.
+fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
+    let (hd, pw, fl, vel) = (u.head(), u.power(), u.flow(), u.velocity());
+    let t = &d.npsh_terms;
+    let _ = writeln!(
+        o,
+        "    NPSHa: {} = barometric {} + surface pressure {} + static suction {} + vapour pressure {} + suction friction {} + suction minor {}",
+        hd.fmt(d.npsh_available),
+        hd.num(t.barometric_head),
+        hd.num(t.surface_pressure_head),
+        hd.num(t.static_suction_head),
+        hd.num(t.vapour_pressure_head),
+        hd.num(t.suction_friction_head),
+        hd.num(t.suction_minor_head)
+    );
+    if let Some(n) = d.npsh_required {
+        let _ = writeln!(
+            o,
+            "    NPSHr (NPSH3): {}; margin ratio {}; excess {}",
+            hd.fmt(n),
+            if n > 0.0 {
+                format!("{:.2}", d.npsh_available / n)
+            } else {
+                "—".to_string()
+            },
+            hd.fmt(d.npsh_available - n)
+        );
+    }
+    let _ = writeln!(o, "    hydraulic power: {}", pw.fmt(d.hydraulic_power));
+    if let Some(sp) = d.shaft_power {
+        let _ = writeln!(o, "    shaft power: {}", pw.fmt(sp));
+    }
+    if let Some(ip) = d.input_power {
+        let _ = writeln!(
+            o,
+            "    input power: {} (motor {}, drive {})",
+            pw.fmt(ip),
+            percent(d.motor_efficiency),
+            percent(d.drive_efficiency)
+        );
+    }
+    if let (Some(se), Some(w)) = (d.specific_energy, d.wire_to_water_efficiency) {
+        let _ = writeln!(
+            o,
+            "    energy per volume: {}; wire-to-water efficiency {}",
+            u.specific_energy().fmt(se),
+            percent(w)
+        );
+    }
+    for g in &d.segments {
+        let _ = writeln!(
+            o,
+            "    at duty, segment {} {}: {}, {}, Re {:.0}, f {}, friction {}, minor {}, K {}",
+            g.line,
+            g.index + 1,
+            fl.fmt(g.flow),
+            vel.fmt(g.velocity),
+            g.reynolds,
+            g.friction_factor
+                .map(|f| format!("{f:.5}"))
+                .unwrap_or_else(|| "— (Hazen-Williams)".into()),
+            hd.fmt(g.friction_head),
+            hd.fmt(g.minor_head),
+            if g.fittings_k.is_empty() {
+                "—".to_string()
+            } else {
+                g.fittings_k
+                    .iter()
+                    .map(|k| format!("{k:.4}"))
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            }
+        );
+    }
+}
+
+/// Per candidate: the motor, one pump alone, and the requirement × case matrix.
+fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
+    let u = Units::new(design.project.units);
+    let (pw, fl) = (u.power(), u.flow());
+    for (k, p) in design.pumps.iter().enumerate() {
+        let _ = writeln!(o, "\ncandidate {}", p.name);
+        if let Some(Some(m)) = analysis.motor_sizing.get(k) {
+            let _ = writeln!(
+                o,
+                "  motor: {} per pump{}, service factor {:.2}{}; efficiency {} ({})",
+                m.choice.rating_label,
+                if m.rating_stated { " (stated)" } else { "" },
+                m.choice.service_factor,
+                if m.variable_speed {
+                    " (variable-frequency drive)"
+                } else {
+                    " (margin only)"
+                },
+                percent(m.efficiency),
+                m.efficiency_source
+            );
+            let _ = writeln!(
+                o,
+                "  largest shaft power at duty: {} (case {}); to run-out at {:.0} rpm: {} at {} per pump (case {}); {}",
+                pw.fmt(m.max_operating_shaft_power),
+                m.max_operating_case,
+                m.run_out_speed_rpm,
+                pw.fmt(m.run_out_shaft_power),
+                fl.fmt(m.run_out_flow),
+                m.run_out_case,
+                if m.choice.non_overloading {
+                    "non-overloading"
+                } else {
+                    "overloads towards run-out"
+                }
+            );
+        }
+        if let Some(Some(alone)) = analysis.one_alone.get(k) {
+            let _ = writeln!(
+                o,
+                "  one pump alone {}: {}",
+                alone.check.status.keyword(),
+                alone.check.message
+            );
+        }
+        let caps: Vec<String> = analysis
+            .cases
+            .iter()
+            .enumerate()
+            .map(|(i, c)| {
+                let q = analysis
+                    .capacity
+                    .get(k)
+                    .and_then(|r| r.get(i))
+                    .copied()
+                    .flatten();
+                format!(
+                    "{} {}",
+                    c.name,
+                    q.map(|q| fl.fmt(q)).unwrap_or_else(|| "—".into())
+                )
+            })
+            .collect();
+        let _ = writeln!(o, "  capacity at the limit: {}", caps.join("; "));
+    }
+    for row in &analysis.requirement_matrix {
+        let cells: Vec<String> = analysis
+            .cases
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| row.applies.get(*i).copied().unwrap_or(false))
+            .map(|(i, c)| {
+                let st: Vec<String> = design
+                    .pumps
+                    .iter()
+                    .enumerate()
+                    .map(|(k, p)| {
+                        let s = row.status.get(k).and_then(|r| r.get(i)).copied().flatten();
+                        format!("{} {}", p.name, s.map(|s| s.keyword()).unwrap_or("—"))
+                    })
+                    .collect();
+                format!("{}: {}", c.name, st.join(", "))
+            })
+            .collect();
+        let _ = writeln!(o, "requirement {}: {}", row.text, cells.join("; "));
+    }
 }

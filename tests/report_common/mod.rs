@@ -268,7 +268,9 @@ pub fn sample_document() -> Document {
             header_left: "Riverside intake".into(),
             header_right: "CALC-2024-017 · Rev B".into(),
             footer_left: "source SHA-256 3f786850…".into(),
+            ..Default::default()
         },
+        info: Default::default(),
         id_seed: "3f786850e387550fdab836ed7e6dc881de23001b3f786850e387550fdab836ed".into(),
         blocks,
     }

@@ -91,7 +91,7 @@ pub fn chunks(
     headings: &[HeadingEntry],
 ) -> Result<Vec<Chunk>, LayoutError> {
     let mut out = Vec::new();
-    let (mut heading, mut figure, mut table_no) = (0, 0, 0);
+    let (mut heading, mut figure, mut table_no, mut equation) = (0, 0, 0, 0);
     for block in blocks {
         match block {
             Block::Heading { .. } => {
@@ -124,6 +124,10 @@ pub fn chunks(
             } => {
                 figure += 1;
                 out.push(figure_chunk(ctx, chart, *height_mm, figure, caption)?);
+            }
+            Block::Equation(text) => {
+                equation += 1;
+                out.push(equation_chunk(ctx, text, equation));
             }
             Block::Contents => out.extend(contents::contents_chunks(ctx, headings)),
             Block::TitleBlock {
@@ -294,6 +298,44 @@ fn figure_chunk(
         space_before: t.paragraph_gap_pt * 2.0,
         ..Chunk::default()
     })
+}
+
+/// A displayed equation: centred in the body (or flush left when wide), its number
+/// "(N)" at the right margin.
+fn equation_chunk(ctx: &Ctx, text: &str, number: usize) -> Chunk {
+    let size = ctx.style.text.base_size_pt + 0.5;
+    let label = format!("({number})");
+    let label_w = ctx.fonts.width(Face::Regular, &label, size);
+    let room = ctx.width - 2.0 * (label_w + size);
+    let lines = wrap(ctx.fonts, &[(Face::Regular, text)], size, room);
+    let lh = ctx.line_height(size);
+    let mut items = Vec::new();
+    for (i, line) in lines.iter().enumerate() {
+        let x = if lines.len() == 1 {
+            (ctx.width - line.width) / 2.0
+        } else {
+            label_w + size
+        };
+        let base = i as f64 * lh + ctx.baseline(size);
+        items.extend(line.items(x, base, size, ctx.style.text.colour, ctx.width));
+    }
+    let last_base = (lines.len().max(1) - 1) as f64 * lh + ctx.baseline(size);
+    let number_line = wrap(ctx.fonts, &[(Face::Regular, &label)], size, f64::INFINITY);
+    if let Some(n) = number_line.first() {
+        items.extend(n.items(
+            ctx.width - n.width,
+            last_base,
+            size,
+            ctx.style.text.colour,
+            ctx.width,
+        ));
+    }
+    Chunk {
+        height: lines.len().max(1) as f64 * lh,
+        items,
+        space_before: ctx.style.text.paragraph_gap_pt * 1.2,
+        ..Chunk::default()
+    }
 }
 
 /// An unnumbered heading in level-1 style (not listed in the contents).

@@ -5,7 +5,8 @@
 
 use super::chart_backend::{Recorder, UNITS_PER_PT};
 use super::chart_marks::{
-    clip_polyline, draw_legend, draw_markers, draw_reference_lines, legend_rows, PlotFrame,
+    clip_polyline, draw_bands, draw_legend, draw_markers, draw_reference_lines, legend_rows,
+    PlotFrame,
 };
 use super::font::{Face, FontSet};
 use super::page::Item;
@@ -39,6 +40,8 @@ pub struct Series {
     pub style_index: usize,
     /// Force a dashed line whatever the style says.
     pub dashed: bool,
+    /// Force a solid line whatever the style says (ignored when `dashed`).
+    pub solid: bool,
     /// Mark every data point.
     pub markers: bool,
 }
@@ -67,6 +70,18 @@ pub struct HLine {
     pub axis: YAxis,
 }
 
+/// A shaded band across the plot's height between two x values, e.g. a pump's
+/// preferred operating region; drawn behind the series, labelled at its top.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct XBand {
+    /// Left x value.
+    pub from: f64,
+    /// Right x value.
+    pub to: f64,
+    /// Label inside the band's top (may be empty).
+    pub label: String,
+}
+
 /// Everything one plot shows.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Chart {
@@ -88,6 +103,8 @@ pub struct Chart {
     pub points: Vec<Marker>,
     /// Horizontal reference lines.
     pub hlines: Vec<HLine>,
+    /// Shaded x bands (regions of flow).
+    pub bands: Vec<XBand>,
     /// Draw a legend below the plot.
     pub legend: bool,
 }
@@ -104,6 +121,7 @@ impl Default for Chart {
             series: Vec::new(),
             points: Vec::new(),
             hlines: Vec::new(),
+            bands: Vec::new(),
             legend: true,
         }
     }
@@ -128,6 +146,8 @@ pub fn series_look(style: &Style, series: &Series) -> (Colour, LineStyle) {
         .get(series.style_index % c.line_styles.len().max(1));
     let dash = if series.dashed {
         LineStyle::Dashed
+    } else if series.solid {
+        LineStyle::Solid
     } else {
         dash.copied().unwrap_or(LineStyle::Solid)
     };
@@ -353,6 +373,10 @@ pub(crate) fn draw(
     ))
     .map_err(e)?;
 
+    let band_boxes = draw_bands(&root, chart, style, fonts, &ax, &|x, y| {
+        ctx.backend_coord(&(x, y))
+    })
+    .map_err(e)?;
     let mut drawn_lines: Vec<Vec<(i32, i32)>> = Vec::new();
     for series in &chart.series {
         let (colour, line) = series_look(style, series);
@@ -406,7 +430,18 @@ pub(crate) fn draw(
         coord: &coord,
         plot: (px.clone(), py.clone()),
     };
-    let taken = draw_reference_lines(&root, &frame, &dash).map_err(e)?;
+    let mut taken = draw_reference_lines(&root, &frame, &dash).map_err(e)?;
+    taken.extend(band_boxes);
+    // Reference lines count as curves a label must not hide.
+    for h in &chart.hlines {
+        let axis = if h.axis == YAxis::Left { &ax.y } else { &ax.y2 };
+        if h.y.is_finite() && axis.contains(h.y) {
+            drawn_lines.push(vec![
+                coord(ax.x.lo, h.y, h.axis),
+                coord(ax.x.hi, h.y, h.axis),
+            ]);
+        }
+    }
     draw_markers(&root, &frame, &drawn_lines, &taken).map_err(e)?;
     if !rows.is_empty() {
         draw_legend(&legend_area, chart, style, fonts, &rows, px.start, &dash).map_err(e)?;

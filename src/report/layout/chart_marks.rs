@@ -203,6 +203,60 @@ pub fn draw_legend(
     Ok(())
 }
 
+/// Draws the shaded x bands (clipped to the x axis) with their labels at the top
+/// inside the band; returns the label boxes.
+pub fn draw_bands(
+    root: &Area,
+    chart: &Chart,
+    style: &Style,
+    fonts: &FontSet,
+    ax: &Axes,
+    coord: &dyn Fn(f64, f64) -> (i32, i32),
+) -> Result<Vec<Rect>, DrawingAreaErrorKind<RecorderError>> {
+    let mut boxes = Vec::new();
+    let size = style.chart.label_size_pt - 0.6;
+    let fill = RGBColor(234, 242, 234);
+    for band in &chart.bands {
+        if !(band.from.is_finite() && band.to.is_finite()) {
+            continue;
+        }
+        let (lo, hi) = (band.from.max(ax.x.lo), band.to.min(ax.x.hi));
+        if lo >= hi {
+            continue;
+        }
+        let top_left = coord(lo, ax.y.hi);
+        let bottom_right = coord(hi, ax.y.lo);
+        root.draw(&Rectangle::new([top_left, bottom_right], fill.filled()))?;
+        if band.label.is_empty() {
+            continue;
+        }
+        let lines: Vec<String> = band.label.split('\n').map(str::to_string).collect();
+        let w = lines
+            .iter()
+            .map(|l| units(fonts.width(Face::Regular, l, size)))
+            .max()
+            .unwrap_or(0);
+        let lh = units(size * 1.25);
+        let centre = (top_left.0 + bottom_right.0) / 2;
+        let at = (centre - w / 2, top_left.1 + units(2.0));
+        for (i, line) in lines.iter().enumerate() {
+            let lw = units(fonts.width(Face::Regular, line, size));
+            let text = text_style(
+                size,
+                style.text.muted_colour,
+                Pos::new(HPos::Left, VPos::Center),
+            );
+            root.draw(&Text::new(
+                line.clone(),
+                (centre - lw / 2, at.1 + lh * i as i32 + lh / 2),
+                text,
+            ))?;
+        }
+        boxes.push((at.0, at.1, at.0 + w, at.1 + lh * lines.len() as i32));
+    }
+    Ok(boxes)
+}
+
 /// Draws the horizontal reference lines (dashed) with their labels.
 /// Returns the boxes of the labels, which the duty-point labels then avoid.
 pub fn draw_reference_lines(
@@ -239,15 +293,31 @@ pub fn draw_reference_lines(
         drawn?;
         if !h.label.is_empty() {
             let w = units(fonts.width(Face::Regular, &h.label, size));
-            let top = a.1 - units(size * 1.3 + 1.5);
-            let top = if top < plot.1.start {
-                a.1 + units(1.5)
-            } else {
-                top
+            let lh = units(size * 1.25);
+            let above = a.1 - units(size * 1.3 + 1.5);
+            let below = a.1 + units(1.5);
+            let right = b.0 - units(3.0) - w;
+            // Above the line at the right end, else below it, else further left:
+            // two labels of lines that (nearly) coincide never print over each other.
+            let mut spots = Vec::new();
+            for x in [right, right - w - units(8.0), right - 2 * (w + units(8.0))] {
+                for y in [above, below] {
+                    if y >= plot.1.start && y + lh <= plot.1.end && x >= plot.0.start {
+                        spots.push((x, y));
+                    }
+                }
+            }
+            let free = |at: &(i32, i32)| {
+                let rect = (at.0 - units(1.0), at.1, at.0 + w + units(1.0), at.1 + lh);
+                !boxes.iter().any(|o| overlaps(o, &rect))
             };
+            let at = spots
+                .iter()
+                .copied()
+                .find(free)
+                .unwrap_or((right, below.min(plot.1.end - lh)));
             let lines = [h.label.clone()];
-            let at = (b.0 - units(3.0) - w, top);
-            boxes.push((at.0, at.1, at.0 + w, at.1 + units(size * 1.25)));
+            boxes.push((at.0, at.1, at.0 + w, at.1 + lh));
             label_box(root, fonts, &lines, at, size, cs.axis_colour)?;
         }
     }
@@ -364,7 +434,8 @@ pub fn draw_markers(
             .unwrap_or(0);
         let h = units(size * 1.25) * lines.len() as i32;
         let mut best = (i64::MAX, (p.0 + gap, p.1 - gap - h), 0);
-        for (ring, extra) in [0, units(7.0), units(16.0)].into_iter().enumerate() {
+        let rings = [0.0, 7.0, 16.0, 28.0, 42.0, 60.0];
+        for (ring, extra) in rings.into_iter().map(units).enumerate() {
             let g = gap + extra;
             let candidates = [
                 (p.0 + g, p.1 - g - h),
@@ -385,7 +456,7 @@ pub fn draw_markers(
                 if outside {
                     cost += 100_000;
                 }
-                cost += 5_000 * placed.iter().filter(|o| overlaps(o, &rect)).count() as i64;
+                cost += 50_000 * placed.iter().filter(|o| overlaps(o, &rect)).count() as i64;
                 let covered = curve_points
                     .iter()
                     .filter(|q| q.0 >= rect.0 && q.0 <= rect.2 && q.1 >= rect.1 && q.1 <= rect.3)

@@ -10,6 +10,8 @@ pub struct Document {
     pub title: String,
     /// Running header and footer texts.
     pub meta: PageMeta,
+    /// The PDF's document information (author, subject, creation date).
+    pub info: PdfInfo,
     /// Seed of the PDF file identifier, e.g. the SHA-256 of the source file; the same
     /// seed and content give byte-identical output.
     pub id_seed: String,
@@ -17,11 +19,26 @@ pub struct Document {
     pub blocks: Vec<Block>,
 }
 
+/// The PDF document information dictionary. Empty fields are left out of the file.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct PdfInfo {
+    /// Author (e.g. the engineer who prepared the calculation).
+    pub author: String,
+    /// Subject line.
+    pub subject: String,
+    /// Creation and modification date as `(year, month, day)`, e.g. the current
+    /// revision's date; `None` keeps the fixed 1970-01-01 (no clock is read).
+    pub date: Option<(i32, u8, u8)>,
+}
+
 /// Texts repeated on every page.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct PageMeta {
-    /// Header, left (e.g. the project name).
+    /// Header, left (e.g. the project name); shortened with an ellipsis when the
+    /// line is full, before `header_number` is.
     pub header_left: String,
+    /// Header, after the left text (e.g. the calculation number); kept whole.
+    pub header_number: String,
     /// Header, right (e.g. "Calc 2024-017 · Rev B").
     pub header_right: String,
     /// Footer, left (e.g. "source SHA-256 1a2b3c4d…"); the right side is "page N of M".
@@ -120,6 +137,9 @@ impl Signatory {
 }
 
 /// A unit of content.
+// A figure carries its chart inline; blocks are few (hundreds per package), so the
+// size of the largest variant does not matter and boxing would only burden callers.
+#[allow(clippy::large_enum_variant)]
 #[derive(Debug, Clone, PartialEq)]
 pub enum Block {
     /// A section heading, numbered automatically ("3", "3.2", "3.2.1") and listed in
@@ -160,6 +180,9 @@ pub enum Block {
         /// Caption text.
         caption: String,
     },
+    /// A displayed equation, centred, numbered "(N)" at the right margin
+    /// (numbered automatically). Set in Unicode math: ρ, ·, superscripts, subscripts.
+    Equation(String),
     /// Table of contents with dot leaders and page numbers.
     Contents,
     /// The boxed title block of the calculation package.

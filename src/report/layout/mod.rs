@@ -37,7 +37,9 @@ pub mod ticks;
 mod title;
 
 pub use chart::{Chart, HLine, Marker, Series, YAxis};
-pub use document::{Align, Block, CalloutKind, Column, Document, PageMeta, Signatory, Span};
+pub use document::{
+    Align, Block, CalloutKind, Column, Document, PageMeta, PdfInfo, Signatory, Span,
+};
 pub use page::{HeadingEntry, Item, Layout, Page, TextRun};
 pub use style::{Colour, LineStyle, Style, StyleError};
 
@@ -120,14 +122,7 @@ pub fn layout(doc: &Document, style: &Style) -> Result<Layout, LayoutError> {
         headings = placed;
         if settled || !has_contents {
             let m = &doc.meta;
-            paginate::decorate(
-                &mut pages,
-                fonts,
-                style,
-                &m.header_left,
-                &m.header_right,
-                &m.footer_left,
-            );
+            paginate::decorate(&mut pages, fonts, style, m);
             return Ok(Layout {
                 page_width: style.page.width_mm * PT_PER_MM,
                 page_height: style.page.height_mm * PT_PER_MM,
@@ -143,7 +138,7 @@ pub fn layout(doc: &Document, style: &Style) -> Result<Layout, LayoutError> {
 pub fn render_document(doc: &Document, style: &Style) -> Result<Rendered, LayoutError> {
     let laid_out = layout(doc, style)?;
     let fonts = font::fonts().map_err(LayoutError::Font)?;
-    let bytes = pdf::write(&laid_out, fonts, &doc.title, &doc.id_seed)?;
+    let bytes = pdf::write(&laid_out, fonts, &doc.title, &doc.info, &doc.id_seed)?;
     Ok(Rendered {
         bytes,
         page_count: laid_out.pages.len(),

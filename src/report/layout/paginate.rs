@@ -2,6 +2,7 @@
 //! follows, repeats table headers after a break, and adds the running header and
 //! footer.
 
+use super::document::PageMeta;
 use super::font::{Face, FontSet};
 use super::page::{HeadingEntry, Item, Page, Stroke, PT_PER_MM};
 use super::style::Style;
@@ -108,16 +109,10 @@ fn keep_chain_height(chunks: &[Chunk], i: usize) -> f64 {
     height
 }
 
-/// Adds the running header (left and right texts over a thin rule) and footer
-/// (rule, left text, "page N of M") to every page.
-pub fn decorate(
-    pages: &mut [Page],
-    fonts: &FontSet,
-    style: &Style,
-    header_left: &str,
-    header_right: &str,
-    footer_left: &str,
-) {
+/// Adds the running header (left text and number, right text, over a thin rule) and
+/// footer (rule, left text, "page N of M") to every page. When the header is full the
+/// left text is shortened first; the number and the right text stay whole.
+pub fn decorate(pages: &mut [Page], fonts: &FontSet, style: &Style, meta: &PageMeta) {
     let p = &style.page;
     let t = &style.text;
     let size = t.small_size_pt;
@@ -129,15 +124,28 @@ pub fn decorate(
     let rule = Stroke::solid(0.4, t.rule_colour);
     let total = pages.len();
     let colour = t.muted_colour;
-    let half = width / 2.0 - size;
-    let hl = first_line(fonts, header_left, Face::Bold, size, half);
-    let hr = first_line(fonts, header_right, Face::Regular, size, half);
+    let hr = first_line(fonts, &meta.header_right, Face::Regular, size, width / 3.0);
+    let number = if meta.header_number.is_empty() || meta.header_left.is_empty() {
+        meta.header_number.clone()
+    } else {
+        format!("· {}", meta.header_number)
+    };
+    let hn = first_line(fonts, &number, Face::Bold, size, width / 2.0);
+    let gap = fonts.width(Face::Bold, " ", size);
+    let title_max = (width - hr.width - hn.width - gap - 2.0 * size).max(width / 4.0);
+    let hl = first_line(fonts, &meta.header_left, Face::Bold, size, title_max);
     let fl_max = width - fonts.width(Face::Regular, "page 8888 of 8888", size) - size;
-    let fl = first_line(fonts, footer_left, Face::Regular, size, fl_max);
+    let fl = first_line(fonts, &meta.footer_left, Face::Regular, size, fl_max);
     for (n, page) in pages.iter_mut().enumerate() {
         let page_text = format!("page {} of {}", n + 1, total);
         let pn = first_line(fonts, &page_text, Face::Regular, size, width);
         let mut items = hl.items(left, header_base, size, colour, right);
+        let number_at = if hl.width > 0.0 {
+            left + hl.width + gap
+        } else {
+            left
+        };
+        items.extend(hn.items(number_at, header_base, size, colour, right));
         items.extend(hr.items(right - hr.width, header_base, size, colour, right));
         let rule_y = header_base + 0.35 * size + 1.5;
         items.push(Item::line((left, rule_y), (right, rule_y), rule));

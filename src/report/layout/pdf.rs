@@ -6,6 +6,7 @@
 //! printpdf's fixed default (1970-01-01, no clock is read), and the trailer `/ID`
 //! strings are replaced by a digest of the caller's `id_seed` and the page content.
 
+use super::document::PdfInfo;
 use super::font::{Face, FontSet};
 use super::page::{Item, Layout, Stroke};
 use super::style::{Colour, LineStyle};
@@ -35,6 +36,7 @@ pub fn write(
     layout: &Layout,
     fonts: &FontSet,
     title: &str,
+    info: &PdfInfo,
     id_seed: &str,
 ) -> Result<Vec<u8>, LayoutError> {
     let mut used: [BTreeSet<char>; 3] = Default::default();
@@ -46,6 +48,28 @@ pub fn write(
     let mut doc = PdfDocument::new(title);
     doc.metadata.info.producer = "dutyline".to_string();
     doc.metadata.info.creator = "dutyline".to_string();
+    doc.metadata.info.author = info.author.clone();
+    doc.metadata.info.subject = info.subject.clone();
+    if let Some((year, month, day)) = info.date {
+        let date = printpdf::DateTime {
+            date: printpdf::Date { year, month, day },
+            time: printpdf::Time {
+                hour: 0,
+                minute: 0,
+                second: 0,
+                millisecond: 0,
+            },
+            offset: printpdf::Offset {
+                hours: 0,
+                minutes: 0,
+                seconds: 0,
+                milliseconds: 0,
+            },
+        };
+        doc.metadata.info.creation_date = date;
+        doc.metadata.info.modification_date = date;
+        doc.metadata.info.metadata_date = date;
+    }
     for face in Face::ALL {
         let chars = &used[face.index()];
         if chars.is_empty() {
@@ -80,12 +104,37 @@ pub fn write(
     };
     let mut warnings = Vec::new();
     let mut bytes = doc.save(&opts, &mut warnings);
+    blank_empty_info_keys(&mut bytes);
     // Everything before the trailer is deterministic; the trailer holds printpdf's
     // counter-based /ID, replaced here.
     let body_end = find_last(&bytes, b"trailer").unwrap_or(bytes.len());
     let digest = hex(&digest128(&[id_seed.as_bytes(), &bytes[..body_end]]));
     set_trailer_id(&mut bytes, &digest)?;
     Ok(bytes)
+}
+
+/// Keys printpdf writes into the information dictionary even when they are empty.
+const EMPTY_INFO_KEYS: [&[u8]; 5] = [
+    b"/GTS_PDFXVersion()",
+    b"/Author()",
+    b"/Subject()",
+    b"/Identifier()",
+    b"/Keywords()",
+];
+
+/// Replaces empty information keys (an empty PDF/X version claims a standard the file
+/// does not follow) by spaces of the same length, so every byte offset stays valid.
+fn blank_empty_info_keys(bytes: &mut [u8]) {
+    let start = find_last(bytes, b"/Producer").map_or(0, |i| i.saturating_sub(4096));
+    for key in EMPTY_INFO_KEYS {
+        if let Some(at) = bytes[start..]
+            .windows(key.len())
+            .position(|w| w == key)
+            .map(|i| i + start)
+        {
+            bytes[at..at + key.len()].fill(b' ');
+        }
+    }
 }
 
 /// Six capital letters derived from the subset's contents (ISO 32000-1, 9.6.4).

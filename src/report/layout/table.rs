@@ -24,8 +24,15 @@ struct Cell<'a> {
     colour: Colour,
 }
 
-/// Column widths in points from the width fractions, each at least `min_width`.
-pub fn column_widths(fractions: &[f64], total: f64, min_width: f64) -> Result<Vec<f64>, String> {
+/// Column widths in points from the width fractions; column `i` gets at least
+/// `minimums[i]` (e.g. its longest header word), and every column at least `floor`.
+/// When the minimums do not all fit, they shrink in proportion, never below `floor`.
+pub fn column_widths_with_minimums(
+    fractions: &[f64],
+    total: f64,
+    floor: f64,
+    minimums: &[f64],
+) -> Result<Vec<f64>, String> {
     if fractions.is_empty() {
         return Err("a table needs at least one column".into());
     }
@@ -34,25 +41,34 @@ pub fn column_widths(fractions: &[f64], total: f64, min_width: f64) -> Result<Ve
             "column width fraction {bad} must be a positive number"
         ));
     }
-    if min_width * fractions.len() as f64 > total {
+    if floor * fractions.len() as f64 > total {
         return Err(format!(
             "{} columns do not fit the page width at a legible size",
             fractions.len()
         ));
     }
+    let wanted: Vec<f64> = minimums.iter().map(|m| m.max(floor)).collect();
+    let wanted_sum: f64 = wanted.iter().sum();
+    let minimums: Vec<f64> = if wanted_sum > total {
+        let floors = floor * wanted.len() as f64;
+        let scale = (total - floors) / (wanted_sum - floors).max(1e-9);
+        wanted.iter().map(|w| floor + (w - floor) * scale).collect()
+    } else {
+        wanted
+    };
     let sum: f64 = fractions.iter().sum();
     let mut widths: Vec<f64> = fractions.iter().map(|f| f / sum * total).collect();
     let mut pinned = vec![false; widths.len()];
     for _ in 0..widths.len() {
         let narrow: Vec<usize> = (0..widths.len())
-            .filter(|&i| !pinned[i] && widths[i] < min_width)
+            .filter(|&i| !pinned[i] && widths[i] < minimums[i] - 1e-9)
             .collect();
         if narrow.is_empty() {
             break;
         }
         for i in narrow {
             pinned[i] = true;
-            widths[i] = min_width;
+            widths[i] = minimums[i];
         }
         let fixed: f64 = (0..widths.len())
             .filter(|&i| pinned[i])
@@ -70,6 +86,20 @@ pub fn column_widths(fractions: &[f64], total: f64, min_width: f64) -> Result<Ve
     }
     Ok(widths)
 }
+
+/// Width in points a column needs so that no word of its header is split.
+fn header_word_width(ctx: &Ctx, header: &str, size: f64) -> f64 {
+    header
+        .split_whitespace()
+        .map(|word| ctx.fonts.width(Face::Bold, word, size))
+        .fold(0.0, f64::max)
+        + 2.0 * PAD_X
+        + 0.5
+}
+
+/// Rows kept together at the start and at the end of a table, so a table never
+/// leaves one or two rows alone on a page.
+pub const MIN_ROWS_TOGETHER: usize = 3;
 
 /// Lines of one cell wrapped to the cell's inner width.
 pub fn cell_lines(ctx: &Ctx, text: &str, face: Face, size: f64, col_width: f64) -> Vec<Line> {
@@ -94,7 +124,17 @@ pub fn table_chunks(
     let t = &ctx.style.text;
     let size = t.table_size_pt;
     let fractions: Vec<f64> = columns.iter().map(|c| c.width_fraction).collect();
-    let widths = column_widths(&fractions, ctx.width, 2.0 * PAD_X + 2.5 * size).map_err(err)?;
+    let header_words: Vec<f64> = columns
+        .iter()
+        .map(|c| header_word_width(ctx, &c.header, size))
+        .collect();
+    let widths = column_widths_with_minimums(
+        &fractions,
+        ctx.width,
+        2.0 * PAD_X + 2.5 * size,
+        &header_words,
+    )
+    .map_err(err)?;
     if let Some((i, row)) = rows
         .iter()
         .enumerate()
@@ -167,10 +207,16 @@ pub fn table_chunks(
             })
             .collect();
         let last = r + 1 == rows.len();
-        for mut part in row_chunks(ctx, &widths, &cells, size, max_row) {
+        // The first rows stay with the header, and the last rows with each other.
+        let keep = rows.len() > MIN_ROWS_TOGETHER
+            && (r + 1 < MIN_ROWS_TOGETHER || r + MIN_ROWS_TOGETHER >= rows.len() && !last);
+        let parts = row_chunks(ctx, &widths, &cells, size, max_row);
+        let count = parts.len();
+        for (k, mut part) in parts.into_iter().enumerate() {
             let width = if last { 0.8 } else { 0.25 };
             part.items.push(rule(ctx, part.height, width));
             part.repeat = Some(Rc::clone(&repeat));
+            part.keep_with_next = k + 1 == count && keep;
             chunks.push(part);
         }
     }
@@ -287,6 +333,10 @@ fn row_chunks(ctx: &Ctx, widths: &[f64], cells: &[Cell], size: f64, max_height: 
 mod tests {
     use super::*;
 
+    fn column_widths(fractions: &[f64], total: f64, floor: f64) -> Result<Vec<f64>, String> {
+        column_widths_with_minimums(fractions, total, floor, &vec![floor; fractions.len()])
+    }
+
     #[test]
     fn widths_respect_minimum_and_total() {
         let w = column_widths(&[1.0, 10.0, 10.0], 300.0, 40.0).expect("widths");
@@ -294,5 +344,22 @@ mod tests {
         assert!((w[0] - 40.0).abs() < 1e-9);
         assert!(column_widths(&[1.0; 10], 300.0, 40.0).is_err());
         assert!(column_widths(&[1.0, f64::NAN], 300.0, 40.0).is_err());
+    }
+
+    #[test]
+    fn a_column_gets_its_minimum_from_the_others() {
+        // 300 pt in shares 1:1:1 would give 100 each; column 0 needs 140, so the
+        // other two share the remaining 160 (80 each).
+        let w = column_widths_with_minimums(&[1.0, 1.0, 1.0], 300.0, 20.0, &[140.0, 0.0, 0.0])
+            .expect("widths");
+        assert!(
+            (w[0] - 140.0).abs() < 1e-9 && (w[1] - 80.0).abs() < 1e-9,
+            "{w:?}"
+        );
+        // Minimums of 200 + 200 on 300 pt shrink in proportion above the 20 pt floor:
+        // 20 + (200 − 20)·(300 − 40)/(400 − 40) = 150 each.
+        let w =
+            column_widths_with_minimums(&[1.0, 1.0], 300.0, 20.0, &[200.0, 200.0]).expect("widths");
+        assert!((w[0] - 150.0).abs() < 1e-9, "{w:?}");
     }
 }

@@ -156,12 +156,7 @@ impl Axis {
             }
             return format!("{value:.digits$e}");
         }
-        let text = format!("{:.*}", self.decimals, value);
-        if text.starts_with('-') && text[1..].chars().all(|c| c == '0' || c == '.') {
-            text[1..].to_string()
-        } else {
-            text
-        }
+        crate::display::typeset(value, self.decimals)
     }
 
     /// Number of intervals between the first and last tick.

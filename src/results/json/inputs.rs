@@ -35,6 +35,11 @@ pub(super) struct Candidate<'a> {
     /// Impeller trim ratio applied to that curve (1 when untrimmed).
     trim_ratio: Option<f64>,
     curves: Vec<Curve<'a>>,
+    /// Wave 2: the motor over all cases, one pump of a parallel set alone, and the
+    /// flow at the limit in every case.
+    motor: Option<super::engineering::MotorOut<'a>>,
+    one_pump_alone: Option<super::engineering::OneAloneOut<'a>>,
+    capacity: Vec<super::engineering::CapacityOut<'a>>,
 }
 
 /// One published curve table in SI, with the fit used for each column.
@@ -117,7 +122,8 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
     design
         .pumps
         .iter()
-        .map(|p| {
+        .enumerate()
+        .map(|(k, p)| {
             let cc = analysis.candidates.iter().find(|c| c.name == p.name);
             let evaluated = cc.and_then(|c| c.evaluated.as_ref());
             let evaluated_curve = cc.zip(evaluated).and_then(|(c, (base, _))| {
@@ -135,6 +141,17 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
                     .enumerate()
                     .map(|(i, c)| curve(c, cc.and_then(|cc| cc.published.get(i))))
                     .collect(),
+                motor: analysis
+                    .motor_sizing
+                    .get(k)
+                    .and_then(|m| m.as_ref())
+                    .map(super::engineering::motor),
+                one_pump_alone: analysis
+                    .one_alone
+                    .get(k)
+                    .and_then(|a| a.as_ref())
+                    .map(super::engineering::one_alone),
+                capacity: super::engineering::capacity(design, analysis, k),
             }
         })
         .collect()

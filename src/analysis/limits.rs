@@ -1,0 +1,246 @@
+//! The check ids and the limits the checks compare against, each limit one constant
+//! with its source as a typed value (issue 19, items 5 and 7).
+//!
+//! Limits are compared in SI; the outputs print them in report units.
+
+/// The stable id of a check: `as_str()` is the string of the JSON and the diff.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum CheckId {
+    /// The pump curve meets the system curve (or why it does not).
+    DutyPoint,
+    /// Flow per pump against the best efficiency point.
+    OperatingRegion,
+    /// NPSH available against NPSH required (ratio and excess).
+    NpshMargin,
+    /// Velocity in the pipe next to the pump.
+    Velocity,
+    /// A requirement stated in the design.
+    Requirement,
+    /// Motor nameplate against the shaft power of the duty and along the curve.
+    Motor,
+    /// Speed or diameter needed against its limit (variable speed or trim).
+    Headroom,
+    /// One pump of a parallel set running alone against the lowest-head case.
+    OnePumpAlone,
+}
+
+impl CheckId {
+    /// Every check id, in the order the package lists them.
+    pub const ALL: [CheckId; 8] = [
+        CheckId::DutyPoint,
+        CheckId::OperatingRegion,
+        CheckId::NpshMargin,
+        CheckId::Velocity,
+        CheckId::Requirement,
+        CheckId::Motor,
+        CheckId::Headroom,
+        CheckId::OnePumpAlone,
+    ];
+
+    /// The id as the JSON and the diff spell it.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            CheckId::DutyPoint => "duty-point",
+            CheckId::OperatingRegion => "operating-region",
+            CheckId::NpshMargin => "npsh-margin",
+            CheckId::Velocity => "velocity",
+            CheckId::Requirement => "requirement",
+            CheckId::Motor => "motor",
+            CheckId::Headroom => "headroom",
+            CheckId::OnePumpAlone => "one-pump-alone",
+        }
+    }
+
+    /// One line saying what the check compares.
+    pub fn description(self) -> &'static str {
+        match self {
+            CheckId::DutyPoint => "the pump curve meets the system curve within the published data",
+            CheckId::OperatingRegion => "flow per pump as a fraction of the best-efficiency flow",
+            CheckId::NpshMargin => "NPSH available against NPSH required: margin ratio and excess",
+            CheckId::Velocity => "velocity in the pipe next to the pump against typical values",
+            CheckId::Requirement => "a requirement the design states",
+            CheckId::Motor => {
+                "motor nameplate rating against the shaft power at duty and to run-out"
+            }
+            CheckId::Headroom => {
+                "speed or impeller diameter needed against the limit the design allows"
+            }
+            CheckId::OnePumpAlone => {
+                "one pump of a parallel set running alone after the others trip"
+            }
+        }
+    }
+}
+
+impl std::fmt::Display for CheckId {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.as_str())
+    }
+}
+
+impl PartialEq<&str> for CheckId {
+    fn eq(&self, other: &&str) -> bool {
+        self.as_str() == *other
+    }
+}
+
+/// Where a limit or a value comes from.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Source {
+    /// A publication's clause or table, read from the document.
+    Publication {
+        title: &'static str,
+        clause: &'static str,
+    },
+    /// A publication's value recalled, not read from the edition in force.
+    Recalled {
+        title: &'static str,
+        clause: &'static str,
+    },
+    /// Common engineering practice, with a word on what.
+    CommonPractice(&'static str),
+    /// A requirement the design states.
+    DesignRequirement,
+    /// The design's own data (curves, tables) or a method applied to them.
+    DesignData(&'static str),
+}
+
+impl Source {
+    /// The source as the package prints it.
+    pub fn text(&self) -> String {
+        match self {
+            Source::Publication { title, clause } => format!("{title}, {clause}"),
+            Source::Recalled { title, clause } => format!("{title}, {clause} (recalled)"),
+            Source::CommonPractice(what) => format!("{what}, common practice"),
+            Source::DesignRequirement => "the design's requirement".to_string(),
+            Source::DesignData(what) => (*what).to_string(),
+        }
+    }
+}
+
+/// A limit: its value (SI or a fraction) and its source.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Limit {
+    pub value: f64,
+    pub source: Source,
+}
+
+/// ANSI/HI 9.6.3 (Rotodynamic pumps, guideline for operating regions).
+const HI_963: &str = "ANSI/HI 9.6.3 Rotodynamic Pumps — Guideline for Operating Regions";
+/// ANSI/HI 9.6.1 (Rotodynamic pumps, guideline for NPSH margin).
+const HI_961: &str = "ANSI/HI 9.6.1 Rotodynamic Pumps — Guideline for NPSH Margin";
+
+/// Preferred operating region, lower end: 70 % of BEP flow.
+pub const POR_LOW: Limit = Limit {
+    value: 0.70,
+    source: Source::Recalled {
+        title: HI_963,
+        clause: "preferred operating region",
+    },
+};
+/// Preferred operating region, upper end: 120 % of BEP flow.
+pub const POR_HIGH: Limit = Limit {
+    value: 1.20,
+    source: POR_LOW.source,
+};
+/// Below this fraction of BEP flow operation fails (stand-in for the maker's allowable
+/// operating region, which only the maker can give).
+pub const AOR_LOW: Limit = Limit {
+    value: 0.50,
+    source: Source::CommonPractice("allowable operating region stand-in 50–130 % of BEP flow"),
+};
+/// Above this fraction of BEP flow operation fails.
+pub const AOR_HIGH: Limit = Limit {
+    value: 1.30,
+    source: AOR_LOW.source,
+};
+/// NPSH margin ratio NPSHa/NPSH3 when the design states none: 1.3, within the 1.1–2.0
+/// range of ANSI/HI 9.6.1 for general water services.
+pub const NPSH_RATIO: Limit = Limit {
+    value: 1.3,
+    source: Source::Recalled {
+        title: HI_961,
+        clause: "NPSH margin ratio guidance",
+    },
+};
+/// Smallest NPSH excess NPSHa − NPSHr: 1 m (about 3 ft).
+pub const NPSH_EXCESS_M: Limit = Limit {
+    value: 1.0,
+    source: Source::CommonPractice("NPSH excess of about 1 m"),
+};
+/// Typical suction velocity, m/s: 0.6–1.5 (2–5 ft/s).
+pub const SUCTION_VELOCITY_LOW: Limit = Limit {
+    value: 0.6,
+    source: Source::CommonPractice("typical velocities"),
+};
+/// Upper end of the typical suction velocity, m/s.
+pub const SUCTION_VELOCITY_HIGH: Limit = Limit {
+    value: 1.5,
+    source: SUCTION_VELOCITY_LOW.source,
+};
+/// Typical discharge velocity, m/s: 1.5–3 (5–10 ft/s).
+pub const DISCHARGE_VELOCITY_LOW: Limit = Limit {
+    value: 1.5,
+    source: SUCTION_VELOCITY_LOW.source,
+};
+/// Upper end of the typical discharge velocity, m/s.
+pub const DISCHARGE_VELOCITY_HIGH: Limit = Limit {
+    value: 3.0,
+    source: SUCTION_VELOCITY_LOW.source,
+};
+/// Smallest headroom of speed or diameter to its limit, as a fraction of the limit: 5 %.
+pub const HEADROOM: Limit = Limit {
+    value: 0.05,
+    source: Source::CommonPractice("speed or diameter headroom of 5 %"),
+};
+/// Site altitude up to which motor ratings hold, m (with 40 °C ambient): IEC 60034-1
+/// and NEMA MG 1 usual service conditions.
+pub const MOTOR_ALTITUDE_M: Limit = Limit {
+    value: 1000.0,
+    source: Source::Recalled {
+        title: "IEC 60034-1 Rotating electrical machines — Rating and performance; NEMA MG 1 Motors and Generators",
+        clause: "usual service conditions: altitude up to 1000 m, ambient up to 40 °C",
+    },
+};
+/// Ambient temperature up to which motor ratings hold, K (40 °C).
+pub const MOTOR_AMBIENT_K: Limit = Limit {
+    value: 313.15,
+    source: MOTOR_ALTITUDE_M.source,
+};
+/// Motor rating and service factor: NEMA MG 1 (service factor; Parts 30/31 for inverter
+/// supply) and IEC 60034-1 (continuous duty S1 rating; it defines no service factor).
+pub const MOTOR_RATING_SOURCE: Source = Source::Recalled {
+    title: "NEMA MG 1 Motors and Generators (service factor; Parts 30 and 31 on inverter supply); IEC 60034-1 (continuous duty S1)",
+    clause: "nameplate rating covers the largest shaft power, service factor as margin only (sizing rule: common practice)",
+};
+/// The standard rating series the motor is chosen from, NEMA.
+pub const NEMA_SERIES: Source = Source::Recalled {
+    title: "NEMA MG 1 Motors and Generators",
+    clause: "standard horsepower ratings",
+};
+/// The standard rating series the motor is chosen from, IEC.
+pub const IEC_SERIES: Source = Source::Recalled {
+    title: "IEC 60072-1 Dimensions and output series for rotating electrical machines",
+    clause: "preferred rated outputs",
+};
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn ids_are_distinct_and_described() {
+        let mut seen = std::collections::BTreeSet::new();
+        for id in CheckId::ALL {
+            assert!(seen.insert(id.as_str()), "duplicate id {id}");
+            assert!(!id.description().is_empty());
+        }
+    }
+
+    #[test]
+    fn sources_print_their_kind() {
+        assert!(NPSH_RATIO.source.text().ends_with("(recalled)"));
+        assert!(HEADROOM.source.text().ends_with("common practice"));
+        assert_eq!(Source::DesignRequirement.text(), "the design's requirement");
+    }
+}

@@ -1,0 +1,291 @@
+//! Motor sizing over all cases of a candidate (issue 10.1).
+//!
+//! Rule (common practice, after NEMA MG 1 and IEC 60034-1; see
+//! [`crate::pumps::select_motor`]): the nameplate rating, without the service factor,
+//! covers the largest shaft power per pump at every operating point of every case.
+//! Non-overloading is judged along the whole published curve to its end (run-out) at
+//! the maximum speed and the largest impeller the design allows, in every case's fluid,
+//! so the coldest (densest) case gives the cold-start power. The service factor is
+//! reported as margin only, and taken as 1.0 on a variable-frequency drive (makers
+//! commonly void it on inverter supply; NEMA MG 1 Parts 30 and 31).
+
+use uom::si::{frequency::cycle_per_minute, power::watt};
+
+use super::checks::{Check, Status};
+use super::duty::{self, CandidateCurves};
+use super::limits::{self, CheckId};
+use super::{CaseResult, Warning};
+use crate::display::Units;
+use crate::model::{Adjust, Design, MotorStandardChoice, PumpCandidate};
+use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard, ScaledPump};
+
+/// Points sampled along the published curve for the run-out power.
+pub const RUN_OUT_POINTS: usize = 81;
+
+/// The motor of one candidate and the findings behind it.
+#[derive(Clone, Debug, PartialEq)]
+pub struct MotorSizing {
+    pub choice: MotorChoice,
+    /// The design states the rating (`motor_rating` of the pump); otherwise selected.
+    pub rating_stated: bool,
+    /// The pump runs on a variable-frequency drive (`adjust = speed`).
+    pub variable_speed: bool,
+    /// Largest shaft power per pump at an operating point, W, and its case.
+    pub max_operating_shaft_power: f64,
+    pub max_operating_case: String,
+    /// Largest shaft power per pump along the curve to run-out, W, its case, and the
+    /// flow per pump (m³/s), speed (rpm) and fluid density (kg/m³) where it occurs.
+    pub run_out_shaft_power: f64,
+    pub run_out_case: String,
+    pub run_out_flow: f64,
+    pub run_out_speed_rpm: f64,
+    pub run_out_density: f64,
+    /// Full-load motor efficiency used for input power (fraction), and its source.
+    pub efficiency: f64,
+    pub efficiency_source: String,
+    /// Poles inferred from the rated speed, and the supply frequency assumed, Hz.
+    pub poles: u32,
+    pub supply_hz: f64,
+}
+
+fn standard(design: &Design) -> MotorStandard {
+    match design.motor.standard {
+        MotorStandardChoice::Nema => MotorStandard::Nema,
+        MotorStandardChoice::Iec => MotorStandard::Iec,
+    }
+}
+
+/// The largest shaft power per pump along the curve to its end at the limit (maximum
+/// speed, largest impeller allowed) over the analysed cases: (W, case, flow m³/s, rpm, kg/m³).
+fn run_out(
+    design: &Design,
+    p: &PumpCandidate,
+    cc: &CandidateCurves,
+    cases: &[CaseResult],
+) -> Option<(f64, String, f64, f64, f64)> {
+    let (base, trim) = cc.evaluated.as_ref()?;
+    let mut best: Option<(f64, String, f64, f64, f64)> = None;
+    for (c, dc) in cases.iter().zip(&design.cases) {
+        let Some(sys) = &c.system else { continue };
+        let case_ratio = dc
+            .scenario
+            .pump_speeds
+            .iter()
+            .find(|(n, _)| *n == p.name)
+            .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
+            .unwrap_or(1.0);
+        let (speed, diameter) = match p.adjust {
+            Adjust::Speed { max_ratio, .. } => (max_ratio.max(case_ratio), *trim),
+            Adjust::Trim { .. } => (case_ratio, 1.0),
+            Adjust::None => (case_ratio, *trim),
+        };
+        let Ok(scaled) = ScaledPump::new(base, speed, diameter) else {
+            continue;
+        };
+        let (_, end) = scaled.domain();
+        for i in 0..RUN_OUT_POINTS {
+            let q = end * i as f64 / (RUN_OUT_POINTS - 1) as f64;
+            let Some(w) = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q) else {
+                continue;
+            };
+            if best.as_ref().is_none_or(|b| w > b.0) {
+                best = Some((w, c.name.clone(), q, scaled.speed_rpm(), sys.fluid.density));
+            }
+        }
+    }
+    best
+}
+
+/// Size each candidate's motor over all its cases, set the input power of every duty
+/// with the motor's efficiency, and add the `motor` check to each duty.
+pub fn motor_pass(
+    design: &Design,
+    candidates: &[CandidateCurves],
+    cases: &mut [CaseResult],
+    warnings: &mut Vec<Warning>,
+) -> Vec<Option<MotorSizing>> {
+    let mut out = Vec::new();
+    for (i, (p, cc)) in design.pumps.iter().zip(candidates).enumerate() {
+        let sizing = size(design, p, cc, i, cases);
+        for (c, dc) in cases.iter_mut().zip(&design.cases) {
+            let Some(r) = c.pumps.get_mut(i) else {
+                continue;
+            };
+            if let Some(m) = &sizing {
+                let source = if design.motor.efficiency.is_some() {
+                    "given in the design".to_string()
+                } else {
+                    m.efficiency_source.clone()
+                };
+                duty::set_input_power(design, dc, r, Some((m.efficiency, source)));
+            }
+            match (&sizing, &r.duty) {
+                (Some(m), Some(d)) => {
+                    let per_pump = d.shaft_power.unwrap_or(0.0) / p.count.max(1) as f64;
+                    r.checks.push(motor_check(design, m, per_pump));
+                }
+                (None, Some(d)) if d.shaft_power.is_some() => r.checks.push(Check::typed(
+                    CheckId::Motor,
+                    Status::Fail,
+                    None,
+                    None,
+                    "no standard motor rating carries the shaft power".into(),
+                    limits::MOTOR_RATING_SOURCE,
+                )),
+                _ => {}
+            }
+        }
+        out.push(sizing);
+    }
+    warnings.extend(altitude_warning(design));
+    out
+}
+
+fn size(
+    design: &Design,
+    p: &PumpCandidate,
+    cc: &CandidateCurves,
+    i: usize,
+    cases: &[CaseResult],
+) -> Option<MotorSizing> {
+    let per_pump = p.count.max(1) as f64;
+    let (max_shaft, max_case) = cases
+        .iter()
+        .filter_map(|c| {
+            Some((
+                c.pumps.get(i)?.duty.as_ref()?.shaft_power? / per_pump,
+                &c.name,
+            ))
+        })
+        .fold((0.0, String::new()), |a, (w, n)| {
+            if w > a.0 {
+                (w, n.clone())
+            } else {
+                a
+            }
+        });
+    if max_shaft <= 0.0 {
+        return None;
+    }
+    let (ro_w, ro_case, ro_flow, ro_speed, ro_density) =
+        run_out(design, p, cc, cases).unwrap_or((max_shaft, max_case.clone(), 0.0, 0.0, 0.0));
+    let variable_speed = matches!(p.adjust, Adjust::Speed { .. });
+    let service_factor = if variable_speed {
+        1.0
+    } else {
+        design.motor.service_factor
+    };
+    let std = standard(design);
+    let run_out_w = ro_w.max(max_shaft);
+    let choice = match p.motor_rating {
+        Some(r) => {
+            pumps::motor_of_rating(std, r.get::<watt>(), max_shaft, run_out_w, service_factor)
+        }
+        None => pumps::select_motor(std, max_shaft, run_out_w, service_factor),
+    }
+    .ok()?;
+    let supply_hz = motor_efficiency::supply_hz(std);
+    let poles = motor_efficiency::poles(p.rated_speed.get::<cycle_per_minute>(), supply_hz);
+    let (efficiency, efficiency_source) = match design.motor.efficiency {
+        Some(e) => (e, "given in the design".to_string()),
+        None => {
+            let d = motor_efficiency::default_efficiency(std, choice.rating_w, poles);
+            (d.efficiency, d.source)
+        }
+    };
+    Some(MotorSizing {
+        choice,
+        rating_stated: p.motor_rating.is_some(),
+        variable_speed,
+        max_operating_shaft_power: max_shaft,
+        max_operating_case: max_case,
+        run_out_shaft_power: run_out_w,
+        run_out_case: ro_case,
+        run_out_flow: ro_flow,
+        run_out_speed_rpm: ro_speed,
+        run_out_density: ro_density,
+        efficiency,
+        efficiency_source,
+        poles,
+        supply_hz,
+    })
+}
+
+/// The motor check of one duty: fail when this duty's shaft power per pump is above
+/// the nameplate, warn when the curve to run-out is, else pass.
+fn motor_check(design: &Design, m: &MotorSizing, shaft_per_pump: f64) -> Check {
+    let u = Units::new(design.project.units);
+    let (pw, fl) = (u.power(), u.flow());
+    let rating = m.choice.rating_w;
+    let above_at_duty = shaft_per_pump > rating * (1.0 + 1e-9);
+    let status = if above_at_duty {
+        Status::Fail
+    } else if !m.choice.non_overloading {
+        Status::Warn
+    } else {
+        Status::Pass
+    };
+    let (ds, rs) = pw.fmt_against(shaft_per_pump, rating);
+    let (ros, _) = pw.fmt_against(m.run_out_shaft_power, rating);
+    let mut msg = format!(
+        "{} motor per pump{}: shaft power here {ds} is {:.0} % of the nameplate {rs}; largest at any duty {} (case {})",
+        m.choice.rating_label,
+        if m.rating_stated { " (stated in the design)" } else { "" },
+        100.0 * shaft_per_pump / rating,
+        pw.fmt(m.max_operating_shaft_power),
+        m.max_operating_case,
+    );
+    if above_at_duty {
+        msg.push_str(": above the nameplate at duty, choose a larger motor");
+    }
+    msg.push_str(&format!(
+        "; along the curve to run-out at {:.0} rpm and the largest impeller allowed the largest is {ros} at {} per pump (case {}), {:.0} % of nameplate",
+        m.run_out_speed_rpm,
+        fl.fmt(m.run_out_flow),
+        m.run_out_case,
+        100.0 * m.choice.runout_loading_ratio,
+    ));
+    msg.push_str(if m.choice.non_overloading {
+        ": non-overloading"
+    } else {
+        ": overloads towards run-out, protect the motor, limit the flow or choose a larger motor"
+    });
+    msg.push_str(&if m.variable_speed {
+        "; on a variable-frequency drive the service factor is taken as 1.0".to_string()
+    } else {
+        format!(
+            "; service factor {:.2} is margin only, not used for sizing",
+            m.choice.service_factor
+        )
+    });
+    Check::typed(
+        CheckId::Motor,
+        status,
+        Some(shaft_per_pump / rating),
+        Some(1.0),
+        msg,
+        limits::MOTOR_RATING_SOURCE,
+    )
+}
+
+/// Motor ratings hold to 1000 m altitude and 40 °C ambient: a warning above that.
+fn altitude_warning(design: &Design) -> Option<Warning> {
+    let u = Units::new(design.project.units);
+    let (z, case) = design
+        .cases
+        .iter()
+        .map(|c| (c.scenario.site.elevation.get::<uom::si::length::meter>(), c))
+        .max_by(|a, b| a.0.total_cmp(&b.0))?;
+    let limit = limits::MOTOR_ALTITUDE_M.value;
+    (z > limit && !design.pumps.is_empty()).then(|| {
+        let (zs, ls) = u.elevation().fmt_against(z, limit);
+        Warning {
+            code: "motor-altitude",
+            message: format!(
+                "site elevation {zs} is above {ls}: motor ratings hold up to {ls} altitude and {} ambient; derate the motor as its manufacturer states",
+                u.temperature().fmt(limits::MOTOR_AMBIENT_K.value)
+            ),
+            span: Some(case.span),
+        }
+    })
+}

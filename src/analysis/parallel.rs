@@ -1,0 +1,168 @@
+//! One pump of a parallel set running alone (issue 10.4): after the other pumps trip,
+//! the remaining one runs out along its curve against the lowest-head case. It is
+//! evaluated at the limit the design allows (maximum speed, largest impeller): a
+//! speed controller holding the flow drives it there. Its duty point, its power
+//! against the motor nameplate and its NPSH margin become the `one-pump-alone` check
+//! of that case. A point beyond the end of the published curve fails: no published
+//! data there.
+//!
+//! Unequal pumps in parallel (a weaker pump deadheading against the header) cannot be
+//! written in a design yet: a set is `count` identical pumps.
+
+use uom::si::frequency::cycle_per_minute;
+
+use super::checks::{self, Check, Status};
+use super::duty::{self, CandidateCurves};
+use super::limits::{CheckId, Source};
+use super::motor::MotorSizing;
+use super::CaseResult;
+use crate::display::Units;
+use crate::model::{Adjust, ArrangementKind, Design, PumpCandidate};
+use crate::pumps::{self, ScaledPump};
+
+/// One pump of a parallel set alone.
+#[derive(Clone, Debug, PartialEq)]
+pub struct OneAlone {
+    /// The case it is evaluated against (the lowest system head).
+    pub case: String,
+    pub speed_rpm: f64,
+    /// Flow (m³/s) and head (m) of the one pump; `None` beyond the published curve.
+    pub flow: Option<f64>,
+    pub head: Option<f64>,
+    /// Shaft power, W.
+    pub shaft_power: Option<f64>,
+    pub npsh_available: Option<f64>,
+    pub npsh_required: Option<f64>,
+    pub check: Check,
+}
+
+/// The case of lowest system head at flow q (m³/s) among the analysed cases (the
+/// first of equal ones).
+fn lowest_head_case(cases: &[CaseResult], q: f64) -> Option<usize> {
+    cases
+        .iter()
+        .enumerate()
+        .filter_map(|(i, c)| c.system.as_ref().map(|s| (i, s.head(q))))
+        .min_by(|a, b| a.1.total_cmp(&b.1).then(a.0.cmp(&b.0)))
+        .map(|(i, _)| i)
+}
+
+/// Evaluate one pump alone for every parallel candidate, adding its check to the case
+/// it was evaluated against. Per candidate, `None` for sets that are not parallel.
+pub fn one_pump_alone(
+    design: &Design,
+    candidates: &[CandidateCurves],
+    motors: &[Option<MotorSizing>],
+    cases: &mut [CaseResult],
+) -> Vec<Option<OneAlone>> {
+    let mut out = Vec::new();
+    for (k, (p, cc)) in design.pumps.iter().zip(candidates).enumerate() {
+        let found = (p.arrangement == ArrangementKind::Parallel && p.count >= 2)
+            .then(|| evaluate(design, p, cc, motors.get(k).and_then(|m| m.as_ref()), cases))
+            .flatten();
+        if let Some((i, alone)) = &found {
+            if let Some(r) = cases[*i].pumps.get_mut(k) {
+                r.checks.push(alone.check.clone());
+            }
+        }
+        out.push(found.map(|(_, a)| a));
+    }
+    out
+}
+
+fn evaluate(
+    design: &Design,
+    p: &PumpCandidate,
+    cc: &CandidateCurves,
+    motor: Option<&MotorSizing>,
+    cases: &[CaseResult],
+) -> Option<(usize, OneAlone)> {
+    let (base, trim) = cc.evaluated.as_ref()?;
+    let i = lowest_head_case(cases, base.head.domain().1)?;
+    let case = &cases[i];
+    let sys = case.system.as_ref()?;
+    let dc = design.cases.iter().find(|d| d.name == case.name)?;
+    let case_ratio = dc
+        .scenario
+        .pump_speeds
+        .iter()
+        .find(|(n, _)| *n == p.name)
+        .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
+        .unwrap_or(1.0);
+    let (speed, diameter) = match p.adjust {
+        Adjust::Speed { max_ratio, .. } => (max_ratio, *trim),
+        Adjust::Trim { .. } => (case_ratio, 1.0),
+        Adjust::None => (case_ratio, *trim),
+    };
+    let scaled = ScaledPump::new(base, speed, diameter).ok()?;
+    let units = Units::new(design.project.units);
+    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
+    let (_, end) = scaled.domain();
+    let outcome = pumps::solve_duty(
+        &|q| scaled.eval_head(q),
+        &|q| sys.head(q),
+        end * (1.0 + duty::SEARCH_BEYOND_CURVE),
+    );
+    let mut alone = OneAlone {
+        case: case.name.clone(),
+        speed_rpm: scaled.speed_rpm(),
+        flow: None,
+        head: None,
+        shaft_power: None,
+        npsh_available: None,
+        npsh_required: None,
+        check: Check::typed(
+            CheckId::OnePumpAlone,
+            Status::Fail,
+            None,
+            Some(end),
+            String::new(),
+            Source::DesignData("the published curve's flow range"),
+        ),
+    };
+    let prefix = format!(
+        "one pump of the set alone at {:.0} rpm in case {} (lowest system head)",
+        scaled.speed_rpm(),
+        case.name
+    );
+    let Some((q, h)) = outcome.point().filter(|(q, _)| *q <= end * (1.0 + 1e-9)) else {
+        alone.check.message = format!(
+            "{prefix}: it runs out beyond the end of the published curve at {}: no published data there",
+            fl.fmt(end)
+        );
+        return Some((i, alone));
+    };
+    let shaft = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q);
+    let npsha = sys.npsh_available(q);
+    let npshr = scaled.eval_npshr(q);
+    let npsh = checks::npsh_margin(&units, npsha, npshr, checks::npsh_ratio_limit(design, dc));
+    let mut status = npsh.status;
+    let mut msg = format!("{prefix}: {} at {}", fl.fmt(q), hd.fmt(h));
+    if let (Some(w), Some(m)) = (shaft, motor) {
+        let (ws, rs) = pw.fmt_against(w, m.choice.rating_w);
+        let over = w > m.choice.rating_w * (1.0 + 1e-9);
+        msg.push_str(&format!(
+            ", shaft power {ws} against the {} nameplate {rs}{}",
+            m.choice.rating_label,
+            if over { " (above the nameplate)" } else { "" }
+        ));
+        if over {
+            status = status.max(Status::Warn);
+        }
+    }
+    msg.push_str(&format!("; {}", npsh.message));
+    alone.flow = Some(q);
+    alone.head = Some(h);
+    alone.shaft_power = shaft;
+    alone.npsh_available = Some(npsha);
+    alone.npsh_required = npshr;
+    alone.check = Check::typed(
+        CheckId::OnePumpAlone,
+        status,
+        Some(q),
+        Some(end),
+        msg,
+        npsh.origin,
+    );
+    Some((i, alone))
+}

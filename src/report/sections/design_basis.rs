@@ -1,0 +1,300 @@
+//! The design basis chapter: fluid and site, levels, pipe segments, fittings,
+//! cases and requirements, as the analysis used them.
+
+use crate::analysis::system::CaseSystem;
+use crate::analysis::{Analysis, CaseResult};
+use crate::display::Units;
+use crate::model::Design;
+use crate::report::layout::document::{Align, Block, Column};
+
+/// The design basis chapter.
+pub(super) fn chapter(
+    blocks: &mut Vec<Block>,
+    design: &Design,
+    analysis: &Analysis,
+    units: &Units,
+) {
+    blocks.push(Block::heading(1, "Design basis"));
+    fluid_and_site(blocks, design, analysis, units);
+    levels(blocks, design, analysis, units);
+    blocks.push(Block::heading(2, "Pipe segments"));
+    if let Some((case, system)) = analysis
+        .cases
+        .iter()
+        .find_map(|c| c.system.as_ref().map(|s| (c, s)))
+    {
+        pipe_segments(blocks, case, system, units);
+        fittings(blocks, design, case, system, units);
+    }
+    cases(blocks, analysis);
+    requirements(blocks, design, units);
+}
+
+/// Fluid properties and barometric pressure per case, with their sources.
+fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: &Units) {
+    blocks.push(Block::heading(2, "Fluid and site"));
+    let rows: Vec<Vec<String>> = analysis
+        .cases
+        .iter()
+        .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+        .map(|(case, system)| {
+            vec![
+                case.name.clone(),
+                system.fluid.name.clone(),
+                system
+                    .fluid
+                    .temperature_k
+                    .map(|t| units.temperature().text(t))
+                    .unwrap_or_else(|| "—".into()),
+                units.density().text(system.fluid.density),
+                units.viscosity().text(system.fluid.viscosity),
+                units.pressure().text(system.fluid.vapor_pressure),
+                units.pressure().text(system.barometric_pa),
+            ]
+        })
+        .collect();
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.16, Align::Left),
+            Column::new("Fluid", 0.14, Align::Left),
+            Column::new("Temperature", 0.13, Align::Right),
+            Column::new("Density", 0.15, Align::Right),
+            Column::new("Viscosity", 0.13, Align::Right),
+            Column::new("Vapour pressure", 0.14, Align::Right),
+            Column::new("Barometric", 0.15, Align::Right),
+        ],
+        rows,
+        caption: Some("Fluid properties and barometric pressure per case".into()),
+    });
+    if let Some(system) = analysis.cases.iter().find_map(|case| case.system.as_ref()) {
+        blocks.push(Block::KeyValue(vec![
+            (
+                "Fluid properties".into(),
+                super::sources::publication(&system.fluid.source, units),
+            ),
+            (
+                "Barometric pressure".into(),
+                super::sources::publication(&system.barometric_source, units),
+            ),
+            (
+                "Site elevation".into(),
+                units
+                    .elevation()
+                    .text(design.base.site.elevation.get::<uom::si::length::meter>()),
+            ),
+        ]));
+    }
+}
+
+/// Surface levels, pump centreline, surface pressures and static head per case.
+fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: &Units) {
+    blocks.push(Block::heading(2, "Levels and static head"));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.16, Align::Left),
+            Column::new(
+                format!("Source {}", design.base.source.name),
+                0.17,
+                Align::Right,
+            ),
+            Column::new(
+                format!("Destination {}", design.base.destination.name),
+                0.19,
+                Align::Right,
+            ),
+            Column::new("Pump centreline", 0.16, Align::Right),
+            Column::new("Surface pressures (gauge)", 0.18, Align::Right),
+            Column::new("Static head", 0.14, Align::Right),
+        ],
+        rows: analysis
+            .cases
+            .iter()
+            .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+            .map(|(case, system)| {
+                vec![
+                    case.name.clone(),
+                    units.elevation().text(system.source_level),
+                    units.elevation().text(system.destination_level),
+                    units.elevation().text(system.centreline),
+                    format!(
+                        "{} / {}",
+                        units
+                            .pressure()
+                            .text(system.source_abs_pa - system.barometric_pa),
+                        units
+                            .pressure()
+                            .text(system.destination_abs_pa - system.barometric_pa)
+                    ),
+                    units.head().text(system.static_head),
+                ]
+            })
+            .collect(),
+        caption: Some(
+            "Surface levels, pump datum, surface pressures and static head per case".into(),
+        ),
+    });
+}
+
+/// Each segment's material, size, diameter, length and roughness with their sources.
+fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem, units: &Units) {
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Line / seg.", 0.14, Align::Left),
+            Column::new("Material and size", 0.22, Align::Left),
+            Column::new("Inner diameter", 0.12, Align::Right),
+            Column::new("Length", 0.10, Align::Right),
+            Column::new("Roughness or C", 0.12, Align::Right),
+            Column::new("Sources", 0.30, Align::Left),
+        ],
+        rows: system
+            .segments
+            .iter()
+            .map(|g| {
+                vec![
+                    format!("{} {}", g.line, g.index + 1),
+                    format!("{} {}", g.material.replace('_', " "), g.size_label),
+                    units.diameter().text(g.inner_diameter),
+                    units.length().text(g.length),
+                    g.hazen_williams_c
+                        .map(|hazen_c| format!("C = {hazen_c}"))
+                        .unwrap_or_else(|| units.roughness().text(g.roughness)),
+                    format!(
+                        "{}; {}",
+                        super::sources::labelled("diameter", &g.diameter_source, units),
+                        super::sources::labelled("roughness", &g.roughness_source, units)
+                    ),
+                ]
+            })
+            .collect(),
+        caption: Some(format!(
+            "Segments as in case {} (roughness follows each case's pipe condition)",
+            case.name
+        )),
+    });
+}
+
+/// Every fitting's K at the first duty flow, and the losses given in the design.
+fn fittings(
+    blocks: &mut Vec<Block>,
+    design: &Design,
+    case: &CaseResult,
+    system: &CaseSystem,
+    units: &Units,
+) {
+    let q = case
+        .pumps
+        .iter()
+        .find_map(|run| run.duty.as_ref().map(|duty| duty.flow));
+    let mut rows = Vec::new();
+    for g in &system.segments {
+        let re = q.map(|q| system.reynolds(g, q)).unwrap_or(1e5);
+        for f in &g.fittings {
+            rows.push(vec![
+                format!("{} {}", g.line, g.index + 1),
+                f.spec.name.to_string(),
+                f.count.to_string(),
+                format!(
+                    "{:.3}",
+                    crate::analysis::system::k_of(f, re, g.inner_diameter)
+                ),
+                super::sources::publication(f.spec.source, units),
+            ]);
+        }
+    }
+    for line in &design.base.lines {
+        for (i, seg) in line.segments.iter().enumerate() {
+            for l in &seg.losses {
+                let what = match (l.k, l.equivalent_length) {
+                    (Some(k), _) => format!("K {k:.3}"),
+                    (_, Some(le)) => {
+                        format!(
+                            "L = {}",
+                            units.length().text(le.get::<uom::si::length::meter>())
+                        )
+                    }
+                    _ => "—".into(),
+                };
+                rows.push(vec![
+                    format!("{} {}", line.name, i + 1),
+                    "loss".into(),
+                    "1".into(),
+                    what,
+                    format!("given: {}", l.why),
+                ]);
+            }
+        }
+    }
+    blocks.push(Block::heading(2, "Fittings and other losses"));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Line / seg.", 0.13, Align::Left),
+            Column::new("Fitting", 0.20, Align::Left),
+            Column::new("Count", 0.07, Align::Right),
+            Column::new("K each", 0.10, Align::Right),
+            Column::new("Source of K", 0.50, Align::Left),
+        ],
+        rows,
+        caption: Some(match q {
+            Some(q) => format!("K values at the first duty flow of case {} ({}); Reynolds-dependent K change with flow", case.name, units.flow().text(q)),
+            None => "K values at Re = 10⁵".into(),
+        }),
+    });
+}
+
+/// The cases, their hours and what each overrides.
+fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
+    blocks.push(Block::heading(2, "Cases"));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.2, Align::Left),
+            Column::new("Hours per year", 0.16, Align::Right),
+            Column::new("Overrides of the base design", 0.64, Align::Left),
+        ],
+        rows: analysis
+            .cases
+            .iter()
+            .map(|case| {
+                vec![
+                    case.name.clone(),
+                    format!("{:.0} h", case.hours_per_year),
+                    if case.overrides.is_empty() {
+                        "none (base design)".into()
+                    } else {
+                        super::wording::plain(&case.overrides.join("; "))
+                    },
+                ]
+            })
+            .collect(),
+        caption: Some("Operating cases, their hours per year and what each changes".into()),
+    });
+}
+
+/// The requirements as written and the cases they apply to.
+fn requirements(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
+    blocks.push(Block::heading(2, "Requirements"));
+    if design.requirements.is_empty() {
+        blocks.push(Block::text("The design states no requirements; the checks use the default limits given in the Checks section."));
+    } else {
+        blocks.push(Block::Table {
+            columns: vec![
+                Column::new("Requirement", 0.7, Align::Left),
+                Column::new("Applies to", 0.3, Align::Left),
+            ],
+            rows: design
+                .requirements
+                .iter()
+                .map(|r| {
+                    vec![
+                        super::wording::requirement(r, units),
+                        if r.cases.is_empty() {
+                            "every case".into()
+                        } else {
+                            r.cases.join(", ")
+                        },
+                    ]
+                })
+                .collect(),
+            caption: Some("Requirements of the design and the cases they apply to".into()),
+        });
+    }
+}

@@ -1,0 +1,123 @@
+//! The calculation package's content: the sections of `shared/design/report.md`
+//! built as layout blocks from a design, its analysis and its source, one file per
+//! chapter. Reads the analysis; computes no engineering values of its own.
+
+mod appendix;
+mod assumptions;
+mod candidate;
+mod changes;
+mod checks;
+mod design_basis;
+mod front;
+mod method;
+mod references;
+mod selection;
+mod sources;
+mod system_curves;
+mod wording;
+
+use super::layout::document::{Block, Document, PageMeta, PdfInfo};
+use crate::analysis::Analysis;
+use crate::display::Units;
+use crate::model::Design;
+
+/// Extra content: a changes section comparing with an earlier revision.
+pub struct Changes {
+    pub old_revision: String,
+    /// SHA-256 of the compared revision's source file (hex).
+    pub old_sha256: String,
+    pub inputs: Vec<String>,
+    /// Rows: case, pump, quantity, before, after, change.
+    pub results: Vec<Vec<String>>,
+    /// Rows: case, pump, check, before, after, message.
+    pub checks: Vec<Vec<String>>,
+    pub recommendation: String,
+}
+
+/// Build the document: the chapters in the order of `shared/design/report.md`.
+pub fn document(
+    design: &Design,
+    analysis: &Analysis,
+    source: &str,
+    sha256: &str,
+    changes: Option<&Changes>,
+) -> Document {
+    let units = Units::new(design.project.units);
+    let project = &design.project;
+    let revision_text = design
+        .revisions
+        .last()
+        .map(|r| format!("rev. {}", r.id))
+        .unwrap_or_else(|| "no revision".into());
+    let mut blocks: Vec<Block> = Vec::new();
+    front::title_block(&mut blocks, design, sha256);
+    front::revision_history(&mut blocks, design);
+    front::purpose(&mut blocks, design, analysis);
+    if let Some(changes) = changes {
+        changes::chapter(&mut blocks, changes);
+    }
+    design_basis::chapter(&mut blocks, design, analysis, &units);
+    method::chapter(&mut blocks, &units);
+    system_curves::chapter(&mut blocks, analysis, &units);
+    for (index, _) in design.pumps.iter().enumerate() {
+        candidate::chapter(&mut blocks, design, analysis, index, &units);
+    }
+    selection::chapter(&mut blocks, design, analysis, &units);
+    checks::chapter(&mut blocks, analysis, &units);
+    assumptions::chapter(&mut blocks, design, analysis);
+    references::chapter(&mut blocks);
+    appendix::chapter(&mut blocks, source, sha256);
+
+    Document {
+        title: format!("{} — {}", project.number, project.title),
+        meta: PageMeta {
+            header_left: project.title.clone(),
+            header_number: project.number.clone(),
+            header_right: revision_text,
+            footer_left: format!("source SHA-256 {}…", &sha256[..sha256.len().min(12)]),
+        },
+        info: PdfInfo {
+            author: project.prepared.clone(),
+            subject: SUBJECT.to_string(),
+            date: design.revisions.last().and_then(|r| iso_date(&r.date)),
+        },
+        id_seed: sha256.to_string(),
+        blocks,
+    }
+}
+
+/// The package's subject line (title block and PDF information).
+pub const SUBJECT: &str = "Pump selection: system curves, duty points, NPSH, power and energy";
+
+/// `(year, month, day)` of an ISO 8601 calendar date "YYYY-MM-DD"; `None` otherwise.
+fn iso_date(text: &str) -> Option<(i32, u8, u8)> {
+    let mut parts = text.trim().splitn(3, '-');
+    let year: i32 = parts.next()?.parse().ok()?;
+    let month: u8 = parts.next()?.parse().ok()?;
+    let day: u8 = parts.next()?.parse().ok()?;
+    ((1..=9999).contains(&year) && (1..=12).contains(&month) && (1..=31).contains(&day))
+        .then_some((year, month, day))
+}
+
+/// Cases per system-curve table and per plot, so columns and legends stay legible.
+pub const CASES_PER_GROUP: usize = 6;
+
+/// " (part k of n)" when a table or plot is split into groups of cases, else nothing.
+fn group_label(group: usize, groups: usize) -> String {
+    if groups > 1 {
+        format!(" (part {} of {groups})", group + 1)
+    } else {
+        String::new()
+    }
+}
+
+/// The lines in their first order, each once.
+fn dedup(lines: Vec<String>) -> Vec<String> {
+    let mut out: Vec<String> = Vec::new();
+    for line in lines {
+        if !out.contains(&line) {
+            out.push(line);
+        }
+    }
+    out
+}

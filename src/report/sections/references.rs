@@ -1,0 +1,91 @@
+//! The references chapter: the publications the calculation relies on, each once,
+//! saying which values were recalled rather than read from the document, and which
+//! recalled tables the test suite cross-checks against an open transcription.
+
+use crate::report::layout::document::{Align, Block, Column};
+
+/// How a reference's values came into the tool.
+#[derive(Clone, Copy, PartialEq, Eq)]
+enum Provenance {
+    /// An equation or method, implemented from the publication.
+    Method,
+    /// Tabulated values or limits recalled, not read from the document in hand.
+    Recalled,
+    /// Recalled, and cross-checked against an open transcription of the same table.
+    RecalledCrossChecked,
+}
+
+impl Provenance {
+    fn text(self) -> &'static str {
+        match self {
+            Provenance::Method => "equation implemented from the publication",
+            Provenance::Recalled => "values recalled; confirm against the edition in force",
+            Provenance::RecalledCrossChecked => {
+                "values recalled; confirm against the edition in force; cross-checked against an open transcription (below)"
+            }
+        }
+    }
+}
+
+/// The references: publication (title, edition, table or clause), what it supplies,
+/// and how its values came in.
+const REFERENCES: [(&str, &str, Provenance); 28] = [
+    ("IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997 for the Thermodynamic Properties of Water and Steam (IAPWS-IF97).", "density, vapour pressure", Provenance::Method),
+    ("IAPWS R12-08(2008), Release on the IAPWS Formulation 2008 for the Viscosity of Ordinary Water Substance.", "viscosity", Provenance::Method),
+    ("U.S. Standard Atmosphere, 1976. NOAA, NASA, USAF, Washington D.C.; ISO 2533:1975 Standard Atmosphere.", "barometric pressure at the site elevation", Provenance::Method),
+    ("BIPM, 3rd CGPM (1901), declaration on the unit of mass and the definition of weight; standard acceleration of gravity; NIST SP 330 (2019).", "g = standard gravity", Provenance::Method),
+    ("Colebrook, C.F. (1939), Turbulent flow in pipes, with particular reference to the transition region between the smooth and rough pipe laws. J. Inst. Civil Eng. 11, 133–156.", "turbulent friction factor, equation (3)", Provenance::Method),
+    ("Churchill, S.W. (1977), Friction-factor equation spans all fluid-flow regimes. Chemical Engineering 84(24), 91–92.", "friction factor in the transition", Provenance::Method),
+    ("Moody, L.F. (1944), Friction factors for pipe flow. Trans. ASME 66, 671–684, Fig. 2.", "absolute roughness of new pipe materials", Provenance::Recalled),
+    ("Williams, G.S. and Hazen, A. (1920), Hydraulic Tables, 3rd ed. Wiley, New York.", "Hazen-Williams equation and C values, equation (4)", Provenance::Recalled),
+    ("AWWA Manual M41, Ductile-Iron Pipe and Fittings.", "C of cement-mortar-lined ductile iron", Provenance::Recalled),
+    ("Uni-Bell PVC Pipe Association, Handbook of PVC Pipe: Design and Construction.", "C of PVC pipe", Provenance::Recalled),
+    ("Plastics Pipe Institute, Handbook of Polyethylene Pipe, 2nd ed. (2008), ch. 6.", "roughness and C of PE pipe", Provenance::Recalled),
+    ("Hooper, W.B. (1981), The two-K method predicts head losses in pipe fittings. Chemical Engineering, 24 August 1981, 96–100.", "K of fittings and entrances (2-K)", Provenance::RecalledCrossChecked),
+    ("Darby, R. (1999), Correlate pressure drops through fittings. Chemical Engineering 106(7), July 1999, 101–104; Darby, R. (2001), Chemical Engineering Fluid Mechanics, 2nd ed., Marcel Dekker, ch. 7.", "K of fittings and valves (3-K)", Provenance::RecalledCrossChecked),
+    ("Crane Co. (2009), Flow of Fluids through Valves, Fittings and Pipe, Technical Paper No. 410, Appendix A (resistance coefficients K).", "K of foot valves, size changes, entrance and exit", Provenance::RecalledCrossChecked),
+    ("ASME B36.10M, Welded and Seamless Wrought Steel Pipe; ASME B36.19M, Stainless Steel Pipe: dimension tables.", "outside diameters and walls of steel pipe", Provenance::RecalledCrossChecked),
+    ("ASTM D1785, PVC Plastic Pipe, Schedules 40, 80 and 120; ASTM F714 and D3035, PE pipe (DR-PR) based on outside diameter.", "outside diameters and walls of plastic pipe", Provenance::RecalledCrossChecked),
+    ("ASTM B88, Seamless Copper Water Tube; AWWA C151/A21.51, Ductile-Iron Pipe, Centrifugally Cast.", "dimensions of copper tube and ductile iron pipe", Provenance::Recalled),
+    ("Fritsch, F.N. and Carlson, R.E. (1980), Monotone piecewise cubic interpolation. SIAM J. Numer. Anal. 17(2), 238–246.", "monotone curve fit", Provenance::Method),
+    ("Brent, R.P. (1973), Algorithms for Minimization without Derivatives. Prentice-Hall, ch. 4.", "duty-point root finding", Provenance::Method),
+    ("ANSI/HI 9.6.1, Rotodynamic Pumps — Guideline for NPSH Margin. Hydraulic Institute.", "NPSH margin ratios; NPSH3 definition", Provenance::Recalled),
+    ("ANSI/HI 9.6.3, Rotodynamic Pumps — Guideline for Operating Regions. Hydraulic Institute.", "preferred operating region 70–120 % of BEP flow", Provenance::Recalled),
+    ("ANSI/HI 9.6.7, Rotodynamic Pumps — Guideline for Effects of Liquid Viscosity on Performance. Hydraulic Institute.", "viscosity parameter B", Provenance::Recalled),
+    ("ISO 9906:2012, Rotodynamic pumps — Hydraulic performance acceptance tests — Grades 1, 2 and 3.", "acceptance tolerances (not applied)", Provenance::Recalled),
+    ("NEMA MG 1, Motors and Generators, Parts 12, 30 and 31 (ratings, service factor, inverter-fed motors).", "standard ratings and service factor", Provenance::Recalled),
+    ("IEC 60034-1, Rotating electrical machines — Part 1: Rating and performance (duty type S1).", "continuous rating", Provenance::Recalled),
+    ("IEC 60072-1, Dimensions and output series for rotating electrical machines — Part 1.", "standard output ratings", Provenance::Recalled),
+    ("Hydraulic Institute and Europump (2001), Pump Life Cycle Costs: A Guide to LCC Analysis for Pumping Systems.", "life-cycle cost, equation (7)", Provenance::Method),
+    ("NIST Special Publication 811 (2008), Guide for the Use of the International System of Units, Appendix B.", "unit conversion factors", Provenance::Method),
+];
+
+/// The open transcriptions the recalled tables were compared with, and what was not.
+const CROSS_CHECKS: &str = "Cross-checks: the tool's test suite compares the recalled fitting constants (Hooper 2-K, Darby 3-K, Crane foot valves, size changes and entrances) and the pipe dimension tables (ASME B36.10M and B36.19M, ASTM D1785, PE by DR) with the open transcriptions of the same tables in the Python fluids package (Caleb Bell et al.), and checks that each material's new and aged roughness gives the friction factor implied by its Hazen-Williams C. A transcription is a second reading of the same publication, not a source: where they differ, the publication governs. The Hazen-Williams C values, the NPSH margin and operating-region limits and the motor tables are recalled without such a cross-check.";
+
+/// The references chapter.
+pub(super) fn chapter(blocks: &mut Vec<Block>) {
+    blocks.push(Block::heading(1, "References"));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("No.", 0.05, Align::Right),
+            Column::new("Publication", 0.55, Align::Left),
+            Column::new("Supplies", 0.20, Align::Left),
+            Column::new("Values", 0.20, Align::Left),
+        ],
+        rows: REFERENCES
+            .iter()
+            .enumerate()
+            .map(|(k, (publication, supplies, provenance))| {
+                vec![
+                    format!("[{}]", k + 1),
+                    publication.to_string(),
+                    supplies.to_string(),
+                    provenance.text().to_string(),
+                ]
+            })
+            .collect(),
+        caption: Some("Publications the calculation relies on".into()),
+    });
+    blocks.push(Block::text(CROSS_CHECKS));
+}

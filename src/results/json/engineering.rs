@@ -1,0 +1,266 @@
+//! The wave-2 fields of the results document: what a reviewer recomputes (NPSH
+//! available term by term, every segment at the duty flow, hydraulic and input
+//! power), the motor of each candidate, one pump alone, headroom, capacity and the
+//! requirement × case matrix. Documented field by field in docs/results-json.md.
+
+// JSON keys carry SI unit symbols (`rating_W`) as the contract says.
+#![allow(non_snake_case)]
+
+use serde::Serialize;
+
+use crate::analysis::capacity::RequirementRow;
+use crate::analysis::duty::Headroom;
+use crate::analysis::motor::MotorSizing;
+use crate::analysis::parallel::OneAlone;
+use crate::analysis::{Analysis, NpshTerms, SegmentAtFlow};
+use crate::pumps::MotorStandard;
+
+#[derive(Serialize)]
+pub(super) struct NpshTermsOut {
+    barometric_head_m: f64,
+    surface_pressure_head_m: f64,
+    static_suction_head_m: f64,
+    vapour_pressure_head_m: f64,
+    suction_friction_head_m: f64,
+    suction_minor_head_m: f64,
+}
+
+pub(super) fn npsh_terms(t: &NpshTerms) -> NpshTermsOut {
+    NpshTermsOut {
+        barometric_head_m: t.barometric_head,
+        surface_pressure_head_m: t.surface_pressure_head,
+        static_suction_head_m: t.static_suction_head,
+        vapour_pressure_head_m: t.vapour_pressure_head,
+        suction_friction_head_m: t.suction_friction_head,
+        suction_minor_head_m: t.suction_minor_head,
+    }
+}
+
+#[derive(Serialize)]
+pub(super) struct SegmentOut<'a> {
+    line: &'a str,
+    side: &'static str,
+    index: usize,
+    flow_m3_s: f64,
+    velocity_m_s: f64,
+    velocity_head_m: f64,
+    reynolds: f64,
+    friction_factor: Option<f64>,
+    friction_head_m: f64,
+    minor_head_m: f64,
+    fittings_k: Vec<Option<f64>>,
+}
+
+pub(super) fn segments(s: &[SegmentAtFlow]) -> Vec<SegmentOut<'_>> {
+    s.iter()
+        .map(|g| SegmentOut {
+            line: &g.line,
+            side: g.side.keyword(),
+            index: g.index,
+            flow_m3_s: g.flow,
+            velocity_m_s: g.velocity,
+            velocity_head_m: g.velocity_head,
+            reynolds: g.reynolds,
+            friction_factor: g.friction_factor,
+            friction_head_m: g.friction_head,
+            minor_head_m: g.minor_head,
+            fittings_k: g
+                .fittings_k
+                .iter()
+                .map(|k| k.is_finite().then_some(*k))
+                .collect(),
+        })
+        .collect()
+}
+
+#[derive(Serialize)]
+pub(super) struct HeadroomOut {
+    limit: &'static str,
+    needed: Option<f64>,
+    limit_value: f64,
+    headroom: Option<f64>,
+}
+
+pub(super) fn headroom(h: &Headroom) -> HeadroomOut {
+    HeadroomOut {
+        limit: h.limit.keyword(),
+        needed: h.needed,
+        limit_value: h.limit_value,
+        headroom: h.fraction(),
+    }
+}
+
+#[derive(Serialize)]
+pub(super) struct MotorOut<'a> {
+    standard: &'static str,
+    rating_W: f64,
+    rating_label: &'a str,
+    rating_stated: bool,
+    service_factor: f64,
+    variable_speed: bool,
+    max_operating_shaft_power_W: f64,
+    max_operating_case: &'a str,
+    run_out_shaft_power_W: f64,
+    run_out_case: &'a str,
+    run_out_flow_per_pump_m3_s: f64,
+    run_out_speed_rpm: f64,
+    run_out_density_kg_m3: f64,
+    within_nameplate: bool,
+    non_overloading: bool,
+    efficiency: f64,
+    efficiency_source: &'a str,
+    poles: u32,
+    supply_frequency_Hz: f64,
+}
+
+pub(super) fn motor(m: &MotorSizing) -> MotorOut<'_> {
+    MotorOut {
+        standard: match m.choice.standard {
+            MotorStandard::Nema => "nema",
+            MotorStandard::Iec => "iec",
+        },
+        rating_W: m.choice.rating_w,
+        rating_label: &m.choice.rating_label,
+        rating_stated: m.rating_stated,
+        service_factor: m.choice.service_factor,
+        variable_speed: m.variable_speed,
+        max_operating_shaft_power_W: m.max_operating_shaft_power,
+        max_operating_case: &m.max_operating_case,
+        run_out_shaft_power_W: m.run_out_shaft_power,
+        run_out_case: &m.run_out_case,
+        run_out_flow_per_pump_m3_s: m.run_out_flow,
+        run_out_speed_rpm: m.run_out_speed_rpm,
+        run_out_density_kg_m3: m.run_out_density,
+        within_nameplate: m.choice.within_nameplate,
+        non_overloading: m.choice.non_overloading,
+        efficiency: m.efficiency,
+        efficiency_source: &m.efficiency_source,
+        poles: m.poles,
+        supply_frequency_Hz: m.supply_hz,
+    }
+}
+
+#[derive(Serialize)]
+pub(super) struct OneAloneOut<'a> {
+    case: &'a str,
+    speed_rpm: f64,
+    /// `null` when the pump runs beyond the end of its published curve.
+    duty: Option<OneAloneDutyOut>,
+    status: &'static str,
+    message: &'a str,
+}
+
+#[derive(Serialize)]
+pub(super) struct OneAloneDutyOut {
+    flow_m3_s: f64,
+    head_m: f64,
+    shaft_power_W: Option<f64>,
+    npsh_available_m: f64,
+    npsh_required_m: Option<f64>,
+}
+
+pub(super) fn one_alone(a: &OneAlone) -> OneAloneOut<'_> {
+    OneAloneOut {
+        case: &a.case,
+        speed_rpm: a.speed_rpm,
+        duty: match (a.flow, a.head, a.npsh_available) {
+            (Some(q), Some(h), Some(n)) => Some(OneAloneDutyOut {
+                flow_m3_s: q,
+                head_m: h,
+                shaft_power_W: a.shaft_power,
+                npsh_available_m: n,
+                npsh_required_m: a.npsh_required,
+            }),
+            _ => None,
+        },
+        status: a.check.status.keyword(),
+        message: &a.check.message,
+    }
+}
+
+#[derive(Serialize)]
+pub(super) struct CapacityOut<'a> {
+    case: &'a str,
+    flow_at_limit_m3_s: Option<f64>,
+    required_flow_m3_s: Option<f64>,
+}
+
+/// Candidate `k`'s flow at the limit in every case, with the case's own requirement.
+pub(super) fn capacity<'a>(
+    design: &'a crate::model::Design,
+    analysis: &'a Analysis,
+    k: usize,
+) -> Vec<CapacityOut<'a>> {
+    analysis
+        .cases
+        .iter()
+        .enumerate()
+        .map(|(i, c)| CapacityOut {
+            case: &c.name,
+            flow_at_limit_m3_s: analysis
+                .capacity
+                .get(k)
+                .and_then(|row| row.get(i))
+                .copied()
+                .flatten(),
+            required_flow_m3_s: crate::analysis::duty::required_flow(design, &c.name),
+        })
+        .collect()
+}
+
+#[derive(Serialize)]
+pub(super) struct RequirementOut<'a> {
+    requirement: &'a str,
+    text: &'a str,
+    cases: Vec<RequirementCaseOut<'a>>,
+}
+
+#[derive(Serialize)]
+pub(super) struct RequirementCaseOut<'a> {
+    case: &'a str,
+    applies: bool,
+    candidates: Vec<RequirementStatusOut<'a>>,
+}
+
+#[derive(Serialize)]
+pub(super) struct RequirementStatusOut<'a> {
+    name: &'a str,
+    status: Option<&'static str>,
+}
+
+pub(super) fn requirement_matrix<'a>(
+    design: &'a crate::model::Design,
+    analysis: &'a Analysis,
+    rows: &'a [RequirementRow],
+) -> Vec<RequirementOut<'a>> {
+    rows.iter()
+        .map(|r| RequirementOut {
+            requirement: &r.written,
+            text: &r.text,
+            cases: analysis
+                .cases
+                .iter()
+                .enumerate()
+                .map(|(i, c)| RequirementCaseOut {
+                    case: &c.name,
+                    applies: r.applies.get(i).copied().unwrap_or(false),
+                    candidates: design
+                        .pumps
+                        .iter()
+                        .enumerate()
+                        .map(|(k, p)| RequirementStatusOut {
+                            name: &p.name,
+                            status: r
+                                .status
+                                .get(k)
+                                .and_then(|s| s.get(i))
+                                .copied()
+                                .flatten()
+                                .map(|s| s.keyword()),
+                        })
+                        .collect(),
+                })
+                .collect(),
+        })
+        .collect()
+}
