@@ -193,6 +193,9 @@ struct CheckOut<'a> {
     limit: Option<f64>,
     message: &'a str,
     source: &'a str,
+    /// Wave 2: what the check is about when an id repeats per duty (the velocity's
+    /// side, or the requirement as written in the design).
+    subject: Option<&'a str>,
 }
 
 #[derive(Serialize)]
@@ -343,6 +346,7 @@ fn check(c: &Check) -> CheckOut<'_> {
         limit: c.limit.and_then(finite),
         message: &c.message,
         source: &c.source,
+        subject: c.subject.as_deref(),
     }
 }
 
