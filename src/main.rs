@@ -38,7 +38,7 @@ macro_rules! file_access {
 enum Command {
     /// Check a design file: syntax, units, names, cases.
     #[command(after_help = concat!(
-        "Example:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n\n",
+        "Examples:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n  dutyline check --analyse examples-demo/kestrel-booster.duty\n\nWithout --analyse only the design is checked; with it the analysis runs too and its warnings (curve fits, cases that cannot be set up) count, the same list `results --format json` gives under `warnings`; `--analyse --deny-warnings` gates CI on them.\n\n",
         file_access!(),
         "\n\nExit status: 0 valid, 1 design errors (or warnings with --deny-warnings), 2 usage or I/O errors, 141 standard output closed early."
     ))]
@@ -50,6 +50,10 @@ enum Command {
         /// Treat warnings as errors.
         #[arg(long)]
         deny_warnings: bool,
+        /// Also run the analysis (curve fits, every case and candidate), so its warnings
+        /// are printed and counted, as `results` lists them.
+        #[arg(long, visible_alias = "analyze")]
+        analyse: bool,
     },
     /// Compute and print the results: system curves, duty points, checks, selection.
     #[command(after_help = concat!(
@@ -162,7 +166,16 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
             file,
             access,
             deny_warnings,
-        } => commands::check(&mut out, &file, &access.allow_dir, deny_warnings),
+            analyse,
+        } => commands::check(
+            &mut out,
+            &file,
+            &access.allow_dir,
+            commands::CheckOptions {
+                deny_warnings,
+                analyse,
+            },
+        ),
         Command::Results {
             file,
             access,

@@ -76,18 +76,29 @@ fn analysis_status(analysis: &Analysis) -> ExitCode {
     }
 }
 
+/// The options of `check`.
+pub struct CheckOptions {
+    pub deny_warnings: bool,
+    /// Also run the analysis, so its warnings are printed and counted.
+    pub analyse: bool,
+}
+
 pub fn check(
     out: &mut Out,
     path: &Path,
     allowed: &[PathBuf],
-    deny_warnings: bool,
+    options: CheckOptions,
 ) -> Result<ExitCode, CliError> {
     let source = files::read_named(path)?;
     let files = DiskFiles::for_design(path, allowed)?;
-    let checked = dutyline::check(&source, &files);
+    let mut checked = dutyline::check(&source, &files);
     let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
+    if let (true, 0, Some(design)) = (options.analyse, errors, &checked.design) {
+        let analysis = dutyline::analysis::analyse(design);
+        checked.diagnostics.extend(analysis_warnings(&analysis));
+    }
     let warnings = checked.diagnostics.len() - errors;
-    if errors > 0 || (deny_warnings && warnings > 0) {
+    if errors > 0 || (options.deny_warnings && warnings > 0) {
         let summary = format!(
             "{}: {errors} error(s), {warnings} warning(s)",
             path.display()
@@ -97,6 +108,16 @@ pub fn check(
     output::diagnostics(&checked.diagnostics, path, &source);
     writeln!(out, "{}: valid ({warnings} warning(s))", path.display()).map_err(CliError::stdout)?;
     Ok(ExitCode::SUCCESS)
+}
+
+/// The analysis warnings as diagnostics: with the design's own warnings they are the
+/// `warnings` list of `results --format json`, so both commands count the same.
+pub fn analysis_warnings(analysis: &Analysis) -> Vec<Diagnostic> {
+    analysis
+        .warnings
+        .iter()
+        .map(|w| Diagnostic::warning(w.code, w.message.clone(), w.span))
+        .collect()
 }
 
 pub fn results(

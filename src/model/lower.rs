@@ -127,7 +127,7 @@ pub fn lower(
             "project",
             "the design",
             Span::new(0, 0),
-            "project { title = \"...\" number = \"...\" }",
+            "project { title = \"...\", number = \"...\" }",
         ));
     }
     let mut revisions = Vec::new();
