@@ -10,6 +10,7 @@ mod cli {
     pub mod commands;
     pub mod error;
     pub mod files;
+    pub mod git;
     pub mod output;
 }
 
@@ -38,7 +39,7 @@ macro_rules! file_access {
 enum Command {
     /// Check a design file: syntax, units, names, cases.
     #[command(after_help = concat!(
-        "Example:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n\n",
+        "Examples:\n  dutyline check examples-demo/orchard-lift-rev-a.duty\n  dutyline check --analyse examples-demo/kestrel-booster.duty\n\nWithout --analyse only the design is checked; with it the analysis runs too and its warnings (curve fits, cases that cannot be set up) count, the same list `results --format json` gives under `warnings`; `--analyse --deny-warnings` gates CI on them.\n\n",
         file_access!(),
         "\n\nExit status: 0 valid, 1 design errors (or warnings with --deny-warnings), 2 usage or I/O errors, 141 standard output closed early."
     ))]
@@ -50,10 +51,14 @@ enum Command {
         /// Treat warnings as errors.
         #[arg(long)]
         deny_warnings: bool,
+        /// Also run the analysis (curve fits, every case and candidate), so its warnings
+        /// are printed and counted, as `results` lists them.
+        #[arg(long, visible_alias = "analyze")]
+        analyse: bool,
     },
     /// Compute and print the results: system curves, duty points, checks, selection.
     #[command(after_help = concat!(
-        "Examples:\n  dutyline results examples-demo/orchard-lift-rev-a.duty\n  dutyline results examples-demo/orchard-lift-rev-a.duty --format json > results.json\n\n",
+        "Examples:\n  dutyline results examples-demo/orchard-lift-rev-a.duty\n  dutyline results examples-demo/orchard-lift-rev-a.duty --format json > results.json\n  git show HEAD:examples-demo/kestrel-booster.duty | dutyline results - --exit-zero --base-dir examples-demo\n\nThe last form is what git textconv does, which hands over a temporary copy: the design's CSVs are then read from --base-dir (of the working tree, not of the revision; `dutyline diff --git` reads both from the revision), and --exit-zero keeps git from taking exit 3 for a failure.\n\n",
         file_access!(),
         "\n\nExit status: 0 every case analysed and a candidate recommended, 1 design errors, 2 usage or I/O errors, 3 analysed but no candidate recommended or a case could not be analysed (the results are still printed), 141 standard output closed early (e.g. `| head`)."
     ))]
@@ -65,6 +70,15 @@ enum Command {
         /// Output format.
         #[arg(long, value_enum, default_value = "text")]
         format: Format,
+        /// Resolve the files the design reads (curve CSVs) against DIR instead of the
+        /// design's folder, under the same file-access rule (for git textconv, which
+        /// hands over a temporary copy).
+        #[arg(long, value_name = "DIR")]
+        base_dir: Option<PathBuf>,
+        /// Exit 0 whenever the results are printed, also when no candidate is
+        /// recommended (git textconv takes any other status as a failure).
+        #[arg(long)]
+        exit_zero: bool,
     },
     /// Rewrite design files in the canonical layout (comments kept).
     #[command(
@@ -80,15 +94,21 @@ enum Command {
     },
     /// Show what changed between two revisions: inputs and their effect on every duty point.
     #[command(after_help = concat!(
-        "Examples:\n  dutyline diff examples-demo/orchard-lift-rev-a.duty examples-demo/orchard-lift-rev-b.duty\n  git show HEAD~1:design.duty | dutyline diff - design.duty --format json\n\n",
+        "Examples:\n  dutyline diff examples-demo/orchard-lift-rev-a.duty examples-demo/orchard-lift-rev-b.duty\n  dutyline diff --git HEAD~1 design.duty\n  dutyline diff --git v1..HEAD pumps/lift.duty --format json\n  git show HEAD~1:design.duty | dutyline diff - design.duty\n\nWith --git, git runs in the design's folder; a revision's design reads the curve CSVs of the same revision (`REV:path`), only in its own folder or below (--allow-dir applies to the working tree only).\n\n",
         file_access!(),
         " A revision read from standard input reads from the current folder.\n\nExit status: 0 whether or not there are differences (1 with --exit-code when there are), 1 design errors, 2 usage or I/O errors, 141 standard output closed early."
     ))]
     Diff {
-        /// The earlier revision, or `-` for standard input.
+        /// The earlier revision, or `-` for standard input; with --git a git revision
+        /// (`REV`), or two (`REV1..REV2`).
         old: PathBuf,
-        /// The later revision, or `-` for standard input.
+        /// The later revision, or `-` for standard input; with --git the design's path in
+        /// the working tree.
         new: PathBuf,
+        /// Read OLD (and with `REV1..REV2` also NEW) from git: the design and the files
+        /// it imports as they are in that revision.
+        #[arg(long)]
+        git: bool,
         #[command(flatten)]
         access: Access,
         /// Output format.
@@ -162,12 +182,32 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
             file,
             access,
             deny_warnings,
-        } => commands::check(&mut out, &file, &access.allow_dir, deny_warnings),
+            analyse,
+        } => commands::check(
+            &mut out,
+            &file,
+            &access.allow_dir,
+            commands::CheckOptions {
+                deny_warnings,
+                analyse,
+            },
+        ),
         Command::Results {
             file,
             access,
             format,
-        } => commands::results(&mut out, &file, &access.allow_dir, format),
+            base_dir,
+            exit_zero,
+        } => commands::results(
+            &mut out,
+            &file,
+            &access.allow_dir,
+            commands::ResultsOptions {
+                format,
+                base_dir,
+                exit_zero,
+            },
+        ),
         Command::Build {
             file,
             access,
@@ -190,10 +230,21 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
         Command::Diff {
             old,
             new,
+            git,
             access,
             format,
             exit_code,
-        } => commands::diff(&mut out, &old, &new, &access.allow_dir, format, exit_code),
+        } => commands::diff(
+            &mut out,
+            &old,
+            &new,
+            &access.allow_dir,
+            commands::DiffOptions {
+                format,
+                exit_code,
+                git,
+            },
+        ),
     }?;
     out.flush().map_err(CliError::stdout)?;
     Ok(code)

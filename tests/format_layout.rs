@@ -19,7 +19,11 @@ fn check(src: &str, want: &str) {
 fn separators_spacing_and_alignment_are_normalised() {
     check(
         "project {   title   =\"A\" ;units=us,style = letter }\nlet riser          = 38 ft\n",
-        "project {\n    title = \"A\"\n    units = us\n    style = letter\n}\nlet riser = 38 ft\n",
+        "project { title = \"A\", units = us, style = letter }\nlet riser = 38 ft\n",
+    );
+    check(
+        "project {   title   =\"A\" ;units=us\nstyle = letter }\n",
+        "project {\n    title = \"A\"\n    units = us\n    style = letter\n}\n",
     );
 }
 
@@ -33,10 +37,25 @@ fn expressions_get_canonical_spacing_and_keep_number_text() {
 }
 
 #[test]
-fn one_field_bodies_stay_inline_and_others_expand() {
+fn one_field_bodies_and_one_line_bodies_stay_inline_and_others_expand() {
     check(
-        "case normal {\n  hours = 1400 h\n}\ncase dry { sump.level = 1 m, hours = 2 h }\ncase none {\n\n}\n",
-        "case normal { hours = 1400 h }\ncase dry {\n    sump.level = 1 m\n    hours = 2 h\n}\ncase none { }\n",
+        "case normal {\n  hours = 1400 h\n}\ncase dry { sump.level = 1 m;hours = 2 h }\ncase wet {\n    sump.level = 1 m, hours = 2 h\n}\ncase none {\n\n}\n",
+        "case normal { hours = 1400 h }\ncase dry { sump.level = 1 m, hours = 2 h }\ncase wet {\n    sump.level = 1 m\n    hours = 2 h\n}\ncase none { }\n",
+    );
+    // The README tour's style: several fields and requirements on the header's line.
+    check(
+        "project { title = \"Irrigation lift\", number = \"FB-HYD-007\", units = us }\nrequire { flow >= 700 gpm for normal, dry, npsh_margin >= 1.3 }\n",
+        "project { title = \"Irrigation lift\", number = \"FB-HYD-007\", units = us }\nrequire { flow >= 700 gpm for normal, dry, npsh_margin >= 1.3 }\n",
+    );
+    // A one-line body with a nested block, or too wide, expands.
+    check(
+        "pump A { speed = 1780 rpm, curve x }\n",
+        "pump A {\n    speed = 1780 rpm\n    curve x\n}\n",
+    );
+    let wide = format!("a {{ t = \"{}\", u = 1 }}\n", "x".repeat(70));
+    check(
+        &wide,
+        &format!("a {{\n    t = \"{}\"\n    u = 1\n}}\n", "x".repeat(70)),
     );
     check(
         "require { flow >= 700 gpm for normal,dry }\n",

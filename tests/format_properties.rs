@@ -141,10 +141,12 @@ fn mutate_layout(canonical: &str, ch: &mut Choices) -> String {
     let mut opens_body = false;
     for line in canonical.lines() {
         let field = is_field_line(line);
-        let joinable = (ends_with_field || opens_body) && (field || line.trim() == "}");
+        // A `}` is never joined: a body written on one line is kept on one line, which
+        // is layout the formatter keeps, not noise.
+        let joinable = (ends_with_field || opens_body) && field;
         if joinable && ch.pick(3) == 0 {
             let prev = lines.pop().unwrap_or_default();
-            let sep = if opens_body || line.trim() == "}" {
+            let sep = if opens_body {
                 " "
             } else if ch.pick(2) == 0 {
                 ", "

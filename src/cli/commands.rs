@@ -30,17 +30,41 @@ pub struct Loaded {
 
 /// Read and check a design; diagnostics with any error make it a [`CliError::Rejected`].
 pub fn load(path: &Path, allowed: &[PathBuf]) -> Result<Loaded, CliError> {
+    load_in(path, None, allowed)
+}
+
+/// [`load`], the design's files resolved against `base` instead of the design's folder
+/// when given.
+pub fn load_in(path: &Path, base: Option<&Path>, allowed: &[PathBuf]) -> Result<Loaded, CliError> {
     let source = files::read_named(path)?;
-    let files = DiskFiles::for_design(path, allowed)?;
-    let checked = dutyline::check(&source, &files);
-    if checked.has_errors() {
-        return Err(rejected(path, source, checked.diagnostics, None));
-    }
+    let files = match base {
+        Some(folder) => DiskFiles::in_folder(folder, allowed)?,
+        None => DiskFiles::for_design(path, allowed)?,
+    };
+    let checked = checked(path, &source, &files)?;
     Ok(Loaded {
         source,
         checked,
         files,
     })
+}
+
+/// Check a design's text read through `files`; any error rejects it.
+fn checked(
+    path: &Path,
+    source: &str,
+    files: &dyn dutyline::FileAccess,
+) -> Result<dutyline::Checked, CliError> {
+    let checked = dutyline::check(source, files);
+    if checked.has_errors() {
+        return Err(rejected(
+            path,
+            source.to_string(),
+            checked.diagnostics,
+            None,
+        ));
+    }
+    Ok(checked)
 }
 
 fn rejected(
@@ -76,18 +100,29 @@ fn analysis_status(analysis: &Analysis) -> ExitCode {
     }
 }
 
+/// The options of `check`.
+pub struct CheckOptions {
+    pub deny_warnings: bool,
+    /// Also run the analysis, so its warnings are printed and counted.
+    pub analyse: bool,
+}
+
 pub fn check(
     out: &mut Out,
     path: &Path,
     allowed: &[PathBuf],
-    deny_warnings: bool,
+    options: CheckOptions,
 ) -> Result<ExitCode, CliError> {
     let source = files::read_named(path)?;
     let files = DiskFiles::for_design(path, allowed)?;
-    let checked = dutyline::check(&source, &files);
+    let mut checked = dutyline::check(&source, &files);
     let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
+    if let (true, 0, Some(design)) = (options.analyse, errors, &checked.design) {
+        let analysis = dutyline::analysis::analyse(design);
+        checked.diagnostics.extend(analysis_warnings(&analysis));
+    }
     let warnings = checked.diagnostics.len() - errors;
-    if errors > 0 || (deny_warnings && warnings > 0) {
+    if errors > 0 || (options.deny_warnings && warnings > 0) {
         let summary = format!(
             "{}: {errors} error(s), {warnings} warning(s)",
             path.display()
@@ -99,16 +134,35 @@ pub fn check(
     Ok(ExitCode::SUCCESS)
 }
 
+/// The analysis warnings as diagnostics: with the design's own warnings they are the
+/// `warnings` list of `results --format json`, so both commands count the same.
+pub fn analysis_warnings(analysis: &Analysis) -> Vec<Diagnostic> {
+    analysis
+        .warnings
+        .iter()
+        .map(|w| Diagnostic::warning(w.code, w.message.clone(), w.span))
+        .collect()
+}
+
+/// The options of `results`.
+pub struct ResultsOptions {
+    pub format: Format,
+    /// Resolve the design's files against this folder instead of the design's own.
+    pub base_dir: Option<PathBuf>,
+    /// Exit 0 instead of 3 when no candidate is recommended (git textconv).
+    pub exit_zero: bool,
+}
+
 pub fn results(
     out: &mut Out,
     path: &Path,
     allowed: &[PathBuf],
-    format: Format,
+    options: ResultsOptions,
 ) -> Result<ExitCode, CliError> {
-    let loaded = load(path, allowed)?;
+    let loaded = load_in(path, options.base_dir.as_deref(), allowed)?;
     let design = design_of(&loaded)?;
     let analysis = dutyline::analysis::analyse(design);
-    let text = match format {
+    let text = match options.format {
         Format::Json => dutyline::results::to_json(
             design,
             &analysis,
@@ -119,6 +173,9 @@ pub fn results(
         Format::Text => dutyline::results::to_text(design, &analysis),
     };
     output::text(out, &text)?;
+    if options.exit_zero {
+        return Ok(ExitCode::SUCCESS);
+    }
     Ok(analysis_status(&analysis))
 }
 
@@ -342,31 +399,93 @@ fn print_changed_lines(out: &mut Out, path: &Path, old: &str, new: &str) -> Resu
     output::text(out, &text)
 }
 
-pub fn diff(
-    out: &mut Out,
+/// The options of `diff`.
+pub struct DiffOptions {
+    pub format: Format,
+    pub exit_code: bool,
+    /// OLD is a git revision (`REV`, or `A..B` for both sides) of the design NEW.
+    pub git: bool,
+}
+
+/// One revision of a design: its name in messages, its text and the files it reads.
+struct Side {
+    label: PathBuf,
+    source: String,
+    files: Box<dyn dutyline::FileAccess>,
+}
+
+impl Side {
+    fn disk(path: &Path, allowed: &[PathBuf]) -> Result<Side, CliError> {
+        Ok(Side {
+            label: path.to_path_buf(),
+            source: files::read_named(path)?,
+            files: Box::new(DiskFiles::for_design(path, allowed)?),
+        })
+    }
+
+    fn git(revision: &str, path: &Path) -> Result<Side, CliError> {
+        let (label, source, files) = super::git::read_design(revision, path)?;
+        Ok(Side {
+            label,
+            source,
+            files: Box::new(files),
+        })
+    }
+
+    /// The side checked and analysed.
+    fn analysed(&self) -> Result<(dutyline::Design, Analysis), CliError> {
+        let checked = checked(&self.label, &self.source, self.files.as_ref())?;
+        let design = checked.design.ok_or_else(|| {
+            CliError::Usage(
+                "the design has no errors but could not be built; please report this".into(),
+            )
+        })?;
+        let analysis = dutyline::analysis::analyse(&design);
+        Ok((design, analysis))
+    }
+}
+
+/// The two sides `diff` compares: two files, or git revisions of one design.
+fn diff_sides(
     old: &Path,
     new: &Path,
     allowed: &[PathBuf],
-    format: Format,
-    exit_code: bool,
-) -> Result<ExitCode, CliError> {
+    git: bool,
+) -> Result<(Side, Side), CliError> {
+    if git {
+        let (before, after) = super::git::revisions(&old.to_string_lossy());
+        let before = Side::git(&before, new)?;
+        let after = match after {
+            Some(revision) => Side::git(&revision, new)?,
+            None => Side::disk(new, allowed)?,
+        };
+        return Ok((before, after));
+    }
     if old == Path::new("-") && new == Path::new("-") {
         return Err(CliError::Usage(
             "only one of OLD and NEW may be `-` (standard input)".into(),
         ));
     }
-    let old_loaded = load(old, allowed)?;
-    let new_loaded = load(new, allowed)?;
-    let (old_design, new_design) = (design_of(&old_loaded)?, design_of(&new_loaded)?);
-    let old_analysis = dutyline::analysis::analyse(old_design);
-    let new_analysis = dutyline::analysis::analyse(new_design);
-    let diff = dutyline::diff::diff(old_design, &old_analysis, new_design, &new_analysis);
-    let text = match format {
+    Ok((Side::disk(old, allowed)?, Side::disk(new, allowed)?))
+}
+
+pub fn diff(
+    out: &mut Out,
+    old: &Path,
+    new: &Path,
+    allowed: &[PathBuf],
+    options: DiffOptions,
+) -> Result<ExitCode, CliError> {
+    let (old_side, new_side) = diff_sides(old, new, allowed, options.git)?;
+    let (old_design, old_analysis) = old_side.analysed()?;
+    let (new_design, new_analysis) = new_side.analysed()?;
+    let diff = dutyline::diff::diff(&old_design, &old_analysis, &new_design, &new_analysis);
+    let text = match options.format {
         Format::Text => dutyline::diff::render_text(&diff),
         Format::Json => dutyline::diff::to_json(&diff),
     };
     output::text(out, &text)?;
-    if exit_code && dutyline::diff::has_differences(&diff) {
+    if options.exit_code && dutyline::diff::has_differences(&diff) {
         Ok(ExitCode::from(EXIT_DESIGN))
     } else {
         Ok(ExitCode::SUCCESS)

@@ -93,6 +93,12 @@ pub fn read_named(path: &Path) -> Result<String, CliError> {
         error,
         help: None,
     })?;
+    decode_named(path, bytes)
+}
+
+/// The bytes of a file named on the command line (`path` is how it is named in
+/// messages) as text, or a located diagnostic.
+pub fn decode_named(path: &Path, bytes: Vec<u8>) -> Result<String, CliError> {
     dutyline::syntax::decode_text(bytes).map_err(|error| {
         let mut diagnostic = error.diagnostic();
         if diagnostic.span.is_none() {
@@ -128,6 +134,11 @@ impl DiskFiles {
             Some(p) if design != Path::new("-") && !p.as_os_str().is_empty() => p,
             _ => Path::new("."),
         };
+        DiskFiles::in_folder(folder, allowed)
+    }
+
+    /// Access as for a design in `folder` (`results --base-dir`).
+    pub fn in_folder(folder: &Path, allowed: &[PathBuf]) -> Result<DiskFiles, CliError> {
         let base = fs::canonicalize(folder).map_err(|error| CliError::Read {
             path: folder.to_path_buf(),
             error: io_error(error),

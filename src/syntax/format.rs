@@ -7,7 +7,8 @@
 //!
 //! # The canonical layout
 //!
-//! * **Lines.** One statement per line; `,` and `;` separators become line breaks.
+//! * **Lines.** One statement per line; `,` and `;` separators become line breaks,
+//!   except inside a one-line body (see **Blocks**).
 //!   Indentation is 4 spaces per level; lines end in `\n`; no trailing white space;
 //!   the file ends with one line break (an empty file stays empty).
 //! * **Spacing.** Single spaces between block words and arguments
@@ -26,11 +27,13 @@
 //!   statement's indentation. (A text holding both a line break and `"""` prints in
 //!   `"` quotes with `\n` escapes.)
 //! * **Blocks.** `keyword args {`, the body one level deeper, `}` on its own line.
-//!   A body prints on the header's line in exactly two cases, and only when no comment
-//!   lies between its braces: an empty body prints `{ }`; a body of exactly one field
-//!   or requirement (`name = value`, `flow >= 700 gpm`) prints `{ hours = 1400 h }`
+//!   A body prints on the header's line in exactly three cases, and only when no
+//!   comment lies between its braces: an empty body prints `{ }`; a body of exactly one
+//!   field or requirement (`name = value`, `flow >= 700 gpm`) prints `{ hours = 1400 h }`;
+//!   a body of several fields or requirements that the source already wrote on one line
+//!   stays there, separated by `, ` (`project { title = "A", units = us }`). Either only
 //!   when the whole line, indentation included, is at most [`MAX_INLINE_WIDTH`]
-//!   characters and the value is on one line. Every other body is expanded.
+//!   characters and every value is on one line. Every other body is expanded.
 //! * **Curve tables.** The header and each row on their own line, one level inside
 //!   the `curve ... {`. Header cells are `name unit`; each column is as wide as its
 //!   widest cell (header included), cells are left-aligned and columns are
@@ -56,7 +59,7 @@ use crate::diagnostics::{Diagnostic, Span};
 
 /// Indentation of one level.
 pub const INDENT: &str = "    ";
-/// Widest line, in characters, on which a one-field body may stay on its header's line.
+/// Widest line, in characters, on which a body may stay on its header's line.
 pub const MAX_INLINE_WIDTH: usize = 80;
 /// Space between the columns of a curve table.
 const TABLE_GUTTER: &str = "   ";
@@ -189,13 +192,13 @@ impl<'a> Printer<'a> {
             if body.is_empty() {
                 return self.emit(depth, &format!("{head} {{ }}"), end, limit);
             }
-            if let [only] = body {
-                if is_field(only) {
-                    let line = format!("{head} {{ {} }}", self.simple(only, depth + 1));
-                    let width = INDENT.len() * depth + line.chars().count();
-                    if !line.contains('\n') && width <= MAX_INLINE_WIDTH {
-                        return self.emit(depth, &line, end, limit);
-                    }
+            let one_line_source = !self.src[open..close].contains(['\n', '\r']);
+            if body.iter().all(is_field) && (body.len() == 1 || one_line_source) {
+                let fields: Vec<String> = body.iter().map(|f| self.simple(f, depth + 1)).collect();
+                let line = format!("{head} {{ {} }}", fields.join(", "));
+                let width = INDENT.len() * depth + line.chars().count();
+                if !line.contains('\n') && width <= MAX_INLINE_WIDTH {
+                    return self.emit(depth, &line, end, limit);
                 }
             }
         }

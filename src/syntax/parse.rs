@@ -279,12 +279,18 @@ fn syntax_error(source: &str, e: pest::error::Error<Rule>) -> Diagnostic {
         }
     };
     let end = (pos + found_text.len().max(1)).min(source.len());
-    let help = if found_text.starts_with('"') {
+    let help = if let Some(scale) = degree_written_apart(source, pos, &found_text) {
+        format!(
+            "did you mean `{scale}`? A temperature unit is written in one word: {scale} or °{}",
+            &scale[3..]
+        )
+    } else if found_text.starts_with('"') {
         "a quoted text must end on the same line; use \"\"\" ... \"\"\" for text over several lines"
+            .into()
     } else if found == "end of file" {
-        "is a closing `}` missing?"
+        "is a closing `}` missing?".into()
     } else {
-        "see grammar/LANGUAGE.md for the statements and values the language accepts"
+        "see grammar/LANGUAGE.md for the statements and values the language accepts".into()
     };
     Diagnostic::error(
         "syntax",
@@ -293,6 +299,30 @@ fn syntax_error(source: &str, e: pest::error::Error<Rule>) -> Diagnostic {
     )
     .with_label(format!("expected {expected_text}"))
     .with_help(help)
+}
+
+/// The temperature scale meant when `deg F`, `degree C` or `° C` is written apart: the
+/// word before `pos` is a degree and the text found there names a scale, or the text
+/// found is a `°` apart from its scale.
+fn degree_written_apart(source: &str, pos: usize, found: &str) -> Option<&'static str> {
+    if let Some(rest) = source.get(pos..).and_then(|r| r.strip_prefix('°')) {
+        let letters: String = rest
+            .trim_start_matches([' ', '\t'])
+            .chars()
+            .take_while(|c| c.is_alphabetic())
+            .collect();
+        return crate::units::temperature_spelling(&letters);
+    }
+    let before = source.get(..pos)?;
+    let word_end = before.trim_end_matches([' ', '\t']);
+    let apart = word_end.len() < before.len();
+    let degree = ["deg", "degree", "degrees", "°"]
+        .iter()
+        .any(|w| word_end.to_lowercase().ends_with(w));
+    let letters: String = found.chars().take_while(|c| c.is_alphabetic()).collect();
+    (apart && degree)
+        .then(|| crate::units::temperature_spelling(&letters))
+        .flatten()
 }
 
 fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {

@@ -124,5 +124,5 @@ mod unit;
 pub use dimension::Dimension;
 pub use parse::parse_unit;
 pub use quantity::{Quantity, QuantityError, QuantityKind};
-pub use registry::{lookup, registry, suggest, UnitDef};
+pub use registry::{lookup, registry, suggest, temperature_spelling, UnitDef};
 pub use unit::{CurrencyGuard, PressureReference, Unit, UnitError};

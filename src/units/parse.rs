@@ -274,6 +274,17 @@ fn unknown_name(name: &str, t: Token) -> UnitError {
         format!("unknown unit '{name}': write powers with '^', e.g. {stem}^{power}")
     } else if marked == Some("psi") {
         format!("unknown unit '{name}': write psig (gauge) or psia (absolute)")
+    } else if let Some(scale) = registry::temperature_spelling(name) {
+        let mut err = UnitError::new(
+            format!(
+                "unknown unit '{name}': a temperature is written {scale} (or °{})",
+                &scale[3..]
+            ),
+            t.start,
+            t.end - t.start,
+        );
+        err.suggestions = vec![scale.to_string()];
+        return err;
     } else if marked.is_some() {
         format!("unknown unit '{name}': the marks (g) and (a) go only on Pa, kPa, MPa and bar")
     } else {

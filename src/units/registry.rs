@@ -219,6 +219,17 @@ pub(crate) fn is_currency(def: &UnitDef) -> bool {
     def.dim == D::MONEY
 }
 
+/// The temperature scale meant by a common spelling that is not a unit name here:
+/// `C`, `celsius` → `degC`; `F`, `fahrenheit` → `degF` (the letter after a `deg ` or
+/// `° ` written apart, or the scale's name spelt out).
+pub fn temperature_spelling(name: &str) -> Option<&'static str> {
+    match name.to_lowercase().as_str() {
+        "c" | "celsius" | "centigrade" => Some("degC"),
+        "f" | "fahrenheit" => Some("degF"),
+        _ => None,
+    }
+}
+
 /// Nearest known unit names to an unknown one (edit distance, case-insensitive), best first,
 /// at most 3. Names farther than 2 edits (1 for names of up to 2 characters) are not offered.
 pub fn suggest(name: &str) -> Vec<String> {

@@ -27,7 +27,7 @@ pub fn lower_texts(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> T
             "project",
             "the design",
             blocks.first_line_span(),
-            "project { title = \"...\" number = \"...\" }",
+            "project { title = \"...\", number = \"...\" }",
         ));
     }
     let revisions = blocks
