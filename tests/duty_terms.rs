@@ -13,9 +13,10 @@ const PSI: f64 = 6_894.757_293_168;
 
 struct DemoFiles;
 impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, String> {
+    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
         let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full).map_err(|e| e.to_string())
+        std::fs::read_to_string(full)
+            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
     }
 }
 

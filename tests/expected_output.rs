@@ -10,8 +10,9 @@ use std::path::{Path, PathBuf};
 
 struct DemoFiles;
 impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, String> {
-        std::fs::read_to_string(format!("examples-demo/{path}")).map_err(|e| e.to_string())
+    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
+        std::fs::read_to_string(format!("examples-demo/{path}"))
+            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
     }
 }
 

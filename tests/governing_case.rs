@@ -9,9 +9,10 @@ use dutyline::analysis::Analysis;
 
 struct DemoFiles;
 impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, String> {
+    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
         let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full).map_err(|e| e.to_string())
+        std::fs::read_to_string(full)
+            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
     }
 }
 

@@ -211,9 +211,11 @@ fn water_that_freezes_or_boils_is_an_error_at_check_time() {
 
 #[test]
 fn a_case_that_cannot_be_analysed_means_no_recommendation() {
-    // A destination at zero absolute pressure cannot be set up: known only when analysed.
+    // A destination gauge pressure of -15.2 psi (-104.8 kPa) passes the input range check
+    // (gauge above -110 kPa) but is below absolute zero at the site's barometric pressure
+    // (about 101.3 kPa at sea level, U.S. Standard Atmosphere 1976): known only when analysed.
     let src = design(
-        "case normal { hours = 1000 h }\ncase broken { b.pressure = 0 psia }",
+        "case normal { hours = 1000 h }\ncase broken { b.pressure = -15.2 psi }",
         "    flow >= 250 gpm",
     );
     let a = analyse(&src);
