@@ -127,11 +127,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     }
                 }
                 None => {
-                    let _ = writeln!(
-                        o,
-                        "    no duty point: {}",
-                        r.failure.as_deref().unwrap_or("unknown")
-                    );
+                    let _ = writeln!(o, "    {}", r.failure.as_deref().unwrap_or("no duty point"));
                 }
             }
             if let Some(q) = r.capacity_flow {

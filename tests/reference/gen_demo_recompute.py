@@ -1,11 +1,12 @@
 #!/usr/bin/env python3
 """Independent recomputation of every demo in examples-demo/ by reference libraries.
 
-For each demo the script runs, from the crate root,
+For each demo (and each design of tests/designs/recompute-*.duty, which put the demos'
+tanks under pressure and vacuum, gauge and absolute) the script runs, from the crate root,
 
-    cargo run -q -- results examples-demo/<demo>.duty --format json
+    cargo run -q -- results <path>.duty --format json
 
-saves the document as tests/reference/demo_<demo>.json (so the CSV records its
+saves the document as tests/reference/demo_<name>.json (so the CSV records its
 inputs), and recomputes from the document's INPUTS only (fluid temperature, site
 elevation or stated barometric pressure, tank levels and gauge pressures, pump
 centreline, segment inner diameters, lengths, roughness, Hazen-Williams C, fitting
@@ -44,7 +45,16 @@ losses, properties or duty values the engine computed:
   stable one for a rising system curve), searched up to 110 % of the published flow;
 - NPSH available at each duty flow term by term (ANSI/HI 9.6.1 definition):
   p_source_abs/(rho g) + (z_source - z_centreline) - suction losses - p_v/(rho g);
-- shaft power = rho g Q H / efficiency per pump, times the running pumps.
+- NPSH available split further into barometric head p_baro/(rho g) and surface gauge
+  pressure head (p_source_abs - p_baro)/(rho g);
+- shaft power = rho g Q H / efficiency per pump, times the running pumps; hydraulic
+  power rho g Q H; input power = shaft / (motor efficiency x drive efficiency), the two
+  efficiencies read from the document (the design's, or the class value it names);
+- velocity next to the pump = Q / (pi D^2 / 4) of the last suction segment and of the
+  first discharge segment;
+- energy per year = input power x running hours: the case's hours, or, where the case
+  has a flow requirement (read from the document's `capacity[].required_flow_m3_s`),
+  hours x required flow / reference duty flow.
 
 Writes tests/reference/demo_recompute.csv:
     demo, case, pump, quantity, flow_m3_s, value
@@ -78,7 +88,12 @@ from scipy.optimize import brentq
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(os.path.dirname(HERE))
-DEMOS = ["orchard-lift-rev-a", "kestrel-booster"]
+DEMOS = [
+    ("orchard-lift-rev-a", "examples-demo/orchard-lift-rev-a.duty"),
+    ("kestrel-booster", "examples-demo/kestrel-booster.duty"),
+    ("recompute-pressure-us", "tests/designs/recompute-pressure-us.duty"),
+    ("recompute-pressure-si", "tests/designs/recompute-pressure-si.duty"),
+]
 G = 9.80665  # standard gravity, m/s2 (CGPM 1901)
 INCH = 0.0254  # m, exact (NIST SP 811)
 HW_SI = 10.67  # Hazen-Williams SI constant (Williams and Hazen)
@@ -211,7 +226,8 @@ class System:
     def npsh_terms(self, q):
         rho_g = self.rho * G
         return {
-            "npsh_pressure_head_m": self.p1 / rho_g,
+            "npsh_barometric_head_m": self.barometric / rho_g,
+            "npsh_surface_pressure_head_m": (self.p1 - self.barometric) / rho_g,
             "npsh_static_head_m": self.z1 - self.zc,
             "npsh_suction_loss_m": self.losses(q)[2],
             "npsh_vapour_head_m": self.pv / rho_g,
@@ -280,12 +296,40 @@ def duty(system, candidate, pump):
     return out
 
 
-def run_engine(demo):
+def area(seg):
+    return math.pi * seg["inner_diameter_m"] ** 2 / 4.0
+
+
+def powers(system, case, candidate, pump, ref):
+    """Velocities next to the pump, hydraulic and input power, energy per year."""
+    q, h = ref["duty_flow_m3_s"], ref["duty_head_m"]
+    suction = [s for s in system.segments if s["side"] == "suction"]
+    discharge = [s for s in system.segments if s["side"] == "discharge"]
+    out = {
+        "suction_velocity_m_s": q / area(suction[-1]),
+        "discharge_velocity_m_s": q / area(discharge[0]),
+        "hydraulic_power_W": system.rho * G * q * h,
+    }
+    shaft = ref.get("shaft_power_W")
+    if shaft is None:
+        return out
+    engine = pump["duty"]
+    inp = shaft / (engine["motor_efficiency"] * engine["drive_efficiency"])
+    out["input_power_W"] = inp
+    hours = case["hours_per_year"]
+    if hours > 0.0:
+        required = next(c["required_flow_m3_s"] for c in candidate["capacity"]
+                        if c["case"] == case["name"])
+        running = hours * required / q if required else hours
+        out["annual_energy_J"] = inp * running * 3600.0
+    return out
+
+
+def run_engine(demo, design_path):
     path = os.path.join(HERE, f"demo_{demo}.json")
     if "--from-json" not in sys.argv:
         text = subprocess.run(
-            ["cargo", "run", "-q", "--", "results", f"examples-demo/{demo}.duty",
-             "--format", "json"],
+            ["cargo", "run", "-q", "--", "results", design_path, "--format", "json"],
             cwd=ROOT, check=True, capture_output=True, text=True).stdout
         with open(path, "w") as fh:
             fh.write(text)
@@ -295,8 +339,8 @@ def run_engine(demo):
 
 def main():
     rows, header = [], []
-    for demo in DEMOS:
-        doc = run_engine(demo)
+    for demo, design_path in DEMOS:
+        doc = run_engine(demo, design_path)
         header.append(f"# {demo}: demo_{demo}.json from dutyline {doc['tool_version']}, "
                       f"source sha256 {doc['source']['sha256']}")
         candidates = {c["name"]: c for c in doc["candidates"]}
@@ -334,9 +378,13 @@ def main():
                 terms = sys_.npsh_terms(q)
                 for quantity, value in terms.items():
                     add(name, pump["name"], quantity, q, value)
-                npsha = (terms["npsh_pressure_head_m"] + terms["npsh_static_head_m"]
-                         - terms["npsh_suction_loss_m"] - terms["npsh_vapour_head_m"])
+                npsha = (terms["npsh_barometric_head_m"] + terms["npsh_surface_pressure_head_m"]
+                         + terms["npsh_static_head_m"] - terms["npsh_suction_loss_m"]
+                         - terms["npsh_vapour_head_m"])
                 add(name, pump["name"], "npsh_available_m", q, npsha)
+                for quantity, value in powers(sys_, case, candidates[pump["name"]], pump,
+                                              ref).items():
+                    add(name, pump["name"], quantity, q, value)
     out = os.path.join(HERE, "demo_recompute.csv")
     with open(out, "w", newline="") as fh:
         fh.write(f"# generated by tests/reference/gen_demo_recompute.py with python "
