@@ -12,6 +12,7 @@ mod cli {
     pub mod files;
     pub mod git;
     pub mod output;
+    pub mod starter;
 }
 
 use cli::commands::{self, Format};
@@ -142,6 +143,24 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Write a commented starter design that checks and builds as written.
+    #[command(
+        after_help = "Examples:\n  dutyline new pumps/intake\n  dutyline new booster.duty --units si\n\nNAME gets `.duty` unless it ends so; the title is the file's name. An existing file is never replaced, and the folder must exist.\nExit status: 0 written, 2 usage or I/O errors (including an existing NAME), 141 standard output closed early."
+    )]
+    New {
+        /// The design to write (`NAME.duty`).
+        name: PathBuf,
+        /// Report units of the starter.
+        #[arg(long, value_enum, default_value = "us")]
+        units: Units,
+    },
+}
+
+/// The report units of a starter design.
+#[derive(Clone, Copy, clap::ValueEnum)]
+enum Units {
+    Us,
+    Si,
 }
 
 /// The folders a design may read from besides its own (`--allow-dir`).
@@ -245,6 +264,9 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
                 git,
             },
         ),
+        Command::New { name, units } => {
+            commands::new_design(&mut out, &name, matches!(units, Units::Si))
+        }
     }?;
     out.flush().map_err(CliError::stdout)?;
     Ok(code)

@@ -4,7 +4,7 @@
 use std::process::Command;
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const COMMANDS: [&str; 5] = ["check", "results", "build", "fmt", "diff"];
+const COMMANDS: [&str; 6] = ["check", "results", "build", "fmt", "diff", "new"];
 
 fn help(command: &str) -> String {
     let out = Command::new(BIN)

@@ -491,3 +491,26 @@ pub fn diff(
         Ok(ExitCode::SUCCESS)
     }
 }
+
+pub fn new_design(out: &mut Out, name: &Path, si: bool) -> Result<ExitCode, CliError> {
+    let path = if name.extension().is_some_and(|e| e == "duty") {
+        name.to_path_buf()
+    } else {
+        let mut with = name.as_os_str().to_owned();
+        with.push(".duty");
+        PathBuf::from(with)
+    };
+    let title = path
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_else(|| "New design".into());
+    files::write_new(&path, super::starter::starter(&title, si).as_bytes())?;
+    writeln!(
+        out,
+        "wrote {}; check it with `dutyline check --analyse {}`",
+        path.display(),
+        path.display()
+    )
+    .map_err(CliError::stdout)?;
+    Ok(ExitCode::SUCCESS)
+}

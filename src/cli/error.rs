@@ -57,6 +57,8 @@ pub enum WriteProblem {
     IsADesign,
     /// An existing file that is not a PDF, kept unless `--force`.
     NotAPdf,
+    /// An existing file, never replaced (`new`).
+    Exists,
     /// The system refused (permissions, full disk, ...).
     Io(std::io::Error),
 }
@@ -144,6 +146,11 @@ impl WriteProblem {
                 "output-refused",
                 format!("the output `{path}` exists and is not a PDF; it is not overwritten"),
                 "choose another `-o`, or add `--force` to replace it".to_string(),
+            ),
+            WriteProblem::Exists => (
+                "output-refused",
+                format!("`{path}` exists; `dutyline new` never replaces a file"),
+                "choose another name, or remove the file first".to_string(),
             ),
             WriteProblem::Io(e) => (
                 "write-failed",

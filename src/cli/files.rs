@@ -287,3 +287,32 @@ pub fn write_atomically(path: &Path, bytes: &[u8]) -> Result<(), CliError> {
         problem: WriteProblem::Io(e),
     })
 }
+
+/// Write a new file whole, never replacing one: the temporary file, then a hard link
+/// to `path` (which fails when `path` exists), then the temporary is removed.
+pub fn write_new(path: &Path, bytes: &[u8]) -> Result<(), CliError> {
+    let failed = |problem| CliError::Write {
+        path: path.to_path_buf(),
+        problem,
+    };
+    if let Ok(metadata) = fs::symlink_metadata(path) {
+        return Err(failed(match special_kind(&metadata) {
+            Some(kind) => WriteProblem::NotARegularFile(kind),
+            None => WriteProblem::Exists,
+        }));
+    }
+    let tmp = temporary_for(path);
+    let _ = fs::remove_file(&tmp);
+    let result = OpenOptions::new()
+        .write(true)
+        .create_new(true)
+        .open(&tmp)
+        .and_then(|mut file| file.write_all(bytes).and_then(|()| file.sync_all()))
+        .and_then(|()| fs::hard_link(&tmp, path));
+    let _ = fs::remove_file(&tmp);
+    match result {
+        Ok(()) => Ok(()),
+        Err(e) if e.kind() == ErrorKind::AlreadyExists => Err(failed(WriteProblem::Exists)),
+        Err(e) => Err(failed(WriteProblem::Io(e))),
+    }
+}
