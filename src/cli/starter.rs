@@ -52,6 +52,7 @@ case aged { roughness = aged }
 
 require {
     flow >= 500 gpm for normal
+    flow >= 450 gpm for aged
     npsh_margin >= 1.3
 }
 
@@ -119,6 +120,7 @@ case aged { roughness = aged }
 
 require {
     flow >= 110 m^3/h for normal
+    flow >= 100 m^3/h for aged
     npsh_margin >= 1.3
 }
 
