@@ -24,6 +24,7 @@ pub(super) fn chapter(
         .find_map(|c| c.system.as_ref().map(|s| (c, s)))
     {
         pipe_segments(blocks, case, system, units);
+        pipe_condition(blocks, analysis, system, units);
         fittings(blocks, design, case, system, units);
     }
     cases(blocks, analysis);
@@ -171,6 +172,38 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
             case.name
         )),
     });
+}
+
+/// The roughness or Hazen-Williams C each case uses on each segment (aged cases
+/// included): the effective pipe inputs a reviewer recomputes with.
+fn pipe_condition(blocks: &mut Vec<Block>, analysis: &Analysis, first: &CaseSystem, units: &Units) {
+    let headers: Vec<String> = first
+        .segments
+        .iter()
+        .map(|g| format!("{} {}", g.line, g.index + 1))
+        .collect();
+    let rows: Vec<Vec<String>> = analysis
+        .cases
+        .iter()
+        .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+        .map(|(case, system)| {
+            let mut cells = vec![case.name.clone()];
+            cells.extend(system.segments.iter().map(|g| {
+                g.hazen_williams_c
+                    .map(|hazen_c| format!("C = {hazen_c}"))
+                    .unwrap_or_else(|| units.roughness().text(g.roughness))
+            }));
+            cells.resize(headers.len() + 1, "—".into());
+            cells
+        })
+        .collect();
+    super::matrix_tables(
+        blocks,
+        "Case",
+        &headers,
+        &rows,
+        "Roughness or Hazen-Williams C used per case and segment (each case's pipe condition)",
+    );
 }
 
 /// Every fitting's K at the first duty flow, and the losses given in the design.

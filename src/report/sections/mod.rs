@@ -111,6 +111,48 @@ fn group_label(group: usize, groups: usize) -> String {
     }
 }
 
+/// Data columns per matrix table (cases or segments across); wider matrices are
+/// split into several tables, each repeating the row label.
+pub const MATRIX_COLUMNS: usize = 7;
+
+/// A matrix table (row label, then one column per item) split into tables of at most
+/// [`MATRIX_COLUMNS`] item columns; `headers` are the item columns' headers and every
+/// row holds its label followed by one cell per item.
+fn matrix_tables(
+    blocks: &mut Vec<Block>,
+    label: &str,
+    headers: &[String],
+    rows: &[Vec<String>],
+    caption: &str,
+) {
+    use super::layout::document::{Align, Column};
+    let groups = headers.len().div_ceil(MATRIX_COLUMNS).max(1);
+    let per = headers.len().div_ceil(groups).max(1);
+    for (k, start) in (0..headers.len()).step_by(per).enumerate() {
+        let end = (start + per).min(headers.len());
+        let share = 0.78 / per as f64;
+        let mut columns = vec![Column::new(label, 0.22, Align::Left)];
+        columns.extend(
+            headers[start..end]
+                .iter()
+                .map(|h| Column::new(h.clone(), share, Align::Right)),
+        );
+        let cells = rows
+            .iter()
+            .map(|row| {
+                let mut out = vec![row[0].clone()];
+                out.extend(row[1 + start..1 + end].iter().cloned());
+                out
+            })
+            .collect();
+        blocks.push(Block::Table {
+            columns,
+            rows: cells,
+            caption: Some(format!("{caption}{}", group_label(k, groups))),
+        });
+    }
+}
+
 /// The lines in their first order, each once.
 fn dedup(lines: Vec<String>) -> Vec<String> {
     let mut out: Vec<String> = Vec::new();

@@ -1,6 +1,7 @@
 //! A pump candidate's chapter: its summary, published curves and fits, the plots
 //! (`plots.rs`), the duty table and the remarks.
 
+mod detail;
 mod plots;
 
 use super::{dedup, group_label};
@@ -42,6 +43,17 @@ pub(super) fn chapter(
         plots::power_plot(blocks, pump, motor, results, &part, units);
     }
     duty_table(blocks, pump, &all_results, units);
+    detail::npsh_terms(blocks, pump, &all_results, units);
+    detail::power(blocks, pump, &all_results, units);
+    detail::segments(blocks, pump, &all_results, units);
+    let capacity = analysis.capacity.get(index).map_or(&[][..], Vec::as_slice);
+    detail::headroom(blocks, pump, &all_results, capacity, units);
+    if let Some(Some(sizing)) = analysis.motor_sizing.get(index) {
+        detail::motor(blocks, pump, sizing, units);
+    }
+    if let Some(Some(alone)) = analysis.one_alone.get(index) {
+        detail::one_alone(blocks, pump, alone, units);
+    }
     remarks(blocks, pump, &all_results);
 }
 

@@ -1,0 +1,412 @@
+//! What a reviewer recomputes for a candidate, printed from the analysis: NPSH
+//! available term by term, every segment at each duty, hydraulic, shaft and input
+//! power with specific energy and wire-to-water efficiency, headroom and capacity,
+//! the motor findings and one pump of a parallel set running alone.
+
+use super::CaseRun;
+use crate::analysis::duty::AdjustLimit;
+use crate::analysis::motor::MotorSizing;
+use crate::analysis::parallel::OneAlone;
+use crate::display::{percent, typeset, Units};
+use crate::model::PumpCandidate;
+use crate::report::layout::document::{Align, Block, Column};
+
+/// "—" for a missing value.
+fn or_dash(value: Option<String>) -> String {
+    value.unwrap_or_else(|| "—".into())
+}
+
+/// NPSH available per case, term by term, against NPSH required (NPSH3).
+pub(super) fn npsh_terms(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let hd = units.head();
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .filter_map(|(case, run)| {
+            let duty = run.duty.as_ref()?;
+            let t = &duty.npsh_terms;
+            let ratio = duty
+                .npsh_required
+                .filter(|r| *r > 0.0)
+                .map(|r| typeset(duty.npsh_available / r, 2));
+            let excess = duty
+                .npsh_required
+                .map(|r| hd.figure(duty.npsh_available - r));
+            Some(vec![
+                case.name.clone(),
+                hd.figure(t.barometric_head),
+                hd.figure(t.surface_pressure_head),
+                hd.figure(t.static_suction_head),
+                hd.figure(t.vapour_pressure_head),
+                hd.figure(t.suction_friction_head),
+                hd.figure(t.suction_minor_head),
+                hd.figure(duty.npsh_available),
+                or_dash(duty.npsh_required.map(|r| hd.figure(r))),
+                or_dash(ratio),
+                or_dash(excess),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("NPSH available term by term, {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.12, Align::Left),
+            Column::new("Barometric", 0.09, Align::Right),
+            Column::new("Surface gauge", 0.09, Align::Right),
+            Column::new("Static suction", 0.09, Align::Right),
+            Column::new("Vapour pressure", 0.09, Align::Right),
+            Column::new("Suction friction", 0.09, Align::Right),
+            Column::new("Suction minor", 0.08, Align::Right),
+            Column::new("NPSHa", 0.08, Align::Right),
+            Column::new("NPSHr (NPSH3)", 0.08, Align::Right),
+            Column::new("Ratio", 0.06, Align::Right),
+            Column::new("Excess", 0.07, Align::Right),
+        ],
+        rows,
+        caption: Some(format!(
+            "Heads in {} of the case's fluid at the duty flow, signed as they add: NPSHa = barometric + surface gauge + static suction + vapour pressure + suction friction + suction minor (equation 5); ratio = NPSHa/NPSHr, excess = NPSHa − NPSHr",
+            hd.label
+        )),
+    });
+}
+
+/// Every segment at each case's duty flow: flow, velocity, Re, f, friction and minor
+/// head and the K of each fitting at that Reynolds number.
+pub(super) fn segments(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let (fl, hd, vel) = (units.flow(), units.head(), units.velocity());
+    let mut rows = Vec::new();
+    for (case, run) in results {
+        let Some(duty) = &run.duty else { continue };
+        for segment in &duty.segments {
+            rows.push(vec![
+                case.name.clone(),
+                format!("{} {}", segment.line, segment.index + 1),
+                fl.figure(segment.flow),
+                vel.figure(segment.velocity),
+                format!("{:.3e}", segment.reynolds).replace('e', " × 10^"),
+                or_dash(segment.friction_factor.map(|f| format!("{f:.5}"))),
+                format!("{:.3}", hd.value(segment.friction_head)),
+                format!("{:.3}", hd.value(segment.minor_head)),
+                if segment.fittings_k.is_empty() {
+                    "—".into()
+                } else {
+                    segment
+                        .fittings_k
+                        .iter()
+                        .map(|k| format!("{k:.3}"))
+                        .collect::<Vec<_>>()
+                        .join(", ")
+                },
+            ]);
+        }
+    }
+    if rows.is_empty() {
+        return;
+    }
+    for row in &mut rows {
+        row[4] = superscript_exponent(&row[4]);
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("Segments at the duty points of {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.11, Align::Left),
+            Column::new("Line / seg.", 0.11, Align::Left),
+            Column::new(format!("Flow ({})", fl.label), 0.09, Align::Right),
+            Column::new(format!("Velocity ({})", vel.label), 0.09, Align::Right),
+            Column::new("Reynolds number", 0.12, Align::Right),
+            Column::new("Friction factor f", 0.09, Align::Right),
+            Column::new(format!("Friction head ({})", hd.label), 0.10, Align::Right),
+            Column::new(format!("Minor head ({})", hd.label), 0.09, Align::Right),
+            Column::new("K of each fitting, in order", 0.20, Align::Left),
+        ],
+        rows,
+        caption: Some(
+            "Each segment at the duty flow: f by Colebrook or the laminar law (— where Hazen-Williams C applies); minor head = ΣK·v²/(2g) with the K listed (count as in the fittings table) plus stated losses".into(),
+        ),
+    });
+}
+
+/// "1.234 × 10^5" with the exponent as superscript digits: "1.234 × 10⁵".
+fn superscript_exponent(text: &str) -> String {
+    let Some((mantissa, exponent)) = text.split_once("^") else {
+        return text.to_string();
+    };
+    let digits: String = exponent
+        .chars()
+        .map(|c| match c {
+            '-' => '⁻',
+            '0' => '⁰',
+            '1' => '¹',
+            '2' => '²',
+            '3' => '³',
+            '4' => '⁴',
+            '5' => '⁵',
+            '6' => '⁶',
+            '7' => '⁷',
+            '8' => '⁸',
+            '9' => '⁹',
+            other => other,
+        })
+        .collect();
+    format!("{mantissa}{digits}")
+}
+
+/// Hydraulic, shaft and input power, the efficiencies between them, specific energy
+/// and the yearly hours and volume.
+pub(super) fn power(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let (pw, se, vol) = (units.power(), units.specific_energy(), units.volume());
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .filter_map(|(case, run)| {
+            let duty = run.duty.as_ref()?;
+            Some(vec![
+                case.name.clone(),
+                pw.figure(duty.hydraulic_power),
+                or_dash(duty.shaft_power.map(|p| pw.figure(p))),
+                or_dash(duty.efficiency.map(percent)),
+                percent(duty.motor_efficiency),
+                percent(duty.drive_efficiency),
+                or_dash(duty.input_power.map(|p| pw.figure(p))),
+                or_dash(duty.wire_to_water_efficiency.map(percent)),
+                or_dash(duty.specific_energy.map(|e| se.figure(e))),
+                or_dash(run.energy.map(|e| format!("{:.0}", e.hours))),
+                or_dash(run.energy.map(|e| vol.figure(e.volume_m3))),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("Power and energy of {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.12, Align::Left),
+            Column::new(format!("Hydraulic ({})", pw.label), 0.09, Align::Right),
+            Column::new(format!("Shaft ({})", pw.label), 0.08, Align::Right),
+            Column::new("Pump eff.", 0.08, Align::Right),
+            Column::new("Motor eff.", 0.08, Align::Right),
+            Column::new("Drive eff.", 0.08, Align::Right),
+            Column::new(format!("Input ({})", pw.label), 0.08, Align::Right),
+            Column::new("Wire to water", 0.08, Align::Right),
+            Column::new(format!("Specific energy ({})", se.label), 0.11, Align::Right),
+            Column::new("Hours per year", 0.09, Align::Right),
+            Column::new(format!("Volume per year ({})", vol.label), 0.11, Align::Right),
+        ],
+        rows,
+        caption: Some(
+            "Whole arrangement at each duty (equation 6): hydraulic = ρ·g·Q·H, shaft = hydraulic / pump efficiency, input = shaft / (motor × drive efficiency); wire to water = hydraulic / input; specific energy = input / flow".into(),
+        ),
+    });
+}
+
+/// Per case the speed or diameter needed, the limit, the headroom left and the flow
+/// at the limit (capacity); only for candidates that adjust speed or trim.
+pub(super) fn headroom(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    capacity: &[Option<f64>],
+    units: &Units,
+) {
+    let fl = units.flow();
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .enumerate()
+        .filter_map(|(k, (case, run))| {
+            let room = run.headroom?;
+            let what = match room.limit {
+                AdjustLimit::Speed => "speed",
+                AdjustLimit::Trim => "impeller diameter",
+            };
+            Some(vec![
+                case.name.clone(),
+                what.to_string(),
+                or_dash(room.needed.map(percent)),
+                percent(room.limit_value),
+                or_dash(
+                    room.fraction()
+                        .map(|f| format!("{} %", typeset(f * 100.0, 1))),
+                ),
+                or_dash(
+                    capacity
+                        .get(k)
+                        .copied()
+                        .flatten()
+                        .or(run.capacity_flow)
+                        .map(|q| fl.text(q)),
+                ),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(2, format!("Headroom of {}", pump.name)));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.16, Align::Left),
+            Column::new("Adjusted", 0.16, Align::Left),
+            Column::new("Needed (of published)", 0.16, Align::Right),
+            Column::new("Limit (of published)", 0.16, Align::Right),
+            Column::new("Headroom", 0.14, Align::Right),
+            Column::new("Flow at the limit", 0.22, Align::Right),
+        ],
+        rows,
+        caption: Some(
+            "Speed or diameter each case needs to meet its flow requirement, against the design's limit; headroom = (limit − needed)/limit, below 5 % warned (common practice)".into(),
+        ),
+    });
+}
+
+/// The motor: rating, how it was chosen, the largest operating and run-out shaft
+/// power per pump with where they occur, loading, service factor and efficiency.
+pub(super) fn motor(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    sizing: &MotorSizing,
+    units: &Units,
+) {
+    let (fl, pw) = (units.flow(), units.power());
+    let choice = &sizing.choice;
+    let mut rows = vec![
+        (
+            "Rating (nameplate)".to_string(),
+            format!(
+                "{} per pump, {}",
+                choice.rating_label,
+                if sizing.rating_stated {
+                    "stated in the design"
+                } else {
+                    "the smallest standard rating covering the largest operating shaft power"
+                }
+            ),
+        ),
+        (
+            "Largest operating shaft power".into(),
+            format!(
+                "{} per pump in case {} ({} of rating)",
+                pw.text(sizing.max_operating_shaft_power),
+                sizing.max_operating_case,
+                percent(choice.loading_ratio)
+            ),
+        ),
+        (
+            "Largest shaft power to run-out".into(),
+            format!(
+                "{} per pump in case {} at {} per pump, {:.0} rpm ({} of rating; {})",
+                pw.text(sizing.run_out_shaft_power),
+                sizing.run_out_case,
+                fl.text(sizing.run_out_flow),
+                sizing.run_out_speed_rpm,
+                percent(choice.runout_loading_ratio),
+                if choice.non_overloading {
+                    "non-overloading"
+                } else {
+                    "overloads before the end of the curve"
+                }
+            ),
+        ),
+        (
+            "Service factor".into(),
+            format!(
+                "{} on the nameplate, reported as margin and not used for sizing{}",
+                typeset(choice.service_factor, 2),
+                if sizing.variable_speed {
+                    "; taken as 1.00 on a variable-frequency drive"
+                } else {
+                    ""
+                }
+            ),
+        ),
+        (
+            "Motor efficiency".into(),
+            format!(
+                "{} at full load, {}-pole at {:.0} Hz ({})",
+                percent(sizing.efficiency),
+                sizing.poles,
+                sizing.supply_hz,
+                super::super::sources::publication(&sizing.efficiency_source, units)
+            ),
+        ),
+    ];
+    rows.extend(
+        choice
+            .warnings
+            .iter()
+            .map(|w| ("Finding".to_string(), super::super::wording::plain(w))),
+    );
+    blocks.push(Block::heading(2, format!("Motor of {}", pump.name)));
+    blocks.push(Block::KeyValue(rows));
+}
+
+/// One pump of a parallel set running alone against the lowest-head case.
+pub(super) fn one_alone(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    alone: &OneAlone,
+    units: &Units,
+) {
+    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
+    blocks.push(Block::heading(
+        2,
+        format!("One pump of {} running alone", pump.name),
+    ));
+    blocks.push(Block::KeyValue(vec![
+        (
+            "Case".into(),
+            format!(
+                "{} (lowest system head), {:.0} rpm",
+                alone.case, alone.speed_rpm
+            ),
+        ),
+        (
+            "Duty point".into(),
+            match (alone.flow, alone.head) {
+                (Some(q), Some(h)) => format!("{} at {}", fl.text(q), hd.text(h)),
+                _ => "beyond the end of the published curve: no published data there".into(),
+            },
+        ),
+        (
+            "Shaft power".into(),
+            or_dash(alone.shaft_power.map(|p| pw.text(p))),
+        ),
+        (
+            "NPSHa / NPSHr".into(),
+            format!(
+                "{} / {}",
+                or_dash(alone.npsh_available.map(|n| hd.text(n))),
+                or_dash(alone.npsh_required.map(|n| hd.text(n)))
+            ),
+        ),
+        (
+            "Finding".into(),
+            super::super::wording::plain(&alone.check.message),
+        ),
+    ]));
+}
