@@ -9,6 +9,9 @@ use codespan_reporting::files::SimpleFile;
 use codespan_reporting::term;
 use serde::Serialize;
 
+mod code;
+pub use code::Code;
+
 /// A byte range in a source file.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
 pub struct Span {
@@ -38,8 +41,8 @@ pub enum Severity {
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct Diagnostic {
     pub severity: Severity,
-    /// Stable short code, e.g. `unit-mismatch`, `unknown-name`.
-    pub code: &'static str,
+    /// What kind of problem it is; [`Code::as_str`] is the stable short string.
+    pub code: Code,
     pub message: String,
     /// Primary location; `None` for whole-file problems (I/O, size).
     pub span: Option<Span>,
@@ -52,7 +55,7 @@ pub struct Diagnostic {
 }
 
 impl Diagnostic {
-    pub fn error(code: &'static str, message: impl Into<String>, span: Option<Span>) -> Self {
+    pub fn error(code: Code, message: impl Into<String>, span: Option<Span>) -> Self {
         Diagnostic {
             severity: Severity::Error,
             code,
@@ -63,7 +66,7 @@ impl Diagnostic {
             help: None,
         }
     }
-    pub fn warning(code: &'static str, message: impl Into<String>, span: Option<Span>) -> Self {
+    pub fn warning(code: Code, message: impl Into<String>, span: Option<Span>) -> Self {
         Diagnostic {
             severity: Severity::Warning,
             ..Diagnostic::error(code, message, span)
@@ -156,7 +159,7 @@ fn to_codespan(d: &Diagnostic, len: usize) -> CsDiagnostic<()> {
     if let Some(help) = &d.help {
         notes.push(format!("help: {help}"));
     }
-    base.with_code(d.code)
+    base.with_code(d.code.as_str())
         .with_message(d.message.clone())
         .with_labels(labels)
         .with_notes(notes)

@@ -47,7 +47,10 @@ pub fn check(source: &str, files: &dyn FileAccess) -> Checked {
             let (mut design, mut diagnostics) = model::lower(&file, source, files);
             // Cases whose water cannot be analysed are errors at check time (issue 10.5).
             if let Some(d) = &design {
-                let water = model::scenario::water_state_errors(d);
+                let mut water = model::vacuum::absolute_pressure_errors(d);
+                if water.is_empty() {
+                    water = model::scenario::water_state_errors(d);
+                }
                 if !water.is_empty() {
                     diagnostics.extend(water);
                     design = None;

@@ -1,6 +1,7 @@
 //! Behaviour a user sees: demos check, analyse and build; broken designs get
 //! located diagnostics; no input panics.
 
+use dutyline::diagnostics::Code;
 use std::collections::BTreeMap;
 
 use dutyline::diagnostics::{line_col, render};
@@ -106,7 +107,7 @@ fn unknown_unit_suggests_the_nearest() {
     let d = c
         .diagnostics
         .iter()
-        .find(|d| d.code == "unknown-unit")
+        .find(|d| d.code == Code::UnknownUnit)
         .expect("unknown unit");
     assert_eq!(line_col(&src, d.span.unwrap().start), (3, 21));
     assert!(
@@ -140,7 +141,7 @@ fn unknown_pipe_size_lists_nearest_valid_ones() {
     let d = c
         .diagnostics
         .iter()
-        .find(|d| d.code == "unknown-pipe-size")
+        .find(|d| d.code == Code::UnknownPipeSize)
         .expect("size error");
     assert!(
         d.help.as_deref().unwrap_or("").contains("4 in schedule 40"),

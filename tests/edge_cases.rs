@@ -4,6 +4,7 @@
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::Analysis;
+use dutyline::diagnostics::Code;
 use dutyline::diagnostics::Diagnostic;
 
 /// A small SI system: water at 15 °C, 1 m above the pump to 31 m above it, 4 in steel.
@@ -63,7 +64,7 @@ impl Run {
             .find(|p| p.name == name)
             .expect("pump result")
     }
-    fn analysis_warning(&self, code: &str) -> Option<&str> {
+    fn analysis_warning(&self, code: Code) -> Option<&str> {
         self.analysis
             .warnings
             .iter()
@@ -186,7 +187,7 @@ fn zero_static_head_warns_and_the_friction_sets_the_duty() {
         ),
     ]));
     let w = r
-        .analysis_warning("static-head")
+        .analysis_warning(Code::StaticHead)
         .expect("static-head warning");
     assert!(w.contains("0.00 m"), "{w}");
     let d = r.pump("P").duty.as_ref().expect("duty");
@@ -206,7 +207,7 @@ fn negative_static_head_warns_and_an_oversized_pump_finds_no_duty() {
         ),
     ]));
     let w = r
-        .analysis_warning("static-head")
+        .analysis_warning(Code::StaticHead)
         .expect("static-head warning");
     assert!(w.contains("-6.00 m") && w.contains("gravity"), "{w}");
     assert!(r.pump("P").duty.is_some());
@@ -215,7 +216,7 @@ fn negative_static_head_warns_and_an_oversized_pump_finds_no_duty() {
         "tank b { level = 40 m }",
         "tank b { level = 2 m }",
     )]));
-    assert!(r.analysis_warning("static-head").is_some());
+    assert!(r.analysis_warning(Code::StaticHead).is_some());
     let p = r.pump("P");
     assert!(p.duty.is_none());
     let c = check(p, "duty-point");
@@ -338,7 +339,7 @@ fn zero_length_segment_warns_and_counts_only_its_fittings() {
     let w = r
         .diagnostics
         .iter()
-        .find(|d| d.code == "zero-length")
+        .find(|d| d.code == Code::ZeroLength)
         .expect("zero-length warning");
     assert!(!w.is_error());
     let at = w.span.expect("span").start;
@@ -389,7 +390,7 @@ fn drooping_curve_crossing_twice_is_named() {
     );
     assert!(has_warning(p, "largest flow is taken"), "{:?}", p.warnings);
     let curve = r
-        .analysis_warning("pump-curve")
+        .analysis_warning(Code::PumpCurve)
         .expect("pump-curve warning");
     assert!(curve.contains("drooping"), "{curve}");
     // The stable crossing is the one at the larger flow.
@@ -494,7 +495,7 @@ fn boiling_water_with_a_suction_lift_has_negative_npsh() {
         ),
     ]));
     let w = r
-        .analysis_warning("npsh-negative")
+        .analysis_warning(Code::NpshNegative)
         .expect("npsh-negative warning");
     assert!(w.contains("boil"), "{w}");
     let p = r.pump("P");

@@ -1,5 +1,6 @@
 //! The canonical layout, rule by rule (see `dutyline::syntax::format`).
 
+use dutyline::diagnostics::Code;
 use dutyline::syntax::format_source;
 
 fn fmt(src: &str) -> String {
@@ -198,7 +199,7 @@ fn crlf_and_empty_files() {
 #[test]
 fn syntax_errors_are_returned_as_diagnostics() {
     let err = format_source("project {\n title = \n}\n").unwrap_err();
-    assert!(err.iter().any(|d| d.code == "syntax"), "{err:?}");
+    assert!(err.iter().any(|d| d.code == Code::Syntax), "{err:?}");
 }
 
 #[test]

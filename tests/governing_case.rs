@@ -6,6 +6,7 @@
 
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::Analysis;
+use dutyline::diagnostics::Code;
 
 struct DemoFiles;
 impl dutyline::FileAccess for DemoFiles {
@@ -46,7 +47,7 @@ fn the_hot_aged_case_is_warned_about_against_peak() {
         .warnings
         .iter()
         .find(|w| {
-            w.code == "governing-case"
+            w.code == Code::GoverningCase
                 && w.message.contains("KR1")
                 && w.message.contains("hot_aged")
         })
@@ -61,7 +62,7 @@ fn the_hot_aged_case_is_warned_about_against_peak() {
     assert!(a
         .warnings
         .iter()
-        .filter(|w| w.code == "governing-case")
+        .filter(|w| w.code == Code::GoverningCase)
         .all(|w| !w.message.contains("in case peak the set")));
 }
 
@@ -75,7 +76,7 @@ fn giving_the_case_its_own_requirement_answers_the_warning() {
     assert!(
         a.warnings
             .iter()
-            .filter(|w| w.code == "governing-case")
+            .filter(|w| w.code == Code::GoverningCase)
             .all(|w| !w.message.contains("hot_aged") && !w.message.contains("low_well")),
         "{:?}",
         a.warnings

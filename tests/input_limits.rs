@@ -1,6 +1,7 @@
 //! Input limits: a file too large, too many cases, segments or curve points each give
 //! one clear error, and the limit itself is still accepted.
 
+use dutyline::diagnostics::Code;
 use std::collections::BTreeMap;
 use std::fmt::Write;
 
@@ -130,7 +131,7 @@ fn a_file_above_the_size_limit_is_refused_before_parsing() {
     assert!(c.design.is_none());
     assert_eq!(c.diagnostics.len(), 1);
     let d = &c.diagnostics[0];
-    assert_eq!(d.code, "file-too-large");
+    assert_eq!(d.code, Code::FileTooLarge);
     assert!(
         d.message
             .contains(&format!("limited to {MAX_SOURCE_BYTES} bytes")),
@@ -138,7 +139,7 @@ fn a_file_above_the_size_limit_is_refused_before_parsing() {
         d.message
     );
     let from_bytes = dutyline::syntax::source_from_bytes(src.into_bytes());
-    assert_eq!(from_bytes.expect_err("too large").code, "file-too-large");
+    assert_eq!(from_bytes.expect_err("too large").code, Code::FileTooLarge);
     // Exactly at the limit is still read.
     let at_limit = vec![b' '; MAX_SOURCE_BYTES];
     assert!(dutyline::syntax::source_from_bytes(at_limit).is_ok());

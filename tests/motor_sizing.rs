@@ -6,6 +6,7 @@
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::Analysis;
+use dutyline::diagnostics::Code;
 
 /// 1 hp = 550 ft·lbf/s = 745.699 87 W (NIST SP 811, 2008, Appendix B).
 const HP: f64 = 745.699_871_582_270_2;
@@ -249,7 +250,7 @@ fn sites_above_1000_m_warn_that_ratings_hold_to_1000_m_and_40_c() {
     let w = a
         .warnings
         .iter()
-        .find(|w| w.code == "motor-altitude")
+        .find(|w| w.code == Code::MotorAltitude)
         .expect("altitude warning");
     // 1000 m = 3280.8 ft; 40 °C = 104.0 °F; US units only.
     assert!(w.message.contains("3280.8 ft"), "{}", w.message);
@@ -262,5 +263,5 @@ fn sites_above_1000_m_warn_that_ratings_hold_to_1000_m_and_40_c() {
     // 3000 ft (914 m) is below the limit: no warning.
     let src = src.replace("elevation = 4000 ft", "elevation = 3000 ft");
     let (_, a) = analyse(&src);
-    assert!(a.warnings.iter().all(|w| w.code != "motor-altitude"));
+    assert!(a.warnings.iter().all(|w| w.code != Code::MotorAltitude));
 }

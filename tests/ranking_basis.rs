@@ -211,14 +211,21 @@ fn water_that_freezes_or_boils_is_an_error_at_check_time() {
 
 #[test]
 fn a_case_that_cannot_be_analysed_means_no_recommendation() {
-    // A destination gauge pressure of -15.2 psi (-104.8 kPa) passes the input range check
-    // (gauge above -110 kPa) but is below absolute zero at the site's barometric pressure
-    // (about 101.3 kPa at sea level, U.S. Standard Atmosphere 1976): known only when analysed.
+    // `check` rejects a tank below absolute zero (tests/regression_input.rs), so the
+    // engine's own refusal is reached by editing a checked design: a destination gauge
+    // pressure of -104.8 kPa (-15.2 psi) at sea level (about 101.3 kPa barometric, U.S.
+    // Standard Atmosphere 1976) leaves an absolute pressure below zero.
     let src = design(
-        "case normal { hours = 1000 h }\ncase broken { b.pressure = -15.2 psi }",
+        "case normal { hours = 1000 h }\ncase broken { hours = 0 h }",
         "    flow >= 250 gpm",
     );
-    let a = analyse(&src);
+    let checked = dutyline::check(&src, &dutyline::NoFiles);
+    let mut d = checked.design.expect("design");
+    d.cases[1].scenario.destination.surface_pressure =
+        dutyline::model::SurfacePressure::Gauge(uom::si::f64::Pressure::new::<
+            uom::si::pressure::kilopascal,
+        >(-104.8));
+    let a = dutyline::analysis::analyse(&d);
     assert!(a.cases[1].error.is_some());
     assert!(a.selection.recommended.is_none());
     assert!(a.selection.ranking.iter().all(|r| !r.qualifies));

@@ -1,6 +1,7 @@
 //! Regression tests for hostile and broken input: each names the issue and the failure
 //! it fixes, and failed before the fix.
 
+use dutyline::diagnostics::Code;
 use dutyline::diagnostics::{line_col, Diagnostic};
 
 const DEMO: &str = include_str!("../examples-demo/orchard-lift-rev-a.duty");
@@ -16,7 +17,7 @@ fn diagnostics(src: &str) -> Vec<Diagnostic> {
 }
 
 /// The first error with this code, its line and column and the text under its span.
-fn error_at(src: &str, code: &str) -> (Diagnostic, (usize, usize), String) {
+fn error_at(src: &str, code: Code) -> (Diagnostic, (usize, usize), String) {
     let all = diagnostics(src);
     let d = all
         .iter()
@@ -43,21 +44,21 @@ fn line_of(src: &str, needle: &str) -> usize {
 fn tiny_bore_is_a_located_error() {
     // Issue 11: `pipe steel bore 1e-300 m` passed check and printed NaN heads.
     let src = demo_with("pipe steel 8 in schedule 40", "pipe steel bore 1e-300 m");
-    let (d, (line, _), text) = error_at(&src, "out-of-range");
+    let (d, (line, _), text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "1e-300 m");
     assert_eq!(line, line_of(&src, "bore 1e-300"));
     assert!(d.message.contains("pipe bore"), "{}", d.message);
     // The pipe's fittings are not reported as coming before any pipe as well.
     assert!(!diagnostics(&src)
         .iter()
-        .any(|d| d.code == "fitting-before-pipe"));
+        .any(|d| d.code == Code::FittingBeforePipe));
 }
 
 #[test]
 fn huge_energy_price_is_a_located_error() {
     // Issue 11: `price = 1e308 EUR/kWh` printed `inf EUR`.
     let src = demo_with("price = 0.118 USD/kWh", "price = 1e308 EUR/kWh");
-    let (d, _, text) = error_at(&src, "out-of-range");
+    let (d, _, text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "1e308 EUR/kWh");
     assert_eq!(
         line_col(&src, d.span.unwrap().start).0,
@@ -70,11 +71,11 @@ fn huge_energy_price_is_a_located_error() {
 fn huge_pipe_length_is_a_located_error() {
     // Issue 11: `length = 1e308 m` gave a solver message with `-inf`.
     let src = demo_with("length = 18 ft", "length = 1e308 m");
-    let (d, _, text) = error_at(&src, "out-of-range");
+    let (d, _, text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "1e308 m");
     assert!(d.message.contains("pipe length"), "{}", d.message);
     // And no zero-length warning for the length that was refused.
-    assert!(!diagnostics(&src).iter().any(|d| d.code == "zero-length"));
+    assert!(!diagnostics(&src).iter().any(|d| d.code == Code::ZeroLength));
 }
 
 #[test]
@@ -84,7 +85,7 @@ fn tiny_hazen_williams_c_is_a_located_error() {
         "{ length = 18 ft }",
         "{ length = 18 ft, hazen_williams_c = 1e-300 }",
     );
-    let (d, _, text) = error_at(&src, "out-of-range");
+    let (d, _, text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "1e-300");
     assert!(d.message.contains("Hazen-Williams C"), "{}", d.message);
 }
@@ -94,7 +95,7 @@ fn huge_curve_head_is_a_located_error() {
     // Issue 11: a curve head of `1e308` gave "RMS NaN m".
     let row = "        0          186       0              -";
     let src = demo_with(row, "        0          1e308       0              -");
-    let (d, (line, _), text) = error_at(&src, "out-of-range");
+    let (d, (line, _), text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "1e308");
     assert_eq!(line, line_of(&src, "1e308"));
     assert!(d.message.contains("curve head"), "{}", d.message);
@@ -105,13 +106,13 @@ fn negative_curve_cell_names_its_column() {
     // Issue 11: a curve row `-10` was read as `-` and `10` ("this row has 5 values").
     let row = "        200        184       41             6.0";
     let src = demo_with(row, "        200        -10       41             6.0");
-    let (d, _, text) = error_at(&src, "out-of-range");
+    let (d, _, text) = error_at(&src, Code::OutOfRange);
     assert_eq!(text, "-10");
     assert_eq!(
         d.message,
         "negative values are not allowed in the `head` column"
     );
-    assert!(!diagnostics(&src).iter().any(|d| d.code == "bad-row"));
+    assert!(!diagnostics(&src).iter().any(|d| d.code == Code::BadRow));
 }
 
 #[test]
@@ -120,7 +121,7 @@ fn long_tank_name_fails_at_check() {
     // with "the header row is taller than half a page".
     let name = format!("t{}", "a".repeat(99_999));
     let src = DEMO.replace("wet_well", &name);
-    let (d, (line, column), _) = error_at(&src, "too-long");
+    let (d, (line, column), _) = error_at(&src, Code::TooLong);
     assert_eq!((line, column), (line_of(&src, "tank t"), 6));
     assert!(d.message.contains("100000 characters"), "{}", d.message);
 }
@@ -133,7 +134,7 @@ fn long_pump_name_fails_at_check_quickly() {
         &format!("pump {} \"End", "A".repeat(100_000)),
     );
     let start = std::time::Instant::now();
-    let (_, _, text) = error_at(&src, "too-long");
+    let (_, _, text) = error_at(&src, Code::TooLong);
     assert_eq!(text.len(), 100_000);
     assert!(start.elapsed().as_secs_f64() < 5.0, "{:?}", start.elapsed());
 }
@@ -142,7 +143,7 @@ fn long_pump_name_fails_at_check_quickly() {
 fn long_text_is_a_located_error() {
     // Issue 11: texts had no length limit (10 000 characters now).
     let src = format!("{DEMO}\nnote \"{}\"\n", "x".repeat(10_001));
-    let (_, (line, column), _) = error_at(&src, "too-long");
+    let (_, (line, column), _) = error_at(&src, Code::TooLong);
     assert_eq!((line, column), (line_of(&src, "note \"x"), 6));
 }
 
@@ -189,7 +190,7 @@ fn too_many_cases_points_at_the_first_case_over() {
     // Issue 11: `too-many` had no line:column.
     let extra: String = (0..200).map(|n| format!("case c{n} {{ }}\n")).collect();
     let src = format!("{DEMO}{extra}");
-    let (d, (line, _), text) = error_at(&src, "too-many");
+    let (d, (line, _), text) = error_at(&src, Code::TooMany);
     // The demo has 4 cases, so case 201 is `c196`.
     assert_eq!(text, "c196");
     assert_eq!(line, line_of(&src, "case c196 "));
@@ -207,7 +208,7 @@ fn too_many_pumps_points_at_the_first_pump_over() {
         .map(|n| pump.replacen("pump A ", &format!("pump X{n} "), 1))
         .collect();
     let src = format!("{DEMO}{extra}");
-    let (d, (line, _), _) = error_at(&src, "too-many");
+    let (d, (line, _), _) = error_at(&src, Code::TooMany);
     assert!(d.message.contains("pumps"), "{}", d.message);
     assert!(
         line > DEMO.lines().count(),
@@ -223,7 +224,7 @@ fn too_many_segments_points_at_the_first_segment_over() {
         "    fitting entrance_rounded\n",
         &format!("    fitting entrance_rounded\n{extra}"),
     );
-    let (d, (line, column), _) = error_at(&src, "too-many");
+    let (d, (line, column), _) = error_at(&src, Code::TooMany);
     assert!(d.message.contains("pipe segments"), "{}", d.message);
     // Segment 101: the suction line's own pipe, then 100 more; the 101st is the 100th added.
     assert_eq!(
@@ -238,7 +239,7 @@ fn missing_discharge_line_is_located() {
     let start = DEMO.find("line discharge").unwrap();
     let end = DEMO.find("case normal").unwrap();
     let src = format!("{}{}", &DEMO[..start], &DEMO[end..]);
-    let (d, (line, _), text) = error_at(&src, "missing-line");
+    let (d, (line, _), text) = error_at(&src, Code::MissingLine);
     assert_eq!(text, "suction");
     assert_eq!(line, line_of(&src, "line suction"));
     assert!(d
@@ -246,4 +247,78 @@ fn missing_discharge_line_is_located() {
         .as_deref()
         .unwrap_or("")
         .contains("line discharge from pump"));
+}
+
+#[test]
+fn zero_speed_is_a_located_error() {
+    // Issue 11: a speed of 0 rpm must never reach the analysis, on the pump or in a case.
+    let src = demo_with("speed = 1780 rpm", "speed = 0 rpm");
+    let (_, (line, _), text) = error_at(&src, Code::OutOfRange);
+    assert_eq!(text, "0 rpm");
+    assert_eq!(line, line_of(&src, "speed = 0 rpm"));
+    let in_case = demo_with("hours = 1400 h", "hours = 1400 h\n    A.speed = 0 rpm");
+    let (d, _, text) = error_at(&in_case, Code::OutOfRange);
+    assert_eq!(text, "0 rpm");
+    assert!(d.message.contains("greater than zero"), "{}", d.message);
+}
+
+#[test]
+fn a_candidate_without_a_usable_curve_reports_its_rated_speed() {
+    // Issue 11: a candidate whose curve could not be used printed "pump P at 0 rpm".
+    let mut design = dutyline::check(DEMO, &dutyline::NoFiles)
+        .design
+        .expect("the demo checks");
+    let rated = design.pumps[0]
+        .rated_speed
+        .get::<uom::si::frequency::cycle_per_minute>();
+    design.pumps[0].curves.clear();
+    let analysis = dutyline::analysis::analyse(&design);
+    let result = &analysis.cases[0].pumps[0];
+    assert_eq!(result.speed_rpm, rated);
+    assert!(result.duty.is_none());
+    let text = dutyline::results::to_text(&design, &analysis);
+    assert!(!text.contains(" 0 rpm"), "{text}");
+}
+
+#[test]
+fn a_vacuum_below_absolute_zero_is_an_error_at_check() {
+    // Issue 11: the lower bound of a tank's gauge pressure was a fixed -110 kPa, so
+    // -15.2 psig (-104.8 kPa) at the demo's 1205 ft, where the U.S. Standard Atmosphere
+    // 1976 gives about 14.07 psi (97.0 kPa) barometric, passed `check` and failed only
+    // in the analysis.
+    let src = demo_with(
+        "hours = 1400 h",
+        "hours = 1400 h\n    wet_well.pressure = -15.2 psig",
+    );
+    let (d, (line, _), _) = error_at(&src, Code::OutOfRange);
+    assert!(d.message.contains("below absolute zero"), "{}", d.message);
+    assert!(
+        d.message.contains("psi") && !d.message.contains("kPa"),
+        "{}",
+        d.message
+    );
+    assert_eq!(line, line_of(&src, "case normal"));
+    // A vacuum vessel above absolute zero stays legal: -13 psig at 1205 ft.
+    let legal = demo_with(
+        "hours = 1400 h",
+        "hours = 1400 h\n    wet_well.pressure = -13 psig",
+    );
+    assert!(!diagnostics(&legal).iter().any(|d| d.is_error()));
+}
+
+#[test]
+fn a_date_that_does_not_exist_is_an_error() {
+    // A revision dated 2026-02-30 was accepted: only months 1-12 and days 1-31 were tested.
+    for (date, valid) in [
+        ("2026-02-30", false),
+        ("2026-04-31", false),
+        ("2100-02-29", false),
+        ("2026-02-28", true),
+        ("2028-02-29", true),
+        ("2000-02-29", true),
+    ] {
+        let src = format!("revision A {date} \"first issue\"\n{DEMO}");
+        let bad = diagnostics(&src).iter().any(|d| d.code == Code::BadDate);
+        assert_eq!(bad, !valid, "{date}");
+    }
 }

@@ -2,6 +2,7 @@
 //! names the issue and the failure it fixed, and drives the built binary in a temporary
 //! folder of its own.
 
+use dutyline::diagnostics::Code;
 use std::io::Read;
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
@@ -269,23 +270,27 @@ fn file_access_errors_are_typed_and_their_help_follows_the_kind() {
     let kinds = [
         (
             FileError::NotFound,
-            "file-not-read",
+            Code::FileNotRead,
             "relative to the folder",
         ),
-        (FileError::TooLarge { line: 9 }, "file-too-large", "1 MiB"),
+        (FileError::TooLarge { line: 9 }, Code::FileTooLarge, "1 MiB"),
         (
             FileError::NotUtf8 { line: 2, column: 5 },
-            "invalid-utf8",
+            Code::InvalidUtf8,
             "UTF-8",
         ),
         (
             FileError::NotRegularFile {
                 kind: "a FIFO (named pipe)",
             },
-            "not-a-regular-file",
+            Code::NotARegularFile,
             "ordinary file",
         ),
-        (FileError::OutsideAllowed, "file-not-allowed", "--allow-dir"),
+        (
+            FileError::OutsideAllowed,
+            Code::FileNotAllowed,
+            "--allow-dir",
+        ),
     ];
     for (error, code, help) in kinds {
         let checked = dutyline::check(&source, &Refusing(error.clone()));

@@ -1,6 +1,7 @@
 //! Regressions of issue 16 as a user meets them: one-line blocks through `fmt --check`,
 //! temperature spellings, and `check --analyse` counting the analysis warnings.
 
+use dutyline::diagnostics::Code;
 mod cli_common;
 
 use cli_common::{both, copy_demos, dutyline, scratch};
@@ -63,7 +64,10 @@ fn temperature_spellings_suggest_degc_or_degf() {
     // Already right: `°C` in one word.
     let demo = "fluid water { temperature = 82 °C }\n";
     let checked = dutyline::check(demo, &dutyline::NoFiles);
-    assert!(checked.diagnostics.iter().all(|d| d.code != "unknown-unit"));
+    assert!(checked
+        .diagnostics
+        .iter()
+        .all(|d| d.code != Code::UnknownUnit));
 }
 
 /// The number in "valid (N warning(s))" or "N error(s), M warning(s)".

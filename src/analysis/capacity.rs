@@ -6,6 +6,7 @@
 use super::checks::Status;
 use super::limits::CheckId;
 use super::{CaseResult, Warning};
+use crate::diagnostics::Code;
 use crate::display::Units;
 use crate::model::{Design, Metric};
 
@@ -104,7 +105,7 @@ pub fn governing_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning>
             if any_flow_requirement && q < q_max {
                 let (qs, ms) = fl.fmt_against(q, q_max);
                 out.push(Warning {
-                    code: "governing-case",
+                    code: Code::GoverningCase,
                     message: format!(
                         "pump {}: in case {} the set delivers {qs} at its limit (maximum speed, largest impeller allowed), below the {ms} required in case {governing}; if case {} must deliver that flow, give it its own flow requirement",
                         p.name, c.name, c.name

@@ -4,6 +4,7 @@
 //! Pure functions of a [`Design`]; the outputs (report, results, diff) read an
 //! [`Analysis`] and never recompute engineering values.
 
+use crate::diagnostics::Code;
 pub mod capacity;
 pub mod checks;
 pub mod duty;
@@ -45,9 +46,16 @@ pub struct Analysis {
 /// A remark of the analysis, with the design-file line where it applies when known.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Warning {
-    pub code: &'static str,
+    pub code: crate::diagnostics::Code,
     pub message: String,
     pub span: Option<crate::diagnostics::Span>,
+}
+
+impl Warning {
+    /// The warning as a [`crate::diagnostics::Diagnostic`], rendered like the design's own.
+    pub fn diagnostic(&self) -> crate::diagnostics::Diagnostic {
+        crate::diagnostics::Diagnostic::warning(self.code, self.message.clone(), self.span)
+    }
 }
 
 /// One point of a system curve.
@@ -85,7 +93,7 @@ pub fn analyse(design: &Design) -> Analysis {
     for c in &candidates {
         for w in &c.warnings {
             warnings.push(Warning {
-                code: "pump-curve",
+                code: Code::PumpCurve,
                 message: format!("pump {}: {w}", c.name),
                 span: Some(c.span),
             });
@@ -103,7 +111,7 @@ pub fn analyse(design: &Design) -> Analysis {
             Ok(s) => (Some(s), None),
             Err(e) => {
                 warnings.push(Warning {
-                    code: "case-failed",
+                    code: Code::CaseFailed,
                     message: format!("case {}: {e}", case.name),
                     span: Some(case.span),
                 });
@@ -219,13 +227,13 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     };
     if let Some(l) = base.lines.iter().find(|l| l.side == Side::Suction) {
         if !has(Side::Suction, "entrance") && !has(Side::Suction, "foot_valve") {
-            out.push(Warning { code: "no-entrance-loss", message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name), span: Some(l.span) });
+            out.push(Warning { code: Code::NoEntranceLoss, message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name), span: Some(l.span) });
         }
     }
     if let Some(l) = base.lines.iter().rev().find(|l| l.side == Side::Discharge) {
         if !has(Side::Discharge, "exit") {
             out.push(Warning {
-                code: "no-exit-loss",
+                code: Code::NoExitLoss,
                 message: format!(
                     "line {}: no exit fitting; the exit loss (one velocity head) is not counted",
                     l.name
@@ -238,14 +246,14 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
         if let Some(s) = &c.system {
             if s.static_head <= 0.0 {
                 out.push(Warning {
-                    code: "static-head",
+                    code: Code::StaticHead,
                     message: format!("case {}: the static head is {} (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction", c.name, units.head().fmt(s.static_head)),
                     span: None,
                 });
             }
             let npsh0 = s.npsh_available(0.0);
             if npsh0 <= 0.0 {
-                out.push(Warning { code: "npsh-negative", message: format!("case {}: NPSH available is {} even at zero flow: the liquid would boil at the pump suction", c.name, units.head().fmt(npsh0)), span: None });
+                out.push(Warning { code: Code::NpshNegative, message: format!("case {}: NPSH available is {} even at zero flow: the liquid would boil at the pump suction", c.name, units.head().fmt(npsh0)), span: None });
             }
         }
     }

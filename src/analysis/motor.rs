@@ -9,6 +9,7 @@
 //! reported as margin only, and taken as 1.0 on a variable-frequency drive (makers
 //! commonly void it on inverter supply; NEMA MG 1 Parts 30 and 31).
 
+use crate::diagnostics::Code;
 use uom::si::{frequency::cycle_per_minute, power::watt};
 
 use super::checks::{Check, Status};
@@ -280,7 +281,7 @@ fn altitude_warning(design: &Design) -> Option<Warning> {
     (z > limit && !design.pumps.is_empty()).then(|| {
         let (zs, ls) = u.elevation().fmt_against(z, limit);
         Warning {
-            code: "motor-altitude",
+            code: Code::MotorAltitude,
             message: format!(
                 "site elevation {zs} is above {ls}: motor ratings hold up to {ls} altitude and {} ambient; derate the motor as its manufacturer states",
                 u.temperature().fmt(limits::MOTOR_AMBIENT_K.value)

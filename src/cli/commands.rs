@@ -1,6 +1,7 @@
 //! One function per subcommand: read, call the library, write; every failure is a
 //! [`CliError`] returned to `run`.
 
+use dutyline::diagnostics::Code;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -137,11 +138,7 @@ pub fn check(
 /// The analysis warnings as diagnostics: with the design's own warnings they are the
 /// `warnings` list of `results --format json`, so both commands count the same.
 pub fn analysis_warnings(analysis: &Analysis) -> Vec<Diagnostic> {
-    analysis
-        .warnings
-        .iter()
-        .map(|w| Diagnostic::warning(w.code, w.message.clone(), w.span))
-        .collect()
+    analysis.warnings.iter().map(|w| w.diagnostic()).collect()
 }
 
 /// The options of `results`.
@@ -229,7 +226,7 @@ pub fn build(
         dutyline::report::render_pdf(design, &analysis, &loaded.source, &style, changes.as_ref())
             .map_err(|e| {
             let diagnostic = Diagnostic::error(
-                "layout",
+                Code::Layout,
                 format!("the package could not be laid out: {e}"),
                 None,
             );
@@ -335,7 +332,7 @@ fn style_diagnostic(error: &StyleError, text: &str) -> Diagnostic {
         let width = token.max(line[offset..].chars().next().map_or(0, char::len_utf8));
         dutyline::diagnostics::Span::new(line_start + offset, line_start + offset + width)
     });
-    Diagnostic::error("style", error.message.clone(), span).with_help(error.help.clone())
+    Diagnostic::error(Code::Style, error.message.clone(), span).with_help(error.help.clone())
 }
 
 pub fn fmt(out: &mut Out, paths: &[PathBuf], check: bool) -> Result<ExitCode, CliError> {

@@ -1,6 +1,7 @@
 //! Why a command failed, printed once by `main` through the one diagnostic renderer,
 //! and the exit status each failure maps to.
 
+use dutyline::diagnostics::Code;
 use std::path::PathBuf;
 use std::process::ExitCode;
 
@@ -98,11 +99,11 @@ impl CliError {
                 return String::new()
             }
             CliError::Stdout(e) => Diagnostic::error(
-                "write-failed",
+                Code::WriteFailed,
                 format!("cannot write to standard output: {e}"),
                 None,
             ),
-            CliError::Usage(message) => Diagnostic::error("usage", message.clone(), None)
+            CliError::Usage(message) => Diagnostic::error(Code::Usage, message.clone(), None)
                 .with_help("see `dutyline --help` and `dutyline COMMAND --help`"),
             CliError::Read { path, error, help } => Diagnostic::error(
                 error.code(),
@@ -128,32 +129,32 @@ impl WriteProblem {
     fn diagnostic(&self, path: &str) -> Diagnostic {
         let (code, message, help) = match self {
             WriteProblem::IsTheInput => (
-                "output-refused",
+                Code::OutputRefused,
                 format!("the output `{path}` is the design file itself"),
                 "choose another `-o`".to_string(),
             ),
             WriteProblem::NotARegularFile(kind) => (
-                "output-refused",
+                Code::OutputRefused,
                 format!("the output `{path}` exists and is {kind}; only a regular file is replaced"),
                 "give the path of a new file or of an earlier package, or `-o -` for standard output".to_string(),
             ),
             WriteProblem::IsADesign => (
-                "output-refused",
+                Code::OutputRefused,
                 format!("the output `{path}` is a design file (`.duty`); it is not overwritten"),
                 "choose another `-o`, or add `--force` to replace it".to_string(),
             ),
             WriteProblem::NotAPdf => (
-                "output-refused",
+                Code::OutputRefused,
                 format!("the output `{path}` exists and is not a PDF; it is not overwritten"),
                 "choose another `-o`, or add `--force` to replace it".to_string(),
             ),
             WriteProblem::Exists => (
-                "output-refused",
+                Code::OutputRefused,
                 format!("`{path}` exists; `dutyline new` never replaces a file"),
                 "choose another name, or remove the file first".to_string(),
             ),
             WriteProblem::Io(e) => (
-                "write-failed",
+                Code::WriteFailed,
                 format!("cannot write `{path}`: {e}"),
                 "check that the folder exists and may be written".to_string(),
             ),

@@ -1,5 +1,6 @@
 //! Evaluating expressions to values, with dimension checks at the literal.
 
+use crate::diagnostics::Code;
 use std::collections::BTreeMap;
 
 use crate::diagnostics::{Diagnostic, Span};
@@ -65,7 +66,7 @@ pub fn unit(text: &UnitText) -> Result<units::Unit, Diagnostic> {
         let start = text.span.start + e.offset.min(text.text.len());
         let end = (start + e.len.max(1)).min(text.span.end.max(start + 1));
         let mut d = Diagnostic::error(
-            "unknown-unit",
+            Code::UnknownUnit,
             e.message.clone(),
             Some(Span::new(start, end)),
         )
@@ -95,7 +96,7 @@ pub fn quantity_literal(value: &Number, text: &UnitText) -> Result<Quantity, Dia
     let q = Quantity::from_value(value.value, &u);
     if !q.si.is_finite() {
         return Err(Diagnostic::error(
-            "number-out-of-range",
+            Code::NumberOutOfRange,
             format!("`{} {}` is too large to represent", value.text, text.text),
             Some(text.span),
         ));
@@ -116,7 +117,7 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
                 Some((v, _)) => Ok(v.clone()),
                 None if path.parts.len() == 1 => Ok(Value::Word(name)),
                 None => Err(Diagnostic::error(
-                    "unknown-name",
+                    Code::UnknownName,
                     format!("`{name}` is not a known constant"),
                     Some(path.span),
                 )
@@ -143,7 +144,7 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
             let q = eval_quantity(base, env)?;
             q.powi(*exponent)
                 .map(Value::Quantity)
-                .map_err(|e| Diagnostic::error("bad-arithmetic", e.message, Some(expr.span)))
+                .map_err(|e| Diagnostic::error(Code::BadArithmetic, e.message, Some(expr.span)))
         }
         ExprKind::Binary { op, left, right } => {
             let a = eval_quantity(left, env)?;
@@ -155,12 +156,14 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
                 BinaryOp::Div => a.div(b),
             };
             r.map(Value::Quantity).map_err(|e| {
-                Diagnostic::error("bad-arithmetic", e.message, Some(expr.span)).with_label(format!(
-                    "{} {} {}",
-                    describe_quantity(&a),
-                    op.symbol(),
-                    describe_quantity(&b)
-                ))
+                Diagnostic::error(Code::BadArithmetic, e.message, Some(expr.span)).with_label(
+                    format!(
+                        "{} {} {}",
+                        describe_quantity(&a),
+                        op.symbol(),
+                        describe_quantity(&b)
+                    ),
+                )
             })
         }
     }
@@ -168,7 +171,7 @@ pub fn eval(expr: &Expr, env: &Env) -> Result<Value, Diagnostic> {
 
 fn not_a_number(v: &Value, span: Span) -> Diagnostic {
     let mut d = Diagnostic::error(
-        "expected-number",
+        Code::ExpectedNumber,
         format!("expected a number, found {}", v.describe()),
         Some(span),
     )
@@ -208,7 +211,7 @@ pub fn expect_dim(
             _ => describe_quantity(&q),
         };
         let mut d = Diagnostic::error(
-            "unit-mismatch",
+            Code::UnitMismatch,
             format!("{what}: expected {}, found {found}", dim.describe()),
             Some(literal_span(expr)),
         )
@@ -227,7 +230,7 @@ pub fn expect_temperature(expr: &Expr, env: &Env, what: &str) -> Result<f64, Dia
     let q = expect_dim(expr, env, Dimension::TEMPERATURE, what)?;
     if q.kind != QuantityKind::TemperaturePoint {
         return Err(Diagnostic::error(
-            "unit-mismatch",
+            Code::UnitMismatch,
             format!("{what}: expected a temperature, found a temperature difference"),
             Some(expr.span),
         )
@@ -236,7 +239,7 @@ pub fn expect_temperature(expr: &Expr, env: &Env, what: &str) -> Result<f64, Dia
     }
     if q.si <= 0.0 {
         return Err(Diagnostic::error(
-            "out-of-range",
+            Code::OutOfRange,
             format!("{what}: below absolute zero"),
             Some(expr.span),
         ));
@@ -254,7 +257,7 @@ pub fn expect_text(expr: &Expr, env: &Env, what: &str) -> Result<String, Diagnos
     match eval(expr, env)? {
         Value::Text(t) => Ok(t),
         other => Err(Diagnostic::error(
-            "expected-text",
+            Code::ExpectedText,
             format!("{what}: expected a quoted text, found {}", other.describe()),
             Some(expr.span),
         )
@@ -272,7 +275,7 @@ pub fn expect_word(
     match eval(expr, env)? {
         Value::Word(w) if allowed.contains(&w.as_str()) => Ok(w),
         other => Err(Diagnostic::error(
-            "expected-word",
+            Code::ExpectedWord,
             format!(
                 "{what}: expected {}, found {}",
                 quote_list(allowed),

@@ -1,6 +1,7 @@
 //! Reading the `name = value` fields of a block body.
 
 use super::eval::quote_list;
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::names::nearest;
 use crate::syntax::ast::{Expr, Path, Statement, StatementKind};
@@ -46,7 +47,7 @@ pub fn read_fields<'a>(
                         if let Some(prev) = out.get(known) {
                             diags.push(
                                 Diagnostic::error(
-                                    "duplicate-field",
+                                    Code::DuplicateField,
                                     format!("`{name}` is given twice in {block}"),
                                     Some(path.span),
                                 )
@@ -85,7 +86,7 @@ pub fn unknown_field(path: &Path, block: &str, allowed: &[&str]) -> Diagnostic {
         )
     };
     Diagnostic::error(
-        "unknown-field",
+        Code::UnknownField,
         format!("{block} has no field `{name}`"),
         Some(path.span),
     )
@@ -96,7 +97,7 @@ pub fn unknown_field(path: &Path, block: &str, allowed: &[&str]) -> Diagnostic {
 /// A required field that is missing.
 pub fn missing(field: &str, block: &str, span: Span, example: &str) -> Diagnostic {
     Diagnostic::error(
-        "missing-field",
+        Code::MissingField,
         format!("{block} needs `{field}`"),
         Some(span),
     )
@@ -109,7 +110,7 @@ pub fn missing(field: &str, block: &str, span: Span, example: &str) -> Diagnosti
 pub fn block_name<'a>(
     args: &'a [crate::syntax::ast::Arg],
     span: Span,
-    code: &'static str,
+    code: Code,
     what: &str,
     example: &str,
     diags: &mut Vec<Diagnostic>,

@@ -1,6 +1,7 @@
 //! Model: the syntax tree lowered to a typed, unit-checked [`Design`], with
 //! names resolved, pipe sizes looked up, fittings found and cases applied.
 
+use crate::diagnostics::Code;
 pub mod design;
 pub mod eval;
 mod fields;
@@ -8,6 +9,7 @@ mod lower;
 mod pumps;
 pub mod ranges;
 pub mod scenario;
+pub mod vacuum;
 
 pub use design::*;
 pub use lower::{lower, MAX_CASES, MAX_PUMPS, MAX_SEGMENTS};
@@ -42,14 +44,14 @@ pub enum FileError {
 
 impl FileError {
     /// The diagnostic code for this kind of failure.
-    pub fn code(&self) -> &'static str {
+    pub fn code(&self) -> Code {
         match self {
-            FileError::TooLarge { .. } => "file-too-large",
-            FileError::NotUtf8 { .. } => "invalid-utf8",
-            FileError::NotRegularFile { .. } => "not-a-regular-file",
-            FileError::OutsideAllowed => "file-not-allowed",
+            FileError::TooLarge { .. } => Code::FileTooLarge,
+            FileError::NotUtf8 { .. } => Code::InvalidUtf8,
+            FileError::NotRegularFile { .. } => Code::NotARegularFile,
+            FileError::OutsideAllowed => Code::FileNotAllowed,
             FileError::NotFound | FileError::Unreadable(_) | FileError::Unavailable => {
-                "file-not-read"
+                Code::FileNotRead
             }
         }
     }

@@ -1,5 +1,6 @@
 //! Lowering pump candidates and their curve tables (inline or from CSV).
 
+use crate::diagnostics::Code;
 use uom::si::f64::{Frequency, Length, Power, Ratio, VolumeRate};
 use uom::si::{
     frequency::hertz, length::meter, power::watt, ratio::ratio, volume_rate::cubic_meter_per_second,
@@ -53,7 +54,7 @@ pub fn lower_pump(
     let (name, _) = block_name(
         args,
         span,
-        "bad-pump",
+        Code::BadPump,
         "a pump",
         "pump P1 \"description\" { ... }",
         diags,
@@ -66,7 +67,7 @@ pub fn lower_pump(
         }) => t.clone(),
         Some(a) => {
             diags.push(Diagnostic::error(
-                "bad-pump",
+                Code::BadPump,
                 "after the pump's name only a quoted description may follow",
                 Some(a.span),
             ));
@@ -103,7 +104,7 @@ pub fn lower_pump(
                     let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
                     if v <= 0.0 {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "the speed must be greater than zero",
                             Some(e.span),
                         ));
@@ -130,7 +131,7 @@ pub fn lower_pump(
                     let lo = if field.name == "count" { 1.0 } else { 0.0 };
                     if v.fract() != 0.0 || v < lo || v > 12.0 {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             format!("`{}` is a whole number from {lo} to 12", field.name),
                             Some(e.span),
                         ));
@@ -145,7 +146,7 @@ pub fn lower_pump(
                     let v = expect_dim(e, env, Dimension::LENGTH, "impeller diameter")?.si;
                     if v <= 0.0 {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "the impeller diameter must be greater than zero",
                             Some(e.span),
                         ));
@@ -160,7 +161,7 @@ pub fn lower_pump(
                     let v = expect_dim(e, env, Dimension::POWER, "motor rating")?.si;
                     if v.is_nan() || v <= 0.0 {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "the motor rating must be greater than zero",
                             Some(e.span),
                         ));
@@ -175,7 +176,7 @@ pub fn lower_pump(
                     let hi = if field.name == "max_speed" { 1.2 } else { 1.0 };
                     if !(v > 0.0 && v <= hi) {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             format!("`{}` is a fraction of the rated value, above 0 and at most {:.0} %", field.name, hi * 100.0),
                             Some(e.span),
                         )
@@ -194,7 +195,7 @@ pub fn lower_pump(
     }
     if p.arrangement == ArrangementKind::Single && p.count > 1 {
         if let Some(c) = f.get("count") {
-            diags.push(Diagnostic::error("conflicting-fields", "a single pump has a count of 1", Some(c.value.span))
+            diags.push(Diagnostic::error(Code::ConflictingFields, "a single pump has a count of 1", Some(c.value.span))
                 .with_help("set `arrangement = parallel` or `arrangement = series` for several running pumps"));
         }
     }
@@ -223,7 +224,7 @@ pub fn lower_pump(
                 curve_written = true;
                 if p.curves.len() >= MAX_CURVES {
                     diags.push(Diagnostic::error(
-                        "too-many",
+                        Code::TooMany,
                         format!("a pump may have at most {MAX_CURVES} curves"),
                         Some(st.span),
                     ));
@@ -243,7 +244,7 @@ pub fn lower_pump(
             }
             _ => diags.push(
                 Diagnostic::error(
-                    "unexpected",
+                    Code::Unexpected,
                     "a pump holds fields and `curve` tables",
                     Some(st.span),
                 )
@@ -287,7 +288,7 @@ fn lower_curve(
         ) = (&args[i], args.get(i + 1))
         else {
             diags.push(Diagnostic::error(
-                "bad-curve",
+                Code::BadCurve,
                 "expected `impeller`, `speed` or `from`",
                 Some(args[i].span),
             ));
@@ -300,7 +301,7 @@ fn lower_curve(
                         Ok(q) if q.dim == dim && q.si > 0.0 => Some(q.si),
                         Ok(q) => {
                             diags.push(Diagnostic::error(
-                                "unit-mismatch",
+                                Code::UnitMismatch,
                                 format!(
                                     "{what}: expected {} greater than zero, found {}",
                                     dim.describe(),
@@ -318,7 +319,7 @@ fn lower_curve(
                 }
                 _ => {
                     diags.push(Diagnostic::error(
-                        "bad-curve",
+                        Code::BadCurve,
                         format!("`{w}` needs {} after it", dim.describe()),
                         Some(*ws),
                     ));
@@ -343,7 +344,7 @@ fn lower_curve(
                 }
                 _ => {
                     diags.push(Diagnostic::error(
-                        "bad-curve",
+                        Code::BadCurve,
                         "`from` needs a quoted file name",
                         Some(*ws),
                     ));
@@ -351,7 +352,7 @@ fn lower_curve(
                 }
             },
             _ => {
-                diags.push(Diagnostic::error("bad-curve", format!("a curve has no `{w}`"), Some(*ws)).with_help("write `curve impeller 12.5 in { ... }`, `curve speed 1480 rpm { ... }` or `curve impeller 12.5 in from \"curve.csv\"`"));
+                diags.push(Diagnostic::error(Code::BadCurve, format!("a curve has no `{w}`"), Some(*ws)).with_help("write `curve impeller 12.5 in { ... }`, `curve speed 1480 rpm { ... }` or `curve impeller 12.5 in from \"curve.csv\"`"));
                 return None;
             }
         }
@@ -361,7 +362,7 @@ fn lower_curve(
     let table = match (table, csv) {
         (Some(_), Some((_, s))) => {
             diags.push(Diagnostic::error(
-                "conflicting-fields",
+                Code::ConflictingFields,
                 "a curve takes its table inline or from a file, not both",
                 Some(s),
             ));
@@ -375,7 +376,7 @@ fn lower_curve(
                     &owned
                 }
                 Err(msg) => {
-                    diags.push(Diagnostic::error("bad-csv", format!("{path}: {msg}"), Some(s)).with_help("the first line names the columns with units, e.g. `flow gpm, head ft, efficiency %`; then one row of numbers per line"));
+                    diags.push(Diagnostic::error(Code::BadCsv, format!("{path}: {msg}"), Some(s)).with_help("the first line names the columns with units, e.g. `flow gpm, head ft, efficiency %`; then one row of numbers per line"));
                     return None;
                 }
             },
@@ -393,7 +394,7 @@ fn lower_curve(
         },
         (None, None) => {
             diags.push(
-                Diagnostic::error("bad-curve", "the curve has no table", Some(span))
+                Diagnostic::error(Code::BadCurve, "the curve has no table", Some(span))
                     .with_help("give the table in braces, or `from \"file.csv\"`"),
             );
             return None;
@@ -496,7 +497,7 @@ fn lower_table(
     let mut units = Vec::new();
     for c in &t.columns {
         let Some((_, dim)) = COLUMNS.iter().find(|(n, _)| *n == c.name.name) else {
-            diags.push(Diagnostic::error("unknown-column", format!("a curve table has no column `{}`", c.name.name), Some(c.name.span))
+            diags.push(Diagnostic::error(Code::UnknownColumn, format!("a curve table has no column `{}`", c.name.name), Some(c.name.span))
                 .with_help("columns are `flow`, `head`, `efficiency`, `npshr` and `power`, each with its unit"));
             continue;
         };
@@ -504,7 +505,7 @@ fn lower_table(
             Ok(u) if u.dim == *dim => units.push((c.name.name.as_str(), u)),
             Ok(u) => diags.push(
                 Diagnostic::error(
-                    "unit-mismatch",
+                    Code::UnitMismatch,
                     format!(
                         "column `{}`: expected {}, found {} ({})",
                         c.name.name,
@@ -523,7 +524,7 @@ fn lower_table(
     for need in ["flow", "head"] {
         if !t.columns.iter().any(|c| c.name.name == need) {
             diags.push(Diagnostic::error(
-                "missing-column",
+                Code::MissingColumn,
                 format!("the curve table needs a `{need}` column"),
                 Some(t.span),
             ));
@@ -534,7 +535,7 @@ fn lower_table(
     }
     if t.rows.len() > MAX_CURVE_POINTS {
         diags.push(Diagnostic::error(
-            "too-many",
+            Code::TooMany,
             format!(
                 "a curve may have at most {MAX_CURVE_POINTS} points; this one has {}",
                 t.rows.len()
@@ -546,7 +547,7 @@ fn lower_table(
     if t.rows.len() < 3 {
         diags.push(
             Diagnostic::error(
-                "too-few-points",
+                Code::TooFewPoints,
                 "a curve needs at least 3 points",
                 Some(t.span),
             )
@@ -567,7 +568,7 @@ fn lower_table(
     for row in &t.rows {
         if row.cells.len() != units.len() {
             diags.push(Diagnostic::error(
-                "bad-row",
+                Code::BadRow,
                 format!(
                     "this row has {} values; the table has {} columns",
                     row.cells.len(),
@@ -586,7 +587,7 @@ fn lower_table(
             let Some(v) = &cell.value else {
                 if matches!(*name, "flow" | "head") {
                     diags.push(Diagnostic::error(
-                        "bad-row",
+                        Code::BadRow,
                         format!("every point needs a {name}"),
                         Some(cell.span),
                     ));
@@ -597,7 +598,7 @@ fn lower_table(
             if si < 0.0 {
                 diags.push(
                     Diagnostic::error(
-                        "out-of-range",
+                        Code::OutOfRange,
                         format!("negative values are not allowed in the `{name}` column"),
                         Some(cell.span),
                     )
@@ -626,7 +627,7 @@ fn lower_table(
                     if si > 1.0 {
                         diags.push(
                             Diagnostic::error(
-                                "out-of-range",
+                                Code::OutOfRange,
                                 "an efficiency cannot exceed 100 %",
                                 Some(cell.span),
                             )
@@ -643,7 +644,7 @@ fn lower_table(
             if let Some(prev) = c.flow.last() {
                 if q <= *prev {
                     diags.push(Diagnostic::error(
-                        "bad-row",
+                        Code::BadRow,
                         "flows must increase down the table",
                         Some(row.span),
                     ));

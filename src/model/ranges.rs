@@ -8,6 +8,7 @@
 //! legal: levels below the datum, vacuum vessels, heads of 2 000 m, lines of 100 km.
 //! The table is printed in grammar/LANGUAGE.md, "Limits".
 
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 
 /// A possible range and a usual band for one kind of input, in SI units, with the unit
@@ -258,7 +259,7 @@ impl Range {
         let (low, high) = self.possible;
         if !si.is_finite() || si < low || si > high {
             return Err(Diagnostic::error(
-                "out-of-range",
+                Code::OutOfRange,
                 format!(
                     "{} of {} is outside what is possible ({})",
                     self.what,
@@ -273,7 +274,7 @@ impl Range {
         let (usual_low, usual_high) = self.usual;
         let warning = (si < usual_low || si > usual_high).then(|| {
             Diagnostic::warning(
-                "unusual-value",
+                Code::UnusualValue,
                 format!(
                     "{} of {} is unusual (usually {})",
                     self.what,

@@ -2,6 +2,7 @@
 //! lines; and applying a case's overrides to it. Each field has one setter,
 //! used both by the base design and by case overrides.
 
+use crate::diagnostics::Code;
 use uom::si::f64::{
     DynamicViscosity, Frequency, Length, MassDensity, Pressure, ThermodynamicTemperature, Time,
 };
@@ -62,7 +63,7 @@ fn positive(v: f64, what: &str, span: Span) -> Result<f64, Diagnostic> {
         Ok(v)
     } else {
         Err(Diagnostic::error(
-            "out-of-range",
+            Code::OutOfRange,
             format!("{what} must be greater than zero"),
             Some(span),
         )
@@ -75,7 +76,7 @@ fn non_negative(v: f64, what: &str, span: Span) -> Result<f64, Diagnostic> {
         Ok(v)
     } else {
         Err(Diagnostic::error(
-            "out-of-range",
+            Code::OutOfRange,
             format!("{what} must not be negative"),
             Some(span),
         )
@@ -99,7 +100,7 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
         }
         (Fluid::Water { .. }, other) => {
             return Err(Diagnostic::error(
-                "unknown-field",
+                Code::UnknownField,
                 format!("water has no field `{other}`: its properties follow from its temperature (IAPWS-IF97)"),
                 Some(e.span),
             )
@@ -130,12 +131,12 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
         (Fluid::Custom(c), "vapor_pressure") => {
             let q = expect_dim(e, env, Dimension::PRESSURE, "vapour pressure")?;
             if q.kind == QuantityKind::GaugePressure {
-                return Err(Diagnostic::error("unit-mismatch", "vapour pressure is an absolute pressure", Some(e.span))
+                return Err(Diagnostic::error(Code::UnitMismatch, "vapour pressure is an absolute pressure", Some(e.span))
                     .with_help("write it as kPa, kPa(a) or psia"));
             }
             c.vapor_pressure = pressure(env.in_range(&ranges::VAPOUR_PRESSURE, q.si, e.span)?);
         }
-        (_, other) => return Err(Diagnostic::error("unknown-field", format!("the fluid has no field `{other}`"), Some(e.span))),
+        (_, other) => return Err(Diagnostic::error(Code::UnknownField, format!("the fluid has no field `{other}`"), Some(e.span))),
     }
     Ok(())
 }
@@ -151,7 +152,7 @@ pub fn lower_fluid(
     let f = read_fields(body, "fluid", FLUID_FIELDS, diags);
     for st in &f.rest {
         diags.push(Diagnostic::error(
-            "unexpected",
+            Code::Unexpected,
             "a fluid holds only fields",
             Some(st.span),
         ));
@@ -170,7 +171,7 @@ pub fn lower_fluid(
         _ => {
             let at = args.first().map(|a| a.span).unwrap_or(span);
             diags.push(
-                Diagnostic::error("bad-fluid", "a fluid is `water` or a quoted name", Some(at))
+                Diagnostic::error(Code::BadFluid, "a fluid is `water` or a quoted name", Some(at))
                     .with_help("write `fluid water { temperature = 15 degC }` or `fluid \"brine\" { density = ..., viscosity = ..., vapor_pressure = ... }`"),
             );
             return None;
@@ -232,7 +233,7 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
             }
             SurfacePressure::Gauge(_) => {
                 return Err(Diagnostic::error(
-                    "unit-mismatch",
+                    Code::UnitMismatch,
                     "the barometric pressure is absolute, not gauge",
                     Some(e.span),
                 )
@@ -241,7 +242,7 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
         },
         other => {
             return Err(Diagnostic::error(
-                "unknown-field",
+                Code::UnknownField,
                 format!("site has no field `{other}`"),
                 Some(e.span),
             ))
@@ -269,7 +270,7 @@ pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(),
         }
         other => {
             return Err(Diagnostic::error(
-                "unknown-field",
+                Code::UnknownField,
                 format!("a tank has no field `{other}`"),
                 Some(e.span),
             ))
@@ -303,7 +304,7 @@ pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Resul
         }
         other => {
             return Err(Diagnostic::error(
-                "unknown-field",
+                Code::UnknownField,
                 format!("a pipe has no field `{other}`"),
                 Some(e.span),
             ))
@@ -323,7 +324,7 @@ pub fn lower_pipe(
 ) -> Option<Segment> {
     let fail = |diags: &mut Vec<Diagnostic>, at: Span, msg: &str| {
         diags.push(
-            Diagnostic::error("bad-pipe", msg.to_string(), Some(at)).with_help(
+            Diagnostic::error(Code::BadPipe, msg.to_string(), Some(at)).with_help(
                 "write e.g. `pipe steel 6 in schedule 40 { length = 120 ft }`, `pipe copper 2 in type L`, `pipe hdpe 10 in DR 17` or `pipe pvc bore 146.3 mm`",
             ),
         );
@@ -340,7 +341,7 @@ pub fn lower_pipe(
                 let near = nearest(w, names.iter().copied());
                 diags.push(
                     Diagnostic::error(
-                        "unknown-material",
+                        Code::UnknownMaterial,
                         format!("`{w}` is not a known pipe material"),
                         Some(*s),
                     )
@@ -379,7 +380,7 @@ pub fn lower_pipe(
             if q.dim != Dimension::LENGTH {
                 diags.push(
                     Diagnostic::error(
-                        "unit-mismatch",
+                        Code::UnitMismatch,
                         format!("pipe bore: expected a length, found {}", q.dim.describe()),
                         Some(a.span),
                     )
@@ -462,7 +463,7 @@ pub fn lower_pipe(
                 Ok(p) => (label, p.inner_diameter_m, p.standard.to_string()),
                 Err(e) => {
                     let at = size_arg.span.join(value_arg.span);
-                    let mut d = Diagnostic::error("unknown-pipe-size", e.message, Some(at))
+                    let mut d = Diagnostic::error(Code::UnknownPipeSize, e.message, Some(at))
                         .with_label("not in the pipe catalogue");
                     if !e.nearest.is_empty() {
                         d = d.with_help(format!("nearest valid sizes: {}", e.nearest.join(", ")));
@@ -490,7 +491,7 @@ pub fn lower_pipe(
     for st in &f.rest {
         diags.push(
             Diagnostic::error(
-                "unexpected",
+                Code::Unexpected,
                 "a pipe's braces hold only its fields",
                 Some(st.span),
             )
@@ -513,7 +514,7 @@ pub fn lower_pipe(
     {
         diags.push(
             Diagnostic::warning(
-                "zero-length",
+                Code::ZeroLength,
                 "a pipe of zero length: no wall friction is counted; its fittings and losses still use its bore",
                 Some(l.value.span),
             )
@@ -540,7 +541,7 @@ pub fn lower_fitting(
         }) => (w.as_str(), *span),
         _ => {
             diags.push(
-                Diagnostic::error("bad-fitting", "a fitting needs its name", Some(span))
+                Diagnostic::error(Code::BadFitting, "a fitting needs its name", Some(span))
                     .with_help("write e.g. `fitting elbow_90_long * 2`"),
             );
             return None;
@@ -556,7 +557,7 @@ pub fn lower_fitting(
         };
         diags.push(
             Diagnostic::error(
-                "unknown-fitting",
+                Code::UnknownFitting,
                 format!("`{name}` is not a known fitting"),
                 Some(name_span),
             )
@@ -578,7 +579,7 @@ pub fn lower_fitting(
             if n.value.fract() != 0.0 || n.value < 1.0 || n.value > 1000.0 {
                 diags.push(
                     Diagnostic::error(
-                        "bad-count",
+                        Code::BadCount,
                         "a fitting count is a whole number from 1 to 1000",
                         Some(*s),
                     )
@@ -591,7 +592,7 @@ pub fn lower_fitting(
         [first, ..] => {
             diags.push(
                 Diagnostic::error(
-                    "bad-fitting",
+                    Code::BadFitting,
                     "expected `* count` after the fitting name",
                     Some(first.span),
                 )
@@ -615,7 +616,7 @@ pub fn lower_fitting(
                     Ok(b) if b > 0.0 && b < 1.0 => use_.beta = Some(b),
                     Ok(_) => diags.push(
                         Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "beta is the small-to-large diameter ratio, between 0 and 1",
                             Some(field.value.span),
                         )
@@ -626,7 +627,7 @@ pub fn lower_fitting(
                 _ => match expect_number(field.value, env, "included angle") {
                     Ok(a) if a > 0.0 && a <= std::f64::consts::PI => use_.angle_rad = Some(a),
                     Ok(_) => diags.push(Diagnostic::error(
-                        "out-of-range",
+                        Code::OutOfRange,
                         "the included angle lies between 0 and 180 deg",
                         Some(field.value.span),
                     )),
@@ -683,7 +684,7 @@ pub fn lower_loss(
                 Err(d) => diags.push(d),
             },
             Ok(_) => diags.push(Diagnostic::error(
-                "out-of-range",
+                Code::OutOfRange,
                 "K must not be negative",
                 Some(k.value.span),
             )),
@@ -699,7 +700,7 @@ pub fn lower_loss(
                 }
             }
             Ok(_) => diags.push(Diagnostic::error(
-                "out-of-range",
+                Code::OutOfRange,
                 "an equivalent length must not be negative",
                 Some(l.value.span),
             )),
@@ -709,7 +710,7 @@ pub fn lower_loss(
     match (f.get("k").is_some(), f.get("equivalent_length").is_some()) {
         (false, false) => diags.push(missing("k", "a loss", span, "k = 0.5")),
         (true, true) => diags.push(Diagnostic::error(
-            "conflicting-fields",
+            Code::ConflictingFields,
             "give a loss either `k` or `equivalent_length`, not both",
             Some(span),
         )),
@@ -731,7 +732,7 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
             let d = match &st.kind {
                 StatementKind::Assign { path, .. } => unknown_field(path, "a line", &[]),
                 _ => Diagnostic::error(
-                    "unexpected",
+                    Code::Unexpected,
                     "a line holds `pipe`, `fitting` and `loss` statements",
                     Some(st.span),
                 ),
@@ -765,7 +766,7 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
                     }
                     None => diags.push(
                         Diagnostic::error(
-                            "fitting-before-pipe",
+                            Code::FittingBeforePipe,
                             format!("this {} comes before any pipe in the line", keyword.name),
                             Some(st.span),
                         )
@@ -778,7 +779,7 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
             other => {
                 let near = nearest(other, ["pipe", "fitting", "loss"]);
                 let mut d = Diagnostic::error(
-                    "unknown-statement",
+                    Code::UnknownStatement,
                     format!("a line has no `{other}`"),
                     Some(keyword.span),
                 )
@@ -840,7 +841,7 @@ pub fn apply_override(
             let count = l.segments.len();
             let seg = l.segments.get_mut(n.wrapping_sub(1)).ok_or_else(|| {
                 Diagnostic::error(
-                    "unknown-path",
+                    Code::UnknownPath,
                     format!(
                         "line `{line}` has {count} pipe segment(s); there is no segment {index}"
                     ),
@@ -860,7 +861,7 @@ pub fn expect_hours(e: &Expr, env: &Env) -> Result<Time, Diagnostic> {
     let t = expect_dim(e, env, Dimension::TIME, "operating hours per year")?.si;
     if !(0.0..=8784.0 * 3600.0).contains(&t) {
         return Err(Diagnostic::error(
-            "out-of-range",
+            Code::OutOfRange,
             "operating hours per year lie between 0 and 8784 h",
             Some(e.span),
         )
@@ -906,7 +907,7 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
         format!("did you mean {}?", eval::quote_list(&near))
     };
     Diagnostic::error(
-        "unknown-path",
+        Code::UnknownPath,
         format!("`{written}` does not name anything a case can override"),
         Some(path.span),
     )
@@ -936,7 +937,7 @@ pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
         if t <= crate::fluid::water::FREEZING_POINT_K {
             out.push(
                 Diagnostic::error(
-                    "out-of-range",
+                    Code::OutOfRange,
                     format!(
                         "case {}: water at {shown} is at or below its freezing point ({}): the case cannot be analysed",
                         case.name,
@@ -971,7 +972,7 @@ pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
             };
             out.push(
                 Diagnostic::error(
-                    "out-of-range",
+                    Code::OutOfRange,
                     format!(
                         "case {}: water at {shown} boils at the surface of tank {}: {vapour} is at or above the surface's absolute pressure {}; the case cannot be analysed",
                         case.name,

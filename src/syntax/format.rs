@@ -55,6 +55,7 @@
 
 use super::ast::*;
 use super::comments::{code_end, is_blank_char, scan_comments, Comment};
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 
 /// Indentation of one level.
@@ -87,7 +88,7 @@ pub fn format_source(source: &str) -> Result<String, Vec<Diagnostic>> {
 
 fn internal(what: &str) -> Vec<Diagnostic> {
     vec![Diagnostic::error(
-        "format-failed",
+        Code::FormatFailed,
         format!("the file cannot be formatted: {what}"),
         None,
     )

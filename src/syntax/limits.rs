@@ -2,6 +2,7 @@
 //! so that oversize input is a located error, not a slow run or a package that cannot
 //! be laid out (grammar/LANGUAGE.md, "Limits").
 
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 
 /// Longest name (identifier, keyword, unit word) accepted, in characters.
@@ -110,7 +111,7 @@ pub fn check_lengths(source: &str) -> Vec<Diagnostic> {
 
 fn long_name(start: usize, end: usize, chars: usize) -> Diagnostic {
     Diagnostic::error(
-        "too-long",
+        Code::TooLong,
         format!("this name is {chars} characters long; names are limited to {MAX_IDENTIFIER_CHARS}"),
         Some(Span::new(start, end)),
     )
@@ -120,7 +121,7 @@ fn long_name(start: usize, end: usize, chars: usize) -> Diagnostic {
 
 fn long_text(start: usize, end: usize, chars: usize) -> Diagnostic {
     Diagnostic::error(
-        "too-long",
+        Code::TooLong,
         format!("this text is {chars} characters long; texts are limited to {MAX_TEXT_CHARS}"),
         Some(Span::new(start, end)),
     )

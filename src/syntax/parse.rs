@@ -1,6 +1,7 @@
 //! From source text to the syntax tree, over the pest grammar in
 //! `grammar/dutyline.pest`.
 
+use crate::diagnostics::Code;
 use pest::iterators::Pair;
 use pest::Parser as _;
 
@@ -48,14 +49,14 @@ impl TextError {
         let (line, column) = (self.line, self.column);
         let diagnostic = match self.problem {
             TextProblem::TooLarge => Diagnostic::error(
-                "file-too-large",
+                Code::FileTooLarge,
                 format!("the file is larger than the limit: design files are limited to {MAX_SOURCE_BYTES} bytes, and line {line} crosses it at column {column}"),
                 None,
             )
             .with_label("the limit is crossed here")
             .with_help("large curve tables belong in CSV files imported with `curve ... from \"file.csv\"`; a design itself is rarely more than a few hundred lines"),
             TextProblem::NotUtf8 => Diagnostic::error(
-                "invalid-utf8",
+                Code::InvalidUtf8,
                 format!("the file is not valid UTF-8 text: the first bad byte is at line {line}, column {column}"),
                 None,
             )
@@ -195,7 +196,7 @@ fn check_nesting(source: &str) -> Option<Diagnostic> {
                 if depth > MAX_NESTING {
                     return Some(
                         Diagnostic::error(
-                            "too-deep",
+                            Code::TooDeep,
                             format!("brackets are nested more than {MAX_NESTING} deep"),
                             Some(Span::new(i, i + 1)),
                         )
@@ -293,7 +294,7 @@ fn syntax_error(source: &str, e: pest::error::Error<Rule>) -> Diagnostic {
         "see grammar/LANGUAGE.md for the statements and values the language accepts".into()
     };
     Diagnostic::error(
-        "syntax",
+        Code::Syntax,
         format!("expected {expected_text}, found {found}"),
         Some(Span::new(pos, end.max(pos))),
     )
@@ -499,7 +500,7 @@ fn parse_number(text: &str, sp: Span, errors: &mut Vec<Diagnostic>) -> f64 {
         _ => {
             errors.push(
                 Diagnostic::error(
-                    "number-out-of-range",
+                    Code::NumberOutOfRange,
                     format!("the number `{text}` is too large to represent"),
                     Some(sp),
                 )
@@ -606,7 +607,7 @@ fn arg(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Arg {
                     .unwrap_or_default();
                 let value = fraction_value(&text).unwrap_or_else(|| {
                     errors.push(Diagnostic::error(
-                        "bad-fraction",
+                        Code::BadFraction,
                         format!("`{text}` is not a valid fraction"),
                         Some(sp),
                     ));
@@ -657,7 +658,7 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
                 if operands > MAX_OPERANDS {
                     errors.push(
                         Diagnostic::error(
-                            "too-long",
+                            Code::TooLong,
                             format!("an expression may have at most {MAX_OPERANDS} terms"),
                             Some(sp),
                         )
@@ -713,7 +714,7 @@ fn expr(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Expr {
                 Some(e) => {
                     let exponent = e.as_str().parse::<i32>().unwrap_or_else(|_| {
                         errors.push(Diagnostic::error(
-                            "bad-exponent",
+                            Code::BadExponent,
                             "the exponent is too large",
                             Some(span(&e)),
                         ));

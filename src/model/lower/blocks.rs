@@ -1,5 +1,6 @@
 //! Grouping the top-level statements by keyword, checking keywords and singletons.
 
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::eval;
 use crate::names::nearest;
@@ -103,7 +104,7 @@ fn known_keyword(
 ) -> Option<&'static str> {
     if keyword == "include" {
         diags.push(
-            Diagnostic::error("reserved", "`include` is reserved for a later version of the language", Some(span))
+            Diagnostic::error(Code::Reserved, "`include` is reserved for a later version of the language", Some(span))
                 .with_help("for now a design is one file; curve tables can come from CSV with `curve ... from \"file.csv\"`"),
         );
         return None;
@@ -112,7 +113,7 @@ fn known_keyword(
         let near = nearest(keyword, TOP_LEVEL.iter().copied());
         diags.push(
             Diagnostic::error(
-                "unknown-statement",
+                Code::UnknownStatement,
                 format!("`{keyword}` is not a statement of the language"),
                 Some(span),
             )
@@ -129,7 +130,7 @@ fn known_keyword(
         if let Some((_, prev)) = seen.iter().find(|(k, _)| k == known) {
             diags.push(
                 Diagnostic::error(
-                    "duplicate-block",
+                    Code::DuplicateBlock,
                     format!("`{keyword}` may appear only once"),
                     Some(span),
                 )
@@ -145,11 +146,11 @@ fn known_keyword(
 /// The diagnostic for a field, requirement or curve written at the top level.
 fn stray(kind: &StatementKind) -> Option<Diagnostic> {
     Some(match kind {
-        StatementKind::Assign { path, .. } => Diagnostic::error("stray-field", format!("`{}` is set outside any block", path.dotted()), Some(path.span))
+        StatementKind::Assign { path, .. } => Diagnostic::error(Code::StrayField, format!("`{}` is set outside any block", path.dotted()), Some(path.span))
             .with_help("fields go inside a block such as `project { ... }`; constants are written `let name = value`"),
-        StatementKind::Condition { path, .. } => Diagnostic::error("stray-requirement", "a requirement outside `require { ... }`", Some(path.span))
+        StatementKind::Condition { path, .. } => Diagnostic::error(Code::StrayRequirement, "a requirement outside `require { ... }`", Some(path.span))
             .with_help("put requirements inside `require { ... }`"),
-        StatementKind::Curve { keyword, .. } => Diagnostic::error("stray-curve", "a curve outside a pump", Some(keyword.span))
+        StatementKind::Curve { keyword, .. } => Diagnostic::error(Code::StrayCurve, "a curve outside a pump", Some(keyword.span))
             .with_help("curves belong inside `pump NAME { ... }`"),
         StatementKind::Let { .. } | StatementKind::Block { .. } => return None,
     })

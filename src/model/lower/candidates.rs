@@ -1,6 +1,7 @@
 //! The pump candidates, each lowered by `model::pumps`, with their names and count checked.
 
 use super::{duplicate_name, Blocks, MAX_PUMPS};
+use crate::diagnostics::Code;
 use crate::diagnostics::Diagnostic;
 use crate::model::design::PumpCandidate;
 use crate::model::eval::Env;
@@ -38,7 +39,7 @@ pub fn lower_candidates(
     if let Some(first_over) = pump_list.get(MAX_PUMPS) {
         diags.push(
             Diagnostic::error(
-                "too-many",
+                Code::TooMany,
                 format!(
                     "the design has {} pumps; at most {MAX_PUMPS} are accepted",
                     pump_list.len()
@@ -53,7 +54,7 @@ pub fn lower_candidates(
     }
     if pump_list.is_empty() && blocks.one("pump").is_none() {
         diags.push(Diagnostic::warning(
-            "no-pumps",
+            Code::NoPumps,
             "the design has no pump candidates: only system curves are computed",
             None,
         ));

@@ -1,6 +1,7 @@
 //! The cases: the base scenario with overrides, or the base alone as case `design`.
 
 use super::{duplicate_name, source_text, Block, Blocks, MAX_CASES};
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::Env;
@@ -25,7 +26,7 @@ pub fn lower_cases(
     if let Some(first_over) = cases.get(MAX_CASES) {
         diags.push(
             Diagnostic::error(
-                "too-many",
+                Code::TooMany,
                 format!(
                     "the design has {} cases; at most {MAX_CASES} are accepted",
                     cases.len()
@@ -40,7 +41,7 @@ pub fn lower_cases(
         if let Some(base) = base {
             diags.push(
                 Diagnostic::warning(
-                    "no-cases",
+                    Code::NoCases,
                     "no `case` given: the base design is analysed as case `design`",
                     None,
                 )
@@ -69,7 +70,7 @@ fn lower_case(
     let (name, name_span) = block_name(
         block.args,
         block.span,
-        "bad-case",
+        Code::BadCase,
         "a case",
         "case normal { }",
         diags,
@@ -88,7 +89,7 @@ fn lower_case(
     for statement in block.statements() {
         let StatementKind::Assign { path, value } = &statement.kind else {
             diags.push(Diagnostic::error(
-                "unexpected",
+                Code::Unexpected,
                 "a case holds only overrides such as `sump.level = 101.0 m`",
                 Some(statement.span),
             ));
@@ -98,7 +99,7 @@ fn lower_case(
         if let Some((_, first)) = set.iter().find(|(p, _)| *p == dotted) {
             diags.push(
                 Diagnostic::error(
-                    "duplicate-field",
+                    Code::DuplicateField,
                     format!("case `{name}` sets `{dotted}` twice"),
                     Some(path.span),
                 )

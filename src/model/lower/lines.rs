@@ -2,6 +2,7 @@
 //! pipe segments, and the source and destination tanks they connect.
 
 use super::{duplicate_name, Block, Blocks, MAX_SEGMENTS};
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::{self, Env};
@@ -71,7 +72,7 @@ fn lower_line(
         (true, false) => Side::Discharge,
         _ => {
             diags.push(
-                Diagnostic::error("bad-line", "a line runs from a tank to `pump` (suction) or from `pump` to a tank (discharge)", Some(block.span))
+                Diagnostic::error(Code::BadLine, "a line runs from a tank to `pump` (suction) or from `pump` to a tank (discharge)", Some(block.span))
                     .with_help("e.g. `line suction from sump to pump { ... }`"),
             );
             return None;
@@ -86,7 +87,7 @@ fn lower_line(
     if segments.is_empty() && block.body.is_some_and(|b| b.is_empty()) || block.body.is_none() {
         diags.push(
             Diagnostic::error(
-                "empty-line",
+                Code::EmptyLine,
                 format!("line `{name}` has no pipe"),
                 Some(name_span),
             )
@@ -135,7 +136,7 @@ fn line_ends(args: &[Arg]) -> Option<(String, Span, End, End)> {
 fn unknown_tank(name: &str, span: Span, tanks: &[Tank]) -> Diagnostic {
     let near = nearest(name, tanks.iter().map(|t| t.name.as_str()));
     Diagnostic::error(
-        "unknown-name",
+        Code::UnknownName,
         format!("there is no tank `{name}`"),
         Some(span),
     )
@@ -171,7 +172,7 @@ fn end_tank(
         } else {
             "discharge"
         };
-        diags.push(Diagnostic::error("bad-line", format!("all {what} lines must connect to the same tank"), Some(other.span))
+        diags.push(Diagnostic::error(Code::BadLine, format!("all {what} lines must connect to the same tank"), Some(other.span))
             .with_label(format!("this {what} line connects to `{}`, the first to `{first}`", far_tank(other)))
             .with_help("dutyline analyses one source and one destination; lines on one side run in series in file order"));
         return None;
@@ -185,7 +186,7 @@ fn check_segment_count(lines: &[Line], diags: &mut Vec<Diagnostic>) {
     if let Some(first_over) = lines.iter().flat_map(|l| &l.segments).nth(MAX_SEGMENTS) {
         diags.push(
             Diagnostic::error(
-                "too-many",
+                Code::TooMany,
                 format!("the design has {total} pipe segments; at most {MAX_SEGMENTS} are accepted"),
                 Some(first_over.span),
             )
@@ -210,7 +211,7 @@ fn missing_side(lines: &[Line], blocks: &Blocks, diags: &mut Vec<Diagnostic>) {
     if !lines.iter().any(|l| l.side == Side::Suction) {
         diags.push(
             Diagnostic::error(
-                "missing-line",
+                Code::MissingLine,
                 "the design has no suction line",
                 Some(first.span),
             )
@@ -221,7 +222,7 @@ fn missing_side(lines: &[Line], blocks: &Blocks, diags: &mut Vec<Diagnostic>) {
     if !lines.iter().any(|l| l.side == Side::Discharge) {
         diags.push(
             Diagnostic::error(
-                "missing-line",
+                Code::MissingLine,
                 "the design has no discharge line",
                 Some(first.span),
             )
@@ -233,7 +234,7 @@ fn missing_side(lines: &[Line], blocks: &Blocks, diags: &mut Vec<Diagnostic>) {
 
 fn bad_line(span: Span) -> Diagnostic {
     Diagnostic::error(
-        "bad-line",
+        Code::BadLine,
         "a line is `line NAME from A to B { ... }`",
         Some(span),
     )

@@ -3,6 +3,7 @@
 //! Each phase reads the grouped top-level [`Blocks`] and what earlier phases produced,
 //! pushes its diagnostics, and hands its result on. Diagnostics come out in phase order.
 
+use crate::diagnostics::Code;
 mod blocks;
 mod candidates;
 mod cases;
@@ -107,7 +108,7 @@ fn base_scenario(
 /// The one "defined twice" diagnostic: `what` names the thing (e.g. "tank `sump`").
 pub(super) fn duplicate_name(what: &str, span: Span, first: Span) -> Diagnostic {
     Diagnostic::error(
-        "duplicate-name",
+        Code::DuplicateName,
         format!("{what} is defined twice"),
         Some(span),
     )

@@ -1,5 +1,6 @@
 //! Operation settings: the motor standard and margins, and the energy price and life.
 
+use crate::diagnostics::Code;
 use crate::diagnostics::Diagnostic;
 use crate::model::design::*;
 use crate::model::eval::{self, expect_dim, expect_number, Env};
@@ -53,7 +54,7 @@ pub fn lower_motor(
                     let v = expect_number(field.value, env, "service factor")?;
                     if !(1.0..=1.5).contains(&v) {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "a service factor lies between 1.0 and 1.5",
                             Some(field.value.span),
                         ));
@@ -64,7 +65,7 @@ pub fn lower_motor(
                     let v = expect_number(field.value, env, name)?;
                     if !(v > 0.3 && v <= 1.0) {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             format!("{name} lies between 30 % and 100 %"),
                             Some(field.value.span),
                         )
@@ -124,7 +125,7 @@ pub fn lower_energy(
                     )?;
                     if q.si < 0.0 {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "an energy price must not be negative",
                             Some(field.value.span),
                         ));
@@ -139,7 +140,7 @@ pub fn lower_energy(
                     let v = expect_number(field.value, env, "years")?;
                     if !(0.0..=100.0).contains(&v) {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             "the life in years lies between 0 and 100",
                             Some(field.value.span),
                         ));
@@ -150,7 +151,7 @@ pub fn lower_energy(
                     let v = expect_number(field.value, env, name)?;
                     if !(-0.5..=1.0).contains(&v) {
                         return Err(Diagnostic::error(
-                            "out-of-range",
+                            Code::OutOfRange,
                             format!("{name} is a yearly rate, e.g. `5 %`"),
                             Some(field.value.span),
                         ));

@@ -1,5 +1,6 @@
 //! The project block, revisions and the free texts (`purpose`, `assume`, `note`).
 
+use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::{self, Env};
@@ -63,13 +64,13 @@ fn lower_revision(args: &[Arg], span: Span, diags: &mut Vec<Diagnostic>) -> Opti
             };
             if id_text.is_empty() {
                 diags.push(Diagnostic::error(
-                    "bad-revision",
+                    Code::BadRevision,
                     "a revision id is a word or number such as `A` or `2`",
                     Some(id.span),
                 ));
                 None
             } else if let Err(msg) = check_date(date) {
-                diags.push(Diagnostic::error("bad-date", msg, Some(args[1].span)));
+                diags.push(Diagnostic::error(Code::BadDate, msg, Some(args[1].span)));
                 None
             } else {
                 Some(Revision {
@@ -82,7 +83,7 @@ fn lower_revision(args: &[Arg], span: Span, diags: &mut Vec<Diagnostic>) -> Opti
         _ => {
             diags.push(
                 Diagnostic::error(
-                    "bad-revision",
+                    Code::BadRevision,
                     "a revision is `revision ID YYYY-MM-DD \"description\"`",
                     Some(span),
                 )
@@ -105,7 +106,7 @@ fn texts_of(blocks: &Blocks, keyword: &'static str, diags: &mut Vec<Diagnostic>)
             _ => {
                 diags.push(
                     Diagnostic::error(
-                        "bad-text",
+                        Code::BadText,
                         format!("`{keyword}` takes one quoted text"),
                         Some(block.span),
                     )
@@ -120,8 +121,22 @@ fn texts_of(blocks: &Blocks, keyword: &'static str, diags: &mut Vec<Diagnostic>)
 fn check_date(date: &str) -> Result<(), String> {
     let parts: Vec<u32> = date.split('-').filter_map(|p| p.parse().ok()).collect();
     match parts.as_slice() {
-        [_, m, day] if (1..=12).contains(m) && (1..=31).contains(day) => Ok(()),
-        _ => Err(format!("`{date}` is not a valid date (YYYY-MM-DD)")),
+        [y, m, day] if (1..=12).contains(m) && (1..=days_in_month(*y, *m)).contains(day) => Ok(()),
+        _ => Err(format!(
+            "`{date}` is not a calendar date (YYYY-MM-DD, a day that exists in its month)"
+        )),
+    }
+}
+
+/// Days in month `month` (1–12) of `year` in the Gregorian calendar (ISO 8601:2019,
+/// clause 3.2.1): a leap year is divisible by 4, except centuries not divisible by 400.
+fn days_in_month(year: u32, month: u32) -> u32 {
+    let leap = year.is_multiple_of(4) && (!year.is_multiple_of(100) || year.is_multiple_of(400));
+    match month {
+        2 if leap => 29,
+        2 => 28,
+        4 | 6 | 9 | 11 => 30,
+        _ => 31,
     }
 }
 
@@ -149,7 +164,7 @@ fn lower_project(p: &mut Project, body: &[Statement], env: &Env, d: &mut Vec<Dia
                     Ok(())
                 }
                 Ok(other) => Err(Diagnostic::error(
-                    "expected-word",
+                    Code::ExpectedWord,
                     format!(
                         "style: expected a style name or a quoted path, found {}",
                         other.describe()
@@ -176,7 +191,7 @@ fn lower_project(p: &mut Project, body: &[Statement], env: &Env, d: &mut Vec<Dia
     }
     if p.title.is_empty() {
         d.push(
-            Diagnostic::warning("no-title", "the project has no title", None)
+            Diagnostic::warning(Code::NoTitle, "the project has no title", None)
                 .with_help("add `title = \"...\"` to `project`"),
         );
     }

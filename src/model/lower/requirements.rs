@@ -1,6 +1,7 @@
 //! The requirements: `QUANTITY >= VALUE [for CASE, ...]` inside `require { ... }`.
 
 use super::{source_text, Blocks};
+use crate::diagnostics::Code;
 use crate::diagnostics::Diagnostic;
 use crate::model::design::*;
 use crate::model::eval::{self, expect_dim, Env};
@@ -40,7 +41,7 @@ fn lower_require_body(
         else {
             d.push(
                 Diagnostic::error(
-                    "bad-requirement",
+                    Code::BadRequirement,
                     "a requirement is `QUANTITY >= VALUE [for CASE, ...]`",
                     Some(st.span),
                 )
@@ -53,7 +54,7 @@ fn lower_require_body(
             let near = nearest(&name, Metric::ALL.iter().map(|(k, _)| *k));
             d.push(
                 Diagnostic::error(
-                    "unknown-field",
+                    Code::UnknownField,
                     format!("`{name}` cannot be required"),
                     Some(path.span),
                 )
@@ -92,7 +93,7 @@ fn lower_require_body(
                 let near = nearest(&c.name, cases.iter().map(|k| k.name.as_str()));
                 d.push(
                     Diagnostic::error(
-                        "unknown-name",
+                        Code::UnknownName,
                         format!("there is no case `{}`", c.name),
                         Some(c.span),
                     )

@@ -1,5 +1,6 @@
 //! The physical setting: fluid, site and the pump station's centreline.
 
+use crate::diagnostics::Code;
 use uom::si::f64::Length;
 use uom::si::length::meter;
 
@@ -56,7 +57,7 @@ fn lower_site(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> Site {
         }
         None => diags.push(
             Diagnostic::warning(
-                "site-assumed",
+                Code::SiteAssumed,
                 "no `site` given: sea level (101.325 kPa) is assumed for NPSH available",
                 None,
             )

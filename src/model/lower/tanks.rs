@@ -1,5 +1,6 @@
 //! The tanks: named levels with a surface pressure.
 
+use crate::diagnostics::Code;
 use uom::si::f64::Length;
 use uom::si::length::meter;
 
@@ -31,14 +32,14 @@ fn lower_tank(
     let (name, name_span) = block_name(
         block.args,
         block.span,
-        "bad-tank",
+        Code::BadTank,
         "a tank",
         "tank sump { level = 101.2 m }",
         diags,
     )?;
     if name == "pump" {
         diags.push(Diagnostic::error(
-            "reserved-name",
+            Code::ReservedName,
             "`pump` names the pump end of a line; choose another tank name",
             Some(name_span),
         ));
