@@ -226,11 +226,23 @@ fn criteria_text(design: &Design, criterion: &str, method: LccMethod) -> String 
         "A candidate qualifies when every case is analysed, has a duty point and no check fails; candidates that do not qualify are listed after those that do. Qualifying candidates are ranked by {criterion}{}; ties go to the larger smallest NPSH margin.",
         match (criterion, method) {
             ("life-cycle energy cost per volume", LccMethod::Discounted { rate, escalation }) =>
-                format!(" over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", design.energy.years, rate * 100.0, escalation * 100.0),
-            ("life-cycle energy cost per volume", _) => format!(" over {:.0} years, undiscounted", design.energy.years),
+                format!("{} over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", price_text(design), design.energy.years, rate * 100.0, escalation * 100.0),
+            ("life-cycle energy cost per volume", _) => format!("{} over {:.0} years, undiscounted", price_text(design), design.energy.years),
             _ => String::new(),
         }
     )
+}
+
+/// " at 0.118 USD/kWh" (the energy price the costs use), or nothing without a price.
+fn price_text(design: &Design) -> String {
+    match design.energy.price_per_joule {
+        Some(p) => format!(
+            " at {} {}/kWh",
+            crate::display::significant_trimmed(p * 3.6e6, 4),
+            design.energy.currency
+        ),
+        None => String::new(),
+    }
 }
 
 /// The basis sentence printed beside the ranking.
