@@ -121,7 +121,7 @@ impl CaseSystem {
                     .map_err(|e| SystemError { message: e.message })?;
                 (
                     p,
-                    format!("U.S. Standard Atmosphere 1976 at {z:.0} m elevation"),
+                    format!("U.S. Standard Atmosphere 1976 at {z:.2} m elevation"),
                 )
             }
         };
