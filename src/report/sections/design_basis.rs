@@ -281,7 +281,7 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
         columns: vec![
             Column::new("Case", 0.2, Align::Left),
             Column::new("Hours per year", 0.16, Align::Right),
-            Column::new("Overrides of the base design", 0.64, Align::Left),
+            Column::new("Changed from the base design", 0.64, Align::Left),
         ],
         rows: analysis
             .cases
@@ -293,12 +293,12 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
                     if case.overrides.is_empty() {
                         "none (base design)".into()
                     } else {
-                        super::wording::plain(&case.overrides.join("; "))
+                        changed_fields(&case.overrides)
                     },
                 ]
             })
             .collect(),
-        caption: Some("Operating cases, their hours per year and what each changes".into()),
+        caption: Some("Operating cases, their hours per year and what each changes; the values each case uses are in the fluid, level and roughness tables above".into()),
     });
 }
 
@@ -343,4 +343,24 @@ fn fitting_text(f: &crate::analysis::system::FittingState) -> String {
         text.push_str(&format!("; θ = {:.1}°", angle.to_degrees()));
     }
     text
+}
+
+/// What a case's overrides change, in words: the field, and a word value such as a
+/// pipe condition ("roughness aged"); numbers are left to the tables that print every
+/// case's values in report units, so no input expression or input unit is quoted.
+fn changed_fields(overrides: &[String]) -> String {
+    overrides
+        .iter()
+        .map(|o| {
+            let (field, value) = o.split_once(" = ").unwrap_or((o.as_str(), ""));
+            let word = !value.is_empty() && value.chars().all(|c| c.is_ascii_alphabetic());
+            let field = super::wording::plain(field);
+            if word {
+                format!("{field} {value}")
+            } else {
+                field
+            }
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
 }
