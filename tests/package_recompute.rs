@@ -21,7 +21,9 @@ impl dutyline::FileAccess for DemoFiles {
 /// The text lines of the demo's package, every page, in stream order.
 fn package_lines(demo: &str) -> Vec<String> {
     let src = std::fs::read_to_string(format!("examples-demo/{demo}.duty")).unwrap();
-    let d = dutyline::check(&src, &DemoFiles).design.expect("valid demo");
+    let d = dutyline::check(&src, &DemoFiles)
+        .design
+        .expect("valid demo");
     let a = dutyline::analysis::analyse(&d);
     let style =
         dutyline::report::layout::style::Style::builtin(dutyline::report::builtin_style_for(&d))
@@ -159,7 +161,12 @@ fn us_duty_head_is_the_static_head_plus_the_printed_segment_losses() {
         sum += num(&cells[4]) + num(&cells[5]);
         rounding += half_ulp(&cells[4]) + half_ulp(&cells[5]);
     }
-    let duty = row(&lines, ": Flow, head and power are for the whole", &["normal"], 3);
+    let duty = row(
+        &lines,
+        ": Flow, head and power are for the whole",
+        &["normal"],
+        3,
+    );
     let head = num(&duty[2]);
     close(
         "duty head of A, case normal",
@@ -177,9 +184,19 @@ fn us_friction_and_minor_heads_follow_from_the_printed_pipe_and_flow() {
     let d_ft = d_in / 12.0;
     let fluid = row(&lines, ": Fluid properties and barometric", &["normal"], 6);
     let (rho_lb_ft3, mu_cp) = (num(&fluid[2]), num(&fluid[3]));
-    let duty = row(&lines, ": Flow, head and power are for the whole", &["normal"], 3);
+    let duty = row(
+        &lines,
+        ": Flow, head and power are for the whole",
+        &["normal"],
+        3,
+    );
     let q_ft3_s = num(&duty[1]) * GAL_FT3 / 60.0;
-    let cells = row(&lines, ": Each segment at the duty flow", &["normal", "discharge 2"], 7);
+    let cells = row(
+        &lines,
+        ": Each segment at the duty flow",
+        &["normal", "discharge 2"],
+        7,
+    );
     // Velocity Q/A, A = πD²/4; the flow carries ±0.5 gpm of 768.
     let v = q_ft3_s / (std::f64::consts::PI * d_ft * d_ft / 4.0);
     close("velocity", v, num(&cells[1]), 0.01);
@@ -195,14 +212,24 @@ fn us_friction_and_minor_heads_follow_from_the_printed_pipe_and_flow() {
     let hf = num(&cells[3]) * length_ft / d_ft * vv * vv / (2.0 * G_FT);
     close("friction head", hf, num(&cells[4]), 2.5e-3 * hf);
     // Minor head of discharge 1: ΣK·n · v²/(2g) with the counts and K of the fittings table.
-    let d1 = row(&lines, ": Each segment at the duty flow", &["normal", "discharge 1"], 7);
+    let d1 = row(
+        &lines,
+        ": Each segment at the duty flow",
+        &["normal", "discharge 1"],
+        7,
+    );
     let sum_k: f64 = fittings_of(&lines, "discharge 1")
         .iter()
         .map(|(n, k)| n * k)
         .sum();
     let v1 = num(&d1[1]);
     let hm = sum_k * v1 * v1 / (2.0 * G_FT);
-    close("minor head, discharge 1", hm, num(&d1[5]), 2.0e-3 * hm + 0.0015);
+    close(
+        "minor head, discharge 1",
+        hm,
+        num(&d1[5]),
+        2.0e-3 * hm + 0.0015,
+    );
 }
 
 #[test]
@@ -215,14 +242,34 @@ fn npsha_follows_from_the_printed_pressures_levels_and_suction_losses() {
     let (p_v, p_a) = (num(&fluid[4]) * 144.0, num(&fluid[5]) * 144.0);
     let levels = row(&lines, ": Surface levels, pump datum", &["normal"], 5);
     let static_suction = num(&levels[0]) - num(&levels[2]);
-    let suction = row(&lines, ": Each segment at the duty flow", &["normal", "suction 1"], 7);
+    let suction = row(
+        &lines,
+        ": Each segment at the duty flow",
+        &["normal", "suction 1"],
+        7,
+    );
     let npsha = p_a / rho + static_suction - p_v / rho - num(&suction[4]) - num(&suction[5]);
     let terms = row(&lines, ": Heads in ft of the case's fluid", &["normal"], 10);
     // Pressures ±0.005 psi are ±0.012 ft each; the result is printed to 0.1 ft.
-    close("NPSHa of A, case normal", npsha, num(&terms[6]), 0.03 + 0.05);
+    close(
+        "NPSHa of A, case normal",
+        npsha,
+        num(&terms[6]),
+        0.03 + 0.05,
+    );
     let sum: f64 = terms[..6].iter().map(|c| num(c)).sum();
-    close("NPSHa as the sum of its printed terms", sum, num(&terms[6]), 6.0 * 0.05 + 0.05);
-    close("margin ratio", num(&terms[6]) / num(&terms[7]), num(&terms[8]), 0.03);
+    close(
+        "NPSHa as the sum of its printed terms",
+        sum,
+        num(&terms[6]),
+        6.0 * 0.05 + 0.05,
+    );
+    close(
+        "margin ratio",
+        num(&terms[6]) / num(&terms[7]),
+        num(&terms[8]),
+        0.03,
+    );
 
     // SI demo, case average, pump KR1: heads in m, g = 9.806 65 m/s².
     let lines = package_lines("kestrel-booster");
@@ -234,9 +281,20 @@ fn npsha_follows_from_the_printed_pressures_levels_and_suction_losses() {
     let terms = row(&lines, ": Heads in m of the case's fluid", &["average"], 10);
     let g = 9.80665;
     close("barometric head", p_a / (rho * g), num(&terms[0]), 0.006);
-    close("vapour pressure head", -p_v / (rho * g), num(&terms[3]), 0.006);
-    let npsha = p_a / (rho * g) + static_suction - p_v / (rho * g) + num(&terms[4]) + num(&terms[5]);
-    close("NPSHa of KR1, case average", npsha, num(&terms[6]), 0.015 + 0.005);
+    close(
+        "vapour pressure head",
+        -p_v / (rho * g),
+        num(&terms[3]),
+        0.006,
+    );
+    let npsha =
+        p_a / (rho * g) + static_suction - p_v / (rho * g) + num(&terms[4]) + num(&terms[5]);
+    close(
+        "NPSHa of KR1, case average",
+        npsha,
+        num(&terms[6]),
+        0.015 + 0.005,
+    );
 }
 
 #[test]
@@ -244,29 +302,64 @@ fn power_follows_from_the_printed_flow_head_density_and_efficiencies() {
     // US: P = ρ·g·Q·H with ρg in lbf/ft³, Q in ft³/s, H in ft, over 550 ft·lbf/s per hp.
     let lines = package_lines("orchard-lift-rev-a");
     let fluid = row(&lines, ": Fluid properties and barometric", &["normal"], 6);
-    let duty = row(&lines, ": Flow, head and power are for the whole", &["normal"], 10);
+    let duty = row(
+        &lines,
+        ": Flow, head and power are for the whole",
+        &["normal"],
+        10,
+    );
     let (q, h) = (num(&duty[1]) * GAL_FT3 / 60.0, num(&duty[2]));
     let hydraulic = num(&fluid[2]) * q * h / HP_FT_LBF_S;
     let power = row(&lines, ": Whole arrangement at each duty", &["normal"], 10);
     // Flow ±0.5 gpm of 768 is ±0.07 %; head and density less.
-    close("hydraulic power of A", hydraulic, num(&power[0]), 1.2e-3 * hydraulic);
+    close(
+        "hydraulic power of A",
+        hydraulic,
+        num(&power[0]),
+        1.2e-3 * hydraulic,
+    );
     let shaft = num(&power[0]) / (num(&power[2]) / 100.0);
-    close("shaft power of A", shaft, num(&power[1]), 1.0e-3 * shaft + 0.005);
+    close(
+        "shaft power of A",
+        shaft,
+        num(&power[1]),
+        1.0e-3 * shaft + 0.005,
+    );
     assert_eq!(power[4], "none", "no drive on A");
     let input = num(&power[1]) / (num(&power[3]) / 100.0);
     close("input power of A", input, num(&power[5]), 1.0e-3 * input);
-    close("shaft power in the duty table", num(&duty[7]), num(&power[1]), 0.0);
+    close(
+        "shaft power in the duty table",
+        num(&duty[7]),
+        num(&power[1]),
+        0.0,
+    );
 
     // SI: P = ρ·g·Q·H in kW, and a variable-speed drive in the input power.
     let lines = package_lines("kestrel-booster");
     let fluid = row(&lines, ": Fluid properties and barometric", &["average"], 6);
-    let duty = row(&lines, ": Flow, head and power are for the whole", &["average"], 10);
+    let duty = row(
+        &lines,
+        ": Flow, head and power are for the whole",
+        &["average"],
+        10,
+    );
     let (q, h) = (num(&duty[1]) / 3600.0, num(&duty[2]));
     let hydraulic = num(&fluid[2]) * 9.80665 * q * h / 1e3;
     let power = row(&lines, ": Whole arrangement at each duty", &["average"], 10);
-    close("hydraulic power of KR1", hydraulic, num(&power[0]), 5e-4 * hydraulic);
+    close(
+        "hydraulic power of KR1",
+        hydraulic,
+        num(&power[0]),
+        5e-4 * hydraulic,
+    );
     let input = num(&power[1]) / (num(&power[3]) / 100.0 * num(&power[4]) / 100.0);
-    close("input power of KR1 with its drive", input, num(&power[5]), 1.2e-3 * input);
+    close(
+        "input power of KR1 with its drive",
+        input,
+        num(&power[5]),
+        1.2e-3 * input,
+    );
 }
 
 #[test]
@@ -282,7 +375,12 @@ fn energy_and_life_cycle_cost_follow_from_the_printed_powers_hours_and_price() {
         rounding += (0.005 * hours + 0.5 * input_hp) * HP_KW;
     }
     let ranking = row(&lines, ": Ranking of the candidates", &["1", "A"], 7);
-    close("energy per year of A", energy_kwh, num(&ranking[1]), rounding + 0.5);
+    close(
+        "energy per year of A",
+        energy_kwh,
+        num(&ranking[1]),
+        rounding + 0.5,
+    );
     // Cost per year = energy × the price the basis states; life cost = A × PWF.
     let basis: String = lines.join(" ");
     let price = basis
@@ -290,15 +388,30 @@ fn energy_and_life_cycle_cost_follow_from_the_printed_powers_hours_and_price() {
         .find_map(|s| s.strip_suffix_any_price())
         .expect("the basis states the energy price");
     let cost = num(&ranking[1]) * price;
-    close("cost per year of A", cost, num(&ranking[3]), 0.5 * price + 0.5);
+    close(
+        "cost per year of A",
+        cost,
+        num(&ranking[3]),
+        0.5 * price + 0.5,
+    );
     let (years, i, e) = (20.0, 0.05, 0.0); // "over 20 years, discounted at 5.0 % with 0.0 %"
     assert!(basis.contains("over 20 years, discounted at 5.0 % with 0.0 % energy-price escalation"));
     let i_net: f64 = (1.0 + i) / (1.0 + e) - 1.0;
     let pwf = ((1.0 + i_net).powf(years) - 1.0) / (i_net * (1.0 + i_net).powf(years));
-    close("life energy cost of A", num(&ranking[3]) * pwf, num(&ranking[4]), 0.5 * pwf + 0.5);
+    close(
+        "life energy cost of A",
+        num(&ranking[3]) * pwf,
+        num(&ranking[4]),
+        0.5 * pwf + 0.5,
+    );
     // Life cost per 1000 gal: life cost ÷ (years × volume per year in 1000 gal).
     let per_volume = num(&ranking[4]) / (years * num(&ranking[0]));
-    close("life cost per 1000 gal of A", per_volume, num(&ranking[5]), 5e-6 + 1e-5 * per_volume);
+    close(
+        "life cost per 1000 gal of A",
+        per_volume,
+        num(&ranking[5]),
+        5e-6 + 1e-5 * per_volume,
+    );
 }
 
 /// The price in "0.118 USD/kWh over 20 years ...".

@@ -16,7 +16,11 @@ impl dutyline::FileAccess for DemoFiles {
     }
 }
 
-const DEMOS: [&str; 3] = ["orchard-lift-rev-a", "orchard-lift-rev-b", "kestrel-booster"];
+const DEMOS: [&str; 3] = [
+    "orchard-lift-rev-a",
+    "orchard-lift-rev-b",
+    "kestrel-booster",
+];
 
 struct Package {
     design: dutyline::Design,
@@ -26,7 +30,9 @@ struct Package {
 
 fn package(demo: &str) -> Package {
     let src = std::fs::read_to_string(format!("examples-demo/{demo}.duty")).unwrap();
-    let design = dutyline::check(&src, &DemoFiles).design.expect("valid demo");
+    let design = dutyline::check(&src, &DemoFiles)
+        .design
+        .expect("valid demo");
     let a = dutyline::analysis::analyse(&design);
     let style = dutyline::report::layout::style::Style::builtin(
         dutyline::report::builtin_style_for(&design),
@@ -150,7 +156,10 @@ fn no_input_syntax_or_raw_identifiers_before_the_appendix() {
         let d = &p.design;
         // The designer's own names (cases, tanks, lines, pumps) are the reader's names too.
         let mut names: Vec<&str> = d.cases.iter().map(|c| c.name.as_str()).collect();
-        names.extend([d.base.source.name.as_str(), d.base.destination.name.as_str()]);
+        names.extend([
+            d.base.source.name.as_str(),
+            d.base.destination.name.as_str(),
+        ]);
         names.extend(d.base.lines.iter().map(|l| l.name.as_str()));
         names.extend(d.pumps.iter().map(|p| p.name.as_str()));
         let fittings: Vec<&str> = dutyline::hydraulics::fittings::all_fittings()
@@ -167,7 +176,8 @@ fn no_input_syntax_or_raw_identifiers_before_the_appendix() {
             }
             for w in words(text) {
                 let identifier = w.contains('_')
-                    && w.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '_');
+                    && w.chars()
+                        .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '_');
                 assert!(
                     !identifier || names.contains(&w),
                     "{demo}: page {} prints the identifier {w:?}",
@@ -190,8 +200,7 @@ fn no_input_syntax_or_raw_identifiers_before_the_appendix() {
 
 /// Units that must not appear in a package of the other system (as whole words).
 const SI_ONLY: [&str; 14] = [
-    "m", "mm", "m³", "m³/h", "m³/s", "m/s", "kPa", "Pa", "MPa", "°C", "kg/m³", "L/s", "kW",
-    "bar",
+    "m", "mm", "m³", "m³/h", "m³/s", "m/s", "kPa", "Pa", "MPa", "°C", "kg/m³", "L/s", "kW", "bar",
 ];
 const US_ONLY: [&str; 10] = [
     "ft", "gpm", "psi", "psig", "psia", "hp", "°F", "ft/s", "lb/ft³", "gal",
@@ -227,9 +236,7 @@ fn no_negative_zero_is_printed() {
         let p = package(demo);
         for (k, text) in p.pages.iter().enumerate() {
             for w in words(text) {
-                let unsigned = w
-                    .strip_prefix('-')
-                    .or_else(|| w.strip_prefix('\u{2212}'));
+                let unsigned = w.strip_prefix('-').or_else(|| w.strip_prefix('\u{2212}'));
                 if let Some(digits) = unsigned {
                     let zero = !digits.is_empty()
                         && digits.starts_with('0')

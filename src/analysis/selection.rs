@@ -261,24 +261,32 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
     if criterion == "mean efficiency" {
         return "No case states operating hours, so energy cannot be compared: qualifying candidates are ranked by their mean pump efficiency over the cases.".into();
     }
+    let per = crate::display::Units::new(design.project.units).volume_cost_unit();
     let mut s = format!(
         "Candidates are compared per volume delivered ({}).",
         if criterion.starts_with("life") {
-            "life-cycle energy cost per cubic metre or gallon"
+            format!("life-cycle energy cost per {per}")
         } else {
-            "energy per cubic metre or gallon"
+            format!("energy per {per}")
         }
     );
+    let cases_word = |names: &[&str], one: &str, many: &str| {
+        if names.len() == 1 {
+            format!("Case {} {one}", names[0])
+        } else {
+            format!("Cases {} {many}", names.join(", "))
+        }
+    };
     if !fixed.is_empty() {
         s.push_str(&format!(
-            " Cases {} fix the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
-            fixed.join(", ")
+            " {} the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
+            cases_word(&fixed, "fixes", "fix")
         ));
     }
     if !open.is_empty() {
         s.push_str(&format!(
-            " Cases {} state hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
-            open.join(", ")
+            " {} hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
+            cases_word(&open, "states", "state")
         ));
     }
     s
