@@ -341,6 +341,24 @@ impl Units {
             },
         )
     }
+    /// Volume in a table column: m³, or thousands of US gallons (the unit specific
+    /// energy and cost per volume use), so a year's volume keeps to a few digits.
+    pub fn volume_column(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "m³",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 0,
+            },
+            Shown {
+                label: "1000 gal",
+                factor: 1000.0 * GAL,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
+    }
     /// Costs per volume are printed per m³ (SI) or per 1000 gal (US): the factor from
     /// a cost per m³, and the unit's name.
     pub fn volume_per_cost_unit(&self) -> f64 {
@@ -368,4 +386,45 @@ impl Units {
 /// A fraction as a percentage, "76.5 %".
 pub fn percent(f: f64) -> String {
     format!("{:.1} %", 100.0 * f)
+}
+
+/// `value` to `digits` significant figures for print (trailing zeros kept, so a column
+/// of costs reads alike: "0.04924", "0.03290"), with the minus sign of [`typeset`].
+pub fn significant(value: f64, digits: usize) -> String {
+    typeset(value, significant_decimals(value, digits))
+}
+
+/// As [`significant`] with trailing zeros dropped, for a value quoted in a sentence
+/// ("0.118 USD/kWh").
+pub fn significant_trimmed(value: f64, digits: usize) -> String {
+    let text = significant(value, digits);
+    if text.contains('.') {
+        text.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        text
+    }
+}
+
+/// Decimals that give `value` `digits` significant figures (none for large values).
+fn significant_decimals(value: f64, digits: usize) -> usize {
+    if value == 0.0 || !value.is_finite() {
+        return digits.saturating_sub(1);
+    }
+    let magnitude = value.abs().log10().floor() as i64;
+    (digits as i64 - 1 - magnitude).clamp(0, 12) as usize
+}
+
+#[cfg(test)]
+mod significant_tests {
+    use super::*;
+
+    #[test]
+    fn significant_figures_keep_or_drop_zeros() {
+        assert_eq!(significant(0.049236, 4), "0.04924");
+        assert_eq!(significant(0.0329, 4), "0.03290");
+        assert_eq!(significant(-0.0329, 2), "\u{2212}0.033");
+        assert_eq!(significant(70692.4, 4), "70692");
+        assert_eq!(significant_trimmed(0.118, 4), "0.118");
+        assert_eq!(significant_trimmed(0.21, 4), "0.21");
+    }
 }

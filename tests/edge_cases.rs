@@ -544,7 +544,7 @@ fn hazen_williams_on_a_liquid_other_than_water_is_flagged() {
     ]));
     assert!(has_warning(
         r.pump("P"),
-        "Hazen-Williams is fitted to water, not to `brine`"
+        "Hazen-Williams is fitted to water, not to brine"
     ));
     let r = run(&design(&[(
         "pipe steel 4 in schedule 40 { length = 100 m }",

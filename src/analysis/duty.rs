@@ -10,6 +10,7 @@ use super::checks::{self, Check};
 use super::limits::{CheckId, Source};
 use super::system::{CaseSystem, NpshTerms, SegmentAtFlow, G};
 use crate::diagnostics::Span;
+use crate::display::Units;
 use crate::model::{Adjust, ArrangementKind, Case, Design, Metric, PumpCandidate, Side};
 use crate::pumps::{self, DutyOutcome, PumpCurves, ScaledPump};
 
@@ -39,7 +40,13 @@ pub struct CandidateCurves {
 }
 
 impl CandidateCurves {
+    /// The candidate's curves fitted, remarks in SI units (see [`CandidateCurves::fit_for`]).
     pub fn fit(p: &PumpCandidate) -> CandidateCurves {
+        CandidateCurves::fit_for(p, &Units::new(crate::model::ReportUnits::Si))
+    }
+
+    /// The candidate's curves fitted, the remarks' diameters in `units`.
+    pub fn fit_for(p: &PumpCandidate, units: &Units) -> CandidateCurves {
         let mut warnings = Vec::new();
         let published: Vec<Result<PumpCurves, String>> = p
             .curves
@@ -82,7 +89,7 @@ impl CandidateCurves {
             }
         }
         let good: Vec<&PumpCurves> = published.iter().filter_map(|r| r.as_ref().ok()).collect();
-        let evaluated = choose(p, &good, &mut warnings);
+        let evaluated = choose(p, &good, &mut warnings, units);
         let evaluated_bep = evaluated
             .as_ref()
             .and_then(|(c, _)| pumps::best_efficiency_point(c));
@@ -116,7 +123,9 @@ fn choose(
     p: &PumpCandidate,
     good: &[&PumpCurves],
     warnings: &mut Vec<String>,
+    units: &Units,
 ) -> Option<(PumpCurves, f64)> {
+    let dia = units.diameter();
     let largest = good.iter().max_by(|a, b| {
         a.impeller_diameter_m
             .unwrap_or(0.0)
@@ -183,13 +192,13 @@ fn choose(
     match base {
         Some(b) => {
             let r = want / b.impeller_diameter_m.unwrap_or(want);
-            warnings.push(format!("impeller {:.1} mm from the published {:.1} mm by the trim law (ratio {:.3}): confirm with the manufacturer", want * 1000.0, b.impeller_diameter_m.unwrap_or(0.0) * 1000.0, r));
+            warnings.push(format!("impeller {} from the published {} by the trim law (ratio {:.3}): confirm with the manufacturer", dia.text(want), dia.text(b.impeller_diameter_m.unwrap_or(0.0)), r));
             Some(((**b).clone(), r))
         }
         None => {
             warnings.push(format!(
-                "impeller {:.1} mm is larger than any published curve; the largest is used",
-                want * 1000.0
+                "impeller {} is larger than any published curve; the largest is used",
+                dia.text(want)
             ));
             Some(((*largest).clone(), 1.0))
         }
@@ -707,7 +716,8 @@ pub fn evaluate(
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
         crate::model::Fluid::Water { .. } => None,
     };
-    out.warnings.extend(sys.flow_warnings(q, custom_fluid));
+    out.warnings
+        .extend(sys.flow_warnings(q, custom_fluid, &Units::new(design.project.units)));
     out.checks = checks::duty_checks(design, case, &duty, p);
     out.checks.extend(checks::headroom_check(&out.headroom));
     out.duty = Some(duty);

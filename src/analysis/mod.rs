@@ -88,7 +88,9 @@ pub fn analyse(design: &Design) -> Analysis {
     let candidates: Vec<duty::CandidateCurves> = design
         .pumps
         .iter()
-        .map(duty::CandidateCurves::fit)
+        .map(|p| {
+            duty::CandidateCurves::fit_for(p, &crate::display::Units::new(design.project.units))
+        })
         .collect();
     for c in &candidates {
         for w in &c.warnings {

@@ -142,8 +142,7 @@ fn evaluate(
         let (ws, rs) = pw.fmt_against(w, m.choice.rating_w);
         let over = w > m.choice.rating_w * (1.0 + 1e-9);
         msg.push_str(&format!(
-            ", shaft power {ws} against the {} nameplate {rs}{}",
-            m.choice.rating_label,
+            ", shaft power {ws} against the nameplate {rs}{}",
             if over { " (above the nameplate)" } else { "" }
         ));
         if over {

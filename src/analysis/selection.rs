@@ -226,11 +226,23 @@ fn criteria_text(design: &Design, criterion: &str, method: LccMethod) -> String 
         "A candidate qualifies when every case is analysed, has a duty point and no check fails; candidates that do not qualify are listed after those that do. Qualifying candidates are ranked by {criterion}{}; ties go to the larger smallest NPSH margin.",
         match (criterion, method) {
             ("life-cycle energy cost per volume", LccMethod::Discounted { rate, escalation }) =>
-                format!(" over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", design.energy.years, rate * 100.0, escalation * 100.0),
-            ("life-cycle energy cost per volume", _) => format!(" over {:.0} years, undiscounted", design.energy.years),
+                format!("{} over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", price_text(design), design.energy.years, rate * 100.0, escalation * 100.0),
+            ("life-cycle energy cost per volume", _) => format!("{} over {:.0} years, undiscounted", price_text(design), design.energy.years),
             _ => String::new(),
         }
     )
+}
+
+/// " at 0.118 USD/kWh" (the energy price the costs use), or nothing without a price.
+fn price_text(design: &Design) -> String {
+    match design.energy.price_per_joule {
+        Some(p) => format!(
+            " at {} {}/kWh",
+            crate::display::significant_trimmed(p * 3.6e6, 4),
+            design.energy.currency
+        ),
+        None => String::new(),
+    }
 }
 
 /// The basis sentence printed beside the ranking.
@@ -249,24 +261,32 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
     if criterion == "mean efficiency" {
         return "No case states operating hours, so energy cannot be compared: qualifying candidates are ranked by their mean pump efficiency over the cases.".into();
     }
+    let per = crate::display::Units::new(design.project.units).volume_cost_unit();
     let mut s = format!(
         "Candidates are compared per volume delivered ({}).",
         if criterion.starts_with("life") {
-            "life-cycle energy cost per cubic metre or gallon"
+            format!("life-cycle energy cost per {per}")
         } else {
-            "energy per cubic metre or gallon"
+            format!("energy per {per}")
         }
     );
+    let cases_word = |names: &[&str], one: &str, many: &str| {
+        if names.len() == 1 {
+            format!("Case {} {one}", names[0])
+        } else {
+            format!("Cases {} {many}", names.join(", "))
+        }
+    };
     if !fixed.is_empty() {
         s.push_str(&format!(
-            " Cases {} fix the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
-            fixed.join(", ")
+            " {} the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
+            cases_word(&fixed, "fixes", "fix")
         ));
     }
     if !open.is_empty() {
         s.push_str(&format!(
-            " Cases {} state hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
-            open.join(", ")
+            " {} hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
+            cases_word(&open, "states", "state")
         ));
     }
     s

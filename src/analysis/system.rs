@@ -14,6 +14,7 @@ use uom::si::{
     pressure::pascal, thermodynamic_temperature::kelvin,
 };
 
+use crate::display::Units;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
@@ -120,7 +121,7 @@ impl CaseSystem {
                     .map_err(|e| SystemError { message: e.message })?;
                 (
                     p,
-                    format!("U.S. Standard Atmosphere 1976 at {z:.0} m elevation"),
+                    format!("U.S. Standard Atmosphere 1976 at {z:.2} m elevation"),
                 )
             }
         };
@@ -352,7 +353,8 @@ impl CaseSystem {
     /// Validity warnings at flow q, one per segment and remark: the laminar-turbulent
     /// transition, Darcy-Weisbach beyond Moody's (1944) chart, and Hazen-Williams outside
     /// its range (water only: `custom_fluid` names a liquid that is not water).
-    pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>) -> Vec<String> {
+    /// Values in the remarks are in `units`.
+    pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>, units: &Units) -> Vec<String> {
         let mut out = Vec::new();
         for (i, regime, re) in self.regimes(q) {
             let seg = &self.segments[i];
@@ -360,14 +362,17 @@ impl CaseSystem {
                 out.push(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1));
             }
             if let Some(c) = seg.hazen_williams_c {
-                let mut ws = friction::hazen_williams_validity(
+                let mut ws: Vec<String> = friction::hazen_williams_remarks(
                     q / seg.area,
                     seg.inner_diameter,
                     c,
                     self.fluid.temperature_k.unwrap_or(288.15),
-                );
+                )
+                .into_iter()
+                .map(|r| hazen_williams_remark(r, units))
+                .collect();
                 if let Some(name) = custom_fluid {
-                    ws.push(format!("Hazen-Williams is fitted to water, not to `{name}`; use Darcy-Weisbach with Colebrook"));
+                    ws.push(format!("Hazen-Williams is fitted to water, not to {name}; use Darcy-Weisbach with Colebrook"));
                 }
                 for w in ws {
                     out.push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
@@ -517,4 +522,37 @@ pub fn k_of(f: &FittingState, re: f64, d: f64) -> f64 {
         },
     )
     .unwrap_or(f64::NAN)
+}
+
+/// A Hazen-Williams remark in words, its value and limit in the report's units
+/// (limits common practice, see [`friction::HazenWilliamsRemark`]).
+fn hazen_williams_remark(remark: friction::HazenWilliamsRemark, units: &Units) -> String {
+    use friction::HazenWilliamsRemark as R;
+    match remark {
+        R::NotFinite(name, value) => {
+            format!("Hazen-Williams: {name} is not a finite number ({value})")
+        }
+        R::Temperature(t) => {
+            let (lo, hi) = friction::HW_TEMPERATURE_RANGE_K;
+            let tu = units.temperature();
+            format!(
+                "Hazen-Williams is fitted to water at ordinary temperatures (about {}–{}); {} is outside, use Darcy-Weisbach with Colebrook",
+                tu.figure(lo),
+                tu.text(hi),
+                tu.text(t)
+            )
+        }
+        R::Velocity(v) => {
+            let (value, limit) = units.velocity().fmt_against(v, friction::HW_MAX_VELOCITY);
+            format!("Hazen-Williams: velocity {value} is above about {limit}, where its fixed exponents misjudge the loss; use Darcy-Weisbach")
+        }
+        R::Diameter(d) => {
+            let (value, limit) = units.diameter().fmt_against(d, friction::HW_MIN_DIAMETER);
+            format!("Hazen-Williams: inside diameter {value} is below about {limit}, outside the pipes it was fitted to; use Darcy-Weisbach")
+        }
+        R::C(c) => format!(
+            "Hazen-Williams: C = {} is outside the usual 60–150 range of published C values",
+            crate::display::significant_trimmed(c, 4)
+        ),
+    }
 }

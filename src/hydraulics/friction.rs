@@ -23,8 +23,9 @@ pub use colebrook::{
 };
 pub use explicit::{churchill_1977, haaland_1983, laminar, swamee_jain_1976};
 pub use hazen_williams::{
-    hazen_williams_head_loss_m, hazen_williams_psi_per_ft, hazen_williams_validity,
-    HAZEN_WILLIAMS_SI_CONSTANT, HAZEN_WILLIAMS_US_CONSTANT,
+    hazen_williams_head_loss_m, hazen_williams_psi_per_ft, hazen_williams_remarks,
+    hazen_williams_validity, HazenWilliamsRemark, HAZEN_WILLIAMS_SI_CONSTANT,
+    HAZEN_WILLIAMS_US_CONSTANT, HW_MAX_VELOCITY, HW_MIN_DIAMETER, HW_TEMPERATURE_RANGE_K,
 };
 
 use std::fmt;

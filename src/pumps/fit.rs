@@ -367,9 +367,9 @@ pub fn fit_default(
         if r.max_relative > ACCEPT_RELATIVE_RESIDUAL {
             warnings.push(format!(
                 "efficiency curve: the least-squares degree-{degree} fit misses a data point \
-                 by {:.1} % of the efficiency range (max deviation {:.4})",
+                 by {:.1} % of the efficiency range ({:.1} efficiency points)",
                 100.0 * r.max_relative,
-                r.max_abs
+                100.0 * r.max_abs
             ));
         }
         let peak = curve.max_on_domain();

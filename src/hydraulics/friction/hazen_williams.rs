@@ -59,63 +59,104 @@ pub fn hazen_williams_psi_per_ft(flow_gpm: f64, diameter_in: f64, c: f64) -> f64
     magnitude.copysign(flow_gpm)
 }
 
-/// Warnings (human-readable) when a Hazen–Williams calculation is outside the range in
-/// which the method is normally trusted; empty when inside. All limits are common
-/// practice (the method is empirical, fitted to water near 60 degF in ordinary pipes):
-/// - water temperature about 5–25 degC;
-/// - velocity up to about 3 m/s (10 ft/s);
-/// - inside diameter at least about 50 mm (2 in);
-/// - C between 60 (old, badly tuberculated pipe) and 150 (very smooth pipe).
-pub fn hazen_williams_validity(
+/// Where a Hazen-Williams calculation leaves the range in which the method is normally
+/// trusted, with the value found (SI), so an output can state it in its own units.
+/// All limits are common practice (the method is empirical, fitted to water near
+/// 60 degF in ordinary pipes).
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum HazenWilliamsRemark {
+    /// An input is not a finite number: its name and value.
+    NotFinite(&'static str, f64),
+    /// Water temperature (K) outside about 5–25 degC ([`HW_TEMPERATURE_RANGE_K`]).
+    Temperature(f64),
+    /// Velocity (m/s) above about 3 m/s (10 ft/s, [`HW_MAX_VELOCITY`]).
+    Velocity(f64),
+    /// Inside diameter (m) below about 50 mm (2 in, [`HW_MIN_DIAMETER`]).
+    Diameter(f64),
+    /// C outside 60 (old, badly tuberculated pipe) to 150 (very smooth pipe).
+    C(f64),
+}
+
+/// Water temperatures (K) Hazen-Williams is fitted to: about 5–25 degC (common practice).
+pub const HW_TEMPERATURE_RANGE_K: (f64, f64) = (ZERO_CELSIUS_K + 5.0, ZERO_CELSIUS_K + 25.0);
+/// Largest velocity (m/s) for Hazen-Williams: about 3 m/s, 10 ft/s (common practice).
+pub const HW_MAX_VELOCITY: f64 = 3.0;
+/// Smallest inside diameter (m) for Hazen-Williams: about 50 mm, 2 in (common practice).
+pub const HW_MIN_DIAMETER: f64 = 0.05;
+
+/// The remarks on one Hazen–Williams calculation (velocity m/s, inside diameter m,
+/// C, water temperature K); empty when inside the range.
+pub fn hazen_williams_remarks(
     velocity_m_s: f64,
     diameter_m: f64,
     c: f64,
     temperature_k: f64,
-) -> Vec<String> {
-    let mut warnings = Vec::new();
+) -> Vec<HazenWilliamsRemark> {
     let named = [
         ("velocity", velocity_m_s),
         ("diameter", diameter_m),
         ("C", c),
         ("temperature", temperature_k),
     ];
-    for (name, value) in named {
-        if !value.is_finite() {
-            warnings.push(format!(
-                "Hazen-Williams: {name} is not a finite number ({value})"
-            ));
-        }
+    let not_finite: Vec<HazenWilliamsRemark> = named
+        .iter()
+        .filter(|(_, v)| !v.is_finite())
+        .map(|&(name, v)| HazenWilliamsRemark::NotFinite(name, v))
+        .collect();
+    if !not_finite.is_empty() {
+        return not_finite;
     }
-    if !warnings.is_empty() {
-        return warnings;
+    let mut remarks = Vec::new();
+    let (t_lo, t_hi) = HW_TEMPERATURE_RANGE_K;
+    if !(t_lo..=t_hi).contains(&temperature_k) {
+        remarks.push(HazenWilliamsRemark::Temperature(temperature_k));
     }
-    let t_celsius = temperature_k - ZERO_CELSIUS_K;
-    if !(5.0..=25.0).contains(&t_celsius) {
-        warnings.push(format!(
-            "Hazen-Williams is fitted to water at ordinary temperatures (about 5-25 degC); \
-             {t_celsius:.1} degC is outside, use Darcy-Weisbach with Colebrook"
-        ));
+    if velocity_m_s.abs() > HW_MAX_VELOCITY {
+        remarks.push(HazenWilliamsRemark::Velocity(velocity_m_s.abs()));
     }
-    if velocity_m_s.abs() > 3.0 {
-        warnings.push(format!(
-            "Hazen-Williams: velocity {:.2} m/s is above about 3 m/s, where its fixed \
-             exponents misjudge the loss; use Darcy-Weisbach",
-            velocity_m_s.abs()
-        ));
-    }
-    if diameter_m < 0.05 {
-        warnings.push(format!(
-            "Hazen-Williams: inside diameter {:.1} mm is below about 50 mm (2 in), outside \
-             the pipes it was fitted to; use Darcy-Weisbach",
-            diameter_m * 1000.0
-        ));
+    if diameter_m < HW_MIN_DIAMETER {
+        remarks.push(HazenWilliamsRemark::Diameter(diameter_m));
     }
     if !(60.0..=150.0).contains(&c) {
-        warnings.push(format!(
-            "Hazen-Williams: C = {c} is outside the usual 60-150 range of published C values"
-        ));
+        remarks.push(HazenWilliamsRemark::C(c));
     }
-    warnings
+    remarks
+}
+
+/// Warnings (human-readable, SI) when a Hazen–Williams calculation is outside the range
+/// in which the method is normally trusted ([`hazen_williams_remarks`]); empty when
+/// inside. Outputs in other units word the remarks themselves.
+pub fn hazen_williams_validity(
+    velocity_m_s: f64,
+    diameter_m: f64,
+    c: f64,
+    temperature_k: f64,
+) -> Vec<String> {
+    hazen_williams_remarks(velocity_m_s, diameter_m, c, temperature_k)
+        .into_iter()
+        .map(|r| match r {
+            HazenWilliamsRemark::NotFinite(name, value) => {
+                format!("Hazen-Williams: {name} is not a finite number ({value})")
+            }
+            HazenWilliamsRemark::Temperature(t) => format!(
+                "Hazen-Williams is fitted to water at ordinary temperatures (about 5-25 degC); \
+                 {:.1} degC is outside, use Darcy-Weisbach with Colebrook",
+                t - ZERO_CELSIUS_K
+            ),
+            HazenWilliamsRemark::Velocity(v) => format!(
+                "Hazen-Williams: velocity {v:.2} m/s is above about 3 m/s, where its fixed \
+                 exponents misjudge the loss; use Darcy-Weisbach"
+            ),
+            HazenWilliamsRemark::Diameter(d) => format!(
+                "Hazen-Williams: inside diameter {:.1} mm is below about 50 mm (2 in), outside \
+                 the pipes it was fitted to; use Darcy-Weisbach",
+                d * 1000.0
+            ),
+            HazenWilliamsRemark::C(c) => format!(
+                "Hazen-Williams: C = {c} is outside the usual 60-150 range of published C values"
+            ),
+        })
+        .collect()
 }
 
 #[cfg(test)]

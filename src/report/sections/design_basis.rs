@@ -224,7 +224,7 @@ fn fittings(
         for f in &g.fittings {
             rows.push(vec![
                 format!("{} {}", g.line, g.index + 1),
-                f.spec.name.to_string(),
+                fitting_text(f),
                 f.count.to_string(),
                 format!(
                     "{:.3}",
@@ -238,7 +238,7 @@ fn fittings(
         for (i, seg) in line.segments.iter().enumerate() {
             for l in &seg.losses {
                 let what = match (l.k, l.equivalent_length) {
-                    (Some(k), _) => format!("K {k:.3}"),
+                    (Some(k), _) => format!("{k:.3}"),
                     (_, Some(le)) => {
                         format!(
                             "L = {}",
@@ -249,7 +249,7 @@ fn fittings(
                 };
                 rows.push(vec![
                     format!("{} {}", line.name, i + 1),
-                    "loss".into(),
+                    "stated loss".into(),
                     "1".into(),
                     what,
                     format!("given: {}", l.why),
@@ -260,11 +260,11 @@ fn fittings(
     blocks.push(Block::heading(2, "Fittings and other losses"));
     blocks.push(Block::Table {
         columns: vec![
-            Column::new("Line / seg.", 0.13, Align::Left),
-            Column::new("Fitting", 0.20, Align::Left),
-            Column::new("Count", 0.07, Align::Right),
+            Column::new("Line / seg.", 0.12, Align::Left),
+            Column::new("Fitting", 0.28, Align::Left),
+            Column::new("Count", 0.06, Align::Right),
             Column::new("K each", 0.10, Align::Right),
-            Column::new("Source of K", 0.50, Align::Left),
+            Column::new("Source of K", 0.44, Align::Left),
         ],
         rows,
         caption: Some(match q {
@@ -281,7 +281,7 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
         columns: vec![
             Column::new("Case", 0.2, Align::Left),
             Column::new("Hours per year", 0.16, Align::Right),
-            Column::new("Overrides of the base design", 0.64, Align::Left),
+            Column::new("Changed from the base design", 0.64, Align::Left),
         ],
         rows: analysis
             .cases
@@ -293,12 +293,12 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
                     if case.overrides.is_empty() {
                         "none (base design)".into()
                     } else {
-                        super::wording::plain(&case.overrides.join("; "))
+                        changed_fields(&case.overrides)
                     },
                 ]
             })
             .collect(),
-        caption: Some("Operating cases, their hours per year and what each changes".into()),
+        caption: Some("Operating cases, their hours per year and what each changes; the values each case uses are in the fluid, level and roughness tables above".into()),
     });
 }
 
@@ -330,4 +330,37 @@ fn requirements(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
             caption: Some("Requirements of the design and the cases they apply to".into()),
         });
     }
+}
+
+/// A fitting as printed: its description, and the diameter ratio β and total angle θ
+/// its K depends on, so the K can be recomputed from the page.
+fn fitting_text(f: &crate::analysis::system::FittingState) -> String {
+    let mut text = super::wording::fitting(f.spec.description);
+    if let Some(beta) = f.beta {
+        text.push_str(&format!("; β = {beta:.3}"));
+    }
+    if let Some(angle) = f.angle_rad {
+        text.push_str(&format!("; θ = {:.1}°", angle.to_degrees()));
+    }
+    text
+}
+
+/// What a case's overrides change, in words: the field, and a word value such as a
+/// pipe condition ("roughness aged"); numbers are left to the tables that print every
+/// case's values in report units, so no input expression or input unit is quoted.
+fn changed_fields(overrides: &[String]) -> String {
+    overrides
+        .iter()
+        .map(|o| {
+            let (field, value) = o.split_once(" = ").unwrap_or((o.as_str(), ""));
+            let word = !value.is_empty() && value.chars().all(|c| c.is_ascii_alphabetic());
+            let field = super::wording::plain(field);
+            if word {
+                format!("{field} {value}")
+            } else {
+                field
+            }
+        })
+        .collect::<Vec<_>>()
+        .join("; ")
 }

@@ -65,7 +65,7 @@ fn system_head(blocks: &mut Vec<Block>, units: &Units) {
 fn pump_curves(blocks: &mut Vec<Block>) {
     for text in [
         "Pump curves: published head, efficiency, NPSHr and power points are fitted by least squares (quadratic or cubic), or by the Fritsch-Carlson (1980) monotone cubic where a polynomial would not keep head falling with flow; residuals are reported per curve. The best efficiency point (BEP) is the maximum of the efficiency fit. The plots mark the BEP and the preferred operating region of ANSI/HI 9.6.3 (70–120 % of BEP flow); the allowable operating region is the manufacturer's and is not drawn.",
-        "Affinity laws: at speed ratio r, Q ∝ r, H ∝ r², P ∝ r³, efficiency unchanged; NPSHr ∝ r² (common practice). Impeller trim uses the constant-width trim law (Q ∝ D, H ∝ D², P ∝ D³), an approximation to be confirmed by the manufacturer. Identical pumps in parallel share the flow, H(Q/n); in series they add head, n·H(Q).",
+        "Affinity laws: at speed ratio r, Q ∝ r, H ∝ r², P ∝ r³, efficiency unchanged; NPSHr ∝ r² (common practice). Impeller trim uses the constant-width trim law (Q ∝ D, H ∝ D², P ∝ D³), an approximation to be confirmed by the manufacturer. Identical pumps in parallel share the flow, H(Q/n); in series they add head, n·H(Q). Unequal pumps in parallel cannot be described in a design, so whether a weaker pump would run against its shut-off head (deadhead) on a common header is not checked here.",
         "Duty point: the largest-flow crossing of pump (or arrangement) head and system head, found by a 200-interval scan and Brent's (1973) method to 10⁻¹⁰ relative. Variable-speed pumps are set to the speed that meets the case's flow requirement.",
     ] {
         blocks.push(Block::text(text));

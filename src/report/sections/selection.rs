@@ -3,7 +3,7 @@
 
 use crate::analysis::checks::Status;
 use crate::analysis::Analysis;
-use crate::display::{percent, Units};
+use crate::display::{percent, significant, typeset, Units};
 use crate::model::Design;
 use crate::report::layout::document::{Align, Block, Column, Span};
 
@@ -39,20 +39,24 @@ pub(super) fn chapter(
 /// The ranking with the figures it is based on.
 fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: &Units) {
     let currency = &design.energy.currency;
-    let (se, vol) = (units.specific_energy(), units.volume());
+    let (se, vol, en) = (
+        units.specific_energy(),
+        units.volume_column(),
+        units.energy(),
+    );
     let per_volume = units.volume_cost_unit();
     blocks.push(Block::Table {
         columns: vec![
             Column::new("Rank", 0.05, Align::Right),
             Column::new("Candidate", 0.09, Align::Left),
             Column::new(format!("Volume per year ({})", vol.label), 0.10, Align::Right),
-            Column::new("Energy per year", 0.10, Align::Right),
+            Column::new(format!("Energy per year ({})", en.label), 0.10, Align::Right),
             Column::new(format!("Specific energy ({})", se.label), 0.10, Align::Right),
-            Column::new("Cost per year", 0.09, Align::Right),
-            Column::new("Life energy cost", 0.10, Align::Right),
-            Column::new(format!("Life cost per {per_volume}"), 0.09, Align::Right),
+            Column::new(format!("Cost per year ({currency})"), 0.09, Align::Right),
+            Column::new(format!("Life energy cost ({currency})"), 0.10, Align::Right),
+            Column::new(format!("Life cost per {per_volume} ({currency})"), 0.10, Align::Right),
             Column::new("Wire to water", 0.08, Align::Right),
-            Column::new("Qualifies", 0.20, Align::Left),
+            Column::new("Qualifies", 0.19, Align::Left),
         ],
         rows: analysis
             .selection
@@ -64,13 +68,13 @@ fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units:
                     (k + 1).to_string(),
                     r.name.clone(),
                     or_dash(r.annual_volume_m3.map(|v| vol.figure(v))),
-                    or_dash(r.annual_energy_j.map(|e| units.energy().text(e))),
+                    or_dash(r.annual_energy_j.map(|e| en.figure(e))),
                     or_dash(r.specific_energy_j_m3.map(|e| se.figure(e))),
-                    or_dash(r.annual_cost.map(|c| format!("{c:.0} {currency}"))),
-                    or_dash(r.life_cost.map(|c| format!("{c:.0} {currency}"))),
+                    or_dash(r.annual_cost.map(|c| typeset(c, 0))),
+                    or_dash(r.life_cost.map(|c| typeset(c, 0))),
                     or_dash(
                         r.life_cost_per_m3
-                            .map(|c| format!("{:.3} {currency}", c * units.volume_per_cost_unit())),
+                            .map(|c| significant(c * units.volume_per_cost_unit(), 4)),
                     ),
                     or_dash(r.mean_wire_to_water.map(percent)),
                     super::wording::plain(&r.why),

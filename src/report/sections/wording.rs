@@ -56,6 +56,36 @@ const SYMBOLS: [(&str, &str); 12] = [
     ("Kinf", "K∞"),
 ];
 
+/// A fitting as a reader names it, from its table description without the remark in
+/// brackets: "90° long-radius elbow, r/D = 1.5" (never the keyword `elbow_90_long`).
+pub fn fitting(description: &str) -> String {
+    let head = match description.rfind(" (") {
+        Some(at)
+            if description.ends_with(')')
+                && ["Darby", "Hooper", "lists", "geometries"]
+                    .iter()
+                    .any(|w| description[at..].contains(w)) =>
+        {
+            &description[..at]
+        }
+        _ => description,
+    };
+    let mut out = String::new();
+    let mut rest = head;
+    while let Some(at) = rest.find(" deg") {
+        let after = &rest[at + 4..];
+        if after.starts_with(|c: char| c.is_ascii_alphabetic()) {
+            out.push_str(&rest[..at + 4]);
+        } else {
+            out.push_str(&rest[..at]);
+            out.push('°');
+        }
+        rest = after;
+    }
+    out.push_str(rest);
+    plain(&out)
+}
+
 /// A text with the design file's syntax set for print: backticks dropped, relations,
 /// exponents and degree units as symbols, dotted field paths in words
 /// ("discharge.2.hazen_williams_c" → "discharge segment 2 Hazen-Williams C").
@@ -113,6 +143,26 @@ fn field_path(word: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn fittings_print_their_description() {
+        assert_eq!(
+            fitting("90 deg long-radius elbow, r/D = 1.5 (Darby's only r/D = 1.5 entry)"),
+            "90° long-radius elbow, r/D = 1.5"
+        );
+        assert_eq!(
+            fitting("ball valve, reduced trim, beta = 0.9"),
+            "ball valve, reduced trim, β = 0.9"
+        );
+        assert_eq!(
+            fitting("angle valve, 45 deg, full line size"),
+            "angle valve, 45°, full line size"
+        );
+        for spec in crate::hydraulics::fittings::all_fittings() {
+            let shown = fitting(spec.description);
+            assert!(!shown.contains('_') && !shown.contains(" deg"), "{shown}");
+        }
+    }
 
     #[test]
     fn design_syntax_is_set_for_print() {

@@ -8,7 +8,7 @@ use crate::analysis::duty::AdjustLimit;
 use crate::analysis::motor::MotorSizing;
 use crate::analysis::parallel::OneAlone;
 use crate::display::{percent, typeset, Units};
-use crate::model::PumpCandidate;
+use crate::model::{Adjust, PumpCandidate};
 use crate::report::layout::document::{Align, Block, Column};
 
 /// "—" for a missing value.
@@ -177,7 +177,11 @@ pub(super) fn power(
     results: &[CaseRun],
     units: &Units,
 ) {
-    let (pw, se, vol) = (units.power(), units.specific_energy(), units.volume());
+    let (pw, se, vol) = (
+        units.power(),
+        units.specific_energy(),
+        units.volume_column(),
+    );
     let rows: Vec<Vec<String>> = results
         .iter()
         .filter_map(|(case, run)| {
@@ -188,7 +192,11 @@ pub(super) fn power(
                 or_dash(duty.shaft_power.map(|p| pw.figure(p))),
                 or_dash(duty.efficiency.map(percent)),
                 percent(duty.motor_efficiency),
-                percent(duty.drive_efficiency),
+                if matches!(pump.adjust, Adjust::Speed { .. }) || duty.drive_efficiency < 1.0 {
+                    percent(duty.drive_efficiency)
+                } else {
+                    "none".into()
+                },
                 or_dash(duty.input_power.map(|p| pw.figure(p))),
                 or_dash(duty.wire_to_water_efficiency.map(percent)),
                 or_dash(duty.specific_energy.map(|e| se.figure(e))),
@@ -220,7 +228,7 @@ pub(super) fn power(
         ],
         rows,
         caption: Some(
-            "Whole arrangement at each duty (equation 6): hydraulic = ρ·g·Q·H, shaft = hydraulic / pump efficiency, input = shaft / (motor × drive efficiency); wire to water = hydraulic / input; specific energy = input / flow".into(),
+            "Whole arrangement at each duty (equation 6): hydraulic = ρ·g·Q·H, shaft = hydraulic / pump efficiency, input = shaft / (motor × drive efficiency); wire to water = hydraulic / input; specific energy = input / flow. Where a case fixes a volume, the hours are that volume ÷ this candidate's flow".into(),
         ),
     });
 }
