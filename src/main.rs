@@ -146,7 +146,7 @@ enum Command {
     },
     /// Prove a package: recompile its attached sources and compare byte for byte.
     #[command(
-        after_help = "Examples:\n  dutyline verify orchard-lift-rev-a.pdf\n\nThe package's first revision (what dutyline wrote, up to its first %%EOF) is compared; a signature or other incremental update appended later is reported, not checked.\nExit status: 0 identical, 1 differs or not a readable dutyline package (the report or error says where), 2 usage or I/O errors, 3 built by another dutyline version (the results JSON is recomputed and the quantities that moved are listed), 141 standard output closed early."
+        after_help = "Examples:\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf && dutyline verify kestrel.pdf\n\nThe package's first revision (what dutyline wrote, up to its first %%EOF) is compared; a signature or other incremental update appended later is reported, not checked.\nExit status: 0 identical, 1 differs or not a readable dutyline package (the report or error says where), 2 usage or I/O errors, 3 built by another dutyline version (the results JSON is recomputed and the quantities that moved are listed), 141 standard output closed early."
     )]
     Verify {
         /// The PDF package.
@@ -154,7 +154,7 @@ enum Command {
     },
     /// Write a package's attached design and files back out.
     #[command(
-        after_help = "Examples:\n  dutyline extract orchard-lift-rev-a.pdf -o review\n  dutyline diff review/orchard-lift-rev-a.duty examples-demo/orchard-lift-rev-a.duty\n\nWrites every attached file but the build record under DIR, under its relative name; names that are absolute or contain `..` are refused and nothing is written. Existing files are never replaced unless --force.\nExit status: 0 written, 1 not a readable dutyline package or an unsafe attachment name, 2 usage or I/O errors (including an existing file without --force), 141 standard output closed early."
+        after_help = "Examples:\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf && dutyline extract kestrel.pdf -o review\n  dutyline diff review/kestrel-booster.duty examples-demo/kestrel-booster.duty\n\nWrites every attached file but the build record under DIR, under its relative name; names that are absolute or contain `..` are refused and nothing is written. Existing files are never replaced unless --force.\nExit status: 0 written, 1 not a readable dutyline package or an unsafe attachment name, 2 usage or I/O errors (including an existing file without --force), 141 standard output closed early."
     )]
     Extract {
         /// The PDF package.

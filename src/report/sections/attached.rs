@@ -16,8 +16,8 @@ pub(super) fn cover_note(blocks: &mut Vec<Block>, attachments: &[Attachment]) {
     blocks.push(Block::Paragraph(vec![
         Span::bold("Sources attached. "),
         Span::plain(format!(
-            "This PDF carries {} files (listed in the appendix): the design file exactly as compiled and the files it read ({sources} source files in all), the results in machine-readable form (JSON) and the build record. "
-            , attachments.len()
+            "This PDF carries {} files, listed in the last appendix: the design file exactly as compiled with every file it read ({sources} source files in all), the results in machine-readable form (JSON) and the build record. ",
+            attachments.len()
         )),
         Span::mono("dutyline verify THIS.pdf"),
         Span::plain(" recompiles them and confirms byte for byte that this package is what they compile to; "),
@@ -33,10 +33,15 @@ pub(super) fn appendix(blocks: &mut Vec<Block>, attachments: &[Attachment]) {
     }
     let mut sorted: Vec<&Attachment> = attachments.iter().collect();
     sorted.sort_by(|a, b| a.name.as_bytes().cmp(b.name.as_bytes()));
-    blocks.push(Block::heading(2, "Attached files"));
-    blocks.push(Block::text(
-        "Embedded in this PDF as associated files (PDF/A-3 relationship in brackets). A viewer lists them under attachments; `dutyline extract` writes them out.",
-    ));
+    blocks.push(Block::PageBreak);
+    blocks.push(Block::heading(1, "Appendix: attached files"));
+    blocks.push(Block::Paragraph(vec![
+        Span::plain("Embedded in this PDF as associated files, with their PDF/A-3 relationship in brackets; a PDF viewer lists them under attachments. "),
+        Span::mono("dutyline verify"),
+        Span::plain(" recompiles the source files with the version in the build record and compares the result with this PDF byte for byte; "),
+        Span::mono("dutyline extract"),
+        Span::plain(" writes the files out. The SHA-256 of each file is also in its description inside the PDF."),
+    ]));
     blocks.push(Block::Table {
         columns: vec![
             Column::new("File", 0.30, Align::Left),
