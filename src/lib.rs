@@ -21,6 +21,7 @@ pub mod report;
 pub mod results;
 pub mod syntax;
 pub mod units;
+pub mod verify;
 
 use diagnostics::Diagnostic;
 pub use model::{Design, FileAccess, NoFiles};

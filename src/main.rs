@@ -13,6 +13,7 @@ mod cli {
     pub mod git;
     pub mod output;
     pub mod starter;
+    pub mod verify;
 }
 
 use cli::commands::{self, Format};
@@ -143,6 +144,28 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Prove a package: recompile its attached sources and compare byte for byte.
+    #[command(
+        after_help = "Examples:\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf && dutyline verify kestrel.pdf\n\nThe package's first revision (what dutyline wrote, up to its first %%EOF) is compared; a signature or other incremental update appended later is reported, not checked.\nExit status: 0 identical, 1 differs or not a readable dutyline package (the report or error says where), 2 usage or I/O errors, 3 built by another dutyline version (the results JSON is recomputed and the quantities that moved are listed), 141 standard output closed early."
+    )]
+    Verify {
+        /// The PDF package.
+        package: PathBuf,
+    },
+    /// Write a package's attached design and files back out.
+    #[command(
+        after_help = "Examples:\n  dutyline build examples-demo/kestrel-booster.duty -o kestrel.pdf && dutyline extract kestrel.pdf -o review\n  dutyline diff review/kestrel-booster.duty examples-demo/kestrel-booster.duty\n\nWrites every attached file but the build record under DIR, under its relative name; names that are absolute or contain `..` are refused and nothing is written. Existing files are never replaced unless --force.\nExit status: 0 written, 1 not a readable dutyline package or an unsafe attachment name, 2 usage or I/O errors (including an existing file without --force), 141 standard output closed early."
+    )]
+    Extract {
+        /// The PDF package.
+        package: PathBuf,
+        /// The folder to write into (created if missing).
+        #[arg(short = 'o', long = "output", value_name = "DIR", default_value = ".")]
+        dir: PathBuf,
+        /// Replace existing regular files.
+        #[arg(long)]
+        force: bool,
+    },
     /// Write a commented starter design that checks and builds as written.
     #[command(
         after_help = "Examples:\n  dutyline new pumps/intake\n  dutyline new booster.duty --units si\n\nNAME gets `.duty` unless it ends so; the title is the file's name. An existing file is never replaced, and the folder must exist.\nExit status: 0 written, 2 usage or I/O errors (including an existing NAME), 141 standard output closed early."
@@ -264,6 +287,12 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
                 git,
             },
         ),
+        Command::Verify { package } => cli::verify::verify(&mut out, &package),
+        Command::Extract {
+            package,
+            dir,
+            force,
+        } => cli::verify::extract(&mut out, &package, &dir, force),
         Command::New { name, units } => {
             commands::new_design(&mut out, &name, matches!(units, Units::Si))
         }

@@ -10,6 +10,7 @@ use dutyline::analysis::Analysis;
 use dutyline::diagnostics::Diagnostic;
 use dutyline::model::FileError;
 use dutyline::report::layout::style::{Style, StyleError};
+use dutyline::verify::StyleSource;
 
 use super::error::{CliError, EXIT_DESIGN, EXIT_NO_SELECTION};
 use super::files::{self, DiskFiles};
@@ -206,32 +207,21 @@ pub fn build(
     let loaded = load(path, allowed)?;
     output::diagnostics(&loaded.checked.diagnostics, path, &loaded.source);
     let design = design_of(&loaded)?;
-    let style = load_style(options.style.as_deref(), design, &loaded.files)?;
-    let analysis = dutyline::analysis::analyse(design);
-    let changes = match &options.compare {
-        Some(old) => {
-            let old_loaded = load(old, allowed)?;
-            let old_design = design_of(&old_loaded)?;
-            let old_analysis = dutyline::analysis::analyse(old_design);
-            let diff = dutyline::diff::diff(old_design, &old_analysis, design, &analysis);
-            Some(dutyline::report::changes_from_diff(
-                old_design,
-                &diff,
-                &old_loaded.source,
-            ))
-        }
+    let (_, style) = load_style(options.style.as_deref(), design, &loaded.files)?;
+    let compare = match &options.compare {
+        Some(old) => Some(super::verify::design_files(old, &load(old, allowed)?)),
         None => None,
     };
-    let bytes =
-        dutyline::report::render_pdf(design, &analysis, &loaded.source, &style, changes.as_ref())
-            .map_err(|e| {
-            let diagnostic = Diagnostic::error(
-                Code::Layout,
-                format!("the package could not be laid out: {e}"),
-                None,
-            );
-            rejected(path, String::new(), vec![diagnostic], None)
-        })?;
+    let sources = dutyline::verify::Sources {
+        design: super::verify::design_files(path, &loaded),
+        style,
+        compare,
+    };
+    let package = dutyline::verify::compile(&sources).map_err(|e| {
+        let diagnostic = Diagnostic::error(Code::Layout, e.to_string(), None);
+        rejected(path, String::new(), vec![diagnostic], None)
+    })?;
+    let (bytes, analysis) = (package.bytes, package.analysis);
     let wrote = format!(
         "{}: wrote {} ({} bytes)\n",
         path.display(),
@@ -267,18 +257,18 @@ fn check_output(design: &Path, target: &Path, force: bool) -> Result<(), CliErro
 
 /// Resolve the style: the command line's, the design's, or the units' default. A style
 /// file named on the command line may be anywhere; one named in the design obeys the
-/// design's file-access rule.
+/// design's file-access rule. Returns the style and what to attach for it.
 fn load_style(
     argument: Option<&str>,
     design: &dutyline::Design,
     files: &DiskFiles,
-) -> Result<Style, CliError> {
+) -> Result<(Style, StyleSource), CliError> {
     let choice = argument
         .map(str::to_string)
         .or_else(|| design.project.style.clone())
         .unwrap_or_else(|| dutyline::report::builtin_style_for(design).to_string());
     if let Some(style) = Style::builtin(&choice) {
-        return Ok(style);
+        return Ok((style, StyleSource::Builtin(choice)));
     }
     // A missing file may be a misspelt built-in name: say which names exist.
     let with_names = |error: CliError| match error {
@@ -307,10 +297,17 @@ fn load_style(
         })?,
     };
     let text = files::read_named(&path).map_err(with_names)?;
-    Style::from_toml(&text).map_err(|error| {
+    let style = Style::from_toml(&text).map_err(|error| {
         let diagnostic = style_diagnostic(&error, &text);
-        rejected(&path, text, vec![diagnostic], None)
-    })
+        rejected(&path, text.clone(), vec![diagnostic], None)
+    })?;
+    // A style named on the command line is attached under its file name; one named
+    // in the design under the path the design gives.
+    let name = match argument {
+        Some(_) => super::verify::file_name(&path, "style.toml"),
+        None => choice,
+    };
+    Ok((style, StyleSource::File { name, text }))
 }
 
 /// A style-file error as a diagnostic pointing at its line and column.

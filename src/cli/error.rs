@@ -60,6 +60,8 @@ pub enum WriteProblem {
     NotAPdf,
     /// An existing file, never replaced (`new`).
     Exists,
+    /// An existing file, kept unless `--force` (`extract`).
+    KeptWithoutForce,
     /// The system refused (permissions, full disk, ...).
     Io(std::io::Error),
 }
@@ -152,6 +154,11 @@ impl WriteProblem {
                 Code::OutputRefused,
                 format!("`{path}` exists; `dutyline new` never replaces a file"),
                 "choose another name, or remove the file first".to_string(),
+            ),
+            WriteProblem::KeptWithoutForce => (
+                Code::OutputRefused,
+                format!("`{path}` exists; nothing was written"),
+                "extract into another folder (`-o DIR`), or replace existing files with --force".to_string(),
             ),
             WriteProblem::Io(e) => (
                 Code::WriteFailed,

@@ -56,7 +56,12 @@ fn io_error(error: std::io::Error) -> FileError {
 /// than `MAX_SOURCE_BYTES`, so an enormous file is refused without being loaded whole.
 /// The file type is checked before opening and again on the open file.
 pub fn read_bytes(path: &Path) -> Result<Vec<u8>, FileError> {
-    let cap = MAX_SOURCE_BYTES as u64 + 1;
+    read_bytes_capped(path, MAX_SOURCE_BYTES)
+}
+
+/// [`read_bytes`] with another limit: at most `limit + 1` bytes are read.
+pub fn read_bytes_capped(path: &Path, limit: usize) -> Result<Vec<u8>, FileError> {
+    let cap = limit as u64 + 1;
     let mut bytes = Vec::new();
     if path == Path::new("-") {
         std::io::stdin()

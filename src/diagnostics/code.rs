@@ -127,6 +127,7 @@ codes! {
     Usage = "usage": "command-line arguments that do not make sense together";
     OutputRefused = "output-refused": "an output path that would replace the design, a non-PDF file or a non-regular file";
     WriteFailed = "write-failed": "an output that could not be written";
+    NotAPackage = "not-a-package": "a file given to `verify` or `extract` that is not a readable dutyline package";
 }
 
 impl Code {

@@ -32,6 +32,21 @@ pub fn render_pdf(
     layout::render(&doc, style).map_err(|e| e.to_string())
 }
 
+/// [`render_pdf`] with `attachments` embedded in the PDF, said on the cover and
+/// listed in the appendix.
+pub fn render_pdf_attached(
+    design: &Design,
+    analysis: &Analysis,
+    source: &str,
+    style: &Style,
+    changes: Option<&sections::Changes>,
+    attachments: Vec<layout::Attachment>,
+) -> Result<Vec<u8>, String> {
+    let sha = crate::results::sha256_hex(source);
+    let doc = sections::document_attached(design, analysis, source, &sha, changes, attachments);
+    layout::render(&doc, style).map_err(|e| e.to_string())
+}
+
 /// A quantity of the changes table: its name, its change and how to show a value.
 type Quantity<'a> = (
     &'a str,

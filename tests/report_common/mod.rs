@@ -273,5 +273,6 @@ pub fn sample_document() -> Document {
         info: Default::default(),
         id_seed: "3f786850e387550fdab836ed7e6dc881de23001b3f786850e387550fdab836ed".into(),
         blocks,
+        attachments: Vec::new(),
     }
 }

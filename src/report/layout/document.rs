@@ -17,6 +17,49 @@ pub struct Document {
     pub id_seed: String,
     /// The content, in reading order.
     pub blocks: Vec<Block>,
+    /// Files carried inside the PDF (embedded files, PDF/A-3 associated files); the
+    /// writer orders them by name, so their order here does not matter.
+    pub attachments: Vec<Attachment>,
+}
+
+/// A file embedded in the PDF: listed in the document's `EmbeddedFiles` name tree and
+/// in the catalog's associated files (`/AF`), as ISO 32000-1 7.11.4 and ISO 19005-3
+/// (PDF/A-3) 6.8 describe.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Attachment {
+    /// The file's name, a relative path with `/` separators (e.g. `curves/kr1.csv`).
+    pub name: String,
+    /// MIME type, e.g. `text/plain`, `text/csv`, `application/json`.
+    pub mime: &'static str,
+    /// What the file is, for a reader (e.g. "design file"); the PDF's description
+    /// adds its SHA-256.
+    pub description: String,
+    /// What the file is to the document (PDF/A-3 `AFRelationship`).
+    pub relationship: Relationship,
+    /// The file's bytes, exactly.
+    pub bytes: Vec<u8>,
+}
+
+/// The PDF/A-3 `AFRelationship` of an associated file (ISO 19005-3, 6.8).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Relationship {
+    /// The file the document was made from (the design and what it imports).
+    Source,
+    /// Data the document's content shows in machine-readable form (the results).
+    Data,
+    /// Anything else that supports the document (the build record).
+    Supplement,
+}
+
+impl Relationship {
+    /// The PDF name of the relationship.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Relationship::Source => "Source",
+            Relationship::Data => "Data",
+            Relationship::Supplement => "Supplement",
+        }
+    }
 }
 
 /// The PDF document information dictionary. Empty fields are left out of the file.

@@ -18,6 +18,7 @@
 //! `subset.rs`). Charts are drawn by plotters into a recording backend
 //! (`chart_backend.rs`) so they stay vector graphics with real text.
 
+mod attach;
 mod blocks;
 pub mod chart;
 mod chart_backend;
@@ -38,7 +39,8 @@ mod title;
 
 pub use chart::{Chart, HLine, Marker, Series, YAxis};
 pub use document::{
-    Align, Block, CalloutKind, Column, Document, PageMeta, PdfInfo, Signatory, Span,
+    Align, Attachment, Block, CalloutKind, Column, Document, PageMeta, PdfInfo, Relationship,
+    Signatory, Span,
 };
 pub use page::{HeadingEntry, Item, Layout, Page, TextRun};
 pub use style::{Colour, LineStyle, Style, StyleError};
@@ -138,7 +140,14 @@ pub fn layout(doc: &Document, style: &Style) -> Result<Layout, LayoutError> {
 pub fn render_document(doc: &Document, style: &Style) -> Result<Rendered, LayoutError> {
     let laid_out = layout(doc, style)?;
     let fonts = font::fonts().map_err(LayoutError::Font)?;
-    let bytes = pdf::write(&laid_out, fonts, &doc.title, &doc.info, &doc.id_seed)?;
+    let bytes = pdf::write(
+        &laid_out,
+        fonts,
+        &doc.title,
+        &doc.info,
+        &doc.id_seed,
+        &doc.attachments,
+    )?;
     Ok(Rendered {
         bytes,
         page_count: laid_out.pages.len(),

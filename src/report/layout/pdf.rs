@@ -4,9 +4,11 @@
 //! counter, so the second document of a process would differ from the first. Fonts
 //! are therefore registered under fixed resource names, the info dates stay at
 //! printpdf's fixed default (1970-01-01, no clock is read), and the trailer `/ID`
-//! strings are replaced by a digest of the caller's `id_seed` and the page content.
+//! strings are replaced by a digest of the caller's `id_seed` and the file's body.
+//! printpdf's document is finished with lopdf (the copy printpdf itself uses): empty
+//! information keys are removed and the attachments embedded (`attach.rs`).
 
-use super::document::PdfInfo;
+use super::document::{Attachment, PdfInfo};
 use super::font::{Face, FontSet};
 use super::page::{Item, Layout, Stroke};
 use super::style::{Colour, LineStyle};
@@ -38,6 +40,7 @@ pub fn write(
     title: &str,
     info: &PdfInfo,
     id_seed: &str,
+    attachments: &[Attachment],
 ) -> Result<Vec<u8>, LayoutError> {
     let mut used: [BTreeSet<char>; 3] = Default::default();
     for page in &layout.pages {
@@ -103,8 +106,15 @@ pub fn write(
         image_optimization: None,
     };
     let mut warnings = Vec::new();
-    let mut bytes = doc.save(&opts, &mut warnings);
-    blank_empty_info_keys(&mut bytes);
+    // printpdf's own `save` is `to_lopdf_document`, `compress`, `save_to`; the
+    // attachments go in between, so a document without them is written as before.
+    let mut lo = doc.to_lopdf_document(&opts, &mut warnings);
+    drop_empty_info_keys(&mut lo);
+    super::attach::embed(&mut lo, attachments, &pdf_date(info.date))?;
+    lo.compress();
+    let mut bytes = Vec::new();
+    lo.save_to(&mut bytes)
+        .map_err(|e| LayoutError::Pdf(format!("the PDF could not be written: {e}")))?;
     // Everything before the trailer is deterministic; the trailer holds printpdf's
     // counter-based /ID, replaced here.
     let body_end = find_last(&bytes, b"trailer").unwrap_or(bytes.len());
@@ -113,26 +123,38 @@ pub fn write(
     Ok(bytes)
 }
 
+/// A PDF date (ISO 32000-1, 7.9.4) at midnight UTC of `date` (as printpdf writes the information dates), or of 1970-01-01.
+fn pdf_date(date: Option<(i32, u8, u8)>) -> String {
+    let (y, m, d) = date.unwrap_or((1970, 1, 1));
+    format!("D:{y:04}{m:02}{d:02}000000+00'00'")
+}
+
 /// Keys printpdf writes into the information dictionary even when they are empty.
 const EMPTY_INFO_KEYS: [&[u8]; 5] = [
-    b"/GTS_PDFXVersion()",
-    b"/Author()",
-    b"/Subject()",
-    b"/Identifier()",
-    b"/Keywords()",
+    b"GTS_PDFXVersion",
+    b"Author",
+    b"Subject",
+    b"Identifier",
+    b"Keywords",
 ];
 
-/// Replaces empty information keys (an empty PDF/X version claims a standard the file
-/// does not follow) by spaces of the same length, so every byte offset stays valid.
-fn blank_empty_info_keys(bytes: &mut [u8]) {
-    let start = find_last(bytes, b"/Producer").map_or(0, |i| i.saturating_sub(4096));
+/// Removes empty information keys: an empty PDF/X version claims a standard the file
+/// does not follow, and empty texts say nothing.
+fn drop_empty_info_keys(doc: &mut lopdf::Document) {
+    let Ok(id) = doc
+        .trailer
+        .get(b"Info")
+        .and_then(lopdf::Object::as_reference)
+    else {
+        return;
+    };
+    let Ok(info) = doc.get_dictionary_mut(id) else {
+        return;
+    };
     for key in EMPTY_INFO_KEYS {
-        if let Some(at) = bytes[start..]
-            .windows(key.len())
-            .position(|w| w == key)
-            .map(|i| i + start)
-        {
-            bytes[at..at + key.len()].fill(b' ');
+        let empty = matches!(info.get(key), Ok(lopdf::Object::String(text, _)) if text.is_empty());
+        if empty {
+            info.remove(key);
         }
     }
 }

@@ -4,6 +4,7 @@
 
 mod appendix;
 mod assumptions;
+mod attached;
 mod candidate;
 mod changes;
 mod checks;
@@ -16,7 +17,7 @@ mod sources;
 mod system_curves;
 mod wording;
 
-use super::layout::document::{Block, Document, PageMeta, PdfInfo};
+use super::layout::document::{Attachment, Block, Document, PageMeta, PdfInfo};
 use crate::analysis::Analysis;
 use crate::display::Units;
 use crate::model::Design;
@@ -42,6 +43,18 @@ pub fn document(
     sha256: &str,
     changes: Option<&Changes>,
 ) -> Document {
+    document_attached(design, analysis, source, sha256, changes, Vec::new())
+}
+
+/// [`document`] carrying `attachments`, said on the cover and listed in the appendix.
+pub fn document_attached(
+    design: &Design,
+    analysis: &Analysis,
+    source: &str,
+    sha256: &str,
+    changes: Option<&Changes>,
+    attachments: Vec<Attachment>,
+) -> Document {
     let units = Units::new(design.project.units);
     let project = &design.project;
     let revision_text = design
@@ -51,6 +64,7 @@ pub fn document(
         .unwrap_or_else(|| "no revision".into());
     let mut blocks: Vec<Block> = Vec::new();
     front::title_block(&mut blocks, design, sha256);
+    attached::cover_note(&mut blocks, &attachments);
     front::revision_history(&mut blocks, design);
     front::purpose(&mut blocks, design, analysis);
     if let Some(changes) = changes {
@@ -67,6 +81,7 @@ pub fn document(
     assumptions::chapter(&mut blocks, design, analysis);
     references::chapter(&mut blocks);
     appendix::chapter(&mut blocks, source, sha256);
+    attached::appendix(&mut blocks, &attachments);
 
     Document {
         title: format!("{} — {}", project.number, project.title),
@@ -83,6 +98,7 @@ pub fn document(
         },
         id_seed: sha256.to_string(),
         blocks,
+        attachments,
     }
 }
 

@@ -1,0 +1,291 @@
+//! Compiling a package from its [`Sources`] alone: the one path `build` and `verify`
+//! both take, so a rebuild from the attachments is byte-identical to the build.
+
+use std::collections::BTreeMap;
+
+use sha2::{Digest, Sha256};
+
+use super::sources::{
+    import_name, results_name, DesignFiles, Manifest, ManifestFile, Sources, StyleSource,
+    COMPARE_PREFIX, FORMAT, MANIFEST_NAME,
+};
+use crate::analysis::Analysis;
+use crate::diagnostics::Diagnostic;
+use crate::model::Design;
+use crate::report::layout::style::{Style, StyleError};
+use crate::report::layout::{Attachment, Relationship};
+
+/// A package compiled from its sources.
+pub struct Package {
+    /// The PDF.
+    pub bytes: Vec<u8>,
+    /// The files embedded in it.
+    pub attachments: Vec<Attachment>,
+    /// The analysis the package shows.
+    pub analysis: Analysis,
+    /// The results JSON (also attached).
+    pub results_json: String,
+}
+
+/// Why sources could not be compiled into a package.
+#[derive(Debug, Clone, PartialEq)]
+pub enum CompileError {
+    /// The design (or the compared revision, `compared`) has errors.
+    Design {
+        compared: bool,
+        diagnostics: Vec<Diagnostic>,
+    },
+    /// The style file is not a valid style.
+    Style(StyleError),
+    /// The package could not be laid out or written.
+    Layout(String),
+}
+
+impl std::fmt::Display for CompileError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            CompileError::Design {
+                compared,
+                diagnostics,
+            } => {
+                let errors: Vec<&Diagnostic> =
+                    diagnostics.iter().filter(|d| d.is_error()).collect();
+                let which = if *compared {
+                    "the compared revision"
+                } else {
+                    "the design"
+                };
+                write!(f, "{which} has {} error(s)", errors.len())?;
+                if let Some(first) = errors.first() {
+                    write!(f, ", the first: {}", first.message)?;
+                }
+                Ok(())
+            }
+            CompileError::Style(e) => write!(f, "the style file is not valid: {}", e.message),
+            CompileError::Layout(e) => write!(f, "the package could not be laid out: {e}"),
+        }
+    }
+}
+
+/// Check, analyse and lay out the package of `sources`, with its attachments.
+pub fn compile(sources: &Sources) -> Result<Package, CompileError> {
+    let (design, diagnostics) = checked(&sources.design, false)?;
+    let style = match &sources.style {
+        StyleSource::Builtin(name) => Style::builtin(name)
+            .ok_or_else(|| CompileError::Layout(format!("`{name}` is not a built-in style")))?,
+        StyleSource::File { text, .. } => Style::from_toml(text).map_err(CompileError::Style)?,
+    };
+    let analysis = crate::analysis::analyse(&design);
+    let changes = match &sources.compare {
+        Some(old) => {
+            let (old_design, _) = checked(old, true)?;
+            let old_analysis = crate::analysis::analyse(&old_design);
+            let diff = crate::diff::diff(&old_design, &old_analysis, &design, &analysis);
+            Some(crate::report::changes_from_diff(
+                &old_design,
+                &diff,
+                &old.source,
+            ))
+        }
+        None => None,
+    };
+    let results_json = crate::results::to_json(
+        &design,
+        &analysis,
+        &sources.design.name,
+        &sources.design.source,
+        &diagnostics,
+    );
+    let attachments = attachments(sources, &results_json);
+    let bytes = crate::report::render_pdf_attached(
+        &design,
+        &analysis,
+        &sources.design.source,
+        &style,
+        changes.as_ref(),
+        attachments.clone(),
+    )
+    .map_err(CompileError::Layout)?;
+    Ok(Package {
+        bytes,
+        attachments,
+        analysis,
+        results_json,
+    })
+}
+
+/// The design of `files`, checked with its imports from memory.
+fn checked(files: &DesignFiles, compared: bool) -> Result<(Design, Vec<Diagnostic>), CompileError> {
+    let checked = crate::check(&files.source, &files.imports);
+    match checked.design {
+        Some(design) if !checked.has_errors() => Ok((design, checked.diagnostics)),
+        _ => Err(CompileError::Design {
+            compared,
+            diagnostics: checked.diagnostics,
+        }),
+    }
+}
+
+/// The files a package carries: sources, results JSON and the build record.
+pub fn attachments(sources: &Sources, results_json: &str) -> Vec<Attachment> {
+    let mut list = Vec::new();
+    let mut record = Vec::new();
+    let mut add = |list: &mut Vec<Attachment>, file: AttachedFile| {
+        record.push(ManifestFile {
+            name: file.name.clone(),
+            role: file.role.to_string(),
+            reads_as: file.reads_as,
+            sha256: sha256_hex(file.text.as_bytes()),
+            bytes: file.text.len(),
+        });
+        list.push(Attachment {
+            name: file.name,
+            mime: file.mime,
+            description: file.description.to_string(),
+            relationship: file.relationship,
+            bytes: file.text.into_bytes(),
+        });
+    };
+    design_files(&sources.design, "", &mut |f| add(&mut list, f));
+    if let Some(old) = &sources.compare {
+        design_files(old, COMPARE_PREFIX, &mut |f| add(&mut list, f));
+    }
+    let style_file = match &sources.style {
+        StyleSource::File { name, text } => {
+            add(
+                &mut list,
+                AttachedFile::source(name.clone(), "style", None, text, "style file"),
+            );
+            Some(name.clone())
+        }
+        StyleSource::Builtin(_) => None,
+    };
+    let results = results_name(&sources.design.name);
+    add(
+        &mut list,
+        AttachedFile {
+            name: results.clone(),
+            role: "results",
+            reads_as: None,
+            text: results_json.to_string(),
+            mime: "application/json",
+            description: "results (JSON)",
+            relationship: Relationship::Data,
+        },
+    );
+    record.sort_by(|a, b| a.name.as_bytes().cmp(b.name.as_bytes()));
+    let manifest = Manifest {
+        format: FORMAT.to_string(),
+        version: crate::VERSION.to_string(),
+        design: sources.design.name.clone(),
+        results,
+        style: match &sources.style {
+            StyleSource::Builtin(name) => Some(name.clone()),
+            StyleSource::File { .. } => None,
+        },
+        style_file,
+        compare: sources
+            .compare
+            .as_ref()
+            .map(|old| format!("{COMPARE_PREFIX}{}", old.name)),
+        files: record,
+    };
+    let json = serde_json::to_string_pretty(&manifest).unwrap_or_default() + "\n";
+    list.push(Attachment {
+        name: MANIFEST_NAME.to_string(),
+        mime: "application/json",
+        description: "build record".into(),
+        relationship: Relationship::Supplement,
+        bytes: json.into_bytes(),
+    });
+    list
+}
+
+/// One file to attach, before it is recorded.
+struct AttachedFile {
+    name: String,
+    role: &'static str,
+    reads_as: Option<String>,
+    text: String,
+    mime: &'static str,
+    description: &'static str,
+    relationship: Relationship,
+}
+
+impl AttachedFile {
+    fn source(
+        name: String,
+        role: &'static str,
+        reads_as: Option<String>,
+        text: &str,
+        description: &'static str,
+    ) -> AttachedFile {
+        AttachedFile {
+            mime: mime_of(&name),
+            name,
+            role,
+            reads_as,
+            text: text.to_string(),
+            description,
+            relationship: Relationship::Source,
+        }
+    }
+}
+
+/// A design and its imports as files to attach, their names under `prefix`.
+fn design_files(files: &DesignFiles, prefix: &str, add: &mut dyn FnMut(AttachedFile)) {
+    let compared = !prefix.is_empty();
+    add(AttachedFile::source(
+        format!("{prefix}{}", files.name),
+        if compared { "compare-design" } else { "design" },
+        None,
+        &files.source,
+        if compared {
+            "compared revision"
+        } else {
+            "design file"
+        },
+    ));
+    for (path, text) in &files.imports {
+        add(AttachedFile::source(
+            import_name(prefix, path),
+            if compared { "compare-import" } else { "import" },
+            Some(path.clone()),
+            text,
+            "imported file",
+        ));
+    }
+}
+
+/// The MIME type of a file by its extension (RFC 4180 `text/csv`; TOML's
+/// `application/toml`, registered 2024; a design is plain text).
+fn mime_of(name: &str) -> &'static str {
+    let lower = name.to_ascii_lowercase();
+    if lower.ends_with(".csv") {
+        "text/csv"
+    } else if lower.ends_with(".toml") {
+        "application/toml"
+    } else if lower.ends_with(".json") {
+        "application/json"
+    } else {
+        "text/plain"
+    }
+}
+
+/// SHA-256 as lowercase hex.
+pub fn sha256_hex(bytes: &[u8]) -> String {
+    Sha256::digest(bytes)
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect()
+}
+
+/// The imports of the compared revision in a record: reads-as path → attachment name.
+pub fn imports_of(manifest: &Manifest, role: &str) -> BTreeMap<String, String> {
+    manifest
+        .files
+        .iter()
+        .filter(|f| f.role == role)
+        .filter_map(|f| Some((f.reads_as.clone()?, f.name.clone())))
+        .collect()
+}
