@@ -4,6 +4,7 @@
 pub mod design;
 pub mod eval;
 mod fields;
+pub mod keywords;
 mod lower;
 mod pumps;
 pub mod ranges;

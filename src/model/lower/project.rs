@@ -125,7 +125,7 @@ fn check_date(date: &str) -> Result<(), String> {
     }
 }
 
-const PROJECT_FIELDS: &[&str] = &[
+pub(crate) const PROJECT_FIELDS: &[&str] = &[
     "title", "number", "client", "prepared", "checked", "approved", "units", "style",
 ];
 
