@@ -11,6 +11,7 @@ mod cli {
     pub mod error;
     pub mod files;
     pub mod git;
+    pub mod lsp;
     pub mod output;
     pub mod starter;
 }
@@ -154,6 +155,11 @@ enum Command {
         #[arg(long, value_enum, default_value = "us")]
         units: Units,
     },
+    /// Run the language server (Language Server Protocol over standard input and output).
+    #[command(
+        after_help = "Examples:\n  dutyline lsp\n\nAn editor starts it for *.duty files (editors/README.md shows VS Code, Neovim and Helix). It publishes the diagnostics of `check --analyse` on open and on every change, formats through `fmt`, and answers hover (a quantity in SI and report units, a constant, a fitting), completion, document symbols and go to definition. A document reads its curve CSVs from its own folder, as `check` does. Messages above 6 MiB are refused.\nExit status: 0 after `shutdown` and `exit` or when the input closes, 1 on `exit` without `shutdown`, 2 usage or I/O errors, 141 standard output closed early."
+    )]
+    Lsp,
 }
 
 /// The report units of a starter design.
@@ -264,6 +270,7 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
                 git,
             },
         ),
+        Command::Lsp => cli::lsp::run(&mut out),
         Command::New { name, units } => {
             commands::new_design(&mut out, &name, matches!(units, Units::Si))
         }

@@ -4,7 +4,7 @@
 use std::process::Command;
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const COMMANDS: [&str; 6] = ["check", "results", "build", "fmt", "diff", "new"];
+const COMMANDS: [&str; 7] = ["check", "results", "build", "fmt", "diff", "new", "lsp"];
 
 fn help(command: &str) -> String {
     let out = Command::new(BIN)
@@ -55,7 +55,10 @@ fn the_readme_command_table_names_every_option() {
     for command in COMMANDS {
         let row = readme
             .lines()
-            .find(|l| l.starts_with(&format!("| `dutyline {command} ")))
+            .find(|l| {
+                l.starts_with(&format!("| `dutyline {command} "))
+                    || l.starts_with(&format!("| `dutyline {command}` "))
+            })
             .unwrap_or_else(|| panic!("no README row for {command}"));
         let options = long_options(&help(command));
         if command == "build" {
