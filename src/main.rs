@@ -4,7 +4,7 @@ use std::io::Write;
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand};
+use clap::{CommandFactory, Parser, Subcommand};
 
 mod cli {
     pub mod commands;
@@ -12,6 +12,7 @@ mod cli {
     pub mod files;
     pub mod git;
     pub mod lsp;
+    pub mod manual;
     pub mod output;
     pub mod starter;
 }
@@ -160,6 +161,23 @@ enum Command {
         after_help = "Examples:\n  dutyline lsp\n\nAn editor starts it for *.duty files (editors/README.md shows VS Code, Neovim and Helix). It publishes the diagnostics of `check --analyse` on open and on every change, formats through `fmt`, and answers hover (a quantity in SI and report units, a constant, a fitting), completion, document symbols and go to definition. A document reads its curve CSVs from its own folder, as `check` does. Messages above 6 MiB are refused.\nExit status: 0 after `shutdown` and `exit` or when the input closes, 1 on `exit` without `shutdown`, 2 usage or I/O errors, 141 standard output closed early."
     )]
     Lsp,
+    /// Print a shell completion script.
+    #[command(
+        after_help = "Examples:\n  dutyline completions bash > dutyline.bash\n  dutyline completions zsh > _dutyline\n  dutyline completions fish > dutyline.fish\n\nInstall: bash `~/.local/share/bash-completion/completions/dutyline`; zsh a file `_dutyline` in a folder on $fpath; fish `~/.config/fish/completions/dutyline.fish`.\nExit status: 0 printed, 2 usage or I/O errors, 141 standard output closed early."
+    )]
+    Completions {
+        /// The shell.
+        #[arg(value_enum)]
+        shell: clap_complete::Shell,
+    },
+    /// Print a manual page (roff) of the tool or of one subcommand.
+    #[command(
+        after_help = "Examples:\n  dutyline man > dutyline.1\n  dutyline man check > dutyline-check.1\n\nThe pages in docs/man/ are this output (`man -l docs/man/dutyline.1` reads one).\nExit status: 0 printed, 2 usage or I/O errors (including an unknown COMMAND), 141 standard output closed early."
+    )]
+    Man {
+        /// A subcommand whose page to print (the tool's own page without it).
+        command: Option<String>,
+    },
 }
 
 /// The report units of a starter design.
@@ -271,6 +289,8 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
             },
         ),
         Command::Lsp => cli::lsp::run(&mut out),
+        Command::Completions { shell } => cli::manual::completions(&mut out, Cli::command(), shell),
+        Command::Man { command } => cli::manual::man(&mut out, Cli::command(), command.as_deref()),
         Command::New { name, units } => {
             commands::new_design(&mut out, &name, matches!(units, Units::Si))
         }

@@ -4,7 +4,17 @@
 use std::process::Command;
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const COMMANDS: [&str; 7] = ["check", "results", "build", "fmt", "diff", "new", "lsp"];
+const COMMANDS: [&str; 9] = [
+    "check",
+    "results",
+    "build",
+    "fmt",
+    "diff",
+    "new",
+    "lsp",
+    "completions",
+    "man",
+];
 
 fn help(command: &str) -> String {
     let out = Command::new(BIN)
