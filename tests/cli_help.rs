@@ -4,7 +4,7 @@
 use std::process::Command;
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const COMMANDS: [&str; 9] = [
+const COMMANDS: [&str; 10] = [
     "check",
     "results",
     "build",
@@ -14,6 +14,7 @@ const COMMANDS: [&str; 9] = [
     "lsp",
     "completions",
     "man",
+    "watch",
 ];
 
 fn help(command: &str) -> String {
@@ -51,7 +52,7 @@ fn every_help_states_the_exit_statuses() {
 
 #[test]
 fn every_command_reading_a_design_takes_allow_dir() {
-    for command in ["check", "results", "build", "diff"] {
+    for command in ["check", "results", "build", "diff", "watch"] {
         let text = help(command);
         assert!(text.contains("--allow-dir <DIR>"), "{command}: {text}");
         assert!(text.contains("File access:"), "{command}: {text}");

@@ -6,12 +6,13 @@ use std::path::Path;
 use std::process::{Command, Output};
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const SUBCOMMANDS: [&str; 9] = [
+const SUBCOMMANDS: [&str; 10] = [
     "check",
     "results",
     "fmt",
     "diff",
     "build",
+    "watch",
     "new",
     "lsp",
     "completions",
