@@ -14,6 +14,7 @@ pub mod diff;
 pub mod display;
 pub mod fluid;
 pub mod hydraulics;
+pub mod lsp;
 pub mod model;
 pub mod names;
 pub mod pumps;

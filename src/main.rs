@@ -4,16 +4,19 @@ use std::io::Write;
 use std::path::PathBuf;
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand};
+use clap::{CommandFactory, Parser, Subcommand};
 
 mod cli {
     pub mod commands;
     pub mod error;
     pub mod files;
     pub mod git;
+    pub mod lsp;
+    pub mod manual;
     pub mod output;
     pub mod starter;
     pub mod verify;
+    pub mod watch;
 }
 
 use cli::commands::{self, Format};
@@ -177,6 +180,52 @@ enum Command {
         #[arg(long, value_enum, default_value = "us")]
         units: Units,
     },
+    /// Build the package, then rebuild it whenever the design or a file it reads changes.
+    #[command(after_help = concat!(
+        "Examples:\n  dutyline watch examples-demo/kestrel-booster.duty\n  dutyline watch design.duty -o design-draft.pdf --max-builds 1\n\nThe design, its curve CSVs and its style file are looked at every 250 ms (modification time and size); after a change they must stay still for another 250 ms, then the package is rebuilt and the diagnostics are printed again. A file the design names but that is missing is watched too. Each build is `build`'s: written to a temporary file and renamed, so a failed build keeps the last good PDF. Ctrl-C stops.\n\n",
+        file_access!(),
+        "\n\nExit status: 0 built (with --max-builds, that of the last build), 1 design or style errors, 2 usage or I/O errors, 3 built without a recommendation, 141 standard output closed early."
+    ))]
+    Watch {
+        /// The design file (*.duty).
+        file: PathBuf,
+        #[command(flatten)]
+        access: Access,
+        /// Output PDF path (default: the design file with .pdf).
+        #[arg(short = 'o', long = "output")]
+        output: Option<PathBuf>,
+        /// A built-in style (`letter`, `a4`) or the path of a style file (TOML).
+        #[arg(long)]
+        style: Option<String>,
+        /// Replace an existing output even when it is a design file or not a PDF.
+        #[arg(long)]
+        force: bool,
+        /// Stop after N builds (for scripts); without it, watch until interrupted.
+        #[arg(long, value_name = "N")]
+        max_builds: Option<u32>,
+    },
+    /// Run the language server (Language Server Protocol over standard input and output).
+    #[command(
+        after_help = "Examples:\n  dutyline lsp\n\nAn editor starts it for *.duty files (editors/README.md shows VS Code, Neovim and Helix). It publishes the diagnostics of `check --analyse` on open and on every change, formats through `fmt`, and answers hover (a quantity in SI and report units, a constant, a fitting), completion, document symbols and go to definition. A document reads its curve CSVs from its own folder, as `check` does. Messages above 6 MiB are refused.\nExit status: 0 after `shutdown` and `exit` or when the input closes, 1 on `exit` without `shutdown`, 2 usage or I/O errors, 141 standard output closed early."
+    )]
+    Lsp,
+    /// Print a shell completion script.
+    #[command(
+        after_help = "Examples:\n  dutyline completions bash > dutyline.bash\n  dutyline completions zsh > _dutyline\n  dutyline completions fish > dutyline.fish\n\nInstall: bash `~/.local/share/bash-completion/completions/dutyline`; zsh a file `_dutyline` in a folder on $fpath; fish `~/.config/fish/completions/dutyline.fish`.\nExit status: 0 printed, 2 usage or I/O errors, 141 standard output closed early."
+    )]
+    Completions {
+        /// The shell.
+        #[arg(value_enum)]
+        shell: clap_complete::Shell,
+    },
+    /// Print a manual page (roff) of the tool or of one subcommand.
+    #[command(
+        after_help = "Examples:\n  dutyline man > dutyline.1\n  dutyline man check > dutyline-check.1\n\nThe pages in docs/man/ are this output (`man -l docs/man/dutyline.1` reads one).\nExit status: 0 printed, 2 usage or I/O errors (including an unknown COMMAND), 141 standard output closed early."
+    )]
+    Man {
+        /// A subcommand whose page to print (the tool's own page without it).
+        command: Option<String>,
+    },
 }
 
 /// The report units of a starter design.
@@ -293,6 +342,27 @@ fn run(cli: Cli) -> Result<ExitCode, CliError> {
             dir,
             force,
         } => cli::verify::extract(&mut out, &package, &dir, force),
+        Command::Lsp => cli::lsp::run(&mut out),
+        Command::Watch {
+            file,
+            access,
+            output,
+            style,
+            force,
+            max_builds,
+        } => cli::watch::watch(
+            &mut out,
+            &file,
+            &access.allow_dir,
+            cli::watch::WatchOptions {
+                output,
+                style,
+                force,
+                max_builds,
+            },
+        ),
+        Command::Completions { shell } => cli::manual::completions(&mut out, Cli::command(), shell),
+        Command::Man { command } => cli::manual::man(&mut out, Cli::command(), command.as_deref()),
         Command::New { name, units } => {
             commands::new_design(&mut out, &name, matches!(units, Units::Si))
         }

@@ -4,7 +4,18 @@
 use std::process::Command;
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const COMMANDS: [&str; 6] = ["check", "results", "build", "fmt", "diff", "new"];
+const COMMANDS: [&str; 10] = [
+    "check",
+    "results",
+    "build",
+    "fmt",
+    "diff",
+    "new",
+    "lsp",
+    "completions",
+    "man",
+    "watch",
+];
 
 fn help(command: &str) -> String {
     let out = Command::new(BIN)
@@ -41,7 +52,7 @@ fn every_help_states_the_exit_statuses() {
 
 #[test]
 fn every_command_reading_a_design_takes_allow_dir() {
-    for command in ["check", "results", "build", "diff"] {
+    for command in ["check", "results", "build", "diff", "watch"] {
         let text = help(command);
         assert!(text.contains("--allow-dir <DIR>"), "{command}: {text}");
         assert!(text.contains("File access:"), "{command}: {text}");
@@ -55,7 +66,10 @@ fn the_readme_command_table_names_every_option() {
     for command in COMMANDS {
         let row = readme
             .lines()
-            .find(|l| l.starts_with(&format!("| `dutyline {command} ")))
+            .find(|l| {
+                l.starts_with(&format!("| `dutyline {command} "))
+                    || l.starts_with(&format!("| `dutyline {command}` "))
+            })
             .unwrap_or_else(|| panic!("no README row for {command}"));
         let options = long_options(&help(command));
         if command == "build" {

@@ -107,3 +107,36 @@ fn check_analyse_counts_the_warnings_results_lists() {
             .success());
     }
 }
+
+#[test]
+fn a_bad_length_gives_one_error_and_no_zero_length_warning() {
+    // Issue 16: a refused length left the pipe at 0 and a false "zero-length" warning.
+    let demo = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/examples-demo/orchard-lift-rev-a.duty"
+    ))
+    .unwrap();
+    for (bad, code) in [
+        ("40 psi", "unit-mismatch"),
+        ("40", "unit-mismatch"),
+        ("-5 ft", "out-of-range"),
+        ("abc", "expected-number"),
+        ("\"x\"", "expected-number"),
+        ("1e999 ft", "number-out-of-range"),
+    ] {
+        let src = demo.replacen("length = 18 ft", &format!("length = {bad}"), 1);
+        let all = dutyline::check(&src, &dutyline::NoFiles).diagnostics;
+        let codes: Vec<&str> = all.iter().map(|d| d.code).collect();
+        assert!(codes.contains(&code), "{bad}: {codes:?}");
+        assert!(!codes.contains(&"zero-length"), "{bad}: {codes:?}");
+        assert_eq!(
+            all.iter().filter(|d| d.is_error()).count(),
+            1,
+            "{bad}: {codes:?}"
+        );
+    }
+    // A length written as zero still warns.
+    let zero = demo.replacen("length = 18 ft", "length = 0 ft", 1);
+    let all = dutyline::check(&zero, &dutyline::NoFiles).diagnostics;
+    assert!(all.iter().any(|d| d.code == "zero-length"));
+}

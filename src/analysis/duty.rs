@@ -323,6 +323,9 @@ pub struct PumpResult {
     /// Flow of the arrangement at the limit (maximum speed, largest impeller allowed),
     /// m³/s; `None` when the curves do not meet within the published data.
     pub capacity_flow: Option<f64>,
+    /// Affinity factor N·D of this case's pump against the evaluated published curve
+    /// (speed ratio × impeller diameter ratio, dimensionless); 1 when not evaluated.
+    pub affinity_scale: f64,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -551,6 +554,7 @@ pub fn evaluate(
         motor_efficiency,
         headroom: None,
         capacity_flow: None,
+        affinity_scale: 1.0,
     };
     let fail = |out: &mut PumpResult, why: String, value, limit, source: Source| {
         out.checks.push(Check::typed(
@@ -606,6 +610,7 @@ pub fn evaluate(
     out.capacity_flow = capacity(p, base, *trim, case_speed / base.speed_rpm, sys, par, ser);
     out.warnings.extend(scaled.warnings().iter().cloned());
     out.speed_rpm = scaled.speed_rpm();
+    out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     let rho = sys.fluid.density;
     let head_arr = |q: f64| ser * scaled.eval_head(q / par);

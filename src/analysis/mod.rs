@@ -12,6 +12,7 @@ pub mod limits;
 pub mod motor;
 pub mod parallel;
 pub mod selection;
+pub mod stability;
 pub mod system;
 
 use crate::model::{Design, Side};
@@ -196,7 +197,15 @@ pub fn analyse(design: &Design) -> Analysis {
     let motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
     let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
     warnings.extend(capacity::governing_warnings(design, &cases));
-    let selection = selection::rank(design, &cases);
+    let rising = stability::rising_regions(&candidates);
+    warnings.extend(stability::unstable_warnings(
+        design,
+        &candidates,
+        &rising,
+        &cases,
+    ));
+    let mut selection = selection::rank(design, &cases);
+    stability::annotate_selection(&mut selection, design, &rising);
     Analysis {
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),

@@ -169,6 +169,12 @@ impl DiskFiles {
         })
     }
 
+    /// Where `path` as written in the design would be, before any check (for `watch`,
+    /// which also watches a file that does not exist yet).
+    pub fn path_of(&self, path: &str) -> PathBuf {
+        self.base.join(path)
+    }
+
     /// The real path of `path` as written in the design, if the design may read it.
     pub fn resolve(&self, path: &str) -> Result<PathBuf, FileError> {
         let given = Path::new(path);

@@ -122,6 +122,7 @@ codes! {
     StaticHead = "static-head": "a case whose static head is zero or negative (warning)";
     NpshNegative = "npsh-negative": "a case whose NPSH available is negative even at zero flow (warning)";
     GoverningCase = "governing-case": "a case without a flow requirement that delivers less at its limit than another case requires (warning)";
+    UnstableCurve = "unstable-curve": "a pump head curve that rises with flow somewhere (warning)";
     MotorAltitude = "motor-altitude": "a site above 1000 m, where a motor's rating is derated (warning)";
     // The command line.
     Usage = "usage": "command-line arguments that do not make sense together";

@@ -5,6 +5,7 @@ use crate::diagnostics::Code;
 pub mod design;
 pub mod eval;
 mod fields;
+pub mod keywords;
 mod lower;
 mod pumps;
 pub mod ranges;

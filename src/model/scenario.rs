@@ -525,6 +525,8 @@ pub fn lower_pipe(
 }
 
 pub const FITTING_FIELDS: &[&str] = &["beta", "angle"];
+/// The fields of `loss { ... }`.
+pub const LOSS_FIELDS: &[&str] = &["k", "equivalent_length", "why"];
 
 /// Lower `fitting NAME [* N] [{ beta = 0.75, angle = 20 deg }]`.
 pub fn lower_fitting(
@@ -663,7 +665,7 @@ pub fn lower_loss(
     diags: &mut Vec<Diagnostic>,
 ) -> Option<ExtraLoss> {
     let body = body.unwrap_or(&[]);
-    let f = read_fields(body, "a loss", &["k", "equivalent_length", "why"], diags);
+    let f = read_fields(body, "a loss", LOSS_FIELDS, diags);
     let mut loss = ExtraLoss {
         k: None,
         equivalent_length: None,
@@ -777,7 +779,7 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
                 }
             }
             other => {
-                let near = nearest(other, ["pipe", "fitting", "loss"]);
+                let near = nearest(other, crate::model::keywords::LINE_ITEMS.iter().copied());
                 let mut d = Diagnostic::error(
                     Code::UnknownStatement,
                     format!("a line has no `{other}`"),

@@ -21,6 +21,7 @@
 //! - [`motor`]: NEMA MG 1 and IEC 60072-1 standard ratings and motor selection;
 //!   [`motor_efficiency`]: IE3 class efficiencies by rating and poles (IEC 60034-30-1).
 //! - [`energy`]: hydraulic, shaft and input power; annual energy; present worth.
+//! - [`stability`]: where a head curve rises with flow (unstable curves).
 //! - [`viscous`]: whether a viscous liquid needs the water curve corrected (ANSI/HI 9.6.7).
 
 pub mod affinity;
@@ -34,6 +35,7 @@ pub mod lsq;
 pub mod motor;
 pub mod motor_efficiency;
 pub mod spline;
+pub mod stability;
 pub mod viscous;
 
 pub use affinity::{speed_for_duty, trim_for_duty, ScaledPump, SpeedForDuty};

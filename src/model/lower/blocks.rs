@@ -6,10 +6,7 @@ use crate::model::eval;
 use crate::names::nearest;
 use crate::syntax::ast::{Arg, File, Statement, StatementKind};
 
-const TOP_LEVEL: &[&str] = &[
-    "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
-    "require", "pump", "motor", "energy", "assume", "note",
-];
+const TOP_LEVEL: &[&str] = crate::model::keywords::STATEMENTS;
 const ONCE: &[&str] = &[
     "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",
 ];

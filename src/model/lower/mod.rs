@@ -24,6 +24,9 @@ use crate::diagnostics::{Diagnostic, Span};
 use crate::syntax::ast::File;
 
 pub use blocks::{Block, Blocks};
+pub(crate) use operation::{ENERGY_FIELDS, MOTOR_FIELDS};
+pub(crate) use project::PROJECT_FIELDS;
+pub(crate) use setting::STATION_FIELDS;
 
 /// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
 pub const MAX_CASES: usize = 200;

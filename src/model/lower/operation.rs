@@ -9,6 +9,16 @@ use crate::model::ranges;
 use crate::syntax::ast::Statement;
 use crate::units::Dimension;
 
+/// The fields of `motor { ... }`.
+pub(crate) const MOTOR_FIELDS: &[&str] = &[
+    "standard",
+    "service_factor",
+    "efficiency",
+    "drive_efficiency",
+];
+/// The fields of `energy { ... }`.
+pub(crate) const ENERGY_FIELDS: &[&str] = &["price", "years", "discount_rate", "escalation"];
+
 pub fn lower_motor(
     body: Option<&[Statement]>,
     units: ReportUnits,
@@ -26,17 +36,7 @@ pub fn lower_motor(
         efficiency: None,
         drive_efficiency: None,
     };
-    let f = read_fields(
-        body.unwrap_or(&[]),
-        "motor",
-        &[
-            "standard",
-            "service_factor",
-            "efficiency",
-            "drive_efficiency",
-        ],
-        d,
-    );
+    let f = read_fields(body.unwrap_or(&[]), "motor", MOTOR_FIELDS, d);
     for field in &f.fields {
         let r: Result<(), Diagnostic> = (|| {
             match field.name {
@@ -107,12 +107,7 @@ pub fn lower_energy(
         discount_rate: 0.0,
         escalation: 0.0,
     };
-    let f = read_fields(
-        body.unwrap_or(&[]),
-        "energy",
-        &["price", "years", "discount_rate", "escalation"],
-        d,
-    );
+    let f = read_fields(body.unwrap_or(&[]), "energy", ENERGY_FIELDS, d);
     for field in &f.fields {
         let r: Result<(), Diagnostic> = (|| {
             match field.name {

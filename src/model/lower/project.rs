@@ -140,7 +140,7 @@ fn days_in_month(year: u32, month: u32) -> u32 {
     }
 }
 
-const PROJECT_FIELDS: &[&str] = &[
+pub(crate) const PROJECT_FIELDS: &[&str] = &[
     "title", "number", "client", "prepared", "checked", "approved", "units", "style",
 ];
 

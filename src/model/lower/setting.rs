@@ -12,6 +12,9 @@ use crate::model::scenario::{self, expect_level, lower_fluid};
 
 use super::Blocks;
 
+/// The fields of `station { ... }`.
+pub(crate) const STATION_FIELDS: &[&str] = &["centreline"];
+
 /// What the base scenario takes from `fluid`, `site` and `station`.
 pub struct Setting {
     pub fluid: Option<Fluid>,
@@ -78,7 +81,7 @@ fn lower_station(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> Opt
         ));
         return None;
     };
-    let fields = read_fields(block.statements(), "station", &["centreline"], diags);
+    let fields = read_fields(block.statements(), "station", STATION_FIELDS, diags);
     match fields.get("centreline") {
         Some(c) => match expect_level(c.value, env, "pump centreline") {
             Ok(v) => Some(v),
