@@ -6,12 +6,14 @@ use std::path::Path;
 use std::process::{Command, Output};
 
 const BIN: &str = env!("CARGO_BIN_EXE_dutyline");
-const SUBCOMMANDS: [&str; 10] = [
+const SUBCOMMANDS: [&str; 12] = [
     "check",
     "results",
     "fmt",
     "diff",
     "build",
+    "verify",
+    "extract",
     "watch",
     "new",
     "lsp",

@@ -72,7 +72,7 @@ fn the_statement_keywords_are_the_ones_the_checker_accepts() {
         dutyline::check(src, &dutyline::NoFiles)
             .diagnostics
             .iter()
-            .any(|d| d.code == "unknown-statement")
+            .any(|d| d.code.as_str() == "unknown-statement")
     };
     for k in keywords::STATEMENTS {
         assert!(!unknown(&format!("{k} x {{ }}\n")), "{k}");

@@ -85,6 +85,7 @@ const NOT_FROM_A_DESIGN: &[(Code, &str)] = &[
     (Code::Layout, "what the page cannot hold, which `check` rejects first: tests/regression_input.rs"),
     (Code::CaseFailed, "a case `check` let through but the engine cannot resolve; `check` rejects each known cause first (tests/regression_input.rs)"),
     (Code::FileTooLarge, "a file over 1 MiB is not committed: tests/input_limits.rs"),
+    (Code::NotAPackage, "a PDF given to `verify` or `extract`, not a design: tests/package_verify.rs"),
 ];
 
 /// The diagnostics of a design as a user reads them: `check`, and when the design is

@@ -126,7 +126,7 @@ fn a_bad_length_gives_one_error_and_no_zero_length_warning() {
     ] {
         let src = demo.replacen("length = 18 ft", &format!("length = {bad}"), 1);
         let all = dutyline::check(&src, &dutyline::NoFiles).diagnostics;
-        let codes: Vec<&str> = all.iter().map(|d| d.code).collect();
+        let codes: Vec<&str> = all.iter().map(|d| d.code.as_str()).collect();
         assert!(codes.contains(&code), "{bad}: {codes:?}");
         assert!(!codes.contains(&"zero-length"), "{bad}: {codes:?}");
         assert_eq!(
@@ -138,5 +138,5 @@ fn a_bad_length_gives_one_error_and_no_zero_length_warning() {
     // A length written as zero still warns.
     let zero = demo.replacen("length = 18 ft", "length = 0 ft", 1);
     let all = dutyline::check(&zero, &dutyline::NoFiles).diagnostics;
-    assert!(all.iter().any(|d| d.code == "zero-length"));
+    assert!(all.iter().any(|d| d.code.as_str() == "zero-length"));
 }

@@ -46,7 +46,7 @@ fn analysed(src: &str) -> Analysis {
 fn unstable(a: &Analysis) -> Vec<&str> {
     a.warnings
         .iter()
-        .filter(|w| w.code == "unstable-curve")
+        .filter(|w| w.code.as_str() == "unstable-curve")
         .map(|w| w.message.as_str())
         .collect()
 }
