@@ -89,12 +89,16 @@ impl PartialEq<&str> for CheckId {
 pub enum Source {
     /// A publication's clause or table, read from the document.
     Publication {
+        /// Title of the publication, with its edition.
         title: &'static str,
+        /// Clause, table or figure.
         clause: &'static str,
     },
     /// A publication's value recalled, not read from the edition in force.
     Recalled {
+        /// Title of the publication, with its edition.
         title: &'static str,
+        /// Clause, table or figure.
         clause: &'static str,
     },
     /// Common engineering practice, with a word on what.
@@ -121,7 +125,9 @@ impl Source {
 /// A limit: its value (SI or a fraction) and its source.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Limit {
+    /// The limit, SI or a fraction (the unit of its quantity).
     pub value: f64,
+    /// Where it comes from.
     pub source: Source,
 }
 
