@@ -175,7 +175,7 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
 /// The roughness or Hazen-Williams C each case uses on each segment (aged cases
 /// included): the effective pipe inputs a reviewer recomputes with.
 fn pipe_condition(blocks: &mut Vec<Block>, analysis: &Analysis, first: &CaseSystem, units: &Units) {
-    let headers: Vec<String> = first.segments.iter().map(|g| segment_label(g)).collect();
+    let headers: Vec<String> = first.segments.iter().map(segment_label).collect();
     let rows: Vec<Vec<String>> = analysis
         .cases
         .iter()
