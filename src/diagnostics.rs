@@ -15,11 +15,14 @@ pub use code::Code;
 /// A byte range in a source file.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Hash, PartialOrd, Ord, Serialize)]
 pub struct Span {
+    /// Byte offset of the first byte.
     pub start: usize,
+    /// Byte offset one past the last byte.
     pub end: usize,
 }
 
 impl Span {
+    /// The bytes `start..end`.
     pub fn new(start: usize, end: usize) -> Span {
         Span { start, end }
     }
@@ -33,16 +36,20 @@ impl Span {
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Serialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Severity {
+    /// Legal, but worth a look.
     Warning,
+    /// The design cannot be used as written.
     Error,
 }
 
 /// A message about the design, anchored at a place in the source.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct Diagnostic {
+    /// Error or warning.
     pub severity: Severity,
     /// What kind of problem it is; [`Code::as_str`] is the stable short string.
     pub code: Code,
+    /// What is wrong, in one sentence.
     pub message: String,
     /// Primary location; `None` for whole-file problems (I/O, size).
     pub span: Option<Span>,
@@ -55,6 +62,7 @@ pub struct Diagnostic {
 }
 
 impl Diagnostic {
+    /// An error of kind `code` at `span`.
     pub fn error(code: Code, message: impl Into<String>, span: Option<Span>) -> Self {
         Diagnostic {
             severity: Severity::Error,
@@ -66,24 +74,29 @@ impl Diagnostic {
             help: None,
         }
     }
+    /// A warning of kind `code` at `span`.
     pub fn warning(code: Code, message: impl Into<String>, span: Option<Span>) -> Self {
         Diagnostic {
             severity: Severity::Warning,
             ..Diagnostic::error(code, message, span)
         }
     }
+    /// The same with the text under the primary underline.
     pub fn with_label(mut self, label: impl Into<String>) -> Self {
         self.label = Some(label.into());
         self
     }
+    /// The same with a hint on how to fix it.
     pub fn with_help(mut self, help: impl Into<String>) -> Self {
         self.help = Some(help.into());
         self
     }
+    /// The same with one more location and its text.
     pub fn with_secondary(mut self, span: Span, text: impl Into<String>) -> Self {
         self.secondary.push((span, text.into()));
         self
     }
+    /// True for an error (not a warning).
     pub fn is_error(&self) -> bool {
         self.severity == Severity::Error
     }

@@ -7,6 +7,7 @@ use crate::model::ReportUnits;
 /// A unit of display: label, and SI value → displayed value.
 #[derive(Clone, Copy, Debug)]
 pub struct Shown {
+    /// The unit's label as printed (`gpm`, `m³/h`).
     pub label: &'static str,
     factor: f64,
     offset: f64,
@@ -15,6 +16,7 @@ pub struct Shown {
 }
 
 impl Shown {
+    /// The SI value `si` in this unit.
     pub fn value(&self, si: f64) -> f64 {
         si / self.factor - self.offset
     }
@@ -102,10 +104,12 @@ const HP: f64 = 745.69987;
 /// The display units of one report.
 #[derive(Clone, Copy, Debug)]
 pub struct Units {
+    /// SI or US customary.
     pub system: ReportUnits,
 }
 
 impl Units {
+    /// The display units of a report in `system`.
     pub fn new(system: ReportUnits) -> Units {
         Units { system }
     }
@@ -115,6 +119,7 @@ impl Units {
             ReportUnits::Us => us,
         }
     }
+    /// Volume flow: m³/h or gpm (from m³/s).
     pub fn flow(&self) -> Shown {
         self.pick(
             Shown {
@@ -131,6 +136,7 @@ impl Units {
             },
         )
     }
+    /// Head: m or ft of fluid (from m).
     pub fn head(&self) -> Shown {
         self.pick(
             Shown {
@@ -147,6 +153,7 @@ impl Units {
             },
         )
     }
+    /// Elevation and level: m or ft (from m).
     pub fn elevation(&self) -> Shown {
         self.pick(
             Shown {
@@ -163,6 +170,7 @@ impl Units {
             },
         )
     }
+    /// Pipe length: m or ft (from m).
     pub fn length(&self) -> Shown {
         self.pick(
             Shown {
@@ -179,6 +187,7 @@ impl Units {
             },
         )
     }
+    /// Diameter: mm or in (from m).
     pub fn diameter(&self) -> Shown {
         self.pick(
             Shown {
@@ -195,6 +204,7 @@ impl Units {
             },
         )
     }
+    /// Roughness: mm or in (from m).
     pub fn roughness(&self) -> Shown {
         self.pick(
             Shown {
@@ -211,6 +221,7 @@ impl Units {
             },
         )
     }
+    /// Pressure: kPa or psi (from Pa).
     pub fn pressure(&self) -> Shown {
         self.pick(
             Shown {
@@ -227,6 +238,7 @@ impl Units {
             },
         )
     }
+    /// Power: kW or hp (from W).
     pub fn power(&self) -> Shown {
         self.pick(
             Shown {
@@ -243,6 +255,7 @@ impl Units {
             },
         )
     }
+    /// Velocity: m/s or ft/s (from m/s).
     pub fn velocity(&self) -> Shown {
         self.pick(
             Shown {
@@ -259,6 +272,7 @@ impl Units {
             },
         )
     }
+    /// Temperature: °C or °F (from K).
     pub fn temperature(&self) -> Shown {
         self.pick(
             Shown {
@@ -275,6 +289,7 @@ impl Units {
             },
         )
     }
+    /// Density: kg/m³ or lb/ft³ (from kg/m³).
     pub fn density(&self) -> Shown {
         self.pick(
             Shown {
@@ -291,6 +306,7 @@ impl Units {
             },
         )
     }
+    /// Dynamic viscosity: cP in both systems (from Pa·s).
     pub fn viscosity(&self) -> Shown {
         Shown {
             label: "cP",
@@ -299,6 +315,7 @@ impl Units {
             decimals: 3,
         }
     }
+    /// Rotational speed: rpm in both systems (from rpm).
     pub fn speed(&self) -> Shown {
         Shown {
             label: "rpm",
@@ -367,12 +384,14 @@ impl Units {
             ReportUnits::Us => 1000.0 * GAL,
         }
     }
+    /// The name of the volume of a cost per volume (`m³`, `1000 gal`).
     pub fn volume_cost_unit(&self) -> &'static str {
         match self.system {
             ReportUnits::Si => "m³",
             ReportUnits::Us => "1000 gal",
         }
     }
+    /// Energy: kWh in both systems (from J).
     pub fn energy(&self) -> Shown {
         Shown {
             label: "kWh",

@@ -1,18 +1,12 @@
 //! Behaviour a user sees: demos check, analyse and build; broken designs get
 //! located diagnostics; no input panics.
 
+mod common;
+use common::DemoFiles;
 use dutyline::diagnostics::Code;
 use std::collections::BTreeMap;
 
 use dutyline::diagnostics::{line_col, render};
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        std::fs::read_to_string(format!("examples-demo/{path}"))
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn demos() -> Vec<(String, String)> {
     let mut v: Vec<(String, String)> = std::fs::read_dir("examples-demo")

@@ -4,6 +4,8 @@
 //! terms with the totals, and hand-computed surface-pressure heads for a pressurised
 //! and a vacuum tank.
 
+mod common;
+use common::DemoFiles;
 use dutyline::analysis::Analysis;
 
 /// Standard gravity, 9.806 65 m/s² (CGPM 1901); 1 psi = 6894.757 293 168 Pa (NIST SP
@@ -11,25 +13,8 @@ use dutyline::analysis::Analysis;
 const G0: f64 = 9.806_65;
 const PSI: f64 = 6_894.757_293_168;
 
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full)
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
-
 fn analyse(src: &str) -> Analysis {
-    let c = dutyline::check(src, &DemoFiles);
-    let errors: Vec<String> = c
-        .diagnostics
-        .iter()
-        .filter(|d| d.is_error())
-        .map(|d| d.message.clone())
-        .collect();
-    assert!(errors.is_empty(), "{errors:?}");
-    dutyline::analysis::analyse(&c.design.expect("design"))
+    common::analyse_valid(src, &DemoFiles).1
 }
 
 fn demo(name: &str) -> String {

@@ -6,16 +6,10 @@
 //! Bless (rewrite) them after an intended change with
 //! `DUTYLINE_BLESS=1 cargo test --test expected_output`, then read the git diff.
 
+mod common;
+use common::DemoFiles;
 use dutyline::diagnostics::Code;
 use std::path::{Path, PathBuf};
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        std::fs::read_to_string(format!("examples-demo/{path}"))
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn blessing() -> bool {
     std::env::var_os("DUTYLINE_BLESS").is_some()

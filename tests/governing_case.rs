@@ -4,18 +4,11 @@
 //! another case requires. The Kestrel Ridge demo's hot, aged-pipe case delivers
 //! 531 m³/h at full speed while peak requires 560 m³/h.
 
+mod common;
+use common::DemoFiles;
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::Analysis;
 use dutyline::diagnostics::Code;
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full)
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn kestrel() -> String {
     let path = format!(
@@ -26,9 +19,7 @@ fn kestrel() -> String {
 }
 
 fn analyse(src: &str) -> Analysis {
-    let c = dutyline::check(src, &DemoFiles);
-    assert!(!c.has_errors());
-    dutyline::analysis::analyse(&c.design.expect("design"))
+    common::analyse_valid(src, &DemoFiles).1
 }
 
 fn case_index(a: &Analysis, name: &str) -> usize {

@@ -3,6 +3,7 @@
 //! margin only (1.0 on a variable-frequency drive), a duty above a stated nameplate
 //! fails, and sites above 1000 m are warned about.
 
+mod common;
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::Analysis;
@@ -50,17 +51,7 @@ const FLAT_564: &str = "        flow gpm head ft power hp
         400 50 5.64";
 
 fn analyse(src: &str) -> (dutyline::model::Design, Analysis) {
-    let c = dutyline::check(src, &dutyline::NoFiles);
-    let errors: Vec<String> = c
-        .diagnostics
-        .iter()
-        .filter(|d| d.is_error())
-        .map(|d| format!("{}: {}", d.code, d.message))
-        .collect();
-    assert!(errors.is_empty(), "{errors:?}");
-    let design = c.design.expect("design");
-    let a = dutyline::analysis::analyse(&design);
-    (design, a)
+    common::analyse_valid(src, &dutyline::NoFiles)
 }
 
 fn pump(a: &Analysis, case: usize) -> &PumpResult {

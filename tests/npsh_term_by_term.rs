@@ -9,19 +9,12 @@
 //! those at pump A's duty flow. The suction wall friction is worked with the explicit
 //! Swamee and Jain (1976) friction factor instead of the engine's Colebrook solution.
 
+mod common;
+use common::DemoFiles;
 use serde_json::Value;
 
 const G: f64 = 9.80665; // standard gravity, m/s² (CGPM 1901; NIST SP 330)
 const FT: f64 = 0.3048; // m per ft, exact (NIST SP 811)
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full)
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn results_json(demo: &str) -> Value {
     let path = format!("{}/examples-demo/{demo}.duty", env!("CARGO_MANIFEST_DIR"));

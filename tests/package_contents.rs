@@ -3,16 +3,10 @@
 
 mod report_common;
 
+mod common;
+use common::DemoFiles;
 use dutyline::display::Units;
 use report_common::pdftext::page_texts;
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        std::fs::read_to_string(format!("examples-demo/{path}"))
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn package(path: &str) -> (dutyline::Design, dutyline::analysis::Analysis, Vec<u8>) {
     let src = std::fs::read_to_string(path).unwrap();

@@ -2,6 +2,7 @@
 //! lowest-head case at the limit, with hand-solved duty points; beyond the end of the
 //! published curve it fails ("no published data there").
 
+mod common;
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::Analysis;
 
@@ -49,15 +50,7 @@ pump PAIR "test pair" {{
 }
 
 fn analyse(src: &str) -> Analysis {
-    let c = dutyline::check(src, &dutyline::NoFiles);
-    let errors: Vec<String> = c
-        .diagnostics
-        .iter()
-        .filter(|d| d.is_error())
-        .map(|d| format!("{}: {}", d.code, d.message))
-        .collect();
-    assert!(errors.is_empty(), "{errors:?}");
-    dutyline::analysis::analyse(&c.design.expect("design"))
+    common::analyse_valid(src, &dutyline::NoFiles).1
 }
 
 /// Positive root of a q² + b q + c = 0.

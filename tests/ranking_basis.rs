@@ -3,6 +3,7 @@
 //! life-cycle cost) per volume, and a failing candidate never ranks above a qualifying
 //! one. Expected values are worked by hand in the comments.
 
+mod common;
 use dutyline::analysis::Analysis;
 
 /// 1 hp = 745.699 87 W; 1 US gal = 3.785 411 784 L (NIST SP 811, 2008, Appendix B).
@@ -61,15 +62,7 @@ fn pump(name: &str, shutoff: f64, hp: f64) -> String {
 }
 
 fn analyse(src: &str) -> Analysis {
-    let c = dutyline::check(src, &dutyline::NoFiles);
-    let errors: Vec<String> = c
-        .diagnostics
-        .iter()
-        .filter(|d| d.is_error())
-        .map(|d| format!("{}: {}", d.code, d.message))
-        .collect();
-    assert!(errors.is_empty(), "{errors:?}");
-    dutyline::analysis::analyse(&c.design.expect("design"))
+    common::analyse_valid(src, &dutyline::NoFiles).1
 }
 
 fn close(actual: f64, expected: f64, relative: f64) -> bool {

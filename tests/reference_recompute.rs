@@ -6,6 +6,7 @@
 //! (`dutyline::check` + `dutyline::analysis::analyse`) and compared.
 
 mod common;
+use common::DemoFiles;
 
 use std::collections::{BTreeMap, HashMap};
 
@@ -32,15 +33,6 @@ const DEMOS: &[(&str, &str)] = &[
 /// Standard gravity, 9.806 65 m/s² (CGPM 1901), on the reference side.
 const STANDARD_GRAVITY: f64 = 9.806_65;
 
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full)
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
-
 fn demo_source(demo: &str) -> String {
     let file = DEMOS
         .iter()
@@ -52,10 +44,7 @@ fn demo_source(demo: &str) -> String {
 }
 
 fn analysed(demo: &str) -> Analysis {
-    let checked = dutyline::check(&demo_source(demo), &DemoFiles);
-    assert!(!checked.has_errors(), "{demo} has errors");
-    let design = checked.design.expect("a valid demo has a design");
-    dutyline::analysis::analyse(&design)
+    common::analyse_valid(&demo_source(demo), &DemoFiles).1
 }
 
 /// Relative tolerance of each quantity, with the source of the reference value.

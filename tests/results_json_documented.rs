@@ -1,18 +1,11 @@
 //! Every field of the demos' results JSON is documented in docs/results-json.md, so the
 //! public interface a script reads has no undocumented key.
 
+mod common;
+use common::DemoFiles;
 use std::collections::BTreeSet;
 
 const DOC: &str = include_str!("../docs/results-json.md");
-
-struct DemoFiles;
-impl dutyline::FileAccess for DemoFiles {
-    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
-        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
-        std::fs::read_to_string(full)
-            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
-    }
-}
 
 fn keys(v: &serde_json::Value, out: &mut BTreeSet<String>) {
     match v {

@@ -10,14 +10,19 @@ use super::limits::{self, CheckId, Limit, Source};
 use crate::display::Units;
 use crate::model::{Case, Design, Metric, PumpCandidate, Requirement};
 
+/// The outcome of a check.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
 pub enum Status {
+    /// Within the limit.
     Pass,
+    /// Legal but outside the preferred range: a reviewer should look.
     Warn,
+    /// Outside the limit: the candidate does not qualify.
     Fail,
 }
 
 impl Status {
+    /// The status as written to JSON and the diff (`pass`, `warn`, `fail`).
     pub fn keyword(self) -> &'static str {
         match self {
             Status::Pass => "pass",
@@ -30,9 +35,13 @@ impl Status {
 /// One check of one duty.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Check {
+    /// Which check.
     pub id: CheckId,
+    /// Its outcome.
     pub status: Status,
+    /// The value checked, SI or a fraction (the unit of the check's quantity).
     pub value: Option<f64>,
+    /// The limit it is compared with, in the same unit.
     pub limit: Option<f64>,
     /// In report units, plain language.
     pub message: String,

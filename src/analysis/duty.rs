@@ -24,7 +24,9 @@ pub const PUMP_CURVE_POINTS: usize = 41;
 /// The fitted published curves of one candidate, shared by every case.
 #[derive(Clone, Debug)]
 pub struct CandidateCurves {
+    /// Candidate name.
     pub name: String,
+    /// Where the candidate is written.
     pub span: Span,
     /// One per published curve, in file order; `Err` holds why a table could not be fitted.
     pub published: Vec<Result<PumpCurves, String>>,
@@ -36,6 +38,7 @@ pub struct CandidateCurves {
     /// Each usable published curve's head fit sampled over its data range (flow m³/s,
     /// head m), at its published speed, for plots of the whole impeller family.
     pub published_head_samples: Vec<Vec<(f64, f64)>>,
+    /// Remarks on the fits (a rising head, few points).
     pub warnings: Vec<String>,
 }
 
@@ -208,9 +211,13 @@ fn choose(
 /// One point of a pump (or arrangement) curve as installed in a case.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct PumpPoint {
+    /// Flow, m³/s.
     pub flow: f64,
+    /// Head, m.
     pub head: f64,
+    /// Pump efficiency (fraction), where published.
     pub efficiency: Option<f64>,
+    /// NPSH required, m, where published.
     pub npshr: Option<f64>,
     /// Shaft power of the whole arrangement, W.
     pub shaft_power: Option<f64>,
@@ -219,11 +226,14 @@ pub struct PumpPoint {
 /// What limits an adjusted pump: its speed (variable-speed drive) or its impeller (trim).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum AdjustLimit {
+    /// The speed of a variable-speed drive.
     Speed,
+    /// The impeller diameter.
     Trim,
 }
 
 impl AdjustLimit {
+    /// The keyword as written in a design (`speed`, `trim`).
     pub fn keyword(self) -> &'static str {
         match self {
             AdjustLimit::Speed => "speed",
@@ -235,6 +245,7 @@ impl AdjustLimit {
 /// The speed or diameter a case needs against the limit the design allows.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Headroom {
+    /// What is adjusted.
     pub limit: AdjustLimit,
     /// Needed ratio to the published curve's speed or diameter; `None` when the
     /// requirement cannot be reached at any ratio.
@@ -256,10 +267,13 @@ impl Headroom {
 pub struct Duty {
     /// Total flow of the arrangement, m³/s.
     pub flow: f64,
+    /// Total head of the arrangement, m.
     pub head: f64,
     /// Flow and head of each running pump.
     pub flow_per_pump: f64,
+    /// Head of each running pump, m.
     pub head_per_pump: f64,
+    /// Pump efficiency at duty (fraction), where published.
     pub efficiency: Option<f64>,
     /// ρ·g·Q·H of the arrangement, W.
     pub hydraulic_power: f64,
@@ -275,25 +289,34 @@ pub struct Duty {
     pub specific_energy: Option<f64>,
     /// Hydraulic power / electrical input (fraction).
     pub wire_to_water_efficiency: Option<f64>,
+    /// Best-efficiency flow of one pump at the duty speed and diameter, m³/s.
     pub bep_flow: Option<f64>,
+    /// Flow per pump / BEP flow (dimensionless).
     pub flow_ratio_to_bep: Option<f64>,
+    /// NPSH available at the pump suction, m.
     pub npsh_available: f64,
     /// NPSH available term by term; the terms sum to `npsh_available`.
     pub npsh_terms: NpshTerms,
+    /// NPSH required at duty, m, where published.
     pub npsh_required: Option<f64>,
+    /// Velocity in the suction segment next to the pump, m/s.
     pub suction_velocity: Option<f64>,
+    /// Velocity in the discharge segment next to the pump, m/s.
     pub discharge_velocity: Option<f64>,
     /// Every segment at the duty flow.
     pub segments: Vec<SegmentAtFlow>,
     /// Always false: a duty beyond the published curve fails (kept for the JSON field).
     pub extrapolated: bool,
+    /// How many times the pump and system curves cross (more than one warns).
     pub crossings: usize,
 }
 
 /// Energy of one case × candidate over a year.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct YearEnergy {
+    /// Electrical input energy per year, J.
     pub energy_j: f64,
+    /// Energy cost per year, currency units (when priced).
     pub cost: Option<f64>,
     /// Running hours per year: the case's hours, or the fixed volume ÷ delivered flow.
     pub hours: f64,
@@ -301,20 +324,32 @@ pub struct YearEnergy {
     pub volume_m3: f64,
 }
 
+/// One candidate in one case: its duty, checks, curve and energy.
 #[derive(Clone, Debug)]
 pub struct PumpResult {
+    /// Candidate name.
     pub name: String,
+    /// Single, parallel or series.
     pub arrangement: ArrangementKind,
+    /// Running pumps.
     pub count: u32,
+    /// Installed standby pumps.
     pub standby: u32,
+    /// Speed in this case, rpm (the rated speed until a usable curve says otherwise).
     pub speed_rpm: f64,
+    /// Impeller diameter evaluated (after trim), m, when known.
     pub impeller_diameter_m: Option<f64>,
+    /// The duty point, when there is one.
     pub duty: Option<Duty>,
     /// Why there is no duty point, when there is none.
     pub failure: Option<String>,
+    /// The checks of this case × candidate.
     pub checks: Vec<Check>,
+    /// The arrangement's curve as installed in this case.
     pub operating_curve: Vec<PumpPoint>,
+    /// Energy over a year, when the case has hours.
     pub energy: Option<YearEnergy>,
+    /// Remarks on this case × candidate.
     pub warnings: Vec<String>,
     /// Motor input efficiency used, and where it comes from.
     pub motor_efficiency: (f64, String),

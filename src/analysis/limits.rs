@@ -89,12 +89,16 @@ impl PartialEq<&str> for CheckId {
 pub enum Source {
     /// A publication's clause or table, read from the document.
     Publication {
+        /// Title of the publication, with its edition.
         title: &'static str,
+        /// Clause, table or figure.
         clause: &'static str,
     },
     /// A publication's value recalled, not read from the edition in force.
     Recalled {
+        /// Title of the publication, with its edition.
         title: &'static str,
+        /// Clause, table or figure.
         clause: &'static str,
     },
     /// Common engineering practice, with a word on what.
@@ -121,8 +125,36 @@ impl Source {
 /// A limit: its value (SI or a fraction) and its source.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Limit {
+    /// The limit, SI or a fraction (the unit of its quantity).
     pub value: f64,
+    /// Where it comes from.
     pub source: Source,
+}
+
+impl Limit {
+    /// A limit recalled from a publication's clause (not read from the edition in force).
+    pub const fn recalled(value: f64, title: &'static str, clause: &'static str) -> Limit {
+        Limit {
+            value,
+            source: Source::Recalled { title, clause },
+        }
+    }
+
+    /// A limit of common engineering practice, with a word on what.
+    pub const fn common_practice(value: f64, what: &'static str) -> Limit {
+        Limit {
+            value,
+            source: Source::CommonPractice(what),
+        }
+    }
+
+    /// Another value with the same source, e.g. the other end of a range.
+    pub const fn with_value(self, value: f64) -> Limit {
+        Limit {
+            value,
+            source: self.source,
+        }
+    }
 }
 
 /// ANSI/HI 9.6.3 (Rotodynamic pumps, guideline for operating regions).
@@ -131,82 +163,41 @@ const HI_963: &str = "ANSI/HI 9.6.3 Rotodynamic Pumps — Guideline for Operatin
 const HI_961: &str = "ANSI/HI 9.6.1 Rotodynamic Pumps — Guideline for NPSH Margin";
 
 /// Preferred operating region, lower end: 70 % of BEP flow.
-pub const POR_LOW: Limit = Limit {
-    value: 0.70,
-    source: Source::Recalled {
-        title: HI_963,
-        clause: "preferred operating region",
-    },
-};
+pub const POR_LOW: Limit = Limit::recalled(0.70, HI_963, "preferred operating region");
 /// Preferred operating region, upper end: 120 % of BEP flow.
-pub const POR_HIGH: Limit = Limit {
-    value: 1.20,
-    source: POR_LOW.source,
-};
+pub const POR_HIGH: Limit = POR_LOW.with_value(1.20);
 /// Below this fraction of BEP flow operation fails (stand-in for the maker's allowable
 /// operating region, which only the maker can give).
-pub const AOR_LOW: Limit = Limit {
-    value: 0.50,
-    source: Source::CommonPractice("allowable operating region stand-in 50–130 % of BEP flow"),
-};
+pub const AOR_LOW: Limit = Limit::common_practice(
+    0.50,
+    "allowable operating region stand-in 50–130 % of BEP flow",
+);
 /// Above this fraction of BEP flow operation fails.
-pub const AOR_HIGH: Limit = Limit {
-    value: 1.30,
-    source: AOR_LOW.source,
-};
+pub const AOR_HIGH: Limit = AOR_LOW.with_value(1.30);
 /// NPSH margin ratio NPSHa/NPSH3 when the design states none: 1.3, within the 1.1–2.0
 /// range of ANSI/HI 9.6.1 for general water services.
-pub const NPSH_RATIO: Limit = Limit {
-    value: 1.3,
-    source: Source::Recalled {
-        title: HI_961,
-        clause: "NPSH margin ratio guidance",
-    },
-};
+pub const NPSH_RATIO: Limit = Limit::recalled(1.3, HI_961, "NPSH margin ratio guidance");
 /// Smallest NPSH excess NPSHa − NPSHr: 1 m (about 3 ft).
-pub const NPSH_EXCESS_M: Limit = Limit {
-    value: 1.0,
-    source: Source::CommonPractice("NPSH excess of about 1 m"),
-};
+pub const NPSH_EXCESS_M: Limit = Limit::common_practice(1.0, "NPSH excess of about 1 m");
 /// Typical suction velocity, m/s: 0.6–1.5 (2–5 ft/s).
-pub const SUCTION_VELOCITY_LOW: Limit = Limit {
-    value: 0.6,
-    source: Source::CommonPractice("typical velocities"),
-};
+pub const SUCTION_VELOCITY_LOW: Limit = Limit::common_practice(0.6, "typical velocities");
 /// Upper end of the typical suction velocity, m/s.
-pub const SUCTION_VELOCITY_HIGH: Limit = Limit {
-    value: 1.5,
-    source: SUCTION_VELOCITY_LOW.source,
-};
+pub const SUCTION_VELOCITY_HIGH: Limit = SUCTION_VELOCITY_LOW.with_value(1.5);
 /// Typical discharge velocity, m/s: 1.5–3 (5–10 ft/s).
-pub const DISCHARGE_VELOCITY_LOW: Limit = Limit {
-    value: 1.5,
-    source: SUCTION_VELOCITY_LOW.source,
-};
+pub const DISCHARGE_VELOCITY_LOW: Limit = SUCTION_VELOCITY_LOW.with_value(1.5);
 /// Upper end of the typical discharge velocity, m/s.
-pub const DISCHARGE_VELOCITY_HIGH: Limit = Limit {
-    value: 3.0,
-    source: SUCTION_VELOCITY_LOW.source,
-};
+pub const DISCHARGE_VELOCITY_HIGH: Limit = SUCTION_VELOCITY_LOW.with_value(3.0);
 /// Smallest headroom of speed or diameter to its limit, as a fraction of the limit: 5 %.
-pub const HEADROOM: Limit = Limit {
-    value: 0.05,
-    source: Source::CommonPractice("speed or diameter headroom of 5 %"),
-};
+pub const HEADROOM: Limit = Limit::common_practice(0.05, "speed or diameter headroom of 5 %");
 /// Site altitude up to which motor ratings hold, m (with 40 °C ambient): IEC 60034-1
 /// and NEMA MG 1 usual service conditions.
-pub const MOTOR_ALTITUDE_M: Limit = Limit {
-    value: 1000.0,
-    source: Source::Recalled {
-        title: "IEC 60034-1 Rotating electrical machines — Rating and performance; NEMA MG 1 Motors and Generators",
-        clause: "usual service conditions: altitude up to 1000 m, ambient up to 40 °C",
-    },
-};
+pub const MOTOR_ALTITUDE_M: Limit = Limit::recalled(
+    1000.0,
+    "IEC 60034-1 Rotating electrical machines — Rating and performance; NEMA MG 1 Motors and Generators",
+    "usual service conditions: altitude up to 1000 m, ambient up to 40 °C",
+);
 /// Ambient temperature up to which motor ratings hold, K (40 °C).
-pub const MOTOR_AMBIENT_K: Limit = Limit {
-    value: 313.15,
-    source: MOTOR_ALTITUDE_M.source,
-};
+pub const MOTOR_AMBIENT_K: Limit = MOTOR_ALTITUDE_M.with_value(313.15);
 /// Motor rating and service factor: NEMA MG 1 (service factor; Parts 30/31 for inverter
 /// supply) and IEC 60034-1 (continuous duty S1 rating; it defines no service factor).
 pub const MOTOR_RATING_SOURCE: Source = Source::Recalled {

@@ -24,9 +24,11 @@ pub const SYSTEM_CURVE_POINTS: usize = 31;
 /// The whole analysis of a design.
 #[derive(Clone, Debug)]
 pub struct Analysis {
+    /// One result per case, in the design's order.
     pub cases: Vec<CaseResult>,
     /// Per candidate, the fitted published curves (shared by all cases).
     pub candidates: Vec<duty::CandidateCurves>,
+    /// The ranking of the candidates and the recommendation.
     pub selection: selection::Selection,
     /// Engineering warnings that belong to no single check.
     pub warnings: Vec<Warning>,
@@ -47,8 +49,11 @@ pub struct Analysis {
 /// A remark of the analysis, with the design-file line where it applies when known.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Warning {
+    /// What kind of remark.
     pub code: crate::diagnostics::Code,
+    /// The remark in words, in the design's report units.
     pub message: String,
+    /// Where in the design it applies, when known.
     pub span: Option<crate::diagnostics::Span>,
 }
 
@@ -62,24 +67,36 @@ impl Warning {
 /// One point of a system curve.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct SystemPoint {
+    /// Flow, m³/s.
     pub flow: f64,
+    /// System head, m: static + friction + minor.
     pub head: f64,
+    /// Static head, m.
     pub static_head: f64,
+    /// Wall friction, m.
     pub friction: f64,
+    /// Fittings and stated losses, m.
     pub minor: f64,
 }
 
+/// The analysis of one case.
 #[derive(Clone, Debug)]
 pub struct CaseResult {
+    /// Case name.
     pub name: String,
+    /// The case's overrides as written.
     pub overrides: Vec<String>,
+    /// Operating hours per year, h.
     pub hours_per_year: f64,
     /// `None` when the case could not be set up (the error is in `error`).
     pub system: Option<CaseSystem>,
+    /// Why the case could not be set up, if it could not.
     pub error: Option<String>,
+    /// The system curve, tabulated from zero flow.
     pub system_curve: Vec<SystemPoint>,
     /// NPSH available at each flow of `system_curve`, m.
     pub npsh_available_curve: Vec<f64>,
+    /// One result per candidate, in the design's order.
     pub pumps: Vec<duty::PumpResult>,
 }
 

@@ -26,6 +26,7 @@ pub const RUN_OUT_POINTS: usize = 81;
 /// The motor of one candidate and the findings behind it.
 #[derive(Clone, Debug, PartialEq)]
 pub struct MotorSizing {
+    /// The rating chosen (or stated) and its standard.
     pub choice: MotorChoice,
     /// The design states the rating (`motor_rating` of the pump); otherwise selected.
     pub rating_stated: bool,
@@ -33,19 +34,26 @@ pub struct MotorSizing {
     pub variable_speed: bool,
     /// Largest shaft power per pump at an operating point, W, and its case.
     pub max_operating_shaft_power: f64,
+    /// The case of the largest operating shaft power.
     pub max_operating_case: String,
     /// Largest shaft power per pump along the curve to run-out, W, its case, and the
     /// flow per pump (m³/s), speed (rpm) and fluid density (kg/m³) where it occurs.
     pub run_out_shaft_power: f64,
+    /// The case of the largest shaft power to run-out.
     pub run_out_case: String,
+    /// Flow per pump there, m³/s.
     pub run_out_flow: f64,
+    /// Speed there, rpm.
     pub run_out_speed_rpm: f64,
+    /// Fluid density there, kg/m³.
     pub run_out_density: f64,
     /// Full-load motor efficiency used for input power (fraction), and its source.
     pub efficiency: f64,
+    /// Where the motor efficiency comes from.
     pub efficiency_source: String,
     /// Poles inferred from the rated speed, and the supply frequency assumed, Hz.
     pub poles: u32,
+    /// Supply frequency assumed, Hz.
     pub supply_hz: f64,
 }
 

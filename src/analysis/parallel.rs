@@ -25,14 +25,19 @@ use crate::pumps::{self, ScaledPump};
 pub struct OneAlone {
     /// The case it is evaluated against (the lowest system head).
     pub case: String,
+    /// Speed of the one pump, rpm.
     pub speed_rpm: f64,
     /// Flow (m³/s) and head (m) of the one pump; `None` beyond the published curve.
     pub flow: Option<f64>,
+    /// Head of the one pump, m.
     pub head: Option<f64>,
     /// Shaft power, W.
     pub shaft_power: Option<f64>,
+    /// NPSH available at its flow, m.
     pub npsh_available: Option<f64>,
+    /// NPSH required at its flow, m, where published.
     pub npsh_required: Option<f64>,
+    /// The one-pump-alone check (within the published curve).
     pub check: Check,
 }
 

@@ -15,15 +15,20 @@ use super::CaseResult;
 use crate::model::Design;
 use crate::pumps::{self, LccMethod};
 
+/// One candidate in the ranking.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Ranked {
+    /// Candidate name.
     pub name: String,
+    /// Every case analysed with a duty point and no failing check.
     pub qualifies: bool,
     /// The ranking value (lower is better for costs and energy; efficiency is negated).
     pub score: f64,
     /// Energy and cost per year on the ranking basis (hours adjusted to fixed volumes).
     pub annual_energy_j: Option<f64>,
+    /// Energy cost per year, currency units (when priced).
     pub annual_cost: Option<f64>,
+    /// Life-cycle energy cost (present value), currency units.
     pub life_cost: Option<f64>,
     /// Volume delivered per year on the ranking basis, m³.
     pub annual_volume_m3: Option<f64>,
@@ -31,21 +36,30 @@ pub struct Ranked {
     pub specific_energy_j_m3: Option<f64>,
     /// Life-cycle energy cost ÷ (yearly volume × years), currency per m³.
     pub life_cost_per_m3: Option<f64>,
+    /// Mean pump efficiency over the cases (fraction).
     pub mean_efficiency: Option<f64>,
     /// Hydraulic energy ÷ electrical energy over the year.
     pub mean_wire_to_water: Option<f64>,
+    /// Smallest NPSH available / NPSH required over the cases (dimensionless).
     pub min_npsh_ratio: Option<f64>,
+    /// Number of warning checks over the cases.
     pub warnings: usize,
+    /// Why it qualifies or not, in one sentence.
     pub why: String,
 }
 
+/// The ranking and the recommendation.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Selection {
+    /// The recommended candidate, the first qualifying one.
     pub recommended: Option<String>,
+    /// The score in words (`life-cycle energy cost per volume`, `energy per volume`, `mean efficiency`).
     pub criterion: &'static str,
+    /// The score in words, for the package.
     pub criteria_text: String,
     /// The basis of the ranking in one sentence.
     pub basis: String,
+    /// Qualifying candidates by score, then the others.
     pub ranking: Vec<Ranked>,
     /// Why nothing is recommended, when nothing is.
     pub refusal: Option<String>,

@@ -29,10 +29,15 @@ pub const STANDARD_ATMOSPHERE_PA: f64 = 101_325.0;
 /// The fluid as it is in one case.
 #[derive(Clone, Debug, PartialEq)]
 pub struct FluidState {
+    /// `water` or the design's name of the liquid.
     pub name: String,
+    /// Temperature, K (when known).
     pub temperature_k: Option<f64>,
+    /// Density, kg/m³.
     pub density: f64,
+    /// Dynamic viscosity, Pa·s.
     pub viscosity: f64,
+    /// Vapour pressure (absolute), Pa.
     pub vapor_pressure: f64,
     /// Where the properties come from.
     pub source: String,
@@ -41,65 +46,98 @@ pub struct FluidState {
 /// One pipe segment, resolved for a case.
 #[derive(Clone, Debug)]
 pub struct SegmentState {
+    /// Name of the line the segment belongs to.
     pub line: String,
+    /// Suction or discharge.
     pub side: Side,
+    /// Position within its line (0-based).
     pub index: usize,
+    /// Material name as in the catalogue.
     pub material: &'static str,
+    /// Size as a reader sees it ("8 in schedule 40").
     pub size_label: String,
+    /// Where the inner diameter comes from (a standard's table, or "given").
     pub diameter_source: String,
+    /// Length, m.
     pub length: f64,
+    /// Inner diameter, m.
     pub inner_diameter: f64,
+    /// Flow area πD²/4, m².
     pub area: f64,
     /// Absolute roughness used by Darcy-Weisbach (also for equivalent lengths).
     pub roughness: f64,
+    /// Where the roughness (or C) comes from, a publication.
     pub roughness_source: String,
+    /// Hazen-Williams C (dimensionless); when set, friction is by Hazen-Williams.
     pub hazen_williams_c: Option<f64>,
+    /// The fittings of the segment.
     pub fittings: Vec<FittingState>,
     /// Sum of constant K values on this segment (fittings × count, and `loss { k }`).
     pub k_constant: f64,
     /// The Reynolds-dependent fittings (2-K, 3-K) have K = K1/Re + K_fixed: the sums over
     /// them of count × K1 and of count × K_fixed, so that a flow costs one division.
     pub k_laminar_sum: f64,
+    /// Σ count × K_fixed of the Reynolds-dependent fittings (dimensionless).
     pub k_fixed_sum: f64,
     /// Equivalent lengths of `loss { equivalent_length }`, m.
     pub equivalent_length: f64,
 }
 
+/// A fitting on a segment, as used for its K.
 #[derive(Clone, Debug)]
 pub struct FittingState {
+    /// The fitting table entry.
     pub spec: &'static FittingSpec,
+    /// How many.
     pub count: u32,
+    /// Diameter ratio small/large of a size change (dimensionless).
     pub beta: Option<f64>,
+    /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
 }
 
 /// Head losses at one flow, m of fluid.
 #[derive(Clone, Copy, Debug, Default, PartialEq)]
 pub struct Losses {
+    /// Wall friction of every segment, m.
     pub friction: f64,
+    /// Fittings and stated losses, m.
     pub minor: f64,
+    /// The part of friction + minor on the suction side, m.
     pub suction: f64,
 }
 
 /// A case's hydraulic model.
 #[derive(Clone, Debug)]
 pub struct CaseSystem {
+    /// The fluid in this case.
     pub fluid: FluidState,
+    /// Barometric pressure (absolute), Pa.
     pub barometric_pa: f64,
+    /// Where the barometric pressure comes from.
     pub barometric_source: String,
+    /// Source free-surface level on the design's datum, m.
     pub source_level: f64,
+    /// Destination free-surface level on the design's datum, m.
     pub destination_level: f64,
+    /// Pump centreline elevation on the design's datum, m.
     pub centreline: f64,
+    /// Absolute pressure on the source surface, Pa.
     pub source_abs_pa: f64,
+    /// Absolute pressure on the destination surface, Pa.
     pub destination_abs_pa: f64,
+    /// Static head: level difference plus surface pressure difference / ρg, m.
     pub static_head: f64,
+    /// Every segment of every line, suction first.
     pub segments: Vec<SegmentState>,
+    /// New or aged pipe in this case.
     pub pipe_condition: PipeCondition,
 }
 
 /// Why a case could not be set up.
 #[derive(Clone, Debug, PartialEq)]
 pub struct SystemError {
+    /// What is wrong, in words.
     pub message: String,
 }
 
@@ -433,7 +471,9 @@ impl NpshTerms {
 /// One segment at one flow: what a reviewer needs to recompute its losses.
 #[derive(Clone, Debug, PartialEq)]
 pub struct SegmentAtFlow {
+    /// Name of the line.
     pub line: String,
+    /// Suction or discharge.
     pub side: Side,
     /// Position within its line (0-based).
     pub index: usize,

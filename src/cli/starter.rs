@@ -1,14 +1,22 @@
 //! `dutyline new`: a commented starter design in US customary or SI units that checks
 //! and builds as written, for the engineer to replace every number with the project's.
+//!
+//! One template holds the design's shape and comments; [`US`] and [`SI`] fill in the
+//! values of each system (placeholders `@NAME@`).
 
 /// The starter design titled `title`, in `si` or US customary units.
 pub fn starter(title: &str, si: bool) -> String {
-    let template = if si { SI } else { US };
+    let values = if si { SI } else { US };
     let quoted = title.replace('\\', "\\\\").replace('"', "\\\"");
-    template.replace("@TITLE@", &quoted)
+    let mut text = TEMPLATE.replace("@TITLE@", &quoted);
+    for (name, value) in values {
+        text = text.replace(&format!("@{name}@"), value);
+    }
+    text
 }
 
-const US: &str = r#"# A starter design from `dutyline new`. Every number below is a placeholder:
+/// The design with a placeholder for every value that differs between the systems.
+const TEMPLATE: &str = r#"# A starter design from `dutyline new`. Every number below is a placeholder:
 # replace it with the project's levels, pipes and certified pump curves.
 # Reference: grammar/LANGUAGE.md. Check with `dutyline check --analyse FILE`,
 # build the package with `dutyline build FILE`.
@@ -17,129 +25,137 @@ project {
     title = "@TITLE@"
     number = "0000"
     prepared = "your name"
-    units = us  # report units: us | si
+    units = @UNITS@  # report units: us | si
 }
 
-revision A 2026-01-01 "Starter"
+revision @REVISION@ 2026-01-01 "Starter"
 
-fluid water { temperature = 60 degF }
-site { elevation = 500 ft }  # sets the barometric pressure for NPSH available
+fluid water { temperature = @TEMPERATURE@ }
+site { elevation = @SITE@ }  # sets the barometric pressure for NPSH available
 
 # Free surfaces: where the water comes from and where it goes.
-tank sump { level = 502 ft }
-tank reservoir { level = 620 ft }
+tank sump { level = @SUMP@ }
+tank reservoir { level = @RESERVOIR@ }
 
-station { centreline = 500 ft }  # pump centreline elevation
+station { centreline = @CENTRELINE@ }  # pump centreline elevation
 
 line suction from sump to pump {
-    pipe steel 8 in schedule 40 { length = 20 ft }
+    pipe @SUCTION_PIPE@ }
     fitting entrance_rounded
     fitting elbow_90_long
 }
 
 line discharge from pump to reservoir {
-    pipe steel 6 in schedule 40 { length = 1500 ft }
+    pipe @DISCHARGE_PIPE@ }
     fitting check_valve_swing
-    fitting gate_valve
+    fitting @VALVE@_valve
     fitting elbow_90_long * 4
     fitting exit
 }
 
 # Operating cases: the base design plus overrides.
 case normal { hours = 2000 h }
-case low_sump { sump.level = 499 ft }
+case low_sump { sump.level = @LOW_SUMP@ }
 case aged { roughness = aged }
 
 require {
-    flow >= 500 gpm for normal
-    flow >= 450 gpm for aged
+    flow >= @FLOW_NORMAL@ for normal
+    flow >= @FLOW_AGED@ for aged
     npsh_margin >= 1.3
 }
 
 # A candidate with its published curve (placeholder numbers).
-pump A "End suction candidate, 1780 rpm" {
-    speed = 1780 rpm
-    curve impeller 11 in {
-        flow gpm   head ft   efficiency %   npshr ft
+pump A "End suction candidate, @SPEED@ rpm" {
+    speed = @SPEED@ rpm
+    curve impeller @IMPELLER@ {
+@CURVE@    }
+}
+
+motor { standard = @MOTOR@ }
+energy { price = 0.@PRICE@/kWh, years = 20, discount_rate = 5 % }
+
+assume "Levels, lengths and the pump curve are placeholders of the starter design."
+"#;
+
+/// The US customary values.
+const US: &[(&str, &str)] = &[
+    ("UNITS", "us"),
+    ("REVISION", "A"),
+    ("TEMPERATURE", "60 degF"),
+    ("SITE", "500 ft"),
+    ("SUMP", "502 ft"),
+    ("RESERVOIR", "620 ft"),
+    ("CENTRELINE", "500 ft"),
+    ("SUCTION_PIPE", "steel 8 in schedule 40 { length = 20 ft"),
+    (
+        "DISCHARGE_PIPE",
+        "steel 6 in schedule 40 { length = 1500 ft",
+    ),
+    ("VALVE", "gate"),
+    ("LOW_SUMP", "499 ft"),
+    ("FLOW_NORMAL", "500 gpm"),
+    ("FLOW_AGED", "450 gpm"),
+    ("SPEED", "1780"),
+    ("IMPELLER", "11 in"),
+    (
+        "CURVE",
+        "        flow gpm   head ft   efficiency %   npshr ft
         0          175       0              -
         200        172       36             6.0
         400        165       61             7.0
         600        152       75             8.5
         800        132       78             11.0
         1000       105       69             14.5
-    }
-}
+",
+    ),
+    ("MOTOR", "nema, service_factor = 1.15"),
+    ("PRICE", "12 USD"),
+];
 
-motor { standard = nema, service_factor = 1.15 }
-energy { price = 0.12 USD/kWh, years = 20, discount_rate = 5 % }
-
-assume "Levels, lengths and the pump curve are placeholders of the starter design."
-"#;
-
-const SI: &str = r#"# A starter design from `dutyline new`. Every number below is a placeholder:
-# replace it with the project's levels, pipes and certified pump curves.
-# Reference: grammar/LANGUAGE.md. Check with `dutyline check --analyse FILE`,
-# build the package with `dutyline build FILE`.
-
-project {
-    title = "@TITLE@"
-    number = "0000"
-    prepared = "your name"
-    units = si  # report units: us | si
-}
-
-revision 1 2026-01-01 "Starter"
-
-fluid water { temperature = 15 degC }
-site { elevation = 150 m }  # sets the barometric pressure for NPSH available
-
-# Free surfaces: where the water comes from and where it goes.
-tank sump { level = 151 m }
-tank reservoir { level = 190 m }
-
-station { centreline = 150 m }  # pump centreline elevation
-
-line suction from sump to pump {
-    pipe ductile_iron 8 in class 350 { length = 6 m }
-    fitting entrance_rounded
-    fitting elbow_90_long
-}
-
-line discharge from pump to reservoir {
-    pipe ductile_iron 6 in class 350 { length = 450 m }
-    fitting check_valve_swing
-    fitting butterfly_valve
-    fitting elbow_90_long * 4
-    fitting exit
-}
-
-# Operating cases: the base design plus overrides.
-case normal { hours = 2000 h }
-case low_sump { sump.level = 150.2 m }
-case aged { roughness = aged }
-
-require {
-    flow >= 110 m^3/h for normal
-    flow >= 100 m^3/h for aged
-    npsh_margin >= 1.3
-}
-
-# A candidate with its published curve (placeholder numbers).
-pump A "End suction candidate, 2950 rpm" {
-    speed = 2950 rpm
-    curve impeller 250 mm {
-        flow m^3/h   head m   efficiency %   npshr m
+/// The SI values.
+const SI: &[(&str, &str)] = &[
+    ("UNITS", "si"),
+    ("REVISION", "1"),
+    ("TEMPERATURE", "15 degC"),
+    ("SITE", "150 m"),
+    ("SUMP", "151 m"),
+    ("RESERVOIR", "190 m"),
+    ("CENTRELINE", "150 m"),
+    ("SUCTION_PIPE", "ductile_iron 8 in class 350 { length = 6 m"),
+    (
+        "DISCHARGE_PIPE",
+        "ductile_iron 6 in class 350 { length = 450 m",
+    ),
+    ("VALVE", "butterfly"),
+    ("LOW_SUMP", "150.2 m"),
+    ("FLOW_NORMAL", "110 m^3/h"),
+    ("FLOW_AGED", "100 m^3/h"),
+    ("SPEED", "2950"),
+    ("IMPELLER", "250 mm"),
+    (
+        "CURVE",
+        "        flow m^3/h   head m   efficiency %   npshr m
         0            56       0              -
         40           55       36             2.0
         80           52       61             2.4
         120          47       75             3.0
         160          40       78             3.9
         200          31       69             5.1
+",
+    ),
+    ("MOTOR", "iec"),
+    ("PRICE", "20 EUR"),
+];
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_placeholder_is_filled_in_both_systems() {
+        for si in [false, true] {
+            let text = starter("T", si);
+            assert!(!text.contains('@'), "{text}");
+        }
     }
 }
-
-motor { standard = iec }
-energy { price = 0.20 EUR/kWh, years = 20, discount_rate = 5 % }
-
-assume "Levels, lengths and the pump curve are placeholders of the starter design."
-"#;

@@ -38,7 +38,9 @@ pub const FORMAT: &str = "dutyline-diff/1";
 pub struct InputChange {
     /// E.g. `["line discharge", "segment 2", "length"]`.
     pub path: Vec<String>,
+    /// The old value in report units; `None` when added.
     pub before: Option<String>,
+    /// The new value in report units; `None` when removed.
     pub after: Option<String>,
 }
 
@@ -70,8 +72,11 @@ pub struct DesignDiff {
     pub format: &'static str,
     /// The report units input values are shown in (the new design's): `us` or `si`.
     pub units: &'static str,
+    /// Changed inputs, in the new design's order.
     pub inputs: Vec<InputChange>,
+    /// Changed results.
     pub results: ResultsDiff,
+    /// The new design's report units, for the text rendering.
     #[serde(skip)]
     pub report_units: ReportUnits,
 }

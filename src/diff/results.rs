@@ -18,24 +18,34 @@ pub struct ResultsDiff {
     pub cases_added: Vec<String>,
     /// Cases only in the old analysis, in its order.
     pub cases_removed: Vec<String>,
+    /// Candidates only in the new analysis, in its order.
     pub pumps_added: Vec<String>,
+    /// Candidates only in the old analysis, in its order.
     pub pumps_removed: Vec<String>,
     /// One row per case × candidate present in both, in the new design's order.
     pub rows: Vec<DutyRow>,
     /// Checks whose status changed (or that appeared or disappeared), per case × candidate.
     pub checks: Vec<CheckChange>,
+    /// The recommended candidate before and after.
     pub recommendation: RecommendationChange,
 }
 
 /// The duty point of one candidate in one case, before and after.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct DutyRow {
+    /// Case name.
     pub case: String,
+    /// Candidate name.
     pub pump: String,
+    /// Whether a duty point exists before and after.
     pub duty: Presence,
+    /// Total flow at duty, m³/s.
     pub flow_m3_s: NumberChange,
+    /// Total head at duty, m.
     pub head_m: NumberChange,
+    /// Pump efficiency at duty (fraction).
     pub efficiency: NumberChange,
+    /// Shaft power of the running pumps, W.
     #[serde(rename = "shaft_power_W")]
     pub shaft_power: NumberChange,
     /// NPSH available divided by NPSH required.
@@ -46,17 +56,24 @@ pub struct DutyRow {
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Presence {
+    /// A duty point before and after.
     Both,
+    /// Only after.
     Appeared,
+    /// Only before.
     Disappeared,
+    /// Neither before nor after.
     Neither,
 }
 
 /// One number before and after; `change_percent` when both exist and `before` is not zero.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize)]
 pub struct NumberChange {
+    /// The old value (SI, the unit named by the field holding it).
     pub before: Option<f64>,
+    /// The new value (SI, same unit).
     pub after: Option<f64>,
+    /// 100 × (after − before) / |before|, %.
     pub change_percent: Option<f64>,
 }
 
@@ -82,7 +99,9 @@ impl NumberChange {
 /// A check of one case × candidate whose status is not what it was.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct CheckChange {
+    /// Case name.
     pub case: String,
+    /// Candidate name.
     pub pump: String,
     /// The check's id; for `velocity` with the side (`velocity suction`), for
     /// `requirement` with the quantity, comparison and cases of the requirement as
@@ -90,6 +109,7 @@ pub struct CheckChange {
     pub check: String,
     /// `pass`, `warn` or `fail`; `None` when the check is not made on that side.
     pub before: Option<&'static str>,
+    /// `pass`, `warn` or `fail` after; `None` when not made there.
     pub after: Option<&'static str>,
     /// The message of the new check, or of the old one when it is gone.
     pub message: String,
@@ -98,8 +118,11 @@ pub struct CheckChange {
 /// The recommended candidate before and after.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct RecommendationChange {
+    /// Recommended candidate before, if any.
     pub before: Option<String>,
+    /// Recommended candidate after, if any.
     pub after: Option<String>,
+    /// True when they differ.
     pub changed: bool,
 }
 

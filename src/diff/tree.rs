@@ -15,9 +15,11 @@ pub struct Node {
     pub key: String,
     /// How the node appears in a change's path.
     pub label: String,
+    /// Its value or its parts.
     pub value: Value,
 }
 
+/// What a node holds.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Value {
     /// A value as printed in report units.
@@ -25,8 +27,11 @@ pub enum Value {
     /// A named part with its own values; `summary` describes it when it is added or
     /// removed, unless it is `itemised`: then each of its values is reported on its own.
     Group {
+        /// How the part reads when added or removed.
         summary: String,
+        /// Its values and sub-parts.
         children: Vec<Node>,
+        /// Report each child on its own when added or removed.
         itemised: bool,
     },
 }

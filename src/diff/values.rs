@@ -22,19 +22,33 @@ use crate::units::parse_unit;
 /// What a number measures, which decides its report unit.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Measure {
+    /// A length or level (m or ft).
     Length,
+    /// A diameter (mm or in).
     Diameter,
+    /// A volume flow (m³/h or gpm).
     Flow,
+    /// A pressure of unstated reference (kPa or psi).
     Pressure,
+    /// A gauge pressure (kPa(g) or psig).
     GaugePressure,
+    /// An absolute pressure (kPa(a) or psia).
     AbsolutePressure,
+    /// A power (kW or hp).
     Power,
+    /// A temperature (°C or °F).
     Temperature,
+    /// A velocity (m/s or ft/s).
     Velocity,
+    /// A density (kg/m³ or lb/ft³).
     Density,
+    /// A dynamic viscosity (cP).
     Viscosity,
+    /// A rotational speed (rpm).
     Speed,
+    /// A time in hours (h).
     Hours,
+    /// A fraction shown as a percentage (%).
     Percent,
 }
 

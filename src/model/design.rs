@@ -15,44 +15,65 @@ use crate::hydraulics::fittings::FittingSpec;
 /// A whole design: what the engine analyses.
 #[derive(Clone, Debug)]
 pub struct Design {
+    /// Title block, report units and style.
     pub project: Project,
+    /// Revision history in file order; the last entry is the current revision.
     pub revisions: Vec<Revision>,
+    /// Purpose and scope, verbatim (`purpose "..."`).
     pub purpose: Option<String>,
+    /// Assumptions, verbatim and in order (`assume "..."`).
     pub assumptions: Vec<String>,
+    /// Notes, verbatim and in order (`note "..."`).
     pub notes: Vec<String>,
     /// The base scenario, before any case overrides.
     pub base: Scenario,
     /// Cases in file order, each with its scenario resolved.
     pub cases: Vec<Case>,
+    /// Requirements checked for every case and candidate they apply to.
     pub requirements: Vec<Requirement>,
+    /// Pump candidates in file order.
     pub pumps: Vec<PumpCandidate>,
+    /// Motor sizing settings (`motor { ... }`).
     pub motor: MotorSettings,
+    /// Energy cost settings (`energy { ... }`).
     pub energy: EnergySettings,
 }
 
+/// The `project` block: the title block of the package.
 #[derive(Clone, Debug, Default)]
 pub struct Project {
+    /// Project title (empty when not given, with a warning).
     pub title: String,
+    /// Project or calculation number.
     pub number: String,
+    /// Client name.
     pub client: String,
+    /// Who prepared the calculation.
     pub prepared: String,
+    /// Who checked it.
     pub checked: String,
+    /// Who approved it.
     pub approved: String,
+    /// Units of the package and the text results.
     pub units: ReportUnits,
     /// A built-in style name or a path to a style file.
     pub style: Option<String>,
+    /// Where the style is written, for diagnostics about it.
     pub style_span: Option<Span>,
 }
 
 /// Units used in the report and text results.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
 pub enum ReportUnits {
+    /// SI units (m, m³/h, kPa, kW).
     #[default]
     Si,
+    /// US customary units (ft, gpm, psi, hp).
     Us,
 }
 
 impl ReportUnits {
+    /// The keyword as written in a design (`si`, `us`).
     pub fn keyword(self) -> &'static str {
         match self {
             ReportUnits::Si => "si",
@@ -61,22 +82,33 @@ impl ReportUnits {
     }
 }
 
+/// One `revision ID DATE "text"` entry.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Revision {
+    /// Revision id as written (`A`, `2`).
     pub id: String,
+    /// Date as written, `YYYY-MM-DD` (a checked calendar date).
     pub date: String,
+    /// What the revision changed.
     pub description: String,
 }
 
 /// Everything a case may override.
 #[derive(Clone, Debug)]
 pub struct Scenario {
+    /// The pumped liquid.
     pub fluid: Fluid,
+    /// Site elevation and barometric pressure.
     pub site: Site,
+    /// The free surface the suction line draws from.
     pub source: Tank,
+    /// The free surface the discharge line delivers to.
     pub destination: Tank,
+    /// Pump centreline elevation (the datum of NPSH), on the design's datum.
     pub centreline: Length,
+    /// Suction and discharge lines in file order.
     pub lines: Vec<Line>,
+    /// New or aged pipe: which material roughness every segment uses.
     pub pipe_condition: PipeCondition,
     /// Operating hours per year in this case (energy); zero for a check-only case.
     pub hours_per_year: Time,
@@ -84,24 +116,35 @@ pub struct Scenario {
     pub pump_speeds: Vec<(String, Frequency)>,
 }
 
+/// The pumped liquid.
 #[derive(Clone, Debug)]
 pub enum Fluid {
+    /// Liquid water, its properties from IAPWS-IF97 at the temperature.
     Water {
+        /// Water temperature (absolute).
         temperature: ThermodynamicTemperature,
     },
+    /// A liquid whose properties the design states.
     Custom(CustomFluid),
 }
 
+/// A liquid described by its properties (`fluid "name" { ... }`).
 #[derive(Clone, Debug)]
 pub struct CustomFluid {
+    /// Name as written in the design.
     pub name: String,
+    /// Temperature, for the report only (absolute).
     pub temperature: Option<ThermodynamicTemperature>,
+    /// Density.
     pub density: MassDensity,
+    /// Dynamic viscosity.
     pub viscosity: DynamicViscosity,
+    /// Vapour pressure (absolute).
     pub vapor_pressure: Pressure,
 }
 
 impl Fluid {
+    /// The fluid's name for messages and the report (`water` or the design's).
     pub fn name(&self) -> &str {
         match self {
             Fluid::Water { .. } => "water",
@@ -110,8 +153,10 @@ impl Fluid {
     }
 }
 
+/// The `site` block.
 #[derive(Clone, Debug)]
 pub struct Site {
+    /// Site elevation above sea level (for the standard atmosphere and motor derating).
     pub elevation: Length,
     /// Absolute barometric pressure given directly; otherwise from the elevation.
     pub barometric_pressure: Option<Pressure>,
@@ -120,26 +165,36 @@ pub struct Site {
 /// A free surface: a tank, sump, well or reservoir.
 #[derive(Clone, Debug)]
 pub struct Tank {
+    /// Tank name as written.
     pub name: String,
+    /// Free-surface level on the design's datum (may be below zero).
     pub level: Length,
+    /// Pressure on the surface, gauge or absolute.
     pub surface_pressure: SurfacePressure,
+    /// Where the tank's name is written.
     pub span: Span,
 }
 
 /// The pressure on a free surface.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum SurfacePressure {
+    /// Relative to the site's barometric pressure (may be negative: a vacuum).
     Gauge(Pressure),
+    /// Absolute (above zero).
     Absolute(Pressure),
 }
 
+/// Which roughness of its material a pipe uses.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum PipeCondition {
+    /// Clean new pipe (the material's new roughness or C).
     New,
+    /// Pipe after years of service (the material's aged roughness or C).
     Aged,
 }
 
 impl PipeCondition {
+    /// The keyword as written in a design (`new`, `aged`).
     pub fn keyword(self) -> &'static str {
         match self {
             PipeCondition::New => "new",
@@ -151,11 +206,14 @@ impl PipeCondition {
 /// Which side of the pump a line is on.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Side {
+    /// From the source tank to the pump.
     Suction,
+    /// From the pump to the destination tank.
     Discharge,
 }
 
 impl Side {
+    /// The keyword as written in a design (`suction`, `discharge`).
     pub fn keyword(self) -> &'static str {
         match self {
             Side::Suction => "suction",
@@ -164,76 +222,112 @@ impl Side {
     }
 }
 
+/// A `line NAME from A to B { ... }`: pipe segments in flow order.
 #[derive(Clone, Debug)]
 pub struct Line {
+    /// Line name as written.
     pub name: String,
+    /// Suction or discharge.
     pub side: Side,
+    /// Where the line starts: a tank name or `pump`.
     pub from: String,
+    /// Where the line ends: a tank name or `pump`.
     pub to: String,
+    /// Pipe segments in flow order, each with its fittings.
     pub segments: Vec<Segment>,
+    /// Where the line's name is written.
     pub span: Span,
 }
 
 /// One run of pipe of one size and material, with the fittings on it.
 #[derive(Clone, Debug)]
 pub struct Segment {
+    /// Pipe material (catalogue entry with its roughness and C).
     pub material: Material,
     /// The size as a reader sees it: "8 in schedule 40", "bore 154.1 mm".
     pub size_label: String,
+    /// Inner diameter (bore).
     pub inner_diameter: Length,
     /// Where the inner diameter comes from (a standard's table, or "given").
     pub diameter_source: String,
+    /// Pipe length along its axis (may be zero, with a warning).
     pub length: Length,
     /// Explicit roughness; otherwise the material's for the case's pipe condition.
     pub roughness: Option<Length>,
     /// Hazen-Williams C; when set the segment uses Hazen-Williams for friction.
     pub hazen_williams_c: Option<f64>,
+    /// Fittings on this segment, in file order.
     pub fittings: Vec<FittingUse>,
+    /// Losses the design states directly.
     pub losses: Vec<ExtraLoss>,
+    /// Where the `pipe` statement is written.
     pub span: Span,
 }
 
+/// A fitting on a segment, with its count and geometry.
 #[derive(Clone, Debug)]
 pub struct FittingUse {
+    /// The fitting table entry (name, K method, source).
     pub spec: &'static FittingSpec,
+    /// How many of this fitting (1–1000).
     pub count: u32,
+    /// Diameter ratio small/large for size changes (dimensionless, 0–1).
     pub beta: Option<f64>,
+    /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
+    /// Where the fitting is written.
     pub span: Span,
 }
 
 /// A loss the design states directly: a K value or an equivalent length, with its reason.
 #[derive(Clone, Debug)]
 pub struct ExtraLoss {
+    /// Loss coefficient K (dimensionless, on the segment's velocity head).
     pub k: Option<f64>,
+    /// Equivalent length of straight pipe of the segment's size.
     pub equivalent_length: Option<Length>,
+    /// The reason the design gives for the loss.
     pub why: String,
+    /// Where the loss is written.
     pub span: Span,
 }
 
+/// An operating case: the base scenario with its overrides applied.
 #[derive(Clone, Debug)]
 pub struct Case {
+    /// Case name as written (`design` for the implicit case).
     pub name: String,
+    /// The resolved scenario of the case.
     pub scenario: Scenario,
     /// The overrides as written, for the report ("wet_well.level = 1202.0 ft").
     pub overrides: Vec<String>,
+    /// Where the case's name is written; empty for the implicit case.
     pub span: Span,
 }
 
 /// What a requirement constrains.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Metric {
+    /// Volume flow delivered, m³/s.
     Flow,
+    /// Total head of the arrangement, m.
     Head,
+    /// NPSH available / NPSH required (dimensionless).
     NpshMargin,
+    /// NPSH available − NPSH required, m.
     NpshExcess,
+    /// Pump efficiency at duty (fraction).
     Efficiency,
+    /// Velocity in the suction segment next to the pump, m/s.
     SuctionVelocity,
+    /// Velocity in the discharge segment next to the pump, m/s.
     DischargeVelocity,
+    /// Shaft power of the running pumps, W.
     ShaftPower,
 }
 
 impl Metric {
+    /// Every metric with its keyword in a design.
     pub const ALL: [(&'static str, Metric); 8] = [
         ("flow", Metric::Flow),
         ("head", Metric::Head),
@@ -244,6 +338,7 @@ impl Metric {
         ("discharge_velocity", Metric::DischargeVelocity),
         ("shaft_power", Metric::ShaftPower),
     ];
+    /// The keyword as written in a design (`flow`, `npsh_margin`).
     pub fn keyword(self) -> &'static str {
         Metric::ALL
             .iter()
@@ -253,9 +348,12 @@ impl Metric {
     }
 }
 
+/// One line of `require { ... }`: `QUANTITY >= VALUE [for CASE, ...]`.
 #[derive(Clone, Debug)]
 pub struct Requirement {
+    /// What is constrained.
     pub metric: Metric,
+    /// `true` for `>=`, `false` for `<=`.
     pub at_least: bool,
     /// SI value (m^3/s, m, ratio, m/s, W).
     pub limit_si: f64,
@@ -263,21 +361,31 @@ pub struct Requirement {
     pub text: String,
     /// Cases it applies to; empty means every case.
     pub cases: Vec<String>,
+    /// Where the requirement is written.
     pub span: Span,
 }
 
+/// How the running pumps of a candidate are connected.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum ArrangementKind {
+    /// One pump.
     Single,
+    /// Pumps in parallel: flows add at a common head.
     Parallel,
+    /// Pumps in series: heads add at a common flow.
     Series,
 }
 
+/// A `pump NAME "description" { ... }` candidate.
 #[derive(Clone, Debug)]
 pub struct PumpCandidate {
+    /// Candidate name as written.
     pub name: String,
+    /// Description as written (model, size).
     pub description: String,
+    /// Rated speed, the speed of its published curves unless a curve states its own.
     pub rated_speed: Frequency,
+    /// Single, parallel or series.
     pub arrangement: ArrangementKind,
     /// Pumps running together (parallel or series).
     pub count: u32,
@@ -292,19 +400,25 @@ pub struct PumpCandidate {
     /// The motor's nameplate rating per pump when the design states it (`motor_rating`);
     /// `None` selects the smallest standard rating that carries every duty.
     pub motor_rating: Option<uom::si::f64::Power>,
+    /// Where the pump's name is written.
     pub span: Span,
 }
 
+/// How a candidate is adjusted to meet each case's `flow >=` requirement.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum Adjust {
+    /// Run as published (rated speed, the evaluated impeller).
     None,
     /// Variable-speed drive, within these fractions of the rated speed.
     Speed {
+        /// Lowest speed as a fraction of the rated speed.
         min_ratio: f64,
+        /// Highest speed as a fraction of the rated speed.
         max_ratio: f64,
     },
     /// Impeller trim down to this fraction of the published diameter.
     Trim {
+        /// Smallest trimmed diameter as a fraction of the published diameter.
         min_ratio: f64,
     },
 }
@@ -312,25 +426,39 @@ pub enum Adjust {
 /// One published curve table, in SI.
 #[derive(Clone, Debug)]
 pub struct CurveData {
+    /// Impeller diameter of the table, when it states one.
     pub impeller: Option<Length>,
+    /// Speed of the table (the pump's rated speed unless stated).
     pub speed: Frequency,
+    /// Flow of each point, strictly increasing.
     pub flow: Vec<VolumeRate>,
+    /// Head of each point.
     pub head: Vec<Length>,
+    /// Pump efficiency of each point, where published.
     pub efficiency: Vec<Option<Ratio>>,
+    /// NPSH required of each point, where published.
     pub npshr: Vec<Option<Length>>,
+    /// Shaft power of each point, where published.
     pub shaft_power: Vec<Option<uom::si::f64::Power>>,
+    /// Where the curve is written.
     pub span: Span,
 }
 
+/// Which standard's motor ratings the sizing uses.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum MotorStandardChoice {
+    /// NEMA MG 1 horsepower ratings.
     Nema,
+    /// IEC 60072-1 kilowatt ratings.
     Iec,
 }
 
+/// The `motor` block.
 #[derive(Clone, Debug)]
 pub struct MotorSettings {
+    /// Standard of the ratings.
     pub standard: MotorStandardChoice,
+    /// Service factor (dimensionless, 1.0–1.5), reported as margin only.
     pub service_factor: f64,
     /// Motor efficiency; `None` uses the stated default.
     pub efficiency: Option<f64>,
@@ -338,13 +466,17 @@ pub struct MotorSettings {
     pub drive_efficiency: Option<f64>,
 }
 
+/// The `energy` block.
 #[derive(Clone, Debug)]
 pub struct EnergySettings {
     /// Price of energy in currency units per joule; `None` when not given.
     pub price_per_joule: Option<f64>,
     /// The currency as written ("USD").
     pub currency: String,
+    /// Life for the life-cycle energy cost, years (0 for none).
     pub years: f64,
+    /// Yearly discount rate (fraction, e.g. 0.05).
     pub discount_rate: f64,
+    /// Yearly escalation of the energy price (fraction).
     pub escalation: f64,
 }

@@ -10,14 +10,18 @@ use crate::units::{self, Dimension, Quantity, QuantityKind};
 /// The value of an expression.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Value {
+    /// A number with its unit (dimension and SI value).
     Quantity(Quantity),
+    /// A quoted text.
     Text(String),
+    /// A date, `YYYY-MM-DD`.
     Date(String),
     /// A bare keyword value such as `aged`, `nema` or `us`.
     Word(String),
 }
 
 impl Value {
+    /// The kind of value in words, for messages ("a length", "a quoted text").
     pub fn describe(&self) -> String {
         match self {
             Value::Quantity(q) => describe_quantity(q),
@@ -40,6 +44,7 @@ fn describe_quantity(q: &Quantity) -> String {
 /// `let` constants in scope, by name.
 #[derive(Default)]
 pub struct Env {
+    /// Each constant's value and where it is defined.
     pub constants: BTreeMap<String, (Value, Span)>,
     /// Warnings of setters that return only an error (unusual values); `lower` drains them.
     pub warnings: std::cell::RefCell<Vec<Diagnostic>>,

@@ -20,6 +20,7 @@ pub use pumps::{MAX_CURVES, MAX_CURVE_POINTS};
 /// what a path means. The CLI reads regular files inside the design file's folder (see
 /// grammar/LANGUAGE.md, "File access"); tests use a map.
 pub trait FileAccess {
+    /// The text of the file at `path` as written in the design (relative to the design's folder for the CLI), or why it cannot be read.
     fn read_text(&self, path: &str) -> Result<String, FileError>;
 }
 
@@ -30,11 +31,22 @@ pub enum FileError {
     /// Nothing at that path.
     NotFound,
     /// More than `syntax::MAX_SOURCE_BYTES` bytes; `line` is where the limit is crossed.
-    TooLarge { line: usize },
+    TooLarge {
+        /// 1-based line where the limit is crossed.
+        line: usize,
+    },
     /// Not UTF-8 text; the first bad byte is at `line`:`column`.
-    NotUtf8 { line: usize, column: usize },
+    NotUtf8 {
+        /// 1-based line of the first bad byte.
+        line: usize,
+        /// 1-based column (in characters) of the first bad byte.
+        column: usize,
+    },
     /// A folder, FIFO, device or socket (named in `kind`), never opened.
-    NotRegularFile { kind: &'static str },
+    NotRegularFile {
+        /// What it is, in words ("a folder", "a FIFO (named pipe)").
+        kind: &'static str,
+    },
     /// Outside the design file's folder and every folder the user allowed, or absolute.
     OutsideAllowed,
     /// Any other reason the system gave (permissions, ...).

@@ -23,9 +23,11 @@ use crate::names::nearest;
 use crate::syntax::ast::{Arg, ArgKind, Expr, Path, Statement, StatementKind};
 use crate::units::{Dimension, QuantityKind};
 
+/// A length from metres.
 pub fn length(si: f64) -> Length {
     Length::new::<meter>(si)
 }
+/// A pressure from pascals.
 pub fn pressure(si: f64) -> Pressure {
     Pressure::new::<pascal>(si)
 }
@@ -84,6 +86,7 @@ fn non_negative(v: f64, what: &str, span: Span) -> Result<f64, Diagnostic> {
     }
 }
 
+/// The fields of `fluid "name" { ... }`.
 pub const FLUID_FIELDS: &[&str] = &[
     "temperature",
     "density",
@@ -218,8 +221,10 @@ pub fn lower_fluid(
     Some(fluid)
 }
 
+/// The fields of `site`.
 pub const SITE_FIELDS: &[&str] = &["elevation", "pressure"];
 
+/// Set one field of a site (base or case override), checking its dimension and range.
 pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "elevation" => {
@@ -251,8 +256,10 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
     Ok(())
 }
 
+/// The fields of `tank`.
 pub const TANK_FIELDS: &[&str] = &["level", "pressure"];
 
+/// Set one field of a tank (base or case override), checking its dimension and range.
 pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "level" => tank.level = expect_level(e, env, "tank level")?,
@@ -279,8 +286,10 @@ pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(),
     Ok(())
 }
 
+/// The fields of a `pipe` (and of `LINE.N.` overrides).
 pub const SEGMENT_FIELDS: &[&str] = &["length", "roughness", "hazen_williams_c"];
 
+/// Set one field of a segment (base or case override), checking its dimension and range.
 pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "length" => {
@@ -524,6 +533,7 @@ pub fn lower_pipe(
     Some(seg)
 }
 
+/// The fields in a fitting's braces.
 pub const FITTING_FIELDS: &[&str] = &["beta", "angle"];
 /// The fields of `loss { ... }`.
 pub const LOSS_FIELDS: &[&str] = &["k", "equivalent_length", "why"];

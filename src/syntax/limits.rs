@@ -22,7 +22,7 @@ enum State {
 }
 
 /// Every name longer than [`MAX_IDENTIFIER_CHARS`] and text longer than
-/// [`MAX_TEXT_CHARS`] (at most [`MAX_REPORTED`] of them), in file order.
+/// [`MAX_TEXT_CHARS`] (at most `MAX_REPORTED` of them), in file order.
 pub fn check_lengths(source: &str) -> Vec<Diagnostic> {
     let mut out = Vec::new();
     let mut state = State::Code;

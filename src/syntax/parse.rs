@@ -8,9 +8,15 @@ use pest::Parser as _;
 use super::ast::*;
 use crate::diagnostics::{Diagnostic, Span};
 
-#[derive(pest_derive::Parser)]
-#[grammar = "../grammar/dutyline.pest"]
-struct DutyParser;
+/// The pest parser of grammar/dutyline.pest; its generated `Rule` enum names the
+/// grammar's rules, which grammar/LANGUAGE.md documents.
+mod grammar {
+    #![allow(missing_docs)]
+    #[derive(pest_derive::Parser)]
+    #[grammar = "../grammar/dutyline.pest"]
+    pub struct DutyParser;
+}
+use grammar::{DutyParser, Rule};
 
 /// Largest design file accepted, in bytes (see grammar/LANGUAGE.md, "Limits").
 pub const MAX_SOURCE_BYTES: usize = 1 << 20;
@@ -34,6 +40,7 @@ pub enum TextProblem {
 /// byte where the size limit is crossed.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct TextError {
+    /// What is wrong with the bytes.
     pub problem: TextProblem,
     /// 1-based line of the place.
     pub line: usize,

@@ -1,4 +1,5 @@
-//! Reading the committed reference CSVs (no quoting: the generators write none).
+//! Helpers shared by the test files: reading the committed reference CSVs (no quoting:
+//! the generators write none), the demo folder's files, and check-then-analyse.
 #![allow(dead_code)] // each test binary uses a different subset of these helpers
 
 use std::collections::HashMap;
@@ -54,4 +55,33 @@ pub fn nominal_text(nps: f64) -> String {
     } else {
         format!("{whole}-{n}/{d}")
     }
+}
+
+/// The demo folder's files for designs that import CSV curves (`examples-demo/`).
+pub struct DemoFiles;
+impl dutyline::FileAccess for DemoFiles {
+    fn read_text(&self, path: &str) -> Result<String, dutyline::model::FileError> {
+        let full = format!("{}/examples-demo/{path}", env!("CARGO_MANIFEST_DIR"));
+        std::fs::read_to_string(full)
+            .map_err(|e| dutyline::model::FileError::Unreadable(e.to_string()))
+    }
+}
+
+/// Check a design that must be valid (panicking with every error, code and message,
+/// when it is not) and analyse it.
+pub fn analyse_valid(
+    src: &str,
+    files: &dyn dutyline::FileAccess,
+) -> (dutyline::Design, dutyline::analysis::Analysis) {
+    let checked = dutyline::check(src, files);
+    let errors: Vec<String> = checked
+        .diagnostics
+        .iter()
+        .filter(|d| d.is_error())
+        .map(|d| format!("{}: {}", d.code, d.message))
+        .collect();
+    assert!(errors.is_empty(), "{errors:?}");
+    let design = checked.design.expect("a valid design");
+    let analysis = dutyline::analysis::analyse(&design);
+    (design, analysis)
 }

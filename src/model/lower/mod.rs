@@ -30,7 +30,9 @@ pub(crate) use setting::STATION_FIELDS;
 
 /// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
 pub const MAX_CASES: usize = 200;
+/// Most pipe segments over all lines.
 pub const MAX_SEGMENTS: usize = 100;
+/// Most pump candidates.
 pub const MAX_PUMPS: usize = 20;
 
 /// Lower a parsed file. Returns the design when there were no errors, and all diagnostics.

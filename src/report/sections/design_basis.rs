@@ -1,7 +1,7 @@
 //! The design basis chapter: fluid and site, levels, pipe segments, fittings,
 //! cases and requirements, as the analysis used them.
 
-use crate::analysis::system::CaseSystem;
+use crate::analysis::system::{CaseSystem, SegmentState};
 use crate::analysis::{Analysis, CaseResult};
 use crate::display::Units;
 use crate::model::Design;
@@ -37,7 +37,7 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
     let rows: Vec<Vec<String>> = analysis
         .cases
         .iter()
-        .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+        .filter_map(analysed)
         .map(|(case, system)| {
             vec![
                 case.name.clone(),
@@ -110,7 +110,7 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
         rows: analysis
             .cases
             .iter()
-            .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+            .filter_map(analysed)
             .map(|(case, system)| {
                 vec![
                     case.name.clone(),
@@ -152,13 +152,11 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
             .iter()
             .map(|g| {
                 vec![
-                    format!("{} {}", g.line, g.index + 1),
+                    segment_label(g),
                     format!("{} {}", g.material.replace('_', " "), g.size_label),
                     units.diameter().text(g.inner_diameter),
                     units.length().text(g.length),
-                    g.hazen_williams_c
-                        .map(|hazen_c| format!("C = {hazen_c}"))
-                        .unwrap_or_else(|| units.roughness().text(g.roughness)),
+                    roughness_or_c(g, units),
                     format!(
                         "{}; {}",
                         super::sources::labelled("diameter", &g.diameter_source, units),
@@ -177,22 +175,14 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
 /// The roughness or Hazen-Williams C each case uses on each segment (aged cases
 /// included): the effective pipe inputs a reviewer recomputes with.
 fn pipe_condition(blocks: &mut Vec<Block>, analysis: &Analysis, first: &CaseSystem, units: &Units) {
-    let headers: Vec<String> = first
-        .segments
-        .iter()
-        .map(|g| format!("{} {}", g.line, g.index + 1))
-        .collect();
+    let headers: Vec<String> = first.segments.iter().map(segment_label).collect();
     let rows: Vec<Vec<String>> = analysis
         .cases
         .iter()
-        .filter_map(|case| case.system.as_ref().map(|system| (case, system)))
+        .filter_map(analysed)
         .map(|(case, system)| {
             let mut cells = vec![case.name.clone()];
-            cells.extend(system.segments.iter().map(|g| {
-                g.hazen_williams_c
-                    .map(|hazen_c| format!("C = {hazen_c}"))
-                    .unwrap_or_else(|| units.roughness().text(g.roughness))
-            }));
+            cells.extend(system.segments.iter().map(|g| roughness_or_c(g, units)));
             cells.resize(headers.len() + 1, "—".into());
             cells
         })
@@ -223,7 +213,7 @@ fn fittings(
         let re = q.map(|q| system.reynolds(g, q)).unwrap_or(1e5);
         for f in &g.fittings {
             rows.push(vec![
-                format!("{} {}", g.line, g.index + 1),
+                segment_label(g),
                 fitting_text(f),
                 f.count.to_string(),
                 format!(
@@ -363,4 +353,21 @@ fn changed_fields(overrides: &[String]) -> String {
         })
         .collect::<Vec<_>>()
         .join("; ")
+}
+
+/// A case with its system, for the cases that could be set up.
+fn analysed(case: &CaseResult) -> Option<(&CaseResult, &CaseSystem)> {
+    case.system.as_ref().map(|system| (case, system))
+}
+
+/// A segment as the tables name it: its line and its 1-based number ("discharge 2").
+fn segment_label(g: &SegmentState) -> String {
+    format!("{} {}", g.line, g.index + 1)
+}
+
+/// The segment's Hazen-Williams C ("C = 120") when it uses one, else its roughness.
+fn roughness_or_c(g: &SegmentState, units: &Units) -> String {
+    g.hazen_williams_c
+        .map(|hazen_c| format!("C = {hazen_c}"))
+        .unwrap_or_else(|| units.roughness().text(g.roughness))
 }

@@ -27,35 +27,34 @@ fn gravity(units: &Units) -> &'static str {
 
 /// Energy equation, Darcy-Weisbach, friction factor, Hazen-Williams, minor losses.
 fn system_head(blocks: &mut Vec<Block>, units: &Units) {
-    blocks.push(Block::text(
+    equation(
+        blocks,
         "The head the pump must add is the energy equation between the two free surfaces, their velocities negligible:",
-    ));
-    blocks.push(Block::Equation(
-        "H(Q) = (z₂ − z₁) + (p₂ − p₁)/(ρ·g) + Σ hₗ + Σ hₘ".into(),
-    ));
-    blocks.push(Block::text(format!(
-        "where z₁, z₂ are the source and destination surface levels, p₁, p₂ the absolute surface pressures, ρ the density of the case's fluid and {}. Σ hₗ is the wall friction of every segment and Σ hₘ the minor losses (fittings, entrance and exit). Wall friction by Darcy-Weisbach:",
-        gravity(units)
-    )));
-    blocks.push(Block::Equation("hₗ = f · (L/D) · v²/(2·g)".into()));
-    blocks.push(Block::text(
+        "H(Q) = (z₂ − z₁) + (p₂ − p₁)/(ρ·g) + Σ hₗ + Σ hₘ",
+    );
+    equation(
+        blocks,
+        format!(
+            "where z₁, z₂ are the source and destination surface levels, p₁, p₂ the absolute surface pressures, ρ the density of the case's fluid and {}. Σ hₗ is the wall friction of every segment and Σ hₘ the minor losses (fittings, entrance and exit). Wall friction by Darcy-Weisbach:",
+            gravity(units)
+        ),
+        "hₗ = f · (L/D) · v²/(2·g)",
+    );
+    equation(
+        blocks,
         "with the friction factor f = 64/Re for Re ≤ 2000 (laminar) and, for Re ≥ 4000, Colebrook-White (1939) solved to 10⁻¹³ relative:",
-    ));
-    blocks.push(Block::Equation(
-        "1/√f = −2 · log₁₀( ε/(3.7·D) + 2.51/(Re·√f) )".into(),
-    ));
-    blocks.push(Block::text(
+        "1/√f = −2 · log₁₀( ε/(3.7·D) + 2.51/(Re·√f) )",
+    );
+    equation(
+        blocks,
         "In the transition 2000 < Re < 4000 the Churchill (1977) equation is scaled to meet both limits, and a warning marks operation there. Segments given a Hazen-Williams C use Williams and Hazen's equation, valid for water near ordinary temperatures:",
-    ));
-    blocks.push(Block::Equation(match units.system {
-        ReportUnits::Us => {
-            "Δp/L = 4.52 · Q¹·⁸⁵ / (C¹·⁸⁵ · d⁴·⁸⁷)   (psi per foot; Q in US gpm, d in inches)"
-                .into()
-        }
-        ReportUnits::Si => {
-            "hₗ = 10.67 · L · Q¹·⁸⁵² / (C¹·⁸⁵² · D⁴·⁸⁷⁰⁴)   (hₗ, L, D in m; Q in m³/s)".into()
-        }
-    }));
+        match units.system {
+            ReportUnits::Us => {
+                "Δp/L = 4.52 · Q¹·⁸⁵ / (C¹·⁸⁵ · d⁴·⁸⁷)   (psi per foot; Q in US gpm, d in inches)"
+            }
+            ReportUnits::Si => "hₗ = 10.67 · L · Q¹·⁸⁵² / (C¹·⁸⁵² · D⁴·⁸⁷⁰⁴)   (hₗ, L, D in m; Q in m³/s)",
+        },
+    );
     blocks.push(Block::text(
         "Minor losses hₘ = K · v²/(2·g) on the velocity of the segment that carries the fitting. K comes from the Darby (1999) 3-K or Hooper (1981) 2-K methods where those papers give constants (K depends on Reynolds number and size), from Borda-Carnot and the Crane TP-410 formulas for expansions and contractions, or is given in the design with its reason. Equivalent lengths are converted with the segment's friction factor.",
     ));
@@ -74,12 +73,11 @@ fn pump_curves(blocks: &mut Vec<Block>) {
 
 /// NPSH available, its datum, NPSH3 and the margin guidance.
 fn npsh(blocks: &mut Vec<Block>) {
-    blocks.push(Block::text(
+    equation(
+        blocks,
         "NPSH available at the pump's datum, all heads in the case's fluid:",
-    ));
-    blocks.push(Block::Equation(
-        "NPSHa = pₐ/(ρ·g) + pₛ/(ρ·g) + (zₛ − zₚ) − hₗₛ − hₘₛ − pᵥ/(ρ·g)".into(),
-    ));
+        "NPSHa = pₐ/(ρ·g) + pₛ/(ρ·g) + (zₛ − zₚ) − hₗₛ − hₘₛ − pᵥ/(ρ·g)",
+    );
     blocks.push(Block::text(
         "where pₐ is the barometric pressure, pₛ the gauge pressure on the source surface, zₛ the source surface level, zₚ the NPSH datum of the pump, hₗₛ and hₘₛ the friction and minor losses of the suction side, and pᵥ the vapour pressure at the case's temperature. The datum is the pump's own: the shaft centreline for a horizontal pump, the eye of the first-stage impeller for a vertical one. Published NPSHr is NPSH3, the NPSH at which the first-stage head has dropped by 3 %: at a ratio NPSHa/NPSHr of 1.0 the pump is already cavitating enough to lose head, and damage may begin well above it. The margins required follow ANSI/HI 9.6.1 (NPSH margin guideline) unless the design states its own.",
     ));
@@ -87,19 +85,24 @@ fn npsh(blocks: &mut Vec<Block>) {
 
 /// Hydraulic, shaft and input power, energy and the life-cycle cost convention.
 fn power_and_energy(blocks: &mut Vec<Block>) {
-    blocks.push(Block::text(
+    equation(
+        blocks,
         "Power at each duty point: hydraulic power Pₕ, shaft power Pₛ at pump efficiency ηₚ, and electrical input power Pₑ at motor efficiency ηₘ and variable-speed drive efficiency ηᵥ (1 without a drive):",
-    ));
-    blocks.push(Block::Equation(
-        "Pₕ = ρ·g·Q·H,    Pₛ = Pₕ / ηₚ,    Pₑ = Pₛ / (ηₘ · ηᵥ)".into(),
-    ));
-    blocks.push(Block::text(
+        "Pₕ = ρ·g·Q·H,    Pₛ = Pₕ / ηₚ,    Pₑ = Pₛ / (ηₘ · ηᵥ)",
+    );
+    equation(
+        blocks,
         "Energy per year is the sum over the cases of Pₑ × the case's hours. The life-cycle energy cost is the present worth of the yearly energy cost A (at today's prices), escalating at e per year and discounted at i per year over N years, the first payment at the end of year 1 (Hydraulic Institute and Europump, Pump Life Cycle Costs, 2001):",
-    ));
-    blocks.push(Block::Equation(
-        "LCCₑ = Σₙ₌₁ᴺ A·(1 + e)ⁿ/(1 + i)ⁿ = A · ((1 + i′)ᴺ − 1) / (i′ · (1 + i′)ᴺ)".into(),
-    ));
+        "LCCₑ = Σₙ₌₁ᴺ A·(1 + e)ⁿ/(1 + i)ⁿ = A · ((1 + i′)ᴺ − 1) / (i′ · (1 + i′)ᴺ)",
+    );
     blocks.push(Block::text(
         "with i′ = (1 + i)/(1 + e) − 1. With i′ = 0 the factor is N; without a discount rate the life cost is N × A, undiscounted.",
     ));
+}
+
+/// A sentence that introduces an equation (naming its source), then the equation set
+/// on its own line; the layout numbers equations "(N)" in order.
+fn equation(blocks: &mut Vec<Block>, lead_in: impl Into<String>, formula: &str) {
+    blocks.push(Block::text(lead_in));
+    blocks.push(Block::Equation(formula.into()));
 }

@@ -24,14 +24,17 @@ use crate::model::Design;
 
 /// Extra content: a changes section comparing with an earlier revision.
 pub struct Changes {
+    /// The compared revision's id.
     pub old_revision: String,
     /// SHA-256 of the compared revision's source file (hex).
     pub old_sha256: String,
+    /// Changed inputs, one line each in report units.
     pub inputs: Vec<String>,
     /// Rows: case, pump, quantity, before, after, change.
     pub results: Vec<Vec<String>>,
     /// Rows: case, pump, check, before, after, message.
     pub checks: Vec<Vec<String>>,
+    /// The recommendation before and after, in one sentence.
     pub recommendation: String,
 }
 

@@ -105,16 +105,12 @@ pub(super) fn published_plot(
         if series.len() + 2 > MAX_SERIES {
             break;
         }
-        series.push(Series {
-            name: format!("head, {}", curve_name(data, units)),
-            points: samples
-                .iter()
-                .map(|(q, h)| (fl.value(*q), hd.value(*h)))
-                .collect(),
-            style_index: palette.next(),
-            solid: true,
-            ..Default::default()
-        });
+        let points = samples
+            .iter()
+            .map(|(q, h)| (fl.value(*q), hd.value(*h)))
+            .collect();
+        let name = format!("head, {}", curve_name(data, units));
+        series.push(line(name, points, Stroke::Solid, &mut palette));
     }
     let evaluated = curves.evaluated.as_ref().map(|(c, _)| c);
     let efficiency_data = usable.iter().find(|data| {
@@ -149,17 +145,16 @@ pub(super) fn published_plot(
     let mut markers = Vec::new();
     let mut bands = Vec::new();
     if let Some(bep) = &curves.evaluated_bep {
-        markers.push(Marker {
-            x: fl.value(bep.flow),
-            y: hd.value(bep.head),
-            label: format!(
+        markers.push(left_marker(
+            fl.value(bep.flow),
+            hd.value(bep.head),
+            format!(
                 "BEP {} @ {}, {}",
                 fl.text(bep.flow),
                 hd.text(bep.head),
                 crate::display::percent(bep.efficiency)
             ),
-            axis: YAxis::Left,
-        });
+        ));
         bands.push(preferred_region(bep.flow, |q| fl.value(q)));
     }
     let per_pump = pump.count > 1;
@@ -213,52 +208,39 @@ pub(super) fn head_plot(
     let mut series = Vec::new();
     let mut markers = Vec::new();
     for (k, (case, run)) in results.iter().enumerate() {
-        series.push(Series {
-            name: format!("system, {}", case.name),
-            points: case
-                .system_curve
-                .iter()
-                .map(|point| (fl.value(point.flow), hd.value(point.head)))
-                .collect(),
-            style_index: palette.next(),
-            dashed: true,
-            ..Default::default()
-        });
+        let points = case
+            .system_curve
+            .iter()
+            .map(|point| (fl.value(point.flow), hd.value(point.head)))
+            .collect();
+        let name = format!("system, {}", case.name);
+        series.push(line(name, points, Stroke::Dashed, &mut palette));
         let same_curve = k > 0 && results[k - 1].1.operating_curve == run.operating_curve;
         if !same_curve && !run.operating_curve.is_empty() {
-            series.push(Series {
-                name: format!(
-                    "pump {} at {:.0} rpm{}",
-                    pump.name,
-                    run.speed_rpm,
-                    if results.len() > 1 {
-                        format!(" ({})", case.name)
-                    } else {
-                        String::new()
-                    }
-                ),
-                points: run
-                    .operating_curve
-                    .iter()
-                    .map(|q| (fl.value(q.flow), hd.value(q.head)))
-                    .collect(),
-                style_index: palette.next(),
-                solid: true,
-                ..Default::default()
-            });
+            let which = if results.len() > 1 {
+                format!(" ({})", case.name)
+            } else {
+                String::new()
+            };
+            let name = format!("pump {} at {:.0} rpm{which}", pump.name, run.speed_rpm);
+            let points = run
+                .operating_curve
+                .iter()
+                .map(|q| (fl.value(q.flow), hd.value(q.head)))
+                .collect();
+            series.push(line(name, points, Stroke::Solid, &mut palette));
         }
         if let Some(duty) = &run.duty {
-            markers.push(Marker {
-                x: fl.value(duty.flow),
-                y: hd.value(duty.head),
-                label: format!(
+            markers.push(left_marker(
+                fl.value(duty.flow),
+                hd.value(duty.head),
+                format!(
                     "{}: {} @ {}",
                     case.name,
                     fl.text(duty.flow),
                     hd.text(duty.head)
                 ),
-                axis: YAxis::Left,
-            });
+            ));
         }
     }
     if let Some((case, run)) = results.first() {
@@ -345,21 +327,19 @@ pub(super) fn npsh_plot(
         if !npshr.is_empty()
             && (k == 0 || results[k - 1].1.operating_curve != result.operating_curve)
         {
-            series.push(Series {
-                name: format!("NPSHr ({})", case.name),
-                points: npshr,
-                style_index: palette.next(),
-                solid: true,
-                ..Default::default()
-            });
+            series.push(line(
+                format!("NPSHr ({})", case.name),
+                npshr,
+                Stroke::Solid,
+                &mut palette,
+            ));
         }
         if let Some(duty) = &result.duty {
-            markers.push(Marker {
-                x: fl.value(duty.flow),
-                y: hd.value(duty.npsh_available),
-                label: format!("NPSHa {}: {}", case.name, hd.text(duty.npsh_available)),
-                axis: YAxis::Left,
-            });
+            markers.push(left_marker(
+                fl.value(duty.flow),
+                hd.value(duty.npsh_available),
+                format!("NPSHa {}: {}", case.name, hd.text(duty.npsh_available)),
+            ));
         }
     }
     for (case, _) in results {
@@ -370,13 +350,12 @@ pub(super) fn npsh_plot(
             .map(|(point, n)| (fl.value(point.flow), hd.value(*n)))
             .collect();
         if !points.is_empty() {
-            series.push(Series {
-                name: format!("NPSHa ({})", case.name),
+            series.push(line(
+                format!("NPSHa ({})", case.name),
                 points,
-                style_index: palette.next(),
-                dashed: true,
-                ..Default::default()
-            });
+                Stroke::Dashed,
+                &mut palette,
+            ));
         }
     }
     blocks.push(Block::Figure {
@@ -442,13 +421,12 @@ pub(super) fn power_plot(
             .filter_map(|q| q.shaft_power.map(|w| (fl.value(q.flow), pw.value(w / per))))
             .collect();
         if !points.is_empty() {
-            series.push(Series {
-                name: format!("shaft power per pump ({})", case.name),
+            series.push(line(
+                format!("shaft power per pump ({})", case.name),
                 points,
-                style_index: palette.next(),
-                solid: true,
-                ..Default::default()
-            });
+                Stroke::Solid,
+                &mut palette,
+            ));
         }
     }
     let hlines = motor
@@ -459,12 +437,11 @@ pub(super) fn power_plot(
         .filter_map(|(case, run)| {
             let duty = run.duty.as_ref()?;
             let shaft = duty.shaft_power?;
-            Some(Marker {
-                x: fl.value(duty.flow),
-                y: pw.value(shaft / per),
-                label: format!("{}: {}", case.name, pw.text(shaft / per)),
-                axis: YAxis::Left,
-            })
+            Some(left_marker(
+                fl.value(duty.flow),
+                pw.value(shaft / per),
+                format!("{}: {}", case.name, pw.text(shaft / per)),
+            ))
         })
         .collect();
     blocks.push(Block::Figure {
@@ -482,4 +459,33 @@ pub(super) fn power_plot(
             pump.name
         ),
     });
+}
+
+/// How a line series is drawn: pump curves solid, system and available curves dashed.
+#[derive(Clone, Copy)]
+enum Stroke {
+    Solid,
+    Dashed,
+}
+
+/// A left-axis line series (points in report units) in the palette's next style.
+fn line(name: String, points: Vec<(f64, f64)>, stroke: Stroke, palette: &mut Palette) -> Series {
+    Series {
+        name,
+        points,
+        style_index: palette.next(),
+        solid: matches!(stroke, Stroke::Solid),
+        dashed: matches!(stroke, Stroke::Dashed),
+        ..Default::default()
+    }
+}
+
+/// A labelled point on the left axis, at `x`, `y` in report units.
+fn left_marker(x: f64, y: f64, label: String) -> Marker {
+    Marker {
+        x,
+        y,
+        label,
+        axis: YAxis::Left,
+    }
 }
