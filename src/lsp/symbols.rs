@@ -135,6 +135,12 @@ pub fn completion(file: Option<&File>) -> Value {
     for f in crate::hydraulics::fittings::all_fittings() {
         push(f.name, 20, f.description);
     }
+    for m in crate::hydraulics::catalogue::Material::all() {
+        push(m.keyword(), 12, "pipe material");
+    }
+    for u in crate::units::registry() {
+        push(u.name, 11, u.note);
+    }
     if let Some(file) = file {
         for (keyword, name, _, _) in named(file) {
             if !name.is_empty() {
