@@ -210,6 +210,50 @@ fn hover_shows_a_quantity_in_si_and_report_units() {
 }
 
 #[test]
+fn hover_on_a_pipe_and_a_pump_shows_what_the_design_resolved() {
+    let text = demo();
+    let (l1, c1) = lsp_position(&text, "pipe steel 8 in");
+    let (l2, c2) = lsp_position(&text, "pump A ");
+    let out = session(&[
+        open(&text),
+        request(1, "textDocument/hover", at(l1, c1 + 6)),
+        request(2, "textDocument/hover", at(l2, c2 + 5)),
+    ]);
+    let value = |id| {
+        response(&out, id)["result"]["contents"]["value"]
+            .as_str()
+            .unwrap()
+            .to_string()
+    };
+    // 8 in schedule 40: OD 8.625 in, wall 0.322 in (ASME B36.10M) → ID 7.981 in
+    // = 202.717 mm.
+    let h = value(1);
+    assert!(h.contains("Inner diameter: 7.981 in (202.717 mm)"), "{h}");
+    // Commercial steel 0.00015 ft = 0.04572 mm new (Moody 1944, as the table cites).
+    assert!(h.contains("new 0.00180 in (0.04572 mm)"), "{h}");
+    // The pump's BEP is the analysis's own.
+    let checked = dutyline::check(&text, &dutyline::NoFiles);
+    let design = checked.design.unwrap();
+    let bep = dutyline::analysis::duty::CandidateCurves::fit(&design.pumps[0])
+        .evaluated_bep
+        .unwrap();
+    let units = dutyline::display::Units::new(design.project.units);
+    let h = value(2);
+    assert!(
+        h.contains(&format!(
+            "{} at {}",
+            units.flow().fmt(bep.flow),
+            units.head().fmt(bep.head)
+        )),
+        "{h}"
+    );
+    assert!(
+        h.contains(&format!("efficiency {:.1} %", 100.0 * bep.efficiency)),
+        "{h}"
+    );
+}
+
+#[test]
 fn formatting_gives_the_fmt_text_completion_symbols_and_definition_answer() {
     let messy = demo().replacen("let riser = 38 ft", "let   riser=38 ft", 1);
     let canonical = dutyline::syntax::format_source(&messy).unwrap();

@@ -16,14 +16,35 @@ struct Written<'a> {
     unit: &'a str,
 }
 
-/// The hover text (Markdown) at byte `offset` of `source` parsed as `file`, if any.
-pub fn hover(file: &File, source: &str, offset: usize) -> Option<(String, (usize, usize))> {
+/// The hover text (Markdown) at byte `offset` of `source` parsed as `file`, if any;
+/// `design` is the checked design when the document has no error.
+pub fn hover(
+    file: &File,
+    design: Option<&crate::model::Design>,
+    source: &str,
+    offset: usize,
+) -> Option<(String, (usize, usize))> {
     let units = report_units(file);
     if let Some((w, span)) = quantity_at(&file.statements, offset) {
         return Some((describe_quantity(&w, units)?, span));
     }
-    let (word, span) = super::symbols::word_at(source, offset)?;
-    if let Some(value) = constant(file, &word) {
+    if let Some((word, span)) = super::symbols::word_at(source, offset) {
+        if let Some(text) = word_meaning(file, design, source, &word, units) {
+            return Some((text, span));
+        }
+    }
+    super::meaning::pipe(design?, offset)
+}
+
+/// What a word means: a `let` constant, a fitting, a pump candidate.
+fn word_meaning(
+    file: &File,
+    design: Option<&crate::model::Design>,
+    source: &str,
+    word: &str,
+    units: ReportUnits,
+) -> Option<String> {
+    if let Some(value) = constant(file, word) {
         let text = &source[value.span.start..value.span.end];
         let mut out = format!("`let {word} = {text}`");
         if let ExprKind::Quantity { value: n, unit } = &value.kind {
@@ -37,16 +58,15 @@ pub fn hover(file: &File, source: &str, offset: usize) -> Option<(String, (usize
                 out.push_str(&d);
             }
         }
-        return Some((out, span));
+        return Some(out);
     }
-    let spec = crate::hydraulics::fittings::fitting(&word)?;
-    Some((
-        format!(
+    if let Some(spec) = crate::hydraulics::fittings::fitting(word) {
+        return Some(format!(
             "fitting `{}`: {}\n\nK: {}",
             spec.name, spec.description, spec.source
-        ),
-        span,
-    ))
+        ));
+    }
+    super::meaning::pump(design?, word)
 }
 
 /// The report units the file's `project { units = ... }` names (SI when absent).
@@ -241,7 +261,7 @@ fn si_symbol(dim: Dimension, kind: QuantityKind) -> String {
 
 /// Six significant digits, trailing zeros dropped; exponent form for very large or
 /// small magnitudes.
-fn significant(x: f64) -> String {
+pub(super) fn significant(x: f64) -> String {
     if x == 0.0 {
         return "0".into();
     }

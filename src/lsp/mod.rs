@@ -11,6 +11,7 @@
 //! read through the [`crate::model::FileAccess`] the caller gives for its URI.
 
 pub mod hover;
+pub mod meaning;
 pub mod position;
 pub mod server;
 pub mod symbols;

@@ -115,7 +115,10 @@ impl<'a> Server<'a> {
         }
         let answer = match method {
             "textDocument/hover" => self.with_position(params, |file, source, at| {
-                let (text, (a, b)) = hover::hover(file?, source, at)?;
+                let uri = params["textDocument"]["uri"].as_str().unwrap_or_default();
+                let files = (self.files)(uri);
+                let design = crate::check(source, files.as_ref()).design;
+                let (text, (a, b)) = hover::hover(file?, design.as_ref(), source, at)?;
                 Some(json!({
                     "contents": { "kind": "markdown", "value": text },
                     "range": range(source, a, b),

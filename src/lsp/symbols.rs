@@ -30,9 +30,12 @@ pub fn word_at(source: &str, offset: usize) -> Option<(String, (usize, usize))> 
         .then(|| (word.to_string(), (start, end)))
 }
 
-/// The top-level names: `let` constants and blocks with a name (keyword, name, span of
-/// the name, span of the statement).
-fn named(file: &File) -> Vec<(&str, &str, (usize, usize), (usize, usize))> {
+/// A top-level name: keyword (`let` for a constant), name (empty for a block without
+/// one), byte span of the name, byte span of the statement.
+type Named<'a> = (&'a str, &'a str, (usize, usize), (usize, usize));
+
+/// The top-level names: `let` constants and blocks with a name.
+fn named(file: &File) -> Vec<Named<'_>> {
     file.statements
         .iter()
         .filter_map(|s| match &s.kind {
@@ -134,6 +137,12 @@ pub fn completion(file: Option<&File>) -> Value {
     }
     for f in crate::hydraulics::fittings::all_fittings() {
         push(f.name, 20, f.description);
+    }
+    for m in crate::hydraulics::catalogue::Material::all() {
+        push(m.keyword(), 12, "pipe material");
+    }
+    for u in crate::units::registry() {
+        push(u.name, 11, u.note);
     }
     if let Some(file) = file {
         for (keyword, name, _, _) in named(file) {

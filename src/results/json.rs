@@ -19,6 +19,7 @@ mod inputs;
 pub const FORMAT: &str = "dutyline-results/1";
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Doc<'a> {
     format: &'static str,
     tool_version: &'static str,
@@ -34,12 +35,14 @@ struct Doc<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Source<'a> {
     path: &'a str,
     sha256: String,
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Project<'a> {
     title: &'a str,
     number: &'a str,
@@ -49,6 +52,7 @@ struct Project<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Case<'a> {
     name: &'a str,
     overrides: &'a [String],
@@ -70,6 +74,7 @@ struct Case<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Fluid<'a> {
     name: &'a str,
     temperature_K: Option<f64>,
@@ -80,6 +85,7 @@ struct Fluid<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Levels {
     source_m: f64,
     destination_m: f64,
@@ -89,6 +95,7 @@ struct Levels {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Segment<'a> {
     line: &'a str,
     side: &'static str,
@@ -110,6 +117,7 @@ struct Segment<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Fitting<'a> {
     name: &'a str,
     count: u32,
@@ -121,6 +129,7 @@ struct Fitting<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Point {
     flow_m3_s: f64,
     head_m: f64,
@@ -130,6 +139,7 @@ struct Point {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Arrangement {
     kind: &'static str,
     count: u32,
@@ -137,6 +147,7 @@ struct Arrangement {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Pump<'a> {
     name: &'a str,
     arrangement: Arrangement,
@@ -157,6 +168,7 @@ struct Pump<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Duty<'a> {
     flow_m3_s: f64,
     head_m: f64,
@@ -186,6 +198,7 @@ struct Duty<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct CheckOut<'a> {
     id: &'static str,
     status: &'static str,
@@ -199,6 +212,7 @@ struct CheckOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Selection<'a> {
     recommended: Option<&'a str>,
     criterion: &'static str,
@@ -210,6 +224,7 @@ struct Selection<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Ranked<'a> {
     name: &'a str,
     qualifies: bool,
@@ -227,6 +242,7 @@ struct Ranked<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Warn {
     code: String,
     message: String,
@@ -493,3 +509,6 @@ pub fn to_json(
     s.push('\n');
     s
 }
+
+#[cfg(test)]
+mod schema_tests;

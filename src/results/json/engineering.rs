@@ -16,6 +16,7 @@ use crate::analysis::{Analysis, NpshTerms, SegmentAtFlow};
 use crate::pumps::MotorStandard;
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct NpshTermsOut {
     barometric_head_m: f64,
     surface_pressure_head_m: f64,
@@ -37,6 +38,7 @@ pub(super) fn npsh_terms(t: &NpshTerms) -> NpshTermsOut {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct SegmentOut<'a> {
     line: &'a str,
     side: &'static str,
@@ -74,6 +76,7 @@ pub(super) fn segments(s: &[SegmentAtFlow]) -> Vec<SegmentOut<'_>> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct HeadroomOut {
     limit: &'static str,
     needed: Option<f64>,
@@ -91,6 +94,7 @@ pub(super) fn headroom(h: &Headroom) -> HeadroomOut {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct MotorOut<'a> {
     standard: &'static str,
     rating_W: f64,
@@ -141,6 +145,7 @@ pub(super) fn motor(m: &MotorSizing) -> MotorOut<'_> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct OneAloneOut<'a> {
     case: &'a str,
     speed_rpm: f64,
@@ -151,6 +156,7 @@ pub(super) struct OneAloneOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct OneAloneDutyOut {
     flow_m3_s: f64,
     head_m: f64,
@@ -179,6 +185,7 @@ pub(super) fn one_alone(a: &OneAlone) -> OneAloneOut<'_> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct CapacityOut<'a> {
     case: &'a str,
     flow_at_limit_m3_s: Option<f64>,
@@ -209,6 +216,7 @@ pub(super) fn capacity<'a>(
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct RequirementOut<'a> {
     requirement: &'a str,
     text: &'a str,
@@ -216,6 +224,7 @@ pub(super) struct RequirementOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct RequirementCaseOut<'a> {
     case: &'a str,
     applies: bool,
@@ -223,6 +232,7 @@ pub(super) struct RequirementCaseOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct RequirementStatusOut<'a> {
     name: &'a str,
     status: Option<&'static str>,

@@ -19,6 +19,7 @@ use crate::pumps::PumpCurves;
 
 /// One `loss { ... }` entry of a segment.
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct Loss<'a> {
     k: Option<f64>,
     equivalent_length_m: Option<f64>,
@@ -27,6 +28,7 @@ pub(super) struct Loss<'a> {
 
 /// One pump candidate: its published curves and which one the cases evaluate.
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct Candidate<'a> {
     name: &'a str,
     /// Index (from 0) into `curves` of the curve the cases scale by the affinity laws;
@@ -44,6 +46,7 @@ pub(super) struct Candidate<'a> {
 
 /// One published curve table in SI, with the fit used for each column.
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Curve<'a> {
     speed_rpm: f64,
     impeller_diameter_m: Option<f64>,
