@@ -78,10 +78,12 @@ pub fn verify(bytes: &[u8]) -> Result<Report, PackageError> {
                 Verdict::Identical
             }
             Ok(package) => {
+                let altered = !findings.is_empty();
                 findings.extend(differences(
                     &bytes[..file.revision_end],
                     &file.embedded,
                     &package,
+                    altered,
                 ));
                 Verdict::Differs(findings)
             }
@@ -110,13 +112,12 @@ fn integrity(embedded: &[Embedded], manifest: &Manifest) -> Vec<String> {
         .collect();
     for e in embedded {
         let actual = sha256_hex(&e.bytes);
-        if let Some(recorded) = &e.recorded_sha256 {
-            if *recorded != actual {
-                out.push(format!(
-                    "attachment `{}` was altered: its content has SHA-256 {actual}, its description records {recorded}",
-                    e.name
-                ));
-            }
+        if let Some(recorded) = e.recorded_sha256.as_ref().filter(|r| **r != actual) {
+            out.push(format!(
+                "attachment `{}` was altered: its content has SHA-256 {actual}, its description records {recorded}",
+                e.name
+            ));
+            continue;
         }
         match listed.get(e.name.as_str()) {
             Some(sha) if *sha != actual => out.push(format!(
@@ -165,10 +166,19 @@ fn moved_quantities(
 }
 
 /// Where the package and the rebuild differ: attachments, then pages, else the first
-/// differing byte.
-fn differences(original: &[u8], embedded: &[Embedded], rebuilt: &Package) -> Vec<String> {
+/// differing byte. With sources already found `altered`, the build record (which
+/// records their SHA-256) differs as a consequence and is not listed.
+fn differences(
+    original: &[u8],
+    embedded: &[Embedded],
+    rebuilt: &Package,
+    altered: bool,
+) -> Vec<String> {
     let mut out = Vec::new();
     for a in &rebuilt.attachments {
+        if altered && a.name == MANIFEST_NAME {
+            continue;
+        }
         match embedded.iter().find(|e| e.name == a.name) {
             Some(e) if e.bytes == a.bytes => {}
             Some(_) => out.push(format!(
@@ -187,6 +197,12 @@ fn differences(original: &[u8], embedded: &[Embedded], rebuilt: &Package) -> Vec
         }
     }
     let pages = page_differences(original, &rebuilt.bytes);
+    if out.is_empty() && !altered && !pages.is_empty() {
+        out.push(
+            "the attached sources and results are intact: the pages were changed after the build"
+                .into(),
+        );
+    }
     out.extend(pages.clone());
     if out.is_empty() || pages.is_empty() {
         if let Some(line) = first_byte_difference(original, &rebuilt.bytes) {
@@ -335,7 +351,8 @@ impl Report {
                 if moved.is_empty() {
                     t.push_str("  no quantity moved (numbers at 6 significant digits)\n");
                 } else {
-                    t.push_str(&format!("  {} quantities moved:\n", moved.len()));
+                    let noun = if moved.len() == 1 { "quantity" } else { "quantities" };
+                    t.push_str(&format!("  {} {noun} moved:\n", moved.len()));
                     list(&mut t, moved);
                 }
                 t

@@ -86,7 +86,8 @@ pub struct Pdf<'a> {
     pub objects: BTreeMap<u32, (Obj, Range<usize>)>,
     /// The trailer dictionary.
     pub trailer: Dict,
-    /// Where the first revision ends: after `%%EOF` and its end-of-line marker.
+    /// Where the first revision ends: right after its `%%EOF` (an end-of-line marker
+    /// after it counts as appended, as dutyline writes none).
     pub end: usize,
 }
 
@@ -137,7 +138,6 @@ pub fn read(bytes: &[u8]) -> Result<Pdf<'_>> {
     if !lx.literal(b"%%EOF") {
         return Err(lx.expected("`%%EOF`"));
     }
-    lx.eol();
     Ok(Pdf {
         bytes,
         objects,

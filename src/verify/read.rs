@@ -89,7 +89,7 @@ pub fn read(bytes: &[u8]) -> Result<PackageFile, PackageError> {
     if bytes.len() > MAX_PACKAGE_BYTES {
         return Err(PackageError::TooLarge(bytes.len()));
     }
-    let pdf = pdf_read::read(bytes).map_err(PackageError::Pdf)?;
+    let pdf = pdf_read::read(bytes).map_err(|e| unreadable(bytes, e))?;
     let producer = producer(&pdf);
     let not_ours = |why: &str| PackageError::NotDutyline {
         producer: producer.clone(),
@@ -131,6 +131,39 @@ pub fn read(bytes: &[u8]) -> Result<PackageFile, PackageError> {
         producer,
         appended: appended(&bytes[pdf.end..]),
     })
+}
+
+/// A PDF dutyline cannot read: truncated, or not written by dutyline when it does
+/// not even name a build record, else damaged.
+fn unreadable(bytes: &[u8], error: ReadError) -> PackageError {
+    let named = bytes
+        .windows(MANIFEST_NAME.len())
+        .any(|w| w == MANIFEST_NAME.as_bytes());
+    match error {
+        ReadError::Malformed { .. } | ReadError::Unsupported(_) if !named => {
+            PackageError::NotDutyline {
+                producer: loose_producer(bytes),
+                why: format!(
+                    "it names no build record `{MANIFEST_NAME}`, and its structure is not what dutyline writes ({})",
+                    match &error {
+                        ReadError::Malformed { at, what } => format!("at byte {at}: {what}"),
+                        other => other.to_string(),
+                    }
+                ),
+            }
+        }
+        other => PackageError::Pdf(other),
+    }
+}
+
+/// The `/Producer` string wherever it stands uncompressed in the file, if anywhere.
+fn loose_producer(bytes: &[u8]) -> Option<String> {
+    let key = b"/Producer";
+    let at = bytes.windows(key.len()).rposition(|w| w == key)? + key.len();
+    match pdf_read::parse_object(&bytes[at..bytes.len().min(at + 400)]) {
+        Some(Obj::Str(s)) => Some(pdf_read::text(&s).chars().take(200).collect()),
+        _ => None,
+    }
 }
 
 /// One file specification's name, content and recorded SHA-256.

@@ -65,15 +65,17 @@ fn node(label: String, value: &Json, depth: usize) -> Node {
     }
 }
 
-/// `case peak`, `pump KR1`, else `#3` (1-based).
+/// `average` (a name), `case peak`, `pump KR1`, else `#3` (1-based).
 fn element_label(index: usize, value: &Json) -> String {
     IDENTIFIERS
         .iter()
         .find_map(|id| {
-            value
-                .get(id)
-                .and_then(Json::as_str)
-                .map(|v| format!("{id} {v}"))
+            let v = value.get(id).and_then(Json::as_str)?;
+            Some(if *id == "name" {
+                v.to_string()
+            } else {
+                format!("{id} {v}")
+            })
         })
         .unwrap_or_else(|| format!("#{}", index + 1))
 }
