@@ -12,7 +12,7 @@ mod front;
 mod method;
 mod references;
 mod selection;
-mod sources;
+pub(crate) mod sources;
 mod system_curves;
 mod wording;
 
