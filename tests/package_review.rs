@@ -247,3 +247,45 @@ fn no_negative_zero_is_printed() {
         }
     }
 }
+
+#[test]
+fn warnings_of_a_us_design_are_in_us_units_in_the_package_and_text_results() {
+    // The orchard demo made to raise the remarks that carry values: Hazen-Williams at
+    // 90 °F (outside about 41–77 °F) and an impeller between published diameters.
+    let src = std::fs::read_to_string("examples-demo/orchard-lift-rev-a.duty")
+        .unwrap()
+        .replace("temperature = 64 degF", "temperature = 90 degF")
+        .replace(
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser }",
+            "pipe pvc 8 in schedule 40 {\n        length = 2650 ft + riser\n        hazen_williams_c = 150\n    }",
+        )
+        .replace(
+            "pump B \"Horizontal split case, 1780 rpm\" {\n    speed = 1780 rpm",
+            "pump B \"Horizontal split case, 1780 rpm\" {\n    speed = 1780 rpm\n    impeller = 12.5 in",
+        );
+    let design = dutyline::check(&src, &DemoFiles)
+        .design
+        .expect("valid variant");
+    let a = dutyline::analysis::analyse(&design);
+    let text = dutyline::results::to_text(&design, &a);
+    assert!(text.contains("Hazen-Williams is fitted to water at ordinary temperatures (about 41.0–77.0 °F); 90.0 °F is outside"), "{text}");
+    assert!(
+        text.contains("impeller 12.500 in from the published 13.000 in by the trim law"),
+        "{text}"
+    );
+    let style = dutyline::report::layout::style::Style::builtin("letter").unwrap();
+    let pdf = dutyline::report::render_pdf(&design, &a, &src, &style, None).unwrap();
+    let p = Package {
+        design,
+        pages: page_texts(&pdf).unwrap(),
+        pdf,
+    };
+    let mut lines: Vec<String> = text.lines().map(str::to_string).collect();
+    lines.extend(body(&p).iter().cloned());
+    for line in &lines {
+        for w in words(line) {
+            assert!(!SI_ONLY.contains(&w), "SI unit {w:?} in {line:?}");
+        }
+        assert!(!line.contains("degC") && !line.contains('`'), "{line:?}");
+    }
+}

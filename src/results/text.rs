@@ -67,7 +67,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 "  segment {} {}: {} {}, ID {}, length {}, {}",
                 g.line,
                 g.index + 1,
-                g.material,
+                g.material.replace('_', " "),
                 g.size_label,
                 dia.fmt(g.inner_diameter),
                 len.fmt(g.length),
@@ -76,7 +76,10 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     None => format!(
                         "roughness {} (source: {})",
                         u.roughness().fmt(g.roughness),
-                        g.roughness_source.trim_start_matches("roughness: ")
+                        crate::report::sections::sources::publication(
+                            g.roughness_source.trim_start_matches("roughness: "),
+                            &u
+                        )
                     ),
                 }
             );

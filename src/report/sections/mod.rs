@@ -13,7 +13,7 @@ mod front;
 mod method;
 mod references;
 mod selection;
-mod sources;
+pub(crate) mod sources;
 mod system_curves;
 mod wording;
 
