@@ -171,7 +171,49 @@ pub struct Line {
     pub from: String,
     pub to: String,
     pub segments: Vec<Segment>,
+    /// The pipe profile along the line, when the design gives one (`profile { ... }`).
+    pub profile: Option<Profile>,
+    /// Stroke time of the line's fastest-closing valve, for the valve-closure surge
+    /// screen (`closure_time = 30 s`); `None` skips that screen.
+    pub closure_time: Option<Time>,
+    /// How the line is restrained against axial movement (wave speed).
+    pub restraint: Restraint,
     pub span: Span,
+}
+
+/// Elevation of the pipe along a line: (chainage from the line's upstream end, pipe
+/// elevation in the design's datum) in flow direction, chainage strictly increasing
+/// from zero.
+#[derive(Clone, Debug)]
+pub struct Profile {
+    pub points: Vec<(Length, Length)>,
+    /// Where it comes from: "given in the design" or the CSV file's name.
+    pub source: String,
+    pub span: Span,
+}
+
+/// Axial restraint of a pipe, for the Korteweg restraint factor (Wylie and Streeter,
+/// *Fluid Transients in Systems*, 1993, §2.6).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
+pub enum Restraint {
+    /// Anchored against axial movement throughout (buried or fully anchored): c = 1 − ν².
+    #[default]
+    Anchored,
+    /// Anchored at the upstream end only: c = 1 − ν/2.
+    UpstreamOnly,
+    /// Expansion joints throughout: c = 1.
+    ExpansionJoints,
+}
+
+impl Restraint {
+    /// Keyword as written in a design.
+    pub fn keyword(self) -> &'static str {
+        match self {
+            Restraint::Anchored => "anchored",
+            Restraint::UpstreamOnly => "upstream_anchored",
+            Restraint::ExpansionJoints => "expansion_joints",
+        }
+    }
 }
 
 /// One run of pipe of one size and material, with the fittings on it.
@@ -190,7 +232,31 @@ pub struct Segment {
     pub hazen_williams_c: Option<f64>,
     pub fittings: Vec<FittingUse>,
     pub losses: Vec<ExtraLoss>,
+    /// Wall data for ratings and wave speed (catalogue or given).
+    pub wall: WallData,
     pub span: Span,
+}
+
+/// What the safety screen needs of a pipe wall, from the catalogue or the design.
+#[derive(Clone, Debug, Default)]
+pub struct WallData {
+    /// Outside diameter from the catalogue, when known.
+    pub outer_diameter: Option<Length>,
+    /// Wall thickness (catalogue nominal, or minimum for PVC/HDPE, or `wall = ...`).
+    pub thickness: Option<Length>,
+    /// The catalogue designation after the size: `schedule 40`, `class 350`, `DR 17`.
+    pub designation: Option<String>,
+    /// A pressure rating stated in the design (`rating = 150 psi`), gauge.
+    pub rating: Option<Pressure>,
+    /// Modulus of elasticity override (`modulus = 3.3 GPa`... as a pressure).
+    pub modulus: Option<Pressure>,
+    /// Corrosion allowance override (steel wall per ASME B31.3 §304.1).
+    pub corrosion_allowance: Option<Length>,
+    /// Threaded joints (`joints = threaded`): PVC derated 50 %, steel thread depth.
+    pub threaded: bool,
+    /// Pipe elevations at the segment's ends (`start_elevation`, `end_elevation`).
+    pub start_elevation: Option<Length>,
+    pub end_elevation: Option<Length>,
 }
 
 #[derive(Clone, Debug)]
@@ -199,6 +265,8 @@ pub struct FittingUse {
     pub count: u32,
     pub beta: Option<f64>,
     pub angle_rad: Option<f64>,
+    /// A pressure rating stated in the design (`rating = 250 psi`), gauge.
+    pub rating: Option<Pressure>,
     pub span: Span,
 }
 

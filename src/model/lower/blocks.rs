@@ -149,6 +149,8 @@ fn stray(kind: &StatementKind) -> Option<Diagnostic> {
             .with_help("fields go inside a block such as `project { ... }`; constants are written `let name = value`"),
         StatementKind::Condition { path, .. } => Diagnostic::error("stray-requirement", "a requirement outside `require { ... }`", Some(path.span))
             .with_help("put requirements inside `require { ... }`"),
+        StatementKind::Curve { keyword, .. } if keyword.name == "profile" => Diagnostic::error("stray-profile", "a profile outside a line", Some(keyword.span))
+            .with_help("a pipe profile belongs inside `line NAME from A to B { ... }`"),
         StatementKind::Curve { keyword, .. } => Diagnostic::error("stray-curve", "a curve outside a pump", Some(keyword.span))
             .with_help("curves belong inside `pump NAME { ... }`"),
         StatementKind::Let { .. } | StatementKind::Block { .. } => return None,
