@@ -192,29 +192,7 @@ pub struct Profile {
     pub span: Span,
 }
 
-/// Axial restraint of a pipe, for the Korteweg restraint factor (Wylie and Streeter,
-/// *Fluid Transients in Systems*, 1993, §2.6).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Default)]
-pub enum Restraint {
-    /// Anchored against axial movement throughout (buried or fully anchored): c = 1 − ν².
-    #[default]
-    Anchored,
-    /// Anchored at the upstream end only: c = 1 − ν/2.
-    UpstreamOnly,
-    /// Expansion joints throughout: c = 1.
-    ExpansionJoints,
-}
-
-impl Restraint {
-    /// Keyword as written in a design.
-    pub fn keyword(self) -> &'static str {
-        match self {
-            Restraint::Anchored => "anchored",
-            Restraint::UpstreamOnly => "upstream_anchored",
-            Restraint::ExpansionJoints => "expansion_joints",
-        }
-    }
-}
+pub use crate::hydraulics::wave_speed::Restraint;
 
 /// One run of pipe of one size and material, with the fittings on it.
 #[derive(Clone, Debug)]

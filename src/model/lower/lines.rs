@@ -2,12 +2,12 @@
 //! pipe segments, and the source and destination tanks they connect.
 
 use super::{duplicate_name, profile, Block, Blocks, MAX_SEGMENTS};
-use crate::model::FileAccess;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::{self, Env};
 use crate::model::fields::missing;
 use crate::model::scenario::lower_segments;
+use crate::model::FileAccess;
 use crate::names::nearest;
 use crate::syntax::ast::{Arg, ArgKind};
 

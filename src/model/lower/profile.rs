@@ -351,8 +351,10 @@ pub fn set_wall_field(
         "rating" => wall.rating = Some(expect_rating(e, env)?),
         "wall" => wall.thickness = Some(length_in(&ranges::WALL_THICKNESS, "wall thickness")?),
         "corrosion_allowance" => {
-            wall.corrosion_allowance =
-                Some(length_in(&ranges::CORROSION_ALLOWANCE, "corrosion allowance")?)
+            wall.corrosion_allowance = Some(length_in(
+                &ranges::CORROSION_ALLOWANCE,
+                "corrosion allowance",
+            )?)
         }
         "start_elevation" => wall.start_elevation = Some(length_in(&ranges::LEVEL, "elevation")?),
         "end_elevation" => wall.end_elevation = Some(length_in(&ranges::LEVEL, "elevation")?),
