@@ -259,6 +259,20 @@ impl Units {
             },
         )
     }
+    /// A pressure-wave speed: m/s or ft/s, whole numbers.
+    pub fn wave_speed(&self) -> Shown {
+        Shown {
+            decimals: 0,
+            ..self.velocity()
+        }
+    }
+    /// A pressure rating or a screened pressure: kPa or psi, whole numbers.
+    pub fn rating(&self) -> Shown {
+        Shown {
+            decimals: 0,
+            ..self.pressure()
+        }
+    }
     pub fn temperature(&self) -> Shown {
         self.pick(
             Shown {

@@ -10,6 +10,7 @@ pub mod duty;
 pub mod limits;
 pub mod motor;
 pub mod parallel;
+pub mod safety;
 pub mod selection;
 pub mod system;
 
@@ -40,6 +41,8 @@ pub struct Analysis {
     pub capacity: Vec<Vec<Option<f64>>>,
     /// The requirement × case matrix.
     pub requirement_matrix: Vec<capacity::RequirementRow>,
+    /// Safety screening: grade lines, ratings, surge (issue 14).
+    pub safety: safety::Safety,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -187,7 +190,23 @@ pub fn analyse(design: &Design) -> Analysis {
     let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
     warnings.extend(capacity::governing_warnings(design, &cases));
     let selection = selection::rank(design, &cases);
+    let safety = safety::screen(
+        design,
+        &cases,
+        &candidates,
+        selection.recommended.as_deref(),
+    );
+    for c in &safety.cases {
+        for n in &c.notes {
+            warnings.push(Warning {
+                code: "safety-screen",
+                message: n.clone(),
+                span: None,
+            });
+        }
+    }
     Analysis {
+        safety,
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),
         motors: motor_sizing
