@@ -266,12 +266,29 @@ impl Units {
             ..self.velocity()
         }
     }
-    /// A pressure rating or a screened pressure: kPa or psi, whole numbers.
+    /// A pressure rating or a screened pressure: kPa or psi, one decimal.
     pub fn rating(&self) -> Shown {
         Shown {
-            decimals: 0,
+            decimals: 1,
             ..self.pressure()
         }
+    }
+    /// A modulus of elasticity or bulk modulus: GPa or ksi.
+    pub fn modulus(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "GPa",
+                factor: 1e9,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "ksi",
+                factor: PSI * 1000.0,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
     }
     pub fn temperature(&self) -> Shown {
         self.pick(

@@ -11,6 +11,7 @@ mod design_basis;
 mod front;
 mod method;
 mod references;
+mod safety;
 mod selection;
 mod sources;
 mod system_curves;
@@ -64,6 +65,7 @@ pub fn document(
     }
     selection::chapter(&mut blocks, design, analysis, &units);
     checks::chapter(&mut blocks, analysis, &units);
+    safety::chapter(&mut blocks, analysis, &units);
     assumptions::chapter(&mut blocks, design, analysis);
     references::chapter(&mut blocks);
     appendix::chapter(&mut blocks, source, sha256);
