@@ -222,10 +222,13 @@ mod tests {
 
     #[test]
     fn thin_and_thick_forms_meet_near_the_threshold() {
-        // At D/e = 25 the thick form differs from the thin one by a few per cent only.
+        // At D/e = 25 the thick form is 7.6 % above the thin one (2/25·1.3 + 25/26·0.91
+        // = 0.979 against 0.91), and it tends to the thin one as D/e grows.
         let thin = 1.0 - 0.3f64 * 0.3;
-        let thick = restraint_factor(Restraint::Anchored, 0.3, 24.999, 1.0);
-        assert!((thick - thin).abs() / thin < 0.06, "{thick} vs {thin}");
+        let thick = |de: f64| 2.0 / de * 1.3 + de * thin / (de + 1.0);
+        assert!((restraint_factor(Restraint::Anchored, 0.3, 24.999, 1.0) - thick(24.999)).abs() < 1e-12);
+        assert!((thick(25.0) / thin - 1.0 - 0.0757).abs() < 1e-3);
+        assert!((thick(1e4) - thin).abs() / thin < 1e-3);
     }
 
     #[test]
