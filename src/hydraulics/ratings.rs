@@ -33,10 +33,91 @@ pub struct PipeRating {
     /// The highest pressure allowed during a surge (working + the standard's surge
     /// allowance), Pa gauge.
     pub transient_pa: f64,
-    /// How the number was found, in words (with the inputs).
-    pub basis: String,
+    /// How the number was found (the inputs of the formula, SI).
+    pub basis: Basis,
     /// The publications, with "from memory" where recalled.
     pub source: &'static str,
+}
+
+/// The inputs of a rating, SI, for the package to print in its own units.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Basis {
+    /// AWWA C150/C151 pressure class (psi, as the standard names it).
+    DuctileIron { class: f64 },
+    /// ASTM D1785: S (Pa), t and D (m), the rating at 73 °F (Pa), the temperature
+    /// factor, threaded.
+    Pvc {
+        stress: f64,
+        wall: f64,
+        outer_diameter: f64,
+        at_73: f64,
+        factor: f64,
+        threaded: bool,
+    },
+    /// PE4710: HDS (Pa), temperature factor, DR, PR (Pa).
+    Hdpe {
+        stress: f64,
+        factor: f64,
+        dr: f64,
+        pr: f64,
+    },
+    /// ASME B31.3: nominal wall, corrosion and thread allowances, the wall left t (m),
+    /// S (Pa), D (m), P (Pa).
+    Steel {
+        wall: f64,
+        corrosion: f64,
+        thread: f64,
+        t: f64,
+        stress: f64,
+        outer_diameter: f64,
+        p: f64,
+    },
+}
+
+impl Basis {
+    /// The computation in words, numbers formatted by `pressure` (Pa) and `length` (m)
+    /// in the reader's units.
+    pub fn describe(
+        &self,
+        pressure: &dyn Fn(f64) -> String,
+        length: &dyn Fn(f64) -> String,
+    ) -> String {
+        match *self {
+            Basis::DuctileIron { class } => format!(
+                "pressure class {class:.0}: rated working pressure {}; the class includes a surge allowance of {} (transient limit {}), no second allowance",
+                pressure(class * PSI),
+                pressure(100.0 * PSI),
+                pressure((class + 100.0) * PSI)
+            ),
+            Basis::Pvc { stress, wall, outer_diameter, at_73, factor, threaded } => format!(
+                "P = 2·S·t/(D − t) = 2 × {} × {} / ({} − {}) = {} at the standard's reference temperature; × {factor:.2} (temperature){}; no surge allowance (rating for water without shock)",
+                pressure(stress),
+                length(wall),
+                length(outer_diameter),
+                length(wall),
+                pressure(at_73),
+                if threaded { "; × 0.5 threaded" } else { "" }
+            ),
+            Basis::Hdpe { stress, factor, dr, pr } => format!(
+                "PR = 2·HDS·F/(DR − 1) = 2 × {} × {factor:.2} / ({dr} − 1) = {} (PE4710); occasional surge to 2·PR = {}, recurring surge to 1.5·PR = {}",
+                pressure(stress),
+                pressure(pr),
+                pressure(2.0 * pr),
+                pressure(1.5 * pr)
+            ),
+            Basis::Steel { wall, corrosion, thread, t, stress, outer_diameter, p } => format!(
+                "P = 2·t·S·E·W/(D − 2·Y·t), t = 0.875 × {} − {} corrosion{} = {}, S = {}, E = 1.0, W = 1.0, Y = 0.4, D = {}: {}; occasional variation to 1.33 × = {}",
+                length(wall),
+                length(corrosion),
+                if thread > 0.0 { format!(" − {} thread", length(thread)) } else { String::new() },
+                length(t),
+                pressure(stress),
+                length(outer_diameter),
+                pressure(p),
+                pressure(1.33 * p)
+            ),
+        }
+    }
 }
 
 /// What a rating needs to know of a segment.
@@ -88,8 +169,8 @@ fn ductile_iron(input: &RatingInput) -> Result<PipeRating, String> {
     Ok(PipeRating {
         working_pa: class * PSI,
         transient_pa: (class + 100.0) * PSI,
-        basis: format!("pressure class {class:.0}: rated working pressure {class:.0} psi; the class includes a 100 psi surge allowance (transient limit {:.0} psi), no second allowance", class + 100.0),
-        source: "ANSI/AWWA C150/A21.50 (thickness design, 100 psi surge allowance) and C151/A21.51 (pressure classes) (from memory)",
+        basis: Basis::DuctileIron { class },
+        source: "ANSI/AWWA C150/A21.50 (thickness design with its surge allowance) and C151/A21.51 (pressure classes) (from memory)",
     })
 }
 
@@ -160,14 +241,15 @@ fn pvc(input: &RatingInput) -> Result<PipeRating, String> {
     Ok(PipeRating {
         working_pa: psi * PSI,
         transient_pa: psi * PSI,
-        basis: format!(
-            "P = 2·S·t/(D − t) = 2 × {PVC_HDS_PSI:.0} psi × {:.3} in / ({:.3} − {:.3}) in = {at_73:.0} psi at 73 degF; × {factor:.2} (temperature){}; no surge allowance (rating for water without shock)",
-            t / 0.0254,
-            d / 0.0254,
-            t / 0.0254,
-            if input.threaded { "; × 0.5 threaded" } else { "" }
-        ),
-        source: "ASTM D1785, Appendix X1 (rating formula, HDS 2000 psi for PVC 1120); PPFA temperature factors; threaded pipe at 50 % (from memory)",
+        basis: Basis::Pvc {
+            stress: PVC_HDS_PSI * PSI,
+            wall: t,
+            outer_diameter: d,
+            at_73: at_73 * PSI,
+            factor,
+            threaded: input.threaded,
+        },
+        source: "ASTM D1785, Appendix X1 (rating formula, hydrostatic design stress of PVC 1120); PPFA temperature factors; threaded pipe at 50 % (from memory)",
     })
 }
 
@@ -182,8 +264,13 @@ fn hdpe(input: &RatingInput) -> Result<PipeRating, String> {
     Ok(PipeRating {
         working_pa: pr * PSI,
         transient_pa: 2.0 * pr * PSI,
-        basis: format!("PR = 2·HDS·F/(DR − 1) = 2 × {PE4710_HDS_PSI:.0} psi × {factor:.2} / ({dr} − 1) = {pr:.0} psi (PE4710); occasional surge to 2·PR = {:.0} psi, recurring surge to 1.5·PR = {:.0} psi", 2.0 * pr, 1.5 * pr),
-        source: "PPI TR-4 (HDS 1000 psi for PE4710); AWWA C906-15 and M55 (PR formula, surge allowances) (from memory)",
+        basis: Basis::Hdpe {
+            stress: PE4710_HDS_PSI * PSI,
+            factor,
+            dr,
+            pr: pr * PSI,
+        },
+        source: "PPI TR-4 (hydrostatic design stress of PE4710); AWWA C906-15 and M55 (PR formula, surge allowances) (from memory)",
     })
 }
 
@@ -235,17 +322,16 @@ fn steel(input: &RatingInput, material: Material) -> Result<PipeRating, String> 
     Ok(PipeRating {
         working_pa: psi * PSI,
         transient_pa: 1.33 * psi * PSI,
-        basis: format!(
-            "P = 2·t·S·E·W/(D − 2·Y·t), t = 0.875 × {:.2} mm − {:.2} mm corrosion{} = {:.2} mm, S = {:.1} ksi, E = 1.0, W = 1.0, Y = 0.4, D = {:.1} mm: {psi:.0} psi; occasional variation to 1.33 × = {:.0} psi",
-            wall * 1000.0,
-            corrosion * 1000.0,
-            if input.threaded { format!(" − {:.2} mm thread", thread * 1000.0) } else { String::new() },
-            t * 1000.0,
-            s / 1000.0,
-            d * 1000.0,
-            1.33 * psi
-        ),
-        source: "ASME B31.3, §304.1.2 eq. (3a), Table A-1 (A106 Gr B, A312 TP304 to 100 degF), §302.2.4 (occasional variations) (from memory)",
+        basis: Basis::Steel {
+            wall,
+            corrosion,
+            thread,
+            t,
+            stress: s * PSI,
+            outer_diameter: d,
+            p: psi * PSI,
+        },
+        source: "ASME B31.3, §304.1.2 eq. (3a), Table A-1 (A106 Grade B, A312 TP304, at ambient), §302.2.4 (occasional variations) (from memory)",
     })
 }
 

@@ -14,10 +14,28 @@ pub struct SegmentRating {
     pub working: Option<f64>,
     /// Highest pressure allowed during a surge, Pa gauge.
     pub transient: Option<f64>,
-    /// What governs and how it was found (or why there is no rating).
-    pub basis: String,
+    /// How the pipe's rating was found by its standard (`None`: stated or not rated).
+    pub basis: Option<ratings::Basis>,
+    /// What else governs, or why there is no rating, in words without numbers.
+    pub note: String,
     /// The publication, or "given in the design".
     pub source: String,
+}
+
+impl SegmentRating {
+    /// The basis in words: the standard's computation (numbers by `pressure`, Pa, and
+    /// `length`, m) and the note.
+    pub fn describe(
+        &self,
+        pressure: &dyn Fn(f64) -> String,
+        length: &dyn Fn(f64) -> String,
+    ) -> String {
+        match (&self.basis, self.note.is_empty()) {
+            (Some(b), true) => b.describe(pressure, length),
+            (Some(b), false) => format!("{}; {}", self.note, b.describe(pressure, length)),
+            (None, _) => self.note.clone(),
+        }
+    }
 }
 
 /// The governing rating of a model segment for a liquid at `temperature_k`.
@@ -27,7 +45,8 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
         Some(r) => SegmentRating {
             working: Some(r.get::<pascal>()),
             transient: Some(r.get::<pascal>()),
-            basis: "pipe rating given in the design (no surge allowance added)".into(),
+            basis: None,
+            note: "pipe rating given in the design (no surge allowance added)".into(),
             source: "given in the design".into(),
         },
         None => {
@@ -44,13 +63,15 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
                 Ok(r) => SegmentRating {
                     working: Some(r.working_pa),
                     transient: Some(r.transient_pa),
-                    basis: r.basis,
+                    basis: Some(r.basis),
+                    note: String::new(),
                     source: r.source.to_string(),
                 },
                 Err(why) => SegmentRating {
                     working: None,
                     transient: None,
-                    basis: why,
+                    basis: None,
+                    note: why,
                     source: String::new(),
                 },
             }
@@ -62,9 +83,9 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
         };
         if out.working.is_none_or(|w| r < w) {
             out.working = Some(r);
-            out.basis = format!(
-                "fitting {}, rated in the design, is weaker than the pipe ({})",
-                f.spec.name, out.basis
+            out.note = format!(
+                "fitting {}, rated in the design, is weaker than the pipe and governs",
+                f.spec.name
             );
             out.source = "given in the design".into();
         }

@@ -149,7 +149,7 @@ fn ratings_table(blocks: &mut Vec<Block>, c: &CaseSafety, units: &Units) {
                 r.transient
                     .map(|w| pr.figure(w))
                     .unwrap_or_else(|| "–".into()),
-                super::wording::plain(&r.basis),
+                super::wording::plain(&r.describe(&|p| pr.fmt(p), &|x| units.diameter().fmt(x))),
                 super::sources::publication(&r.source, units),
             ]);
         }

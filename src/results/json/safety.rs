@@ -96,7 +96,7 @@ struct RatingOut<'a> {
     pipe: &'a str,
     working_Pa: Option<f64>,
     transient_Pa: Option<f64>,
-    basis: &'a str,
+    basis: String,
     source: &'a str,
 }
 
@@ -193,7 +193,9 @@ fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety) -> LineOut<'a> {
                 pipe: &l.segment_labels[i],
                 working_Pa: r.working,
                 transient_Pa: r.transient,
-                basis: &r.basis,
+                basis: r.describe(&|p| format!("{:.1} kPa", p / 1e3), &|x| {
+                    format!("{:.2} mm", x * 1e3)
+                }),
                 source: &r.source,
             })
             .collect(),
