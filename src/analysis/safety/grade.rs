@@ -25,8 +25,13 @@ pub struct Station {
     pub before_losses: bool,
 }
 
+/// Evenly spaced stations per line besides the profile knots and pipe ends, so that a
+/// straight grade is screened along its length, not at its ends only.
+pub const STATIONS_PER_LINE: usize = 20;
+
 /// The stations of a line: its start (before the first losses), then for each segment
-/// its start, the profile knots inside it and its end.
+/// its start, the profile knots and the even stations (every 1/20 of the line) inside
+/// it, and its end.
 pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Station> {
     let mut out = Vec::new();
     let mut x = 0.0;
@@ -47,7 +52,19 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
         }
         out.push(at(x, false));
         let end = x + seg.length;
-        out.extend(profile.inner_knots(x, end).map(|c| at(c, false)));
+        let step = profile.length / STATIONS_PER_LINE as f64;
+        let mut inner: Vec<f64> = profile.inner_knots(x, end).collect();
+        if step > 0.0 {
+            let first = (x / step).floor() as usize + 1;
+            inner.extend(
+                (first..first + STATIONS_PER_LINE)
+                    .map(|k| k as f64 * step)
+                    .take_while(|c| *c < end - 1e-9 * profile.length),
+            );
+        }
+        inner.sort_by(f64::total_cmp);
+        inner.dedup_by(|a, b| (*a - *b).abs() <= 1e-9 * profile.length.max(1.0));
+        out.extend(inner.into_iter().map(|c| at(c, false)));
         out.push(at(end, false));
         x = end;
     }
