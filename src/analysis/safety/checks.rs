@@ -68,10 +68,9 @@ fn rating_check(
         .enumerate()
         .filter_map(|(i, (p, r))| r.map(|r| (i, *p, r)))
         .collect();
-    let source = Source::Publication {
-        title: "the pipe standards named in the pressure-rating table",
-        clause: "rated working pressure",
-    };
+    let source = Source::DesignData(
+        "the governing rating of each pipe, by the standards named in the pressure-rating table",
+    );
     if rated.is_empty() {
         let (pmax, i) = max_at(p)?;
         return Some(
