@@ -272,6 +272,37 @@ impl Units {
             },
         )
     }
+    /// A pressure-wave speed: m/s or ft/s, whole numbers.
+    pub fn wave_speed(&self) -> Shown {
+        Shown {
+            decimals: 0,
+            ..self.velocity()
+        }
+    }
+    /// A pressure rating or a screened pressure: kPa or psi, one decimal.
+    pub fn rating(&self) -> Shown {
+        Shown {
+            decimals: 1,
+            ..self.pressure()
+        }
+    }
+    /// A modulus of elasticity or bulk modulus: GPa or ksi.
+    pub fn modulus(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "GPa",
+                factor: 1e9,
+                offset: 0.0,
+                decimals: 2,
+            },
+            Shown {
+                label: "ksi",
+                factor: PSI * 1000.0,
+                offset: 0.0,
+                decimals: 0,
+            },
+        )
+    }
     /// Temperature: °C or °F (from K).
     pub fn temperature(&self) -> Shown {
         self.pick(

@@ -22,11 +22,23 @@ pub enum CheckId {
     Headroom,
     /// One pump of a parallel set running alone against the lowest-head case.
     OnePumpAlone,
+    /// Highest operating pressure along a line against the pipe and fitting ratings.
+    PressureRating,
+    /// Shut-off pressure along a discharge line against the ratings.
+    ShutoffPressure,
+    /// Lowest steady pressure along a line against a stated minimum (air ingress).
+    MinimumPressure,
+    /// Lowest steady pressure against vapour pressure plus a margin.
+    VapourMargin,
+    /// Pump-trip downsurge along the profile against vapour pressure.
+    ColumnSeparation,
+    /// Surge (valve closure, pump trip) plus operating pressure against the transient rating.
+    Surge,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 8] = [
+    pub const ALL: [CheckId; 14] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -35,6 +47,12 @@ impl CheckId {
         CheckId::Motor,
         CheckId::Headroom,
         CheckId::OnePumpAlone,
+        CheckId::PressureRating,
+        CheckId::ShutoffPressure,
+        CheckId::MinimumPressure,
+        CheckId::VapourMargin,
+        CheckId::ColumnSeparation,
+        CheckId::Surge,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -48,6 +66,12 @@ impl CheckId {
             CheckId::Motor => "motor",
             CheckId::Headroom => "headroom",
             CheckId::OnePumpAlone => "one-pump-alone",
+            CheckId::PressureRating => "pressure-rating",
+            CheckId::ShutoffPressure => "shutoff-pressure",
+            CheckId::MinimumPressure => "minimum-pressure",
+            CheckId::VapourMargin => "vapour-margin",
+            CheckId::ColumnSeparation => "column-separation",
+            CheckId::Surge => "surge",
         }
     }
 
@@ -67,6 +91,24 @@ impl CheckId {
             }
             CheckId::OnePumpAlone => {
                 "one pump of a parallel set running alone after the others trip"
+            }
+            CheckId::PressureRating => {
+                "highest operating pressure along a line against the weakest rating there"
+            }
+            CheckId::ShutoffPressure => {
+                "pressure along a discharge line at pump shut-off against the ratings"
+            }
+            CheckId::MinimumPressure => {
+                "lowest steady pressure along a line against a stated minimum (air ingress)"
+            }
+            CheckId::VapourMargin => {
+                "lowest steady absolute pressure against vapour pressure plus a margin"
+            }
+            CheckId::ColumnSeparation => {
+                "pump-trip downsurge along the profile against vapour pressure (screening)"
+            }
+            CheckId::Surge => {
+                "surge head plus operating pressure against the transient rating (screening)"
             }
         }
     }
@@ -213,6 +255,56 @@ pub const NEMA_SERIES: Source = Source::Recalled {
 pub const IEC_SERIES: Source = Source::Recalled {
     title: "IEC 60072-1 Dimensions and output series for rotating electrical machines",
     clause: "preferred rated outputs",
+};
+
+/// Lowest steady gauge pressure along a line, Pa: 2 m of water (≈ 20 kPa, 2.8 psi)
+/// above atmospheric, so that air valves at high points do not admit air and joints
+/// do not draw in ground water.
+pub const MIN_STEADY_PRESSURE_PA: Limit = Limit {
+    value: 2.0 * 9.80665 * 1000.0,
+    source: Source::CommonPractice(
+        "lowest steady pressure of 2 m of water above atmospheric at high points",
+    ),
+};
+/// Margin of the lowest absolute pressure above vapour pressure, Pa: 1 m of water
+/// (≈ 10 kPa).
+pub const VAPOUR_MARGIN_PA: Limit = Limit {
+    value: 9.80665 * 1000.0,
+    source: Source::CommonPractice("margin of 1 m of water above vapour pressure"),
+};
+/// Pump test acceptance tolerance on head added to the shut-off head: +5 % (ISO 9906
+/// grade 2B head tolerance ±5 %).
+pub const SHUTOFF_TOLERANCE: Limit = Limit {
+    value: 0.05,
+    source: Source::Recalled {
+        title: "ISO 9906:2012 Rotodynamic pumps — Hydraulic performance acceptance tests",
+        clause: "Table 8, grade 2B head tolerance ±5 %",
+    },
+};
+/// Density of cold water for the shut-off pressure, kg/m³ (water at 4 °C, 999.97 kg/m³,
+/// IAPWS-95; taken as 1000).
+pub const COLD_WATER_DENSITY: Limit = Limit {
+    value: 1000.0,
+    source: Source::CommonPractice("cold water, 1000 kg/m³"),
+};
+/// Free-gas volume fraction for the lowest credible wave speed: 0.1 % (Wylie and
+/// Streeter, *Fluid Transients in Systems*, 1993, §9.2: a few tenths of a per cent of
+/// free air halve the wave speed).
+pub const ENTRAINED_AIR_FRACTION: Limit = Limit {
+    value: 0.001,
+    source: Source::Recalled {
+        title: "Wylie and Streeter, Fluid Transients in Systems (1993)",
+        clause: "§9.2, wave speed with free gas",
+    },
+};
+/// Effective closure time of a gate or butterfly valve as a fraction of its full
+/// stroke: 20 %, the lower end of the usual 20–25 % (the flow is cut in the last part
+/// of the stroke).
+pub const EFFECTIVE_CLOSURE_FRACTION: Limit = Limit {
+    value: 0.20,
+    source: Source::CommonPractice(
+        "effective closure time of 20 % of the stroke (gate, butterfly)",
+    ),
 };
 
 #[cfg(test)]

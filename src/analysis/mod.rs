@@ -11,6 +11,7 @@ pub mod duty;
 pub mod limits;
 pub mod motor;
 pub mod parallel;
+pub mod safety;
 pub mod selection;
 pub mod stability;
 pub mod system;
@@ -44,6 +45,8 @@ pub struct Analysis {
     pub capacity: Vec<Vec<Option<f64>>>,
     /// The requirement × case matrix.
     pub requirement_matrix: Vec<capacity::RequirementRow>,
+    /// Safety screening: grade lines, ratings, surge (issue 14).
+    pub safety: safety::Safety,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -223,7 +226,23 @@ pub fn analyse(design: &Design) -> Analysis {
     ));
     let mut selection = selection::rank(design, &cases);
     stability::annotate_selection(&mut selection, design, &rising);
+    let safety = safety::screen(
+        design,
+        &cases,
+        &candidates,
+        selection.recommended.as_deref(),
+    );
+    for c in &safety.cases {
+        for n in &c.notes {
+            warnings.push(Warning {
+                code: Code::SafetyScreen,
+                message: n.clone(),
+                span: None,
+            });
+        }
+    }
     Analysis {
+        safety,
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),
         motors: motor_sizing

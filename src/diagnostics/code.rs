@@ -71,6 +71,7 @@ codes! {
     StrayField = "stray-field": "a field outside any block";
     StrayRequirement = "stray-requirement": "a requirement outside `require { ... }`";
     StrayCurve = "stray-curve": "a curve table outside a pump";
+    StrayProfile = "stray-profile": "a pipe profile table outside a line";
     Unexpected = "unexpected": "a statement the block cannot hold (a block inside a fluid)";
     UnknownPath = "unknown-path": "a case override that names nothing a case can change";
     // The design's blocks.
@@ -98,6 +99,7 @@ codes! {
     UnknownColumn = "unknown-column": "a curve table column that is not flow, head, efficiency, power or NPSH required";
     MissingColumn = "missing-column": "a curve table without its flow or head column";
     BadRow = "bad-row": "a curve row with the wrong number of values, or flows not increasing";
+    BadProfile = "bad-profile": "a pipe profile whose chainage does not start at 0 or does not increase";
     TooFewPoints = "too-few-points": "a curve with fewer than 3 points";
     BadRequirement = "bad-requirement": "a requirement not of the form `QUANTITY >= VALUE [for CASE, ...]`";
     NoCases = "no-cases": "no case given (warning: the base design is analysed as case `design`)";
@@ -124,6 +126,7 @@ codes! {
     GoverningCase = "governing-case": "a case without a flow requirement that delivers less at its limit than another case requires (warning)";
     UnstableCurve = "unstable-curve": "a pump head curve that rises with flow somewhere (warning)";
     MotorAltitude = "motor-altitude": "a site above 1000 m, where a motor's rating is derated (warning)";
+    SafetyScreen = "safety-screen": "a remark of the pressure and surge screen, e.g. a line it could not screen (warning)";
     // The command line.
     Usage = "usage": "command-line arguments that do not make sense together";
     OutputRefused = "output-refused": "an output path that would replace the design, a non-PDF file or a non-regular file";

@@ -229,9 +229,15 @@ fn line(l: &Line, units: ReportUnits) -> Node {
         if let Some(c) = s.hazen_williams_c {
             seg.push(Node::leaf("hazen_williams_c", number(c)));
         }
+        seg.extend(wall_fields(&s.wall, units));
         for f in &s.fittings {
             let mut fields = vec![Node::leaf("count", f.count.to_string())];
             let mut summary = format!("× {}", f.count);
+            if let Some(r) = f.rating {
+                let r = v(r.value, Measure::GaugePressure);
+                fields.push(Node::leaf("rating", r.clone()));
+                summary.push_str(&format!(", rating {r}"));
+            }
             if let Some(b) = f.beta {
                 fields.push(Node::leaf("beta", number(b)));
                 summary.push_str(&format!(", beta {}", number(b)));
@@ -265,8 +271,69 @@ fn line(l: &Line, units: ReportUnits) -> Node {
         let summary = format!("{} {}, {length}", s.material.keyword(), s.size_label);
         children.push(Node::group(format!("segment {}", i + 1), summary, seg));
     }
+    children.extend(line_safety_fields(l, units));
     let summary = format!("from {} to {}", l.from, l.to);
     Node::group(format!("line {}", l.name), summary, children)
+}
+
+/// The safety-screen inputs of a line (issue 14), only where the design gives them.
+fn line_safety_fields(l: &Line, units: ReportUnits) -> Vec<Node> {
+    let v = |si: f64, m: Measure| show(si, m, units);
+    let mut out = Vec::new();
+    if let Some(p) = &l.profile {
+        let points: Vec<Node> = p
+            .points
+            .iter()
+            .enumerate()
+            .map(|(i, (x, z))| {
+                Node::leaf(
+                    format!("point {}", i + 1),
+                    format!(
+                        "chainage {}, elevation {}",
+                        v(x.value, Measure::Length),
+                        v(z.value, Measure::Length)
+                    ),
+                )
+            })
+            .collect();
+        let summary = format!("{} points, {}", p.points.len(), p.source);
+        out.push(Node::group("profile", summary, points));
+    }
+    if let Some(t) = l.closure_time {
+        out.push(Node::leaf("closure_time", format!("{} s", number(t.value))));
+    }
+    if l.restraint != crate::model::Restraint::default() {
+        out.push(Node::leaf("restraint", l.restraint.keyword()));
+    }
+    out
+}
+
+/// The wall fields of a pipe the design states (issue 14).
+fn wall_fields(w: &crate::model::WallData, units: ReportUnits) -> Vec<Node> {
+    let v = |si: f64, m: Measure| show(si, m, units);
+    let mut out = Vec::new();
+    if let Some(r) = w.rating {
+        out.push(Node::leaf("rating", v(r.value, Measure::GaugePressure)));
+    }
+    if let Some(m) = w.modulus {
+        out.push(Node::leaf("modulus", v(m.value, Measure::Pressure)));
+    }
+    if let Some(c) = w.corrosion_allowance {
+        out.push(Node::leaf(
+            "corrosion_allowance",
+            v(c.value, Measure::Diameter),
+        ));
+    }
+    if w.threaded {
+        out.push(Node::leaf("joints", "threaded"));
+    }
+    if let Some(z) = w.start_elevation {
+        out.push(Node::leaf("start_elevation", v(z.value, Measure::Length)));
+    }
+    if let Some(z) = w.end_elevation {
+        out.push(Node::leaf("end_elevation", v(z.value, Measure::Length)));
+    }
+    out
 }
 
 /// A case by its effect: the values that differ from the base design.

@@ -7,7 +7,7 @@ pub mod atmosphere;
 pub mod water;
 
 pub use atmosphere::barometric_pressure_pa;
-pub use water::{saturation_pressure_pa, water, water_state, WaterState};
+pub use water::{saturation_pressure_pa, water, water_bulk_modulus_pa, water_state, WaterState};
 
 use std::fmt;
 

@@ -199,6 +199,24 @@ fn check_output(
     }
 }
 
+/// Isentropic bulk modulus of liquid water K = ρ·w², Pa, with the density ρ and the
+/// speed of sound w of IAPWS-IF97 (region 1) at `temperature_k` and `pressure_pa`
+/// (raised to the vapour pressure when below it). This is the modulus of the Korteweg
+/// wave speed (Wylie and Streeter, *Fluid Transients in Systems*, 1993, eq. 2.16: the
+/// wave speed in a rigid pipe is √(K/ρ) = w). Valid 273.16–623.15 K, liquid only.
+pub fn water_bulk_modulus_pa(temperature_k: f64, pressure_pa: f64) -> Result<f64, FluidError> {
+    let state = water_state(temperature_k, pressure_pa)?;
+    let t_celsius = temperature_k - 273.15;
+    let w = if state.if97_region == 4 {
+        seuif97::tx(t_celsius, 0.0, seuif97::OW)
+    } else {
+        seuif97::pt(state.evaluated_pressure_pa * 1e-6, t_celsius, seuif97::OW)
+    };
+    let k = state.properties.density_kg_m3 * w * w;
+    check_output("bulk modulus", k, temperature_k, pressure_pa)?;
+    Ok(k)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

@@ -3,4 +3,6 @@
 pub mod catalogue;
 pub mod fittings;
 pub mod friction;
+pub mod ratings;
 pub mod roughness;
+pub mod wave_speed;

@@ -235,9 +235,28 @@ pub struct Line {
     pub to: String,
     /// Pipe segments in flow order, each with its fittings.
     pub segments: Vec<Segment>,
-    /// Where the line's name is written.
+    /// The pipe profile along the line, when the design gives one (`profile { ... }`).
+    pub profile: Option<Profile>,
+    /// Stroke time of the line's fastest-closing valve, for the valve-closure surge
+    /// screen (`closure_time = 30 s`); `None` skips that screen.
+    pub closure_time: Option<Time>,
+    /// How the line is restrained against axial movement (wave speed).
+    pub restraint: Restraint,
     pub span: Span,
 }
+
+/// Elevation of the pipe along a line: (chainage from the line's upstream end, pipe
+/// elevation in the design's datum) in flow direction, chainage strictly increasing
+/// from zero.
+#[derive(Clone, Debug)]
+pub struct Profile {
+    pub points: Vec<(Length, Length)>,
+    /// Where it comes from: "given in the design" or the CSV file's name.
+    pub source: String,
+    pub span: Span,
+}
+
+pub use crate::hydraulics::wave_speed::Restraint;
 
 /// One run of pipe of one size and material, with the fittings on it.
 #[derive(Clone, Debug)]
@@ -260,8 +279,32 @@ pub struct Segment {
     pub fittings: Vec<FittingUse>,
     /// Losses the design states directly.
     pub losses: Vec<ExtraLoss>,
+    /// Wall data for ratings and wave speed (catalogue or given).
+    pub wall: WallData,
     /// Where the `pipe` statement is written.
     pub span: Span,
+}
+
+/// What the safety screen needs of a pipe wall, from the catalogue or the design.
+#[derive(Clone, Debug, Default)]
+pub struct WallData {
+    /// Outside diameter from the catalogue, when known.
+    pub outer_diameter: Option<Length>,
+    /// Wall thickness (catalogue nominal, or minimum for PVC/HDPE, or `wall = ...`).
+    pub thickness: Option<Length>,
+    /// The catalogue designation after the size: `schedule 40`, `class 350`, `DR 17`.
+    pub designation: Option<String>,
+    /// A pressure rating stated in the design (`rating = 150 psi`), gauge.
+    pub rating: Option<Pressure>,
+    /// Modulus of elasticity override (`modulus = 3.3 GPa`... as a pressure).
+    pub modulus: Option<Pressure>,
+    /// Corrosion allowance override (steel wall per ASME B31.3 §304.1).
+    pub corrosion_allowance: Option<Length>,
+    /// Threaded joints (`joints = threaded`): PVC derated 50 %, steel thread depth.
+    pub threaded: bool,
+    /// Pipe elevations at the segment's ends (`start_elevation`, `end_elevation`).
+    pub start_elevation: Option<Length>,
+    pub end_elevation: Option<Length>,
 }
 
 /// A fitting on a segment, with its count and geometry.
@@ -275,6 +318,8 @@ pub struct FittingUse {
     pub beta: Option<f64>,
     /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
+    /// A pressure rating stated in the design (`rating = 250 psi`), gauge.
+    pub rating: Option<Pressure>,
     /// Where the fitting is written.
     pub span: Span,
 }

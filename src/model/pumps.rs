@@ -220,7 +220,11 @@ pub fn lower_pump(
     let mut curve_written = false;
     for st in &f.rest {
         match &st.kind {
-            StatementKind::Curve { args, table, .. } => {
+            StatementKind::Curve {
+                keyword,
+                args,
+                table,
+            } if keyword.name == "curve" => {
                 curve_written = true;
                 if p.curves.len() >= MAX_CURVES {
                     diags.push(Diagnostic::error(
@@ -405,7 +409,7 @@ fn lower_curve(
 
 /// A CSV curve table turned into the same table form as an inline one. Spans
 /// point at the `from "..."` text; messages carry the CSV line number.
-fn csv_table(text: &str, at: Span) -> Result<Table, String> {
+pub(crate) fn csv_table(text: &str, at: Span) -> Result<Table, String> {
     let mut lines = text
         .lines()
         .enumerate()

@@ -227,6 +227,53 @@ pub const YEARLY_RATE: Range = Range {
     usual: (-0.05, 0.2),
 };
 
+/// A pressure rating stated for a pipe or fitting (gauge). Above zero; 1 000 MPa is
+/// beyond any pressure piping; usual 100 kPa (low-head plastic) to 50 MPa (high-pressure
+/// steel, ASME B16.5 Class 2500 is about 42 MPa at ambient): common practice.
+pub const PRESSURE_RATING: Range = Range {
+    what: "a pressure rating",
+    unit: ("kPa", 1e3),
+    possible: (1.0, 1.0e9),
+    usual: (1.0e5, 5.0e7),
+};
+
+/// A pipe wall thickness (`wall`). From 0.1 mm (thin tube) to 1 m; usual 1–150 mm:
+/// common practice.
+pub const WALL_THICKNESS: Range = Range {
+    what: "a wall thickness",
+    unit: ("mm", 1e-3),
+    possible: (1e-4, 1.0),
+    usual: (1e-3, 0.15),
+};
+
+/// A modulus of elasticity of a pipe wall (`modulus`). Soft elastomer hose (about 1 MPa)
+/// to 1 000 GPa (above steel, 200 GPa, and tungsten, about 400 GPa); usual 100 MPa
+/// (long-term polyethylene) to 300 GPa: common practice.
+pub const ELASTIC_MODULUS: Range = Range {
+    what: "a modulus of elasticity",
+    unit: ("MPa", 1e6),
+    possible: (1.0e6, 1.0e12),
+    usual: (1.0e8, 3.0e11),
+};
+
+/// A corrosion allowance. 0 to 50 mm; usual up to 6 mm (1/4 in, heavy-service steel):
+/// common practice.
+pub const CORROSION_ALLOWANCE: Range = Range {
+    what: "a corrosion allowance",
+    unit: ("mm", 1e-3),
+    possible: (0.0, 0.05),
+    usual: (0.0, 0.006),
+};
+
+/// A valve stroke (closure) time. 10 ms (a slamming disc) to a day; usual 0.5 s to 1 h:
+/// common practice.
+pub const CLOSURE_TIME: Range = Range {
+    what: "a valve closure time",
+    unit: ("s", 1.0),
+    possible: (0.01, 86_400.0),
+    usual: (0.5, 3_600.0),
+};
+
 /// Every range, for the language reference and its test.
 pub const ALL: &[Range] = &[
     PIPE_BORE,
@@ -250,6 +297,11 @@ pub const ALL: &[Range] = &[
     VAPOUR_PRESSURE,
     LOSS_K,
     YEARLY_RATE,
+    PRESSURE_RATING,
+    WALL_THICKNESS,
+    ELASTIC_MODULUS,
+    CORROSION_ALLOWANCE,
+    CLOSURE_TIME,
 ];
 
 impl Range {

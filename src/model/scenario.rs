@@ -287,7 +287,18 @@ pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(),
 }
 
 /// The fields of a `pipe` (and of `LINE.N.` overrides).
-pub const SEGMENT_FIELDS: &[&str] = &["length", "roughness", "hazen_williams_c"];
+pub const SEGMENT_FIELDS: &[&str] = &[
+    "length",
+    "roughness",
+    "hazen_williams_c",
+    "rating",
+    "wall",
+    "modulus",
+    "corrosion_allowance",
+    "joints",
+    "start_elevation",
+    "end_elevation",
+];
 
 /// Set one field of a segment (base or case override), checking its dimension and range.
 pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
@@ -311,13 +322,7 @@ pub fn set_segment(seg: &mut Segment, field: &str, e: &Expr, env: &Env) -> Resul
             positive(c, "Hazen-Williams C", e.span)?;
             seg.hazen_williams_c = Some(env.in_range(&ranges::HAZEN_WILLIAMS_C, c, e.span)?);
         }
-        other => {
-            return Err(Diagnostic::error(
-                Code::UnknownField,
-                format!("a pipe has no field `{other}`"),
-                Some(e.span),
-            ))
-        }
+        other => return super::lower::profile::set_wall_field(&mut seg.wall, other, e, env),
     }
     Ok(())
 }
@@ -371,6 +376,7 @@ pub fn lower_pipe(
         Some(a) => return fail(diags, a.span, "a pipe starts with its material"),
         None => return fail(diags, span, "a pipe needs a material and a size"),
     };
+    let mut wall = WallData::default();
     let (size_label, inner, source) = match args.get(1).map(|a| &a.kind) {
         Some(ArgKind::Word(w)) if w == "bore" => {
             let Some(a) = args.get(2) else {
@@ -469,7 +475,15 @@ pub fn lower_pipe(
                 _ => format!("{nominal} in {kind} {value}"),
             };
             match catalogue::pipe_size(material, &nominal, &schedule) {
-                Ok(p) => (label, p.inner_diameter_m, p.standard.to_string()),
+                Ok(p) => {
+                    wall.outer_diameter = Some(length(p.outer_diameter_m));
+                    wall.thickness = Some(length(p.wall_m));
+                    wall.designation = Some(match kind.as_str() {
+                        "DR" => format!("DR {value}"),
+                        _ => format!("{kind} {value}"),
+                    });
+                    (label, p.inner_diameter_m, p.standard.to_string())
+                }
                 Err(e) => {
                     let at = size_arg.span.join(value_arg.span);
                     let mut d = Diagnostic::error(Code::UnknownPipeSize, e.message, Some(at))
@@ -494,6 +508,7 @@ pub fn lower_pipe(
         hazen_williams_c: None,
         fittings: Vec::new(),
         losses: Vec::new(),
+        wall,
         span,
     };
     let f = read_fields(body, "a pipe", SEGMENT_FIELDS, diags);
@@ -534,7 +549,7 @@ pub fn lower_pipe(
 }
 
 /// The fields in a fitting's braces.
-pub const FITTING_FIELDS: &[&str] = &["beta", "angle"];
+pub const FITTING_FIELDS: &[&str] = &["beta", "angle", "rating"];
 /// The fields of `loss { ... }`.
 pub const LOSS_FIELDS: &[&str] = &["k", "equivalent_length", "why"];
 
@@ -618,6 +633,7 @@ pub fn lower_fitting(
         count,
         beta: None,
         angle_rad: None,
+        rating: None,
         span,
     };
     if let Some(body) = body {
@@ -634,6 +650,10 @@ pub fn lower_fitting(
                         )
                         .with_label("not between 0 and 1"),
                     ),
+                    Err(d) => diags.push(d),
+                },
+                "rating" => match super::lower::profile::expect_rating(field.value, env) {
+                    Ok(r) => use_.rating = Some(r),
                     Err(d) => diags.push(d),
                 },
                 _ => match expect_number(field.value, env, "included angle") {

@@ -14,6 +14,7 @@ use crate::model::{ArrangementKind, Design};
 
 mod engineering;
 mod inputs;
+mod safety;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";
@@ -31,6 +32,8 @@ struct Doc<'a> {
     /// Wave 2: each requirement across the cases, with each candidate's status.
     requirement_matrix: Vec<engineering::RequirementOut<'a>>,
     selection: Selection<'a>,
+    /// Issue 14: the candidate whose duties the safety screen uses, and its shut-off.
+    safety: safety::SafetyOut<'a>,
     warnings: Vec<Warn>,
 }
 
@@ -71,6 +74,8 @@ struct Case<'a> {
     segments: Vec<Segment<'a>>,
     system_curve: Vec<Point>,
     pumps: Vec<Pump<'a>>,
+    /// Issue 14: the safety screen of every line.
+    lines: Vec<safety::LineOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -199,7 +204,7 @@ struct Duty<'a> {
 
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
-struct CheckOut<'a> {
+pub(super) struct CheckOut<'a> {
     id: &'static str,
     status: &'static str,
     value: Option<f64>,
@@ -250,11 +255,15 @@ struct Warn {
     column: Option<usize>,
 }
 
-fn finite(v: f64) -> Option<f64> {
+pub(super) fn finite(v: f64) -> Option<f64> {
     v.is_finite().then_some(v)
 }
 
-fn case<'a>(c: &'a CaseResult, d: Option<&'a crate::model::Case>) -> Case<'a> {
+fn case<'a>(
+    c: &'a CaseResult,
+    d: Option<&'a crate::model::Case>,
+    safety_case: Option<&'a crate::analysis::safety::CaseSafety>,
+) -> Case<'a> {
     let s = c.system.as_ref();
     let site = d.map(|d| &d.scenario.site);
     Case {
@@ -337,6 +346,7 @@ fn case<'a>(c: &'a CaseResult, d: Option<&'a crate::model::Case>) -> Case<'a> {
             })
             .collect(),
         pumps: c.pumps.iter().map(pump).collect(),
+        lines: safety::lines(safety_case),
     }
 }
 
@@ -354,7 +364,7 @@ fn design_flow(c: &CaseResult) -> f64 {
         })
 }
 
-fn check(c: &Check) -> CheckOut<'_> {
+pub(super) fn check(c: &Check) -> CheckOut<'_> {
     CheckOut {
         id: c.id.as_str(),
         status: c.status.keyword(),
@@ -469,7 +479,14 @@ pub fn to_json(
         cases: analysis
             .cases
             .iter()
-            .map(|c| case(c, design.cases.iter().find(|d| d.name == c.name)))
+            .enumerate()
+            .map(|(i, c)| {
+                case(
+                    c,
+                    design.cases.iter().find(|d| d.name == c.name),
+                    analysis.safety.cases.get(i),
+                )
+            })
             .collect(),
         candidates: inputs::candidates(design, analysis),
         requirement_matrix: engineering::requirement_matrix(
@@ -502,6 +519,7 @@ pub fn to_json(
                 })
                 .collect(),
         },
+        safety: safety::safety(&analysis.safety),
         warnings,
     };
     let mut s =

@@ -190,10 +190,39 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         }
         _ => {}
     }
+    safety(&mut o, analysis);
     for w in &analysis.warnings {
         let _ = writeln!(o, "warning {}: {}", w.code, w.message);
     }
     o
+}
+
+/// The pressure and surge screen: the checks that do not pass, per case (screening
+/// estimates; the package has the full screen).
+fn safety(o: &mut String, analysis: &Analysis) {
+    use crate::analysis::checks::Status;
+    let s = &analysis.safety;
+    let Some(candidate) = &s.candidate else {
+        return;
+    };
+    let _ = writeln!(o, "\npressure and surge screening (candidate {candidate}; screening estimates, not a transient analysis):");
+    let mut any = false;
+    for c in &s.cases {
+        for k in c.checks.iter().filter(|k| k.status != Status::Pass) {
+            any = true;
+            let _ = writeln!(
+                o,
+                "  {} {} {}: {}",
+                c.case,
+                k.id,
+                k.status.keyword(),
+                k.message
+            );
+        }
+    }
+    if !any {
+        let _ = writeln!(o, "  every screen passes");
+    }
 }
 
 /// The terms a reviewer recomputes at one duty.

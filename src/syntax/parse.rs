@@ -422,7 +422,7 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                     match x.as_rule() {
                         Rule::kw_curve => {
                             keyword = Ident {
-                                name: "curve".into(),
+                                name: x.as_str().into(),
                                 span: span(&x),
                             }
                         }

@@ -147,6 +147,8 @@ fn stray(kind: &StatementKind) -> Option<Diagnostic> {
             .with_help("fields go inside a block such as `project { ... }`; constants are written `let name = value`"),
         StatementKind::Condition { path, .. } => Diagnostic::error(Code::StrayRequirement, "a requirement outside `require { ... }`", Some(path.span))
             .with_help("put requirements inside `require { ... }`"),
+        StatementKind::Curve { keyword, .. } if keyword.name == "profile" => Diagnostic::error(Code::StrayProfile, "a profile outside a line", Some(keyword.span))
+            .with_help("a pipe profile belongs inside `line NAME from A to B { ... }`"),
         StatementKind::Curve { keyword, .. } => Diagnostic::error(Code::StrayCurve, "a curve outside a pump", Some(keyword.span))
             .with_help("curves belong inside `pump NAME { ... }`"),
         StatementKind::Let { .. } | StatementKind::Block { .. } => return None,

@@ -1,13 +1,14 @@
 //! The lines: suction (tank to pump) and discharge (pump to tank), each a series of
 //! pipe segments, and the source and destination tanks they connect.
 
-use super::{duplicate_name, Block, Blocks, MAX_SEGMENTS};
+use super::{duplicate_name, profile, Block, Blocks, MAX_SEGMENTS};
 use crate::diagnostics::Code;
 use crate::diagnostics::{Diagnostic, Span};
 use crate::model::design::*;
 use crate::model::eval::{self, Env};
 use crate::model::fields::missing;
 use crate::model::scenario::lower_segments;
+use crate::model::FileAccess;
 use crate::names::nearest;
 use crate::syntax::ast::{Arg, ArgKind};
 
@@ -23,12 +24,13 @@ pub fn lower_lines(
     blocks: &Blocks,
     tanks: &[Tank],
     env: &Env,
+    files: &dyn FileAccess,
     diags: &mut Vec<Diagnostic>,
 ) -> Network {
     let mut lines: Vec<Line> = Vec::new();
     let errors_before = diags.iter().filter(|x| x.is_error()).count();
     for block in blocks.all("line") {
-        if let Some(line) = lower_line(block, &lines, tanks, env, diags) {
+        if let Some(line) = lower_line(block, &lines, tanks, env, files, diags) {
             lines.push(line);
         }
     }
@@ -53,6 +55,7 @@ fn lower_line(
     earlier: &[Line],
     tanks: &[Tank],
     env: &Env,
+    files: &dyn FileAccess,
     diags: &mut Vec<Diagnostic>,
 ) -> Option<Line> {
     let Some((name, name_span, from, to)) = line_ends(block.args) else {
@@ -83,7 +86,9 @@ fn lower_line(
         diags.push(unknown_tank(&tank_end.0, tank_end.1, tanks));
         return None;
     }
-    let segments = lower_segments(block.statements(), env, diags);
+    let (extras, body) = profile::lower_line_extras(block.statements(), env, files, diags);
+    let segments = lower_segments(&body, env, diags);
+    profile::check_elevation_sources(extras.profile.as_ref(), &segments, diags);
     if segments.is_empty() && block.body.is_some_and(|b| b.is_empty()) || block.body.is_none() {
         diags.push(
             Diagnostic::error(
@@ -100,6 +105,9 @@ fn lower_line(
         from: from.0,
         to: to.0,
         segments,
+        profile: extras.profile,
+        closure_time: extras.closure_time,
+        restraint: extras.restraint,
         span: name_span,
     })
 }

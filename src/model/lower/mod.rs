@@ -10,6 +10,7 @@ mod cases;
 mod constants;
 mod lines;
 mod operation;
+pub(crate) mod profile;
 mod project;
 mod requirements;
 mod setting;
@@ -47,7 +48,7 @@ pub fn lower(
     let texts = project::lower_texts(&blocks, &env, &mut diags);
     let setting = setting::lower_setting(&blocks, &env, &mut diags);
     let tanks = tanks::lower_tanks(&blocks, &env, &mut diags);
-    let network = lines::lower_lines(&blocks, &tanks, &env, &mut diags);
+    let network = lines::lower_lines(&blocks, &tanks, &env, files, &mut diags);
     let pump_list = candidates::lower_candidates(&blocks, &env, files, &mut diags);
     let motor = operation::lower_motor(blocks.body("motor"), texts.project.units, &env, &mut diags);
     let energy = operation::lower_energy(blocks.body("energy"), &env, &mut diags);

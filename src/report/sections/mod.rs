@@ -12,6 +12,7 @@ mod design_basis;
 mod front;
 mod method;
 mod references;
+mod safety;
 mod selection;
 pub(crate) mod sources;
 mod system_curves;
@@ -81,6 +82,7 @@ pub fn document_attached(
     }
     selection::chapter(&mut blocks, design, analysis, &units);
     checks::chapter(&mut blocks, analysis, &units);
+    safety::chapter(&mut blocks, analysis, &units);
     assumptions::chapter(&mut blocks, design, analysis);
     references::chapter(&mut blocks);
     appendix::chapter(&mut blocks, source, sha256);

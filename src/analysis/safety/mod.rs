@@ -1,0 +1,447 @@
+//! Safety screening (issue 14): the hydraulic grade line and the pressure along every
+//! line at each case's duty, at pump shut-off and with the pumps stopped; pressure
+//! ratings; the lowest pressure against vapour pressure and a stated minimum; surge on
+//! pump trip and valve closure. Screening estimates that say when a full transient
+//! analysis or a rating change is needed; they are not a transient analysis.
+//!
+//! The duty screened in a case is the recommended candidate's (else the first
+//! candidate, in design order, that has a duty in some case); the shut-off is that
+//! candidate's at its maximum speed and largest published impeller.
+
+pub mod checks;
+pub mod geometry;
+pub mod grade;
+pub mod rating;
+pub mod surge;
+
+use uom::si::frequency::cycle_per_minute;
+
+use super::checks::Check;
+use super::duty::{stages, CandidateCurves};
+use super::limits;
+use super::system::{CaseSystem, G};
+use super::CaseResult;
+use crate::model::{Adjust, Design, Fluid, Line, Side};
+
+pub use grade::Station;
+pub use rating::SegmentRating;
+pub use surge::{LineSurge, SegmentWave, ValveClosure};
+
+/// The screen of the whole design.
+#[derive(Clone, Debug, Default)]
+pub struct Safety {
+    /// The candidate whose duties and shut-off are screened.
+    pub candidate: Option<String>,
+    pub shutoff: Option<Shutoff>,
+    /// Per case, in design order.
+    pub cases: Vec<CaseSafety>,
+}
+
+/// The shut-off condition: the pump running against a closed discharge.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Shutoff {
+    /// Shut-off head of the arrangement at the maximum speed and largest impeller, m,
+    /// before the test tolerance.
+    pub head: f64,
+    /// The speed (rpm) and impeller (m) it is taken at, and the series stages.
+    pub speed_rpm: f64,
+    pub impeller: Option<f64>,
+    pub stages: u32,
+    /// Test tolerance added to the head (fraction).
+    pub tolerance: f64,
+    /// Highest static suction pressure of any case, Pa gauge, and that case.
+    pub suction_pressure: f64,
+    pub suction_case: String,
+    /// Density the head is turned into pressure with, kg/m³.
+    pub density: f64,
+    /// Pressure rise of the pump at shut-off, ρ·g·H·(1 + tolerance), Pa.
+    pub pressure_rise: f64,
+}
+
+/// One case's screen.
+#[derive(Clone, Debug, Default)]
+pub struct CaseSafety {
+    pub case: String,
+    /// The duty flow screened, m³/s (`None`: no duty in this case).
+    pub flow: Option<f64>,
+    pub lines: Vec<LineSafety>,
+    pub checks: Vec<Check>,
+    /// Remarks (profile length, unrated segments, liquids without a bulk modulus).
+    pub notes: Vec<String>,
+}
+
+/// One line's screen in one case.
+#[derive(Clone, Debug)]
+pub struct LineSafety {
+    pub name: String,
+    pub side: Side,
+    pub profile_source: String,
+    /// Line length, m.
+    pub length: f64,
+    pub stations: Vec<Station>,
+    /// Grade (m) and gauge pressure (Pa) at each station: at duty, static, shut-off.
+    pub grade_duty: Option<Vec<f64>>,
+    pub pressure_duty: Option<Vec<f64>>,
+    pub grade_static: Vec<f64>,
+    pub pressure_static: Vec<f64>,
+    pub pressure_shutoff: Option<Vec<f64>>,
+    /// Pressure at each station after the pump-trip downsurge, Pa gauge.
+    pub pressure_downsurge: Option<Vec<f64>>,
+    /// Per segment of the line: the governing rating.
+    pub ratings: Vec<SegmentRating>,
+    /// Per segment of the line: size label and material.
+    pub segment_labels: Vec<String>,
+    /// Working and transient rating at each station (the weaker at a joint), Pa.
+    pub rating_at: Vec<Option<f64>>,
+    pub transient_at: Vec<Option<f64>>,
+    /// Vapour pressure as a gauge pressure, Pa (negative).
+    pub vapour_gauge: f64,
+    /// The case's liquid density, kg/m³.
+    pub density: f64,
+    /// Duty velocity in each segment of the line, m/s (zero without a duty).
+    pub velocities: Vec<f64>,
+    pub surge: Option<LineSurge>,
+    /// Local high points of the profile: station indices.
+    pub high_points: Vec<usize>,
+}
+
+impl LineSafety {
+    /// Whether station `i` is in the pipe rather than at its tank end, where the
+    /// tank's surface fixes the pressure and reflects a surge (the suction line's
+    /// upstream end, the discharge line's downstream end).
+    pub fn in_pipe(&self, i: usize) -> bool {
+        let st = &self.stations[i];
+        match self.side {
+            Side::Suction => st.chainage > 0.0,
+            Side::Discharge => st.chainage < self.length,
+        }
+    }
+
+    /// Lowest duty pressure in the pipe (tank end excluded) and the station it is at.
+    pub fn min_duty(&self) -> Option<(f64, usize)> {
+        let p = self.pressure_duty.as_deref()?;
+        (0..p.len())
+            .filter(|&i| self.in_pipe(i))
+            .map(|i| (p[i], i))
+            .min_by(|a, b| a.0.total_cmp(&b.0))
+    }
+}
+
+/// The largest value and its index.
+pub fn max_at(v: &[f64]) -> Option<(f64, usize)> {
+    v.iter()
+        .enumerate()
+        .map(|(i, x)| (*x, i))
+        .max_by(|a, b| a.0.total_cmp(&b.0))
+}
+
+/// Screen every case.
+pub fn screen(
+    design: &Design,
+    cases: &[CaseResult],
+    candidates: &[CandidateCurves],
+    recommended: Option<&str>,
+) -> Safety {
+    let k = screened_candidate(design, cases, recommended);
+    let shutoff = k.and_then(|k| shutoff(design, cases, &candidates[k], k));
+    let cases_out = design
+        .cases
+        .iter()
+        .zip(cases)
+        .map(|(case, result)| {
+            let flow = k.and_then(|k| result.pumps.get(k)?.duty.as_ref().map(|d| d.flow));
+            match &result.system {
+                Some(sys) => case_screen(
+                    design,
+                    &case.scenario.lines,
+                    &case.scenario.fluid,
+                    sys,
+                    flow,
+                    shutoff.as_ref(),
+                    &result.name,
+                ),
+                None => CaseSafety {
+                    case: result.name.clone(),
+                    ..Default::default()
+                },
+            }
+        })
+        .collect();
+    Safety {
+        candidate: k.map(|k| design.pumps[k].name.clone()),
+        shutoff,
+        cases: cases_out,
+    }
+}
+
+/// The recommended candidate, else the first with a duty in some case.
+fn screened_candidate(
+    design: &Design,
+    cases: &[CaseResult],
+    recommended: Option<&str>,
+) -> Option<usize> {
+    recommended
+        .and_then(|r| design.pumps.iter().position(|p| p.name == r))
+        .or_else(|| {
+            (0..design.pumps.len()).find(|k| {
+                cases
+                    .iter()
+                    .any(|c| c.pumps.get(*k).is_some_and(|p| p.duty.is_some()))
+            })
+        })
+}
+
+/// Shut-off head at the maximum speed and largest impeller of candidate `k`, and the
+/// pressure it adds: ρ_cold·g·H₀·(1 + tolerance) on the highest suction pressure.
+fn shutoff(
+    design: &Design,
+    cases: &[CaseResult],
+    cc: &CandidateCurves,
+    k: usize,
+) -> Option<Shutoff> {
+    let p = &design.pumps[k];
+    let largest = cc
+        .published
+        .iter()
+        .filter_map(|r| r.as_ref().ok())
+        .max_by(|a, b| {
+            a.impeller_diameter_m
+                .unwrap_or(0.0)
+                .total_cmp(&b.impeller_diameter_m.unwrap_or(0.0))
+        })?;
+    let mut ratio: f64 = match p.adjust {
+        Adjust::Speed { max_ratio, .. } => max_ratio.max(1.0),
+        _ => 1.0,
+    };
+    for case in &design.cases {
+        for (name, s) in &case.scenario.pump_speeds {
+            if *name == p.name {
+                ratio = ratio.max(s.get::<cycle_per_minute>() / largest.speed_rpm);
+            }
+        }
+    }
+    let (_, ser) = stages(p);
+    let (q0, _) = largest.head.domain();
+    let head = ser as f64 * largest.head.eval(q0.max(0.0)) * ratio * ratio;
+    let (suction_pressure, suction_case) = cases
+        .iter()
+        .filter_map(|c| {
+            c.system
+                .as_ref()
+                .map(|s| (suction_static_pressure(s), c.name.clone()))
+        })
+        .max_by(|a, b| a.0.total_cmp(&b.0))?;
+    let tolerance = limits::SHUTOFF_TOLERANCE.value;
+    let density = limits::COLD_WATER_DENSITY.value;
+    Some(Shutoff {
+        head,
+        speed_rpm: largest.speed_rpm * ratio,
+        impeller: largest.impeller_diameter_m,
+        stages: ser,
+        tolerance,
+        suction_pressure,
+        suction_case,
+        density,
+        pressure_rise: density * G * head * (1.0 + tolerance),
+    })
+}
+
+/// Static gauge pressure at the pump suction with no flow, Pa.
+pub fn suction_static_pressure(sys: &CaseSystem) -> f64 {
+    (sys.source_abs_pa - sys.barometric_pa)
+        + sys.fluid.density * G * (sys.source_level - sys.centreline)
+}
+
+/// The screen of one case: every line, then its checks.
+fn case_screen(
+    design: &Design,
+    lines: &[Line],
+    fluid: &Fluid,
+    sys: &CaseSystem,
+    flow: Option<f64>,
+    shutoff: Option<&Shutoff>,
+    name: &str,
+) -> CaseSafety {
+    let temperature = match fluid {
+        Fluid::Water { .. } => sys.fluid.temperature_k,
+        Fluid::Custom(c) => c
+            .temperature
+            .map(|t| t.get::<uom::si::thermodynamic_temperature::kelvin>()),
+    };
+    let mut out = CaseSafety {
+        case: name.to_string(),
+        flow,
+        ..Default::default()
+    };
+    let k = surge::bulk_modulus(sys);
+    if k.is_none() {
+        out.notes.push(format!("case {name}: no bulk modulus for `{}`; the surge screen needs water or a liquid with a stated bulk modulus, and is not done", sys.fluid.name));
+    }
+    for line in lines {
+        let ls = line_screen(line, sys, flow, shutoff, temperature, k, &mut out.notes);
+        out.lines.push(ls);
+    }
+    out.checks = checks::line_checks(design, &out);
+    out
+}
+
+/// The screen of one line.
+fn line_screen(
+    line: &Line,
+    sys: &CaseSystem,
+    flow: Option<f64>,
+    shutoff: Option<&Shutoff>,
+    temperature: Option<f64>,
+    k: Option<f64>,
+    notes: &mut Vec<String>,
+) -> LineSafety {
+    let rho = sys.fluid.density;
+    let ends = match line.side {
+        Side::Suction => (sys.source_level, sys.centreline),
+        Side::Discharge => (sys.centreline, sys.destination_level),
+    };
+    let profile = geometry::line_profile(line, ends);
+    notes.extend(profile.warning.clone());
+    let stations = grade::stations(sys, &line.name, &profile);
+    let grade_duty = flow.map(|q| grade::grade_at(sys, &stations, q));
+    let pressure_duty = grade_duty
+        .as_ref()
+        .map(|g| grade::pressures(&stations, g, rho));
+    let grade_static = grade::static_grade(sys, &stations);
+    let pressure_static = grade::pressures(&stations, &grade_static, rho);
+    let pressure_shutoff = match (line.side, shutoff) {
+        (Side::Discharge, Some(so)) => Some(
+            stations
+                .iter()
+                .map(|st| {
+                    so.suction_pressure
+                        + so.pressure_rise
+                        + so.density * G * (sys.centreline - st.elevation)
+                })
+                .collect(),
+        ),
+        _ => None,
+    };
+    let first_segment = stations.first().map(|s| s.segment).unwrap_or(0);
+    let ratings: Vec<SegmentRating> = line
+        .segments
+        .iter()
+        .map(|s| rating::segment_rating(s, temperature))
+        .collect();
+    let rating_at = at_stations(&stations, first_segment, &ratings, |r| r.working);
+    let transient_at = at_stations(&stations, first_segment, &ratings, |r| r.transient);
+    let velocities: Vec<f64> = (0..line.segments.len())
+        .map(|i| {
+            flow.map(|q| q / sys.segments[first_segment + i].area)
+                .unwrap_or(0.0)
+        })
+        .collect();
+    let surge = k.and_then(|k| {
+        let p_mean = pressure_duty
+            .as_ref()
+            .map(|p| p.iter().sum::<f64>() / p.len().max(1) as f64)
+            .unwrap_or(0.0)
+            + sys.barometric_pa;
+        let waves = line
+            .segments
+            .iter()
+            .map(|s| surge::segment_wave(s, line, k, rho, p_mean.max(sys.fluid.vapor_pressure)))
+            .collect();
+        let areas: Vec<f64> = (0..line.segments.len())
+            .map(|i| sys.segments[first_segment + i].area)
+            .collect();
+        surge::line_surge(line, waves, &areas, flow.unwrap_or(0.0))
+    });
+    let pressure_downsurge = match (&surge, &pressure_duty, line.side) {
+        (Some(sg), Some(p), Side::Discharge) => Some(
+            p.iter()
+                .map(|p| {
+                    (p - rho * G * sg.joukowsky_head)
+                        .max(sys.fluid.vapor_pressure - sys.barometric_pa)
+                })
+                .collect(),
+        ),
+        _ => None,
+    };
+    let high_points = high_points(&stations);
+    LineSafety {
+        name: line.name.clone(),
+        side: line.side,
+        profile_source: profile.source.clone(),
+        length: profile.length,
+        segment_labels: line
+            .segments
+            .iter()
+            .map(|s| format!("{} {}", s.material.keyword(), s.size_label))
+            .collect(),
+        stations,
+        grade_duty,
+        pressure_duty,
+        grade_static,
+        pressure_static,
+        pressure_shutoff,
+        pressure_downsurge,
+        ratings,
+        rating_at,
+        transient_at,
+        vapour_gauge: sys.fluid.vapor_pressure - sys.barometric_pa,
+        density: rho,
+        velocities,
+        surge,
+        high_points,
+    }
+}
+
+/// A per-segment rating at each station; at a joint (the same chainage as the
+/// neighbouring segment's end) the weaker of the two.
+fn at_stations(
+    stations: &[Station],
+    first: usize,
+    ratings: &[SegmentRating],
+    pick: impl Fn(&SegmentRating) -> Option<f64>,
+) -> Vec<Option<f64>> {
+    let mut out: Vec<Option<f64>> = stations
+        .iter()
+        .map(|st| pick(&ratings[st.segment - first]))
+        .collect();
+    for i in 1..stations.len() {
+        if stations[i].chainage == stations[i - 1].chainage {
+            let weaker = match (out[i - 1], out[i]) {
+                (Some(a), Some(b)) => Some(a.min(b)),
+                _ => None,
+            };
+            out[i - 1] = weaker;
+            out[i] = weaker;
+        }
+    }
+    out
+}
+
+/// Stations at a local high point of the profile (higher than the neighbours on
+/// both sides, ends excluded).
+fn high_points(stations: &[Station]) -> Vec<usize> {
+    let mut out = Vec::new();
+    for i in 1..stations.len().saturating_sub(1) {
+        let z = stations[i].elevation;
+        let before = stations[..i]
+            .iter()
+            .rev()
+            .find(|s| s.elevation != z)
+            .map(|s| s.elevation);
+        let after = stations[i + 1..]
+            .iter()
+            .find(|s| s.elevation != z)
+            .map(|s| s.elevation);
+        if let (Some(b), Some(a)) = (before, after) {
+            if z > b
+                && z > a
+                && out
+                    .last()
+                    .is_none_or(|&j: &usize| stations[j].elevation != z)
+            {
+                out.push(i);
+            }
+        }
+    }
+    out
+}

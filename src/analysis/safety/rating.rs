@@ -1,0 +1,97 @@
+//! The governing pressure rating of each segment: the pipe's rating by its standard
+//! ([`crate::hydraulics::ratings`]) or the rating the design gives, and the ratings of
+//! the fittings on it; the weakest governs.
+
+use uom::si::{length::meter, pressure::pascal};
+
+use crate::hydraulics::ratings::{self, RatingInput};
+use crate::model::Segment;
+
+/// The rating that governs one segment.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SegmentRating {
+    /// Highest operating pressure allowed, Pa gauge (`None`: not rated).
+    pub working: Option<f64>,
+    /// Highest pressure allowed during a surge, Pa gauge.
+    pub transient: Option<f64>,
+    /// How the pipe's rating was found by its standard (`None`: stated or not rated).
+    pub basis: Option<ratings::Basis>,
+    /// What else governs, or why there is no rating, in words without numbers.
+    pub note: String,
+    /// The publication, or "given in the design".
+    pub source: String,
+}
+
+impl SegmentRating {
+    /// The basis in words: the standard's computation (numbers by `pressure`, Pa, and
+    /// `length`, m) and the note.
+    pub fn describe(
+        &self,
+        pressure: &dyn Fn(f64) -> String,
+        length: &dyn Fn(f64) -> String,
+    ) -> String {
+        match (&self.basis, self.note.is_empty()) {
+            (Some(b), true) => b.describe(pressure, length),
+            (Some(b), false) => format!("{}; {}", self.note, b.describe(pressure, length)),
+            (None, _) => self.note.clone(),
+        }
+    }
+}
+
+/// The governing rating of a model segment for a liquid at `temperature_k`.
+pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRating {
+    let w = &seg.wall;
+    let mut out = match w.rating {
+        Some(r) => SegmentRating {
+            working: Some(r.get::<pascal>()),
+            transient: Some(r.get::<pascal>()),
+            basis: None,
+            note: "pipe rating given in the design (no surge allowance added)".into(),
+            source: "given in the design".into(),
+        },
+        None => {
+            let input = RatingInput {
+                material: Some(seg.material),
+                outer_diameter: w.outer_diameter.map(|d| d.get::<meter>()),
+                wall: w.thickness.map(|t| t.get::<meter>()),
+                designation: w.designation.as_deref(),
+                threaded: w.threaded,
+                corrosion_allowance: w.corrosion_allowance.map(|c| c.get::<meter>()),
+                temperature_k,
+            };
+            match ratings::pipe_rating(&input) {
+                Ok(r) => SegmentRating {
+                    working: Some(r.working_pa),
+                    transient: Some(r.transient_pa),
+                    basis: Some(r.basis),
+                    note: String::new(),
+                    source: r.source.to_string(),
+                },
+                Err(why) => SegmentRating {
+                    working: None,
+                    transient: None,
+                    basis: None,
+                    note: why,
+                    source: String::new(),
+                },
+            }
+        }
+    };
+    for f in &seg.fittings {
+        let Some(r) = f.rating.map(|r| r.get::<pascal>()) else {
+            continue;
+        };
+        if out.working.is_none_or(|w| r < w) {
+            out.working = Some(r);
+            out.note = format!(
+                "fitting {}, rated in the design, is weaker than the pipe and governs",
+                f.spec.name
+            );
+            out.source = "given in the design".into();
+        }
+        if out.transient.is_none_or(|t| r < t) {
+            out.transient = Some(r);
+        }
+    }
+    out
+}

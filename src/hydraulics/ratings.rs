@@ -1,0 +1,387 @@
+//! Pressure ratings of pipe, each by its own standard's convention. SI (Pa gauge).
+//!
+//! - Ductile iron: the AWWA C150/C151 pressure class is the rated working pressure in
+//!   psi; the wall design already carries a 100 psi surge allowance, so the class
+//!   limits the operating pressure and class + 100 psi the transient, and no second
+//!   allowance is taken.
+//! - PVC schedule pipe (ASTM D1785): P = 2·S·t/(D − t) with the hydrostatic design
+//!   stress S = 2 000 psi of PVC 1120 (12454) at 73 °F (the formula of D1785's
+//!   appendix, ISO 161/1 form), times the temperature factor, times 0.5 for threaded
+//!   pipe. The rating is for water without shock: no surge allowance.
+//! - HDPE: PR = 2·HDS·F_T/(DR − 1), HDS = 1 000 psi for PE4710 at 73 °F (PPI TR-4), so
+//!   DR 17 is 125 psi; AWWA C906 allows an occasional surge up to 2·PR and a recurring
+//!   surge up to 1.5·PR in total pressure.
+//! - Steel and stainless: ASME B31.3 §304.1.2, P = 2·t·S·E·W/(D − 2·Y·t) with
+//!   t = 0.875·T − c (12.5 % mill tolerance of seamless pipe, corrosion and thread
+//!   allowance c), S = 20.0 ksi (A106 Grade B, A312 TP304, to 100 °F, Table A-1),
+//!   E = 1.0 (seamless), W = 1.0, Y = 0.4; §302.2.4 allows occasional variations up to
+//!   1.33 times the design pressure.
+//!
+//! Every tabulated constant here is recalled, not read from the edition in force:
+//! each source string says "from memory".
+
+use super::catalogue::Material;
+
+/// One psi in pascals (NIST SP 811, B.8: 6.894 757 kPa).
+pub const PSI: f64 = 6_894.757_293_168;
+
+/// The rating of one pipe segment.
+#[derive(Clone, Debug, PartialEq)]
+pub struct PipeRating {
+    /// The highest operating (steady) pressure allowed, Pa gauge.
+    pub working_pa: f64,
+    /// The highest pressure allowed during a surge (working + the standard's surge
+    /// allowance), Pa gauge.
+    pub transient_pa: f64,
+    /// How the number was found (the inputs of the formula, SI).
+    pub basis: Basis,
+    /// The publications, with "from memory" where recalled.
+    pub source: &'static str,
+}
+
+/// The inputs of a rating, SI, for the package to print in its own units.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Basis {
+    /// AWWA C150/C151 pressure class (psi, as the standard names it).
+    DuctileIron { class: f64 },
+    /// ASTM D1785: S (Pa), t and D (m), the rating at 73 °F (Pa), the temperature
+    /// factor, threaded.
+    Pvc {
+        stress: f64,
+        wall: f64,
+        outer_diameter: f64,
+        at_73: f64,
+        factor: f64,
+        threaded: bool,
+    },
+    /// PE4710: HDS (Pa), temperature factor, DR, PR (Pa).
+    Hdpe {
+        stress: f64,
+        factor: f64,
+        dr: f64,
+        pr: f64,
+    },
+    /// ASME B31.3: nominal wall, corrosion and thread allowances, the wall left t (m),
+    /// S (Pa), D (m), P (Pa).
+    Steel {
+        wall: f64,
+        corrosion: f64,
+        thread: f64,
+        t: f64,
+        stress: f64,
+        outer_diameter: f64,
+        p: f64,
+    },
+}
+
+impl Basis {
+    /// The computation in words, numbers formatted by `pressure` (Pa) and `length` (m)
+    /// in the reader's units.
+    pub fn describe(
+        &self,
+        pressure: &dyn Fn(f64) -> String,
+        length: &dyn Fn(f64) -> String,
+    ) -> String {
+        match *self {
+            Basis::DuctileIron { class } => format!(
+                "pressure class {class:.0}: rated working pressure {}; the class includes a surge allowance of {} (transient limit {}), no second allowance",
+                pressure(class * PSI),
+                pressure(100.0 * PSI),
+                pressure((class + 100.0) * PSI)
+            ),
+            Basis::Pvc { stress, wall, outer_diameter, at_73, factor, threaded } => format!(
+                "P = 2·S·t/(D − t) = 2 × {} × {} / ({} − {}) = {} at the standard's reference temperature; × {factor:.2} (temperature){}; no surge allowance (rating for water without shock)",
+                pressure(stress),
+                length(wall),
+                length(outer_diameter),
+                length(wall),
+                pressure(at_73),
+                if threaded { "; × 0.5 threaded" } else { "" }
+            ),
+            Basis::Hdpe { stress, factor, dr, pr } => format!(
+                "PR = 2·HDS·F/(DR − 1) = 2 × {} × {factor:.2} / ({dr} − 1) = {} (PE4710); occasional surge to 2·PR = {}, recurring surge to 1.5·PR = {}",
+                pressure(stress),
+                pressure(pr),
+                pressure(2.0 * pr),
+                pressure(1.5 * pr)
+            ),
+            Basis::Steel { wall, corrosion, thread, t, stress, outer_diameter, p } => format!(
+                "P = 2·t·S·E·W/(D − 2·Y·t), t = 0.875 × {} − {} corrosion{} = {}, S = {}, E = 1.0, W = 1.0, Y = 0.4, D = {}: {}; occasional variation to 1.33 × = {}",
+                length(wall),
+                length(corrosion),
+                if thread > 0.0 { format!(" − {} thread", length(thread)) } else { String::new() },
+                length(t),
+                pressure(stress),
+                length(outer_diameter),
+                pressure(p),
+                pressure(1.33 * p)
+            ),
+        }
+    }
+}
+
+/// What a rating needs to know of a segment.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct RatingInput<'a> {
+    pub material: Option<Material>,
+    /// Outside diameter, m.
+    pub outer_diameter: Option<f64>,
+    /// Wall thickness as the catalogue gives it (nominal; minimum for PVC, HDPE), m.
+    pub wall: Option<f64>,
+    /// `schedule 40`, `class 350`, `DR 17`.
+    pub designation: Option<&'a str>,
+    pub threaded: bool,
+    /// Corrosion allowance, m (steel); `None` takes the default.
+    pub corrosion_allowance: Option<f64>,
+    /// Liquid temperature, K; `None` takes 73 °F (23 °C).
+    pub temperature_k: Option<f64>,
+}
+
+/// Default corrosion allowance of carbon and galvanized steel, 1/16 in = 1.5875 mm
+/// (common practice for water service); stainless takes none.
+pub const STEEL_CORROSION_ALLOWANCE: f64 = 0.0015875;
+
+/// The rating of a segment by its material's standard, or why there is none.
+pub fn pipe_rating(input: &RatingInput) -> Result<PipeRating, String> {
+    let material = input.material.ok_or("no material")?;
+    match material {
+        Material::DuctileIron | Material::CementLinedDuctileIron => ductile_iron(input),
+        Material::Pvc => pvc(input),
+        Material::Hdpe => hdpe(input),
+        Material::Steel | Material::Galvanized | Material::Stainless => steel(input, material),
+        _ => Err(format!(
+            "dutyline has no rating rule for {} pipe: give `rating = ...` from the manufacturer",
+            material.keyword()
+        )),
+    }
+}
+
+/// The number after a designation word: `class 350` → 350, `DR 17` → 17.
+fn designation_number(input: &RatingInput, word: &str) -> Option<f64> {
+    let d = input.designation?;
+    let rest = d.strip_prefix(word)?.trim();
+    rest.parse::<f64>().ok().filter(|x| x.is_finite())
+}
+
+fn ductile_iron(input: &RatingInput) -> Result<PipeRating, String> {
+    let class = designation_number(input, "class")
+        .ok_or("ductile iron without a pressure class: give `class` in the size or `rating`")?;
+    Ok(PipeRating {
+        working_pa: class * PSI,
+        transient_pa: (class + 100.0) * PSI,
+        basis: Basis::DuctileIron { class },
+        source: "ANSI/AWWA C150/A21.50 (thickness design with its surge allowance) and C151/A21.51 (pressure classes) (from memory)",
+    })
+}
+
+/// Temperature factor of a thermoplastic rating: linear between the points, 1.0 at
+/// and below the first; `Err` above the last (not rated).
+fn temperature_factor(table: &[(f64, f64)], temperature_k: f64, what: &str) -> Result<f64, String> {
+    let f = (temperature_k - 273.15) * 1.8 + 32.0;
+    let (first, last) = (table[0], table[table.len() - 1]);
+    if f <= first.0 {
+        return Ok(first.1);
+    }
+    if f > last.0 {
+        return Err(format!(
+            "{what} is not rated above {:.0} degF; the case's liquid is at {f:.0} degF",
+            last.0
+        ));
+    }
+    let i = table
+        .iter()
+        .position(|(t, _)| *t >= f)
+        .unwrap_or(table.len() - 1);
+    let ((t0, k0), (t1, k1)) = (table[i - 1], table[i]);
+    Ok(k0 + (k1 - k0) * (f - t0) / (t1 - t0))
+}
+
+/// PVC temperature factors (°F, factor) of the 73 °F rating (PPFA *Users' Guide*,
+/// common manufacturer tables, from memory).
+pub const PVC_TEMPERATURE_FACTORS: &[(f64, f64)] = &[
+    (73.0, 1.00),
+    (80.0, 0.88),
+    (90.0, 0.75),
+    (100.0, 0.62),
+    (110.0, 0.51),
+    (120.0, 0.40),
+    (130.0, 0.31),
+    (140.0, 0.22),
+];
+
+/// HDPE temperature factors (°F, factor) of the 73 °F pressure rating (PPI *Handbook of
+/// Polyethylene Pipe*, 2nd ed., ch. 6, and AWWA M55, from memory).
+pub const HDPE_TEMPERATURE_FACTORS: &[(f64, f64)] = &[
+    (80.0, 1.00),
+    (90.0, 0.90),
+    (100.0, 0.80),
+    (110.0, 0.75),
+    (120.0, 0.65),
+    (130.0, 0.60),
+    (140.0, 0.50),
+];
+
+/// Hydrostatic design stress of PVC 1120 (cell class 12454) at 73 °F, 2 000 psi.
+pub const PVC_HDS_PSI: f64 = 2_000.0;
+/// Hydrostatic design stress of PE4710 at 73 °F, 1 000 psi.
+pub const PE4710_HDS_PSI: f64 = 1_000.0;
+
+fn temperature(input: &RatingInput) -> f64 {
+    input.temperature_k.unwrap_or(296.15)
+}
+
+fn pvc(input: &RatingInput) -> Result<PipeRating, String> {
+    let (Some(d), Some(t)) = (input.outer_diameter, input.wall) else {
+        return Err("PVC given by bore: no ASTM D1785 wall to rate; give `rating = ...`".into());
+    };
+    let at_73 = 2.0 * PVC_HDS_PSI * t / (d - t);
+    let factor = temperature_factor(PVC_TEMPERATURE_FACTORS, temperature(input), "PVC")?;
+    let thread = if input.threaded { 0.5 } else { 1.0 };
+    let psi = at_73 * factor * thread;
+    Ok(PipeRating {
+        working_pa: psi * PSI,
+        transient_pa: psi * PSI,
+        basis: Basis::Pvc {
+            stress: PVC_HDS_PSI * PSI,
+            wall: t,
+            outer_diameter: d,
+            at_73: at_73 * PSI,
+            factor,
+            threaded: input.threaded,
+        },
+        source: "ASTM D1785, Appendix X1 (rating formula, hydrostatic design stress of PVC 1120); PPFA temperature factors; threaded pipe at 50 % (from memory)",
+    })
+}
+
+fn hdpe(input: &RatingInput) -> Result<PipeRating, String> {
+    let dr = designation_number(input, "DR")
+        .ok_or("HDPE without a DR: give `DR` in the size or `rating`")?;
+    if dr <= 1.0 {
+        return Err("a DR of 1 or less has no wall".into());
+    }
+    let factor = temperature_factor(HDPE_TEMPERATURE_FACTORS, temperature(input), "PE4710")?;
+    let pr = 2.0 * PE4710_HDS_PSI * factor / (dr - 1.0);
+    Ok(PipeRating {
+        working_pa: pr * PSI,
+        transient_pa: 2.0 * pr * PSI,
+        basis: Basis::Hdpe {
+            stress: PE4710_HDS_PSI * PSI,
+            factor,
+            dr,
+            pr: pr * PSI,
+        },
+        source: "PPI TR-4 (hydrostatic design stress of PE4710); AWWA C906-15 and M55 (PR formula, surge allowances) (from memory)",
+    })
+}
+
+/// Allowable stress of A106 Grade B and A312 TP304 at up to 100 °F, 20.0 ksi.
+pub const STEEL_ALLOWABLE_PSI: f64 = 20_000.0;
+
+/// Thread height h = 0.8·p of an NPT thread (ASME B1.20.1, from memory), with the
+/// threads per inch by outside diameter (27 for NPS 1/8, 18 to 3/8, 14 to 3/4, 11.5 to
+/// 2, 8 above), m.
+pub fn npt_thread_depth(outer_diameter: f64) -> f64 {
+    let od_in = outer_diameter / 0.0254;
+    let tpi = match od_in {
+        x if x <= 0.41 => 27.0,
+        x if x <= 0.68 => 18.0,
+        x if x <= 1.06 => 14.0,
+        x if x <= 2.38 => 11.5,
+        _ => 8.0,
+    };
+    0.8 / tpi * 0.0254
+}
+
+fn steel(input: &RatingInput, material: Material) -> Result<PipeRating, String> {
+    let (Some(d), Some(wall)) = (input.outer_diameter, input.wall) else {
+        return Err(format!(
+            "{} pipe given by bore: no wall to rate; give `rating = ...` or `wall = ...` with a catalogue size",
+            material.keyword()
+        ));
+    };
+    let c_default = if material == Material::Stainless {
+        0.0
+    } else {
+        STEEL_CORROSION_ALLOWANCE
+    };
+    let corrosion = input.corrosion_allowance.unwrap_or(c_default);
+    let thread = if input.threaded {
+        npt_thread_depth(d)
+    } else {
+        0.0
+    };
+    let t = 0.875 * wall - corrosion - thread;
+    if t <= 0.0 {
+        return Err(format!(
+            "the wall after mill tolerance and allowances is {:.2} mm: none left to carry pressure",
+            t * 1000.0
+        ));
+    }
+    let (s, e, w, y) = (STEEL_ALLOWABLE_PSI, 1.0, 1.0, 0.4);
+    let psi = 2.0 * t * s * e * w / (d - 2.0 * y * t);
+    Ok(PipeRating {
+        working_pa: psi * PSI,
+        transient_pa: 1.33 * psi * PSI,
+        basis: Basis::Steel {
+            wall,
+            corrosion,
+            thread,
+            t,
+            stress: s * PSI,
+            outer_diameter: d,
+            p: psi * PSI,
+        },
+        source: "ASME B31.3, §304.1.2 eq. (3a), Table A-1 (A106 Grade B, A312 TP304, at ambient), §302.2.4 (occasional variations) (from memory)",
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn hdpe_dr17_pe4710_is_125_psi() {
+        // PR = 2·1000/(17 − 1) = 125 psi (AWWA C906 pressure class table, PE4710 DR 17).
+        let r = pipe_rating(&RatingInput {
+            material: Some(Material::Hdpe),
+            designation: Some("DR 17"),
+            ..Default::default()
+        })
+        .unwrap();
+        assert!((r.working_pa / PSI - 125.0).abs() < 1e-9);
+        assert!((r.transient_pa / PSI - 250.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn ductile_iron_class_is_the_working_pressure_without_a_second_allowance() {
+        let r = pipe_rating(&RatingInput {
+            material: Some(Material::DuctileIron),
+            designation: Some("class 350"),
+            ..Default::default()
+        })
+        .unwrap();
+        assert!((r.working_pa / PSI - 350.0).abs() < 1e-9);
+        assert!((r.transient_pa / PSI - 450.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn pvc_above_140_degf_is_not_rated() {
+        let e = pipe_rating(&RatingInput {
+            material: Some(Material::Pvc),
+            outer_diameter: Some(0.2191),
+            wall: Some(0.00818),
+            temperature_k: Some(340.0),
+            ..Default::default()
+        });
+        assert!(e.is_err());
+    }
+
+    #[test]
+    fn copper_has_no_rule() {
+        assert!(pipe_rating(&RatingInput {
+            material: Some(Material::Copper),
+            ..Default::default()
+        })
+        .is_err());
+    }
+}
