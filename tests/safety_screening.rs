@@ -340,7 +340,7 @@ fn kestrel_valve_rating_governs_the_header_and_fails_the_surge_screen_at_peak() 
     let d = c.lines.iter().find(|l| l.name == "discharge").unwrap();
     // The PN16 butterfly valve (1600 kPa) is weaker than the stainless header.
     assert!((d.ratings[0].working.unwrap() - 1.6e6).abs() < 1e-6);
-    assert!(d.ratings[0].note.contains("butterfly_valve"));
+    assert!(d.ratings[0].note.contains("butterfly valve"));
     // Ductile iron class 350: 350 psi working (AWWA C151).
     assert!((d.ratings[1].working.unwrap() / PSI - 350.0).abs() < 1e-9);
     assert_eq!(

@@ -372,7 +372,7 @@ fn line_screen(
         segment_labels: line
             .segments
             .iter()
-            .map(|s| format!("{} {}", s.material.keyword(), s.size_label))
+            .map(|s| format!("{} {}", s.material.keyword().replace('_', " "), s.size_label))
             .collect(),
         stations,
         grade_duty,

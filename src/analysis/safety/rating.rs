@@ -84,8 +84,8 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
         if out.working.is_none_or(|w| r < w) {
             out.working = Some(r);
             out.note = format!(
-                "fitting {}, rated in the design, is weaker than the pipe and governs",
-                f.spec.name
+                "the {} (rated in the design) is weaker than the pipe and governs",
+                f.spec.description.split(" (").next().unwrap_or(f.spec.description)
             );
             out.source = "given in the design".into();
         }
