@@ -433,6 +433,30 @@ impl Units {
     }
 }
 
+/// A pipe's material and size as a reader of these units expects them: the material in
+/// words, an inch nominal size as its DN in SI (and a DN as inches in US units), and a
+/// given bore as its inner diameter in report units. `label` is the size as written.
+pub fn pipe(material_keyword: &str, label: &str, inner_diameter_m: f64, units: &Units) -> String {
+    let size = if label.starts_with("bore ") {
+        format!("bore {}", units.diameter().text(inner_diameter_m))
+    } else {
+        match crate::hydraulics::catalogue::Material::from_keyword(material_keyword) {
+            Some(m) => crate::hydraulics::catalogue::size_for_print(
+                m,
+                label,
+                units.system == ReportUnits::Si,
+            ),
+            None => label.to_string(),
+        }
+    };
+    format!("{} {size}", material_keyword.replace('_', " "))
+}
+
+/// A count with its noun: "1 warning", "5 warnings".
+pub fn count(n: usize, one: &str, many: &str) -> String {
+    format!("{n} {}", if n == 1 { one } else { many })
+}
+
 /// A fraction as a percentage, "76.5 %".
 pub fn percent(f: f64) -> String {
     format!("{:.1} %", 100.0 * f)

@@ -221,6 +221,22 @@ fn a_us_package_prints_no_si_value_and_an_si_package_no_us_value() {
                     if us { "US package" } else { "SI package" }
                 );
             }
+            if !us {
+                // Inches after a number ("16 in"): "in" alone is also an English word.
+                let ws = words(text);
+                for pair in ws.windows(3) {
+                    let numeric = pair[0]
+                        .chars()
+                        .all(|c| c.is_ascii_digit() || "./-".contains(c));
+                    let arrangement = ["parallel", "series"].contains(&pair[2]);
+                    assert!(
+                        !(numeric && pair[1] == "in" && !arrangement),
+                        "{demo}: page {} prints {} in",
+                        k + 1,
+                        pair[0]
+                    );
+                }
+            }
             if us {
                 assert!(!text.contains("kWh/m³"), "{demo}: page {}", k + 1);
             } else {

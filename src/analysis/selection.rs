@@ -172,7 +172,10 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
         };
         let qualifies = fails.is_empty();
         let why = if qualifies {
-            format!("qualifies: every case analysed with a duty point, no failing check ({warnings} warning(s))")
+            format!(
+                "qualifies: every case analysed with a duty point, no failing check ({})",
+                crate::display::count(warnings, "warning", "warnings")
+            )
         } else {
             format!(
                 "does not qualify: {}",

@@ -27,6 +27,7 @@ mod nonsteel;
 mod series;
 mod steel;
 
+pub use nominal::size_for_print;
 pub use series::{pipe_size, sizes};
 
 /// The nominal diameter Dn (inches) that Darby's 3-K method needs, from an actual

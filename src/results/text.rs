@@ -64,11 +64,10 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         for g in &s.segments {
             let _ = writeln!(
                 o,
-                "  segment {} {}: {} {}, ID {}, length {}, {}",
+                "  segment {} {}: {}, ID {}, length {}, {}",
                 g.line,
                 g.index + 1,
-                g.material.replace('_', " "),
-                g.size_label,
+                crate::display::pipe(g.material, &g.size_label, g.inner_diameter, &u),
                 dia.fmt(g.inner_diameter),
                 len.fmt(g.length),
                 match g.hazen_williams_c {

@@ -86,6 +86,49 @@ pub(super) fn parse_nominal(material: Material, text: &str) -> Result<u16, Nomin
     Ok(rounded as u16)
 }
 
+/// A pipe's size designation for print in the other unit system: an inch nominal
+/// size ("16 in class 350") as its DN ("DN 400 class 350", by the DN column of ASME
+/// B36.10M / B36.19M; ductile iron by the same series, common practice), copper tube by
+/// its ASTM B88 size number, and a DN ("DN150 schedule 40") as its inch size ("6 in
+/// schedule 40"). `metric` is the system printed; a label already in it, or one this
+/// cannot read, comes back unchanged.
+pub fn size_for_print(material: Material, label: &str, metric: bool) -> String {
+    let (size, rest) = match label.split_once(" in ") {
+        Some((size, rest)) if metric => (size, rest),
+        _ => return dn_as_inches(label, metric).unwrap_or_else(|| label.to_string()),
+    };
+    let Ok(eighths) = parse_nominal(Material::Steel, size) else {
+        return label.to_string();
+    };
+    let dn = DN_TO_EIGHTHS
+        .iter()
+        .find(|(_, e)| *e == eighths)
+        .map(|(d, _)| *d);
+    match (material, dn) {
+        (Material::Copper, _) | (_, None) => format!("ASTM size {size} {rest}"),
+        (_, Some(dn)) => format!("DN {dn} {rest}"),
+    }
+}
+
+/// "DN150 schedule 40" → "6 in schedule 40" for a US-units print.
+fn dn_as_inches(label: &str, metric: bool) -> Option<String> {
+    if metric {
+        return None;
+    }
+    let rest = label.strip_prefix("DN")?;
+    let (digits, tail) = rest
+        .trim_start()
+        .split_once(' ')
+        .unwrap_or((rest.trim_start(), ""));
+    let dn: u32 = digits.parse().ok()?;
+    let eighths = DN_TO_EIGHTHS.iter().find(|(d, _)| *d == dn)?.1;
+    Some(
+        format!("{} in {tail}", format_nominal(eighths))
+            .trim_end()
+            .to_string(),
+    )
+}
+
 /// Whether DN designations map onto the material's sizes (NPS-based series only).
 fn accepts_dn(material: Material) -> bool {
     matches!(
@@ -214,6 +257,39 @@ pub(super) fn schedule_phrase(material: Material, key: &str) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn sizes_print_in_the_other_system() {
+        let m = Material::DuctileIron;
+        assert_eq!(
+            size_for_print(m, "16 in class 350", true),
+            "DN 400 class 350"
+        );
+        assert_eq!(
+            size_for_print(Material::Stainless, "10 in schedule 10S", true),
+            "DN 250 schedule 10S"
+        );
+        assert_eq!(
+            size_for_print(Material::Steel, "1-1/2 in schedule 40", true),
+            "DN 40 schedule 40"
+        );
+        assert_eq!(
+            size_for_print(Material::Copper, "1 in type L", true),
+            "ASTM size 1 type L"
+        );
+        assert_eq!(
+            size_for_print(Material::Steel, "DN150 schedule 40", false),
+            "6 in schedule 40"
+        );
+        assert_eq!(
+            size_for_print(Material::Steel, "8 in schedule 40", false),
+            "8 in schedule 40"
+        );
+        assert_eq!(
+            size_for_print(Material::Steel, "DN150 schedule 40", true),
+            "DN150 schedule 40"
+        );
+    }
 
     #[test]
     fn reads_fractions_decimals_and_dn() {

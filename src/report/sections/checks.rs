@@ -22,7 +22,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
                 rows.push(vec![
                     c.name.clone(),
                     p.name.clone(),
-                    check.id.to_string(),
+                    check_name(&check.id.to_string()),
                     mark.to_string(),
                     super::wording::plain(&check.message),
                     super::sources::publication(&check.source, units),
@@ -42,4 +42,16 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
         rows,
         caption: Some("Checks per case and candidate, with the source of each limit".into()),
     });
+}
+
+/// A check's id in words for print: "npsh-margin" → "NPSH margin".
+fn check_name(id: &str) -> String {
+    id.split('-')
+        .map(|w| match w {
+            "npsh" => "NPSH".to_string(),
+            "bep" => "BEP".to_string(),
+            other => other.to_string(),
+        })
+        .collect::<Vec<_>>()
+        .join(" ")
 }

@@ -153,7 +153,7 @@ fn pipe_segments(blocks: &mut Vec<Block>, case: &CaseResult, system: &CaseSystem
             .map(|g| {
                 vec![
                     segment_label(g),
-                    format!("{} {}", g.material.replace('_', " "), g.size_label),
+                    crate::display::pipe(g.material, &g.size_label, g.inner_diameter, units),
                     units.diameter().text(g.inner_diameter),
                     units.length().text(g.length),
                     roughness_or_c(g, units),
@@ -338,21 +338,26 @@ fn fitting_text(f: &crate::analysis::system::FittingState) -> String {
 /// What a case's overrides change, in words: the field, and a word value such as a
 /// pipe condition ("roughness aged"); numbers are left to the tables that print every
 /// case's values in report units, so no input expression or input unit is quoted.
+/// The hours have their own column and are not repeated.
 fn changed_fields(overrides: &[String]) -> String {
-    overrides
+    let changed: Vec<String> = overrides
         .iter()
-        .map(|o| {
+        .filter_map(|o| {
             let (field, value) = o.split_once(" = ").unwrap_or((o.as_str(), ""));
             let word = !value.is_empty() && value.chars().all(|c| c.is_ascii_alphabetic());
-            let field = super::wording::plain(field);
-            if word {
-                format!("{field} {value}")
-            } else {
-                field
+            match field {
+                "hours" | "hours_per_year" => None,
+                "roughness" | "pipe_condition" if word => Some(format!("pipe condition: {value}")),
+                _ if word => Some(format!("{}: {value}", super::wording::plain(field))),
+                _ => Some(super::wording::plain(field)),
             }
         })
-        .collect::<Vec<_>>()
-        .join("; ")
+        .collect();
+    if changed.is_empty() {
+        "nothing but the hours".into()
+    } else {
+        changed.join("; ")
+    }
 }
 
 /// A case with its system, for the cases that could be set up.

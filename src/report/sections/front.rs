@@ -86,9 +86,9 @@ pub(super) fn purpose(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
         None => blocks.push(Block::text("The design file states no purpose.")),
     }
     blocks.push(Block::text(format!(
-        "The calculation covers {} operating case(s) and {} pump candidate(s). Values are reported in {} units; the engine works in SI.",
-        analysis.cases.len(),
-        design.pumps.len(),
+        "The calculation covers {} and {}. Values are reported in {} units; the engine works in SI.",
+        crate::display::count(analysis.cases.len(), "operating case", "operating cases"),
+        crate::display::count(design.pumps.len(), "pump candidate", "pump candidates"),
         if design.project.units == ReportUnits::Us { "US customary" } else { "SI" }
     )));
 }

@@ -22,7 +22,11 @@ pub fn publication(raw: &str, units: &Units) -> String {
             .map(|part| {
                 part.split(", ")
                     .map(str::trim)
-                    .filter(|piece| *piece != "from memory" && !names_a_transcription(piece))
+                    .filter(|piece| {
+                        *piece != "from memory"
+                            && *piece != "recalled"
+                            && !names_a_transcription(piece)
+                    })
                     .collect::<Vec<_>>()
                     .join(", ")
             })
