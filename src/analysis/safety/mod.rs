@@ -89,8 +89,11 @@ pub struct LineSafety {
     pub pressure_downsurge: Option<Vec<f64>>,
     /// Per segment of the line: the governing rating.
     pub ratings: Vec<SegmentRating>,
-    /// Per segment of the line: size label and material.
+    /// Per segment of the line: size label and material, as written (`ductile iron 16 in class 350`).
     pub segment_labels: Vec<String>,
+    /// Per segment of the line: material keyword, size label and inner diameter (m),
+    /// for the outputs to print the pipe in report units.
+    pub segment_pipes: Vec<(&'static str, String, f64)>,
     /// Working and transient rating at each station (the weaker at a joint), Pa.
     pub rating_at: Vec<Option<f64>>,
     pub transient_at: Vec<Option<f64>>,
@@ -373,6 +376,14 @@ fn line_screen(
             .segments
             .iter()
             .map(|s| format!("{} {}", s.material.keyword().replace('_', " "), s.size_label))
+            .collect(),
+        segment_pipes: line
+            .segments
+            .iter()
+            .map(|s| {
+                let d = s.inner_diameter.get::<uom::si::length::meter>();
+                (s.material.keyword(), s.size_label.clone(), d)
+            })
             .collect(),
         stations,
         grade_duty,

@@ -142,7 +142,7 @@ fn ratings_table(blocks: &mut Vec<Block>, c: &CaseSafety, units: &Units) {
         for (i, r) in l.ratings.iter().enumerate() {
             rows.push(vec![
                 l.name.clone(),
-                format!("{} {}", i + 1, l.segment_labels[i]),
+                format!("{} {}", i + 1, pipe_text(l, i, units)),
                 r.working
                     .map(|w| pr.figure(w))
                     .unwrap_or_else(|| "not rated".into()),
@@ -396,7 +396,7 @@ fn surge_tables(blocks: &mut Vec<Block>, s: &Safety, first: &CaseSafety, units: 
             let Some(w) = w else { continue };
             rows.push(vec![
                 l.name.clone(),
-                format!("{} {}", k + 1, l.segment_labels[k]),
+                format!("{} {}", k + 1, pipe_text(l, k, units)),
                 format!("{:.1}", w.diameter_to_wall),
                 md.figure(w.modulus),
                 format!("{:.2}", w.poisson),
@@ -519,4 +519,10 @@ fn checks_table(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
         rows,
         caption: Some("Pressure and surge screening checks per case and line (screening: a fail asks for a rating change or a transient analysis; it does not disqualify a candidate)".into()),
     });
+}
+
+/// Segment `i` of a screened line as the package prints a pipe (report units, DN in SI).
+fn pipe_text(line: &crate::analysis::safety::LineSafety, i: usize, units: &Units) -> String {
+    let (material, label, inner) = &line.segment_pipes[i];
+    crate::display::pipe(material, label, *inner, units)
 }
