@@ -9,6 +9,7 @@ pub mod checks;
 pub mod duty;
 pub mod limits;
 pub mod motor;
+pub mod network;
 pub mod parallel;
 pub mod selection;
 pub mod system;

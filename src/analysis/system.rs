@@ -251,56 +251,17 @@ impl CaseSystem {
 
     /// Reynolds number in a segment at flow q (m³/s).
     pub fn reynolds(&self, seg: &SegmentState, q: f64) -> f64 {
-        let v = q.abs() / seg.area;
-        self.fluid.density * v * seg.inner_diameter / self.fluid.viscosity
+        reynolds_in(&self.fluid, seg, q)
     }
 
     /// Darcy friction factor and regime in a segment at flow q.
     pub fn friction(&self, seg: &SegmentState, q: f64) -> friction::Friction {
-        friction::darcy_friction_factor(
-            self.reynolds(seg, q).max(1e-9),
-            seg.roughness / seg.inner_diameter,
-        )
+        friction_in(&self.fluid, seg, q)
     }
 
     /// Wall-friction and minor losses of one segment at flow q, m.
     pub fn segment_losses(&self, seg: &SegmentState, q: f64) -> (f64, f64) {
-        if q <= 0.0 {
-            return (0.0, 0.0);
-        }
-        let v = q / seg.area;
-        let velocity_head = v * v / (2.0 * G);
-        let re = self.reynolds(seg, q);
-        // Wall friction and equivalent lengths by the segment's one method; the Darcy
-        // friction factor is only solved for when Darcy-Weisbach is used.
-        let (wall, equivalent) = match seg.hazen_williams_c {
-            Some(c) => {
-                let d = seg.inner_diameter;
-                let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
-                let equivalent = if seg.equivalent_length > 0.0 {
-                    friction::hazen_williams_head_loss_m(q, d, seg.equivalent_length, c)
-                } else {
-                    0.0
-                };
-                (wall, equivalent)
-            }
-            None => {
-                let f = self.friction(seg, q).f;
-                (
-                    f * seg.length / seg.inner_diameter * velocity_head,
-                    f * seg.equivalent_length / seg.inner_diameter * velocity_head,
-                )
-            }
-        };
-        // Σ count·(K1/Re + K_fixed) of the 2-K and 3-K fittings; like `k_value`, the
-        // K1/Re term is dropped at Re = 0.
-        let laminar = if re > 0.0 {
-            seg.k_laminar_sum / re
-        } else {
-            0.0
-        };
-        let k = seg.k_constant + seg.k_fixed_sum + laminar;
-        (wall, k * velocity_head + equivalent)
+        segment_losses_in(&self.fluid, seg, q)
     }
 
     /// All losses at flow q.
@@ -517,4 +478,59 @@ pub fn k_of(f: &FittingState, re: f64, d: f64) -> f64 {
         },
     )
     .unwrap_or(f64::NAN)
+}
+
+/// Reynolds number ρ|v|D/μ in a segment at flow q (m³/s) of a fluid.
+pub fn reynolds_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> f64 {
+    let v = q.abs() / seg.area;
+    fluid.density * v * seg.inner_diameter / fluid.viscosity
+}
+
+/// Darcy friction factor and regime in a segment at flow q (m³/s) of a fluid.
+pub fn friction_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> friction::Friction {
+    friction::darcy_friction_factor(
+        reynolds_in(fluid, seg, q).max(1e-9),
+        seg.roughness / seg.inner_diameter,
+    )
+}
+
+/// Wall-friction and minor losses of one segment at flow q (m³/s) of a fluid, m
+/// (zero at q <= 0); see the module documentation for the laws.
+pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64, f64) {
+    if q <= 0.0 {
+        return (0.0, 0.0);
+    }
+    let v = q / seg.area;
+    let velocity_head = v * v / (2.0 * G);
+    let re = reynolds_in(fluid, seg, q);
+    // Wall friction and equivalent lengths by the segment's one method; the Darcy
+    // friction factor is only solved for when Darcy-Weisbach is used.
+    let (wall, equivalent) = match seg.hazen_williams_c {
+        Some(c) => {
+            let d = seg.inner_diameter;
+            let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
+            let equivalent = if seg.equivalent_length > 0.0 {
+                friction::hazen_williams_head_loss_m(q, d, seg.equivalent_length, c)
+            } else {
+                0.0
+            };
+            (wall, equivalent)
+        }
+        None => {
+            let f = friction_in(fluid, seg, q).f;
+            (
+                f * seg.length / seg.inner_diameter * velocity_head,
+                f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+            )
+        }
+    };
+    // Σ count·(K1/Re + K_fixed) of the 2-K and 3-K fittings; like `k_value`, the
+    // K1/Re term is dropped at Re = 0.
+    let laminar = if re > 0.0 {
+        seg.k_laminar_sum / re
+    } else {
+        0.0
+    };
+    let k = seg.k_constant + seg.k_fixed_sum + laminar;
+    (wall, k * velocity_head + equivalent)
 }
