@@ -190,3 +190,69 @@ pub fn from_reference(v: &serde_json::Value) -> Network {
         links,
     }
 }
+
+/// A w × h looped grid of Colebrook pipes (every 7th link a valve) with a demand at
+/// every junction, fed at `feeds` corners from tanks: about 2wh links.
+pub fn grid(w: usize, h: usize, feeds: usize) -> Network {
+    let mut nodes = Vec::new();
+    for r in 0..h {
+        for c in 0..w {
+            let z = 5.0 * ((r * 7 + c * 3) % 11) as f64 / 11.0;
+            nodes.push(junction(&format!("J{r}_{c}"), z, 2.0e-4));
+        }
+    }
+    let corners = [0, w - 1, w * h - 1, w * (h - 1)];
+    for (t, _) in corners.iter().enumerate().take(feeds) {
+        nodes.push(tank(&format!("T{t}"), 60.0 + 5.0 * t as f64));
+    }
+    let mut links = Vec::new();
+    let mut k = 0usize;
+    let mut add = |a: usize, b: usize, links: &mut Vec<Link>| {
+        let element = if k % 7 == 3 {
+            Element::Valve(Valve {
+                kvs: 150.0,
+                characteristic: dutyline::analysis::network::Characteristic::Linear,
+                opening: 0.8,
+            })
+        } else {
+            pipe(
+                100.0 + (k % 13) as f64 * 20.0,
+                0.15 + 0.05 * (k % 3) as f64,
+                4.5e-5,
+                1.2,
+            )
+        };
+        links.push(Link {
+            name: format!("L{k}"),
+            from: a,
+            to: b,
+            element,
+            check: false,
+        });
+        k += 1;
+    };
+    for r in 0..h {
+        for c in 0..w {
+            let i = r * w + c;
+            if c + 1 < w {
+                add(i, i + 1, &mut links);
+            }
+            if r + 1 < h {
+                add(i, i + w, &mut links);
+            }
+        }
+    }
+    for (t, &corner) in corners.iter().enumerate().take(feeds) {
+        add(w * h + t, corner, &mut links);
+    }
+    let mut d = 0;
+    while links.len() < 2000 && d + w + 1 < w * h {
+        add(d, d + w + 1, &mut links); // diagonals until 2 000 links
+        d += 37;
+    }
+    Network {
+        fluid: fluid(998.2, 1.0e-3),
+        nodes,
+        links,
+    }
+}

@@ -128,6 +128,9 @@ impl State {
 
     fn finish(self, net: &Network, iterations: usize) -> Solution {
         let rho_g = net.fluid.density * G;
+        // The status is final, so the live set is the one of the last Newton round.
+        let live = Live::new(net, &self.closed).ok();
+        let carries = |k: usize| live.as_ref().map(|l| l.links[k]).unwrap_or(!self.closed[k]);
         let nodes = net
             .nodes
             .iter()
@@ -157,7 +160,7 @@ impl State {
                         .reduce(f64::max),
                     _ => None,
                 },
-                closed: self.closed[k],
+                closed: !carries(k),
             })
             .collect();
         Solution {
