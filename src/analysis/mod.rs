@@ -59,6 +59,8 @@ pub struct SystemPoint {
     pub static_head: f64,
     pub friction: f64,
     pub minor: f64,
+    /// The network's part (entry head above its zero-flow value), m; 0 for a chain.
+    pub network: f64,
 }
 
 #[derive(Clone, Debug)]
@@ -171,10 +173,11 @@ pub fn analyse(design: &Design) -> Analysis {
                     let l = s.losses(q);
                     let point = SystemPoint {
                         flow: q,
-                        head: s.static_head + l.friction + l.minor,
+                        head: s.static_head + l.friction + l.minor + l.network,
                         static_head: s.static_head,
                         friction: l.friction,
                         minor: l.minor,
+                        network: l.network,
                     };
                     (point, s.npsh_available_after(l.suction))
                 })

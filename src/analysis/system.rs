@@ -14,6 +14,7 @@ use uom::si::{
     pressure::pascal, thermodynamic_temperature::kelvin,
 };
 
+use crate::analysis::network::station::StationNetwork;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
@@ -78,6 +79,8 @@ pub struct Losses {
     pub friction: f64,
     pub minor: f64,
     pub suction: f64,
+    /// The network's part: entry head at the flow minus at zero flow, m (0 for a chain).
+    pub network: f64,
 }
 
 /// A case's hydraulic model.
@@ -94,6 +97,11 @@ pub struct CaseSystem {
     pub static_head: f64,
     pub segments: Vec<SegmentState>,
     pub pipe_condition: PipeCondition,
+    /// The network the discharge lines feed (general form), with its entry head at
+    /// zero station flow, m; `None` for a single chain.
+    pub network: Option<(StationNetwork, f64)>,
+    /// Set when a network solve at some flow failed (the case is then reported failed).
+    pub network_failed: std::cell::Cell<bool>,
 }
 
 /// Why a case could not be set up.
@@ -159,82 +167,29 @@ impl CaseSystem {
         ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
         for line in ordered {
             for (i, seg) in line.segments.iter().enumerate() {
-                let d = seg.inner_diameter.get::<meter>();
-                let (roughness, roughness_source) = match (seg.roughness, roughness::roughness(seg.material)) {
-                    (Some(r), _) => (r.get::<meter>(), "given in the design".to_string()),
-                    (None, Some(entry)) => match s.pipe_condition {
-                        PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
-                        PipeCondition::Aged => (entry.aged_m, format!("{} (aged: {})", entry.source, entry.aged_note)),
-                    },
-                    (None, None) if seg.hazen_williams_c.is_some() => (0.0, "not used (Hazen-Williams)".to_string()),
-                    (None, None) => {
-                        return Err(SystemError { message: format!("line {} segment {}: material `{}` has no tabulated roughness; give `roughness = ...`", line.name, i + 1, seg.material.keyword()) })
-                    }
-                };
-                let mut k_constant = 0.0;
-                let mut fits = Vec::new();
-                for f in &seg.fittings {
-                    let ctx = KContext {
-                        reynolds: 1e5,
-                        inner_diameter_m: d,
-                        beta: f.beta,
-                        angle_rad: f.angle_rad,
-                    };
-                    fittings::k_value(f.spec, ctx).map_err(|e| SystemError {
-                        message: format!(
-                            "fitting `{}` on line `{}`: {}",
-                            f.spec.name, line.name, e.message
-                        ),
-                    })?;
-                    fits.push(FittingState {
-                        spec: f.spec,
-                        count: f.count,
-                        beta: f.beta,
-                        angle_rad: f.angle_rad,
-                    });
-                }
-                let mut equivalent_length = 0.0;
-                for l in &seg.losses {
-                    k_constant += l.k.unwrap_or(0.0);
-                    equivalent_length +=
-                        l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
-                }
-                let (mut k_laminar_sum, mut k_fixed_sum) = (0.0, 0.0);
-                for f in &fits {
-                    let n = f.count as f64;
-                    if fittings::is_constant(f.spec) {
-                        k_constant += n * k_of(f, 1e6, d);
-                    } else {
-                        // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
-                        k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
-                        k_fixed_sum += n * k_of(f, 0.0, d);
-                    }
-                }
-                segments.push(SegmentState {
-                    line: line.name.clone(),
-                    side: line.side,
-                    index: i,
-                    material: seg.material.keyword(),
-                    size_label: seg.size_label.clone(),
-                    diameter_source: seg.diameter_source.clone(),
-                    length: seg.length.get::<meter>(),
-                    inner_diameter: d,
-                    area: std::f64::consts::PI * d * d / 4.0,
-                    roughness,
-                    roughness_source,
-                    hazen_williams_c: seg.hazen_williams_c,
-                    fittings: fits,
-                    k_constant,
-                    k_laminar_sum,
-                    k_fixed_sum,
-                    equivalent_length,
-                });
+                segments.push(resolve_segment(s, &line.name, line.side, i, seg)?);
             }
         }
         let rho_g = fluid.density * G;
         let static_head = s.destination.level.get::<meter>() - s.source.level.get::<meter>()
             + (destination_abs_pa - source_abs_pa) / rho_g;
+        let (network, static_head) = match &s.network {
+            None => (None, static_head),
+            Some(layout) => {
+                let net = StationNetwork::build(s, layout, &fluid, barometric_pa)?;
+                let h0 = net.entry_head(0.0).map_err(|e| SystemError {
+                    message: format!("the network: {e}"),
+                })?;
+                // The entry head (gauge-based) stands in for the destination surface.
+                let stat = h0 + barometric_pa / rho_g
+                    - s.source.level.get::<meter>()
+                    - source_abs_pa / rho_g;
+                (Some((net, h0)), stat)
+            }
+        };
         Ok(CaseSystem {
+            network,
+            network_failed: std::cell::Cell::new(false),
             fluid,
             barometric_pa,
             barometric_source,
@@ -275,13 +230,29 @@ impl CaseSystem {
                 out.suction += wall + minor;
             }
         }
+        out.network = self.network_head(q);
         out
     }
 
     /// System head at flow q, m.
     pub fn head(&self, q: f64) -> f64 {
         let l = self.losses(q);
-        self.static_head + l.friction + l.minor
+        self.static_head + l.friction + l.minor + l.network
+    }
+
+    /// The network's part of the system head at flow q, m: H_entry(q) − H_entry(0).
+    /// A failed solve marks the case ([`CaseSystem::network_failed`]) and counts 0.
+    pub fn network_head(&self, q: f64) -> f64 {
+        match &self.network {
+            None => 0.0,
+            Some((net, h0)) => match net.entry_head(q.max(0.0)) {
+                Ok(h) => h - h0,
+                Err(_) => {
+                    self.network_failed.set(true);
+                    0.0
+                }
+            },
+        }
     }
 
     /// NPSH available at the pump suction at flow q, m: the absolute pressure head on
@@ -533,4 +504,84 @@ pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64
     };
     let k = seg.k_constant + seg.k_fixed_sum + laminar;
     (wall, k * velocity_head + equivalent)
+}
+
+/// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,
+/// fittings validated, their K sums split into constant and Reynolds-dependent parts.
+pub fn resolve_segment(
+    s: &Scenario,
+    line_name: &str,
+    side: Side,
+    i: usize,
+    seg: &crate::model::Segment,
+) -> Result<SegmentState, SystemError> {
+    let d = seg.inner_diameter.get::<meter>();
+    let (roughness, roughness_source) = match (seg.roughness, roughness::roughness(seg.material)) {
+                    (Some(r), _) => (r.get::<meter>(), "given in the design".to_string()),
+                    (None, Some(entry)) => match s.pipe_condition {
+                        PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
+                        PipeCondition::Aged => (entry.aged_m, format!("{} (aged: {})", entry.source, entry.aged_note)),
+                    },
+                    (None, None) if seg.hazen_williams_c.is_some() => (0.0, "not used (Hazen-Williams)".to_string()),
+                    (None, None) => {
+                        return Err(SystemError { message: format!("line {} segment {}: material `{}` has no tabulated roughness; give `roughness = ...`", line_name, i + 1, seg.material.keyword()) })
+                    }
+                };
+    let mut k_constant = 0.0;
+    let mut fits = Vec::new();
+    for f in &seg.fittings {
+        let ctx = KContext {
+            reynolds: 1e5,
+            inner_diameter_m: d,
+            beta: f.beta,
+            angle_rad: f.angle_rad,
+        };
+        fittings::k_value(f.spec, ctx).map_err(|e| SystemError {
+            message: format!(
+                "fitting `{}` on line `{}`: {}",
+                f.spec.name, line_name, e.message
+            ),
+        })?;
+        fits.push(FittingState {
+            spec: f.spec,
+            count: f.count,
+            beta: f.beta,
+            angle_rad: f.angle_rad,
+        });
+    }
+    let mut equivalent_length = 0.0;
+    for l in &seg.losses {
+        k_constant += l.k.unwrap_or(0.0);
+        equivalent_length += l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
+    }
+    let (mut k_laminar_sum, mut k_fixed_sum) = (0.0, 0.0);
+    for f in &fits {
+        let n = f.count as f64;
+        if fittings::is_constant(f.spec) {
+            k_constant += n * k_of(f, 1e6, d);
+        } else {
+            // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
+            k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
+            k_fixed_sum += n * k_of(f, 0.0, d);
+        }
+    }
+    Ok(SegmentState {
+        line: line_name.to_string(),
+        side,
+        index: i,
+        material: seg.material.keyword(),
+        size_label: seg.size_label.clone(),
+        diameter_source: seg.diameter_source.clone(),
+        length: seg.length.get::<meter>(),
+        inner_diameter: d,
+        area: std::f64::consts::PI * d * d / 4.0,
+        roughness,
+        roughness_source,
+        hazen_williams_c: seg.hazen_williams_c,
+        fittings: fits,
+        k_constant,
+        k_laminar_sum,
+        k_fixed_sum,
+        equivalent_length,
+    })
 }

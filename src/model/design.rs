@@ -77,6 +77,8 @@ pub struct Scenario {
     pub destination: Tank,
     pub centreline: Length,
     pub lines: Vec<Line>,
+    /// The network the discharge lines feed (general form); `None` for a single chain.
+    pub network: Option<super::network::NetworkLayout>,
     pub pipe_condition: PipeCondition,
     /// Operating hours per year in this case (energy); zero for a check-only case.
     pub hours_per_year: Time,

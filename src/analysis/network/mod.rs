@@ -13,6 +13,7 @@
 pub mod elements;
 pub mod gradient;
 pub mod sparse;
+pub mod station;
 pub mod topology;
 
 pub use elements::{Characteristic, Element, Equipment, HeadCurve, PipeRun, PumpSet, Valve};

@@ -6,8 +6,25 @@ use crate::names::nearest;
 use crate::syntax::ast::{Arg, File, Statement, StatementKind};
 
 const TOP_LEVEL: &[&str] = &[
-    "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
-    "require", "pump", "motor", "energy", "assume", "note",
+    "project",
+    "revision",
+    "purpose",
+    "fluid",
+    "site",
+    "tank",
+    "station",
+    "line",
+    "case",
+    "require",
+    "pump",
+    "motor",
+    "energy",
+    "assume",
+    "note",
+    "junction",
+    "delivery",
+    "valve",
+    "equipment",
 ];
 const ONCE: &[&str] = &[
     "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",
