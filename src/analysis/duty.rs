@@ -314,6 +314,8 @@ pub struct PumpResult {
     /// Flow of the arrangement at the limit (maximum speed, largest impeller allowed),
     /// m³/s; `None` when the curves do not meet within the published data.
     pub capacity_flow: Option<f64>,
+    /// The network at the duty point (general-form designs with a duty only).
+    pub network: Option<crate::analysis::network::station::NetworkAtDuty>,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -540,6 +542,7 @@ pub fn evaluate(
         energy: None,
         warnings: Vec::new(),
         motor_efficiency,
+        network: None,
         headroom: None,
         capacity_flow: None,
     };

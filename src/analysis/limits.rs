@@ -22,11 +22,14 @@ pub enum CheckId {
     Headroom,
     /// One pump of a parallel set running alone against the lowest-head case.
     OnePumpAlone,
+    /// A network node's pressure at the duty: against its required residual pressure,
+    /// atmospheric pressure and the vapour pressure.
+    NodePressure,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 8] = [
+    pub const ALL: [CheckId; 9] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -35,6 +38,7 @@ impl CheckId {
         CheckId::Motor,
         CheckId::Headroom,
         CheckId::OnePumpAlone,
+        CheckId::NodePressure,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -48,6 +52,7 @@ impl CheckId {
             CheckId::Motor => "motor",
             CheckId::Headroom => "headroom",
             CheckId::OnePumpAlone => "one-pump-alone",
+            CheckId::NodePressure => "node-pressure",
         }
     }
 
@@ -67,6 +72,9 @@ impl CheckId {
             }
             CheckId::OnePumpAlone => {
                 "one pump of a parallel set running alone after the others trip"
+            }
+            CheckId::NodePressure => {
+                "network node pressure at the duty against its required residual pressure, atmospheric and vapour pressure"
             }
         }
     }

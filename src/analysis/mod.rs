@@ -113,13 +113,28 @@ pub fn analyse(design: &Design) -> Analysis {
                 (None, Some(e))
             }
         };
-        let pumps = match &system {
+        let mut pumps: Vec<duty::PumpResult> = match &system {
             Some(s) => candidates
                 .iter()
                 .zip(&design.pumps)
                 .map(|(cc, p)| duty::evaluate(design, case, s, p, cc))
                 .collect(),
             None => Vec::new(),
+        };
+        let (system, error) = match system {
+            Some(s) => match network::checks::at_duties(design, &s, &mut pumps) {
+                Ok(()) => (Some(s), error),
+                Err(e) => {
+                    warnings.push(Warning {
+                        code: "case-failed",
+                        message: format!("case {}: {e}", case.name),
+                        span: Some(case.span),
+                    });
+                    pumps.clear();
+                    (None, Some(e))
+                }
+            },
+            None => (None, error),
         };
         cases.push(CaseResult {
             name: case.name.clone(),

@@ -10,6 +10,7 @@
 //!
 //! Units: SI throughout (m, m³/s, Pa, kg/m³).
 
+pub mod checks;
 pub mod elements;
 pub mod gradient;
 pub mod sparse;

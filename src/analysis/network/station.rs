@@ -285,8 +285,15 @@ impl StationNetwork {
                 kind: l.element.kind(),
                 from: net.nodes[l.from].name.clone(),
                 to: net.nodes[l.to].name.clone(),
-                flow: sol.links[k].flow,
-                velocity: sol.links[k].velocity,
+                // A flow at rounding level is shown as zero (never "-0").
+                flow: if sol.links[k].flow.abs() < 1e-12 {
+                    0.0
+                } else {
+                    sol.links[k].flow
+                },
+                velocity: sol.links[k]
+                    .velocity
+                    .map(|v| if v < 1e-12 { 0.0 } else { v }),
                 head_loss: sol.links[k].head_loss,
                 closed: sol.links[k].closed,
             })
