@@ -10,6 +10,7 @@ mod checks;
 mod design_basis;
 mod front;
 mod method;
+mod network;
 mod references;
 mod selection;
 mod sources;
@@ -59,6 +60,7 @@ pub fn document(
     design_basis::chapter(&mut blocks, design, analysis, &units);
     method::chapter(&mut blocks, &units);
     system_curves::chapter(&mut blocks, analysis, &units);
+    network::chapter(&mut blocks, design, analysis, &units);
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }
