@@ -124,9 +124,7 @@ fn a_part_without_a_tank_is_named() {
             nodes: vec!["island_1".into(), "island_2".into()]
         }
     );
-    assert!(err
-        .to_string()
-        .contains("`island_1`, `island_2` reach no tank"));
+    assert!(err.to_string().contains("island_1, island_2 reach no tank"));
 }
 
 #[test]

@@ -25,11 +25,13 @@ pub enum CheckId {
     /// A network node's pressure at the duty: against its required residual pressure,
     /// atmospheric pressure and the vapour pressure.
     NodePressure,
+    /// Flow per pump against the stated minimum continuous flow.
+    MinimumFlow,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 9] = [
+    pub const ALL: [CheckId; 10] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -39,6 +41,7 @@ impl CheckId {
         CheckId::Headroom,
         CheckId::OnePumpAlone,
         CheckId::NodePressure,
+        CheckId::MinimumFlow,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -53,6 +56,7 @@ impl CheckId {
             CheckId::Headroom => "headroom",
             CheckId::OnePumpAlone => "one-pump-alone",
             CheckId::NodePressure => "node-pressure",
+            CheckId::MinimumFlow => "minimum-flow",
         }
     }
 
@@ -72,6 +76,9 @@ impl CheckId {
             }
             CheckId::OnePumpAlone => {
                 "one pump of a parallel set running alone after the others trip"
+            }
+            CheckId::MinimumFlow => {
+                "flow per pump against the manufacturer's minimum continuous flow"
             }
             CheckId::NodePressure => {
                 "network node pressure at the duty against its required residual pressure, atmospheric and vapour pressure"

@@ -122,7 +122,7 @@ pub fn analyse(design: &Design) -> Analysis {
             None => Vec::new(),
         };
         let (system, error) = match system {
-            Some(s) => match network::checks::at_duties(design, &s, &mut pumps) {
+            Some(s) => match network::checks::at_duties(design, &case.name, &s, &mut pumps) {
                 Ok(()) => (Some(s), error),
                 Err(e) => {
                     warnings.push(Warning {

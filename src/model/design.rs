@@ -25,6 +25,8 @@ pub struct Design {
     /// Cases in file order, each with its scenario resolved.
     pub cases: Vec<Case>,
     pub requirements: Vec<Requirement>,
+    /// Requirements at network nodes (`pressure at NODE >= ...`).
+    pub node_requirements: Vec<super::network::NodeRequirement>,
     pub pumps: Vec<PumpCandidate>,
     pub motor: MotorSettings,
     pub energy: EnergySettings,
@@ -294,6 +296,8 @@ pub struct PumpCandidate {
     /// The motor's nameplate rating per pump when the design states it (`motor_rating`);
     /// `None` selects the smallest standard rating that carries every duty.
     pub motor_rating: Option<uom::si::f64::Power>,
+    /// The manufacturer's minimum continuous flow per pump (`min_flow`), when stated.
+    pub min_flow: Option<VolumeRate>,
     pub span: Span,
 }
 

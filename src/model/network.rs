@@ -315,3 +315,27 @@ impl NetworkLayout {
         })
     }
 }
+
+/// What a node requirement constrains.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum NodeQuantity {
+    /// `pressure at NODE`: the node's gauge pressure at each duty, Pa.
+    Pressure,
+    /// `flow at TANK`: the flow into a downstream tank at each duty, m³/s.
+    Flow,
+}
+
+/// A requirement at a network node: `pressure at NODE >= 35 psi [for CASE, ...]`.
+#[derive(Clone, Debug)]
+pub struct NodeRequirement {
+    pub quantity: NodeQuantity,
+    pub node: String,
+    pub at_least: bool,
+    /// SI value (Pa gauge, m³/s).
+    pub limit_si: f64,
+    /// As written, for messages.
+    pub text: String,
+    /// Cases it applies to; empty means every case.
+    pub cases: Vec<String>,
+    pub span: Span,
+}

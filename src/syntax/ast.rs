@@ -49,9 +49,11 @@ pub enum StatementKind {
     Let { name: Ident, value: Expr },
     /// `path = expr`
     Assign { path: Path, value: Expr },
-    /// `path >= expr [for case, case]`
+    /// `path [at node] >= expr [for case, case]`
     Condition {
         path: Path,
+        /// The network node of `pressure at NODE >= ...`, when given.
+        at: Option<Ident>,
         op: CompareOp,
         value: Expr,
         cases: Vec<Ident>,

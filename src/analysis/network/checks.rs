@@ -14,12 +14,14 @@ use crate::analysis::duty::PumpResult;
 use crate::analysis::limits::{CheckId, Source};
 use crate::analysis::CaseSystem;
 use crate::display::Units;
+use crate::model::network::NodeQuantity;
 use crate::model::Design;
 
 /// Solve the network at every duty point of a case and append the node checks; an
 /// error (a message naming the case's problem) when a solve failed at any flow.
 pub fn at_duties(
     design: &Design,
+    case: &str,
     system: &CaseSystem,
     pumps: &mut [PumpResult],
 ) -> Result<(), String> {
@@ -34,6 +36,7 @@ pub fn at_duties(
             .at_duty(q)
             .map_err(|e| format!("the network at the duty of pump {}: {e}", p.name))?;
         p.checks.extend(node_checks(design, &at));
+        p.checks.extend(requirement_checks(design, case, &at));
         p.network = Some(at);
     }
     if system.network_failed.get() {
@@ -61,7 +64,7 @@ pub fn node_checks(design: &Design, at: &NetworkAtDuty) -> Vec<Check> {
                     Some(n.pressure),
                     Some(req),
                     format!(
-                        "{} `{}`: residual pressure {} {verdict} the required {}",
+                        "{} {}: residual pressure {} {verdict} the required {}",
                         n.kind,
                         n.name,
                         pr.fmt(n.pressure),
@@ -85,7 +88,7 @@ fn vacuum_check(n: &NodeAtDuty, u: &Units) -> Option<Check> {
         (
             Status::Fail,
             format!(
-                "{} `{}`: pressure {} is within {} of the vapour pressure: the column may separate; raise the grade line, and have the transients analysed",
+                "{} {}: pressure {} is within {} of the vapour pressure: the column may separate; raise the grade line, and have the transients analysed",
                 n.kind,
                 n.name,
                 pr.fmt(n.pressure),
@@ -97,7 +100,7 @@ fn vacuum_check(n: &NodeAtDuty, u: &Units) -> Option<Check> {
         (
             Status::Warn,
             format!(
-                "{} `{}`: pressure {} is below atmospheric: air enters at joints and air valves; confirm the pipe's vacuum rating with the manufacturer",
+                "{} {}: pressure {} is below atmospheric: air enters at joints and air valves; confirm the pipe's vacuum rating with the manufacturer",
                 n.kind,
                 n.name,
                 pr.fmt(n.pressure)
@@ -118,4 +121,56 @@ fn vacuum_check(n: &NodeAtDuty, u: &Units) -> Option<Check> {
         )
         .about(n.name.clone()),
     )
+}
+
+/// The design's node requirements that apply to a case, at one duty.
+pub fn requirement_checks(design: &Design, case: &str, at: &NetworkAtDuty) -> Vec<Check> {
+    let u = Units::new(design.project.units);
+    design
+        .node_requirements
+        .iter()
+        .filter(|r| r.cases.is_empty() || r.cases.iter().any(|c| c == case))
+        .filter_map(|r| {
+            let n = at.nodes.iter().find(|n| n.name == r.node)?;
+            let (value, shown, limit_shown, what) = match r.quantity {
+                NodeQuantity::Pressure => (
+                    n.pressure,
+                    u.pressure().fmt(n.pressure),
+                    u.pressure().fmt(r.limit_si),
+                    "pressure",
+                ),
+                NodeQuantity::Flow => {
+                    let q = n.inflow.unwrap_or(0.0);
+                    (
+                        q,
+                        u.flow().fmt(q),
+                        u.flow().fmt(r.limit_si),
+                        "flow into the tank",
+                    )
+                }
+            };
+            let ok = if r.at_least {
+                value >= r.limit_si
+            } else {
+                value <= r.limit_si
+            };
+            Some(
+                Check::typed(
+                    CheckId::Requirement,
+                    if ok { Status::Pass } else { Status::Fail },
+                    Some(value),
+                    Some(r.limit_si),
+                    format!(
+                        "{what} at {} {} {}: {}, {shown}",
+                        r.node,
+                        if r.at_least { "at least" } else { "at most" },
+                        limit_shown,
+                        if ok { "met" } else { "not met" }
+                    ),
+                    Source::DesignRequirement,
+                )
+                .about(r.text.clone()),
+            )
+        })
+        .collect()
 }

@@ -122,24 +122,24 @@ impl std::fmt::Display for NetworkError {
                 f,
                 "node{} {} reach{} no tank or reservoir through the links: their heads are undetermined",
                 if nodes.len() == 1 { "" } else { "s" },
-                nodes.iter().map(|n| format!("`{n}`")).collect::<Vec<_>>().join(", "),
+                nodes.iter().map(|n| format!("{n}")).collect::<Vec<_>>().join(", "),
                 if nodes.len() == 1 { "es" } else { "" },
             ),
             NetworkError::NotConverged { iterations, worst_node, head_change } => write!(
                 f,
-                "the network solve did not converge in {iterations} iterations; the head at node `{worst_node}` still moved {head_change:.3e} m in the last one"
+                "the network solve did not converge in {iterations} iterations; the head at node {worst_node} still moved {head_change:.3e} m in the last one"
             ),
             NetworkError::Unsupplied { node } => write!(
                 f,
-                "node `{node}` draws a demand but every path to a tank passes a closed valve or a stopped pump"
+                "node {node} draws a demand but every path to a tank passes a closed valve or a stopped pump"
             ),
             NetworkError::StatusCycling { link } => write!(
                 f,
-                "the check valve on link `{link}` kept opening and closing: the network has no steady state with it"
+                "the check valve on link {link} kept opening and closing: the network has no steady state with it"
             ),
             NetworkError::NonFinite { link } => write!(
                 f,
-                "the head loss of link `{link}` could not be evaluated (a non-finite value)"
+                "the head loss of link {link} could not be evaluated (a non-finite value)"
             ),
         }
     }

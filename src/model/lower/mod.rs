@@ -55,7 +55,8 @@ pub fn lower(
     let energy = operation::lower_energy(blocks.body("energy"), &env, &mut diags);
     let base = base_scenario(setting, network, layout, &pump_list);
     let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
-    let requirements = requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    let (requirements, node_requirements) =
+        requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
     diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
@@ -68,6 +69,7 @@ pub fn lower(
             base,
             cases,
             requirements,
+            node_requirements,
             pumps: pump_list,
             motor,
             energy,
