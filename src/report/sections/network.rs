@@ -6,8 +6,10 @@ use crate::analysis::network::station::{NetworkAtDuty, StationNetwork};
 use crate::analysis::network::{Characteristic, Element};
 use crate::analysis::system::k_of;
 use crate::analysis::Analysis;
+use crate::analysis::CaseSystem;
 use crate::display::Units;
 use crate::model::Design;
+use crate::report::layout::chart::{Chart, Marker, Series};
 use crate::report::layout::document::{Align, Block, Column};
 
 /// The chapter, when the design has a network.
@@ -54,6 +56,15 @@ pub(super) fn chapter(
         .find_map(|c| c.system.as_ref().and_then(|s| s.network.as_ref()))
     {
         links_table(blocks, net, units);
+    }
+    if let Some((case, p, at)) = analysis.cases.iter().find_map(|c| {
+        c.pumps
+            .iter()
+            .find_map(|p| p.network.as_ref().map(|at| (c, p, at)))
+    }) {
+        if let Some(sys) = &case.system {
+            schematic(blocks, sys, &case.name, &p.name, at, units);
+        }
     }
     for case in &analysis.cases {
         for p in &case.pumps {
@@ -268,4 +279,126 @@ fn coefficient(units: &Units, kv: f64, suffix: &str) -> String {
     } else {
         format!("Kv{suffix} {kv:.1} m³/h at 1 bar")
     }
+}
+
+/// Layers of the schematic: the source tank 0, the entry node 1, then each node one more
+/// than the nearest node upstream (breadth first along the links, either direction).
+fn layers(at: &NetworkAtDuty, entry: &str) -> Vec<usize> {
+    let n = at.nodes.len();
+    let index = |name: &str| at.nodes.iter().position(|x| x.name == name);
+    let mut layer = vec![usize::MAX; n];
+    let mut queue = std::collections::VecDeque::new();
+    if let Some(e) = index(entry) {
+        layer[e] = 1;
+        queue.push_back(e);
+    }
+    while let Some(i) = queue.pop_front() {
+        for l in &at.links {
+            let (a, b) = (index(&l.from), index(&l.to));
+            for (x, y) in [(a, b), (b, a)] {
+                if let (Some(x), Some(y)) = (x, y) {
+                    if x == i && layer[y] == usize::MAX {
+                        layer[y] = layer[i] + 1;
+                        queue.push_back(y);
+                    }
+                }
+            }
+        }
+    }
+    layer
+        .iter()
+        .map(|&l| if l == usize::MAX { 1 } else { l })
+        .collect()
+}
+
+/// A hydraulic-grade schematic of the network at one duty: every node at its layer from
+/// the source (x) and its head (y), the links between them, the pump set marked.
+fn schematic(
+    blocks: &mut Vec<Block>,
+    sys: &CaseSystem,
+    case: &str,
+    pump: &str,
+    at: &NetworkAtDuty,
+    units: &Units,
+) {
+    let Some((net, _)) = &sys.network else {
+        return;
+    };
+    let hd = units.head();
+    let entry = &net.network.nodes[net.entry].name;
+    let layer = layers(at, entry);
+    let source_head = sys.source_level
+        + (sys.source_abs_pa - sys.barometric_pa) / (sys.fluid.density * crate::analysis::G);
+    let position = |name: &str| {
+        at.nodes
+            .iter()
+            .position(|x| x.name == name)
+            .map(|i| (layer[i] as f64, hd.value(at.nodes[i].head)))
+    };
+    let mut series = Vec::new();
+    let mut points = Vec::new();
+    let src = (0.0, hd.value(source_head));
+    if let Some(e) = position(entry) {
+        series.push(Series {
+            name: format!("pump set {pump} and the discharge lines"),
+            points: vec![src, e],
+            style_index: 1,
+            dashed: true,
+            ..Default::default()
+        });
+        points.push(Marker {
+            x: src.0,
+            y: src.1,
+            label: "source".into(),
+            ..Default::default()
+        });
+        points.push(Marker {
+            x: 0.5,
+            y: 0.5 * (src.1 + e.1),
+            label: format!("pump set {pump}"),
+            ..Default::default()
+        });
+    }
+    for l in &at.links {
+        if let (Some(a), Some(b)) = (position(&l.from), position(&l.to)) {
+            series.push(Series {
+                name: String::new(),
+                points: vec![a, b],
+                style_index: 0,
+                solid: true,
+                ..Default::default()
+            });
+        }
+    }
+    for (i, n) in at.nodes.iter().enumerate() {
+        points.push(Marker {
+            x: layer[i] as f64,
+            y: hd.value(n.head),
+            label: n.name.clone(),
+            ..Default::default()
+        });
+    }
+    let deepest = layer.iter().copied().max().unwrap_or(1) as f64;
+    let (lo, hi) = points
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), m| {
+            (a.min(m.y), b.max(m.y))
+        });
+    let pad = 0.08 * (hi - lo).max(1.0);
+    blocks.push(Block::Figure {
+        chart: Chart {
+            x_label: "Layer from the source (links)".into(),
+            y_label: format!("Head ({})", hd.label),
+            x_range: Some((-0.3, deepest + 0.8)),
+            y_range: Some((lo - pad, hi + pad)),
+            series,
+            points,
+            legend: false,
+            ..Default::default()
+        },
+        height_mm: 110.0,
+        caption: format!(
+            "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
+        ),
+    });
 }
