@@ -49,23 +49,55 @@ impl Default for Settings {
 
 /// Solve a network's heads and flows (see the module documentation).
 pub fn solve(net: &Network, settings: &Settings) -> Result<Solution, NetworkError> {
-    topology::check(net)?;
-    let unknowns = Unknowns::new(net);
-    let pairs: Vec<(usize, usize)> = net
-        .links
-        .iter()
-        .filter_map(|l| match (unknowns.index[l.from], unknowns.index[l.to]) {
-            (Some(a), Some(b)) => Some((a, b)),
-            _ => None,
-        })
-        .collect();
-    let pattern = Pattern::new(unknowns.count, &pairs).map_err(|_| {
-        NetworkError::TooLarge("the network's sparse factor would be too large".into())
-    })?;
+    solve_prepared(net, &Prepared::new(net)?, settings)
+}
+
+/// What a solve needs from the network's topology alone: the graph checked, the junction
+/// numbering and the sparse ordering. Prepare once and solve many times while only
+/// demands, levels and element data change (a case's system curve).
+#[derive(Clone, Debug)]
+pub struct Prepared {
+    unknowns: Unknowns,
+    pattern: Pattern,
+}
+
+impl Prepared {
+    /// Check the graph and order the matrix (see [`super::sparse`]).
+    pub fn new(net: &Network) -> Result<Prepared, NetworkError> {
+        topology::check(net)?;
+        let unknowns = Unknowns::new(net);
+        let pairs: Vec<(usize, usize)> = net
+            .links
+            .iter()
+            .filter_map(|l| match (unknowns.index[l.from], unknowns.index[l.to]) {
+                (Some(a), Some(b)) => Some((a, b)),
+                _ => None,
+            })
+            .collect();
+        let pattern = Pattern::new(unknowns.count, &pairs).map_err(|_| {
+            NetworkError::TooLarge("the network's sparse factor would be too large".into())
+        })?;
+        Ok(Prepared { unknowns, pattern })
+    }
+}
+
+/// Solve with a [`Prepared`] topology; the network must have the nodes, links and
+/// fixed-head nodes it was prepared with.
+pub fn solve_prepared(
+    net: &Network,
+    prepared: &Prepared,
+    settings: &Settings,
+) -> Result<Solution, NetworkError> {
+    let (unknowns, pattern) = (&prepared.unknowns, &prepared.pattern);
+    if unknowns.index.len() != net.nodes.len() {
+        return Err(NetworkError::BadLink(
+            "the network changed since it was prepared".into(),
+        ));
+    }
     let mut state = State::start(net, &unknowns);
     let mut iterations = 0;
     for _ in 0..settings.max_status_rounds {
-        iterations += newton(net, &unknowns, &pattern, &mut state, settings)?;
+        iterations += newton(net, unknowns, pattern, &mut state, settings)?;
         if !update_status(net, &mut state) {
             return Ok(state.finish(net, iterations));
         }
@@ -78,6 +110,7 @@ pub fn solve(net: &Network, settings: &Settings) -> Result<Solution, NetworkErro
 }
 
 /// Numbering of the junction heads as unknowns.
+#[derive(Clone, Debug)]
 struct Unknowns {
     /// Per node: its unknown index, `None` for a fixed head.
     index: Vec<Option<usize>>,
@@ -181,8 +214,16 @@ fn newton(
 ) -> Result<usize, NetworkError> {
     let live = Live::new(net, &state.closed)?;
     let mut worst = (0usize, f64::INFINITY);
-    for iteration in 1..=settings.max_iterations {
-        let (c, y) = linearise(net, state, &live)?;
+    for iteration in 1..=settings.max_iterations + 1 {
+        // The law at the current flows gives both the residual of the last update and
+        // the next linearisation, so each link's law is evaluated once per iteration.
+        let (c, y, residual) = linearise(net, state, &live)?;
+        if worst.1 < settings.head_change_tolerance && residual < settings.head_tolerance {
+            return Ok(iteration - 1);
+        }
+        if iteration > settings.max_iterations {
+            break;
+        }
         let new_heads = solve_heads(net, unknowns, pattern, &c, &y, &live, &state.heads)?;
         worst = (0, 0.0);
         for (i, &h) in new_heads.iter().enumerate() {
@@ -199,11 +240,6 @@ fn newton(
                 y[k] + c[k] * (state.heads[l.from] - state.heads[l.to])
             };
         }
-        if worst.1 < settings.head_change_tolerance
-            && max_residual(net, state, &live) < settings.head_tolerance
-        {
-            return Ok(iteration);
-        }
     }
     Err(NetworkError::NotConverged {
         iterations: settings.max_iterations,
@@ -212,14 +248,16 @@ fn newton(
     })
 }
 
-/// Per link c_k = 1/D_k and y_k = Q_k − h_k/D_k at the current flows.
+/// Per link c_k = 1/D_k and y_k = Q_k − h_k/D_k at the current flows, and the largest
+/// head residual |h_k(Q_k) − (H_from − H_to)| over the live links, m.
 fn linearise(
     net: &Network,
     state: &State,
     live: &Live,
-) -> Result<(Vec<f64>, Vec<f64>), NetworkError> {
+) -> Result<(Vec<f64>, Vec<f64>, f64), NetworkError> {
     let mut c = Vec::with_capacity(net.links.len());
     let mut y = Vec::with_capacity(net.links.len());
+    let mut residual: f64 = 0.0;
     for (k, l) in net.links.iter().enumerate() {
         if !live.links[k] {
             c.push(0.0);
@@ -233,10 +271,11 @@ fn linearise(
                 link: l.name.clone(),
             });
         }
+        residual = residual.max((h - (state.heads[l.from] - state.heads[l.to])).abs());
         c.push(1.0 / slope);
         y.push(q - h / slope);
     }
-    Ok((c, y))
+    Ok((c, y, residual))
 }
 
 /// Assemble and solve the weighted Laplacian for the heads of all nodes.
@@ -309,19 +348,6 @@ fn solve_heads(
         });
     }
     Ok(heads)
-}
-
-/// The largest head residual |h_k(Q_k) − (H_from − H_to)| over the open links, m.
-fn max_residual(net: &Network, state: &State, live: &Live) -> f64 {
-    net.links
-        .iter()
-        .enumerate()
-        .filter(|(k, _)| live.links[*k])
-        .map(|(k, l)| {
-            let (h, _) = l.element.law(&net.fluid, state.flows[k]);
-            (h - (state.heads[l.from] - state.heads[l.to])).abs()
-        })
-        .fold(0.0, f64::max)
 }
 
 /// Open or close check valves; true when any status changed.

@@ -18,7 +18,7 @@ pub mod station;
 pub mod topology;
 
 pub use elements::{Characteristic, Element, Equipment, HeadCurve, PipeRun, PumpSet, Valve};
-pub use gradient::{solve, Settings};
+pub use gradient::{solve, solve_prepared, Prepared, Settings};
 
 use crate::analysis::system::{FluidState, G};
 

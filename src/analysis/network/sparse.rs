@@ -13,7 +13,7 @@
 //! O(Σ_j |L_{:,j}|²). Pipe networks are nearly planar, so the fill stays small.
 
 use std::cmp::Reverse;
-use std::collections::{BTreeSet, BinaryHeap};
+use std::collections::BinaryHeap;
 
 /// Largest number of unknowns a pattern accepts (a size cap for untrusted designs).
 pub const MAX_UNKNOWNS: usize = 200_000;
@@ -54,12 +54,18 @@ impl Pattern {
         if n > MAX_UNKNOWNS {
             return Err(SparseError::TooLarge);
         }
-        let mut adj: Vec<BTreeSet<usize>> = vec![BTreeSet::new(); n];
+        // Adjacency of the elimination graph as sorted vectors: eliminating v joins its
+        // neighbours into a clique by one sorted merge per neighbour.
+        let mut adj: Vec<Vec<usize>> = vec![Vec::new(); n];
         for &(i, j) in pairs {
             if i != j && i < n && j < n {
-                adj[i].insert(j);
-                adj[j].insert(i);
+                adj[i].push(j);
+                adj[j].push(i);
             }
+        }
+        for a in &mut adj {
+            a.sort_unstable();
+            a.dedup();
         }
         let mut heap: BinaryHeap<Reverse<(usize, usize)>> =
             (0..n).map(|i| Reverse((adj[i].len(), i))).collect();
@@ -67,25 +73,20 @@ impl Pattern {
         let mut order = Vec::with_capacity(n);
         let mut columns: Vec<Vec<usize>> = Vec::with_capacity(n);
         let mut fill = 0usize;
+        let mut merged = Vec::new();
         while let Some(Reverse((degree, v))) = heap.pop() {
             if eliminated[v] || degree != adj[v].len() {
                 continue; // a stale heap entry
             }
             eliminated[v] = true;
-            let neighbours: Vec<usize> = std::mem::take(&mut adj[v]).into_iter().collect();
+            let neighbours = std::mem::take(&mut adj[v]);
             fill += neighbours.len();
             if fill > MAX_FILL {
                 return Err(SparseError::TooLarge);
             }
             for &a in &neighbours {
-                adj[a].remove(&v);
-                for &b in &neighbours {
-                    if a != b {
-                        adj[a].insert(b);
-                    }
-                }
-            }
-            for &a in &neighbours {
+                union_without(&adj[a], &neighbours, v, a, &mut merged);
+                std::mem::swap(&mut adj[a], &mut merged);
                 heap.push(Reverse((adj[a].len(), a)));
             }
             order.push(v);
@@ -135,6 +136,37 @@ impl Pattern {
     /// Nonzeros of L below the diagonal (the fill of the ordering included).
     pub fn fill(&self) -> usize {
         self.rows.len()
+    }
+}
+
+/// `out` = sorted union of the sorted `x` and `y` without the values `v` and `a`.
+fn union_without(x: &[usize], y: &[usize], v: usize, a: usize, out: &mut Vec<usize>) {
+    out.clear();
+    let (mut i, mut j) = (0, 0);
+    while i < x.len() || j < y.len() {
+        let next = match (x.get(i), y.get(j)) {
+            (Some(&p), Some(&q)) if p == q => {
+                i += 1;
+                j += 1;
+                p
+            }
+            (Some(&p), Some(&q)) if p < q => {
+                i += 1;
+                p
+            }
+            (Some(&p), None) => {
+                i += 1;
+                p
+            }
+            (_, Some(&q)) => {
+                j += 1;
+                q
+            }
+            (None, None) => break,
+        };
+        if next != v && next != a {
+            out.push(next);
+        }
     }
 }
 

@@ -10,8 +10,8 @@
 use uom::si::{length::meter, pressure::pascal, volume_rate::cubic_meter_per_second};
 
 use super::{
-    solve, Characteristic, Element, Equipment, Link, Network, NetworkError, Node, NodeKind,
-    PipeRun, Settings, Solution, Valve,
+    solve_prepared, Characteristic, Element, Equipment, Link, Network, NetworkError, Node,
+    NodeKind, PipeRun, Prepared, Settings, Solution, Valve,
 };
 use crate::analysis::system::{resolve_segment, FluidState, SystemError, G};
 use crate::model::network::{NetLinkKind, NetworkLayout, ValveCharacteristic};
@@ -31,6 +31,8 @@ pub struct StationNetwork {
     entry_demand: f64,
     /// Barometric pressure, Pa (for absolute pressures at nodes).
     pub barometric_pa: f64,
+    /// The topology prepared once (checks, ordering) for the many solves of a case.
+    prepared: Prepared,
 }
 
 fn gauge(p: SurfacePressure, barometric: f64) -> f64 {
@@ -117,12 +119,17 @@ impl StationNetwork {
             NodeKind::Junction { demand } => demand,
             NodeKind::FixedHead { .. } => 0.0,
         };
+        let network = Network {
+            fluid: fluid.clone(),
+            nodes,
+            links,
+        };
+        let prepared = Prepared::new(&network).map_err(|e| SystemError {
+            message: format!("the network: {e}"),
+        })?;
         Ok(StationNetwork {
-            network: Network {
-                fluid: fluid.clone(),
-                nodes,
-                links,
-            },
+            prepared,
+            network,
             entry,
             entry_demand,
             barometric_pa,
@@ -135,7 +142,7 @@ impl StationNetwork {
         net.nodes[self.entry].kind = NodeKind::Junction {
             demand: self.entry_demand - q,
         };
-        solve(&net, &Settings::default())
+        solve_prepared(&net, &self.prepared, &Settings::default())
     }
 
     /// Head at the entry node, m, with the station delivering `q` (m³/s).

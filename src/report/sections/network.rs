@@ -57,6 +57,46 @@ pub(super) fn chapter(
     {
         links_table(blocks, net, units);
     }
+    if !design.node_requirements.is_empty() {
+        let pr = units.pressure();
+        let fl = units.flow();
+        let rows = design
+            .node_requirements
+            .iter()
+            .map(|r| {
+                let (what, limit) = match r.quantity {
+                    crate::model::network::NodeQuantity::Pressure => {
+                        ("pressure", pr.fmt(r.limit_si))
+                    }
+                    crate::model::network::NodeQuantity::Flow => {
+                        ("flow into the tank", fl.fmt(r.limit_si))
+                    }
+                };
+                vec![
+                    format!(
+                        "{what} at {} {} {limit}",
+                        r.node,
+                        if r.at_least { "≥" } else { "≤" }
+                    ),
+                    if r.cases.is_empty() {
+                        "every case".to_string()
+                    } else {
+                        r.cases.join(", ")
+                    },
+                ]
+            })
+            .collect();
+        blocks.push(Block::Table {
+            columns: vec![
+                Column::new("Requirement at a node", 0.6, Align::Left),
+                Column::new("Applies to", 0.4, Align::Left),
+            ],
+            rows,
+            caption: Some(
+                "Requirements at network nodes (checked at every duty; see Checks)".into(),
+            ),
+        });
+    }
     if let Some((case, p, at)) = analysis.cases.iter().find_map(|c| {
         c.pumps
             .iter()
