@@ -94,7 +94,7 @@ pub fn solve_prepared(
             "the network changed since it was prepared".into(),
         ));
     }
-    let mut state = State::start(net, &unknowns);
+    let mut state = State::start(net, unknowns);
     let mut iterations = 0;
     for _ in 0..settings.max_status_rounds {
         iterations += newton(net, unknowns, pattern, &mut state, settings)?;

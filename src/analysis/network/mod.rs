@@ -122,7 +122,7 @@ impl std::fmt::Display for NetworkError {
                 f,
                 "node{} {} reach{} no tank or reservoir through the links: their heads are undetermined",
                 if nodes.len() == 1 { "" } else { "s" },
-                nodes.iter().map(|n| format!("{n}")).collect::<Vec<_>>().join(", "),
+                nodes.join(", "),
                 if nodes.len() == 1 { "es" } else { "" },
             ),
             NetworkError::NotConverged { iterations, worst_node, head_change } => write!(

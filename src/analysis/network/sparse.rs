@@ -231,7 +231,7 @@ impl<'p> Matrix<'p> {
             }
             // A pivot that is not positive, or lost to rounding against the original
             // diagonal, means the matrix is not (numerically) positive definite.
-            if !(d > 1e-14 * self.diag[j].abs()) || !d.is_finite() {
+            if d.is_nan() || d <= 1e-14 * self.diag[j].abs() || !d.is_finite() {
                 return Err(SparseError::NotPositiveDefinite(p.order[j]));
             }
             let ljj = d.sqrt();
