@@ -121,3 +121,86 @@ fn network_statement_errors_are_located() {
         assert!(d.span.is_some(), "{}: {}", d.code, d.message);
     }
 }
+
+fn hillside() -> String {
+    let path = format!(
+        "{}/examples-demo/hillside-district.duty",
+        env!("CARGO_MANIFEST_DIR")
+    );
+    std::fs::read_to_string(path).expect("demo")
+}
+
+fn statuses(a: &Analysis, id: &str) -> Vec<(String, &'static str)> {
+    a.cases
+        .iter()
+        .flat_map(|c| &c.pumps)
+        .flat_map(|p| &p.checks)
+        .filter(|k| k.id.as_str() == id)
+        .map(|k| (k.message.clone(), k.status.keyword()))
+        .collect()
+}
+
+#[test]
+fn node_requirements_and_minimum_flow_pass_in_the_demo() {
+    let a = run(&hillside());
+    let req = statuses(&a, "requirement");
+    assert!(
+        req.iter()
+            .any(|(m, s)| m.contains("pressure at upper_vineyard") && *s == "pass"),
+        "{req:?}"
+    );
+    assert!(
+        req.iter()
+            .any(|(m, s)| m.contains("flow into the tank at ridge_tank") && *s == "pass"),
+        "{req:?}"
+    );
+    let min = statuses(&a, "minimum-flow");
+    assert!(
+        !min.is_empty() && min.iter().all(|(_, s)| *s == "pass"),
+        "{min:?}"
+    );
+    let node = statuses(&a, "node-pressure");
+    assert!(
+        !node.is_empty() && node.iter().all(|(_, s)| *s == "pass"),
+        "{node:?}"
+    );
+}
+
+#[test]
+fn node_requirements_and_minimum_flow_fail_when_not_met() {
+    let src = hillside()
+        .replace(
+            "pressure at upper_vineyard >= 35 psi",
+            "pressure at upper_vineyard >= 80 psi",
+        )
+        .replace("min_flow = 170 gpm", "min_flow = 900 gpm")
+        .replace("    pressure = 35 psi\n", "    pressure = 70 psi\n");
+    let a = run(&src);
+    let req = statuses(&a, "requirement");
+    assert!(
+        req.iter()
+            .any(|(m, s)| m.contains("pressure at upper_vineyard") && *s == "fail"),
+        "{req:?}"
+    );
+    let min = statuses(&a, "minimum-flow");
+    assert!(min.iter().any(|(_, s)| *s == "fail"), "{min:?}");
+    let node = statuses(&a, "node-pressure");
+    assert!(
+        node.iter()
+            .any(|(m, s)| m.contains("upper_vineyard") && *s == "fail"),
+        "{node:?}"
+    );
+}
+
+#[test]
+fn flow_at_a_junction_is_refused() {
+    let src = hillside().replace(
+        "flow at ridge_tank >= 150 gpm for night_refill",
+        "flow at hop_yard >= 150 gpm",
+    );
+    let c = dutyline::check(&src, &NoFiles);
+    assert!(c
+        .diagnostics
+        .iter()
+        .any(|d| d.code == "bad-requirement" && d.span.is_some()));
+}
