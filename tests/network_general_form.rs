@@ -204,3 +204,16 @@ fn flow_at_a_junction_is_refused() {
         .iter()
         .any(|d| d.code == "bad-requirement" && d.span.is_some()));
 }
+
+#[test]
+fn an_absolute_node_pressure_requirement_is_refused() {
+    let src = hillside().replace(
+        "pressure at upper_vineyard >= 35 psi",
+        "pressure at upper_vineyard >= 50 psia",
+    );
+    let c = dutyline::check(&src, &NoFiles);
+    assert!(c
+        .diagnostics
+        .iter()
+        .any(|d| d.code == "unit-mismatch" && d.message.contains("gauge")));
+}

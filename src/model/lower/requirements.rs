@@ -194,6 +194,17 @@ fn node_requirement(
         return None;
     }
     let limit = match expect_dim(value, env, dim, quantity) {
+        Ok(v) if v.kind == crate::units::QuantityKind::AbsolutePressure => {
+            d.push(
+                Diagnostic::error(
+                    "unit-mismatch",
+                    "a node pressure requirement is a gauge pressure",
+                    Some(value.span),
+                )
+                .with_help("write it as `35 psi`, `35 psig` or `240 kPa(g)`"),
+            );
+            return None;
+        }
         Ok(v) => v.si,
         Err(e) => {
             d.push(e);
