@@ -123,7 +123,7 @@ pub fn npsh_ratio_limit(design: &Design, case: &Case) -> Limit {
 }
 
 /// Checks of one duty point that need nothing beyond the case.
-pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -> Vec<Check> {
+pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) -> Vec<Check> {
     let units = Units::new(design.project.units);
     let mut out = vec![operating_region(d)];
     out.push(npsh_margin(
@@ -136,7 +136,36 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, _p: &PumpCandidate) -
     for r in design.requirements.iter().filter(|r| applies(r, case)) {
         out.push(requirement_check(&units, r, d));
     }
+    out.extend(minimum_flow(&units, d, p));
     out
+}
+
+/// Flow per pump against the stated minimum continuous flow (the manufacturer's
+/// value; running below it overheats the liquid and loads the bearings, common practice).
+fn minimum_flow(units: &Units, d: &Duty, p: &PumpCandidate) -> Option<Check> {
+    let min = p
+        .min_flow?
+        .get::<uom::si::volume_rate::cubic_meter_per_second>();
+    let fl = units.flow();
+    let ok = d.flow_per_pump >= min;
+    Some(Check::typed(
+        CheckId::MinimumFlow,
+        if ok { Status::Pass } else { Status::Fail },
+        Some(d.flow_per_pump),
+        Some(min),
+        format!(
+            "flow per pump {} is {} the minimum continuous flow {}{}",
+            fl.fmt(d.flow_per_pump),
+            if ok { "at or above" } else { "below" },
+            fl.fmt(min),
+            if ok {
+                ""
+            } else {
+                ": add a minimum-flow bypass or choose a smaller pump"
+            }
+        ),
+        Source::DesignData("the manufacturer's minimum continuous flow stated in the design"),
+    ))
 }
 
 fn operating_region(d: &Duty) -> Check {

@@ -361,6 +361,8 @@ pub struct PumpResult {
     /// Affinity factor N·D of this case's pump against the evaluated published curve
     /// (speed ratio × impeller diameter ratio, dimensionless); 1 when not evaluated.
     pub affinity_scale: f64,
+    /// The network at the duty point (general-form designs with a duty only).
+    pub network: Option<crate::analysis::network::station::NetworkAtDuty>,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -587,6 +589,7 @@ pub fn evaluate(
         energy: None,
         warnings: Vec::new(),
         motor_efficiency,
+        network: None,
         headroom: None,
         capacity_flow: None,
         affinity_scale: 1.0,

@@ -34,11 +34,16 @@ pub enum CheckId {
     ColumnSeparation,
     /// Surge (valve closure, pump trip) plus operating pressure against the transient rating.
     Surge,
+    /// A network node's pressure at the duty: against its required residual pressure,
+    /// atmospheric pressure and the vapour pressure.
+    NodePressure,
+    /// Flow per pump against the stated minimum continuous flow.
+    MinimumFlow,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 14] = [
+    pub const ALL: [CheckId; 16] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -53,6 +58,8 @@ impl CheckId {
         CheckId::VapourMargin,
         CheckId::ColumnSeparation,
         CheckId::Surge,
+        CheckId::NodePressure,
+        CheckId::MinimumFlow,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -72,6 +79,8 @@ impl CheckId {
             CheckId::VapourMargin => "vapour-margin",
             CheckId::ColumnSeparation => "column-separation",
             CheckId::Surge => "surge",
+            CheckId::NodePressure => "node-pressure",
+            CheckId::MinimumFlow => "minimum-flow",
         }
     }
 
@@ -109,6 +118,12 @@ impl CheckId {
             }
             CheckId::Surge => {
                 "surge head plus operating pressure against the transient rating (screening)"
+            }
+            CheckId::MinimumFlow => {
+                "flow per pump against the manufacturer's minimum continuous flow"
+            }
+            CheckId::NodePressure => {
+                "network node pressure at the duty against its required residual pressure, atmospheric and vapour pressure"
             }
         }
     }

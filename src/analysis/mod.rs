@@ -10,6 +10,7 @@ pub mod checks;
 pub mod duty;
 pub mod limits;
 pub mod motor;
+pub mod network;
 pub mod parallel;
 pub mod safety;
 pub mod selection;
@@ -80,6 +81,8 @@ pub struct SystemPoint {
     pub friction: f64,
     /// Fittings and stated losses, m.
     pub minor: f64,
+    /// The network's part (entry head above its zero-flow value), m; 0 for a chain.
+    pub network: f64,
 }
 
 /// The analysis of one case.
@@ -141,13 +144,28 @@ pub fn analyse(design: &Design) -> Analysis {
                 (None, Some(e))
             }
         };
-        let pumps = match &system {
+        let mut pumps: Vec<duty::PumpResult> = match &system {
             Some(s) => candidates
                 .iter()
                 .zip(&design.pumps)
                 .map(|(cc, p)| duty::evaluate(design, case, s, p, cc))
                 .collect(),
             None => Vec::new(),
+        };
+        let (system, error) = match system {
+            Some(s) => match network::checks::at_duties(design, &case.name, &s, &mut pumps) {
+                Ok(()) => (Some(s), error),
+                Err(e) => {
+                    warnings.push(Warning {
+                        code: Code::CaseFailed,
+                        message: format!("case {}: {e}", case.name),
+                        span: Some(case.span),
+                    });
+                    pumps.clear();
+                    (None, Some(e))
+                }
+            },
+            None => (None, error),
         };
         cases.push(CaseResult {
             name: case.name.clone(),
@@ -201,10 +219,11 @@ pub fn analyse(design: &Design) -> Analysis {
                     let l = s.losses(q);
                     let point = SystemPoint {
                         flow: q,
-                        head: s.static_head + l.friction + l.minor,
+                        head: s.static_head + l.friction + l.minor + l.network,
                         static_head: s.static_head,
                         friction: l.friction,
                         minor: l.minor,
+                        network: l.network,
                     };
                     (point, s.npsh_available_after(l.suction))
                 })

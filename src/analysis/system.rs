@@ -15,6 +15,7 @@ use uom::si::{
 };
 
 use crate::display::Units;
+use crate::analysis::network::station::StationNetwork;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
@@ -105,6 +106,8 @@ pub struct Losses {
     pub minor: f64,
     /// The part of friction + minor on the suction side, m.
     pub suction: f64,
+    /// The network's part: entry head at the flow minus at zero flow, m (0 for a chain).
+    pub network: f64,
 }
 
 /// A case's hydraulic model.
@@ -132,6 +135,11 @@ pub struct CaseSystem {
     pub segments: Vec<SegmentState>,
     /// New or aged pipe in this case.
     pub pipe_condition: PipeCondition,
+    /// The network the discharge lines feed (general form), with its entry head at
+    /// zero station flow, m; `None` for a single chain.
+    pub network: Option<(StationNetwork, f64)>,
+    /// Set when a network solve at some flow failed (the case is then reported failed).
+    pub network_failed: std::cell::Cell<bool>,
 }
 
 /// Why a case could not be set up.
@@ -198,82 +206,29 @@ impl CaseSystem {
         ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
         for line in ordered {
             for (i, seg) in line.segments.iter().enumerate() {
-                let d = seg.inner_diameter.get::<meter>();
-                let (roughness, roughness_source) = match (seg.roughness, roughness::roughness(seg.material)) {
-                    (Some(r), _) => (r.get::<meter>(), "given in the design".to_string()),
-                    (None, Some(entry)) => match s.pipe_condition {
-                        PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
-                        PipeCondition::Aged => (entry.aged_m, format!("{} (aged: {})", entry.source, entry.aged_note)),
-                    },
-                    (None, None) if seg.hazen_williams_c.is_some() => (0.0, "not used (Hazen-Williams)".to_string()),
-                    (None, None) => {
-                        return Err(SystemError { message: format!("line {} segment {}: material `{}` has no tabulated roughness; give `roughness = ...`", line.name, i + 1, seg.material.keyword()) })
-                    }
-                };
-                let mut k_constant = 0.0;
-                let mut fits = Vec::new();
-                for f in &seg.fittings {
-                    let ctx = KContext {
-                        reynolds: 1e5,
-                        inner_diameter_m: d,
-                        beta: f.beta,
-                        angle_rad: f.angle_rad,
-                    };
-                    fittings::k_value(f.spec, ctx).map_err(|e| SystemError {
-                        message: format!(
-                            "fitting `{}` on line `{}`: {}",
-                            f.spec.name, line.name, e.message
-                        ),
-                    })?;
-                    fits.push(FittingState {
-                        spec: f.spec,
-                        count: f.count,
-                        beta: f.beta,
-                        angle_rad: f.angle_rad,
-                    });
-                }
-                let mut equivalent_length = 0.0;
-                for l in &seg.losses {
-                    k_constant += l.k.unwrap_or(0.0);
-                    equivalent_length +=
-                        l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
-                }
-                let (mut k_laminar_sum, mut k_fixed_sum) = (0.0, 0.0);
-                for f in &fits {
-                    let n = f.count as f64;
-                    if fittings::is_constant(f.spec) {
-                        k_constant += n * k_of(f, 1e6, d);
-                    } else {
-                        // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
-                        k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
-                        k_fixed_sum += n * k_of(f, 0.0, d);
-                    }
-                }
-                segments.push(SegmentState {
-                    line: line.name.clone(),
-                    side: line.side,
-                    index: i,
-                    material: seg.material.keyword(),
-                    size_label: seg.size_label.clone(),
-                    diameter_source: seg.diameter_source.clone(),
-                    length: seg.length.get::<meter>(),
-                    inner_diameter: d,
-                    area: std::f64::consts::PI * d * d / 4.0,
-                    roughness,
-                    roughness_source,
-                    hazen_williams_c: seg.hazen_williams_c,
-                    fittings: fits,
-                    k_constant,
-                    k_laminar_sum,
-                    k_fixed_sum,
-                    equivalent_length,
-                });
+                segments.push(resolve_segment(s, &line.name, line.side, i, seg)?);
             }
         }
         let rho_g = fluid.density * G;
         let static_head = s.destination.level.get::<meter>() - s.source.level.get::<meter>()
             + (destination_abs_pa - source_abs_pa) / rho_g;
+        let (network, static_head) = match &s.network {
+            None => (None, static_head),
+            Some(layout) => {
+                let net = StationNetwork::build(s, layout, &fluid, barometric_pa)?;
+                let h0 = net.entry_head(0.0).map_err(|e| SystemError {
+                    message: format!("the network: {e}"),
+                })?;
+                // The entry head (gauge-based) stands in for the destination surface.
+                let stat = h0 + barometric_pa / rho_g
+                    - s.source.level.get::<meter>()
+                    - source_abs_pa / rho_g;
+                (Some((net, h0)), stat)
+            }
+        };
         Ok(CaseSystem {
+            network,
+            network_failed: std::cell::Cell::new(false),
             fluid,
             barometric_pa,
             barometric_source,
@@ -290,56 +245,17 @@ impl CaseSystem {
 
     /// Reynolds number in a segment at flow q (m³/s).
     pub fn reynolds(&self, seg: &SegmentState, q: f64) -> f64 {
-        let v = q.abs() / seg.area;
-        self.fluid.density * v * seg.inner_diameter / self.fluid.viscosity
+        reynolds_in(&self.fluid, seg, q)
     }
 
     /// Darcy friction factor and regime in a segment at flow q.
     pub fn friction(&self, seg: &SegmentState, q: f64) -> friction::Friction {
-        friction::darcy_friction_factor(
-            self.reynolds(seg, q).max(1e-9),
-            seg.roughness / seg.inner_diameter,
-        )
+        friction_in(&self.fluid, seg, q)
     }
 
     /// Wall-friction and minor losses of one segment at flow q, m.
     pub fn segment_losses(&self, seg: &SegmentState, q: f64) -> (f64, f64) {
-        if q <= 0.0 {
-            return (0.0, 0.0);
-        }
-        let v = q / seg.area;
-        let velocity_head = v * v / (2.0 * G);
-        let re = self.reynolds(seg, q);
-        // Wall friction and equivalent lengths by the segment's one method; the Darcy
-        // friction factor is only solved for when Darcy-Weisbach is used.
-        let (wall, equivalent) = match seg.hazen_williams_c {
-            Some(c) => {
-                let d = seg.inner_diameter;
-                let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
-                let equivalent = if seg.equivalent_length > 0.0 {
-                    friction::hazen_williams_head_loss_m(q, d, seg.equivalent_length, c)
-                } else {
-                    0.0
-                };
-                (wall, equivalent)
-            }
-            None => {
-                let f = self.friction(seg, q).f;
-                (
-                    f * seg.length / seg.inner_diameter * velocity_head,
-                    f * seg.equivalent_length / seg.inner_diameter * velocity_head,
-                )
-            }
-        };
-        // Σ count·(K1/Re + K_fixed) of the 2-K and 3-K fittings; like `k_value`, the
-        // K1/Re term is dropped at Re = 0.
-        let laminar = if re > 0.0 {
-            seg.k_laminar_sum / re
-        } else {
-            0.0
-        };
-        let k = seg.k_constant + seg.k_fixed_sum + laminar;
-        (wall, k * velocity_head + equivalent)
+        segment_losses_in(&self.fluid, seg, q)
     }
 
     /// All losses at flow q.
@@ -353,13 +269,29 @@ impl CaseSystem {
                 out.suction += wall + minor;
             }
         }
+        out.network = self.network_head(q);
         out
     }
 
     /// System head at flow q, m.
     pub fn head(&self, q: f64) -> f64 {
         let l = self.losses(q);
-        self.static_head + l.friction + l.minor
+        self.static_head + l.friction + l.minor + l.network
+    }
+
+    /// The network's part of the system head at flow q, m: H_entry(q) − H_entry(0).
+    /// A failed solve marks the case ([`CaseSystem::network_failed`]) and counts 0.
+    pub fn network_head(&self, q: f64) -> f64 {
+        match &self.network {
+            None => 0.0,
+            Some((net, h0)) => match net.entry_head(q.max(0.0)) {
+                Ok(h) => h - h0,
+                Err(_) => {
+                    self.network_failed.set(true);
+                    0.0
+                }
+            },
+        }
     }
 
     /// NPSH available at the pump suction at flow q, m: the absolute pressure head on
@@ -595,4 +527,139 @@ fn hazen_williams_remark(remark: friction::HazenWilliamsRemark, units: &Units) -
             crate::display::significant_trimmed(c, 4)
         ),
     }
+}
+
+/// Reynolds number ρ|v|D/μ in a segment at flow q (m³/s) of a fluid.
+pub fn reynolds_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> f64 {
+    let v = q.abs() / seg.area;
+    fluid.density * v * seg.inner_diameter / fluid.viscosity
+}
+
+/// Darcy friction factor and regime in a segment at flow q (m³/s) of a fluid.
+pub fn friction_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> friction::Friction {
+    friction::darcy_friction_factor(
+        reynolds_in(fluid, seg, q).max(1e-9),
+        seg.roughness / seg.inner_diameter,
+    )
+}
+
+/// Wall-friction and minor losses of one segment at flow q (m³/s) of a fluid, m
+/// (zero at q <= 0); see the module documentation for the laws.
+pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64, f64) {
+    if q <= 0.0 {
+        return (0.0, 0.0);
+    }
+    let v = q / seg.area;
+    let velocity_head = v * v / (2.0 * G);
+    let re = reynolds_in(fluid, seg, q);
+    // Wall friction and equivalent lengths by the segment's one method; the Darcy
+    // friction factor is only solved for when Darcy-Weisbach is used.
+    let (wall, equivalent) = match seg.hazen_williams_c {
+        Some(c) => {
+            let d = seg.inner_diameter;
+            let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
+            let equivalent = if seg.equivalent_length > 0.0 {
+                friction::hazen_williams_head_loss_m(q, d, seg.equivalent_length, c)
+            } else {
+                0.0
+            };
+            (wall, equivalent)
+        }
+        None => {
+            let f = friction_in(fluid, seg, q).f;
+            (
+                f * seg.length / seg.inner_diameter * velocity_head,
+                f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+            )
+        }
+    };
+    // Σ count·(K1/Re + K_fixed) of the 2-K and 3-K fittings; like `k_value`, the
+    // K1/Re term is dropped at Re = 0.
+    let laminar = if re > 0.0 {
+        seg.k_laminar_sum / re
+    } else {
+        0.0
+    };
+    let k = seg.k_constant + seg.k_fixed_sum + laminar;
+    (wall, k * velocity_head + equivalent)
+}
+
+/// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,
+/// fittings validated, their K sums split into constant and Reynolds-dependent parts.
+pub fn resolve_segment(
+    s: &Scenario,
+    line_name: &str,
+    side: Side,
+    i: usize,
+    seg: &crate::model::Segment,
+) -> Result<SegmentState, SystemError> {
+    let d = seg.inner_diameter.get::<meter>();
+    let (roughness, roughness_source) = match (seg.roughness, roughness::roughness(seg.material)) {
+                    (Some(r), _) => (r.get::<meter>(), "given in the design".to_string()),
+                    (None, Some(entry)) => match s.pipe_condition {
+                        PipeCondition::New => (entry.new_m, format!("{} (new)", entry.source)),
+                        PipeCondition::Aged => (entry.aged_m, format!("{} (aged: {})", entry.source, entry.aged_note)),
+                    },
+                    (None, None) if seg.hazen_williams_c.is_some() => (0.0, "not used (Hazen-Williams)".to_string()),
+                    (None, None) => {
+                        return Err(SystemError { message: format!("line {} segment {}: material `{}` has no tabulated roughness; give `roughness = ...`", line_name, i + 1, seg.material.keyword()) })
+                    }
+                };
+    let mut k_constant = 0.0;
+    let mut fits = Vec::new();
+    for f in &seg.fittings {
+        let ctx = KContext {
+            reynolds: 1e5,
+            inner_diameter_m: d,
+            beta: f.beta,
+            angle_rad: f.angle_rad,
+        };
+        fittings::k_value(f.spec, ctx).map_err(|e| SystemError {
+            message: format!(
+                "fitting `{}` on line `{}`: {}",
+                f.spec.name, line_name, e.message
+            ),
+        })?;
+        fits.push(FittingState {
+            spec: f.spec,
+            count: f.count,
+            beta: f.beta,
+            angle_rad: f.angle_rad,
+        });
+    }
+    let mut equivalent_length = 0.0;
+    for l in &seg.losses {
+        k_constant += l.k.unwrap_or(0.0);
+        equivalent_length += l.equivalent_length.map(|x| x.get::<meter>()).unwrap_or(0.0);
+    }
+    let (mut k_laminar_sum, mut k_fixed_sum) = (0.0, 0.0);
+    for f in &fits {
+        let n = f.count as f64;
+        if fittings::is_constant(f.spec) {
+            k_constant += n * k_of(f, 1e6, d);
+        } else {
+            // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
+            k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
+            k_fixed_sum += n * k_of(f, 0.0, d);
+        }
+    }
+    Ok(SegmentState {
+        line: line_name.to_string(),
+        side,
+        index: i,
+        material: seg.material.keyword(),
+        size_label: seg.size_label.clone(),
+        diameter_source: seg.diameter_source.clone(),
+        length: seg.length.get::<meter>(),
+        inner_diameter: d,
+        area: std::f64::consts::PI * d * d / 4.0,
+        roughness,
+        roughness_source,
+        hazen_williams_c: seg.hazen_williams_c,
+        fittings: fits,
+        k_constant,
+        k_laminar_sum,
+        k_fixed_sum,
+        equivalent_length,
+    })
 }

@@ -99,6 +99,10 @@ codes! {
     UnknownColumn = "unknown-column": "a curve table column that is not flow, head, efficiency, power or NPSH required";
     MissingColumn = "missing-column": "a curve table without its flow or head column";
     BadRow = "bad-row": "a curve row with the wrong number of values, or flows not increasing";
+    BadLink = "bad-link": "a network link not of the form `KIND NAME from A to B`, or from a node to itself";
+    UnusedNode = "unused-node": "a network node joined to no link, or nodes without a discharge line ending at one";
+    NoDownstreamTank = "no-downstream-tank": "a network that reaches no tank downstream of the station";
+    BadNode = "bad-node": "a network node (`junction`, `delivery`) without a name";
     BadProfile = "bad-profile": "a pipe profile whose chainage does not start at 0 or does not increase";
     TooFewPoints = "too-few-points": "a curve with fewer than 3 points";
     BadRequirement = "bad-requirement": "a requirement not of the form `QUANTITY >= VALUE [for CASE, ...]`";

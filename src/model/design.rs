@@ -31,6 +31,8 @@ pub struct Design {
     pub cases: Vec<Case>,
     /// Requirements checked for every case and candidate they apply to.
     pub requirements: Vec<Requirement>,
+    /// Requirements at network nodes (`pressure at NODE >= ...`).
+    pub node_requirements: Vec<super::network::NodeRequirement>,
     /// Pump candidates in file order.
     pub pumps: Vec<PumpCandidate>,
     /// Motor sizing settings (`motor { ... }`).
@@ -108,6 +110,8 @@ pub struct Scenario {
     pub centreline: Length,
     /// Suction and discharge lines in file order.
     pub lines: Vec<Line>,
+    /// The network the discharge lines feed (general form); `None` for a single chain.
+    pub network: Option<super::network::NetworkLayout>,
     /// New or aged pipe: which material roughness every segment uses.
     pub pipe_condition: PipeCondition,
     /// Operating hours per year in this case (energy); zero for a check-only case.
@@ -445,6 +449,8 @@ pub struct PumpCandidate {
     /// The motor's nameplate rating per pump when the design states it (`motor_rating`);
     /// `None` selects the smallest standard rating that carries every duty.
     pub motor_rating: Option<uom::si::f64::Power>,
+    /// The manufacturer's minimum continuous flow per pump (`min_flow`), when stated.
+    pub min_flow: Option<VolumeRate>,
     /// Where the pump's name is written.
     pub span: Span,
 }

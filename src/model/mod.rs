@@ -7,6 +7,7 @@ pub mod eval;
 mod fields;
 pub mod keywords;
 mod lower;
+pub mod network;
 mod pumps;
 pub mod ranges;
 pub mod scenario;

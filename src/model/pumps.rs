@@ -32,6 +32,7 @@ pub const PUMP_FIELDS: &[&str] = &[
     "max_speed",
     "min_trim",
     "motor_rating",
+    "min_flow",
 ];
 
 const COLUMNS: &[(&str, Dimension)] = &[
@@ -87,6 +88,7 @@ pub fn lower_pump(
         impeller: None,
         adjust: Adjust::None,
         motor_rating: None,
+        min_flow: None,
         span,
     };
     let mut push = |r: Result<(), Diagnostic>| {
@@ -167,6 +169,20 @@ pub fn lower_pump(
                         ));
                     }
                     p.motor_rating = Some(uom::si::f64::Power::new::<watt>(v));
+                }
+                "min_flow" => {
+                    let v =
+                        expect_dim(e, env, Dimension::VOLUME_RATE, "minimum continuous flow")?.si;
+                    if !(v.is_finite() && v > 0.0) {
+                        return Err(Diagnostic::error(
+                            Code::OutOfRange,
+                            "the minimum continuous flow must be greater than zero",
+                            Some(e.span),
+                        ));
+                    }
+                    p.min_flow = Some(uom::si::f64::VolumeRate::new::<
+                        uom::si::volume_rate::cubic_meter_per_second,
+                    >(v));
                 }
                 "adjust" => {
                     adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?

@@ -854,6 +854,15 @@ pub fn apply_override(
         [tank, field] if *tank == s.destination.name && TANK_FIELDS.contains(field) => {
             set_tank(&mut s.destination, field, e, env)?
         }
+        [name, field] if s.network.as_ref().is_some_and(|n| n.has(name)) => {
+            if let Some(result) = s
+                .network
+                .as_mut()
+                .and_then(|n| n.apply_override(name, field, e, env))
+            {
+                result?
+            }
+        }
         [pump, "speed"] if s.pump_speeds.iter().any(|(n, _)| n == pump) => {
             let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
             let v = positive(v, "a pump speed", e.span)?;

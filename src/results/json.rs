@@ -141,6 +141,9 @@ struct Point {
     static_head_m: f64,
     friction_head_m: f64,
     minor_head_m: f64,
+    /// Wave 2, networks only: the entry head above its zero-flow value.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    network_head_m: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -170,6 +173,9 @@ struct Pump<'a> {
     capacity_flow_m3_s: Option<f64>,
     motor_efficiency_source: &'a str,
     warnings: &'a [String],
+    /// Wave 2, networks only: the network at the duty point.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    network: Option<engineering::NetworkOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -343,6 +349,7 @@ fn case<'a>(
                 static_head_m: p.static_head,
                 friction_head_m: p.friction,
                 minor_head_m: p.minor,
+                network_head_m: s.and_then(|s| s.network.as_ref()).map(|_| p.network),
             })
             .collect(),
         pumps: c.pumps.iter().map(pump).collect(),
@@ -428,6 +435,7 @@ fn pump(p: &PumpResult) -> Pump<'_> {
         capacity_flow_m3_s: p.capacity_flow,
         motor_efficiency_source: &p.motor_efficiency.1,
         warnings: &p.warnings,
+        network: p.network.as_ref().map(engineering::network),
     }
 }
 

@@ -83,20 +83,28 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 }
             );
         }
+        let networked = s.network.is_some();
         let _ = writeln!(
             o,
-            "  system curve ({} | {} = static + friction + minor):",
-            fl.label, hd.label
+            "  system curve ({} | {} = static + friction + minor{}):",
+            fl.label,
+            hd.label,
+            if networked { " + network" } else { "" }
         );
         for pt in c.system_curve.iter().step_by(3) {
             let _ = writeln!(
                 o,
-                "    {:>9} | {:>8} = {} + {} + {}",
+                "    {:>9} | {:>8} = {} + {} + {}{}",
                 fl.num(pt.flow),
                 hd.num(pt.head),
                 hd.num(pt.static_head),
                 hd.num(pt.friction),
-                hd.num(pt.minor)
+                hd.num(pt.minor),
+                if networked {
+                    format!(" + {}", hd.num(pt.network))
+                } else {
+                    String::new()
+                }
             );
         }
         for r in &c.pumps {
@@ -126,6 +134,9 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                             vel.fmt(v1),
                             vel.fmt(v2)
                         );
+                    }
+                    if let Some(n) = &r.network {
+                        network_detail(&mut o, &u, n);
                     }
                 }
                 None => {
@@ -385,5 +396,63 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
             })
             .collect();
         let _ = writeln!(o, "requirement {}: {}", row.text, cells.join("; "));
+    }
+}
+
+/// The network at a duty point: every node (head, pressure, flags) and link.
+fn network_detail(o: &mut String, u: &Units, n: &crate::analysis::network::station::NetworkAtDuty) {
+    let (fl, hd, pr, vel) = (u.flow(), u.head(), u.pressure(), u.velocity());
+    for x in &n.nodes {
+        let mut flags = Vec::new();
+        if x.below_required {
+            flags.push("BELOW REQUIRED");
+        }
+        if x.below_atmospheric {
+            flags.push("BELOW ATMOSPHERIC");
+        }
+        if x.near_vapour {
+            flags.push("NEAR VAPOUR PRESSURE");
+        }
+        let _ = writeln!(
+            o,
+            "    node {} ({}): elevation {}, head {}, pressure {}{}{}{}{}",
+            x.name,
+            x.kind,
+            u.elevation().fmt(x.elevation),
+            hd.fmt(x.head),
+            pr.fmt(x.pressure),
+            if x.demand > 0.0 {
+                format!(", demand {}", fl.fmt(x.demand))
+            } else {
+                String::new()
+            },
+            x.inflow
+                .map(|q| format!(", inflow {}", fl.fmt(q)))
+                .unwrap_or_default(),
+            x.required_pressure
+                .map(|r| format!(", required {}", pr.fmt(r)))
+                .unwrap_or_default(),
+            if flags.is_empty() {
+                String::new()
+            } else {
+                format!(" [{}]", flags.join(", "))
+            }
+        );
+    }
+    for l in &n.links {
+        let _ = writeln!(
+            o,
+            "    link {} ({}, {} to {}): flow {}{}, head loss {}{}",
+            l.name,
+            l.kind,
+            l.from,
+            l.to,
+            fl.fmt(l.flow),
+            l.velocity
+                .map(|v| format!(", velocity {}", vel.fmt(v)))
+                .unwrap_or_default(),
+            hd.fmt(l.head_loss),
+            if l.closed { " [closed]" } else { "" }
+        );
     }
 }

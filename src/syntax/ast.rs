@@ -68,10 +68,12 @@ pub enum StatementKind {
         /// Its value.
         value: Expr,
     },
-    /// `path >= expr [for case, case]`
+    /// `path [at node] >= expr [for case, case]`
     Condition {
         /// The constrained quantity (`flow`).
         path: Path,
+        /// The network node of `pressure at NODE >= ...`, when given.
+        at: Option<Ident>,
         /// `>=` or `<=`.
         op: CompareOp,
         /// The limit.

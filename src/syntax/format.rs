@@ -289,11 +289,21 @@ impl<'a> Printer<'a> {
             }
             StatementKind::Condition {
                 path,
+                at,
                 op,
                 value,
                 cases,
             } => {
-                let mut s = format!("{} {} {}", path.dotted(), op.symbol(), expr(value, depth));
+                let place = at
+                    .as_ref()
+                    .map(|n| format!(" at {}", n.name))
+                    .unwrap_or_default();
+                let mut s = format!(
+                    "{}{place} {} {}",
+                    path.dotted(),
+                    op.symbol(),
+                    expr(value, depth)
+                );
                 if !cases.is_empty() {
                     let names: Vec<&str> = cases.iter().map(|c| c.name.as_str()).collect();
                     s.push_str(" for ");

@@ -361,9 +361,16 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                 let mut op = CompareOp::AtLeast;
                 let mut value = empty_expr(sp);
                 let mut cases = Vec::new();
+                let mut at = None;
                 for x in inner.into_inner() {
                     match x.as_rule() {
                         Rule::path => path_v = path(x),
+                        Rule::at_node => {
+                            at = x
+                                .into_inner()
+                                .find(|y| y.as_rule() == Rule::ident)
+                                .map(ident)
+                        }
                         Rule::cmp_op => {
                             op = if matches!(x.as_str(), ">=" | "≥") {
                                 CompareOp::AtLeast
@@ -384,6 +391,7 @@ fn statement(p: Pair<Rule>, errors: &mut Vec<Diagnostic>) -> Statement {
                 }
                 StatementKind::Condition {
                     path: path_v,
+                    at,
                     op,
                     value,
                     cases,

@@ -17,12 +17,15 @@ pub struct Network {
     pub lines: Vec<Line>,
     pub source: Option<Tank>,
     pub destination: Option<Tank>,
+    /// The network node the discharge lines end at, when they end at one (general form).
+    pub entry: Option<String>,
 }
 
 /// Every line, the segment limit, and the one source and one destination tank.
 pub fn lower_lines(
     blocks: &Blocks,
     tanks: &[Tank],
+    nodes: &[String],
     env: &Env,
     files: &dyn FileAccess,
     diags: &mut Vec<Diagnostic>,
@@ -30,14 +33,27 @@ pub fn lower_lines(
     let mut lines: Vec<Line> = Vec::new();
     let errors_before = diags.iter().filter(|x| x.is_error()).count();
     for block in blocks.all("line") {
-        if let Some(line) = lower_line(block, &lines, tanks, env, files, diags) {
+        if !nodes.is_empty() && is_network_line(block) {
+            continue; // a link between two nodes: lowered with the network
+        }
+        if let Some(line) = lower_line(block, &lines, tanks, nodes, env, files, diags) {
             lines.push(line);
         }
     }
     check_segment_count(&lines, diags);
     let line_failed = diags.iter().filter(|x| x.is_error()).count() > errors_before;
     let source = end_tank(&lines, Side::Suction, tanks, diags);
-    let destination = end_tank(&lines, Side::Discharge, tanks, diags);
+    let entry = lines
+        .iter()
+        .find(|l| l.side == Side::Discharge && nodes.contains(&l.to))
+        .map(|l| l.to.clone());
+    let destination = match &entry {
+        Some(node) => {
+            same_far_end(&lines, node, diags);
+            None
+        }
+        None => end_tank(&lines, Side::Discharge, tanks, diags),
+    };
     if !line_failed {
         missing_side(&lines, blocks, diags);
     }
@@ -45,6 +61,24 @@ pub fn lower_lines(
         lines,
         source,
         destination,
+        entry,
+    }
+}
+
+/// A `line NAME from A to B` with neither end `pump`.
+pub(super) fn is_network_line(block: &Block) -> bool {
+    line_ends(block.args).is_some_and(|(_, _, a, b)| a.0 != "pump" && b.0 != "pump")
+}
+
+/// Every discharge line of a network design ends at its entry node.
+fn same_far_end(lines: &[Line], entry: &str, diags: &mut Vec<Diagnostic>) {
+    if let Some(other) = lines
+        .iter()
+        .find(|l| l.side == Side::Discharge && l.to != entry)
+    {
+        diags.push(Diagnostic::error(Code::BadLine, "all discharge lines must end at the same node", Some(other.span))
+            .with_label(format!("this discharge line ends at `{}`, the first at `{entry}`", other.to))
+            .with_help("the discharge lines run in series from the pump to the node where the network begins; write the rest as `line NAME from NODE to NODE`"));
     }
 }
 
@@ -54,6 +88,7 @@ fn lower_line(
     block: &Block,
     earlier: &[Line],
     tanks: &[Tank],
+    nodes: &[String],
     env: &Env,
     files: &dyn FileAccess,
     diags: &mut Vec<Diagnostic>,
@@ -82,7 +117,8 @@ fn lower_line(
         }
     };
     let tank_end = if side == Side::Suction { &from } else { &to };
-    if !tanks.iter().any(|t| t.name == tank_end.0) {
+    let at_node = side == Side::Discharge && nodes.contains(&tank_end.0);
+    if !at_node && !tanks.iter().any(|t| t.name == tank_end.0) {
         diags.push(unknown_tank(&tank_end.0, tank_end.1, tanks));
         return None;
     }
@@ -113,10 +149,10 @@ fn lower_line(
 }
 
 /// A named end of a line: the word and where it is written.
-type End = (String, Span);
+pub(super) type End = (String, Span);
 
 /// Name, name span and the two ends of `NAME from A to B`, when the arguments have that shape.
-fn line_ends(args: &[Arg]) -> Option<(String, Span, End, End)> {
+pub(super) fn line_ends(args: &[Arg]) -> Option<(String, Span, End, End)> {
     match args {
         [Arg {
             kind: ArgKind::Word(n),

@@ -9,6 +9,7 @@ mod candidates;
 mod cases;
 mod constants;
 mod lines;
+mod network;
 mod operation;
 pub(crate) mod profile;
 mod project;
@@ -48,13 +49,21 @@ pub fn lower(
     let texts = project::lower_texts(&blocks, &env, &mut diags);
     let setting = setting::lower_setting(&blocks, &env, &mut diags);
     let tanks = tanks::lower_tanks(&blocks, &env, &mut diags);
-    let network = lines::lower_lines(&blocks, &tanks, &env, files, &mut diags);
+    let nodes = network::lower_nodes(&blocks, &tanks, &env, &mut diags);
+    let node_names: Vec<String> = nodes.iter().map(|n| n.name.clone()).collect();
+    let mut network = lines::lower_lines(&blocks, &tanks, &node_names, &env, files, &mut diags);
+    let (layout, downstream) =
+        network::lower_network(&blocks, &tanks, nodes, &network, &env, &mut diags);
+    if layout.is_some() {
+        network.destination = downstream;
+    }
     let pump_list = candidates::lower_candidates(&blocks, &env, files, &mut diags);
     let motor = operation::lower_motor(blocks.body("motor"), texts.project.units, &env, &mut diags);
     let energy = operation::lower_energy(blocks.body("energy"), &env, &mut diags);
-    let base = base_scenario(setting, network, &pump_list);
+    let base = base_scenario(setting, network, layout, &pump_list);
     let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
-    let requirements = requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    let (requirements, node_requirements) =
+        requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
     diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
@@ -67,6 +76,7 @@ pub fn lower(
             base,
             cases,
             requirements,
+            node_requirements,
             pumps: pump_list,
             motor,
             energy,
@@ -80,6 +90,7 @@ pub fn lower(
 fn base_scenario(
     setting: setting::Setting,
     network: lines::Network,
+    layout: Option<crate::model::network::NetworkLayout>,
     pump_list: &[PumpCandidate],
 ) -> Option<Scenario> {
     let setting::Setting {
@@ -91,6 +102,7 @@ fn base_scenario(
         lines,
         source,
         destination,
+        ..
     } = network;
     match (fluid, source, destination, centreline) {
         (Some(fluid), Some(source), Some(destination), Some(centreline)) => Some(Scenario {
@@ -100,6 +112,7 @@ fn base_scenario(
             destination,
             centreline,
             lines,
+            network: layout,
             pipe_condition: PipeCondition::New,
             hours_per_year: Time::new::<second>(0.0),
             pump_speeds: pump_list

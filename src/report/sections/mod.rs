@@ -11,6 +11,7 @@ mod checks;
 mod design_basis;
 mod front;
 mod method;
+mod network;
 mod references;
 mod safety;
 mod selection;
@@ -77,6 +78,7 @@ pub fn document_attached(
     design_basis::chapter(&mut blocks, design, analysis, &units);
     method::chapter(&mut blocks, &units);
     system_curves::chapter(&mut blocks, analysis, &units);
+    network::chapter(&mut blocks, design, analysis, &units);
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }

@@ -274,3 +274,77 @@ pub(super) fn requirement_matrix<'a>(
         })
         .collect()
 }
+
+/// The network at a duty point (`cases[].pumps[].network`).
+#[derive(Serialize)]
+pub struct NetworkOut<'a> {
+    station_flow_m3_s: f64,
+    nodes: Vec<NodeOut<'a>>,
+    links: Vec<LinkOut<'a>>,
+}
+
+#[derive(Serialize)]
+#[allow(non_snake_case)]
+struct NodeOut<'a> {
+    name: &'a str,
+    kind: &'static str,
+    elevation_m: f64,
+    head_m: f64,
+    pressure_Pa: f64,
+    demand_m3_s: f64,
+    inflow_m3_s: Option<f64>,
+    required_pressure_Pa: Option<f64>,
+    below_required: bool,
+    below_atmospheric: bool,
+    near_vapour_pressure: bool,
+}
+
+#[derive(Serialize)]
+struct LinkOut<'a> {
+    name: &'a str,
+    kind: &'static str,
+    from: &'a str,
+    to: &'a str,
+    flow_m3_s: f64,
+    velocity_m_s: Option<f64>,
+    head_loss_m: f64,
+    closed: bool,
+}
+
+/// The JSON view of a network at a duty point.
+pub fn network(n: &crate::analysis::network::station::NetworkAtDuty) -> NetworkOut<'_> {
+    NetworkOut {
+        station_flow_m3_s: n.station_flow,
+        nodes: n
+            .nodes
+            .iter()
+            .map(|x| NodeOut {
+                name: &x.name,
+                kind: x.kind,
+                elevation_m: x.elevation,
+                head_m: x.head,
+                pressure_Pa: x.pressure,
+                demand_m3_s: x.demand,
+                inflow_m3_s: x.inflow,
+                required_pressure_Pa: x.required_pressure,
+                below_required: x.below_required,
+                below_atmospheric: x.below_atmospheric,
+                near_vapour_pressure: x.near_vapour,
+            })
+            .collect(),
+        links: n
+            .links
+            .iter()
+            .map(|l| LinkOut {
+                name: &l.name,
+                kind: l.kind,
+                from: &l.from,
+                to: &l.to,
+                flow_m3_s: l.flow,
+                velocity_m_s: l.velocity,
+                head_loss_m: l.head_loss,
+                closed: l.closed,
+            })
+            .collect(),
+    }
+}

@@ -1,0 +1,315 @@
+//! The network a station feeds, for one case: built from the design's
+//! [`NetworkLayout`], solved at any station flow, and summarised at a duty point.
+//!
+//! The station's flow Q enters at the entry node (where the discharge lines end); the
+//! demands are the case's; the downstream tanks float on the network and take or give
+//! the rest, so the split between destinations is a result of each solve. The head the
+//! station must supply at Q is then H_entry(Q) plus the chain's losses to the entry node
+//! ([`crate::analysis::CaseSystem::head`]): the station's system curve.
+
+use uom::si::{length::meter, pressure::pascal, volume_rate::cubic_meter_per_second};
+
+use super::{
+    solve_prepared, Characteristic, Element, Equipment, Link, Network, NetworkError, Node,
+    NodeKind, PipeRun, Prepared, Settings, Solution, Valve,
+};
+use crate::analysis::system::{resolve_segment, FluidState, SystemError, G};
+use crate::model::network::{NetLinkKind, NetworkLayout, ValveCharacteristic};
+use crate::model::{Scenario, Side, SurfacePressure, Tank};
+
+/// A node is "near vapour pressure" when its absolute pressure is below this multiple
+/// of the vapour pressure plus one metre of head (a screening margin, common practice).
+pub const NEAR_VAPOUR_HEAD_M: f64 = 3.0;
+
+/// The network downstream of a station in one case, ready to solve at any flow.
+#[derive(Clone, Debug)]
+pub struct StationNetwork {
+    pub network: Network,
+    /// Index of the entry node in `network.nodes`.
+    pub entry: usize,
+    /// The entry node's own demand (m³/s), before the station's inflow is subtracted.
+    entry_demand: f64,
+    /// Barometric pressure, Pa (for absolute pressures at nodes).
+    pub barometric_pa: f64,
+    /// The topology prepared once (checks, ordering) for the many solves of a case.
+    prepared: Prepared,
+}
+
+fn gauge(p: SurfacePressure, barometric: f64) -> f64 {
+    match p {
+        SurfacePressure::Gauge(g) => g.get::<pascal>(),
+        SurfacePressure::Absolute(a) => a.get::<pascal>() - barometric,
+    }
+}
+
+fn tank_node(t: &Tank, barometric: f64) -> Node {
+    Node {
+        name: t.name.clone(),
+        kind: NodeKind::FixedHead {
+            level: t.level.get::<meter>(),
+            surface_pressure: gauge(t.surface_pressure, barometric),
+        },
+        elevation: t.level.get::<meter>(),
+        required_pressure: None,
+        word: "tank",
+    }
+}
+
+impl StationNetwork {
+    /// Build the case's network from its scenario.
+    pub fn build(
+        s: &Scenario,
+        layout: &NetworkLayout,
+        fluid: &FluidState,
+        barometric_pa: f64,
+    ) -> Result<StationNetwork, SystemError> {
+        let mut nodes: Vec<Node> = layout
+            .nodes
+            .iter()
+            .map(|n| Node {
+                name: n.name.clone(),
+                kind: NodeKind::Junction {
+                    demand: n.demand.get::<cubic_meter_per_second>(),
+                },
+                elevation: n.elevation.get::<meter>(),
+                required_pressure: n.required_pressure.map(|p| p.get::<pascal>()),
+                word: if n.delivery { "delivery" } else { "junction" },
+            })
+            .collect();
+        for t in std::iter::once(&s.destination)
+            .chain(&layout.tanks)
+            .chain(std::iter::once(&s.source))
+        {
+            if !nodes.iter().any(|n| n.name == t.name) {
+                nodes.push(tank_node(t, barometric_pa));
+            }
+        }
+        let at = |name: &str| nodes.iter().position(|n| n.name == name);
+        let entry = at(&layout.entry).ok_or_else(|| SystemError {
+            message: format!("the network's entry node `{}` is not defined", layout.entry),
+        })?;
+        let mut links = Vec::with_capacity(layout.links.len());
+        for l in &layout.links {
+            let (Some(from), Some(to)) = (at(&l.from), at(&l.to)) else {
+                return Err(SystemError {
+                    message: format!("link `{}` names an unknown node", l.name),
+                });
+            };
+            links.push(Link {
+                name: l.name.clone(),
+                from,
+                to,
+                element: element(s, &l.name, &l.kind)?,
+                check: l.check,
+            });
+        }
+        // Tanks no link reaches (the source when the network does not return to it).
+        let used: Vec<bool> = (0..nodes.len())
+            .map(|i| i == entry || links.iter().any(|l| l.from == i || l.to == i))
+            .collect();
+        let keep: Vec<usize> = (0..nodes.len()).filter(|&i| used[i]).collect();
+        let renumber = |i: usize| keep.iter().position(|&k| k == i).unwrap_or(0);
+        for l in &mut links {
+            l.from = renumber(l.from);
+            l.to = renumber(l.to);
+        }
+        let entry = renumber(entry);
+        let nodes: Vec<Node> = keep.iter().map(|&i| nodes[i].clone()).collect();
+        let entry_demand = match nodes[entry].kind {
+            NodeKind::Junction { demand } => demand,
+            NodeKind::FixedHead { .. } => 0.0,
+        };
+        let network = Network {
+            fluid: fluid.clone(),
+            nodes,
+            links,
+        };
+        let prepared = Prepared::new(&network).map_err(|e| SystemError {
+            message: format!("the network: {e}"),
+        })?;
+        Ok(StationNetwork {
+            prepared,
+            network,
+            entry,
+            entry_demand,
+            barometric_pa,
+        })
+    }
+
+    /// Solve with the station delivering `q` (m³/s) into the entry node.
+    pub fn solve_at(&self, q: f64) -> Result<Solution, NetworkError> {
+        let mut net = self.network.clone();
+        net.nodes[self.entry].kind = NodeKind::Junction {
+            demand: self.entry_demand - q,
+        };
+        solve_prepared(&net, &self.prepared, &Settings::default())
+    }
+
+    /// Head at the entry node, m, with the station delivering `q` (m³/s).
+    pub fn entry_head(&self, q: f64) -> Result<f64, NetworkError> {
+        Ok(self.solve_at(q)?.nodes[self.entry].head)
+    }
+}
+
+fn element(s: &Scenario, name: &str, kind: &NetLinkKind) -> Result<Element, SystemError> {
+    Ok(match kind {
+        NetLinkKind::Pipe(segments) => Element::Pipe(PipeRun {
+            segments: segments
+                .iter()
+                .enumerate()
+                .map(|(i, seg)| resolve_segment(s, name, Side::Discharge, i, seg))
+                .collect::<Result<_, _>>()?,
+        }),
+        NetLinkKind::Valve(v) => Element::Valve(Valve {
+            kvs: v.kvs,
+            characteristic: match v.characteristic {
+                ValveCharacteristic::Linear => Characteristic::Linear,
+                ValveCharacteristic::EqualPercentage { rangeability } => {
+                    Characteristic::EqualPercentage { rangeability }
+                }
+            },
+            opening: v.opening,
+        }),
+        NetLinkKind::Equipment(q) => Element::Equipment(Equipment {
+            rated_drop: q.drop.get::<pascal>(),
+            rated_flow: q.rated_flow.get::<cubic_meter_per_second>(),
+            exponent: q.exponent,
+        }),
+    })
+}
+
+/// One node at a duty point, with the flags a reviewer looks for.
+#[derive(Clone, Debug, PartialEq)]
+pub struct NodeAtDuty {
+    pub name: String,
+    /// `tank`, `junction` or `delivery`.
+    pub kind: &'static str,
+    /// Elevation, m.
+    pub elevation: f64,
+    /// Piezometric head, m.
+    pub head: f64,
+    /// Gauge pressure, Pa.
+    pub pressure: f64,
+    /// Demand drawn off, m³/s (0 for a tank).
+    pub demand: f64,
+    /// Flow into a tank from the network, m³/s (negative: the tank supplies it).
+    pub inflow: Option<f64>,
+    /// Required residual gauge pressure, Pa, when stated.
+    pub required_pressure: Option<f64>,
+    /// Below its required pressure.
+    pub below_required: bool,
+    /// Below zero gauge pressure.
+    pub below_atmospheric: bool,
+    /// Absolute pressure within [`NEAR_VAPOUR_HEAD_M`] of vapour pressure.
+    pub near_vapour: bool,
+}
+
+/// One link at a duty point.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LinkAtDuty {
+    pub name: String,
+    /// `pipe`, `valve` or `equipment`.
+    pub kind: &'static str,
+    pub from: String,
+    pub to: String,
+    /// m³/s, positive from → to.
+    pub flow: f64,
+    /// Largest velocity along a pipe run, m/s.
+    pub velocity: Option<f64>,
+    /// H(from) − H(to), m.
+    pub head_loss: f64,
+    /// Held shut (check valve against reverse flow, shut valve).
+    pub closed: bool,
+}
+
+/// The network at one duty point.
+#[derive(Clone, Debug, PartialEq)]
+pub struct NetworkAtDuty {
+    /// The station's flow, m³/s.
+    pub station_flow: f64,
+    pub nodes: Vec<NodeAtDuty>,
+    pub links: Vec<LinkAtDuty>,
+    pub iterations: usize,
+}
+
+impl StationNetwork {
+    /// The network at a station flow, with flags (see [`NodeAtDuty`]).
+    pub fn at_duty(&self, q: f64) -> Result<NetworkAtDuty, NetworkError> {
+        let sol = self.solve_at(q)?;
+        let net = &self.network;
+        let rho_g = net.fluid.density * G;
+        let nodes = net
+            .nodes
+            .iter()
+            .enumerate()
+            .map(|(i, n)| {
+                let st = sol.nodes[i];
+                let fixed = matches!(n.kind, NodeKind::FixedHead { .. });
+                let inflow = fixed.then(|| {
+                    net.links
+                        .iter()
+                        .enumerate()
+                        .map(|(k, l)| {
+                            let f = sol.links[k].flow;
+                            if l.to == i {
+                                f
+                            } else if l.from == i {
+                                -f
+                            } else {
+                                0.0
+                            }
+                        })
+                        .sum()
+                });
+                let absolute = st.pressure + self.barometric_pa;
+                let demand = match n.kind {
+                    NodeKind::Junction { .. } if i == self.entry => self.entry_demand,
+                    NodeKind::Junction { demand } => demand,
+                    NodeKind::FixedHead { .. } => 0.0,
+                };
+                NodeAtDuty {
+                    name: n.name.clone(),
+                    kind: n.word,
+                    elevation: n.elevation,
+                    head: st.head,
+                    pressure: st.pressure,
+                    demand,
+                    inflow,
+                    required_pressure: n.required_pressure,
+                    below_required: n.required_pressure.is_some_and(|r| st.pressure < r),
+                    below_atmospheric: !fixed && st.pressure < 0.0,
+                    near_vapour: !fixed
+                        && absolute < net.fluid.vapor_pressure + NEAR_VAPOUR_HEAD_M * rho_g,
+                }
+            })
+            .collect();
+        let links = net
+            .links
+            .iter()
+            .enumerate()
+            .map(|(k, l)| LinkAtDuty {
+                name: l.name.clone(),
+                kind: l.element.kind(),
+                from: net.nodes[l.from].name.clone(),
+                to: net.nodes[l.to].name.clone(),
+                // A flow at rounding level is shown as zero (never "-0").
+                flow: if sol.links[k].flow.abs() < 1e-12 {
+                    0.0
+                } else {
+                    sol.links[k].flow
+                },
+                velocity: sol.links[k]
+                    .velocity
+                    .map(|v| if v < 1e-12 { 0.0 } else { v }),
+                head_loss: sol.links[k].head_loss,
+                closed: sol.links[k].closed,
+            })
+            .collect();
+        Ok(NetworkAtDuty {
+            station_flow: q,
+            nodes,
+            links,
+            iterations: sol.iterations,
+        })
+    }
+}

@@ -1,0 +1,444 @@
+//! The network chapter (general-form designs only): how the network is solved, its
+//! links with the data each loss is computed from, and per case and candidate the
+//! nodes (head, pressure, flags) and links (flow, velocity, head loss) at the duty.
+
+use crate::analysis::network::station::{NetworkAtDuty, StationNetwork};
+use crate::analysis::network::{Characteristic, Element};
+use crate::analysis::system::k_of;
+use crate::analysis::Analysis;
+use crate::analysis::CaseSystem;
+use crate::display::Units;
+use crate::model::Design;
+use crate::report::layout::chart::{Chart, Marker, Series};
+use crate::report::layout::document::{Align, Block, Column};
+
+/// The chapter, when the design has a network.
+pub(super) fn chapter(
+    blocks: &mut Vec<Block>,
+    design: &Design,
+    analysis: &Analysis,
+    units: &Units,
+) {
+    if design.base.network.is_none() {
+        return;
+    }
+    blocks.push(Block::heading(1, "Network"));
+    let valve_law = if units.system == crate::model::ReportUnits::Us {
+        "valves follow Δp = SG·(Q/Cv)² with Δp in psi and Q in US gal/min (Cv = 1.156 Kv; \
+         IEC 60534-2-1, SG relative to water of the Kv definition)"
+    } else {
+        "valves follow Δp = (ρ/ρ₀)·(Q/Kv)² with Δp in bar and Q in m³/h (IEC 60534-2-1, ρ₀ \
+         of water, 1000 kg/m³; Cv = 1.156 Kv)"
+    };
+    blocks.push(Block::text(format!(
+        "The discharge lines end at the network's entry node; from there the flow divides \
+         between the delivery points, junction demands and the downstream tanks. Heads at \
+         the junctions and flows in the links are solved together by the global gradient \
+         algorithm (Todini, E. and Pilati, S., \"A gradient algorithm for the analysis of \
+         pipe networks\", Computer Applications in Water Supply, vol. 1, 1988): every link's \
+         head loss equals the head difference across it and the flows balance at every \
+         junction, both far below the printed precision. Pipe runs use the same friction and \
+         fitting methods as the chain; {valve_law}, at the Kv of their inherent \
+         characteristic (linear Kv = x·Kvs, equal percentage Kv = Kvs·R^(x−1), x the \
+         opening); equipment scales its stated drop as (Q/Q_rated)ⁿ. The system curve is the \
+         head the station must supply at each flow with the split solved at that flow: its \
+         'network' part is the entry node's head above its value at zero station flow."
+    )));
+    blocks.push(Block::text(
+        "Pressures are steady-state values. Nodes below atmospheric pressure or near the \
+         vapour pressure are flagged; such pressures, and every pressure rating, call for a \
+         transient (surge) analysis and for review by a licensed engineer under the local \
+         codes, with the pipe and valve manufacturers' certified data.",
+    ));
+    if let Some((net, _)) = analysis
+        .cases
+        .iter()
+        .find_map(|c| c.system.as_ref().and_then(|s| s.network.as_ref()))
+    {
+        links_table(blocks, net, units);
+    }
+    if !design.node_requirements.is_empty() {
+        let pr = units.pressure();
+        let fl = units.flow();
+        let rows = design
+            .node_requirements
+            .iter()
+            .map(|r| {
+                let (what, limit) = match r.quantity {
+                    crate::model::network::NodeQuantity::Pressure => {
+                        ("pressure", pr.fmt(r.limit_si))
+                    }
+                    crate::model::network::NodeQuantity::Flow => {
+                        ("flow into the tank", fl.fmt(r.limit_si))
+                    }
+                };
+                vec![
+                    format!(
+                        "{what} at {} {} {limit}",
+                        r.node,
+                        if r.at_least { "≥" } else { "≤" }
+                    ),
+                    if r.cases.is_empty() {
+                        "every case".to_string()
+                    } else {
+                        r.cases.join(", ")
+                    },
+                ]
+            })
+            .collect();
+        blocks.push(Block::Table {
+            columns: vec![
+                Column::new("Requirement at a node", 0.6, Align::Left),
+                Column::new("Applies to", 0.4, Align::Left),
+            ],
+            rows,
+            caption: Some(
+                "Requirements at network nodes (checked at every duty; see Checks)".into(),
+            ),
+        });
+    }
+    if let Some((case, p, at)) = analysis.cases.iter().find_map(|c| {
+        c.pumps
+            .iter()
+            .find_map(|p| p.network.as_ref().map(|at| (c, p, at)))
+    }) {
+        if let Some(sys) = &case.system {
+            schematic(blocks, sys, &case.name, &p.name, at, units);
+        }
+    }
+    for case in &analysis.cases {
+        for p in &case.pumps {
+            if let Some(at) = &p.network {
+                state_tables(
+                    blocks,
+                    &format!("case {}, pump {}", case.name, p.name),
+                    at,
+                    units,
+                );
+            }
+        }
+    }
+}
+
+/// The links with the data their losses come from (base case values).
+fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
+    let (len, dia, rough) = (units.length(), units.diameter(), units.roughness());
+    let pr = units.pressure();
+    let fl = units.flow();
+    let rows = net
+        .network
+        .links
+        .iter()
+        .map(|l| {
+            let data = match &l.element {
+                Element::Pipe(run) => run
+                    .segments
+                    .iter()
+                    .map(|s| {
+                        let k: Vec<String> = s
+                            .fittings
+                            .iter()
+                            .map(|f| {
+                                format!(
+                                    "{} × {} (K {:.3} at Re 1e5)",
+                                    f.count,
+                                    f.spec.name,
+                                    k_of(f, 1e5, s.inner_diameter)
+                                )
+                            })
+                            .collect();
+                        format!(
+                            "{} {}, ID {}, {}, roughness {}{}{}",
+                            s.material,
+                            s.size_label,
+                            dia.fmt(s.inner_diameter),
+                            len.fmt(s.length),
+                            rough.fmt(s.roughness),
+                            if s.k_constant > 0.0 {
+                                format!(", constant-K sum {:.2}", s.k_constant)
+                            } else {
+                                String::new()
+                            },
+                            if k.is_empty() {
+                                String::new()
+                            } else {
+                                format!("; {}", k.join(", "))
+                            }
+                        )
+                    })
+                    .collect::<Vec<_>>()
+                    .join("; then "),
+                Element::Valve(v) => format!(
+                    "{}, {}, opening {:.0} %: {}",
+                    coefficient(units, v.kvs, "s"),
+                    match v.characteristic {
+                        Characteristic::Linear => "linear".to_string(),
+                        Characteristic::EqualPercentage { rangeability } =>
+                            format!("equal percentage, R = {rangeability:.0}"),
+                    },
+                    100.0 * v.opening,
+                    coefficient(units, v.kv(), "")
+                ),
+                Element::Equipment(e) => format!(
+                    "drop {} at {}, exponent {:.2}",
+                    pr.fmt(e.rated_drop),
+                    fl.fmt(e.rated_flow),
+                    e.exponent
+                ),
+                Element::Pump(_) => "pump set".to_string(),
+            };
+            vec![
+                l.name.clone(),
+                format!(
+                    "{} → {}",
+                    net.network.nodes[l.from].name, net.network.nodes[l.to].name
+                ),
+                format!(
+                    "{}{}",
+                    l.element.kind(),
+                    if l.check { ", check valve" } else { "" }
+                ),
+                data,
+            ]
+        })
+        .collect();
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Link", 0.15, Align::Left),
+            Column::new("From → to", 0.22, Align::Left),
+            Column::new("Kind", 0.11, Align::Left),
+            Column::new("Data (first case)", 0.52, Align::Left),
+        ],
+        rows,
+        caption: Some("Network links".into()),
+    });
+}
+
+/// Nodes and links at one duty.
+fn state_tables(blocks: &mut Vec<Block>, what: &str, at: &NetworkAtDuty, units: &Units) {
+    let (fl, hd, pr, vel, el) = (
+        units.flow(),
+        units.head(),
+        units.pressure(),
+        units.velocity(),
+        units.elevation(),
+    );
+    blocks.push(Block::heading(2, format!("Network at the duty, {what}")));
+    let nodes = at
+        .nodes
+        .iter()
+        .map(|n| {
+            let mut flags = Vec::new();
+            if n.below_required {
+                flags.push("below required");
+            }
+            if n.below_atmospheric {
+                flags.push("below atmospheric");
+            }
+            if n.near_vapour {
+                flags.push("near vapour pressure");
+            }
+            vec![
+                n.name.clone(),
+                n.kind.to_string(),
+                el.figure(n.elevation),
+                hd.figure(n.head),
+                pr.figure(n.pressure),
+                match (n.inflow, n.demand > 0.0) {
+                    (Some(q), _) => format!("in {}", fl.figure(q)),
+                    (None, true) => fl.figure(n.demand),
+                    (None, false) => "–".into(),
+                },
+                n.required_pressure
+                    .map(|r| pr.figure(r))
+                    .unwrap_or_else(|| "–".into()),
+                if flags.is_empty() {
+                    "ok".into()
+                } else {
+                    flags.join(", ")
+                },
+            ]
+        })
+        .collect();
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Node", 0.17, Align::Left),
+            Column::new("Kind", 0.10, Align::Left),
+            Column::new(format!("Elev. ({})", el.label), 0.10, Align::Right),
+            Column::new(format!("Head ({})", hd.label), 0.10, Align::Right),
+            Column::new(format!("Pressure ({})", pr.label), 0.11, Align::Right),
+            Column::new(format!("Demand ({})", fl.label), 0.12, Align::Right),
+            Column::new(format!("Required ({})", pr.label), 0.11, Align::Right),
+            Column::new("Flag", 0.19, Align::Left),
+        ],
+        rows: nodes,
+        caption: Some(format!(
+            "Nodes at the duty, {what} (station flow {}); pressure = ρg(head − elevation); a tank's column gives its inflow",
+            fl.fmt(at.station_flow)
+        )),
+    });
+    let links = at
+        .links
+        .iter()
+        .map(|l| {
+            vec![
+                l.name.clone(),
+                format!("{} → {}", l.from, l.to),
+                fl.figure(l.flow),
+                l.velocity
+                    .map(|v| vel.figure(v))
+                    .unwrap_or_else(|| "–".into()),
+                hd.figure(l.head_loss),
+                if l.closed {
+                    "closed".into()
+                } else {
+                    "open".into()
+                },
+            ]
+        })
+        .collect();
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Link", 0.20, Align::Left),
+            Column::new("From → to", 0.30, Align::Left),
+            Column::new(format!("Flow ({})", fl.label), 0.13, Align::Right),
+            Column::new(format!("Velocity ({})", vel.label), 0.13, Align::Right),
+            Column::new(format!("Head loss ({})", hd.label), 0.14, Align::Right),
+            Column::new("State", 0.10, Align::Left),
+        ],
+        rows: links,
+        caption: Some(format!("Links at the duty, {what}; head loss = head(from) − head(to); velocity is the largest along a pipe run")),
+    });
+}
+
+/// A flow coefficient in the report's convention: Cv (US gal/min at 1 psi) for US
+/// units, Kv (m³/h at 1 bar) for SI; `suffix` is "s" for the fully open value.
+fn coefficient(units: &Units, kv: f64, suffix: &str) -> String {
+    if units.system == crate::model::ReportUnits::Us {
+        format!("Cv{suffix} {:.1}", kv * crate::model::network::CV_PER_KV)
+    } else {
+        format!("Kv{suffix} {kv:.1} m³/h at 1 bar")
+    }
+}
+
+/// Layers of the schematic: the source tank 0, the entry node 1, then each node one more
+/// than the nearest node upstream (breadth first along the links, either direction).
+fn layers(at: &NetworkAtDuty, entry: &str) -> Vec<usize> {
+    let n = at.nodes.len();
+    let index = |name: &str| at.nodes.iter().position(|x| x.name == name);
+    let mut layer = vec![usize::MAX; n];
+    let mut queue = std::collections::VecDeque::new();
+    if let Some(e) = index(entry) {
+        layer[e] = 1;
+        queue.push_back(e);
+    }
+    while let Some(i) = queue.pop_front() {
+        for l in &at.links {
+            let (a, b) = (index(&l.from), index(&l.to));
+            for (x, y) in [(a, b), (b, a)] {
+                if let (Some(x), Some(y)) = (x, y) {
+                    if x == i && layer[y] == usize::MAX {
+                        layer[y] = layer[i] + 1;
+                        queue.push_back(y);
+                    }
+                }
+            }
+        }
+    }
+    layer
+        .iter()
+        .map(|&l| if l == usize::MAX { 1 } else { l })
+        .collect()
+}
+
+/// A hydraulic-grade schematic of the network at one duty: every node at its layer from
+/// the source (x) and its head (y), the links between them, the pump set marked.
+fn schematic(
+    blocks: &mut Vec<Block>,
+    sys: &CaseSystem,
+    case: &str,
+    pump: &str,
+    at: &NetworkAtDuty,
+    units: &Units,
+) {
+    let Some((net, _)) = &sys.network else {
+        return;
+    };
+    let hd = units.head();
+    let entry = &net.network.nodes[net.entry].name;
+    let layer = layers(at, entry);
+    let source_head = sys.source_level
+        + (sys.source_abs_pa - sys.barometric_pa) / (sys.fluid.density * crate::analysis::G);
+    let position = |name: &str| {
+        at.nodes
+            .iter()
+            .position(|x| x.name == name)
+            .map(|i| (layer[i] as f64, hd.value(at.nodes[i].head)))
+    };
+    let mut series = Vec::new();
+    let mut points = Vec::new();
+    let src = (0.0, hd.value(source_head));
+    if let Some(e) = position(entry) {
+        series.push(Series {
+            name: format!("pump set {pump} and the discharge lines"),
+            points: vec![src, e],
+            style_index: 1,
+            dashed: true,
+            ..Default::default()
+        });
+        points.push(Marker {
+            x: src.0,
+            y: src.1,
+            label: "source".into(),
+            ..Default::default()
+        });
+        points.push(Marker {
+            x: 0.5,
+            y: 0.5 * (src.1 + e.1),
+            label: format!("pump set {pump}"),
+            ..Default::default()
+        });
+    }
+    for l in &at.links {
+        if let (Some(a), Some(b)) = (position(&l.from), position(&l.to)) {
+            series.push(Series {
+                name: String::new(),
+                points: vec![a, b],
+                style_index: 0,
+                solid: true,
+                ..Default::default()
+            });
+        }
+    }
+    for (i, n) in at.nodes.iter().enumerate() {
+        points.push(Marker {
+            x: layer[i] as f64,
+            y: hd.value(n.head),
+            label: n.name.clone(),
+            ..Default::default()
+        });
+    }
+    let deepest = layer.iter().copied().max().unwrap_or(1) as f64;
+    let (lo, hi) = points
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), m| {
+            (a.min(m.y), b.max(m.y))
+        });
+    let pad = 0.08 * (hi - lo).max(1.0);
+    blocks.push(Block::Figure {
+        chart: Chart {
+            x_label: "Layer from the source (links)".into(),
+            y_label: format!("Head ({})", hd.label),
+            x_range: Some((-0.3, deepest + 0.8)),
+            y_range: Some((lo - pad, hi + pad)),
+            series,
+            points,
+            legend: false,
+            ..Default::default()
+        },
+        height_mm: 110.0,
+        caption: format!(
+            "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
+        ),
+    });
+}

@@ -1,0 +1,147 @@
+//! Conservation on random networks: after a solve the flows balance at every junction
+//! to 1e-9 m³/s and the head losses h_k(Q_k) (each link's own law at its solved flow)
+//! sum to zero around every independent loop to 1e-6 m, and nothing is non-finite.
+
+mod network_common;
+
+use dutyline::analysis::network::{
+    solve, topology, Characteristic, Element, Equipment, Network, NodeKind, Settings, Valve,
+};
+use network_common::*;
+use proptest::prelude::*;
+
+/// A random connected network: `tanks` fixed heads, `junctions` junctions, a random
+/// spanning tree plus `extra` links closing loops; elements drawn from all kinds.
+fn network(seed: u64, tanks: usize, junctions: usize, extra: usize) -> Network {
+    let mut state = seed | 1;
+    let mut next = move || {
+        // xorshift64*: a small deterministic generator for the layout.
+        state ^= state >> 12;
+        state ^= state << 25;
+        state ^= state >> 27;
+        (state.wrapping_mul(0x2545_F491_4F6C_DD1D) >> 11) as f64 / (1u64 << 53) as f64
+    };
+    let mut nodes = Vec::new();
+    for t in 0..tanks {
+        nodes.push(tank(&format!("T{t}"), 20.0 + 40.0 * next()));
+    }
+    for j in 0..junctions {
+        nodes.push(junction(&format!("J{j}"), 10.0 * next(), 0.002 * next()));
+    }
+    let n = nodes.len();
+    let mut pairs = Vec::new();
+    for i in 1..n {
+        let parent = ((next() * i as f64) as usize).min(i - 1);
+        pairs.push((parent, i));
+    }
+    for _ in 0..extra {
+        let a = ((next() * n as f64) as usize).min(n - 1);
+        let b = ((next() * n as f64) as usize).min(n - 1);
+        if a != b {
+            pairs.push((a, b));
+        }
+    }
+    let mut links = Vec::new();
+    for (k, &(a, b)) in pairs.iter().enumerate() {
+        let pick = next();
+        let element = if pick < 0.7 {
+            pipe(
+                50.0 + 500.0 * next(),
+                0.05 + 0.25 * next(),
+                1e-5 + 5e-4 * next(),
+                3.0 * next(),
+            )
+        } else if pick < 0.8 {
+            Element::Valve(Valve {
+                kvs: 20.0 + 200.0 * next(),
+                characteristic: Characteristic::EqualPercentage { rangeability: 50.0 },
+                opening: 0.2 + 0.8 * next(),
+            })
+        } else if pick < 0.9 {
+            Element::Equipment(Equipment {
+                rated_drop: 5e3 + 5e4 * next(),
+                rated_flow: 0.005 + 0.02 * next(),
+                exponent: 1.7 + 0.3 * next(),
+            })
+        } else {
+            pumps(
+                10.0 + 20.0 * next(),
+                5e3 + 5e4 * next(),
+                1 + (next() * 2.0) as u32,
+            )
+        };
+        let mut l = link(
+            &nodes,
+            &format!("L{k}"),
+            &nodes[a].name.clone(),
+            &nodes[b].name.clone(),
+            element,
+        );
+        l.check = matches!(l.element, Element::Pump(_)) && next() < 0.5;
+        links.push(l);
+    }
+    Network {
+        fluid: fluid(998.2, 1.0e-3),
+        nodes,
+        links,
+    }
+}
+
+fn check_conservation(net: &Network) {
+    let sol = solve(net, &Settings::default()).expect("random network solves");
+    for (i, node) in net.nodes.iter().enumerate() {
+        assert!(sol.nodes[i].head.is_finite() && sol.nodes[i].pressure.is_finite());
+        if let NodeKind::Junction { demand } = node.kind {
+            let mut balance = -demand;
+            for (k, l) in net.links.iter().enumerate() {
+                if l.to == i {
+                    balance += sol.links[k].flow;
+                }
+                if l.from == i {
+                    balance -= sol.links[k].flow;
+                }
+            }
+            assert!(
+                balance.abs() < 1e-9,
+                "node {}: imbalance {balance:e}",
+                node.name
+            );
+        }
+    }
+    for lp in topology::fundamental_loops(net) {
+        // A loop through a closed link carries no law there; skip such loops.
+        if lp.iter().any(|&(k, _)| sol.links[k].closed) {
+            continue;
+        }
+        let sum: f64 = lp
+            .iter()
+            .map(|&(k, dir)| dir * net.links[k].element.law(&net.fluid, sol.links[k].flow).0)
+            .sum();
+        assert!(sum.abs() < 1e-6, "loop {lp:?}: head loss sum {sum:e}");
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig { cases: 48, ..ProptestConfig::default() })]
+    #[test]
+    fn random_networks_conserve_flow_and_energy(
+        seed in any::<u64>(),
+        tanks in 1usize..4,
+        junctions in 1usize..40,
+        extra in 0usize..25,
+    ) {
+        check_conservation(&network(seed, tanks, junctions, extra));
+    }
+}
+
+#[test]
+fn a_large_grid_conserves_flow_and_energy() {
+    check_conservation(&network(42, 3, 400, 250));
+}
+
+#[test]
+fn the_2000_link_benchmark_grid_conserves_flow_and_energy() {
+    let net = grid(32, 32, 3);
+    assert!(net.links.len() >= 2000);
+    check_conservation(&net);
+}

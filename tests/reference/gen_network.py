@@ -1,0 +1,234 @@
+#!/usr/bin/env python3
+"""Independent recomputation of pipe networks for dutyline's network solve.
+
+Each network below is solved here as one nonlinear system (every junction head and
+every link flow as unknowns; a link's head-loss law equals the head difference across
+it, and the flows balance at every junction) by a general-purpose root finder,
+scipy.optimize.root (MINPACK hybrd), with the Darcy friction factor of
+fluids.friction.Colebrook (Colebrook 1939). The two-loop network is also solved by the
+Hardy Cross (1936) loop-correction method, written out below, as a second check.
+
+Networks:
+- three_reservoir: three reservoirs joined at one junction by cast-iron pipes
+  (roughness 0.26 mm), the classic three-reservoir junction problem of the hydraulics
+  textbooks with invented levels and pipes; the middle reservoir's flow direction is a
+  result.
+- two_loop: an invented two-loop grid fed from one reservoir with four demands and a
+  stated K on one pipe.
+- pumped_split: two pumps in parallel (a quadratic curve), a valve by Kv, an equipment
+  drop and a check valve, feeding two reservoirs at different levels (the split is a
+  result).
+
+Writes network_scipy.json next to this script: per network its data and the solution
+(heads of every node, m; flows of every link, m^3/s). The Rust test
+(tests/network_reference.rs) builds the same networks from this file.
+Run: python3 gen_network.py   (pip install fluids scipy numpy)
+"""
+import json
+import math
+import os
+
+import fluids
+import numpy
+import scipy
+from fluids.friction import Colebrook
+from scipy.optimize import root
+
+G = 9.80665  # standard gravity (CGPM 1901)
+CHECK_TURBULENT = False  # set while checking a final solution
+KV_RHO0 = 1000.0  # reference water density of the Kv definition (IEC 60534-2-1)
+
+
+def pipe(name, a, b, length, diameter, roughness, k=0.0):
+    return dict(name=name, kind="pipe", **{"from": a, "to": b}, length_m=length,
+                diameter_m=diameter, roughness_m=roughness, k=k)
+
+
+NETWORKS = [
+    dict(
+        name="three_reservoir",
+        fluid=dict(density=998.0, viscosity=0.001),
+        nodes=[
+            dict(name="R1", fixed_head_m=20.0, elevation_m=20.0),
+            dict(name="R2", fixed_head_m=100.0, elevation_m=100.0),
+            dict(name="R3", fixed_head_m=40.0, elevation_m=40.0),
+            dict(name="J", demand_m3_s=0.0, elevation_m=0.0),
+        ],
+        links=[
+            pipe("p1", "J", "R1", 100.0, 0.08, 0.00026),
+            pipe("p2", "R2", "J", 150.0, 0.06, 0.00026),
+            pipe("p3", "R3", "J", 80.0, 0.04, 0.00026),
+        ],
+    ),
+    dict(
+        name="two_loop",
+        fluid=dict(density=998.2, viscosity=1.0016e-3),
+        nodes=[
+            dict(name="R", fixed_head_m=60.0, elevation_m=60.0),
+            dict(name="A", demand_m3_s=0.0, elevation_m=20.0),
+            dict(name="B", demand_m3_s=0.010, elevation_m=18.0),
+            dict(name="C", demand_m3_s=0.015, elevation_m=15.0),
+            dict(name="D", demand_m3_s=0.020, elevation_m=16.0),
+            dict(name="E", demand_m3_s=0.0, elevation_m=14.0),
+            dict(name="F", demand_m3_s=0.025, elevation_m=12.0),
+        ],
+        links=[
+            pipe("feed", "R", "A", 800.0, 0.25, 0.0001, k=2.0),
+            pipe("AB", "A", "B", 400.0, 0.20, 0.0001),
+            pipe("BC", "B", "C", 450.0, 0.15, 0.0001),
+            pipe("AD", "A", "D", 350.0, 0.15, 0.0001),
+            pipe("BE", "B", "E", 300.0, 0.10, 0.0001),
+            pipe("CF", "C", "F", 400.0, 0.10, 0.0001),
+            pipe("DE", "D", "E", 420.0, 0.15, 0.0001),
+            pipe("EF", "E", "F", 380.0, 0.15, 0.0001),
+        ],
+    ),
+    dict(
+        name="pumped_split",
+        fluid=dict(density=998.2, viscosity=1.0016e-3),
+        nodes=[
+            dict(name="sump", fixed_head_m=10.0, elevation_m=10.0),
+            dict(name="S", demand_m3_s=0.0, elevation_m=8.0),
+            dict(name="P", demand_m3_s=0.0, elevation_m=8.0),
+            dict(name="V", demand_m3_s=0.0, elevation_m=8.0),
+            dict(name="J", demand_m3_s=0.004, elevation_m=20.0),
+            dict(name="K", demand_m3_s=0.0, elevation_m=20.0),
+            dict(name="upper", fixed_head_m=45.0, elevation_m=45.0),
+            dict(name="lower", fixed_head_m=38.0, elevation_m=38.0),
+        ],
+        links=[
+            pipe("suction", "sump", "S", 12.0, 0.20, 0.000045, k=1.5),
+            dict(name="pumps", kind="pump", **{"from": "S", "to": "P"}, shutoff_m=52.0,
+                 curve_m_s2_m6=9000.0, parallel=2),
+            dict(name="control", kind="valve", **{"from": "P", "to": "V"}, kv=160.0),
+            pipe("main", "V", "J", 900.0, 0.20, 0.000045),
+            dict(name="meter", kind="equipment", **{"from": "J", "to": "K"},
+                 rated_drop_pa=20000.0, rated_flow_m3_s=0.03, exponent=1.9),
+            pipe("to_upper", "K", "upper", 600.0, 0.15, 0.000045),
+            pipe("to_lower", "J", "lower", 700.0, 0.10, 0.000045, k=3.0),
+        ],
+    ),
+]
+
+
+def link_loss(link, q, fluid):
+    """h(Q) = H(from) - H(to), m."""
+    kind = link["kind"]
+    a = abs(q)
+    s = math.copysign(1.0, q)
+    if kind == "pipe":
+        d = link["diameter_m"]
+        area = math.pi * d * d / 4.0
+        v = a / area
+        re = fluid["density"] * v * d / fluid["viscosity"]
+        if re < 1e-9:
+            return 0.0
+        if CHECK_TURBULENT:
+            assert re > 4000.0, f"{link['name']}: Re {re} not turbulent; keep the reference turbulent"
+        f = Colebrook(re, link["roughness_m"] / d)
+        return s * (f * link["length_m"] / d + link["k"]) * v * v / (2 * G)
+    if kind == "pump":
+        per = q / link["parallel"]
+        return -(link["shutoff_m"] - link["curve_m_s2_m6"] * per * abs(per))
+    if kind == "valve":
+        kv = link["kv"] / 3600.0
+        return s * 1e5 / (KV_RHO0 * G) * (a / kv) ** 2
+    if kind == "equipment":
+        r = link["rated_drop_pa"] / (fluid["density"] * G) / link["rated_flow_m3_s"] ** link["exponent"]
+        return s * r * a ** link["exponent"]
+    raise ValueError(kind)
+
+
+def solve_root(net):
+    fluid = net["fluid"]
+    names = [n["name"] for n in net["nodes"]]
+    junctions = [n for n in net["nodes"] if "demand_m3_s" in n]
+    jidx = {n["name"]: i for i, n in enumerate(junctions)}
+    fixed = {n["name"]: n["fixed_head_m"] for n in net["nodes"] if "fixed_head_m" in n}
+    nl = len(net["links"])
+
+    def heads_of(x):
+        return {**fixed, **{n["name"]: x[nl + i] for i, n in enumerate(junctions)}}
+
+    def residual(x):
+        heads = heads_of(x)
+        out = []
+        for k, link in enumerate(net["links"]):
+            out.append(link_loss(link, x[k], fluid) - (heads[link["from"]] - heads[link["to"]]))
+        for n in junctions:
+            bal = -n["demand_m3_s"]
+            for k, link in enumerate(net["links"]):
+                if link["to"] == n["name"]:
+                    bal += x[k]
+                if link["from"] == n["name"]:
+                    bal -= x[k]
+            out.append(bal)
+        return out
+
+    mean = sum(fixed.values()) / len(fixed)
+    x0 = [0.01] * nl + [mean] * len(junctions)
+    sol = root(residual, x0, method="hybr", tol=1e-14, options={"maxfev": 100000})
+    global CHECK_TURBULENT
+    CHECK_TURBULENT = True
+    worst = max(abs(r) for r in residual(sol.x))
+    CHECK_TURBULENT = False
+    assert worst < 1e-10, f"{net['name']}: residual {worst}"
+    heads = heads_of(sol.x)
+    return dict(heads_m={n: heads[n] for n in names},
+                flows_m3_s={l["name"]: sol.x[k] for k, l in enumerate(net["links"])},
+                max_residual=worst)
+
+
+def hardy_cross_two_loop(net, iterations=200):
+    """Hardy Cross (1936) loop corrections on the two-loop grid: flows balanced by
+    construction, each loop corrected by dQ = -sum(h)/sum(|dh/dQ|) until converged."""
+    fluid = net["fluid"]
+    links = {l["name"]: l for l in net["links"]}
+    # A balanced start: everything along the tree feed-AB-BC-CF, AD, DE, with BE, EF fed.
+    q = {"feed": 0.070, "AB": 0.035, "BC": 0.020, "AD": 0.035, "BE": 0.005, "CF": 0.005,
+         "DE": 0.015, "EF": 0.020}
+    loops = [[("AB", 1), ("BE", 1), ("DE", -1), ("AD", -1)],
+             [("BC", 1), ("CF", 1), ("EF", -1), ("BE", -1)]]
+    for _ in range(iterations):
+        biggest = 0.0
+        for lp in loops:
+            num = sum(d * link_loss(links[n], q[n], fluid) for n, d in lp)
+            den = 0.0
+            for n, _d in lp:
+                dq = max(abs(q[n]) * 1e-7, 1e-12)
+                den += abs((link_loss(links[n], q[n] + dq, fluid) - link_loss(links[n], q[n], fluid)) / dq)
+            corr = -num / den
+            for n, d in lp:
+                q[n] += d * corr
+            biggest = max(biggest, abs(corr))
+        if biggest < 1e-15:
+            break
+    return q
+
+
+def main():
+    out = dict(
+        generated_by="tests/reference/gen_network.py",
+        versions=dict(fluids=fluids.__version__, scipy=scipy.__version__, numpy=numpy.__version__),
+        networks=[],
+    )
+    for net in NETWORKS:
+        sol = solve_root(net)
+        entry = dict(net, solution=sol)
+        if net["name"] == "two_loop":
+            hc = hardy_cross_two_loop(net)
+            for n, v in hc.items():
+                assert abs(v - sol["flows_m3_s"][n]) < 1e-9 * max(1.0, abs(v)), (n, v)
+            entry["hardy_cross_flows_m3_s"] = hc
+        out["networks"].append(entry)
+    path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "network_scipy.json")
+    with open(path, "w") as f:
+        json.dump(out, f, indent=1, sort_keys=True)
+        f.write("\n")
+    for e in out["networks"]:
+        print(e["name"], {k: round(v, 6) for k, v in e["solution"]["flows_m3_s"].items()})
+        print("  heads", {k: round(v, 4) for k, v in e["solution"]["heads_m"].items()})
+
+
+if __name__ == "__main__":
+    main()
