@@ -202,7 +202,7 @@ fn flow_at_a_junction_is_refused() {
     assert!(c
         .diagnostics
         .iter()
-        .any(|d| d.code == "bad-requirement" && d.span.is_some()));
+        .any(|d| d.code.as_str() == "bad-requirement" && d.span.is_some()));
 }
 
 #[test]
@@ -215,5 +215,5 @@ fn an_absolute_node_pressure_requirement_is_refused() {
     assert!(c
         .diagnostics
         .iter()
-        .any(|d| d.code == "unit-mismatch" && d.message.contains("gauge")));
+        .any(|d| d.code.as_str() == "unit-mismatch" && d.message.contains("gauge")));
 }

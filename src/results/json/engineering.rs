@@ -277,6 +277,7 @@ pub(super) fn requirement_matrix<'a>(
 
 /// The network at a duty point (`cases[].pumps[].network`).
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 pub struct NetworkOut<'a> {
     station_flow_m3_s: f64,
     nodes: Vec<NodeOut<'a>>,
@@ -284,6 +285,7 @@ pub struct NetworkOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 #[allow(non_snake_case)]
 struct NodeOut<'a> {
     name: &'a str,
@@ -300,6 +302,7 @@ struct NodeOut<'a> {
 }
 
 #[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
 struct LinkOut<'a> {
     name: &'a str,
     kind: &'static str,
