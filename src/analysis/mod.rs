@@ -9,6 +9,7 @@ pub mod checks;
 pub mod duty;
 pub mod limits;
 pub mod motor;
+pub mod operation;
 pub mod parallel;
 pub mod selection;
 pub mod system;
@@ -40,6 +41,8 @@ pub struct Analysis {
     pub capacity: Vec<Vec<Option<f64>>>,
     /// The requirement × case matrix.
     pub requirement_matrix: Vec<capacity::RequirementRow>,
+    /// Per candidate, the operation over the design's load profiles (empty without one).
+    pub operation: Vec<operation::CandidateOperation>,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -186,8 +189,13 @@ pub fn analyse(design: &Design) -> Analysis {
     let motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
     let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
     warnings.extend(capacity::governing_warnings(design, &cases));
-    let selection = selection::rank(design, &cases);
+    let yearly = operation::analyse(design, &cases, &candidates, &motor_sizing);
+    let mut selection = selection::rank(design, &cases);
+    if !yearly.is_empty() {
+        selection::rank_by_profile(design, &mut selection, &yearly);
+    }
     Analysis {
+        operation: yearly,
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),
         motors: motor_sizing

@@ -28,6 +28,8 @@ pub struct Design {
     pub pumps: Vec<PumpCandidate>,
     pub motor: MotorSettings,
     pub energy: EnergySettings,
+    /// Load profiles, control, staging and life-cycle cost elements.
+    pub operation: super::operation::OperationSettings,
 }
 
 #[derive(Clone, Debug, Default)]
@@ -347,4 +349,8 @@ pub struct EnergySettings {
     pub years: f64,
     pub discount_rate: f64,
     pub escalation: f64,
+    /// Whether `discount_rate` and `escalation` are real or nominal rates.
+    pub rates: super::operation::RateBasis,
+    /// General inflation per year (fraction), for nominal rates.
+    pub inflation: f64,
 }

@@ -5,6 +5,7 @@ pub mod design;
 pub mod eval;
 mod fields;
 mod lower;
+pub mod operation;
 mod pumps;
 pub mod ranges;
 pub mod scenario;

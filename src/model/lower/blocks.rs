@@ -7,7 +7,7 @@ use crate::syntax::ast::{Arg, File, Statement, StatementKind};
 
 const TOP_LEVEL: &[&str] = &[
     "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
-    "require", "pump", "motor", "energy", "assume", "note",
+    "require", "pump", "motor", "energy", "assume", "note", "profile", "cost",
 ];
 const ONCE: &[&str] = &[
     "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",

@@ -9,6 +9,7 @@ mod cases;
 mod constants;
 mod lines;
 mod operation;
+mod profile;
 mod project;
 mod requirements;
 mod setting;
@@ -48,6 +49,12 @@ pub fn lower(
     let base = base_scenario(setting, network, &pump_list);
     let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
     let requirements = requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    let yearly = crate::model::operation::OperationSettings {
+        profiles: profile::lower_profiles(&blocks, &cases, &requirements, &env, &mut diags),
+        costs: profile::lower_costs(&blocks, &pump_list, &env, &mut diags),
+        rates: energy.rates,
+        inflation: energy.inflation,
+    };
     diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
@@ -63,6 +70,7 @@ pub fn lower(
             pumps: pump_list,
             motor,
             energy,
+            operation: yearly,
         }),
         _ => None,
     };
