@@ -14,6 +14,7 @@ use crate::model::{ArrangementKind, Design};
 
 mod engineering;
 mod inputs;
+mod operation;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";
@@ -186,7 +187,7 @@ struct Duty<'a> {
 }
 
 #[derive(Serialize)]
-struct CheckOut<'a> {
+pub(super) struct CheckOut<'a> {
     id: &'static str,
     status: &'static str,
     value: Option<f64>,
@@ -234,7 +235,7 @@ struct Warn {
     column: Option<usize>,
 }
 
-fn finite(v: f64) -> Option<f64> {
+pub(super) fn finite(v: f64) -> Option<f64> {
     v.is_finite().then_some(v)
 }
 
@@ -338,7 +339,7 @@ fn design_flow(c: &CaseResult) -> f64 {
         })
 }
 
-fn check(c: &Check) -> CheckOut<'_> {
+pub(super) fn check(c: &Check) -> CheckOut<'_> {
     CheckOut {
         id: c.id.as_str(),
         status: c.status.keyword(),

@@ -14,7 +14,8 @@ use crate::model::operation::Control;
 use crate::model::Design;
 
 fn hours_where(points: &[PointResult], f: impl Fn(&PointResult) -> bool) -> f64 {
-    points.iter().filter(|p| f(p)).map(|p| p.hours).sum()
+    // `+ 0.0` turns the -0.0 of an empty sum into 0.
+    points.iter().filter(|p| f(p)).map(|p| p.hours).sum::<f64>() + 0.0
 }
 
 fn share(h: f64, total: f64) -> String {
