@@ -10,6 +10,7 @@ mod checks;
 mod design_basis;
 mod front;
 mod method;
+mod operation;
 mod references;
 mod selection;
 mod sources;
@@ -62,6 +63,7 @@ pub fn document(
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }
+    operation::chapter(&mut blocks, design, analysis, &units);
     selection::chapter(&mut blocks, design, analysis, &units);
     checks::chapter(&mut blocks, analysis, &units);
     assumptions::chapter(&mut blocks, design, analysis);

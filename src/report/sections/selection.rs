@@ -49,7 +49,15 @@ fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units:
             Column::new("Energy per year", 0.10, Align::Right),
             Column::new(format!("Specific energy ({})", se.label), 0.10, Align::Right),
             Column::new("Cost per year", 0.09, Align::Right),
-            Column::new("Life energy cost", 0.10, Align::Right),
+            Column::new(
+                if analysis.operation.is_empty() {
+                    "Life energy cost"
+                } else {
+                    "Life-cycle cost"
+                },
+                0.10,
+                Align::Right,
+            ),
             Column::new(format!("Life cost per {per_volume}"), 0.09, Align::Right),
             Column::new("Wire to water", 0.08, Align::Right),
             Column::new("Qualifies", 0.20, Align::Left),
