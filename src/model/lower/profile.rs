@@ -434,8 +434,13 @@ pub fn lower_costs(
         if !pumps.iter().any(|p| &p.name == name) {
             let names: Vec<&str> = pumps.iter().map(|p| p.name.as_str()).collect();
             d.push(
-                Diagnostic::error("unknown-pump", format!("cost: no pump `{name}`"), Some(at))
-                    .with_help(format!("pumps are {}", eval::quote_list(&names))),
+                // A warning, so that dropping a candidate in a revision keeps its costs harmless.
+                Diagnostic::warning(
+                    "unknown-pump",
+                    format!("cost: no pump `{name}`; these costs are not used"),
+                    Some(at),
+                )
+                .with_help(format!("pumps are {}", eval::quote_list(&names))),
             );
             continue;
         }
