@@ -7,9 +7,9 @@
 //! part-load efficiency as a share of full-load efficiency, one curve per size class
 //! (reproduced in U.S. DOE, *Determining Electric Motor Load and Efficiency*, Motor
 //! Challenge fact sheet DOE/GO-10097-517, 1997, Figure 2). The ratios below are read at
-//! nine load fractions **from memory** of that figure and cross-checked against the
+//! eleven load fractions **from memory** of that figure and cross-checked against the
 //! polynomial transcription of the same figure in the Python `fluids` package
-//! (`tests/reference/gen_part_load.py`, within 0.01 at every tabulated load); linear
+//! (`tests/reference/gen_part_load.py`, within 0.015 at 12 loads and 7 ratings); linear
 //! interpolation between them. Validity: 10 % to 100 % load (below 10 % the 10 % value
 //! is used and flagged by the caller's motor-load check); above full load the ratio is 1.
 //!
@@ -29,34 +29,48 @@
 use super::motor::WATTS_PER_HP;
 
 /// Load fractions of the motor part-load table.
-const MOTOR_LOADS: [f64; 9] = [0.10, 0.20, 0.25, 0.30, 0.40, 0.50, 0.60, 0.75, 1.00];
+const MOTOR_LOADS: [f64; 11] = [
+    0.10, 0.15, 0.20, 0.25, 0.30, 0.35, 0.40, 0.50, 0.60, 0.75, 1.00,
+];
 
 /// η(x)/η(1) per size class: (largest rating of the class in hp, ratios at
 /// [`MOTOR_LOADS`]). WSEO handbook (1993) figure, from memory (see the module docs).
-const MOTOR_RATIOS: [(f64, [f64; 9]); 6] = [
+const MOTOR_RATIOS: [(f64, [f64; 11]); 6] = [
     (
         1.0,
-        [0.370, 0.597, 0.676, 0.737, 0.820, 0.871, 0.905, 0.944, 1.0],
+        [
+            0.370, 0.497, 0.597, 0.676, 0.737, 0.784, 0.820, 0.871, 0.905, 0.944, 1.0,
+        ],
     ),
     (
         5.0,
-        [0.401, 0.664, 0.758, 0.832, 0.930, 0.979, 0.998, 1.0, 1.0],
+        [
+            0.401, 0.546, 0.664, 0.758, 0.832, 0.888, 0.930, 0.979, 0.998, 1.0, 1.0,
+        ],
     ),
     (
         10.0,
-        [0.544, 0.798, 0.868, 0.912, 0.956, 0.976, 0.996, 1.0, 1.0],
+        [
+            0.544, 0.694, 0.798, 0.868, 0.912, 0.940, 0.956, 0.976, 0.996, 1.0, 1.0,
+        ],
     ),
     (
         25.0,
-        [0.673, 0.865, 0.916, 0.947, 0.975, 0.985, 0.997, 1.0, 1.0],
+        [
+            0.673, 0.787, 0.865, 0.916, 0.947, 0.965, 0.975, 0.985, 0.997, 1.0, 1.0,
+        ],
     ),
     (
         60.0,
-        [0.770, 0.916, 0.952, 0.972, 0.986, 0.989, 0.998, 1.0, 1.0],
+        [
+            0.770, 0.858, 0.916, 0.952, 0.972, 0.982, 0.986, 0.989, 0.998, 1.0, 1.0,
+        ],
     ),
     (
         f64::INFINITY,
-        [0.866, 0.957, 0.980, 0.993, 1.0, 1.0, 1.0, 1.0, 1.0],
+        [
+            0.866, 0.921, 0.957, 0.980, 0.993, 0.998, 1.0, 1.0, 1.0, 1.0, 1.0,
+        ],
     ),
 ];
 
