@@ -35,7 +35,10 @@ fn design() -> dutyline::Design {
     let table_end = rest.find("    }\n}").expect("end of table");
     let mut rest = format!("{}{}{}", &rest[..table_start], rows, &rest[table_end..]);
     for name in ["KR1", "KR2"] {
-        rest = rest.replace(&format!("cost {name} {{"), &format!("cost C{} {{", if name == "KR1" { 0 } else { 1 }));
+        rest = rest.replace(
+            &format!("cost {name} {{"),
+            &format!("cost C{} {{", if name == "KR1" { 0 } else { 1 }),
+        );
     }
     src.push_str(&rest);
     let c = dutyline::check(&src, &Files);

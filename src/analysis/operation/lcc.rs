@@ -53,7 +53,7 @@ pub fn life_cycle_cost(
     elements: Option<&CostElements>,
 ) -> Option<LifeCycleCost> {
     let e = &design.energy;
-    if !(e.years > 0.0) || !energy_cost.is_finite() {
+    if e.years.is_nan() || e.years <= 0.0 || !energy_cost.is_finite() {
         return None;
     }
     let growth = match e.rates {
