@@ -22,8 +22,9 @@ use crate::model::{Adjust, Design, PumpCandidate};
 use crate::pumps::part_load::DriveLosses;
 use point::{SetModel, SetState, SpeedRange};
 
-/// Scan steps for the switching points of a parallel set.
-pub const SWITCH_SCAN_STEPS: usize = 200;
+/// Halvings of the bracket around each switching point of a parallel set (2⁻¹² of the
+/// gap between neighbouring load points).
+pub const SWITCH_BISECTIONS: usize = 12;
 
 /// One load point of one candidate.
 #[derive(Clone, Debug, PartialEq)]
@@ -249,9 +250,8 @@ fn candidate(
             ));
         }
         if m.parallel > 1 && profile.staging == crate::model::operation::Staging::LeastPower {
-            let hi = profile.points.iter().map(|x| x.flow).fold(0.0, f64::max);
-            let lo = profile.points.iter().map(|x| x.flow).fold(hi, f64::min);
-            let sw = staging::switching_points(lo, hi, SWITCH_SCAN_STEPS, |q| {
+            let flows: Vec<f64> = profile.points.iter().map(|x| x.flow).collect();
+            let sw = staging::switching_points(&flows, SWITCH_BISECTIONS, |q| {
                 run_point(profile, control, &m, sys, q, 1.0, min_flow)
                     .state
                     .map(|s| s.running)

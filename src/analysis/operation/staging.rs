@@ -61,47 +61,58 @@ pub fn choose(
     }
 }
 
-/// A flow where the chosen count changes, found by scanning.
+/// A flow where the chosen count changes.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Switch {
-    /// Flow where the count changes, m³/s (midpoint of the scan step where it changed).
+    /// Flow where the count changes, m³/s (midpoint of the last bracket).
     pub flow: f64,
     /// Count below and above this flow.
     pub from: u32,
     pub to: u32,
-    /// Half the scan step: the switching flow is known to ± this, m³/s.
+    /// Half the last bracket: the switching flow is known to ± this, m³/s.
     pub resolution: f64,
 }
 
-/// Switching points over `lo..hi` (m³/s) by a scan of `steps` flows; `running(q)` is
-/// the count chosen at q (`None` where nothing delivers).
+/// Switching points between the load points' flows (m³/s, any order): where two
+/// neighbouring flows run different counts, the change is bracketed by `bisections`
+/// halvings (at most 30); `running(q)` is the count chosen at q (`None` where nothing
+/// delivers). Cost: one evaluation per flow plus `bisections` per change.
 pub fn switching_points(
-    lo: f64,
-    hi: f64,
-    steps: usize,
+    flows: &[f64],
+    bisections: usize,
     running: impl Fn(f64) -> Option<u32>,
 ) -> Vec<Switch> {
-    let steps = steps.clamp(2, 1000);
-    if !(hi > lo && lo >= 0.0) {
-        return Vec::new();
-    }
-    let dq = (hi - lo) / steps as f64;
+    let mut qs: Vec<f64> = flows
+        .iter()
+        .copied()
+        .filter(|q| q.is_finite() && *q >= 0.0)
+        .collect();
+    qs.sort_by(f64::total_cmp);
+    qs.dedup();
+    let known: Vec<(f64, u32)> = qs
+        .iter()
+        .filter_map(|&q| running(q).map(|k| (q, k)))
+        .collect();
     let mut out = Vec::new();
-    let mut prev: Option<(f64, u32)> = None;
-    for i in 0..=steps {
-        let q = lo + dq * i as f64;
-        let Some(k) = running(q) else { continue };
-        if let Some((q0, k0)) = prev {
-            if k0 != k && out.len() < 40 {
-                out.push(Switch {
-                    flow: 0.5 * (q0 + q),
-                    from: k0,
-                    to: k,
-                    resolution: 0.5 * (q - q0),
-                });
+    for w in known.windows(2) {
+        let ((mut lo, k0), (mut hi, k1)) = (w[0], w[1]);
+        if k0 == k1 || out.len() >= 40 {
+            continue;
+        }
+        for _ in 0..bisections.min(30) {
+            let mid = 0.5 * (lo + hi);
+            match running(mid) {
+                Some(k) if k == k0 => lo = mid,
+                Some(k) if k == k1 => hi = mid,
+                _ => break,
             }
         }
-        prev = Some((q, k));
+        out.push(Switch {
+            flow: 0.5 * (lo + hi),
+            from: k0,
+            to: k1,
+            resolution: 0.5 * (hi - lo),
+        });
     }
     out
 }

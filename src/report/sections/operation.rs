@@ -238,7 +238,7 @@ fn candidate(
                 .collect::<Vec<_>>()
                 .join("; ");
             blocks.push(Block::text(format!(
-                "Switching points (case {case}, scanned over the profile's flows): {text}."
+                "Switching points (case {case}, bisected between neighbouring load points): {text}."
             )));
         }
     }
