@@ -39,11 +39,29 @@ pub enum CheckId {
     NodePressure,
     /// Flow per pump against the stated minimum continuous flow.
     MinimumFlow,
+    /// Every load point of the profile delivered.
+    ProfileDelivery,
+    /// Hours of the profile outside the preferred and allowable operating regions.
+    ProfileRegion,
+    /// Hours below the minimum continuous flow.
+    ProfileMinFlow,
+    /// Hours at minimum speed with the surplus head throttled.
+    ProfileMinSpeed,
+    /// NPSH margin at every load point.
+    ProfileNpsh,
+    /// Motor load at every load point.
+    ProfileMotorLoad,
+    /// Shut-off head at minimum speed against the static head plus a margin.
+    Deadhead,
+    /// Starts per hour of on/off control against the motor's limit.
+    StartsPerHour,
+    /// Hours where the control curve lies below the system curve.
+    ControlCurve,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 16] = [
+    pub const ALL: [CheckId; 25] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -60,6 +78,15 @@ impl CheckId {
         CheckId::Surge,
         CheckId::NodePressure,
         CheckId::MinimumFlow,
+        CheckId::ProfileDelivery,
+        CheckId::ProfileRegion,
+        CheckId::ProfileMinFlow,
+        CheckId::ProfileMinSpeed,
+        CheckId::ProfileNpsh,
+        CheckId::ProfileMotorLoad,
+        CheckId::Deadhead,
+        CheckId::StartsPerHour,
+        CheckId::ControlCurve,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -81,6 +108,15 @@ impl CheckId {
             CheckId::Surge => "surge",
             CheckId::NodePressure => "node-pressure",
             CheckId::MinimumFlow => "minimum-flow",
+            CheckId::ProfileDelivery => "profile-delivery",
+            CheckId::ProfileRegion => "profile-operating-region",
+            CheckId::ProfileMinFlow => "profile-min-flow",
+            CheckId::ProfileMinSpeed => "profile-min-speed",
+            CheckId::ProfileNpsh => "profile-npsh-margin",
+            CheckId::ProfileMotorLoad => "profile-motor-load",
+            CheckId::Deadhead => "deadhead",
+            CheckId::StartsPerHour => "starts-per-hour",
+            CheckId::ControlCurve => "control-curve",
         }
     }
 
@@ -125,6 +161,19 @@ impl CheckId {
             CheckId::NodePressure => {
                 "network node pressure at the duty against its required residual pressure, atmospheric and vapour pressure"
             }
+            CheckId::ProfileDelivery => "every load point of the profile is delivered",
+            CheckId::ProfileRegion => "hours of the profile outside the preferred operating region",
+            CheckId::ProfileMinFlow => {
+                "flow per pump against the minimum continuous flow at every load point"
+            }
+            CheckId::ProfileMinSpeed => "hours at minimum speed with the surplus head throttled",
+            CheckId::ProfileNpsh => "NPSH margin ratio at every load point of the profile",
+            CheckId::ProfileMotorLoad => "motor load (shaft power / nameplate) at every load point",
+            CheckId::Deadhead => {
+                "shut-off head at minimum speed against the static head plus a margin"
+            }
+            CheckId::StartsPerHour => "starts per hour of on/off control against the motor's limit",
+            CheckId::ControlCurve => "hours where the control curve lies below the system curve",
         }
     }
 }
@@ -270,6 +319,28 @@ pub const NEMA_SERIES: Source = Source::Recalled {
 pub const IEC_SERIES: Source = Source::Recalled {
     title: "IEC 60072-1 Dimensions and output series for rotating electrical machines",
     clause: "preferred rated outputs",
+};
+/// Motor load below which a motor is lightly loaded and its efficiency falls off:
+/// 40 % of nameplate (common practice; the typical part-load curves steepen there).
+pub const MOTOR_LIGHT_LOAD: Limit = Limit {
+    value: 0.40,
+    source: Source::CommonPractice("motor load of at least 40 % of nameplate"),
+};
+/// Deadhead margin: shut-off head at minimum speed above the static head by 10 % of it
+/// (dutyline's default; the design states its own with `deadhead_margin`).
+pub const DEADHEAD_MARGIN: Limit = Limit {
+    value: crate::model::operation::DEFAULT_DEADHEAD_MARGIN_FRACTION,
+    source: Source::CommonPractice(
+        "shut-off head at minimum speed above the static head by a margin",
+    ),
+};
+/// Starts per hour a motor allows when the design states none.
+pub const STARTS_PER_HOUR: Limit = Limit {
+    value: crate::model::operation::DEFAULT_MAX_STARTS_PER_HOUR,
+    source: Source::Recalled {
+        title: "NEMA MG 1 Motors and Generators, Part 12 (12.54, number of successive starts); the motor maker's limit governs",
+        clause: "6 starts per hour for small and medium motors (common practice)",
+    },
 };
 
 /// Lowest steady gauge pressure along a line, Pa: 2 m of water (≈ 20 kPa, 2.8 psi)

@@ -11,6 +11,7 @@ pub mod duty;
 pub mod limits;
 pub mod motor;
 pub mod network;
+pub mod operation;
 pub mod parallel;
 pub mod safety;
 pub mod selection;
@@ -48,6 +49,8 @@ pub struct Analysis {
     pub requirement_matrix: Vec<capacity::RequirementRow>,
     /// Safety screening: grade lines, ratings, surge (issue 14).
     pub safety: safety::Safety,
+    /// Per candidate, the operation over the design's load profiles (empty without one).
+    pub operation: Vec<operation::CandidateOperation>,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -260,8 +263,13 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
+    let yearly = operation::analyse(design, &cases, &candidates, &motor_sizing);
+    if !yearly.is_empty() {
+        selection::rank_by_profile(design, &mut selection, &yearly);
+    }
     Analysis {
         safety,
+        operation: yearly,
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),
         motors: motor_sizing

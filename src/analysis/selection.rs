@@ -308,3 +308,113 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
     }
     s
 }
+
+/// Rank again where the design has load profiles (issue 13): every candidate delivers
+/// the same profile, so the volume is equal and the score is the life-cycle cost (HI and
+/// Europump, *Pump Life Cycle Costs*, 2001) when the energy is priced and a life is
+/// given, else the yearly input energy. A failing profile check disqualifies; designs
+/// without a profile keep [`rank`]'s ranking.
+pub fn rank_by_profile(
+    design: &Design,
+    selection: &mut Selection,
+    ops: &[super::operation::CandidateOperation],
+) {
+    let priced = ops.iter().any(|o| o.lcc.is_some());
+    selection.criterion = if priced {
+        "life-cycle cost at equal delivered volume"
+    } else {
+        "yearly energy at equal delivered volume"
+    };
+    for r in &mut selection.ranking {
+        let Some(op) = ops.iter().find(|o| o.name == r.name) else {
+            continue;
+        };
+        let y = &op.yearly;
+        r.annual_energy_j = Some(y.energy_j);
+        r.annual_cost = y.cost;
+        r.annual_volume_m3 = Some(y.volume_m3);
+        r.specific_energy_j_m3 = y.specific_energy;
+        r.mean_wire_to_water = y.mean_wire_to_water;
+        r.life_cost = op.lcc.as_ref().map(|l| l.total);
+        r.life_cost_per_m3 = op
+            .lcc
+            .as_ref()
+            .filter(|l| y.volume_m3 > 0.0 && l.years > 0.0)
+            .map(|l| l.total / (y.volume_m3 * l.years));
+        let fails: Vec<String> = op
+            .checks
+            .iter()
+            .filter(|c| c.status == Status::Fail)
+            .map(|c| format!("{} fails over the profile", c.id))
+            .chain(op.failure.clone())
+            .collect();
+        if !fails.is_empty() {
+            r.why = if r.qualifies {
+                format!("does not qualify: {}", fails.join("; "))
+            } else {
+                format!("{}; {}", r.why, fails.join("; "))
+            };
+            r.qualifies = false;
+        }
+        r.score = if priced {
+            r.life_cost.unwrap_or(f64::INFINITY)
+        } else if op.failure.is_none() {
+            y.energy_j
+        } else {
+            f64::INFINITY
+        };
+    }
+    selection.ranking.sort_by(|a, b| {
+        b.qualifies
+            .cmp(&a.qualifies)
+            .then(a.score.total_cmp(&b.score))
+            .then(a.name.cmp(&b.name))
+    });
+    selection.recommended = selection
+        .ranking
+        .first()
+        .filter(|r| r.qualifies)
+        .map(|r| r.name.clone());
+    selection.refusal = match &selection.recommended {
+        Some(_) => None,
+        None => Some(format!(
+            "no recommendation: no candidate qualifies: {}",
+            selection
+                .ranking
+                .iter()
+                .map(|r| format!("{} {}", r.name, r.why))
+                .collect::<Vec<_>>()
+                .join("; ")
+        )),
+    };
+    selection.criteria_text = format!(
+        "A candidate qualifies when every case is analysed, has a duty point, no check fails and every load point of the profile is delivered with no failing profile check. Qualifying candidates are ranked by {}.",
+        if priced {
+            format!("life-cycle cost over {:.0} years ({} rates, discounted at {:.1} % with {:.1} % energy-price escalation)", design.energy.years, design.energy.rates.keyword(), design.energy.discount_rate * 100.0, design.energy.escalation * 100.0)
+        } else {
+            "yearly input energy".to_string()
+        }
+    );
+    selection.basis = profile_basis(design, priced);
+}
+
+/// The basis sentence where the design has load profiles.
+fn profile_basis(design: &Design, priced: bool) -> String {
+    let cases: Vec<&str> = design
+        .operation
+        .profiles
+        .iter()
+        .map(|p| p.case.as_str())
+        .collect();
+    format!(
+        "Candidates run the load profile{} of case{} {} and so deliver the same volume; they are compared by {}, from the energy at every load point with part-load motor and drive efficiency.",
+        if cases.len() > 1 { "s" } else { "" },
+        if cases.len() > 1 { "s" } else { "" },
+        cases.join(", "),
+        if priced {
+            "life-cycle cost (initial, installation, energy, operation, maintenance, downtime, environmental and disposal costs where the design gives them)"
+        } else {
+            "yearly input energy"
+        }
+    )
+}

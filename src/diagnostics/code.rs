@@ -89,6 +89,13 @@ codes! {
     BadPipe = "bad-pipe": "a pipe without a material and a size or bore";
     UnknownMaterial = "unknown-material": "a pipe material not in the catalogue";
     UnknownPipeSize = "unknown-pipe-size": "a nominal size or schedule not in the pipe catalogue";
+    UnknownCase = "unknown-case": "a `load_profile` for a case the design does not have";
+    UnknownPump = "unknown-pump": "a `cost` block for a pump the design does not have (warning)";
+    UnusedField = "unused-field": "a field that the block's other settings make meaningless, e.g. `control_head` with `throttle`";
+    MissingTable = "missing-table": "a `load_profile` without its `curve { ... }` table of flow against hours";
+    UnexpectedStatement = "unexpected-statement": "a statement other than fields and the table inside a `load_profile`";
+    MixedRates = "mixed-rates": "`inflation` given with real discount rates (real and nominal rates mixed)";
+    MissingName = "missing-name": "a `load_profile` or `cost` block without the name of its case or pump";
     ZeroLength = "zero-length": "a pipe of zero length (warning: no wall friction counted)";
     BadFitting = "bad-fitting": "a fitting without its name, or a malformed count";
     UnknownFitting = "unknown-fitting": "a fitting name not in the fitting table";

@@ -39,6 +39,8 @@ pub struct Design {
     pub motor: MotorSettings,
     /// Energy cost settings (`energy { ... }`).
     pub energy: EnergySettings,
+    /// Load profiles, control, staging and life-cycle cost elements.
+    pub operation: super::operation::OperationSettings,
 }
 
 /// The `project` block: the title block of the package.
@@ -530,4 +532,8 @@ pub struct EnergySettings {
     pub discount_rate: f64,
     /// Yearly escalation of the energy price (fraction).
     pub escalation: f64,
+    /// Whether `discount_rate` and `escalation` are real or nominal rates.
+    pub rates: super::operation::RateBasis,
+    /// General inflation per year (fraction), for nominal rates.
+    pub inflation: f64,
 }

@@ -13,7 +13,7 @@ use super::scenario::{
 pub const STATEMENTS: &[&str] = &[
     "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
     "require", "pump", "motor", "energy", "assume", "note", "junction", "delivery", "valve",
-    "equipment",
+    "equipment", "load_profile", "cost",
 ];
 
 /// Words the grammar itself reserves: constants, case scopes of a requirement, curve

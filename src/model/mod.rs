@@ -8,6 +8,7 @@ mod fields;
 pub mod keywords;
 mod lower;
 pub mod network;
+pub mod operation;
 mod pumps;
 pub mod ranges;
 pub mod scenario;

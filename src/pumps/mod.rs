@@ -34,6 +34,7 @@ pub mod fit;
 pub mod lsq;
 pub mod motor;
 pub mod motor_efficiency;
+pub mod part_load;
 pub mod spline;
 pub mod stability;
 pub mod viscous;

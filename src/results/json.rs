@@ -15,6 +15,7 @@ use crate::model::{ArrangementKind, Design};
 mod engineering;
 mod inputs;
 mod safety;
+mod operation;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";

@@ -2,6 +2,7 @@
 //! stable, diff-friendly text summary in report units.
 
 mod json;
+mod operation_text;
 mod text;
 
 pub use json::{to_json, FORMAT};

@@ -170,6 +170,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         }
     }
     candidates(&mut o, design, analysis);
+    super::operation_text::operation(&mut o, design, analysis);
     let sel = &analysis.selection;
     let _ = writeln!(o, "\nselection by {}:", sel.criterion);
     let _ = writeln!(o, "  basis: {}", sel.basis);
@@ -182,7 +183,12 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 u.specific_energy().fmt(se),
                 r.life_cost_per_m3
                     .map(|c| format!(
-                        ", life-cycle energy cost per volume {:.4} {} per {}",
+                        ", {} per volume {:.4} {} per {}",
+                        if analysis.operation.is_empty() {
+                            "life-cycle energy cost"
+                        } else {
+                            "life-cycle cost"
+                        },
                         c * u.volume_per_cost_unit(),
                         design.energy.currency,
                         u.volume_cost_unit()

@@ -328,9 +328,13 @@ def powers(system, case, candidate, pump, ref):
 def run_engine(demo, design_path):
     path = os.path.join(HERE, f"demo_{demo}.json")
     if "--from-json" not in sys.argv:
-        text = subprocess.run(
-            ["cargo", "run", "-q", "--", "results", design_path, "--format", "json", "--exit-zero"],
-            cwd=ROOT, check=True, capture_output=True, text=True).stdout
+        run = subprocess.run(
+            ["cargo", "run", "-q", "--", "results", design_path, "--format", "json"],
+            cwd=ROOT, capture_output=True, text=True)
+        # Exit 3: analysed, but no candidate qualifies; the document is complete.
+        if run.returncode not in (0, 3):
+            raise subprocess.CalledProcessError(run.returncode, run.args, run.stdout, run.stderr)
+        text = run.stdout
         with open(path, "w") as fh:
             fh.write(text)
     with open(path) as fh:

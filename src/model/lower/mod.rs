@@ -12,6 +12,7 @@ mod lines;
 mod network;
 mod operation;
 pub(crate) mod profile;
+mod load_profile;
 mod project;
 mod requirements;
 mod setting;
@@ -64,6 +65,12 @@ pub fn lower(
     let cases = cases::lower_cases(&blocks, base.as_ref(), source, &env, &mut diags);
     let (requirements, node_requirements) =
         requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
+    let yearly = crate::model::operation::OperationSettings {
+        profiles: load_profile::lower_profiles(&blocks, &cases, &requirements, &env, &mut diags),
+        costs: load_profile::lower_costs(&blocks, &pump_list, &env, &mut diags),
+        rates: energy.rates,
+        inflation: energy.inflation,
+    };
     diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
@@ -80,6 +87,7 @@ pub fn lower(
             pumps: pump_list,
             motor,
             energy,
+            operation: yearly,
         }),
         _ => None,
     };

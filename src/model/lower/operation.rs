@@ -17,7 +17,14 @@ pub(crate) const MOTOR_FIELDS: &[&str] = &[
     "drive_efficiency",
 ];
 /// The fields of `energy { ... }`.
-pub(crate) const ENERGY_FIELDS: &[&str] = &["price", "years", "discount_rate", "escalation"];
+pub(crate) const ENERGY_FIELDS: &[&str] = &[
+    "price",
+    "years",
+    "discount_rate",
+    "escalation",
+    "rates",
+    "inflation",
+];
 
 pub fn lower_motor(
     body: Option<&[Statement]>,
@@ -106,6 +113,8 @@ pub fn lower_energy(
         years: 0.0,
         discount_rate: 0.0,
         escalation: 0.0,
+        rates: crate::model::operation::RateBasis::Real,
+        inflation: 0.0,
     };
     let f = read_fields(body.unwrap_or(&[]), "energy", ENERGY_FIELDS, d);
     for field in &f.fields {
@@ -142,6 +151,15 @@ pub fn lower_energy(
                     }
                     e.years = v;
                 }
+                "rates" => {
+                    e.rates =
+                        match eval::expect_word(field.value, env, "rates", &["real", "nominal"])?
+                            .as_str()
+                        {
+                            "nominal" => crate::model::operation::RateBasis::Nominal,
+                            _ => crate::model::operation::RateBasis::Real,
+                        }
+                }
                 name => {
                     let v = expect_number(field.value, env, name)?;
                     if !(-0.5..=1.0).contains(&v) {
@@ -152,10 +170,10 @@ pub fn lower_energy(
                         ));
                     }
                     let v = env.in_range(&ranges::YEARLY_RATE, v, field.value.span)?;
-                    if name == "discount_rate" {
-                        e.discount_rate = v
-                    } else {
-                        e.escalation = v
+                    match name {
+                        "discount_rate" => e.discount_rate = v,
+                        "inflation" => e.inflation = v,
+                        _ => e.escalation = v,
                     }
                 }
             }
@@ -164,6 +182,19 @@ pub fn lower_energy(
         if let Err(x) = r {
             d.push(x);
         }
+    }
+    if let (crate::model::operation::RateBasis::Real, Some(at)) =
+        (e.rates, f.get("inflation").map(|x| x.value.span))
+    {
+        // Real and nominal rates are never mixed (HI/Europump, Pump Life Cycle Costs, 2001).
+        d.push(
+            Diagnostic::error(
+                Code::MixedRates,
+                "`inflation` is only used with `rates = nominal`; real rates already exclude general inflation",
+                Some(at),
+            )
+            .with_help("write `rates = nominal` with nominal discount and escalation rates, or drop `inflation`"),
+        );
     }
     e
 }

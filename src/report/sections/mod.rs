@@ -12,6 +12,7 @@ mod design_basis;
 mod front;
 mod method;
 mod network;
+mod operation;
 mod references;
 mod safety;
 mod selection;
@@ -82,6 +83,7 @@ pub fn document_attached(
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }
+    operation::chapter(&mut blocks, design, analysis, &units);
     selection::chapter(&mut blocks, design, analysis, &units);
     checks::chapter(&mut blocks, analysis, &units);
     safety::chapter(&mut blocks, analysis, &units);

@@ -29,7 +29,7 @@ impl Provenance {
 
 /// The references: publication (title, edition, table or clause), what it supplies,
 /// and how its values came in.
-const REFERENCES: [(&str, &str, Provenance); 28] = [
+const REFERENCES: [(&str, &str, Provenance); 31] = [
     ("IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997 for the Thermodynamic Properties of Water and Steam (IAPWS-IF97).", "density, vapour pressure", Provenance::Method),
     ("IAPWS R12-08(2008), Release on the IAPWS Formulation 2008 for the Viscosity of Ordinary Water Substance.", "viscosity", Provenance::Method),
     ("U.S. Standard Atmosphere, 1976. NOAA, NASA, USAF, Washington D.C.; ISO 2533:1975 Standard Atmosphere.", "barometric pressure at the site elevation", Provenance::Method),
@@ -57,11 +57,14 @@ const REFERENCES: [(&str, &str, Provenance); 28] = [
     ("IEC 60034-1, Rotating electrical machines — Part 1: Rating and performance (duty type S1).", "continuous rating", Provenance::Recalled),
     ("IEC 60072-1, Dimensions and output series for rotating electrical machines — Part 1.", "standard output ratings", Provenance::Recalled),
     ("Hydraulic Institute and Europump (2001), Pump Life Cycle Costs: A Guide to LCC Analysis for Pumping Systems.", "life-cycle cost, equation (7)", Provenance::Method),
+    ("Washington State Energy Office (1993), Energy-Efficient Electric Motor Selection Handbook; reproduced in U.S. DOE (1997), Determining Electric Motor Load and Efficiency, DOE/GO-10097-517, Figure 2.", "typical motor part-load efficiency as a share of full-load efficiency", Provenance::RecalledCrossChecked),
+    ("U.S. DOE (2012), Adjustable Speed Drive Part-Load Efficiency, Motor Systems Tip Sheet #11, Table 1.", "drive efficiency against load and rating (losses at part load)", Provenance::RecalledCrossChecked),
+    ("IEC 61800-9-2:2017, Adjustable speed electrical power drive systems — Part 9-2: Ecodesign — Energy efficiency indicators, eight reference operating points.", "reference points of relative frequency and torque at which drive losses are declared", Provenance::Recalled),
     ("NIST Special Publication 811 (2008), Guide for the Use of the International System of Units, Appendix B.", "unit conversion factors", Provenance::Method),
 ];
 
 /// The open transcriptions the recalled tables were compared with, and what was not.
-const CROSS_CHECKS: &str = "Cross-checks: the tool's test suite compares the recalled fitting constants (Hooper 2-K, Darby 3-K, Crane foot valves, size changes and entrances) and the pipe dimension tables (ASME B36.10M and B36.19M, ASTM D1785, PE by DR) with the open transcriptions of the same tables in the Python fluids package (Caleb Bell et al.), and checks that each material's new and aged roughness gives the friction factor implied by its Hazen-Williams C. A transcription is a second reading of the same publication, not a source: where they differ, the publication governs. The Hazen-Williams C values, the NPSH margin and operating-region limits and the motor tables are recalled without such a cross-check.";
+const CROSS_CHECKS: &str = "Cross-checks: the tool's test suite compares the recalled fitting constants (Hooper 2-K, Darby 3-K, Crane foot valves, size changes and entrances) and the pipe dimension tables (ASME B36.10M and B36.19M, ASTM D1785, PE by DR), the typical motor part-load curve (WSEO 1993) and the drive part-load table (DOE Tip Sheet #11) with the open transcriptions of the same tables in the Python fluids package (Caleb Bell et al.), and checks that each material's new and aged roughness gives the friction factor implied by its Hazen-Williams C. A transcription is a second reading of the same publication, not a source: where they differ, the publication governs. The Hazen-Williams C values, the NPSH margin and operating-region limits and the motor tables are recalled without such a cross-check.";
 
 /// The references chapter.
 pub(super) fn chapter(blocks: &mut Vec<Block>) {

@@ -53,7 +53,15 @@ fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units:
             Column::new(format!("Energy per year ({})", en.label), 0.10, Align::Right),
             Column::new(format!("Specific energy ({})", se.label), 0.10, Align::Right),
             Column::new(format!("Cost per year ({currency})"), 0.09, Align::Right),
-            Column::new(format!("Life energy cost ({currency})"), 0.10, Align::Right),
+            Column::new(
+                if analysis.operation.is_empty() {
+                    format!("Life energy cost ({currency})")
+                } else {
+                    format!("Life-cycle cost ({currency})")
+                },
+                0.10,
+                Align::Right,
+            ),
             Column::new(format!("Life cost per {per_volume} ({currency})"), 0.10, Align::Right),
             Column::new("Wire to water", 0.08, Align::Right),
             Column::new("Qualifies", 0.19, Align::Left),

@@ -42,6 +42,9 @@ pub(super) struct Candidate<'a> {
     motor: Option<super::engineering::MotorOut<'a>>,
     one_pump_alone: Option<super::engineering::OneAloneOut<'a>>,
     capacity: Vec<super::engineering::CapacityOut<'a>>,
+    /// Wave 2: the operation over the load profiles (only when the design has one).
+    #[serde(flatten)]
+    operation: Option<super::operation::OperationOut<'a>>,
 }
 
 /// One published curve table in SI, with the fit used for each column.
@@ -155,6 +158,11 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
                     .and_then(|a| a.as_ref())
                     .map(super::engineering::one_alone),
                 capacity: super::engineering::capacity(design, analysis, k),
+                operation: analysis
+                    .operation
+                    .iter()
+                    .find(|o| o.name == p.name)
+                    .map(super::operation::operation),
             }
         })
         .collect()

@@ -1,0 +1,251 @@
+//! One pump set at one load point with a given number of pumps running: speed, per-pump
+//! flow and head, efficiency, NPSH, and the power chain shaft → motor → drive → supply.
+//!
+//! Affinity scaling (Q ∝ N, H ∝ N², P ∝ N³) keeps the pump's efficiency at corresponding
+//! points equal to the published value (`pumps::affinity`); no reduced-speed efficiency
+//! correction is applied, which is optimistic well below rated speed (common practice).
+//! Shaft power per pump P_s = ρ·g·Q_p·H_p/η_p; motor efficiency η_m = η_FL · r(x) with
+//! x = P_s / rating and r the typical part-load ratio (`pumps::part_load`); drive
+//! losses from the drive part-load table scaled to its full-load efficiency; input
+//! power = Σ (P_s/η_m + drive losses). Wire-to-water efficiency = ρ·g·Q·H_set / input,
+//! with H_set the head the running set develops (DOE/Hydraulic Institute usage).
+
+use crate::analysis::{CaseSystem, G};
+use crate::pumps::{brent, part_load::DriveLosses, PumpCurves, ScaledPump};
+
+/// How the set's speed may move.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum SpeedRange {
+    /// Variable-frequency drive between these fractions of the published speed.
+    Variable { min: f64, max: f64 },
+    /// Fixed at this fraction of the published speed.
+    Fixed(f64),
+}
+
+/// The fixed data of one candidate for the profile: its evaluated curve, how many
+/// pumps it has, its motor and drive.
+#[derive(Clone, Debug)]
+pub struct SetModel<'a> {
+    /// The evaluated published curve (before trim and speed change).
+    pub base: &'a PumpCurves,
+    /// Impeller diameter ratio to `base`.
+    pub trim: f64,
+    /// Best-efficiency flow of `base` at its own speed, m³/s (before trim).
+    pub bep_flow: Option<f64>,
+    /// Duty pumps of a parallel set (1 otherwise).
+    pub parallel: u32,
+    /// Pumps in series (1 otherwise).
+    pub series: u32,
+    pub speed: SpeedRange,
+    /// Motor nameplate per pump, W, and its full-load efficiency (fraction).
+    pub motor_rating_w: f64,
+    pub motor_full_load_efficiency: f64,
+    /// The drive of each pump, when on variable speed.
+    pub drive: Option<DriveLosses>,
+}
+
+/// The state of a running set at one load point.
+#[derive(Clone, Debug, PartialEq)]
+pub struct SetState {
+    /// Pumps running in parallel.
+    pub running: u32,
+    /// Speed as a fraction of the published speed, and in rpm.
+    pub speed_ratio: f64,
+    pub speed_rpm: f64,
+    /// Total flow, m³/s, and per pump.
+    pub flow: f64,
+    pub flow_per_pump: f64,
+    /// Head each pump develops, m, and the system head at the flow, m.
+    pub head_per_pump: f64,
+    pub system_head: f64,
+    /// Head the set develops above what the line needs (taken by a valve or the
+    /// consumers), m.
+    pub surplus_head: f64,
+    /// Pump efficiency (fraction); `None` without efficiency data.
+    pub efficiency: Option<f64>,
+    /// Flow per pump over the best-efficiency flow at this speed and trim.
+    pub bep_ratio: Option<f64>,
+    /// NPSH available and required, m.
+    pub npsh_available: f64,
+    pub npsh_required: Option<f64>,
+    /// Shaft power of all running pumps, W.
+    pub shaft_power: f64,
+    /// Shaft power per pump over the motor nameplate.
+    pub motor_load: f64,
+    /// Motor efficiency at that load (fraction).
+    pub motor_efficiency: f64,
+    /// Drive efficiency at its load (1 without a drive).
+    pub drive_efficiency: f64,
+    /// Drive losses of all running pumps, W.
+    pub drive_losses: f64,
+    /// Electrical input of all running pumps while running, W.
+    pub input_power: f64,
+    /// ρ·g·Q·H of the set while running, W.
+    pub hydraulic_power: f64,
+    /// The speed is at its minimum and the surplus is throttled.
+    pub at_min_speed: bool,
+    /// The control curve lay below the system curve here (the set gives the system head).
+    pub below_system_curve: bool,
+}
+
+/// The pump at speed ratio `r` with the model's trim.
+fn scaled<'a>(m: &SetModel<'a>, r: f64) -> ScaledPump<'a> {
+    ScaledPump::quiet(m.base, r, m.trim)
+}
+
+/// Speed ratio at which one pump gives `head` (m) at `qp` (m³/s) within `min..max`:
+/// solves r²·H(qp/r) = head by Brent (1e-10, 100 iterations). `Ok(None)` when even the
+/// minimum speed gives more (run at minimum speed, throttled).
+fn speed_for(m: &SetModel, qp: f64, head: f64, min: f64, max: f64) -> Result<Option<f64>, String> {
+    let h = |r: f64| scaled(m, r).eval_head(qp);
+    if h(max) < head {
+        return Err(format!(
+            "at its maximum speed one pump gives {:.2} m at {:.5} m3/s, below the {:.2} m needed",
+            h(max),
+            qp,
+            head
+        ));
+    }
+    if h(min) >= head {
+        return Ok(None);
+    }
+    brent(|r| h(r) - head, min, max, 1e-10, 100)
+        .map(Some)
+        .map_err(|e| e.message)
+}
+
+/// The set with `k` pumps running at total flow `q` (m³/s) against the system `sys`,
+/// at the head `set_head` (m) a control asks for (`None`: fixed speed, throttled).
+/// `Err` says why the point cannot be delivered.
+pub fn evaluate(
+    m: &SetModel,
+    sys: &CaseSystem,
+    k: u32,
+    q: f64,
+    set_head: Option<(f64, bool)>,
+) -> Result<SetState, String> {
+    let k = k.clamp(1, m.parallel.max(1));
+    let qp = q / k as f64;
+    let ser = m.series.max(1) as f64;
+    let system_head = sys.head(q);
+    let (ratio, at_min, below) = match (m.speed, set_head) {
+        (SpeedRange::Variable { min, max }, Some((h, below))) => {
+            match speed_for(m, qp, h / ser, min, max)? {
+                Some(r) => (r, false, below),
+                None => (min, true, below),
+            }
+        }
+        (SpeedRange::Variable { max, .. }, None) => (1.0_f64.min(max), false, false),
+        (SpeedRange::Fixed(r), _) => (r, false, false),
+    };
+    let pump = scaled(m, ratio);
+    if qp > pump.domain().1 * (1.0 + 1e-9) {
+        return Err(format!(
+            "{k} pump(s) would each carry {qp:.5} m3/s, beyond the published curve's end at {:.5} m3/s",
+            pump.domain().1
+        ));
+    }
+    let head_per_pump = pump.eval_head(qp);
+    if head_per_pump * ser < system_head - 1e-6 {
+        return Err(format!(
+            "{k} pump(s) give {:.2} m at {q:.5} m3/s, below the {system_head:.2} m the line needs",
+            head_per_pump * ser
+        ));
+    }
+    power_chain(
+        m,
+        sys,
+        k,
+        ratio,
+        q,
+        head_per_pump,
+        system_head,
+        at_min,
+        below,
+    )
+}
+
+/// Efficiency, NPSH and the power chain of a set whose speed and head are known.
+#[allow(clippy::too_many_arguments)]
+fn power_chain(
+    m: &SetModel,
+    sys: &CaseSystem,
+    k: u32,
+    ratio: f64,
+    q: f64,
+    head_per_pump: f64,
+    system_head: f64,
+    at_min_speed: bool,
+    below_system_curve: bool,
+) -> Result<SetState, String> {
+    let pump = scaled(m, ratio);
+    let qp = q / k as f64;
+    let ser = m.series.max(1) as f64;
+    let rho = sys.fluid.density;
+    let efficiency = pump.eval_efficiency(qp).filter(|e| *e > 0.02);
+    let shaft_per_pump = match efficiency {
+        Some(e) => rho * G * qp * head_per_pump / e,
+        None => pump
+            .eval_shaft_power(qp)
+            .ok_or("the curve gives neither efficiency nor power here")?,
+    };
+    let motor_load = shaft_per_pump / m.motor_rating_w;
+    let motor_efficiency = m.motor_full_load_efficiency
+        * crate::pumps::part_load::motor_part_load_ratio(m.motor_rating_w, motor_load);
+    let motor_input = shaft_per_pump / motor_efficiency;
+    let drive_losses = m.drive.map_or(0.0, |d| d.losses_w(motor_input));
+    let per_pump_input = motor_input + drive_losses;
+    let running = k as f64 * ser;
+    let hydraulic_power = rho * G * q * head_per_pump * ser;
+    Ok(SetState {
+        running: k,
+        speed_ratio: ratio,
+        speed_rpm: pump.speed_rpm(),
+        flow: q,
+        flow_per_pump: qp,
+        head_per_pump,
+        system_head,
+        surplus_head: (head_per_pump * ser - system_head).max(0.0),
+        efficiency,
+        bep_ratio: m
+            .bep_flow
+            .map(|b| b * pump.flow_scale())
+            .filter(|b| *b > 0.0)
+            .map(|b| qp / b),
+        npsh_available: sys.npsh_available(q),
+        npsh_required: pump.eval_npshr(qp),
+        shaft_power: shaft_per_pump * running,
+        motor_load,
+        motor_efficiency,
+        drive_efficiency: if drive_losses > 0.0 {
+            motor_input / per_pump_input
+        } else {
+            1.0
+        },
+        drive_losses: drive_losses * running,
+        input_power: per_pump_input * running,
+        hydraulic_power,
+        at_min_speed,
+        below_system_curve,
+    })
+}
+
+/// The set with `k` pumps running at fixed speed against `sys` at its duty point (the
+/// crossing of the set's curve with the system curve), for on/off control. `Err` when
+/// the curves do not meet within the published data.
+pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, String> {
+    let ratio = match m.speed {
+        SpeedRange::Fixed(r) => r,
+        SpeedRange::Variable { max, .. } => 1.0_f64.min(max),
+    };
+    let pump = scaled(m, ratio);
+    let k = k.clamp(1, m.parallel.max(1));
+    let q = crate::analysis::duty::meeting_flow(&pump, sys, k as f64, m.series.max(1) as f64)
+        .ok_or_else(|| {
+            format!(
+                "{k} pump(s) at fixed speed do not meet the system curve within the published data"
+            )
+        })?;
+    let h = pump.eval_head(q / k as f64);
+    power_chain(m, sys, k, ratio, q, h, sys.head(q), false, false)
+}
