@@ -56,8 +56,8 @@ fn method(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
         blocks.push(Block::Equation(text));
     }
     blocks.push(Block::text("The set never gives less than the system head H_sys(Q). The speed ratio r that gives H_c at the flow per pump Q_p solves r²·H(Q_p/r) = H_c/n_s (affinity laws, Q ∝ N, H ∝ N², P ∝ N³, with the pump efficiency held at its published value at corresponding points: no reduced-speed efficiency correction is applied, which is optimistic well below the published speed). Below the minimum speed the set runs at the minimum speed and the surplus is throttled. Staging: of the counts of running pumps that deliver the point, the least input power among those keeping every pump within the allowable operating region, else the least input power."));
-    blocks.push(Block::Equation("P_shaft = ρ·g·Q_p·H_p/η_p per pump;  η_m = η_m,FL · r_m(P_shaft/P_rated);  P_in = P_shaft/η_m + P_loss,drive;  η_ww = ρ·g·Q·H/P_in".into()));
-    blocks.push(Block::text("r_m is the typical motor part-load ratio of the Washington State Energy Office handbook (1993); the drive losses are P_loss = P_out·(1/η_d − 1) with η_d from the U.S. DOE Motor Systems Tip Sheet #11 (2012) against the drive's output fraction, scaled to the stated full-load drive efficiency. On/off: the set runs at its duty point; the share of time running is Q/Q_run, the specific energy is averaged over the level band by Simpson's rule (bottom, middle, top), and the worst starts per hour, at an inflow of half the pump flow, are Q_run/(4·V) with V the active volume."));
+    blocks.push(Block::Equation("P_shaft = ρ·g·Q_p·H_p/η_p per pump;  η_m = η_m,FL · r_PL(P_shaft/P_rated);  P_in = P_shaft/η_m + P_loss,drive;  η_ww = ρ·g·Q·H/P_in".into()));
+    blocks.push(Block::text("r_PL is the typical motor part-load ratio of the Washington State Energy Office handbook (1993); the drive losses are P_loss = P_out·(1/η_d − 1) with η_d from the U.S. DOE Motor Systems Tip Sheet #11 (2012) against the drive's output fraction, scaled to the stated full-load drive efficiency. On/off: the set runs at its duty point; the share of time running is Q/Q_run, the specific energy is averaged over the level band by Simpson's rule (bottom, middle, top), and the worst starts per hour, at an inflow of half the pump flow, are Q_run/(4·V) with V the active volume."));
 }
 
 fn profile_table(blocks: &mut Vec<Block>, p: &LoadProfile, units: &Units) {
@@ -97,8 +97,8 @@ fn profile_table(blocks: &mut Vec<Block>, p: &LoadProfile, units: &Units) {
             "Load profile on case {} ({:.0} h a year; control {}, staging {})",
             p.case,
             total,
-            p.control.keyword(),
-            p.staging.keyword()
+            p.control.keyword().replace('_', " "),
+            p.staging.keyword().replace('_', " ")
         )),
     });
 }
@@ -120,7 +120,7 @@ fn candidate(
         return;
     }
     blocks.push(Block::KeyValue(vec![
-        ("Control".into(), op.controls.iter().map(|c| c.keyword()).collect::<Vec<_>>().join(", ")),
+        ("Control".into(), op.controls.iter().map(|c| c.keyword().replace('_', " ")).collect::<Vec<_>>().join(", ")),
         ("Motor per pump".into(), format!("{} nameplate, full-load efficiency {}", pw.fmt(op.motor_rating_w), percent(op.motor_full_load_efficiency))),
         ("Drive".into(), match op.drive_full_load_efficiency { Some(e) => format!("variable-frequency drive, full-load efficiency {}, speed {:.0}–{:.0} % of {:.0} rpm", percent(e), op.speed_range.0 * 100.0, op.speed_range.1 * 100.0, op.published_speed_rpm), None => "none (fixed speed)".into() }),
     ]));
@@ -302,7 +302,7 @@ fn head_figure(
         series.push(Series {
             name: format!(
                 "control curve ({}, case {})",
-                plot.control.keyword(),
+                plot.control.keyword().replace('_', " "),
                 plot.case
             ),
             points: plot
@@ -495,13 +495,13 @@ fn life_cycle(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis) {
     };
     blocks.push(Block::heading(2, "Life-cycle cost"));
     blocks.push(Block::Equation(
-        "LCC = C_ic + C_in + C_e + C_o + C_m + C_s + C_env + C_d".into(),
+        "LCC = C_ic + C_in + C_e + C_o + C_mr + C_s + C_env + C_d".into(),
     ));
     blocks.push(Block::Equation(
         "PV(A) = A·Σₙ₌₁ᴺ ((1+g)/(1+i))ⁿ;  PV(C_d) = C_d·((1+g)/(1+i))ᴺ".into(),
     ));
     blocks.push(Block::text(format!(
-        "After Hydraulic Institute and Europump, Pump Life Cycle Costs: A Guide to LCC Analysis for Pumping Systems (2001): initial (ic), installation and commissioning (in), energy (e), operation (o), maintenance and repair (m), downtime (s), environmental (env), decommissioning and disposal (d). Life N = {:.0} years, discount rate i = {:.1} %; {} rates: energy grows at g = {:.1} % a year (present-worth factor {:.3}), other yearly costs at g = {:.1} % (factor {:.3}). Elements the design does not give count as zero.",
+        "After Hydraulic Institute and Europump, Pump Life Cycle Costs: A Guide to LCC Analysis for Pumping Systems (2001): initial (ic), installation and commissioning (in), energy (e), operation (o), maintenance and repair (mr), downtime (s), environmental (env), decommissioning and disposal (d). Life N = {:.0} years, discount rate i = {:.1} %; {} rates: energy grows at g = {:.1} % a year (present-worth factor {:.3}), other yearly costs at g = {:.1} % (factor {:.3}). Elements the design does not give count as zero.",
         first.years, first.discount_rate * 100.0,
         first.rates.keyword(), first.escalation * 100.0, first.energy_factor, first.inflation * 100.0, first.recurring_factor
     )));
