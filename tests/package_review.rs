@@ -16,10 +16,11 @@ impl dutyline::FileAccess for DemoFiles {
     }
 }
 
-const DEMOS: [&str; 3] = [
+const DEMOS: [&str; 4] = [
     "orchard-lift-rev-a",
     "orchard-lift-rev-b",
     "kestrel-booster",
+    "hillside-district",
 ];
 
 struct Package {
@@ -162,6 +163,12 @@ fn no_input_syntax_or_raw_identifiers_before_the_appendix() {
         ]);
         names.extend(d.base.lines.iter().map(|l| l.name.as_str()));
         names.extend(d.pumps.iter().map(|p| p.name.as_str()));
+        // Network nodes, floating tanks and links are named by the designer too.
+        if let Some(net) = &d.base.network {
+            names.extend(net.nodes.iter().map(|n| n.name.as_str()));
+            names.extend(net.tanks.iter().map(|t| t.name.as_str()));
+            names.extend(net.links.iter().map(|l| l.name.as_str()));
+        }
         let fittings: Vec<&str> = dutyline::hydraulics::fittings::all_fittings()
             .iter()
             .map(|f| f.name)

@@ -39,7 +39,7 @@ pub(super) fn chapter(
          head loss equals the head difference across it and the flows balance at every \
          junction, both far below the printed precision. Pipe runs use the same friction and \
          fitting methods as the chain; {valve_law}, at the Kv of their inherent \
-         characteristic (linear Kv = x·Kvs, equal percentage Kv = Kvs·R^(x−1), x the \
+         characteristic (linear Kv = x·Kvs, equal percentage Kv = Kvs·R⁽ˣ⁻¹⁾ with R the rangeability, x the \
          opening); equipment scales its stated drop as (Q/Q_rated)ⁿ. The system curve is the \
          head the station must supply at each flow with the split solved at that flow: its \
          'network' part is the entry node's head above its value at zero station flow."
@@ -142,15 +142,14 @@ fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
                                 format!(
                                     "{} × {} (K {:.3} at Re 1e5)",
                                     f.count,
-                                    f.spec.name,
+                                    super::wording::fitting(f.spec.description),
                                     k_of(f, 1e5, s.inner_diameter)
                                 )
                             })
                             .collect();
                         format!(
-                            "{} {}, ID {}, {}, roughness {}{}{}",
-                            s.material,
-                            s.size_label,
+                            "{}, ID {}, {}, roughness {}{}{}",
+                            crate::display::pipe(s.material, &s.size_label, s.inner_diameter, units),
                             dia.fmt(s.inner_diameter),
                             len.fmt(s.length),
                             rough.fmt(s.roughness),

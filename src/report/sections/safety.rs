@@ -465,7 +465,7 @@ fn surge_tables(blocks: &mut Vec<Block>, s: &Safety, first: &CaseSafety, units: 
     }
     blocks.push(Block::Table {
         columns: vec![
-            Column::new("Case", 0.1, Align::Left),
+            Column::new("Case", 0.13, Align::Left),
             Column::new("Line", 0.11, Align::Left),
             Column::new(format!("a ({})", ws.label), 0.07, Align::Right),
             Column::new(format!("a lowest ({})", ws.label), 0.08, Align::Right),
@@ -473,7 +473,7 @@ fn surge_tables(blocks: &mut Vec<Block>, s: &Safety, first: &CaseSafety, units: 
             Column::new("2L/a lowest (s)", 0.08, Align::Right),
             Column::new(format!("V ({})", units.velocity().label), 0.07, Align::Right),
             Column::new(format!("a·V/g ({})", hd.label), 0.08, Align::Right),
-            Column::new("Valve closure", 0.34, Align::Left),
+            Column::new("Valve closure", 0.31, Align::Left),
         ],
         rows,
         caption: Some("Surge screening per case and line: equivalent pipe, pipe period, Joukowsky head of the duty flow stopped, and the valve closure".into()),
@@ -510,10 +510,10 @@ fn checks_table(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
     }
     blocks.push(Block::Table {
         columns: vec![
-            Column::new("Case", 0.1, Align::Left),
+            Column::new("Case", 0.13, Align::Left),
             Column::new("Check", 0.14, Align::Left),
             Column::new("Status", 0.07, Align::Left),
-            Column::new("Finding", 0.47, Align::Left),
+            Column::new("Finding", 0.44, Align::Left),
             Column::new("Source of the limit", 0.22, Align::Left),
         ],
         rows,
