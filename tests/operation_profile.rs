@@ -278,7 +278,11 @@ fn a_pump_that_deadheads_at_minimum_speed_fails() {
 fn profile_mistakes_get_located_diagnostics() {
     let base = std::fs::read_to_string("examples-demo/kestrel-booster.duty").unwrap();
     for (from, to, code) in [
-        ("load_profile average {", "load_profile nowhere {", "unknown-case"),
+        (
+            "load_profile average {",
+            "load_profile nowhere {",
+            "unknown-case",
+        ),
         ("    control_head = 54 m\n", "", "missing-field"),
         (
             "        30       400\n",

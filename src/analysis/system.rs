@@ -14,8 +14,8 @@ use uom::si::{
     pressure::pascal, thermodynamic_temperature::kelvin,
 };
 
-use crate::display::Units;
 use crate::analysis::network::station::StationNetwork;
+use crate::display::Units;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};

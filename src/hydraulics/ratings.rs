@@ -43,33 +43,53 @@ pub struct PipeRating {
 #[derive(Clone, Debug, PartialEq)]
 pub enum Basis {
     /// AWWA C150/C151 pressure class (psi, as the standard names it).
-    DuctileIron { class: f64 },
+    DuctileIron {
+        /// The pressure class, psi.
+        class: f64,
+    },
     /// ASTM D1785: S (Pa), t and D (m), the rating at 73 °F (Pa), the temperature
     /// factor, threaded.
     Pvc {
+        /// Hydrostatic design stress S, Pa.
         stress: f64,
+        /// Wall thickness t, m.
         wall: f64,
+        /// Outside diameter D, m.
         outer_diameter: f64,
+        /// Pressure rating at 73 °F, Pa (gauge).
         at_73: f64,
+        /// Temperature derating factor (dimensionless).
         factor: f64,
+        /// Threaded joints (the rating is halved).
         threaded: bool,
     },
     /// PE4710: HDS (Pa), temperature factor, DR, PR (Pa).
     Hdpe {
+        /// Hydrostatic design stress HDS, Pa.
         stress: f64,
+        /// Temperature factor F (dimensionless).
         factor: f64,
+        /// Dimension ratio DR (outside diameter over wall, dimensionless).
         dr: f64,
+        /// Pressure rating PR, Pa (gauge).
         pr: f64,
     },
     /// ASME B31.3: nominal wall, corrosion and thread allowances, the wall left t (m),
     /// S (Pa), D (m), P (Pa).
     Steel {
+        /// Nominal wall thickness, m.
         wall: f64,
+        /// Corrosion allowance, m.
         corrosion: f64,
+        /// Thread depth allowance, m (0 unthreaded).
         thread: f64,
+        /// Wall thickness left after the mill tolerance and allowances t, m.
         t: f64,
+        /// Allowable stress S, Pa.
         stress: f64,
+        /// Outside diameter D, m.
         outer_diameter: f64,
+        /// Internal design pressure P, Pa (gauge).
         p: f64,
     },
 }
@@ -123,6 +143,7 @@ impl Basis {
 /// What a rating needs to know of a segment.
 #[derive(Clone, Copy, Debug, Default)]
 pub struct RatingInput<'a> {
+    /// The pipe material, when known.
     pub material: Option<Material>,
     /// Outside diameter, m.
     pub outer_diameter: Option<f64>,
@@ -130,6 +151,7 @@ pub struct RatingInput<'a> {
     pub wall: Option<f64>,
     /// `schedule 40`, `class 350`, `DR 17`.
     pub designation: Option<&'a str>,
+    /// Threaded joints.
     pub threaded: bool,
     /// Corrosion allowance, m (steel); `None` takes the default.
     pub corrosion_allowance: Option<f64>,

@@ -149,6 +149,7 @@ pub struct WavePipe {
     pub modulus: f64,
     /// Poisson's ratio ν of the wall.
     pub poisson: f64,
+    /// How the pipe is restrained against axial movement (sets ψ).
     pub restraint: Restraint,
 }
 

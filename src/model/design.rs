@@ -248,6 +248,7 @@ pub struct Line {
     pub closure_time: Option<Time>,
     /// How the line is restrained against axial movement (wave speed).
     pub restraint: Restraint,
+    /// Where the `line` block is written.
     pub span: Span,
 }
 
@@ -256,9 +257,11 @@ pub struct Line {
 /// from zero.
 #[derive(Clone, Debug)]
 pub struct Profile {
+    /// The points: (chainage, pipe elevation), chainage strictly increasing from zero.
     pub points: Vec<(Length, Length)>,
     /// Where it comes from: "given in the design" or the CSV file's name.
     pub source: String,
+    /// Where the profile is written.
     pub span: Span,
 }
 
@@ -310,6 +313,7 @@ pub struct WallData {
     pub threaded: bool,
     /// Pipe elevations at the segment's ends (`start_elevation`, `end_elevation`).
     pub start_elevation: Option<Length>,
+    /// Pipe elevation at the segment's end (`end_elevation`).
     pub end_elevation: Option<Length>,
 }
 

@@ -11,9 +11,27 @@ use super::scenario::{
 
 /// The top-level statement keywords (`project`, `tank`, `line`, ...).
 pub const STATEMENTS: &[&str] = &[
-    "project", "revision", "purpose", "fluid", "site", "tank", "station", "line", "case",
-    "require", "pump", "motor", "energy", "assume", "note", "junction", "delivery", "valve",
-    "equipment", "load_profile", "cost",
+    "project",
+    "revision",
+    "purpose",
+    "fluid",
+    "site",
+    "tank",
+    "station",
+    "line",
+    "case",
+    "require",
+    "pump",
+    "motor",
+    "energy",
+    "assume",
+    "note",
+    "junction",
+    "delivery",
+    "valve",
+    "equipment",
+    "load_profile",
+    "cost",
 ];
 
 /// Words the grammar itself reserves: constants, case scopes of a requirement, curve

@@ -42,26 +42,34 @@ pub struct NetworkLayout {
 /// A junction or a delivery point.
 #[derive(Clone, Debug)]
 pub struct NetNode {
+    /// The node's name.
     pub name: String,
     /// A delivery point (a demand with a required residual pressure) rather than a junction.
     pub delivery: bool,
+    /// Elevation of the node in the design's datum.
     pub elevation: Length,
     /// Flow drawn off the network here.
     pub demand: VolumeRate,
     /// The residual gauge pressure the node must keep, when stated.
     pub required_pressure: Option<Pressure>,
+    /// Where the node is written.
     pub span: Span,
 }
 
 /// A link between two nodes of the network.
 #[derive(Clone, Debug)]
 pub struct NetLink {
+    /// The link's name.
     pub name: String,
+    /// The upstream node, by name.
     pub from: String,
+    /// The downstream node, by name.
     pub to: String,
+    /// What the link is: pipe run, valve or equipment.
     pub kind: NetLinkKind,
     /// A check valve in the link (a `check_valve...` fitting on a line): no reverse flow.
     pub check: bool,
+    /// Where the link is written.
     pub span: Span,
 }
 
@@ -70,7 +78,9 @@ pub struct NetLink {
 pub enum NetLinkKind {
     /// A pipe run: segments in series with their fittings.
     Pipe(Vec<Segment>),
+    /// A valve by flow coefficient.
     Valve(ValveData),
+    /// An equipment item with a drop at a rated flow.
     Equipment(EquipmentData),
 }
 
@@ -90,6 +100,7 @@ impl NetLinkKind {
 pub struct ValveData {
     /// Kv of the fully open valve, m³/h at 1 bar (a `cvs` is converted, Kv = Cv/1.156).
     pub kvs: f64,
+    /// The valve's inherent characteristic.
     pub characteristic: ValveCharacteristic,
     /// Opening, 0..=1.
     pub opening: f64,
@@ -98,14 +109,21 @@ pub struct ValveData {
 /// The inherent characteristic of a valve.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum ValveCharacteristic {
+    /// Kv = x·Kvs.
     Linear,
-    EqualPercentage { rangeability: f64 },
+    /// Kv = Kvs·R^(x−1), R the rangeability.
+    EqualPercentage {
+        /// Rangeability R (dimensionless).
+        rangeability: f64,
+    },
 }
 
 /// Equipment given by its pressure drop at a rated flow.
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub struct EquipmentData {
+    /// Pressure drop across the item at the rated flow.
     pub drop: Pressure,
+    /// The flow at which the drop is stated.
     pub rated_flow: VolumeRate,
     /// Exponent n of Δp ∝ Qⁿ (2 unless stated).
     pub exponent: f64,
@@ -328,8 +346,11 @@ pub enum NodeQuantity {
 /// A requirement at a network node: `pressure at NODE >= 35 psi [for CASE, ...]`.
 #[derive(Clone, Debug)]
 pub struct NodeRequirement {
+    /// Whether the requirement is on pressure or on flow.
     pub quantity: NodeQuantity,
+    /// The node (or tank, for flow) the requirement is at, by name.
     pub node: String,
+    /// True for `>=` (a lower limit), false for `<=` (an upper limit).
     pub at_least: bool,
     /// SI value (Pa gauge, m³/s).
     pub limit_si: f64,
@@ -337,5 +358,6 @@ pub struct NodeRequirement {
     pub text: String,
     /// Cases it applies to; empty means every case.
     pub cases: Vec<String>,
+    /// Where the requirement is written.
     pub span: Span,
 }

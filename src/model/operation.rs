@@ -37,6 +37,7 @@ pub struct LoadProfile {
     /// Starts per hour the motor allows (the maker's or NEMA MG 1 Part 12); `None`
     /// takes [`DEFAULT_MAX_STARTS_PER_HOUR`].
     pub max_starts_per_hour: Option<f64>,
+    /// Where the `load_profile` block is written.
     pub span: Span,
 }
 
@@ -55,6 +56,7 @@ pub struct LoadPoint {
     pub flow: f64,
     /// Hours per year at this flow, h.
     pub hours: f64,
+    /// Where the row is written.
     pub span: Span,
 }
 
@@ -63,13 +65,22 @@ pub struct LoadPoint {
 pub enum Control {
     /// The pump discharge head is held at `head` (m) whatever the flow; the surplus
     /// over the line's need is taken by the consumers' valves.
-    ConstantPressure { head: f64 },
+    ConstantPressure {
+        /// The held discharge head, m.
+        head: f64,
+    },
     /// The head at the line's far end is held `residual` (m) above what the line needs:
     /// the pump head follows the system curve (a sensor at the destination).
-    SystemCurve { residual: f64 },
+    SystemCurve {
+        /// Head above the line's need at the far end, m.
+        residual: f64,
+    },
     /// Proportional curve: head falls linearly from the system head at the design flow
     /// to `zero_flow_head` (m) at zero flow.
-    Proportional { zero_flow_head: f64 },
+    Proportional {
+        /// Head at zero flow, m.
+        zero_flow_head: f64,
+    },
     /// Fixed (rated or case) speed, a valve throttles to the demanded flow.
     Throttle,
     /// Fixed speed cycling on and off into storage.
@@ -139,6 +150,7 @@ pub struct CostElements {
     pub environmental: f64,
     /// Decommissioning and disposal, currency, at the end of the life.
     pub disposal: f64,
+    /// Where the `cost` block is written.
     pub span: Span,
 }
 
@@ -166,7 +178,9 @@ impl RateBasis {
 /// Everything the design says about the operation over the year.
 #[derive(Clone, Debug, Default)]
 pub struct OperationSettings {
+    /// The load profiles, in file order.
     pub profiles: Vec<LoadProfile>,
+    /// The cost elements stated per candidate, in file order.
     pub costs: Vec<CostElements>,
     /// Real or nominal rates (the `energy` block's `rates`).
     pub rates: RateBasis,

@@ -14,8 +14,8 @@ use crate::model::{ArrangementKind, Design};
 
 mod engineering;
 mod inputs;
-mod safety;
 mod operation;
+mod safety;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";

@@ -36,6 +36,7 @@ pub enum Verdict {
 /// What `verify` found.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Report {
+    /// The overall verdict.
     pub verdict: Verdict,
     /// The attached design's name.
     pub design: String,

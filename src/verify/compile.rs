@@ -32,7 +32,9 @@ pub struct Package {
 pub enum CompileError {
     /// The design (or the compared revision, `compared`) has errors.
     Design {
+        /// True when the errors are in the compared (earlier) revision.
         compared: bool,
+        /// The design's diagnostics.
         diagnostics: Vec<Diagnostic>,
     },
     /// The style file is not a valid style.

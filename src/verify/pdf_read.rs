@@ -25,15 +25,21 @@ pub const MAX_DECODED_BYTES: usize = 64 << 20;
 /// A PDF object (ISO 32000-1, 7.3).
 #[derive(Debug, Clone, PartialEq)]
 pub enum Obj {
+    /// `null`.
     Null,
+    /// A boolean.
     Bool(bool),
+    /// An integer.
     Int(i64),
+    /// A real number.
     Real(f64),
     /// A name without its `/`, `#xx` escapes decoded.
     Name(Vec<u8>),
     /// A string's bytes, escapes decoded.
     Str(Vec<u8>),
+    /// An array.
     Array(Vec<Obj>),
+    /// A dictionary.
     Dict(Dict),
     /// An indirect reference: object number, generation.
     Ref(u32, u16),
@@ -50,9 +56,17 @@ pub enum ReadError {
     /// The file does not start with `%PDF-`.
     NotPdf,
     /// The file ends before the first revision is complete (at byte `at`).
-    Truncated { at: usize },
+    Truncated {
+        /// Byte offset in the file where it ends.
+        at: usize,
+    },
     /// Something unexpected at byte `at`.
-    Malformed { at: usize, what: String },
+    Malformed {
+        /// Byte offset in the file.
+        at: usize,
+        /// What was found or expected.
+        what: String,
+    },
     /// A PDF feature dutyline never writes.
     Unsupported(String),
 }

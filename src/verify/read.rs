@@ -57,7 +57,9 @@ pub enum PackageError {
     Pdf(ReadError),
     /// A PDF, but without dutyline's attachments (`producer` says who wrote it).
     NotDutyline {
+        /// The PDF's `/Producer`, when it has one.
         producer: Option<String>,
+        /// Why it is not taken for a dutyline package.
         why: String,
     },
     /// The build record is missing something or cannot be read.

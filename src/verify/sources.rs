@@ -36,13 +36,20 @@ pub enum StyleSource {
     /// A built-in style by name (`letter`, `a4`).
     Builtin(String),
     /// A style file: its attachment name and its text.
-    File { name: String, text: String },
+    File {
+        /// The attachment name.
+        name: String,
+        /// The style file's text.
+        text: String,
+    },
 }
 
 /// Everything a package is compiled from.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Sources {
+    /// The design files.
     pub design: DesignFiles,
+    /// The style.
     pub style: StyleSource,
     /// The earlier revision of a `build --compare`, with its files.
     pub compare: Option<DesignFiles>,

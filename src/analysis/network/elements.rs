@@ -51,12 +51,14 @@ pub trait HeadCurve: std::fmt::Debug + Send + Sync {
 /// A pipe run: segments in series, each with its fittings.
 #[derive(Clone, Debug)]
 pub struct PipeRun {
+    /// The segments of the run, in flow order, each with its fittings.
     pub segments: Vec<SegmentState>,
 }
 
 /// A pump set as a link.
 #[derive(Clone, Debug)]
 pub struct PumpSet {
+    /// The head curve of one pump of the set at its speed and impeller.
     pub curve: Arc<dyn HeadCurve>,
     /// Pumps running in parallel (0: the set is stopped and the link closed).
     pub parallel: u32,
@@ -81,7 +83,10 @@ pub enum Characteristic {
     /// Kv = x·Kvs.
     Linear,
     /// Kv = Kvs·R^(x−1), R the rangeability.
-    EqualPercentage { rangeability: f64 },
+    EqualPercentage {
+        /// Rangeability R (dimensionless): Kv tends to Kvs/R as the opening nears zero.
+        rangeability: f64,
+    },
 }
 
 /// A valve by flow coefficient.
@@ -89,6 +94,7 @@ pub enum Characteristic {
 pub struct Valve {
     /// Kv of the fully open valve, m³/h at 1 bar.
     pub kvs: f64,
+    /// The valve's inherent characteristic.
     pub characteristic: Characteristic,
     /// Opening, 0..=1 (0 is shut).
     pub opening: f64,
@@ -113,9 +119,13 @@ impl Valve {
 /// What a link is.
 #[derive(Clone, Debug)]
 pub enum Element {
+    /// A pipe run.
     Pipe(PipeRun),
+    /// A pump set.
     Pump(PumpSet),
+    /// An equipment item with a rated drop.
     Equipment(Equipment),
+    /// A valve by flow coefficient.
     Valve(Valve),
 }
 

@@ -45,7 +45,9 @@ pub enum NodeKind {
 /// One node.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Node {
+    /// The node's name in the design.
     pub name: String,
+    /// Whether the node has a fixed head or is a junction with a demand.
     pub kind: NodeKind,
     /// Elevation, m (for a free surface: its level).
     pub elevation: f64,
@@ -58,9 +60,13 @@ pub struct Node {
 /// One link from `from` to `to` (node indices); flow is positive from → to.
 #[derive(Clone, Debug)]
 pub struct Link {
+    /// The link's name in the design.
     pub name: String,
+    /// Index of the upstream node in `Network::nodes`.
     pub from: usize,
+    /// Index of the downstream node in `Network::nodes`.
     pub to: usize,
+    /// What the link is: pipe run, pump set, equipment or valve.
     pub element: Element,
     /// A check valve in the link: no flow to → from.
     pub check: bool,
@@ -69,8 +75,11 @@ pub struct Link {
 /// A network for one case: its fluid, nodes and links.
 #[derive(Clone, Debug)]
 pub struct Network {
+    /// The liquid's properties in this case.
     pub fluid: FluidState,
+    /// The nodes; links refer to them by index.
     pub nodes: Vec<Node>,
+    /// The links.
     pub links: Vec<Link>,
 }
 
@@ -101,17 +110,28 @@ pub enum NetworkError {
     },
     /// The iterations did not converge; the node whose head moved most is named.
     NotConverged {
+        /// Newton iterations used.
         iterations: usize,
+        /// The node whose head moved most in the last iteration.
         worst_node: String,
         /// Its last head change, m.
         head_change: f64,
     },
     /// A junction with a demand is cut off from every tank by closed links.
-    Unsupplied { node: String },
+    Unsupplied {
+        /// The unsupplied junction, by name.
+        node: String,
+    },
     /// Check valves kept opening and closing.
-    StatusCycling { link: String },
+    StatusCycling {
+        /// The link with the cycling check valve, by name.
+        link: String,
+    },
     /// A value became non-finite (never printed; reported as this error).
-    NonFinite { link: String },
+    NonFinite {
+        /// The link whose head loss became non-finite, by name.
+        link: String,
+    },
 }
 
 impl std::fmt::Display for NetworkError {
@@ -170,7 +190,9 @@ pub struct NodeState {
 /// A solved network.
 #[derive(Clone, Debug, PartialEq)]
 pub struct Solution {
+    /// The solved state of each node, in `Network::nodes` order.
     pub nodes: Vec<NodeState>,
+    /// The solved state of each link, in `Network::links` order.
     pub links: Vec<LinkState>,
     /// Newton iterations used (all status rounds together).
     pub iterations: usize,

@@ -24,6 +24,7 @@ pub const NEAR_VAPOUR_HEAD_M: f64 = 3.0;
 /// The network downstream of a station in one case, ready to solve at any flow.
 #[derive(Clone, Debug)]
 pub struct StationNetwork {
+    /// The network itself.
     pub network: Network,
     /// Index of the entry node in `network.nodes`.
     pub entry: usize,
@@ -181,6 +182,7 @@ fn element(s: &Scenario, name: &str, kind: &NetLinkKind) -> Result<Element, Syst
 /// One node at a duty point, with the flags a reviewer looks for.
 #[derive(Clone, Debug, PartialEq)]
 pub struct NodeAtDuty {
+    /// The node's name in the design.
     pub name: String,
     /// `tank`, `junction` or `delivery`.
     pub kind: &'static str,
@@ -207,10 +209,13 @@ pub struct NodeAtDuty {
 /// One link at a duty point.
 #[derive(Clone, Debug, PartialEq)]
 pub struct LinkAtDuty {
+    /// The link's name in the design.
     pub name: String,
     /// `pipe`, `valve` or `equipment`.
     pub kind: &'static str,
+    /// The upstream node, by name.
     pub from: String,
+    /// The downstream node, by name.
     pub to: String,
     /// m³/s, positive from → to.
     pub flow: f64,
@@ -227,8 +232,11 @@ pub struct LinkAtDuty {
 pub struct NetworkAtDuty {
     /// The station's flow, m³/s.
     pub station_flow: f64,
+    /// Every node at the duty.
     pub nodes: Vec<NodeAtDuty>,
+    /// Every link at the duty.
     pub links: Vec<LinkAtDuty>,
+    /// Newton iterations the solve used.
     pub iterations: usize,
 }
 

@@ -21,24 +21,37 @@ use crate::pumps::present_worth_factor;
 /// One candidate's life-cycle cost, present values in the design's currency.
 #[derive(Clone, Debug, PartialEq)]
 pub struct LifeCycleCost {
+    /// Initial cost C_ic (paid now, not discounted), currency.
     pub initial: f64,
+    /// Installation and commissioning cost C_in (paid now, not discounted), currency.
     pub installation: f64,
+    /// Present value of the energy cost C_e over the life, currency.
     pub energy: f64,
+    /// Present value of the operation cost C_o over the life, currency.
     pub operation: f64,
+    /// Present value of the maintenance and repair cost C_m over the life, currency.
     pub maintenance: f64,
+    /// Present value of the downtime cost C_s over the life, currency.
     pub downtime: f64,
+    /// Present value of the environmental cost C_env over the life, currency.
     pub environmental: f64,
+    /// Present value of the decommissioning and disposal cost C_d at the end of the life, currency.
     pub disposal: f64,
     /// The sum, currency.
     pub total: f64,
     /// P/A factor applied to the yearly energy cost and to the other yearly costs.
     pub energy_factor: f64,
+    /// P/A factor applied to the other yearly costs (dimensionless).
     pub recurring_factor: f64,
     /// The life, years, and the rates (fractions).
     pub years: f64,
+    /// Discount rate i, fraction per year.
     pub discount_rate: f64,
+    /// Energy price escalation, fraction per year.
     pub escalation: f64,
+    /// Growth applied to the other yearly costs, fraction per year (0 under real rates).
     pub inflation: f64,
+    /// Whether the rates are real or nominal.
     pub rates: RateBasis,
     /// Whether the design stated any cost element for this candidate.
     pub elements_stated: bool,

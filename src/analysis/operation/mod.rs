@@ -33,6 +33,7 @@ pub struct PointResult {
     pub case: String,
     /// Demanded total flow, m³/s, and hours per year, h.
     pub flow: f64,
+    /// Hours per year at the point, h.
     pub hours: f64,
     /// The running set (mid level band for on/off); `None` when not delivered.
     pub state: Option<SetState>,
@@ -61,6 +62,7 @@ pub struct Yearly {
     pub cost: Option<f64>,
     /// Volume delivered, m³, and the profile's hours, h.
     pub volume_m3: f64,
+    /// Hours of all load points together, h.
     pub hours: f64,
     /// Σ hydraulic energy / Σ input energy.
     pub mean_wire_to_water: Option<f64>,
@@ -73,7 +75,9 @@ pub struct Yearly {
 /// A control curve of one profile for the plots.
 #[derive(Clone, Debug, PartialEq)]
 pub struct ControlPlot {
+    /// The case the profile runs on.
     pub case: String,
+    /// The control the curve follows.
     pub control: Control,
     /// (flow m³/s, head m).
     pub points: Vec<(f64, f64)>,
@@ -82,6 +86,7 @@ pub struct ControlPlot {
 /// One candidate over every profile.
 #[derive(Clone, Debug, PartialEq)]
 pub struct CandidateOperation {
+    /// The candidate's name.
     pub name: String,
     /// The control each profile applied to this candidate (fixed-speed sets throttle
     /// or cycle on/off), in profile order.
@@ -90,19 +95,27 @@ pub struct CandidateOperation {
     pub points: Vec<PointResult>,
     /// Where the running count changes, per profile case.
     pub switching: Vec<(String, Vec<staging::Switch>)>,
+    /// Energy, cost and efficiency over the year.
     pub yearly: Yearly,
+    /// The operation checks of this candidate.
     pub checks: Vec<Check>,
+    /// Life-cycle cost, when the design gives a life and valid rates.
     pub lcc: Option<lcc::LifeCycleCost>,
+    /// The control curves of the profiles, for the plots.
     pub control_plots: Vec<ControlPlot>,
     /// Why the candidate could not be run over the profile at all.
     pub failure: Option<String>,
     /// Motor rating per pump, W, and full-load efficiency used; drive on/off.
     pub motor_rating_w: f64,
+    /// Motor full-load efficiency (fraction).
     pub motor_full_load_efficiency: f64,
+    /// Whether the pumps run on a variable-speed drive.
     pub variable_speed: bool,
+    /// Drive full-load efficiency (fraction), with a drive.
     pub drive_full_load_efficiency: Option<f64>,
     /// Speed range as fractions of the published speed, and the published speed, rpm.
     pub speed_range: (f64, f64),
+    /// The published speed of the pump curves, rpm.
     pub published_speed_rpm: f64,
 }
 

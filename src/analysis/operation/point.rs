@@ -17,7 +17,12 @@ use crate::pumps::{brent, part_load::DriveLosses, PumpCurves, ScaledPump};
 #[derive(Clone, Copy, Debug, PartialEq)]
 pub enum SpeedRange {
     /// Variable-frequency drive between these fractions of the published speed.
-    Variable { min: f64, max: f64 },
+    Variable {
+        /// Lowest speed, fraction of the published speed.
+        min: f64,
+        /// Highest speed, fraction of the published speed.
+        max: f64,
+    },
     /// Fixed at this fraction of the published speed.
     Fixed(f64),
 }
@@ -36,9 +41,11 @@ pub struct SetModel<'a> {
     pub parallel: u32,
     /// Pumps in series (1 otherwise).
     pub series: u32,
+    /// How the set's speed may move.
     pub speed: SpeedRange,
     /// Motor nameplate per pump, W, and its full-load efficiency (fraction).
     pub motor_rating_w: f64,
+    /// Motor full-load efficiency (fraction).
     pub motor_full_load_efficiency: f64,
     /// The drive of each pump, when on variable speed.
     pub drive: Option<DriveLosses>,
@@ -51,12 +58,15 @@ pub struct SetState {
     pub running: u32,
     /// Speed as a fraction of the published speed, and in rpm.
     pub speed_ratio: f64,
+    /// Speed, rpm.
     pub speed_rpm: f64,
     /// Total flow, m³/s, and per pump.
     pub flow: f64,
+    /// Flow per pump, m³/s.
     pub flow_per_pump: f64,
     /// Head each pump develops, m, and the system head at the flow, m.
     pub head_per_pump: f64,
+    /// System head at the total flow, m.
     pub system_head: f64,
     /// Head the set develops above what the line needs (taken by a valve or the
     /// consumers), m.
@@ -67,6 +77,7 @@ pub struct SetState {
     pub bep_ratio: Option<f64>,
     /// NPSH available and required, m.
     pub npsh_available: f64,
+    /// NPSH required at the flow per pump, m; `None` without NPSH data.
     pub npsh_required: Option<f64>,
     /// Shaft power of all running pumps, W.
     pub shaft_power: f64,

@@ -68,6 +68,7 @@ pub struct Switch {
     pub flow: f64,
     /// Count below and above this flow.
     pub from: u32,
+    /// Count above this flow.
     pub to: u32,
     /// Half the last bracket: the switching flow is known to ± this, m³/s.
     pub resolution: f64,

@@ -10,6 +10,7 @@ use crate::model::{Line, Side};
 /// from 0 to at least the line's length, and where they come from.
 #[derive(Clone, Debug, PartialEq)]
 pub struct LineProfile {
+    /// The knots: (chainage m, elevation m), chainage strictly increasing.
     pub knots: Vec<(f64, f64)>,
     /// "given in the design", "from FILE", "segment end elevations" or "straight grade …".
     pub source: String,

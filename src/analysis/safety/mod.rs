@@ -32,6 +32,7 @@ pub use surge::{LineSurge, SegmentWave, ValveClosure};
 pub struct Safety {
     /// The candidate whose duties and shut-off are screened.
     pub candidate: Option<String>,
+    /// The shut-off condition of the candidate, when it can be computed.
     pub shutoff: Option<Shutoff>,
     /// Per case, in design order.
     pub cases: Vec<CaseSafety>,
@@ -45,12 +46,15 @@ pub struct Shutoff {
     pub head: f64,
     /// The speed (rpm) and impeller (m) it is taken at, and the series stages.
     pub speed_rpm: f64,
+    /// Impeller diameter, m, when known.
     pub impeller: Option<f64>,
+    /// Pumps in series (stages).
     pub stages: u32,
     /// Test tolerance added to the head (fraction).
     pub tolerance: f64,
     /// Highest static suction pressure of any case, Pa gauge, and that case.
     pub suction_pressure: f64,
+    /// The case with that highest static suction pressure.
     pub suction_case: String,
     /// Density the head is turned into pressure with, kg/m³.
     pub density: f64,
@@ -61,10 +65,13 @@ pub struct Shutoff {
 /// One case's screen.
 #[derive(Clone, Debug, Default)]
 pub struct CaseSafety {
+    /// The case's name.
     pub case: String,
     /// The duty flow screened, m³/s (`None`: no duty in this case).
     pub flow: Option<f64>,
+    /// Each line's screen in this case.
     pub lines: Vec<LineSafety>,
+    /// The pressure-safety checks of this case.
     pub checks: Vec<Check>,
     /// Remarks (profile length, unrated segments, liquids without a bulk modulus).
     pub notes: Vec<String>,
@@ -73,17 +80,25 @@ pub struct CaseSafety {
 /// One line's screen in one case.
 #[derive(Clone, Debug)]
 pub struct LineSafety {
+    /// The line's name.
     pub name: String,
+    /// Whether the line is on the suction or the discharge side.
     pub side: Side,
+    /// Where the line's profile comes from (see `LineProfile::source`).
     pub profile_source: String,
     /// Line length, m.
     pub length: f64,
+    /// The stations along the line where grade and pressure are computed.
     pub stations: Vec<Station>,
     /// Grade (m) and gauge pressure (Pa) at each station: at duty, static, shut-off.
     pub grade_duty: Option<Vec<f64>>,
+    /// Gauge pressure at each station at duty, Pa.
     pub pressure_duty: Option<Vec<f64>>,
+    /// Static grade at each station (no flow), m.
     pub grade_static: Vec<f64>,
+    /// Static gauge pressure at each station (no flow), Pa.
     pub pressure_static: Vec<f64>,
+    /// Gauge pressure at each station at pump shut-off, Pa.
     pub pressure_shutoff: Option<Vec<f64>>,
     /// Pressure at each station after the pump-trip downsurge, Pa gauge.
     pub pressure_downsurge: Option<Vec<f64>>,
@@ -96,6 +111,7 @@ pub struct LineSafety {
     pub segment_pipes: Vec<(&'static str, String, f64)>,
     /// Working and transient rating at each station (the weaker at a joint), Pa.
     pub rating_at: Vec<Option<f64>>,
+    /// Transient (surge) rating at each station (the weaker at a joint), Pa.
     pub transient_at: Vec<Option<f64>>,
     /// Vapour pressure as a gauge pressure, Pa (negative).
     pub vapour_gauge: f64,
@@ -103,6 +119,7 @@ pub struct LineSafety {
     pub density: f64,
     /// Duty velocity in each segment of the line, m/s (zero without a duty).
     pub velocities: Vec<f64>,
+    /// The surge screen of the line at duty, when there is a duty.
     pub surge: Option<LineSurge>,
     /// Local high points of the profile: station indices.
     pub high_points: Vec<usize>,
@@ -375,7 +392,13 @@ fn line_screen(
         segment_labels: line
             .segments
             .iter()
-            .map(|s| format!("{} {}", s.material.keyword().replace('_', " "), s.size_label))
+            .map(|s| {
+                format!(
+                    "{} {}",
+                    s.material.keyword().replace('_', " "),
+                    s.size_label
+                )
+            })
             .collect(),
         segment_pipes: line
             .segments

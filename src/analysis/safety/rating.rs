@@ -85,7 +85,11 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
             out.working = Some(r);
             out.note = format!(
                 "the {} (rated in the design) is weaker than the pipe and governs",
-                f.spec.description.split(" (").next().unwrap_or(f.spec.description)
+                f.spec
+                    .description
+                    .split(" (")
+                    .next()
+                    .unwrap_or(f.spec.description)
             );
             out.source = "given in the design".into();
         }

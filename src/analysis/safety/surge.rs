@@ -20,9 +20,11 @@ pub struct SegmentWave {
     pub lowest_wave_speed: f64,
     /// Wall modulus used, Pa, and Poisson's ratio.
     pub modulus: f64,
+    /// Poisson's ratio of the wall (dimensionless).
     pub poisson: f64,
     /// Restraint factor ψ and D/e.
     pub restraint_factor: f64,
+    /// Ratio of inner diameter to wall thickness D/e (dimensionless).
     pub diameter_to_wall: f64,
     /// Where the modulus comes from.
     pub modulus_source: String,
@@ -33,6 +35,7 @@ pub struct SegmentWave {
 pub struct ValveClosure {
     /// The stroke the design gives, s, and the effective closure time used, s.
     pub stroke: f64,
+    /// Effective closure time used, s.
     pub effective: f64,
     /// Whether the effective closure is within 2L/a at the lowest credible wave speed.
     pub rapid: bool,
@@ -49,12 +52,15 @@ pub struct LineSurge {
     pub segments: Vec<Option<SegmentWave>>,
     /// Equivalent wave speed L/Σ(Lᵢ/aᵢ), m/s, and at the lowest credible speeds.
     pub wave_speed: f64,
+    /// Equivalent wave speed at the lowest credible segment wave speeds, m/s.
     pub lowest_wave_speed: f64,
     /// Pipe period 2L/a, s, and 2L/a at the lowest credible wave speed.
     pub period: f64,
+    /// Pipe period 2L/a at the lowest credible wave speed, s.
     pub period_lowest: f64,
     /// Area of the equivalent pipe L/Σ(Lᵢ/Aᵢ), m², and its duty velocity Q/A, m/s.
     pub equivalent_area: f64,
+    /// Duty velocity Q/A in the equivalent pipe, m/s.
     pub equivalent_velocity: f64,
     /// Joukowsky head a·ΔV/g of the equivalent pipe for the duty flow stopped, m.
     pub joukowsky_head: f64,

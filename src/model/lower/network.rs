@@ -63,7 +63,14 @@ fn lower_node(
     } else {
         "junction J1 { elevation = 1250 ft }"
     };
-    let (name, span) = block_name(block.args, block.span, Code::BadNode, "a node", example, diags)?;
+    let (name, span) = block_name(
+        block.args,
+        block.span,
+        Code::BadNode,
+        "a node",
+        example,
+        diags,
+    )?;
     if name == "pump" {
         diags.push(Diagnostic::error(
             Code::ReservedName,

@@ -149,7 +149,12 @@ fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
                             .collect();
                         format!(
                             "{}, ID {}, {}, roughness {}{}{}",
-                            crate::display::pipe(s.material, &s.size_label, s.inner_diameter, units),
+                            crate::display::pipe(
+                                s.material,
+                                &s.size_label,
+                                s.inner_diameter,
+                                units
+                            ),
                             dia.fmt(s.inner_diameter),
                             len.fmt(s.length),
                             rough.fmt(s.roughness),
