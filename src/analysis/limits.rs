@@ -57,11 +57,15 @@ pub enum CheckId {
     StartsPerHour,
     /// Hours where the control curve lies below the system curve.
     ControlCurve,
+    /// A network valve's opening at the duty against the usual 10–90 % control range.
+    ValveOpening,
+    /// A network control valve's authority at the duty against its usual minimum.
+    ValveAuthority,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 25] = [
+    pub const ALL: [CheckId; 27] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -87,6 +91,8 @@ impl CheckId {
         CheckId::Deadhead,
         CheckId::StartsPerHour,
         CheckId::ControlCurve,
+        CheckId::ValveOpening,
+        CheckId::ValveAuthority,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -117,6 +123,8 @@ impl CheckId {
             CheckId::Deadhead => "deadhead",
             CheckId::StartsPerHour => "starts-per-hour",
             CheckId::ControlCurve => "control-curve",
+            CheckId::ValveOpening => "valve-opening",
+            CheckId::ValveAuthority => "valve-authority",
         }
     }
 
@@ -174,6 +182,12 @@ impl CheckId {
             }
             CheckId::StartsPerHour => "starts per hour of on/off control against the motor's limit",
             CheckId::ControlCurve => "hours where the control curve lies below the system curve",
+            CheckId::ValveOpening => {
+                "network valve opening at the duty against the usual 10 % to 90 % control range"
+            }
+            CheckId::ValveAuthority => {
+                "network control valve authority at the duty (fully open valve drop over the drop between its end nodes)"
+            }
         }
     }
 }
@@ -392,6 +406,18 @@ pub const EFFECTIVE_CLOSURE_FRACTION: Limit = Limit {
         "effective closure time of 20 % of the stroke (gate, butterfly)",
     ),
 };
+
+/// Smallest valve opening with fair control resolution: 10 % (near shut, a small
+/// movement changes the flow much, and the plug and seat wear).
+pub const VALVE_OPENING_LOW: Limit =
+    Limit::common_practice(0.10, "a valve works between about 10 % and 90 % open");
+/// Largest valve opening that leaves a control margin: 90 %.
+pub const VALVE_OPENING_HIGH: Limit = VALVE_OPENING_LOW.with_value(0.90);
+/// Smallest control-valve authority: 0.25 (about 0.5 is the usual design aim).
+pub const VALVE_AUTHORITY: Limit = Limit::common_practice(
+    0.25,
+    "a control valve authority of at least 0.25, about 0.5 typical",
+);
 
 #[cfg(test)]
 mod tests {

@@ -104,6 +104,9 @@ pub struct ValveData {
     pub characteristic: ValveCharacteristic,
     /// Opening, 0..=1.
     pub opening: f64,
+    /// `kind = control`: a control valve, whose authority is checked; `balancing`
+    /// (the default) is a set-and-leave valve, checked for its opening only.
+    pub control: bool,
 }
 
 /// The inherent characteristic of a valve.
@@ -132,7 +135,14 @@ pub struct EquipmentData {
 /// Fields of `junction` and `delivery` blocks.
 pub const NODE_FIELDS: &[&str] = &["elevation", "demand", "pressure"];
 /// Fields of a `valve` block.
-pub const VALVE_FIELDS: &[&str] = &["kvs", "cvs", "characteristic", "opening", "rangeability"];
+pub const VALVE_FIELDS: &[&str] = &[
+    "kvs",
+    "cvs",
+    "characteristic",
+    "opening",
+    "rangeability",
+    "kind",
+];
 /// Fields of an `equipment` block.
 pub const EQUIPMENT_FIELDS: &[&str] = &["drop", "rated_flow", "exponent"];
 
@@ -232,6 +242,10 @@ pub fn set_valve(v: &mut ValveData, field: &str, e: &Expr, env: &Env) -> Result<
                 ));
             }
             v.opening = x;
+        }
+        "kind" => {
+            let word = expect_word(e, env, "valve kind", &["control", "balancing"])?;
+            v.control = word == "control";
         }
         other => return Err(unknown_field("a valve", other, e.span)),
     }

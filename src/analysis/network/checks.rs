@@ -37,6 +37,7 @@ pub fn at_duties(
             .map_err(|e| format!("the network at the duty of pump {}: {e}", p.name))?;
         p.checks.extend(node_checks(design, &at));
         p.checks.extend(requirement_checks(design, case, &at));
+        p.checks.extend(super::valves::valve_checks(net, &at));
         p.network = Some(at);
     }
     if system.network_failed.get() {

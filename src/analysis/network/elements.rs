@@ -98,6 +98,8 @@ pub struct Valve {
     pub characteristic: Characteristic,
     /// Opening, 0..=1 (0 is shut).
     pub opening: f64,
+    /// A control valve (its authority is checked), not a balancing valve.
+    pub control: bool,
 }
 
 impl Valve {
@@ -239,6 +241,7 @@ mod tests {
             kvs: 40.0,
             characteristic: Characteristic::Linear,
             opening: 1.0,
+            control: false,
         };
         let (h, _) = Element::Valve(v).law(&water(), 40.0 / 3600.0);
         let dp_bar = h * KV_REFERENCE_DENSITY * G / 1e5;
@@ -251,6 +254,7 @@ mod tests {
             kvs: 50.0,
             characteristic: Characteristic::EqualPercentage { rangeability: 50.0 },
             opening: 0.5,
+            control: false,
         };
         // Kv(0.5) = Kvs·R^-0.5 = 50/√50 (IEC 60534-1 equal percentage, from memory).
         assert!((v.kv() - 50.0 / 50f64.sqrt()).abs() < 1e-12);

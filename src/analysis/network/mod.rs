@@ -16,6 +16,7 @@ pub mod gradient;
 pub mod sparse;
 pub mod station;
 pub mod topology;
+pub mod valves;
 
 pub use elements::{Characteristic, Element, Equipment, HeadCurve, PipeRun, PumpSet, Valve};
 pub use gradient::{solve, solve_prepared, Prepared, Settings};

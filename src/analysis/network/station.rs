@@ -170,6 +170,7 @@ fn element(s: &Scenario, name: &str, kind: &NetLinkKind) -> Result<Element, Syst
                 }
             },
             opening: v.opening,
+            control: v.control,
         }),
         NetLinkKind::Equipment(q) => Element::Equipment(Equipment {
             rated_drop: q.drop.get::<pascal>(),

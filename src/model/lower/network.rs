@@ -307,6 +307,7 @@ fn lower_valve(
         kvs: 0.0,
         characteristic: ValveCharacteristic::Linear,
         opening: 1.0,
+        control: false,
     };
     match (fields.get("kvs"), fields.get("cvs")) {
         (None, None) => {

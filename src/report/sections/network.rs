@@ -44,6 +44,9 @@ pub(super) fn chapter(
          head the station must supply at each flow with the split solved at that flow: its \
          'network' part is the entry node's head above its value at zero station flow."
     )));
+    if let Some(text) = valve_check_method(design) {
+        blocks.push(Block::text(text));
+    }
     blocks.push(Block::text(
         "Pressures are steady-state values. Nodes below atmospheric pressure or near the \
          vapour pressure are flagged; such pressures, and every pressure rating, call for a \
@@ -445,4 +448,21 @@ fn schematic(
             "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
         ),
     });
+}
+
+/// How the valve checks are made, when the network has a valve.
+fn valve_check_method(design: &Design) -> Option<&'static str> {
+    let net = design.base.network.as_ref()?;
+    net.links
+        .iter()
+        .any(|l| matches!(l.kind, crate::model::network::NetLinkKind::Valve(_)))
+        .then_some(
+            "Every open valve's opening is checked at each duty: below 10 % control is coarse, \
+             above 90 % no margin is left to open (common practice). A control valve's \
+             authority is N = Δp₁₀₀ / (Δp₁₀₀ + Δp_rest): Δp₁₀₀ the drop of the fully open \
+             valve (at Kvs) at its flow at the duty, Δp_rest the friction and equipment drops \
+             at that duty of the links in series with the valve, up to the nearest tank, \
+             demand, branching node, the entry node or a pump; below 0.25 it warns, about 0.5 \
+             is the usual aim (common practice).",
+        )
 }
