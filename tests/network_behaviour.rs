@@ -68,6 +68,7 @@ fn a_shut_valve_and_a_dead_end_give_zero_flow_and_finite_heads() {
         kvs: 100.0,
         characteristic: Characteristic::EqualPercentage { rangeability: 50.0 },
         opening: 0.0,
+        control: false,
     });
     let links = vec![
         link(&nodes, "in", "high", "A", pipe(100.0, 0.1, 4.5e-5, 0.0)),

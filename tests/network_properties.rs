@@ -56,6 +56,7 @@ fn network(seed: u64, tanks: usize, junctions: usize, extra: usize) -> Network {
                 kvs: 20.0 + 200.0 * next(),
                 characteristic: Characteristic::EqualPercentage { rangeability: 50.0 },
                 opening: 0.2 + 0.8 * next(),
+                control: false,
             })
         } else if pick < 0.9 {
             Element::Equipment(Equipment {

@@ -167,6 +167,7 @@ pub fn from_reference(v: &serde_json::Value) -> Network {
                     kvs: num("kv"),
                     characteristic: dutyline::analysis::network::Characteristic::Linear,
                     opening: 1.0,
+                    control: false,
                 }),
                 "equipment" => Element::Equipment(Equipment {
                     rated_drop: num("rated_drop_pa"),
@@ -213,6 +214,7 @@ pub fn grid(w: usize, h: usize, feeds: usize) -> Network {
                 kvs: 150.0,
                 characteristic: dutyline::analysis::network::Characteristic::Linear,
                 opening: 0.8,
+                control: false,
             })
         } else {
             pipe(
