@@ -217,3 +217,61 @@ fn an_absolute_node_pressure_requirement_is_refused() {
         .iter()
         .any(|d| d.code.as_str() == "unit-mismatch" && d.message.contains("gauge")));
 }
+
+#[test]
+fn a_control_valve_reports_its_authority_over_its_series_branch() {
+    let src = hillside().replace(
+        "    characteristic = equal_percentage\n    opening = 70 %",
+        "    characteristic = equal_percentage\n    opening = 70 %\n    kind = control",
+    );
+    assert!(src.contains("kind = control"));
+    let a = run(&src);
+    let c = &a.cases[0]; // peak: the valve 70 % open
+    let mut seen = 0;
+    for p in &c.pumps {
+        let (Some(net), Some(check)) = (
+            &p.network,
+            p.checks.iter().find(|k| k.id.as_str() == "valve-authority"),
+        ) else {
+            continue;
+        };
+        let link = |name: &str| net.links.iter().find(|l| l.name == name).unwrap();
+        // Another route to N: the valve's own drop at 70 % scaled to fully open,
+        // Δp₁₀₀ = Δp·(Kv/Kvs)² with Kv/Kvs = 50^(0.7−1) (equal percentage, R = 50), over
+        // Δp₁₀₀ plus the drop of south_main, the one pipe in series with it (south_valve
+        // joins only the two; lower_orchard draws a demand). Heads in m, ρg cancels.
+        let r = 50f64.powf(0.7 - 1.0);
+        let open = link("south_balancing").head_loss * r * r;
+        let n = open / (open + link("south_main").head_loss);
+        let value = check.value.unwrap();
+        assert!((value - n).abs() < 1e-9 * n, "{value} vs {n}");
+        assert_eq!(check.limit, Some(0.25));
+        assert_eq!(check.subject.as_deref(), Some("south_balancing"));
+        seen += 1;
+    }
+    assert!(seen >= 1, "no authority check");
+    // A balancing valve (the default) has no authority check.
+    assert!(statuses(&run(&hillside()), "valve-authority").is_empty());
+}
+
+#[test]
+fn a_valve_kind_must_be_control_or_balancing() {
+    let src = hillside().replace(
+        "    opening = 70 %\n",
+        "    opening = 70 %\n    kind = throttle\n",
+    );
+    let c = dutyline::check(&src, &NoFiles);
+    assert!(c.has_errors());
+    let d = c
+        .diagnostics
+        .iter()
+        .find(|d| d.message.contains("throttle") || d.message.contains("valve kind"));
+    assert!(
+        d.is_some_and(|d| d.span.is_some()),
+        "{:?}",
+        c.diagnostics
+            .iter()
+            .map(|d| d.message.clone())
+            .collect::<Vec<_>>()
+    );
+}
