@@ -432,3 +432,44 @@ fn profile_from_a_csv_file_and_segment_elevations() {
     assert!(d.profile_source.starts_with("segment end elevations"));
     assert!((d.stations.last().unwrap().elevation - 1338.0 * FT).abs() < 1e-9);
 }
+
+/// A named liquid gets the surge screen once it states its bulk modulus (issue 14: the
+/// screen was skipped for every liquid other than water). Korteweg: a² = (K/ρ)/(1 + c·K·D/(E·e)),
+/// so a stiffer liquid gives a faster wave, and no wave is faster than √(K/ρ), the speed
+/// of sound in the liquid alone (Wylie and Streeter, Fluid Transients, 1978, ch. 2, from memory).
+#[test]
+fn a_named_liquid_with_a_bulk_modulus_is_surge_screened() {
+    let base = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/designs/broken/analysis/safety-screen.duty"
+    ))
+    .unwrap();
+    let without = analyse(&base, &BTreeMap::new());
+    assert!(without.safety.cases[0]
+        .notes
+        .iter()
+        .any(|n| n.contains("no bulk modulus")));
+    let wave = |k_gpa: f64| {
+        let src = base.replace(
+            "vapor_pressure = 2 kPa(a)",
+            &format!(
+                "vapor_pressure = 2 kPa(a)\n    bulk_modulus = {} MPa",
+                k_gpa * 1000.0
+            ),
+        );
+        let a = analyse(&src, &BTreeMap::new());
+        let c = &a.safety.cases[0];
+        assert!(
+            !c.notes.iter().any(|n| n.contains("no bulk modulus")),
+            "{:?}",
+            c.notes
+        );
+        let line = c.lines.iter().find(|l| l.name == "discharge").unwrap();
+        line.surge.as_ref().expect("a surge screen").wave_speed
+    };
+    let (soft, stiff) = (wave(1.2), wave(1.8));
+    assert!(soft > 0.0 && soft < stiff, "{soft} {stiff}");
+    // Density 850 kg/m³ (the design): the liquid alone carries sound at √(K/ρ).
+    assert!(stiff < (1.8e9_f64 / 850.0).sqrt());
+    assert!(soft < (1.2e9_f64 / 850.0).sqrt());
+}

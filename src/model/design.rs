@@ -147,6 +147,9 @@ pub struct CustomFluid {
     pub viscosity: DynamicViscosity,
     /// Vapour pressure (absolute).
     pub vapor_pressure: Pressure,
+    /// Bulk modulus of elasticity (`bulk_modulus`), for the surge screen's wave speed;
+    /// `None` leaves that liquid's surge screen undone.
+    pub bulk_modulus: Option<Pressure>,
 }
 
 impl Fluid {

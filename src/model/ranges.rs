@@ -209,6 +209,16 @@ pub const VAPOUR_PRESSURE: Range = Range {
     usual: (0.0, 1e6),
 };
 
+/// A liquid's bulk modulus of elasticity: water is about 2.2 GPa at 20 °C, light oils
+/// 1.2–1.8 GPa, glycols 2.5–3 GPa (handbook values, from memory); below 0.1 GPa or above
+/// 10 GPa no liquid of a pumped system.
+pub const BULK_MODULUS: Range = Range {
+    what: "a bulk modulus",
+    unit: ("GPa", 1e9),
+    possible: (1e7, 1e11),
+    usual: (1e8, 1e10),
+};
+
 /// A loss coefficient K: a throttled valve reaches a few thousand; 10⁵ is impossible,
 /// above 1 000 unusual (common practice).
 pub const LOSS_K: Range = Range {
@@ -295,6 +305,7 @@ pub const ALL: &[Range] = &[
     DENSITY,
     VISCOSITY,
     VAPOUR_PRESSURE,
+    BULK_MODULUS,
     LOSS_K,
     YEARLY_RATE,
     PRESSURE_RATING,

@@ -93,6 +93,7 @@ pub const FLUID_FIELDS: &[&str] = &[
     "viscosity",
     "kinematic_viscosity",
     "vapor_pressure",
+    "bulk_modulus",
 ];
 
 /// Set one fluid field.
@@ -139,6 +140,10 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
             }
             c.vapor_pressure = pressure(env.in_range(&ranges::VAPOUR_PRESSURE, q.si, e.span)?);
         }
+        (Fluid::Custom(c), "bulk_modulus") => {
+            let q = expect_dim(e, env, Dimension::PRESSURE, "bulk modulus")?;
+            c.bulk_modulus = Some(pressure(env.in_range(&ranges::BULK_MODULUS, q.si, e.span)?));
+        }
         (_, other) => return Err(Diagnostic::error(Code::UnknownField, format!("the fluid has no field `{other}`"), Some(e.span))),
     }
     Ok(())
@@ -170,6 +175,7 @@ pub fn lower_fluid(
             density: MassDensity::new::<kilogram_per_cubic_meter>(0.0),
             viscosity: DynamicViscosity::new::<pascal_second>(0.0),
             vapor_pressure: pressure(0.0),
+            bulk_modulus: None,
         }),
         _ => {
             let at = args.first().map(|a| a.span).unwrap_or(span);

@@ -293,7 +293,7 @@ fn case_screen(
         flow,
         ..Default::default()
     };
-    let k = surge::bulk_modulus(sys);
+    let k = surge::bulk_modulus(sys, fluid);
     if k.is_none() {
         out.notes.push(format!("case {name}: no bulk modulus for `{}`; the surge screen needs water or a liquid with a stated bulk modulus, and is not done", sys.fluid.name));
     }

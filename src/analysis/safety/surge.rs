@@ -68,9 +68,12 @@ pub struct LineSurge {
     pub valve: Option<ValveClosure>,
 }
 
-/// Bulk modulus of the case's liquid, Pa: water by IAPWS-IF97; `None` for a named
-/// liquid (no bulk modulus is given for it).
-pub fn bulk_modulus(sys: &CaseSystem) -> Option<f64> {
+/// Bulk modulus of the case's liquid, Pa: water by IAPWS-IF97 (K = ρ·w², w the speed of
+/// sound); a named liquid's stated `bulk_modulus`, or `None` when it states none.
+pub fn bulk_modulus(sys: &CaseSystem, fluid: &crate::model::Fluid) -> Option<f64> {
+    if let crate::model::Fluid::Custom(c) = fluid {
+        return c.bulk_modulus.map(|k| k.get::<pascal>());
+    }
     let t = sys.fluid.temperature_k?;
     if sys.fluid.name != "water" {
         return None;
