@@ -389,29 +389,18 @@ fn lower_curve(
             return None;
         }
         (Some(t), None) => t,
-        (None, Some((path, s))) => match files.read_text(&path) {
-            Ok(text) => match csv_table(&text, s) {
+        (None, Some((path, s))) => {
+            match read_csv_table(files, &path, s, "flow gpm, head ft, efficiency %") {
                 Ok(t) => {
                     owned = t;
                     &owned
                 }
-                Err(msg) => {
-                    diags.push(Diagnostic::error(Code::BadCsv, format!("{path}: {msg}"), Some(s)).with_help("the first line names the columns with units, e.g. `flow gpm, head ft, efficiency %`; then one row of numbers per line"));
+                Err(d) => {
+                    diags.push(d);
                     return None;
                 }
-            },
-            Err(error) => {
-                diags.push(
-                    Diagnostic::error(
-                        error.code(),
-                        format!("cannot read `{path}`: {error}"),
-                        Some(s),
-                    )
-                    .with_help(error.help()),
-                );
-                return None;
             }
-        },
+        }
         (None, None) => {
             diags.push(
                 Diagnostic::error(Code::BadCurve, "the curve has no table", Some(span))
@@ -421,6 +410,29 @@ fn lower_curve(
         }
     };
     lower_table(table, impeller, speed, env, diags)
+}
+
+/// Read `path` through `files` and parse it with [`csv_table`]; a located file error or
+/// `bad-csv` (its help showing `columns`, e.g. `flow gpm, head ft`) otherwise.
+pub(crate) fn read_csv_table(
+    files: &dyn FileAccess,
+    path: &str,
+    at: Span,
+    columns: &str,
+) -> Result<Table, Diagnostic> {
+    let text = files.read_text(path).map_err(|error| {
+        Diagnostic::error(
+            error.code(),
+            format!("cannot read `{path}`: {error}"),
+            Some(at),
+        )
+        .with_help(error.help())
+    })?;
+    csv_table(&text, at).map_err(|msg| {
+        Diagnostic::error(Code::BadCsv, format!("{path}: {msg}"), Some(at)).with_help(format!(
+            "the first line names the columns with units, e.g. `{columns}`; then one row of numbers per line"
+        ))
+    })
 }
 
 /// A CSV curve table turned into the same table form as an inline one. Spans

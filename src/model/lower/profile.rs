@@ -10,7 +10,7 @@ use crate::diagnostics::{Code, Diagnostic, Span};
 use crate::model::design::{Profile, Restraint, Segment, WallData};
 use crate::model::eval::{self, expect_dim, expect_word, Env};
 use crate::model::fields::{read_fields, unknown_field};
-use crate::model::pumps::csv_table;
+use crate::model::pumps::read_csv_table;
 use crate::model::{ranges, FileAccess};
 use crate::syntax::ast::{Arg, ArgKind, Expr, Statement, StatementKind, Table};
 use crate::units::{Dimension, QuantityKind};
@@ -166,29 +166,18 @@ fn lower_profile(
             return None;
         }
         (Some(t), None) => (t, "given in the design".to_string()),
-        (None, Some((path, s))) => match files.read_text(&path) {
-            Ok(text) => match csv_table(&text, s) {
+        (None, Some((path, s))) => {
+            match read_csv_table(files, &path, s, "chainage ft, elevation ft") {
                 Ok(t) => {
                     owned = t;
                     (&owned, format!("from {path}"))
                 }
-                Err(msg) => {
-                    diags.push(Diagnostic::error(Code::BadCsv, format!("{path}: {msg}"), Some(s)).with_help("the first line names the columns with units, e.g. `chainage ft, elevation ft`; then one row of numbers per line"));
+                Err(d) => {
+                    diags.push(d);
                     return None;
                 }
-            },
-            Err(error) => {
-                diags.push(
-                    Diagnostic::error(
-                        error.code(),
-                        format!("cannot read `{path}`: {error}"),
-                        Some(s),
-                    )
-                    .with_help(error.help()),
-                );
-                return None;
             }
-        },
+        }
         (None, None) => {
             diags.push(bad(span, "the profile has no table"));
             return None;

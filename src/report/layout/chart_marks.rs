@@ -117,6 +117,17 @@ fn clip_segment(
 
 const SAMPLE_PT: f64 = 20.0;
 
+/// A label's lines (split at `\n`) and the width of its widest line, drawing units.
+fn label_lines(label: &str, fonts: &FontSet, size: f64) -> (Vec<String>, i32) {
+    let lines: Vec<String> = label.split('\n').map(str::to_string).collect();
+    let width = lines
+        .iter()
+        .map(|l| units(fonts.width(Face::Regular, l, size)))
+        .max()
+        .unwrap_or(0);
+    (lines, width)
+}
+
 fn entry_width(fonts: &FontSet, name: &str, size: f64) -> f64 {
     SAMPLE_PT + 4.0 + fonts.width(Face::Regular, name, size) + 14.0
 }
@@ -230,12 +241,7 @@ pub fn draw_bands(
         if band.label.is_empty() {
             continue;
         }
-        let lines: Vec<String> = band.label.split('\n').map(str::to_string).collect();
-        let w = lines
-            .iter()
-            .map(|l| units(fonts.width(Face::Regular, l, size)))
-            .max()
-            .unwrap_or(0);
+        let (lines, w) = label_lines(&band.label, fonts, size);
         let lh = units(size * 1.25);
         let centre = (top_left.0 + bottom_right.0) / 2;
         let at = (centre - w / 2, top_left.1 + units(2.0));
@@ -426,12 +432,7 @@ pub fn draw_markers(
         if m.label.is_empty() {
             continue;
         }
-        let lines: Vec<String> = m.label.split('\n').map(str::to_string).collect();
-        let w = lines
-            .iter()
-            .map(|l| units(fonts.width(Face::Regular, l, size)))
-            .max()
-            .unwrap_or(0);
+        let (lines, w) = label_lines(&m.label, fonts, size);
         let h = units(size * 1.25) * lines.len() as i32;
         let mut best = (i64::MAX, (p.0 + gap, p.1 - gap - h), 0);
         let rings = [0.0, 7.0, 16.0, 28.0, 42.0, 60.0];
