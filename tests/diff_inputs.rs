@@ -169,8 +169,11 @@ fn field_changes_are_reported_with_their_path() {
         vec!["energy › price: 0.118 USD/kWh → 0.125 USD/kWh"]
     );
     assert_eq!(
-        changes_after(&[("    efficiency = 94.1 %\n", "")]),
-        vec!["motor › efficiency: removed (94.1 %)"]
+        changes_after(&[(
+            "    service_factor = 1.15\n",
+            "    service_factor = 1.15\n    efficiency = 94.1 %\n"
+        )]),
+        vec!["motor › efficiency: added (94.1 %)"]
     );
 }
 

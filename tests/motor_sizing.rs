@@ -154,9 +154,10 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
         200 85 6.0
         300 70 7.0
         400 50 8.0";
+    // A stated 7.5 hp nameplate with the NEMA default service factor 1.15.
     let src = design(
         "    standard = nema",
-        "",
+        "    motor_rating = 7.5 hp\n",
         rising,
         "case normal { hours = 1000 h }",
     );
@@ -168,7 +169,8 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
     assert!(duty_hp > 6.0 && duty_hp < 7.5, "{duty_hp}");
     let m = a.motor_sizing[0].as_ref().expect("motor");
     assert_eq!(m.choice.rating_label, "7.5 hp");
-    // Run-out: 8 hp at 400 gpm (the curve's end) > 7.5 hp: not non-overloading.
+    // Run-out: 8 hp at 400 gpm (the curve's end) > 7.5 hp: not non-overloading, but
+    // within 7.5 × 1.15 = 8.625 hp, so a warning, not a failure.
     assert!((m.run_out_shaft_power / HP - 8.0).abs() < 1e-6);
     assert!((m.run_out_flow - 400.0 * 3.785411784e-3 / 60.0).abs() < 1e-9);
     assert!(!m.choice.non_overloading);
@@ -180,6 +182,42 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
         c.message
     );
     assert!(c.message.contains("overloads"), "{}", c.message);
+}
+
+#[test]
+fn run_out_above_nameplate_times_service_factor_fails_and_selection_is_non_overloading() {
+    // The same curve rising to 8 hp at its end (400 gpm).
+    let rising = "        flow gpm head ft power hp
+        0 100 4.0
+        100 95 5.0
+        200 85 6.0
+        300 70 7.0
+        400 50 8.0";
+    // Selected by the tool: the nameplate carries the run-out, 8 hp → 10 hp (NEMA MG 1
+    // series … 7.5, 10, 15 hp, from memory): non-overloading, pass.
+    let src = design(
+        "    standard = nema",
+        "",
+        rising,
+        "case normal { hours = 1000 h }",
+    );
+    let (_, a) = analyse(&src);
+    let m = a.motor_sizing[0].as_ref().expect("motor");
+    assert_eq!(m.choice.rating_label, "10 hp");
+    assert!(m.choice.non_overloading);
+    assert_eq!(motor_check(pump(&a, 0)).status, Status::Pass);
+    // Stated 7.5 hp with service factor 1.0: run-out 8 / 7.5 = 106.7 % > 100 %: fails.
+    let src = design(
+        "    standard = nema\n    service_factor = 1.0",
+        "    motor_rating = 7.5 hp\n",
+        rising,
+        "case normal { hours = 1000 h }",
+    );
+    let (_, a) = analyse(&src);
+    let c = motor_check(pump(&a, 0));
+    assert_eq!(c.status, Status::Fail, "{}", c.message);
+    assert!(c.message.contains("service factor"), "{}", c.message);
+    assert!(a.selection.recommended.is_none());
 }
 
 #[test]

@@ -121,8 +121,15 @@ fn iec_motor_for_9_9_kw_is_11_kw() {
     assert!((m.rating_w - 11e3).abs() < 1e-9);
     assert!(m.within_nameplate && m.non_overloading);
     assert!((m.loading_ratio - 0.9).abs() < 1e-12);
-    // Run-out above the rating with SF 1.0: selected for the operating range, flagged.
+    // Run-out above 11 kW: the next rating, 15 kW, carries it (non-overloading, common
+    // practice).
     let m = select_motor(MotorStandard::Iec, 9.9e3, 11.5e3, 1.0).expect("fits");
+    assert_eq!(m.rating_label, "15 kW");
+    assert!(m.non_overloading && m.warnings.is_empty());
+    // Run-out beyond the series (above 1000 kW, the largest rating here): the operating
+    // points size the motor, flagged as overloading.
+    let m = select_motor(MotorStandard::Iec, 9.9e3, 2.0e6, 1.0).expect("fits");
+    assert_eq!(m.rating_label, "11 kW");
     assert!(!m.non_overloading && !m.warnings.is_empty());
     // A power equal to a rating selects that rating.
     let m = select_motor(MotorStandard::Iec, 11e3, 11e3, 1.0).expect("fits");
@@ -157,7 +164,8 @@ fn nema_motor_for_13_4_hp_is_15_hp_whatever_the_service_factor() {
         (m.service_factor - 1.15).abs() < 1e-12,
         "reported as margin"
     );
-    // Run-out of 16 hp on a 15 hp nameplate overloads, although 15 × 1.15 = 17.25 hp.
+    // Run-out of 16 hp: 15 hp would carry it only on its service factor (15 × 1.15 =
+    // 17.25 hp), which is not used to size: 20 hp.
     let m = select_motor(
         MotorStandard::Nema,
         11.0 * WATTS_PER_HP,
@@ -165,7 +173,8 @@ fn nema_motor_for_13_4_hp_is_15_hp_whatever_the_service_factor() {
         1.15,
     )
     .expect("fits");
-    assert!(!m.non_overloading);
+    assert_eq!(m.rating_label, "20 hp");
+    assert!(m.non_overloading);
 }
 
 #[test]

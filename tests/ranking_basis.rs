@@ -132,6 +132,20 @@ fn a_fixed_volume_ranks_by_energy_per_volume_not_by_power() {
         s.basis
     );
     assert_eq!(s.criterion, "life-cycle energy cost per volume");
+    // A and B are 16.7 % apart (0.32222 / 0.27619 − 1): no close call.
+    assert!(s.close_call.is_none(), "{:?}", s.close_call);
+}
+
+#[test]
+fn candidates_within_two_percent_are_called_a_close_call() {
+    // B with A's curve at 10.1 hp: the same 500 gpm duty, 1.0 % more energy per volume
+    // (10.1 / 10 − 1), under the 2 % taken as resolvable from catalogue curves.
+    let src = design("case normal { hours = 1000 h }", "    flow >= 250 gpm")
+        .replace(&pump("B", 80.0, 7.0), &pump("B", 100.0, 10.1));
+    let s = analyse(&src).selection;
+    assert_eq!(s.recommended.as_deref(), Some("A"));
+    let remark = s.close_call.expect("a close call");
+    assert!(remark.starts_with("A and B are within 1.0 %"), "{remark}");
 }
 
 #[test]

@@ -300,10 +300,12 @@ fn orchard_high_point_is_screened_for_column_separation() {
     }
     // Both sides meet at the pump: discharge grade − suction grade = the duty head.
     let s = c.lines.iter().find(|l| l.name == "suction").unwrap();
+    // The screened candidate's duty (the recommended one).
+    let screened = a.safety.candidate.as_deref().expect("a screened candidate");
     let duty = a.cases[0]
         .pumps
         .iter()
-        .find(|p| p.name == "A")
+        .find(|p| p.name == screened)
         .unwrap()
         .duty
         .as_ref()

@@ -63,6 +63,37 @@ pub struct Selection {
     pub ranking: Vec<Ranked>,
     /// Why nothing is recommended, when nothing is.
     pub refusal: Option<String>,
+    /// A remark when the first two qualifying candidates are within
+    /// [`CLOSE_CALL_FRACTION`] of each other on the ranking score.
+    pub close_call: Option<String>,
+}
+
+/// Relative score difference below which the first two qualifying candidates are called
+/// equal on the ranking basis: 2 % (ours, stated in the package). Catalogue curves are
+/// guaranteed only within the acceptance tolerance of the pump test (ISO 9906:2012 grade
+/// 2B: efficiency −5 %, from memory), so a smaller difference in energy does not separate
+/// two pumps.
+pub const CLOSE_CALL_FRACTION: f64 = 0.02;
+
+/// The close-call remark of a sorted ranking, if the first two qualifying candidates'
+/// scores differ by less than [`CLOSE_CALL_FRACTION`] of the first.
+fn close_call(ranking: &[Ranked], criterion: &str) -> Option<String> {
+    let [first, second] = ranking.get(..2)? else {
+        return None;
+    };
+    if !(first.qualifies && second.qualifies) || !(first.score > 0.0) {
+        return None;
+    }
+    let difference = (second.score - first.score) / first.score;
+    (difference.is_finite() && difference < CLOSE_CALL_FRACTION).then(|| {
+        format!(
+            "{} and {} are within {:.1} % of each other on {criterion}, less than the {:.0} % taken as resolvable from catalogue curves (pump test tolerances, ISO 9906): treat them as equal on this basis and decide on the warnings, NPSH margin, capital and maintenance cost and the manufacturers' certified data",
+            first.name,
+            second.name,
+            100.0 * difference,
+            100.0 * CLOSE_CALL_FRACTION
+        )
+    })
 }
 
 /// Why a candidate does not qualify, and how many warnings it has.
@@ -233,6 +264,7 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
         criterion,
         criteria_text: criteria_text(design, criterion, method),
         basis: basis(design, cases, criterion),
+        close_call: close_call(&ranking, criterion),
         ranking,
         refusal,
     }
@@ -396,6 +428,7 @@ pub fn rank_by_profile(
         }
     );
     selection.basis = profile_basis(design, priced);
+    selection.close_call = close_call(&selection.ranking, selection.criterion);
 }
 
 /// The basis sentence where the design has load profiles.

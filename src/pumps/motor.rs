@@ -163,11 +163,15 @@ pub struct MotorChoice {
 }
 
 /// Smallest standard rating whose nameplate (service factor not counted) carries
-/// `max_shaft_power_w`, the largest shaft power at every operating point; it is
-/// non-overloading when `runout_power_w` (the largest along the whole curve to its end)
-/// is within the nameplate too. The service factor is validated and reported only:
-/// NEMA MG 1 treats it as a margin for abnormal conditions, and IEC 60034-1 rates
-/// continuous duty (S1) without one (sizing rule: common practice).
+/// `runout_power_w`, the largest shaft power along the whole curve to its end: a
+/// non-overloading motor, so that no credible operating point (one pump of a parallel set
+/// alone, a low static head, a drained line refilling) loads it above its nameplate
+/// (common practice in municipal and building-services specifications; ANSI/HI 1.3 and
+/// HI guidance recalled). Where the run-out power is above the largest rating of the
+/// series, the smallest rating carrying `max_shaft_power_w` (the largest shaft power at
+/// every operating point) is taken and flagged as overloading. The service factor is
+/// validated and reported only: NEMA MG 1 treats it as a margin for abnormal conditions,
+/// and IEC 60034-1 rates continuous duty (S1) without one (sizing rule: common practice).
 ///
 /// Comparisons allow a relative 1e-9 so that a power equal to a rating selects it.
 /// Errors: non-finite or non-positive maximum power, negative run-out power, a service
@@ -181,9 +185,9 @@ pub fn select_motor(
 ) -> Result<MotorChoice, PumpError> {
     check_inputs(max_shaft_power_w, runout_power_w, service_factor)?;
     let ratings = series(std);
-    let Some(&(rating_w, rating_label)) = ratings
-        .iter()
-        .find(|(w, _)| *w >= max_shaft_power_w * SLACK)
+    let carrying = |power_w: f64| ratings.iter().find(|(w, _)| *w >= power_w * SLACK);
+    let Some(&(rating_w, rating_label)) =
+        carrying(runout_power_w.max(max_shaft_power_w)).or_else(|| carrying(max_shaft_power_w))
     else {
         let (largest, label) = ratings.last().copied().unwrap_or((0.0, "none"));
         return Err(PumpError::new(format!(

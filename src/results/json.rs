@@ -232,6 +232,9 @@ struct Selection<'a> {
     /// Wave 2: the basis of the ranking in one sentence.
     basis: &'a str,
     refusal: Option<&'a str>,
+    /// The first two qualifying candidates are within 2 % on the score: the remark.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    close_call: Option<&'a str>,
     ranking: Vec<Ranked<'a>>,
 }
 
@@ -509,6 +512,7 @@ pub fn to_json(
             criteria: &sel.criteria_text,
             basis: &sel.basis,
             refusal: sel.refusal.as_deref(),
+            close_call: sel.close_call.as_deref(),
             ranking: sel
                 .ranking
                 .iter()

@@ -206,6 +206,9 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         }
         _ => {}
     }
+    if let Some(remark) = &sel.close_call {
+        let _ = writeln!(o, "close call: {remark}");
+    }
     safety(&mut o, analysis);
     for w in &analysis.warnings {
         let _ = writeln!(o, "warning {}: {}", w.code, w.message);

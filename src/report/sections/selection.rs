@@ -32,6 +32,12 @@ pub(super) fn chapter(
         (None, Some(why)) => blocks.push(Block::Paragraph(vec![Span::bold("No candidate is recommended. "), Span::plain(super::wording::plain(why))])),
         _ => {}
     }
+    if let Some(remark) = &selection.close_call {
+        blocks.push(Block::Paragraph(vec![
+            Span::bold("Close call. "),
+            Span::plain(format!("{}.", super::wording::plain(remark))),
+        ]));
+    }
     capacity(blocks, design, analysis, units);
     requirement_matrix(blocks, design, analysis);
 }
