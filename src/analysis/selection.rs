@@ -81,7 +81,7 @@ fn close_call(ranking: &[Ranked], criterion: &str) -> Option<String> {
     let [first, second] = ranking.get(..2)? else {
         return None;
     };
-    if !(first.qualifies && second.qualifies) || !(first.score > 0.0) {
+    if !(first.qualifies && second.qualifies && first.score > 0.0) {
         return None;
     }
     let difference = (second.score - first.score) / first.score;
