@@ -524,6 +524,9 @@ pub struct MotorSettings {
     pub efficiency: Option<f64>,
     /// Variable-frequency drive efficiency, when a drive is used.
     pub drive_efficiency: Option<f64>,
+    /// Supply frequency stated with `supply = 60 Hz`, Hz (50 or 60); `None` takes the
+    /// rating series' (60 Hz NEMA, 50 Hz IEC).
+    pub supply_hz: Option<f64>,
 }
 
 /// The `energy` block.

@@ -6,7 +6,7 @@
 use crate::analysis::operation::{CandidateOperation, PointResult};
 use crate::analysis::Analysis;
 use crate::display::{percent, Units};
-use crate::model::operation::{Control, LoadProfile};
+use crate::model::operation::{Control, HourlyBinning, LoadProfile};
 use crate::model::Design;
 use crate::report::layout::chart::{Chart, Marker, Series, YAxis};
 use crate::report::layout::document::{Align, Block, CalloutKind, Column, Span};
@@ -28,6 +28,9 @@ pub(super) fn chapter(
     blocks.push(Block::heading(1, "Operation over the year"));
     method(blocks, design, units);
     for p in &design.operation.profiles {
+        if let Some(b) = &p.binning {
+            binning_table(blocks, p, b, units);
+        }
         profile_table(blocks, p, units);
     }
     for op in &analysis.operation {
@@ -58,6 +61,49 @@ fn method(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
     blocks.push(Block::text("The set never gives less than the system head H_sys(Q). The speed ratio r that gives H_c at the flow per pump Q_p solves r²·H(Q_p/r) = H_c/n_s (affinity laws, Q ∝ N, H ∝ N², P ∝ N³, with the pump efficiency held at its published value at corresponding points: no reduced-speed efficiency correction is applied, which is optimistic well below the published speed). Below the minimum speed the set runs at the minimum speed and the surplus is throttled. Staging: of the counts of running pumps that deliver the point, the least input power among those keeping every pump within the allowable operating region, else the least input power."));
     blocks.push(Block::Equation("P_shaft = ρ·g·Q_p·H_p/η_p per pump;  η_m = η_m,FL · r_PL(P_shaft/P_rated);  P_in = P_shaft/η_m + P_loss,drive;  η_ww = ρ·g·Q·H/P_in".into()));
     blocks.push(Block::text("r_PL is the typical motor part-load ratio of the Washington State Energy Office handbook (1993); the drive losses are P_loss = P_out·(1/η_d − 1) with η_d from the U.S. DOE Motor Systems Tip Sheet #11 (2012) against the drive's output fraction, scaled to the stated full-load drive efficiency. On/off: the set runs at its duty point; the share of time running is Q/Q_run, the specific energy is averaged over the level band by Simpson's rule (bottom, middle, top), and the worst starts per hour, at an inflow of half the pump flow, are Q_run/(4·V) with V the active volume."));
+}
+
+/// How an hourly profile was summarised: every bin with its edges, hours and mean flow.
+fn binning_table(blocks: &mut Vec<Block>, p: &LoadProfile, b: &HourlyBinning, units: &Units) {
+    let fl = units.flow();
+    let n = b.hours.len();
+    blocks.push(Block::text(format!(
+        "The load profile of case {} is summarised from {} hourly flows (file {}): {n} bins of equal width from zero to the largest hourly flow, {} wide; an hour with flow Q falls in bin ⌊n·Q/Q_max⌋ + 1 (the largest flow in the last bin), and each bin runs its hours at the mean flow of those hours, so the year's delivered volume is kept exactly. {:.0} hours with zero flow need no pumping. Bins without hours are not load points.",
+        p.case,
+        b.rows,
+        b.source,
+        fl.fmt(b.edges.get(1).copied().unwrap_or(0.0)),
+        b.zero_hours
+    )));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Bin", 0.10, Align::Right),
+            Column::new(format!("From ({})", fl.label), 0.225, Align::Right),
+            Column::new(format!("To ({})", fl.label), 0.225, Align::Right),
+            Column::new("Hours (h)", 0.20, Align::Right),
+            Column::new(format!("Mean flow ({})", fl.label), 0.25, Align::Right),
+        ],
+        rows: (0..n)
+            .map(|k| {
+                let upper = if k + 1 == n { " (incl.)" } else { "" };
+                vec![
+                    (k + 1).to_string(),
+                    fl.figure(b.edges[k]),
+                    format!("{}{upper}", fl.figure(b.edges[k + 1])),
+                    format!("{:.0}", b.hours[k]),
+                    if b.hours[k] > 0.0 {
+                        fl.figure(b.mean_flow[k])
+                    } else {
+                        "—".into()
+                    },
+                ]
+            })
+            .collect(),
+        caption: Some(format!(
+            "Binning of the hourly flows of case {} ({} rows, {n} bins)",
+            p.case, b.rows
+        )),
+    });
 }
 
 fn profile_table(blocks: &mut Vec<Block>, p: &LoadProfile, units: &Units) {
