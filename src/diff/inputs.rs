@@ -345,6 +345,15 @@ fn wall_fields(w: &crate::model::WallData, units: ReportUnits) -> Vec<Node> {
     if w.threaded {
         out.push(Node::leaf("joints", "threaded"));
     }
+    if let Some(f) = w.flanges {
+        out.push(Node::leaf("flanges", f.description()));
+    }
+    if w.m11 {
+        out.push(Node::leaf("rating_basis", "AWWA M11"));
+    }
+    if let Some(y) = w.yield_strength {
+        out.push(Node::leaf("yield_strength", v(y.value, Measure::Pressure)));
+    }
     if let Some(z) = w.start_elevation {
         out.push(Node::leaf("start_elevation", v(z.value, Measure::Length)));
     }

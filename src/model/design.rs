@@ -318,6 +318,13 @@ pub struct WallData {
     pub start_elevation: Option<Length>,
     /// Pipe elevation at the segment's end (`end_elevation`).
     pub end_elevation: Option<Length>,
+    /// The flanges of the segment's joints (`flanges = asme_150`), rated by their
+    /// standard; the weaker of pipe and flanges governs.
+    pub flanges: Option<crate::hydraulics::flanges::FlangeClass>,
+    /// Steel rated by AWWA M11 (`rating_basis = awwa_m11`) instead of ASME B31.3.
+    pub m11: bool,
+    /// Specified minimum yield strength of steel (`yield_strength`), for AWWA M11.
+    pub yield_strength: Option<Pressure>,
 }
 
 /// A fitting on a segment, with its count and geometry.
