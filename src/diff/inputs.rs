@@ -90,6 +90,26 @@ pub fn design_tree(d: &Design, units: ReportUnits) -> Vec<Node> {
     if let Some(f) = m.supply_hz {
         motor.push(Node::leaf("supply", format!("{} Hz", number(f))));
     }
+    if let Some(t) = &m.motor_table {
+        for (i, (x, e)) in t.iter().enumerate() {
+            motor.push(Node::leaf(
+                format!("efficiency table row {}", i + 1),
+                format!(
+                    "load {}, efficiency {}",
+                    v(*x, Measure::Percent),
+                    v(*e, Measure::Percent)
+                ),
+            ));
+        }
+    }
+    if let Some(p) = &m.drive_losses {
+        for ((sp, tq), l) in crate::pumps::part_load::IEC_61800_9_2_POINTS.iter().zip(p) {
+            motor.push(Node::leaf(
+                format!("drive loss at speed {sp} %, torque {tq} %"),
+                v(*l, Measure::Percent),
+            ));
+        }
+    }
     out.push(Node::group("motor", "", motor));
     let e = &d.energy;
     let mut energy = Vec::new();

@@ -534,6 +534,13 @@ pub struct MotorSettings {
     /// Supply frequency stated with `supply = 60 Hz`, Hz (50 or 60); `None` takes the
     /// rating series' (60 Hz NEMA, 50 Hz IEC).
     pub supply_hz: Option<f64>,
+    /// The motor maker's efficiency at stated load fractions: (load fraction,
+    /// efficiency fraction), loads ascending; used instead of the typical part-load
+    /// curve over the profile.
+    pub motor_table: Option<Vec<(f64, f64)>>,
+    /// The drive maker's losses at the eight IEC 61800-9-2 points, fraction of the
+    /// drive rating, in [`crate::pumps::part_load::IEC_61800_9_2_POINTS`] order.
+    pub drive_losses: Option<[f64; 8]>,
 }
 
 /// The `energy` block.

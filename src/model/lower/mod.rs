@@ -11,6 +11,7 @@ mod constants;
 mod hourly;
 mod lines;
 mod load_profile;
+mod motor_tables;
 mod network;
 mod operation;
 pub(crate) mod profile;

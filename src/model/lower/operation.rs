@@ -44,6 +44,8 @@ pub fn lower_motor(
         efficiency: None,
         drive_efficiency: None,
         supply_hz: None,
+        motor_table: None,
+        drive_losses: None,
     };
     let f = read_fields(body.unwrap_or(&[]), "motor", MOTOR_FIELDS, d);
     for field in &f.fields {
@@ -105,6 +107,7 @@ pub fn lower_motor(
             d.push(e);
         }
     }
+    super::motor_tables::lower_motor_tables(&f.rest, &mut m, d);
     if m.service_factor.is_nan() {
         // Common practice: NEMA open drip-proof motors carry SF 1.15; IEC ratings are used at SF 1.0.
         m.service_factor = if m.standard == MotorStandardChoice::Nema {
