@@ -60,6 +60,11 @@ fn revision_b_changes_are_exactly_these() {
             "line discharge › profile › point 8: chainage 2700 ft, elevation 1330 ft → chainage 2762 ft, elevation 1330 ft",
             "case drought: added (wet_well.level = 1200.5 ft, hours = 250 h)",
             "require › flow for drought: added (>= 600 gpm)",
+            // Revision B was written before the yearly operation (issue 13) and has no
+            // profile or cost blocks: the diff says so.
+            "load_profile normal: removed (5 rows, 3100 h)",
+            "cost A: removed (initial 21500 USD)",
+            "cost B: removed (initial 27900 USD)",
             "assumption: added (The drought case takes the intake 1.5 ft below the lowest recorded summer stage.)",
         ]
     );
@@ -84,7 +89,7 @@ fn revision_b_changes_are_exactly_these() {
         back[1],
         "line discharge › segment 2 › length: 2750 ft → 2688 ft"
     );
-    assert_eq!(back.len(), 6);
+    assert_eq!(back.len(), 9);
 }
 
 #[test]
@@ -264,7 +269,11 @@ fn pumps_requirements_and_texts_added_and_removed() {
     };
     assert_eq!(
         changes_after(&[(&pump_b, "")]),
-        vec!["pump B: removed (\"Horizontal split case, 1780 rpm\")"]
+        vec![
+            "pump B: removed (\"Horizontal split case, 1780 rpm\")",
+            // Its cost block stays in the file (a warning) and is no longer used.
+            "cost B: removed (initial 27900 USD)"
+        ]
     );
     assert_eq!(
         changes_after(&[("    npsh_margin >= 1.3\n", "    npsh_margin >= 1.5\n")]),
@@ -300,5 +309,64 @@ fn values_follow_the_new_designs_report_units() {
     assert!(
         rendered.contains(&"require › flow for drought: added (>= 136.275 m³/h)".to_string()),
         "{rendered:?}"
+    );
+}
+
+#[test]
+fn profile_cost_and_motor_changes_show() {
+    // Issue 13: a changed hours row, a cost element, the price, the rates and the supply.
+    assert_eq!(
+        changes_after(&[("        500        900\n", "        500        1000\n")]),
+        vec!["load_profile normal › row 3 › hours: 900 h → 1000 h"]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "    max_starts_per_hour = 4\n",
+            "    max_starts_per_hour = 5\n"
+        )]),
+        vec!["load_profile normal › max_starts_per_hour: 4 → 5"]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "    maintenance = 650 USD/year\n",
+            "    maintenance = 720 USD/year\n"
+        )]),
+        vec!["cost A › maintenance: 650 USD/year → 720 USD/year"]
+    );
+    assert_eq!(
+        changes_after(&[("    price = 0.118 USD/kWh", "    price = 0.125 USD/kWh")]),
+        vec!["energy › price: 0.118 USD/kWh → 0.125 USD/kWh"]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "    efficiency = 94.1 %\n",
+            "    efficiency = 94.1 %\n    supply = 50 Hz\n"
+        )]),
+        vec!["motor › supply: added (50 Hz)"]
+    );
+}
+
+#[test]
+fn wall_and_rating_changes_show() {
+    // Issue 14: a stated wall thickness or rating, and a pressure class, change the wall.
+    assert_eq!(
+        changes_after(&[(
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser }",
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser\n rating = 160 psi }"
+        )]),
+        vec!["line discharge › segment 2 › rating: added (160 psig)"]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser }",
+            "pipe pvc 8 in schedule 80 { length = 2650 ft + riser }"
+        )]),
+        // PVC 8 in: minimum wall 0.322 in at schedule 40 and 0.500 in at schedule 80
+        // (ASTM D1785 table 1, from memory; the catalogue's values); the bore follows.
+        vec![
+            "line discharge › segment 2 › size: 8 in schedule 40 → 8 in schedule 80",
+            "line discharge › segment 2 › inner_diameter: 7.94236 in → 7.565 in",
+            "line discharge › segment 2 › wall: 0.322 in → 0.5 in",
+        ]
     );
 }

@@ -136,6 +136,7 @@ fn staging_matches_brute_force_over_every_count() {
             ms.choice.rating_w / ms.efficiency,
             d.motor.drive_efficiency,
         )),
+        motor_table: None,
     };
     let kr1 = op(&a, "KR1");
     let profile = &d.operation.profiles[0];

@@ -193,12 +193,15 @@ fn size(
         None => pumps::select_motor(std, max_shaft, run_out_w, service_factor),
     }
     .ok()?;
-    let supply_hz = motor_efficiency::supply_hz(std);
+    let supply_hz = design
+        .motor
+        .supply_hz
+        .unwrap_or_else(|| motor_efficiency::supply_hz(std));
     let poles = motor_efficiency::poles(p.rated_speed.get::<cycle_per_minute>(), supply_hz);
     let (efficiency, efficiency_source) = match design.motor.efficiency {
         Some(e) => (e, "given in the design".to_string()),
         None => {
-            let d = motor_efficiency::default_efficiency(std, choice.rating_w, poles);
+            let d = motor_efficiency::default_efficiency(choice.rating_w, poles, supply_hz);
             (d.efficiency, d.source)
         }
     };

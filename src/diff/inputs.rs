@@ -10,7 +10,10 @@
 //!   case inherits is reported once, on the base);
 //! * requirements by quantity and cases (`flow for normal`), whatever their order;
 //! * pumps by name with their curves (by impeller diameter or speed) point by point;
-//! * motor and energy settings.
+//! * motor and energy settings;
+//! * load profiles by case (their rows by position) and cost blocks by pump
+//!   ([`super::operation`]);
+//! * a pipe's wall: thickness (catalogue or stated), rating and the other wall fields.
 //!
 //! Both designs are shown in the new design's report units, so only real changes
 //! appear (a change of `units` itself is reported under `project`).
@@ -84,6 +87,29 @@ pub fn design_tree(d: &Design, units: ReportUnits) -> Vec<Node> {
     if let Some(e) = m.drive_efficiency {
         motor.push(Node::leaf("drive_efficiency", v(e, Measure::Percent)));
     }
+    if let Some(f) = m.supply_hz {
+        motor.push(Node::leaf("supply", format!("{} Hz", number(f))));
+    }
+    if let Some(t) = &m.motor_table {
+        for (i, (x, e)) in t.iter().enumerate() {
+            motor.push(Node::leaf(
+                format!("efficiency table row {}", i + 1),
+                format!(
+                    "load {}, efficiency {}",
+                    v(*x, Measure::Percent),
+                    v(*e, Measure::Percent)
+                ),
+            ));
+        }
+    }
+    if let Some(p) = &m.drive_losses {
+        for ((sp, tq), l) in crate::pumps::part_load::IEC_61800_9_2_POINTS.iter().zip(p) {
+            motor.push(Node::leaf(
+                format!("drive loss at speed {sp} %, torque {tq} %"),
+                v(*l, Measure::Percent),
+            ));
+        }
+    }
     out.push(Node::group("motor", "", motor));
     let e = &d.energy;
     let mut energy = Vec::new();
@@ -100,7 +126,16 @@ pub fn design_tree(d: &Design, units: ReportUnits) -> Vec<Node> {
         v(e.discount_rate, Measure::Percent),
     ));
     energy.push(Node::leaf("escalation", v(e.escalation, Measure::Percent)));
+    energy.push(Node::leaf("rates", e.rates.keyword()));
+    if e.inflation != 0.0 {
+        energy.push(Node::leaf("inflation", v(e.inflation, Measure::Percent)));
+    }
     out.push(Node::group("energy", "", energy));
+    out.extend(super::operation::operation_nodes(
+        &d.operation,
+        &e.currency,
+        units,
+    ));
     for (label, texts) in [("assumption", &d.assumptions), ("note", &d.notes)] {
         for t in texts {
             out.push(Node::leaf(label, t.clone()).keyed(format!("{label}\u{0}{t}")));
@@ -312,6 +347,9 @@ fn line_safety_fields(l: &Line, units: ReportUnits) -> Vec<Node> {
 fn wall_fields(w: &crate::model::WallData, units: ReportUnits) -> Vec<Node> {
     let v = |si: f64, m: Measure| show(si, m, units);
     let mut out = Vec::new();
+    if let Some(t) = w.thickness {
+        out.push(Node::leaf("wall", v(t.value, Measure::Diameter)));
+    }
     if let Some(r) = w.rating {
         out.push(Node::leaf("rating", v(r.value, Measure::GaugePressure)));
     }
@@ -326,6 +364,15 @@ fn wall_fields(w: &crate::model::WallData, units: ReportUnits) -> Vec<Node> {
     }
     if w.threaded {
         out.push(Node::leaf("joints", "threaded"));
+    }
+    if let Some(f) = w.flanges {
+        out.push(Node::leaf("flanges", f.description()));
+    }
+    if w.m11 {
+        out.push(Node::leaf("rating_basis", "AWWA M11"));
+    }
+    if let Some(y) = w.yield_strength {
+        out.push(Node::leaf("yield_strength", v(y.value, Measure::Pressure)));
     }
     if let Some(z) = w.start_elevation {
         out.push(Node::leaf("start_elevation", v(z.value, Measure::Length)));

@@ -13,6 +13,7 @@
 //! Pure functions: no I/O, no recomputation of engineering values.
 
 mod inputs;
+mod operation;
 mod results;
 mod text;
 pub mod tree;

@@ -2,6 +2,7 @@
 //! fitting loss coefficients. Pure physics and data; no I/O.
 pub mod catalogue;
 pub mod fittings;
+pub mod flanges;
 pub mod friction;
 pub mod ratings;
 pub mod roughness;

@@ -17,6 +17,18 @@
 //!   E = 1.0 (seamless), W = 1.0, Y = 0.4; §302.2.4 allows occasional variations up to
 //!   1.33 times the design pressure.
 //!
+//! - Municipal PVC, ANSI/AWWA C900-16: pressure class PC = HDB/(SF·(DR − 1)/2) with
+//!   HDB = 4 000 psi (PVC 12454) and SF = 2.0, rounded down to 5 psi: DR 14 = PC 305,
+//!   DR 18 = PC 235, DR 21 = PC 200, DR 25 = PC 165 psi (the 2016 edition; the 2007
+//!   edition's classes 200/150/100 included a surge allowance, the 2016 ones do not).
+//!   Occasional surge: total pressure up to the short-term rating STR = 2·S_ST/(2.5·(DR
+//!   − 1)), S_ST = 6 400 psi. Recurring surge: fatigue by AWWA M23 (3rd ed., ch. 5),
+//!   cycles to failure C = 5.05·10²¹ · S^−4.906 (S the peak hoop stress, psi,
+//!   S = P·(DR − 1)/2), so the package states the cycles the pipe takes at its class.
+//! - Waterworks steel by AWWA M11 (5th ed., ch. 4), when the design asks for it
+//!   (`rating_basis = awwa_m11`): P = 2·t·s/D on the nominal wall, s = 50 % of the
+//!   minimum yield for the working pressure and 75 % for working + surge.
+//!
 //! Every tabulated constant here is recalled, not read from the edition in force:
 //! each source string says "from memory".
 
@@ -74,6 +86,29 @@ pub enum Basis {
         /// Pressure rating PR, Pa (gauge).
         pr: f64,
     },
+    /// AWWA C900-16 PVC: DR, pressure class and short-term rating (Pa), and the AWWA
+    /// M23 cycles to failure at the class pressure.
+    C900 {
+        /// Dimension ratio DR (dimensionless).
+        dr: f64,
+        /// Pressure class PC, Pa (gauge).
+        class: f64,
+        /// Short-term rating STR (occasional surge limit), Pa (gauge).
+        short_term: f64,
+        /// Cycles to failure with the peak at PC (AWWA M23), dimensionless.
+        cycles_at_class: f64,
+    },
+    /// AWWA M11: nominal wall t (m), minimum yield (Pa), D (m), working pressure (Pa).
+    SteelM11 {
+        /// Nominal wall thickness, m.
+        wall: f64,
+        /// Specified minimum yield strength, Pa.
+        yield_strength: f64,
+        /// Outside diameter D, m.
+        outer_diameter: f64,
+        /// Working pressure at 50 % of yield, Pa (gauge).
+        p: f64,
+    },
     /// ASME B31.3: nominal wall, corrosion and thread allowances, the wall left t (m),
     /// S (Pa), D (m), P (Pa).
     Steel {
@@ -125,6 +160,20 @@ impl Basis {
                 pressure(2.0 * pr),
                 pressure(1.5 * pr)
             ),
+            Basis::C900 { dr, class, short_term, cycles_at_class } => format!(
+                "AWWA C900-16 DR {dr}: pressure class PC = HDB/(SF·(DR − 1)/2) = 4000 psi/(2.0 × ({dr} − 1)/2), rounded down to 5 psi = {}; occasional surge to the short-term rating 2·S_ST/(2.5·(DR − 1)) = {}; recurring surges: AWWA M23 fatigue, C = 5.05·10²¹·S^−4.906 = {} cycles with the peak at PC",
+                pressure(class),
+                pressure(short_term),
+                significant_cycles(cycles_at_class)
+            ),
+            Basis::SteelM11 { wall, yield_strength, outer_diameter, p } => format!(
+                "AWWA M11: P = 2·t·s/D, t = {} (nominal), s = 50 % of the minimum yield {}, D = {}: {}; working + surge to 75 % of yield: {}",
+                length(wall),
+                pressure(yield_strength),
+                length(outer_diameter),
+                pressure(p),
+                pressure(1.5 * p)
+            ),
             Basis::Steel { wall, corrosion, thread, t, stress, outer_diameter, p } => format!(
                 "P = 2·t·S·E·W/(D − 2·Y·t), t = 0.875 × {} − {} corrosion{} = {}, S = {}, E = 1.0, W = 1.0, Y = 0.4, D = {}: {}; occasional variation to 1.33 × = {}",
                 length(wall),
@@ -157,6 +206,34 @@ pub struct RatingInput<'a> {
     pub corrosion_allowance: Option<f64>,
     /// Liquid temperature, K; `None` takes 73 °F (23 °C).
     pub temperature_k: Option<f64>,
+    /// Steel rated by AWWA M11 (waterworks) instead of ASME B31.3.
+    pub m11: bool,
+    /// Specified minimum yield strength of steel, Pa; `None` takes
+    /// [`STEEL_YIELD_PSI`] (AWWA M11 only).
+    pub yield_strength: Option<f64>,
+}
+
+/// Specified minimum yield strength of A53/A106 Grade B pipe, 35 ksi (ASTM A53 Table
+/// 2, from memory): the default of an AWWA M11 rating.
+pub const STEEL_YIELD_PSI: f64 = 35_000.0;
+
+/// A cycle count to three significant figures: `3.21e5`.
+fn significant_cycles(c: f64) -> String {
+    if c.is_finite() {
+        format!("{c:.2e}").replace('e', "·10^")
+    } else {
+        "unlimited".into()
+    }
+}
+
+/// Cycles to failure of PVC pressure pipe under recurring surges, AWWA M23 (3rd ed.,
+/// ch. 5, from memory): C = 5.05·10²¹ · S^−4.906, S = P_peak·(DR − 1)/2 in psi.
+pub fn m23_cycles_to_failure(dr: f64, peak_pa: f64) -> f64 {
+    let s = peak_pa / PSI * (dr - 1.0) / 2.0;
+    if s <= 0.0 {
+        return f64::INFINITY;
+    }
+    5.05e21 * s.powf(-4.906)
 }
 
 /// Default corrosion allowance of carbon and galvanized steel, 1/16 in = 1.5875 mm
@@ -168,8 +245,12 @@ pub fn pipe_rating(input: &RatingInput) -> Result<PipeRating, String> {
     let material = input.material.ok_or("no material")?;
     match material {
         Material::DuctileIron | Material::CementLinedDuctileIron => ductile_iron(input),
+        Material::Pvc if input.designation.is_some_and(|d| d.starts_with("DR")) => c900(input),
         Material::Pvc => pvc(input),
         Material::Hdpe => hdpe(input),
+        Material::Steel | Material::Galvanized | Material::Stainless if input.m11 => {
+            steel_m11(input, material)
+        }
         Material::Steel | Material::Galvanized | Material::Stainless => steel(input, material),
         _ => Err(format!(
             "dutyline has no rating rule for {} pipe: give `rating = ...` from the manufacturer",
@@ -248,8 +329,12 @@ pub const PVC_HDS_PSI: f64 = 2_000.0;
 /// Hydrostatic design stress of PE4710 at 73 °F, 1 000 psi.
 pub const PE4710_HDS_PSI: f64 = 1_000.0;
 
+/// 73 °F in kelvin, (73 − 32)/1.8 + 273.15: the reference temperature of the
+/// thermoplastic ratings.
+pub const REFERENCE_73_F_K: f64 = (73.0 - 32.0) / 1.8 + 273.15;
+
 fn temperature(input: &RatingInput) -> f64 {
-    input.temperature_k.unwrap_or(296.15)
+    input.temperature_k.unwrap_or(REFERENCE_73_F_K)
 }
 
 fn pvc(input: &RatingInput) -> Result<PipeRating, String> {
@@ -272,6 +357,55 @@ fn pvc(input: &RatingInput) -> Result<PipeRating, String> {
             threaded: input.threaded,
         },
         source: "ASTM D1785, Appendix X1 (rating formula, hydrostatic design stress of PVC 1120); PPFA temperature factors; threaded pipe at 50 % (from memory)",
+    })
+}
+
+/// HDB of PVC 12454 (4 000 psi) and the short-term strength (6 400 psi), AWWA C900-16
+/// (from memory).
+const C900_HDB_PSI: f64 = 4_000.0;
+const C900_SHORT_TERM_PSI: f64 = 6_400.0;
+
+fn c900(input: &RatingInput) -> Result<PipeRating, String> {
+    let dr = designation_number(input, "DR").ok_or("C900 PVC without a DR")?;
+    if dr <= 1.0 {
+        return Err("a DR of 1 or less has no wall".into());
+    }
+    let factor = temperature_factor(PVC_TEMPERATURE_FACTORS, temperature(input), "PVC")?;
+    // Rounded down to 5 psi, as the standard tabulates the classes.
+    let class = (C900_HDB_PSI / (2.0 * (dr - 1.0) / 2.0) / 5.0 + 1e-9).floor() * 5.0 * factor;
+    let short_term = 2.0 * C900_SHORT_TERM_PSI / (2.5 * (dr - 1.0)) * factor;
+    Ok(PipeRating {
+        working_pa: class * PSI,
+        transient_pa: short_term * PSI,
+        basis: Basis::C900 {
+            dr,
+            class: class * PSI,
+            short_term: short_term * PSI,
+            cycles_at_class: m23_cycles_to_failure(dr, class * PSI),
+        },
+        source: "ANSI/AWWA C900-16 (pressure classes, short-term rating); AWWA M23, 3rd ed. (recurring-surge fatigue); PPFA temperature factors (from memory)",
+    })
+}
+
+fn steel_m11(input: &RatingInput, material: Material) -> Result<PipeRating, String> {
+    let (Some(d), Some(wall)) = (input.outer_diameter, input.wall) else {
+        return Err(format!(
+            "{} pipe given by bore: no wall to rate; give `rating = ...`",
+            material.keyword()
+        ));
+    };
+    let fy = input.yield_strength.unwrap_or(STEEL_YIELD_PSI * PSI);
+    let p = 2.0 * wall * 0.5 * fy / d;
+    Ok(PipeRating {
+        working_pa: p,
+        transient_pa: 1.5 * p,
+        basis: Basis::SteelM11 {
+            wall,
+            yield_strength: fy,
+            outer_diameter: d,
+            p,
+        },
+        source: "AWWA M11, 5th ed., ch. 4 (working stress 50 % and surge 75 % of the minimum yield); ASTM A53 Grade B minimum yield (from memory)",
     })
 }
 
@@ -396,6 +530,51 @@ mod tests {
             ..Default::default()
         });
         assert!(e.is_err());
+    }
+
+    #[test]
+    fn c900_2016_pressure_classes() {
+        // AWWA C900-16 (from memory; the brief's 305/235/165 psi): DR 14 = PC 305,
+        // DR 18 = PC 235, DR 21 = PC 200, DR 25 = PC 165 psi. 4000/13 = 307.7 → 305;
+        // 4000/17 = 235.3 → 235; 4000/20 = 200; 4000/24 = 166.7 → 165.
+        for (dr, pc) in [(14.0, 305.0), (18.0, 235.0), (21.0, 200.0), (25.0, 165.0)] {
+            let d = format!("DR {dr}");
+            let r = pipe_rating(&RatingInput {
+                material: Some(Material::Pvc),
+                designation: Some(&d),
+                ..Default::default()
+            })
+            .unwrap();
+            assert!(
+                (r.working_pa / PSI - pc).abs() < 1e-9,
+                "DR {dr}: {}",
+                r.working_pa / PSI
+            );
+            // STR = 2 × 6400/(2.5 × (DR − 1)): DR 18 → 12 800/42.5 = 301.2 psi.
+            let str_psi = 12_800.0 / (2.5 * (dr - 1.0));
+            assert!((r.transient_pa / PSI - str_psi).abs() < 1e-9);
+        }
+        // AWWA M23: DR 18 at its class, S = 235 × 17/2 = 1 997.5 psi,
+        // C = 5.05e21 × 1997.5^−4.906 = 5.05e21 × 10^(−4.906 × 3.30049) = 5.05e21 ×
+        // 10^−16.1922 = 5.05e21 × 6.425e−17 = 3.24e5 cycles.
+        let c = m23_cycles_to_failure(18.0, 235.0 * PSI);
+        assert!((c / 3.244e5 - 1.0).abs() < 0.002, "{c}");
+    }
+
+    #[test]
+    fn m11_waterworks_steel() {
+        // AWWA M11: 24 in OD, 0.25 in wall, 35 ksi yield: P = 2 × 0.25 × 17 500/24
+        // = 364.6 psi working, 546.9 psi with surge (75 % of yield).
+        let r = pipe_rating(&RatingInput {
+            material: Some(Material::Steel),
+            outer_diameter: Some(24.0 * 0.0254),
+            wall: Some(0.25 * 0.0254),
+            m11: true,
+            ..Default::default()
+        })
+        .unwrap();
+        assert!((r.working_pa / PSI - 364.583_333).abs() < 1e-3);
+        assert!((r.transient_pa / PSI - 546.875).abs() < 1e-3);
     }
 
     #[test]

@@ -318,6 +318,13 @@ pub struct WallData {
     pub start_elevation: Option<Length>,
     /// Pipe elevation at the segment's end (`end_elevation`).
     pub end_elevation: Option<Length>,
+    /// The flanges of the segment's joints (`flanges = asme_150`), rated by their
+    /// standard; the weaker of pipe and flanges governs.
+    pub flanges: Option<crate::hydraulics::flanges::FlangeClass>,
+    /// Steel rated by AWWA M11 (`rating_basis = awwa_m11`) instead of ASME B31.3.
+    pub m11: bool,
+    /// Specified minimum yield strength of steel (`yield_strength`), for AWWA M11.
+    pub yield_strength: Option<Pressure>,
 }
 
 /// A fitting on a segment, with its count and geometry.
@@ -524,6 +531,16 @@ pub struct MotorSettings {
     pub efficiency: Option<f64>,
     /// Variable-frequency drive efficiency, when a drive is used.
     pub drive_efficiency: Option<f64>,
+    /// Supply frequency stated with `supply = 60 Hz`, Hz (50 or 60); `None` takes the
+    /// rating series' (60 Hz NEMA, 50 Hz IEC).
+    pub supply_hz: Option<f64>,
+    /// The motor maker's efficiency at stated load fractions: (load fraction,
+    /// efficiency fraction), loads ascending; used instead of the typical part-load
+    /// curve over the profile.
+    pub motor_table: Option<Vec<(f64, f64)>>,
+    /// The drive maker's losses at the eight IEC 61800-9-2 points, fraction of the
+    /// drive rating, in [`crate::pumps::part_load::IEC_61800_9_2_POINTS`] order.
+    pub drive_losses: Option<[f64; 8]>,
 }
 
 /// The `energy` block.

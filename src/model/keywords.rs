@@ -42,9 +42,9 @@ pub const RESERVED: &[&str] = &["let", "for", "curve"];
 pub const LINE_ITEMS: &[&str] = &["pipe", "fitting", "loss"];
 
 /// Connecting words in statement arguments: `line NAME from A to B`, `curve impeller D
-/// from "file.csv"`, `pipe steel 8 in schedule 40`.
+/// from "file.csv"`, `pipe steel 8 in schedule 40`, `curve hourly from "flows.csv"`.
 pub const ARGUMENT_WORDS: &[&str] = &[
-    "from", "to", "impeller", "speed", "schedule", "type", "class", "DR",
+    "from", "to", "impeller", "speed", "schedule", "type", "class", "DR", "hourly",
 ];
 
 /// Words a field takes as its value (`units = us`, `roughness = aged`, ...).

@@ -37,8 +37,38 @@ pub struct LoadProfile {
     /// Starts per hour the motor allows (the maker's or NEMA MG 1 Part 12); `None`
     /// takes [`DEFAULT_MAX_STARTS_PER_HOUR`].
     pub max_starts_per_hour: Option<f64>,
+    /// How the points were binned from a CSV of hourly flows (`curve hourly from
+    /// "file.csv"`); `None` when the design gives the table itself.
+    pub binning: Option<HourlyBinning>,
     /// Where the `load_profile` block is written.
     pub span: Span,
+}
+
+/// Most bins of an hourly profile (`bins = N`).
+pub const MAX_HOURLY_BINS: usize = 50;
+/// Bins of an hourly profile when the design states none.
+pub const DEFAULT_HOURLY_BINS: usize = 10;
+/// Rows of an hourly profile: one year of hours, or a leap year's.
+pub const HOURS_IN_YEARS: [usize; 2] = [8760, 8784];
+
+/// A load profile summarised from hourly flows: equal-width flow bins from zero to the
+/// largest hourly flow; each bin's load point is its hours at the mean flow of its
+/// hours, so the delivered volume of the year is kept exactly.
+#[derive(Clone, Debug, PartialEq)]
+pub struct HourlyBinning {
+    /// The file, as written in the design.
+    pub source: String,
+    /// Hourly rows read (8 760 or 8 784).
+    pub rows: usize,
+    /// Bin edges, m³/s: `hours.len() + 1` ascending values from 0; the last bin
+    /// includes its upper edge.
+    pub edges: Vec<f64>,
+    /// Hours in each bin, h.
+    pub hours: Vec<f64>,
+    /// Mean flow of each bin's hours, m³/s (0 for a bin without hours).
+    pub mean_flow: Vec<f64>,
+    /// Hours with zero flow (no pumping), h.
+    pub zero_hours: f64,
 }
 
 /// Default deadhead margin: 10 % of the static head. dutyline's default, not a

@@ -420,6 +420,17 @@ pub(crate) fn read_csv_table(
     at: Span,
     columns: &str,
 ) -> Result<Table, Diagnostic> {
+    read_csv_table_lines(files, path, at, columns).map(|(t, _)| t)
+}
+
+/// [`read_csv_table`] with the file's line number (1-based) of every row, so a
+/// reader can locate a bad value in the file (comment and blank lines are skipped).
+pub(crate) fn read_csv_table_lines(
+    files: &dyn FileAccess,
+    path: &str,
+    at: Span,
+    columns: &str,
+) -> Result<(Table, Vec<usize>), Diagnostic> {
     let text = files.read_text(path).map_err(|error| {
         Diagnostic::error(
             error.code(),
@@ -435,9 +446,10 @@ pub(crate) fn read_csv_table(
     })
 }
 
-/// A CSV curve table turned into the same table form as an inline one. Spans
-/// point at the `from "..."` text; messages carry the CSV line number.
-pub(crate) fn csv_table(text: &str, at: Span) -> Result<Table, String> {
+/// A CSV curve table turned into the same table form as an inline one, with the
+/// file line of each row. Spans point at the `from "..."` text; messages carry the
+/// CSV line number.
+pub(crate) fn csv_table(text: &str, at: Span) -> Result<(Table, Vec<usize>), String> {
     let mut lines = text
         .lines()
         .enumerate()
@@ -472,7 +484,9 @@ pub(crate) fn csv_table(text: &str, at: Span) -> Result<Table, String> {
         });
     }
     let mut rows = Vec::new();
+    let mut numbers = Vec::new();
     for (no, line) in lines {
+        numbers.push(no + 1);
         let mut cells = Vec::new();
         for c in line.split(',') {
             let c = c.trim();
@@ -498,11 +512,12 @@ pub(crate) fn csv_table(text: &str, at: Span) -> Result<Table, String> {
         }
         rows.push(Row { cells, span: at });
     }
-    Ok(Table {
+    let table = Table {
         columns,
         rows,
         span: at,
-    })
+    };
+    Ok((table, numbers))
 }
 
 /// Most characters of a CSV file quoted in a diagnostic.

@@ -266,6 +266,16 @@ pub const ELASTIC_MODULUS: Range = Range {
     usual: (1.0e8, 3.0e11),
 };
 
+/// A steel's specified minimum yield strength: 100 MPa to 1 500 MPa possible; usual
+/// 205–485 MPa (30–70 ksi, the grades of AWWA C200 and ASTM A53/A106/A1018; common
+/// practice).
+pub const YIELD_STRENGTH: Range = Range {
+    what: "a minimum yield strength",
+    unit: ("MPa", 1e6),
+    possible: (1.0e8, 1.5e9),
+    usual: (2.05e8, 4.85e8),
+};
+
 /// A corrosion allowance. 0 to 50 mm; usual up to 6 mm (1/4 in, heavy-service steel):
 /// common practice.
 pub const CORROSION_ALLOWANCE: Range = Range {

@@ -304,6 +304,9 @@ pub const SEGMENT_FIELDS: &[&str] = &[
     "joints",
     "start_elevation",
     "end_elevation",
+    "flanges",
+    "rating_basis",
+    "yield_strength",
 ];
 
 /// Set one field of a segment (base or case override), checking its dimension and range.

@@ -64,7 +64,8 @@ const IE3_60HZ: [(f64, f64, f64, f64); 20] = [
     (250.0, 95.8, 96.2, 95.8),
 ];
 
-/// The supply frequency assumed for a rating series: 60 Hz for NEMA, 50 Hz for IEC.
+/// The supply frequency assumed for a rating series when the design states none
+/// (`motor { supply = ... }`): 60 Hz for NEMA, 50 Hz for IEC.
 pub fn supply_hz(std: MotorStandard) -> f64 {
     match std {
         MotorStandard::Nema => 60.0,
@@ -91,13 +92,22 @@ pub struct DefaultEfficiency {
     pub source: String,
 }
 
-/// The class efficiency of a rating (W) with `poles` on the series' supply frequency:
-/// the entry of the smallest tabulated rating at or above it, so a rating between
-/// two table rows takes the larger row's value only when it exceeds the smaller row.
-pub fn default_efficiency(std: MotorStandard, rating_w: f64, poles: u32) -> DefaultEfficiency {
-    let (rows, size): (Vec<(f64, f64, f64, f64)>, f64) = match std {
-        MotorStandard::Iec => (IE3_50HZ.to_vec(), rating_w / 1000.0),
-        MotorStandard::Nema => (IE3_60HZ.to_vec(), rating_w / WATTS_PER_HP),
+/// Whether a supply frequency (Hz) reads the 50 Hz table of IEC 60034-30-1 (else the
+/// 60 Hz one): below 55 Hz.
+fn is_50hz(supply_hz: f64) -> bool {
+    supply_hz < 55.0
+}
+
+/// The class efficiency of a rating (W) with `poles` on a supply of `supply_hz` (50 or
+/// 60 Hz; IEC 60034-30-1 has one table per frequency, the 50 Hz one by kW and the
+/// 60 Hz one by hp, whatever the rating series): the entry of the largest tabulated
+/// rating at or below it (ratings between two rows take the lower row's value).
+pub fn default_efficiency(rating_w: f64, poles: u32, supply_hz: f64) -> DefaultEfficiency {
+    let fifty = is_50hz(supply_hz);
+    let (rows, size): (Vec<(f64, f64, f64, f64)>, f64) = if fifty {
+        (IE3_50HZ.to_vec(), rating_w / 1000.0)
+    } else {
+        (IE3_60HZ.to_vec(), rating_w / WATTS_PER_HP)
     };
     let column = |r: &(f64, f64, f64, f64)| match poles {
         0..=2 => r.1,
@@ -111,9 +121,10 @@ pub fn default_efficiency(std: MotorStandard, rating_w: f64, poles: u32) -> Defa
         .find(|r| r.0 <= size * (1.0 + 1e-9))
         .unwrap_or(&rows[0]);
     let below = size < rows[0].0 * (1.0 - 1e-9);
-    let (unit, at) = match std {
-        MotorStandard::Iec => ("kW", format!("{} kW", row.0)),
-        MotorStandard::Nema => ("hp", format!("{} hp", row.0)),
+    let (unit, at) = if fifty {
+        ("kW", format!("{} kW", row.0))
+    } else {
+        ("hp", format!("{} hp", row.0))
     };
     let note = if below {
         format!(" (smallest tabulated rating, {} {unit}, used)", rows[0].0)
@@ -125,7 +136,7 @@ pub fn default_efficiency(std: MotorStandard, rating_w: f64, poles: u32) -> Defa
         source: format!(
             "{CLASS} class value, IEC 60034-30-1, {} poles at {:.0} Hz, {at}{note} (recalled)",
             poles.clamp(2, 6),
-            supply_hz(std)
+            if fifty { 50.0 } else { 60.0 }
         ),
     }
 }
@@ -146,13 +157,27 @@ mod tests {
     fn class_values() {
         // NEMA Premium 4-pole 7.5 hp is 91.7 % (NEMA MG 1 Table 12-12, from memory;
         // fluids 1.3 nema_high_full_closed_4p agrees).
-        let e = default_efficiency(MotorStandard::Nema, 7.5 * WATTS_PER_HP, 4);
+        let e = default_efficiency(7.5 * WATTS_PER_HP, 4, 60.0);
         assert!((e.efficiency - 0.917).abs() < 1e-12, "{e:?}");
         // IE3 4-pole 75 kW at 50 Hz is 95.0 % (IEC 60034-30-1, from memory).
-        let e = default_efficiency(MotorStandard::Iec, 75e3, 4);
+        let e = default_efficiency(75e3, 4, 50.0);
         assert!((e.efficiency - 0.950).abs() < 1e-12, "{e:?}");
         assert!(e.source.contains("IE3") && e.source.contains("50 Hz"));
-        let e = default_efficiency(MotorStandard::Iec, 0.37e3, 4);
+        let e = default_efficiency(0.37e3, 4, 50.0);
         assert!(e.source.contains("smallest tabulated"));
+        // The supply, not the rating series, selects the table: a 75 kW 4-pole motor
+        // on 60 Hz reads the 100 hp row (74.6 kW is the largest row not above 75 kW),
+        // 95.4 % (NEMA MG 1 Table 12-12, from memory), and a 100 hp motor on 50 Hz reads
+        // the 75 kW row of the 50 Hz table, 95.0 %.
+        let e = default_efficiency(75e3, 4, 60.0);
+        assert!(
+            (e.efficiency - 0.954).abs() < 1e-12 && e.source.contains("60 Hz"),
+            "{e:?}"
+        );
+        let e = default_efficiency(100.0 * WATTS_PER_HP, 4, 50.0);
+        assert!(
+            (e.efficiency - 0.950).abs() < 1e-12 && e.source.contains("50 Hz"),
+            "{e:?}"
+        );
     }
 }

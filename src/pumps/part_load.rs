@@ -111,6 +111,15 @@ fn interp(xs: &[f64], ys: &[f64], x: f64) -> f64 {
     ys[n - 1]
 }
 
+/// Motor efficiency (fraction) at load fraction `load` from the design's own table of
+/// (load fraction, efficiency) with ascending loads: linear between its points and
+/// held at its first and last values beyond them.
+pub fn motor_efficiency_from_table(table: &[(f64, f64)], load: f64) -> f64 {
+    let xs: Vec<f64> = table.iter().map(|r| r.0).collect();
+    let ys: Vec<f64> = table.iter().map(|r| r.1).collect();
+    interp(&xs, &ys, load)
+}
+
 /// Motor efficiency at part load as a share of its full-load efficiency, η(x)/η(1),
 /// for a motor of nameplate `rating_w` (W) at load fraction `load` (shaft power /
 /// rating). WSEO handbook (1993) typical curve; 10 %–100 % load (clamped outside).
@@ -144,6 +153,45 @@ pub struct DriveLosses {
     /// Full-load efficiency the curve is scaled to (fraction); the table's own
     /// full-load value when the design states none.
     pub full_load_efficiency: f64,
+    /// Losses the design declares at the eight IEC 61800-9-2 points
+    /// ([`IEC_61800_9_2_POINTS`] order), fraction of the rating; used instead of the
+    /// DOE table when given.
+    pub declared: Option<[f64; 8]>,
+}
+
+/// The IEC 61800-9-2 (2017) reference points, (relative speed %, relative torque %).
+pub const IEC_61800_9_2_POINTS: [(f64, f64); 8] = [
+    (0.0, 25.0),
+    (0.0, 50.0),
+    (0.0, 100.0),
+    (50.0, 25.0),
+    (50.0, 50.0),
+    (50.0, 100.0),
+    (90.0, 50.0),
+    (90.0, 100.0),
+];
+
+/// Losses (fraction of the rating) from the eight declared IEC 61800-9-2 points at
+/// `speed` and `torque` (fractions of rated). At each declared speed (0, 50, 90 %) the
+/// loss is linear in torque between 25, 50 and 100 % (held below 25 % and above 100 %);
+/// the (90, 25) point the standard does not declare is p(50, 25) + p(90, 50) − p(50,
+/// 50) (dutyline's completion: the same speed step as at 50 % torque). Between speeds
+/// the loss is linear, and above 90 % it continues the 50–90 % slope, held at 100 %.
+pub fn declared_drive_loss(p: &[f64; 8], speed: f64, torque: f64) -> f64 {
+    let torques = [0.25, 0.5, 1.0];
+    let p90_25 = p[3] + p[6] - p[4];
+    let rows = [[p[0], p[1], p[2]], [p[3], p[4], p[5]], [p90_25, p[6], p[7]]];
+    let at: Vec<f64> = rows
+        .iter()
+        .map(|r| interp(&torques, r, torque.clamp(0.25, 1.0)))
+        .collect();
+    let s = speed.clamp(0.0, 1.0);
+    let loss = if s <= 0.9 {
+        interp(&[0.0, 0.5, 0.9], &at, s)
+    } else {
+        at[2] + (at[2] - at[1]) / 0.4 * (s - 0.9)
+    };
+    loss.max(0.0)
 }
 
 impl DriveLosses {
@@ -153,6 +201,18 @@ impl DriveLosses {
             rating_w,
             full_load_efficiency: full_load_efficiency
                 .unwrap_or_else(|| drive_efficiency_table(rating_w, 1.0)),
+            declared: None,
+        }
+    }
+
+    /// Losses at an output of `output_w` (W) with the motor at `speed` and `torque`
+    /// (fractions of rated): the declared IEC 61800-9-2 losses when the design gives
+    /// them, else [`DriveLosses::losses_w`], W.
+    pub fn losses_at(&self, output_w: f64, speed: f64, torque: f64) -> f64 {
+        match &self.declared {
+            Some(p) if output_w > 0.0 => declared_drive_loss(p, speed, torque) * self.rating_w,
+            Some(_) => 0.0,
+            None => self.losses_w(output_w),
         }
     }
 
@@ -179,17 +239,7 @@ impl DriveLosses {
 /// drive rating, taking output power ∝ frequency × torque (so the 0 % frequency
 /// points carry the table's lowest-load losses).
 pub fn iec_61800_9_2_points(d: &DriveLosses) -> [(f64, f64, f64); 8] {
-    const POINTS: [(f64, f64); 8] = [
-        (0.0, 25.0),
-        (0.0, 50.0),
-        (0.0, 100.0),
-        (50.0, 25.0),
-        (50.0, 50.0),
-        (50.0, 100.0),
-        (90.0, 50.0),
-        (90.0, 100.0),
-    ];
-    POINTS.map(|(f, t)| {
+    IEC_61800_9_2_POINTS.map(|(f, t)| {
         let x = (f / 100.0 * t / 100.0).max(DRIVE_LOADS[0]);
         let loss = d.losses_w(x * d.rating_w) / d.rating_w;
         (f, t, loss)
@@ -207,6 +257,30 @@ mod tests {
         }
         // Small motors lose more at light load than large ones (WSEO 1993 figure).
         assert!(motor_part_load_ratio(2_000.0, 0.25) < motor_part_load_ratio(90_000.0, 0.25));
+    }
+
+    #[test]
+    fn declared_drive_losses_by_hand() {
+        // Declared (fractions of rating) at (0,25) (0,50) (0,100) (50,25) (50,50)
+        // (50,100) (90,50) (90,100): 0.010 0.012 0.018 0.014 0.017 0.024 0.022 0.030.
+        let p = [0.010, 0.012, 0.018, 0.014, 0.017, 0.024, 0.022, 0.030];
+        // On a declared point the loss is that value.
+        assert!((declared_drive_loss(&p, 0.5, 0.5) - 0.017).abs() < 1e-12);
+        assert!((declared_drive_loss(&p, 0.9, 1.0) - 0.030).abs() < 1e-12);
+        // (90, 25) completed: 0.014 + 0.022 − 0.017 = 0.019.
+        assert!((declared_drive_loss(&p, 0.9, 0.25) - 0.019).abs() < 1e-12);
+        // (70, 75): at 50 % speed 0.017 + (0.024 − 0.017)/2 = 0.0205; at 90 % 0.022 +
+        // 0.004 = 0.026; halfway between: 0.02325.
+        assert!((declared_drive_loss(&p, 0.7, 0.75) - 0.02325).abs() < 1e-12);
+        // Full speed and torque: 0.030 + (0.030 − 0.024)/0.4 × 0.1 = 0.0315.
+        assert!((declared_drive_loss(&p, 1.0, 1.0) - 0.0315).abs() < 1e-12);
+        let mut d = DriveLosses::new(10_000.0, None);
+        d.declared = Some(p);
+        assert!((d.losses_at(5_000.0, 0.5, 0.5) - 170.0).abs() < 1e-9);
+        // A motor table: 90 % at 25 % load, 94 % at 100 %: 92 % at 62.5 % load.
+        let t = [(0.25, 0.90), (1.0, 0.94)];
+        assert!((motor_efficiency_from_table(&t, 0.625) - 0.92).abs() < 1e-12);
+        assert!((motor_efficiency_from_table(&t, 0.1) - 0.90).abs() < 1e-12);
     }
 
     #[test]

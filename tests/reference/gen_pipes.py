@@ -7,7 +7,7 @@ nominal size) that `fluids` tabulates and that dutyline's catalogue covers
 every row with dutyline's catalogue.
 
 Sources as transcribed by fluids: ASME B36.10M and B36.19M (their millimetre
-columns), ASTM D1785 (converted from inches), ASTM F2619 IPS tables for PE
+columns), ASTM D1785 (converted from inches), AWWA C900 and C905 (millimetres), ASTM F2619 IPS tables for PE
 (converted from inches; same OD/DR definition as ASTM D3035 and F714).
 
 Run: pip install fluids && python tests/reference/gen_pipes.py
@@ -25,6 +25,9 @@ SERIES = (
      ["10", "20", "30", "40", "STD", "60", "80", "XS", "100", "120", "140", "160", "XXS"]]
     + [("stainless", s, s) for s in ["5S", "10S", "40S", "80S"]]
     + [("pvc", "40", "40D1785"), ("pvc", "80", "80D1785")]
+    # AWWA C900-16 took in C905: fluids has C900 (4-12 in) and C905 (14 in and up).
+    + [("pvc", "DR" + dr, "DR" + dr + "C900") for dr in ["14", "18", "25"]]
+    + [("pvc", "DR" + dr, "CIDR" + dr + "C905") for dr in ["14", "18", "21", "25"]]
     + [("hdpe", "DR" + dr, "DR" + dr.replace(".", "") + "F2619IPS")
        for dr in ["7", "9", "11", "13.5", "17", "21", "26", "32.5"]]
 )

@@ -193,8 +193,10 @@ fn set_model<'a>(
         _ => SpeedRange::Fixed(1.0),
     };
     let rating = motor.choice.rating_w;
-    let drive = matches!(speed, SpeedRange::Variable { .. })
-        .then(|| DriveLosses::new(rating / motor.efficiency, design.motor.drive_efficiency));
+    let drive = matches!(speed, SpeedRange::Variable { .. }).then(|| DriveLosses {
+        declared: design.motor.drive_losses,
+        ..DriveLosses::new(rating / motor.efficiency, design.motor.drive_efficiency)
+    });
     Some(SetModel {
         base,
         trim: *trim,
@@ -205,6 +207,7 @@ fn set_model<'a>(
         motor_rating_w: rating,
         motor_full_load_efficiency: motor.efficiency,
         drive,
+        motor_table: design.motor.motor_table.clone(),
     })
 }
 

@@ -5,13 +5,16 @@
 //! points equal to the published value (`pumps::affinity`); no reduced-speed efficiency
 //! correction is applied, which is optimistic well below rated speed (common practice).
 //! Shaft power per pump P_s = ρ·g·Q_p·H_p/η_p; motor efficiency η_m = η_FL · r(x) with
-//! x = P_s / rating and r the typical part-load ratio (`pumps::part_load`); drive
-//! losses from the drive part-load table scaled to its full-load efficiency; input
+//! x = P_s / rating and r the typical part-load ratio (`pumps::part_load`), or the
+//! design's own table η_m(x); drive losses from the drive part-load table scaled to its
+//! full-load efficiency, or the design's losses at the IEC 61800-9-2 points at the
+//! motor's speed and torque (P_s/P_rated)/(N/N_rated); input
 //! power = Σ (P_s/η_m + drive losses). Wire-to-water efficiency = ρ·g·Q·H_set / input,
 //! with H_set the head the running set develops (DOE/Hydraulic Institute usage).
 
 use crate::analysis::{CaseSystem, G};
-use crate::pumps::{brent, part_load::DriveLosses, PumpCurves, ScaledPump};
+use crate::pumps::part_load::{self, DriveLosses};
+use crate::pumps::{brent, PumpCurves, ScaledPump};
 
 /// How the set's speed may move.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -49,6 +52,9 @@ pub struct SetModel<'a> {
     pub motor_full_load_efficiency: f64,
     /// The drive of each pump, when on variable speed.
     pub drive: Option<DriveLosses>,
+    /// The design's motor table (load fraction, efficiency), used instead of the
+    /// typical part-load curve when given.
+    pub motor_table: Option<Vec<(f64, f64)>>,
 }
 
 /// The state of a running set at one load point.
@@ -201,10 +207,19 @@ fn power_chain(
             .ok_or("the curve gives neither efficiency nor power here")?,
     };
     let motor_load = shaft_per_pump / m.motor_rating_w;
-    let motor_efficiency = m.motor_full_load_efficiency
-        * crate::pumps::part_load::motor_part_load_ratio(m.motor_rating_w, motor_load);
+    let motor_efficiency = match &m.motor_table {
+        Some(t) => part_load::motor_efficiency_from_table(t, motor_load),
+        None => {
+            m.motor_full_load_efficiency
+                * part_load::motor_part_load_ratio(m.motor_rating_w, motor_load)
+        }
+    };
     let motor_input = shaft_per_pump / motor_efficiency;
-    let drive_losses = m.drive.map_or(0.0, |d| d.losses_w(motor_input));
+    // Motor torque as a fraction of rated: (P_s/P_rated)/(N/N_rated).
+    let torque = motor_load / ratio.max(1e-6);
+    let drive_losses = m
+        .drive
+        .map_or(0.0, |d| d.losses_at(motor_input, ratio, torque));
     let per_pump_input = motor_input + drive_losses;
     let running = k as f64 * ser;
     let hydraulic_power = rho * G * q * head_per_pump * ser;

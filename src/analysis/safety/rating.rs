@@ -58,6 +58,8 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
                 threaded: w.threaded,
                 corrosion_allowance: w.corrosion_allowance.map(|c| c.get::<meter>()),
                 temperature_k,
+                m11: w.m11,
+                yield_strength: w.yield_strength.map(|y| y.get::<pascal>()),
             };
             match ratings::pipe_rating(&input) {
                 Ok(r) => SegmentRating {
@@ -77,6 +79,9 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
             }
         }
     };
+    if let Some(class) = w.flanges {
+        flanges_govern(&mut out, class, seg, temperature_k);
+    }
     for f in &seg.fittings {
         let Some(r) = f.rating.map(|r| r.get::<pascal>()) else {
             continue;
@@ -98,4 +103,47 @@ pub fn segment_rating(seg: &Segment, temperature_k: Option<f64>) -> SegmentRatin
         }
     }
     out
+}
+
+/// The segment's flanges by their standard (ASME B16.5, B16.1, AWWA C207): where weaker
+/// than the pipe they govern (steady and transient alike: a flange rating has no surge
+/// allowance); above their tabulated temperature the segment is not rated.
+fn flanges_govern(
+    out: &mut SegmentRating,
+    class: crate::hydraulics::flanges::FlangeClass,
+    seg: &Segment,
+    temperature_k: Option<f64>,
+) {
+    use crate::hydraulics::flanges::flange_rating;
+    let od = seg
+        .wall
+        .outer_diameter
+        .unwrap_or(seg.inner_diameter)
+        .get::<meter>();
+    match flange_rating(
+        class,
+        od,
+        temperature_k.unwrap_or(crate::hydraulics::ratings::REFERENCE_73_F_K),
+    ) {
+        Ok(r) => {
+            if out.working.is_none_or(|w| r < w) {
+                out.working = Some(r);
+                out.note = format!(
+                    "the {} are weaker than the pipe and govern",
+                    class.description()
+                );
+                out.source = class.source().to_string();
+            } else {
+                out.source = format!("{}; {}", out.source, class.source());
+            }
+            if out.transient.is_none_or(|t| r < t) {
+                out.transient = Some(r);
+            }
+        }
+        Err(why) => {
+            out.working = None;
+            out.transient = None;
+            out.note = why;
+        }
+    }
 }

@@ -199,7 +199,7 @@ pub(super) fn format_nominal(eighths: u16) -> String {
 ///   -> "STD"; "XS"/"XH"/"extra strong" -> "XS"; "XXS"/"XXH"/"double extra strong" -> "XXS";
 /// - stainless: "10S", "sch 10s" -> "10S" (a plain "40" is not taken as "40S": the two
 ///   differ at NPS 12, so it is refused with suggestions);
-/// - PVC: "40", "80";
+/// - PVC: "40", "80"; AWWA C900 "DR 18", "DR18" -> "DR18";
 /// - copper: "K", "L", "M", "type L" -> "L";
 /// - ductile iron: "350", "class 350", "pressure class 350", "PC350" -> "350";
 /// - HDPE: "11", "DR11", "DR 11", "SDR11" -> "DR11"; "13.5" -> "DR13.5".
@@ -210,6 +210,7 @@ pub(super) fn normalise_schedule(material: Material, text: &str) -> String {
         .chars()
         .filter(|c| !matches!(c, ' ' | '-' | '_' | '\t'))
         .collect();
+    let dr_written = s.starts_with("DR") || s.starts_with("SDR");
     for prefix in [
         "SCHEDULE",
         "SCH.",
@@ -237,7 +238,9 @@ pub(super) fn normalise_schedule(material: Material, text: &str) -> String {
     if !alias.is_empty() {
         s = alias.to_string();
     }
-    if material == Material::Hdpe && !s.starts_with("DR") {
+    if (material == Material::Hdpe || (material == Material::Pvc && dr_written))
+        && !s.starts_with("DR")
+    {
         s = format!("DR{s}");
     }
     s
@@ -250,6 +253,7 @@ pub(super) fn schedule_phrase(material: Material, key: &str) -> String {
         Material::Copper => format!("type {key}"),
         Material::DuctileIron | Material::CementLinedDuctileIron => format!("class {key}"),
         Material::Hdpe => key.to_string(),
+        Material::Pvc if key.starts_with("DR") => key.to_string(),
         _ => format!("schedule {key}"),
     }
 }

@@ -132,6 +132,28 @@ pub(super) const PE_DR_SERIES: &[(f64, &str, &[u16])] = &[
     (32.5, "DR32.5", &[32, 40, 48, 64, 80, 96, 112, 128, 144, 160, 176, 192]),
 ];
 
+/// Cast-iron outside diameters (CIOD, in) of municipal PVC pressure pipe, ANSI/AWWA
+/// C900-16 (which took in the 14–24 in sizes of C905): (nominal in eighths, OD in).
+/// From memory; equal to the ductile-iron ODs of AWWA C151 through 12 in, and to the
+/// C900 and C905 tables transcribed in `fluids.piping` (tests/reference/gen_pipes.py).
+#[rustfmt::skip]
+pub(super) const C900_CIOD_IN: &[(u16, f64)] = &[
+    (32, 4.80), (48, 6.90), (64, 9.05), (80, 11.10), (96, 13.20), (112, 15.30),
+    (128, 17.40), (144, 19.50), (160, 21.60), (192, 25.80),
+];
+
+/// The DR series of AWWA C900-16 PVC (DR 14, 18, 21, 25) with their catalogue keys and
+/// sizes (eighths) up to 24 in, as the C900-07 (4–12 in) and C905 (14 in and up) tables
+/// transcribed in `fluids.piping` list them; the pressure classes are in
+/// [`crate::hydraulics::ratings`].
+#[rustfmt::skip]
+pub(super) const C900_DR_SERIES: &[(f64, &str, &[u16])] = &[
+    (14.0, "DR14", &[32, 48, 64, 80, 96, 112, 128, 144]),
+    (18.0, "DR18", &[32, 48, 64, 80, 96, 112, 128, 144, 160, 192]),
+    (21.0, "DR21", &[112, 128, 144, 160, 192]),
+    (25.0, "DR25", &[32, 48, 64, 80, 96, 112, 128, 144, 160, 192]),
+];
+
 /// Minimum wall of a DR-rated pipe, t = OD / DR, rounded to 0.001 in as the
 /// ASTM F714 / F2619 inch tables print it.
 pub(super) fn pe_minimum_wall_in(outside_in: f64, dr: f64) -> f64 {

@@ -37,6 +37,8 @@ enum Outside {
     CopperTube,
     /// Ductile iron (AWWA C151).
     DuctileIron,
+    /// Cast-iron outside diameters of AWWA C900 PVC.
+    Ciod,
 }
 
 /// How a series gets its wall.
@@ -132,6 +134,18 @@ const fn pe(index: usize) -> Series {
     }
 }
 
+const fn c900(index: usize) -> Series {
+    let (dr, key, sizes) = ns::C900_DR_SERIES[index];
+    Series {
+        family: Family::Pvc,
+        key,
+        outside: Outside::Ciod,
+        walls: Walls::DimensionRatio { dr, sizes },
+        // The +12 % wall tolerance of C900, as for PE: mean wall 1.06 × minimum (from memory).
+        inner: Inner::PeMeanWall,
+    }
+}
+
 /// Every series, in the order used by [`sizes`] and suggestions.
 #[rustfmt::skip]
 const SERIES: &[Series] = &[
@@ -143,6 +157,7 @@ const SERIES: &[Series] = &[
     stainless("5S", st::B3619_5S), stainless("10S", st::B3619_10S),
     stainless("40S", st::B3619_40S), stainless("80S", st::B3619_80S),
     pvc("40", ns::D1785_SCH40), pvc("80", ns::D1785_SCH80),
+    c900(0), c900(1), c900(2), c900(3),
     copper("K", ns::B88_TYPE_K), copper("L", ns::B88_TYPE_L), copper("M", ns::B88_TYPE_M),
     ductile("150", ns::C151_CLASS_150), ductile("200", ns::C151_CLASS_200),
     ductile("250", ns::C151_CLASS_250), ductile("300", ns::C151_CLASS_300),
@@ -164,8 +179,11 @@ fn family_of(material: Material) -> Option<Family> {
 }
 
 /// The standard and ID convention reported in [`PipeSize::standard`].
-fn standard_of(material: Material) -> &'static str {
+fn standard_of(material: Material, key: &str) -> &'static str {
     match material {
+        Material::Pvc if key.starts_with("DR") => {
+            "ANSI/AWWA C900-16 (cast-iron OD, minimum wall OD/DR; mean ID = OD - 2.12t)"
+        }
         Material::Steel => "ASME B36.10M (inch dimensions; ID = OD - 2 x nominal wall)",
         Material::Galvanized => {
             "ASME B36.10M (inch dimensions, galvanized pipe to ASTM A53; ID = OD - 2 x nominal wall)"
@@ -206,6 +224,7 @@ impl Series {
             Outside::Ips => lookup(st::IPS_OUTSIDE_DIAMETER_IN, eighths),
             Outside::CopperTube => Some(f64::from(eighths) / 8.0 + 0.125),
             Outside::DuctileIron => lookup(ns::C151_OUTSIDE_DIAMETER_IN, eighths),
+            Outside::Ciod => lookup(ns::C900_CIOD_IN, eighths),
         }
     }
 
@@ -301,7 +320,7 @@ pub fn pipe_size(
             outer_diameter_m: od * METRES_PER_INCH,
             wall_m: wall * METRES_PER_INCH,
             inner_diameter_m: id * METRES_PER_INCH,
-            standard: standard_of(material),
+            standard: standard_of(material, series.key),
         }),
         None => Err(CatalogueError {
             message: format!(

@@ -8,7 +8,8 @@ use crate::model::design::{Case, PumpCandidate, Requirement};
 use crate::model::eval::{self, expect_dim, expect_number, Env};
 use crate::model::fields::{block_name, read_fields};
 use crate::model::operation::*;
-use crate::syntax::ast::{StatementKind, Table};
+use crate::model::FileAccess;
+use crate::syntax::ast::{Arg, ArgKind, StatementKind, Table};
 use crate::units::{Dimension, Quantity};
 
 const PROFILE_FIELDS: &[&str] = &[
@@ -21,6 +22,7 @@ const PROFILE_FIELDS: &[&str] = &[
     "storage",
     "level_band",
     "max_starts_per_hour",
+    "bins",
 ];
 const CONTROLS: &[&str] = &[
     "constant_pressure",
@@ -45,6 +47,7 @@ pub fn lower_profiles(
     cases: &[Case],
     requirements: &[Requirement],
     env: &Env,
+    files: &dyn FileAccess,
     d: &mut Vec<Diagnostic>,
 ) -> Vec<LoadProfile> {
     let mut out: Vec<LoadProfile> = Vec::new();
@@ -92,7 +95,7 @@ pub fn lower_profiles(
             ));
             break;
         }
-        if let Some(p) = lower_profile(block, name, requirements, env, d) {
+        if let Some(p) = lower_profile(block, name, requirements, env, files, d) {
             out.push(p);
         }
     }
@@ -112,11 +115,56 @@ fn required_flow(requirements: &[Requirement], case: &str) -> Option<f64> {
         .reduce(f64::max)
 }
 
+/// Where a profile's table comes from.
+enum Source<'a> {
+    /// `curve { flow ... hours ... }` in the design.
+    Inline(&'a Table),
+    /// `curve hourly from "file.csv"`: the file and where its name is written.
+    Hourly(String, Span),
+}
+
+/// `curve { ... }` or `curve hourly from "file.csv"`; a diagnostic for anything else.
+fn source_of(st: &crate::syntax::ast::Statement) -> Result<Source<'_>, Diagnostic> {
+    match &st.kind {
+        StatementKind::Curve {
+            table: Some(t),
+            args,
+            ..
+        } if args.is_empty() => Ok(Source::Inline(t)),
+        StatementKind::Curve {
+            table: None, args, ..
+        } => match args.as_slice() {
+            [Arg {
+                kind: ArgKind::Word(h),
+                ..
+            }, Arg {
+                kind: ArgKind::Word(f),
+                ..
+            }, Arg {
+                kind: ArgKind::Text(path),
+                span,
+            }] if h == "hourly" && f == "from" => Ok(Source::Hourly(path.clone(), *span)),
+            _ => Err(Diagnostic::error(
+                Code::UnexpectedStatement,
+                "a profile's file is read with `curve hourly from \"file.csv\"`",
+                Some(st.span),
+            )
+            .with_help("the file holds one hourly flow per row, 8760 rows (8784 in a leap year)")),
+        },
+        _ => Err(Diagnostic::error(
+            Code::UnexpectedStatement,
+            "a profile holds fields and one `curve { flow ... hours ... }` table or `curve hourly from \"file.csv\"`",
+            Some(st.span),
+        )),
+    }
+}
+
 fn lower_profile(
     block: &Block,
     case: &str,
     requirements: &[Requirement],
     env: &Env,
+    files: &dyn FileAccess,
     d: &mut Vec<Diagnostic>,
 ) -> Option<LoadProfile> {
     let before = d.len();
@@ -132,8 +180,10 @@ fn lower_profile(
         storage_volume: None,
         level_band: 0.0,
         max_starts_per_hour: None,
+        binning: None,
         span: block.span,
     };
+    let mut bins = DEFAULT_HOURLY_BINS;
     let mut control_word = "throttle".to_string();
     let mut control_head: Option<(f64, Span)> = None;
     for field in &f.fields {
@@ -200,6 +250,17 @@ fn lower_profile(
                         .si
                         .clamp(0.0, 100.0)
                 }
+                "bins" => {
+                    let v = expect_number(field.value, env, "number of bins")?;
+                    if !(v.fract() == 0.0 && (1.0..=MAX_HOURLY_BINS as f64).contains(&v)) {
+                        return Err(Diagnostic::error(
+                            Code::OutOfRange,
+                            format!("the bins of an hourly profile are a whole number from 1 to {MAX_HOURLY_BINS}"),
+                            Some(field.value.span),
+                        ));
+                    }
+                    bins = v as usize;
+                }
                 _ => {
                     let v = expect_number(field.value, env, "starts per hour")?;
                     if !(0.5..=60.0).contains(&v) {
@@ -225,23 +286,27 @@ fn lower_profile(
                 .with_help("on/off control needs the active storage volume between the start and stop levels, e.g. `storage = 180 m^3`"),
         );
     }
-    let tables: Vec<(&Table, Span)> = f
+    let tables: Vec<(Source, Span)> = f
         .rest
         .iter()
-        .filter_map(|st| match &st.kind {
-            StatementKind::Curve { table: Some(t), .. } => Some((t, st.span)),
-            _ => {
-                d.push(Diagnostic::error(
-                    Code::UnexpectedStatement,
-                    "a profile holds fields and one `curve { flow ... hours ... }` table",
-                    Some(st.span),
-                ));
+        .filter_map(|st| match source_of(st) {
+            Ok(s) => Some((s, st.span)),
+            Err(e) => {
+                d.push(e);
                 None
             }
         })
         .collect();
     match tables.as_slice() {
-        [(t, _)] => p.points = lower_points(t, p.design_flow, env, d),
+        [(Source::Inline(t), _)] => p.points = lower_points(t, p.design_flow, env, d),
+        [(Source::Hourly(path, at), _)] => {
+            if let Some((points, binning)) =
+                super::hourly::hourly_points(files, path, *at, bins, p.design_flow, d)
+            {
+                p.points = points;
+                p.binning = Some(binning);
+            }
+        }
         [] => d.push(
             Diagnostic::error(Code::MissingTable, "a profile needs a table of flow against hours per year", Some(block.keyword_span()))
                 .with_help("add `curve {` then a header `flow %   hours h` and one row per load point, then `}`"),

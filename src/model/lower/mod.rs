@@ -8,8 +8,10 @@ mod blocks;
 mod candidates;
 mod cases;
 mod constants;
+mod hourly;
 mod lines;
 mod load_profile;
+mod motor_tables;
 mod network;
 mod operation;
 pub(crate) mod profile;
@@ -66,7 +68,14 @@ pub fn lower(
     let (requirements, node_requirements) =
         requirements::lower_requirements(&blocks, &cases, source, &env, &mut diags);
     let yearly = crate::model::operation::OperationSettings {
-        profiles: load_profile::lower_profiles(&blocks, &cases, &requirements, &env, &mut diags),
+        profiles: load_profile::lower_profiles(
+            &blocks,
+            &cases,
+            &requirements,
+            &env,
+            files,
+            &mut diags,
+        ),
         costs: load_profile::lower_costs(&blocks, &pump_list, &env, &mut diags),
         rates: energy.rates,
         inflation: energy.inflation,

@@ -15,6 +15,7 @@ pub(crate) const MOTOR_FIELDS: &[&str] = &[
     "service_factor",
     "efficiency",
     "drive_efficiency",
+    "supply",
 ];
 /// The fields of `energy { ... }`.
 pub(crate) const ENERGY_FIELDS: &[&str] = &[
@@ -42,6 +43,9 @@ pub fn lower_motor(
         service_factor: f64::NAN,
         efficiency: None,
         drive_efficiency: None,
+        supply_hz: None,
+        motor_table: None,
+        drive_losses: None,
     };
     let f = read_fields(body.unwrap_or(&[]), "motor", MOTOR_FIELDS, d);
     for field in &f.fields {
@@ -68,6 +72,18 @@ pub fn lower_motor(
                     }
                     m.service_factor = v;
                 }
+                "supply" => {
+                    let q = expect_dim(field.value, env, Dimension::FREQUENCY, "supply frequency")?;
+                    if !((q.si - 50.0).abs() < 1e-9 || (q.si - 60.0).abs() < 1e-9) {
+                        return Err(Diagnostic::error(
+                            Code::OutOfRange,
+                            "the supply frequency is 50 Hz or 60 Hz",
+                            Some(field.value.span),
+                        )
+                        .with_help("IEC 60034-30-1 tabulates motor efficiency classes for 50 Hz and 60 Hz supplies only; write `supply = 50 Hz` or `supply = 60 Hz`"));
+                    }
+                    m.supply_hz = Some(q.si);
+                }
                 name => {
                     let v = expect_number(field.value, env, name)?;
                     if !(v > 0.3 && v <= 1.0) {
@@ -91,6 +107,7 @@ pub fn lower_motor(
             d.push(e);
         }
     }
+    super::motor_tables::lower_motor_tables(&f.rest, &mut m, d);
     if m.service_factor.is_nan() {
         // Common practice: NEMA open drip-proof motors carry SF 1.15; IEC ratings are used at SF 1.0.
         m.service_factor = if m.standard == MotorStandardChoice::Nema {

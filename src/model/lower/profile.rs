@@ -7,6 +7,7 @@ use uom::si::f64::{Length, Pressure, Time};
 use uom::si::{length::meter, pressure::pascal, time::second};
 
 use crate::diagnostics::{Code, Diagnostic, Span};
+use crate::hydraulics::flanges::{FlangeClass, FLANGE_KEYWORDS};
 use crate::model::design::{Profile, Restraint, Segment, WallData};
 use crate::model::eval::{self, expect_dim, expect_word, Env};
 use crate::model::fields::{read_fields, unknown_field};
@@ -355,6 +356,19 @@ pub fn set_wall_field(
         "joints" => {
             let w = expect_word(e, env, "joints", &["threaded", "plain"])?;
             wall.threaded = w == "threaded";
+        }
+        "flanges" => {
+            let w = expect_word(e, env, "flanges", FLANGE_KEYWORDS)?;
+            wall.flanges = FlangeClass::from_keyword(&w);
+        }
+        "rating_basis" => {
+            let w = expect_word(e, env, "rating basis", &["asme_b31_3", "awwa_m11"])?;
+            wall.m11 = w == "awwa_m11";
+        }
+        "yield_strength" => {
+            let q = expect_dim(e, env, Dimension::PRESSURE, "minimum yield strength")?;
+            let v = env.in_range(&ranges::YIELD_STRENGTH, q.si, e.span)?;
+            wall.yield_strength = Some(Pressure::new::<pascal>(v));
         }
         other => {
             return Err(Diagnostic::error(

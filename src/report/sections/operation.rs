@@ -6,8 +6,9 @@
 use crate::analysis::operation::{CandidateOperation, PointResult};
 use crate::analysis::Analysis;
 use crate::display::{percent, Units};
-use crate::model::operation::{Control, LoadProfile};
+use crate::model::operation::{Control, HourlyBinning, LoadProfile};
 use crate::model::Design;
+use crate::pumps::part_load::IEC_61800_9_2_POINTS;
 use crate::report::layout::chart::{Chart, Marker, Series, YAxis};
 use crate::report::layout::document::{Align, Block, CalloutKind, Column, Span};
 
@@ -28,6 +29,9 @@ pub(super) fn chapter(
     blocks.push(Block::heading(1, "Operation over the year"));
     method(blocks, design, units);
     for p in &design.operation.profiles {
+        if let Some(b) = &p.binning {
+            binning_table(blocks, p, b, units);
+        }
         profile_table(blocks, p, units);
     }
     for op in &analysis.operation {
@@ -38,8 +42,19 @@ pub(super) fn chapter(
     life_cycle(blocks, design, analysis);
     blocks.push(Block::Callout {
         kind: CalloutKind::Caution,
-        text: vec![Span::plain("The part-load motor and drive efficiencies are typical published curves, not the installed equipment's: obtain the motor maker's part-load data and the drive maker's losses declared at the IEC 61800-9-2 reference points before relying on the yearly energy. Control set points, the minimum speed and the minimum continuous flow are to be confirmed with the pump manufacturer; on/off duty is limited by the motor maker's permitted starts (NEMA MG 1 Part 12 or the maker's data). Surge on pump start and stop, and the pressure rating at shut-off head, are outside this chapter. The calculation is to be reviewed by a licensed engineer against the codes of the authority having jurisdiction.")],
+        text: vec![Span::plain(format!("{} Control set points, the minimum speed and the minimum continuous flow are to be confirmed with the pump manufacturer; on/off duty is limited by the motor maker's permitted starts (NEMA MG 1 Part 12 or the maker's data). Surge on pump start and stop, and the pressure rating at shut-off head, are outside this chapter. The calculation is to be reviewed by a licensed engineer against the codes of the authority having jurisdiction.", equipment_caution(design)))],
     });
+}
+
+/// The caution on part-load data: typical curves, or the design's tables to confirm.
+fn equipment_caution(design: &Design) -> &'static str {
+    let m = &design.motor;
+    match (m.motor_table.is_some(), m.drive_losses.is_some()) {
+        (true, true) => "The part-load motor efficiencies and drive losses are the design's tables: confirm them against the certified data of the motor and drive supplied.",
+        (true, false) => "The motor part-load efficiencies are the design's table; the drive losses are a typical published curve: obtain the drive maker's losses declared at the IEC 61800-9-2 reference points before relying on the yearly energy.",
+        (false, true) => "The drive losses are the design's IEC 61800-9-2 declaration; the motor part-load efficiencies are a typical published curve: obtain the motor maker's part-load data before relying on the yearly energy.",
+        (false, false) => "The part-load motor and drive efficiencies are typical published curves, not the installed equipment's: obtain the motor maker's part-load data and the drive maker's losses declared at the IEC 61800-9-2 reference points before relying on the yearly energy.",
+    }
 }
 
 fn method(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
@@ -57,7 +72,102 @@ fn method(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
     }
     blocks.push(Block::text("The set never gives less than the system head H_sys(Q). The speed ratio r that gives H_c at the flow per pump Q_p solves r²·H(Q_p/r) = H_c/n_s (affinity laws, Q ∝ N, H ∝ N², P ∝ N³, with the pump efficiency held at its published value at corresponding points: no reduced-speed efficiency correction is applied, which is optimistic well below the published speed). Below the minimum speed the set runs at the minimum speed and the surplus is throttled. Staging: of the counts of running pumps that deliver the point, the least input power among those keeping every pump within the allowable operating region, else the least input power."));
     blocks.push(Block::Equation("P_shaft = ρ·g·Q_p·H_p/η_p per pump;  η_m = η_m,FL · r_PL(P_shaft/P_rated);  P_in = P_shaft/η_m + P_loss,drive;  η_ww = ρ·g·Q·H/P_in".into()));
-    blocks.push(Block::text("r_PL is the typical motor part-load ratio of the Washington State Energy Office handbook (1993); the drive losses are P_loss = P_out·(1/η_d − 1) with η_d from the U.S. DOE Motor Systems Tip Sheet #11 (2012) against the drive's output fraction, scaled to the stated full-load drive efficiency. On/off: the set runs at its duty point; the share of time running is Q/Q_run, the specific energy is averaged over the level band by Simpson's rule (bottom, middle, top), and the worst starts per hour, at an inflow of half the pump flow, are Q_run/(4·V) with V the active volume."));
+    blocks.push(Block::text(format!("{} {} On/off: the set runs at its duty point; the share of time running is Q/Q_run, the specific energy is averaged over the level band by Simpson's rule (bottom, middle, top), and the worst starts per hour, at an inflow of half the pump flow, are Q_run/(4·V) with V the active volume.", motor_basis(design), drive_basis(design))));
+    maker_tables(blocks, design);
+}
+
+/// Which motor part-load efficiency is used, in one sentence.
+fn motor_basis(design: &Design) -> &'static str {
+    match design.motor.motor_table {
+        Some(_) => "Motor efficiency: the design's own table of efficiency against load fraction (below), linear between its points and held at its end values beyond them, in place of η_m,FL·r_PL.",
+        None => "r_PL is the typical motor part-load ratio of the Washington State Energy Office handbook (1993).",
+    }
+}
+
+/// Which drive losses are used, in one sentence.
+fn drive_basis(design: &Design) -> &'static str {
+    match design.motor.drive_losses {
+        Some(_) => "Drive losses: the design's declared losses at the eight IEC 61800-9-2 (2017) reference points of relative speed and torque (below), as a share of the drive rating (the motor's full-load input), at the motor's speed ratio and torque ratio (P_shaft/P_rated)/(N/N_rated); linear in torque between 25, 50 and 100 % and in speed between 0, 50 and 90 %, the undeclared (90 %, 25 %) point taken as p(50, 25) + p(90, 50) − p(50, 50), and the 50–90 % slope continued to full speed.",
+        None => "The drive losses are P_loss = P_out·(1/η_d − 1) with η_d from the U.S. DOE Motor Systems Tip Sheet #11 (2012) against the drive's output fraction, scaled to the stated full-load drive efficiency.",
+    }
+}
+
+/// The design's motor and drive tables, when it gives them.
+fn maker_tables(blocks: &mut Vec<Block>, design: &Design) {
+    if let Some(t) = &design.motor.motor_table {
+        blocks.push(Block::Table {
+            columns: vec![
+                Column::new("Load (share of nameplate)", 0.5, Align::Right),
+                Column::new("Motor efficiency", 0.5, Align::Right),
+            ],
+            rows: t
+                .iter()
+                .map(|(x, e)| vec![percent(*x), percent(*e)])
+                .collect(),
+            caption: Some(
+                "Motor efficiency at part load, given in the design (the motor maker's data)"
+                    .into(),
+            ),
+        });
+    }
+    if let Some(p) = &design.motor.drive_losses {
+        blocks.push(Block::Table {
+            columns: vec![
+                Column::new("Relative speed", 0.34, Align::Right),
+                Column::new("Relative torque", 0.33, Align::Right),
+                Column::new("Loss (share of drive rating)", 0.33, Align::Right),
+            ],
+            rows: IEC_61800_9_2_POINTS
+                .iter()
+                .zip(p)
+                .map(|((s, q), l)| vec![format!("{s:.0} %"), format!("{q:.0} %"), format!("{:.2} %", l * 100.0)])
+                .collect(),
+            caption: Some("Drive losses at the IEC 61800-9-2 reference points, given in the design (the drive maker's declaration)".into()),
+        });
+    }
+}
+
+/// How an hourly profile was summarised: every bin with its edges, hours and mean flow.
+fn binning_table(blocks: &mut Vec<Block>, p: &LoadProfile, b: &HourlyBinning, units: &Units) {
+    let fl = units.flow();
+    let n = b.hours.len();
+    blocks.push(Block::text(format!(
+        "The load profile of case {} is summarised from {} hourly flows (file {}): {n} bins of equal width from zero to the largest hourly flow, {} wide; an hour with flow Q falls in bin ⌊n·Q/Q_max⌋ + 1 (the largest flow in the last bin), and each bin runs its hours at the mean flow of those hours, so the year's delivered volume is kept exactly. {:.0} hours with zero flow need no pumping. Bins without hours are not load points.",
+        p.case,
+        b.rows,
+        b.source,
+        fl.fmt(b.edges.get(1).copied().unwrap_or(0.0)),
+        b.zero_hours
+    )));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Bin", 0.10, Align::Right),
+            Column::new(format!("From ({})", fl.label), 0.225, Align::Right),
+            Column::new(format!("To ({})", fl.label), 0.225, Align::Right),
+            Column::new("Hours (h)", 0.20, Align::Right),
+            Column::new(format!("Mean flow ({})", fl.label), 0.25, Align::Right),
+        ],
+        rows: (0..n)
+            .map(|k| {
+                let upper = if k + 1 == n { " (incl.)" } else { "" };
+                vec![
+                    (k + 1).to_string(),
+                    fl.figure(b.edges[k]),
+                    format!("{}{upper}", fl.figure(b.edges[k + 1])),
+                    format!("{:.0}", b.hours[k]),
+                    if b.hours[k] > 0.0 {
+                        fl.figure(b.mean_flow[k])
+                    } else {
+                        "—".into()
+                    },
+                ]
+            })
+            .collect(),
+        caption: Some(format!(
+            "Binning of the hourly flows of case {} ({} rows, {n} bins)",
+            p.case, b.rows
+        )),
+    });
 }
 
 fn profile_table(blocks: &mut Vec<Block>, p: &LoadProfile, units: &Units) {
