@@ -2,7 +2,9 @@
 //! The one place where outputs (report, text results, diff) turn SI into
 //! the units a reader sees. Factors are NIST SP 811 (2008), Appendix B.
 
+use crate::message::{Kind, Message, Part};
 use crate::model::ReportUnits;
+pub use crate::numbers::{count, significant, significant_trimmed, typeset};
 
 /// A unit of display: label, and SI value → displayed value.
 #[derive(Clone, Copy, Debug)]
@@ -69,19 +71,6 @@ pub fn percent_against(value: f64, limit: f64) -> (String, String) {
     let (a, b) = (100.0 * value, 100.0 * limit);
     let decimals = decimals_apart(1, a, b);
     (format!("{a:.decimals$} %"), format!("{b:.decimals$} %"))
-}
-
-/// A number with `decimals` places for print: the minus sign U+2212 for negatives,
-/// and a value that rounds to zero printed without a sign ("0.0", never "-0.0").
-pub fn typeset(value: f64, decimals: usize) -> String {
-    let text = format!("{value:.decimals$}");
-    match text.strip_prefix('-') {
-        Some(digits) if digits.chars().any(|c| c.is_ascii_digit() && c != '0') => {
-            format!("\u{2212}{digits}")
-        }
-        Some(digits) => digits.to_string(),
-        None => text,
-    }
 }
 
 /// A signed change for print, "+0.2 %", "−1.5 %", and "0.0 %" for a change that
@@ -433,6 +422,51 @@ impl Units {
     }
 }
 
+impl Units {
+    /// The report unit of a message quantity's kind.
+    pub fn of(&self, kind: Kind) -> Shown {
+        match kind {
+            Kind::Flow => self.flow(),
+            Kind::Head => self.head(),
+            Kind::Elevation => self.elevation(),
+            Kind::Length => self.length(),
+            Kind::Diameter => self.diameter(),
+            Kind::Pressure => self.pressure(),
+            Kind::Rating => self.rating(),
+            Kind::Power => self.power(),
+            Kind::Velocity => self.velocity(),
+            Kind::WaveSpeed => self.wave_speed(),
+            Kind::Temperature => self.temperature(),
+            Kind::Speed => self.speed(),
+            Kind::Energy => self.energy(),
+            Kind::SpecificEnergy => self.specific_energy(),
+            Kind::Volume => self.volume(),
+        }
+    }
+
+    /// A typed message in these units: each quantity with its report unit.
+    pub fn render(&self, message: &Message) -> String {
+        let mut out = String::new();
+        for part in &message.parts {
+            match part {
+                Part::Text(text) => out.push_str(text),
+                Part::Value(kind, si) => out.push_str(&self.of(*kind).fmt(*si)),
+                Part::Against(kind, si, other) => {
+                    out.push_str(&self.of(*kind).fmt_against(*si, *other).0)
+                }
+                Part::Typeset(kind, si) => out.push_str(&self.of(*kind).text(*si)),
+                Part::Figure(kind, si) => out.push_str(&self.of(*kind).figure(*si)),
+                Part::Percent(f) => out.push_str(&percent(*f)),
+                Part::PercentAgainst(f, other) => out.push_str(&percent_against(*f, *other).0),
+                Part::RatioAgainst(r, other) => out.push_str(&ratio_against(*r, *other).0),
+                Part::Significant(v, digits) => out.push_str(&significant_trimmed(*v, *digits)),
+                Part::VolumeCostUnit => out.push_str(self.volume_cost_unit()),
+            }
+        }
+        out
+    }
+}
+
 /// A pipe's material and size as a reader of these units expects them: the material in
 /// words, an inch nominal size as its DN in SI (and a DN as inches in US units), and a
 /// given bore as its inner diameter in report units. `label` is the size as written.
@@ -452,53 +486,41 @@ pub fn pipe(material_keyword: &str, label: &str, inner_diameter_m: f64, units: &
     format!("{} {size}", material_keyword.replace('_', " "))
 }
 
-/// A count with its noun: "1 warning", "5 warnings".
-pub fn count(n: usize, one: &str, many: &str) -> String {
-    format!("{n} {}", if n == 1 { one } else { many })
-}
-
 /// A fraction as a percentage, "76.5 %".
 pub fn percent(f: f64) -> String {
     format!("{:.1} %", 100.0 * f)
 }
 
-/// `value` to `digits` significant figures for print (trailing zeros kept, so a column
-/// of costs reads alike: "0.04924", "0.03290"), with the minus sign of [`typeset`].
-pub fn significant(value: f64, digits: usize) -> String {
-    typeset(value, significant_decimals(value, digits))
-}
-
-/// As [`significant`] with trailing zeros dropped, for a value quoted in a sentence
-/// ("0.118 USD/kWh").
-pub fn significant_trimmed(value: f64, digits: usize) -> String {
-    let text = significant(value, digits);
-    if text.contains('.') {
-        text.trim_end_matches('0').trim_end_matches('.').to_string()
-    } else {
-        text
-    }
-}
-
-/// Decimals that give `value` `digits` significant figures (none for large values).
-fn significant_decimals(value: f64, digits: usize) -> usize {
-    if value == 0.0 || !value.is_finite() {
-        return digits.saturating_sub(1);
-    }
-    let magnitude = value.abs().log10().floor() as i64;
-    (digits as i64 - 1 - magnitude).clamp(0, 12) as usize
-}
-
 #[cfg(test)]
-mod significant_tests {
+mod render_tests {
     use super::*;
+    use crate::message::{flow, Kind, Part};
 
     #[test]
-    fn significant_figures_keep_or_drop_zeros() {
-        assert_eq!(significant(0.049236, 4), "0.04924");
-        assert_eq!(significant(0.0329, 4), "0.03290");
-        assert_eq!(significant(-0.0329, 2), "\u{2212}0.033");
-        assert_eq!(significant(70692.4, 4), "70692");
-        assert_eq!(significant_trimmed(0.118, 4), "0.118");
-        assert_eq!(significant_trimmed(0.21, 4), "0.21");
+    fn a_message_is_worded_in_the_report_units() {
+        let m = crate::message!["flow ", flow(0.0630902), " at ", Part::Percent(0.765)];
+        // 1 gpm = 6.30902e-5 m³/s (NIST SP 811, Appendix B): 0.0630902 m³/s = 1000 gpm.
+        assert_eq!(
+            Units::new(ReportUnits::Us).render(&m),
+            "flow 1000 gpm at 76.5 %"
+        );
+        assert_eq!(
+            Units::new(ReportUnits::Si).render(&m),
+            "flow 227.1 m³/h at 76.5 %"
+        );
+    }
+
+    #[test]
+    fn a_value_and_its_limit_never_read_alike() {
+        // 1.4996 and 1.5004 m/s both round to "1.50 m/s" at the usual two decimals.
+        let m = crate::message![
+            Part::Against(Kind::Velocity, 1.5004, 1.4996),
+            " above ",
+            Part::Against(Kind::Velocity, 1.4996, 1.5004)
+        ];
+        assert_eq!(
+            Units::new(ReportUnits::Si).render(&m),
+            "1.5004 m/s above 1.4996 m/s"
+        );
     }
 }

@@ -76,8 +76,10 @@ pub mod display;
 pub mod fluid;
 pub mod hydraulics;
 pub mod lsp;
+pub mod message;
 pub mod model;
 pub mod names;
+pub mod numbers;
 pub mod pumps;
 pub mod report;
 pub mod results;
@@ -113,9 +115,11 @@ pub fn check(source: &str, files: &dyn FileAccess) -> Checked {
             let (mut design, mut diagnostics) = model::lower(&file, source, files);
             // Cases whose water cannot be analysed are errors at check time (issue 10.5).
             if let Some(d) = &design {
-                let mut water = model::vacuum::absolute_pressure_errors(d);
+                let units = display::Units::new(d.project.units);
+                let render = |m: &message::Message| units.render(m);
+                let mut water = model::vacuum::absolute_pressure_errors(d, &render);
                 if water.is_empty() {
-                    water = model::scenario::water_state_errors(d);
+                    water = model::scenario::water_state_errors(d, &render);
                 }
                 if !water.is_empty() {
                     diagnostics.extend(water);

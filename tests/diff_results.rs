@@ -29,8 +29,8 @@ fn revisions() -> (Design, Analysis, Design, Analysis) {
 
 #[test]
 fn drought_appears_and_every_common_case_and_pump_has_a_row() {
-    let (_, aa, _, ab) = revisions();
-    let r = diff::diff_analyses(&aa, &ab);
+    let (_, aa, b, ab) = revisions();
+    let r = diff::diff_analyses(&aa, &ab, &dutyline::display::Units::new(b.project.units));
     assert_eq!(r.cases_added, vec!["drought".to_string()]);
     assert!(r.cases_removed.is_empty() && r.pumps_added.is_empty() && r.pumps_removed.is_empty());
     let expected: Vec<(String, String)> = ab
@@ -149,7 +149,7 @@ fn requirement_checks_that_change_status_are_listed() {
     );
     let (a, aa) = compile(&old_src);
     let (b, ab) = compile(&new_src);
-    let r = diff::diff_analyses(&aa, &ab);
+    let r = diff::diff_analyses(&aa, &ab, &dutyline::display::Units::new(b.project.units));
     let key = "requirement npsh_margin >= …";
     // Expected from the analyses themselves: every case × pump whose status differs.
     let status = |an: &Analysis, case: &str, pump: &str| {

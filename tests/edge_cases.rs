@@ -1,6 +1,8 @@
 //! Numerical edge cases: each small invented system gives a clear warning or a failing
 //! check, and nothing non-finite reaches the results (JSON, the analysis, the PDF).
 
+mod common;
+use common::said;
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::Analysis;
@@ -64,12 +66,12 @@ impl Run {
             .find(|p| p.name == name)
             .expect("pump result")
     }
-    fn analysis_warning(&self, code: Code) -> Option<&str> {
+    fn analysis_warning(&self, code: Code) -> Option<String> {
         self.analysis
             .warnings
             .iter()
             .find(|w| w.code == code)
-            .map(|w| w.message.as_str())
+            .map(|w| said(&self.analysis, &w.message))
     }
 }
 
@@ -174,7 +176,11 @@ fn check<'a>(p: &'a PumpResult, id: &str) -> &'a dutyline::analysis::checks::Che
 }
 
 fn has_warning(p: &PumpResult, fragment: &str) -> bool {
-    p.warnings.iter().any(|w| w.contains(fragment))
+    // The edge designs are in SI units.
+    let units = dutyline::display::Units::new(dutyline::model::ReportUnits::Si);
+    p.warnings
+        .iter()
+        .any(|w| units.render(w).contains(fragment))
 }
 
 #[test]
@@ -222,9 +228,9 @@ fn negative_static_head_warns_and_an_oversized_pump_finds_no_duty() {
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
     assert!(
-        c.message.contains("no published data there"),
+        said(&r.analysis, &c.message).contains("no published data there"),
         "{}",
-        c.message
+        said(&r.analysis, &c.message)
     );
 }
 
@@ -301,9 +307,9 @@ fn two_metre_bore_gives_a_flat_system_curve() {
     );
     let v = check(p, "velocity");
     assert!(
-        v.message.contains("below the typical range"),
+        said(&r.analysis, &v.message).contains("below the typical range"),
         "{}",
-        v.message
+        said(&r.analysis, &v.message)
     );
     // Far right of the best efficiency point on a flat system curve.
     assert_eq!(check(p, "operating-region").status, Status::Fail);
@@ -326,7 +332,11 @@ fn six_millimetre_bore_chokes_the_pump_to_shut_off() {
     assert!(d.flow > 0.0 && d.flow < 1e-4, "flow {}", d.flow);
     let c = check(p, "operating-region");
     assert_eq!(c.status, Status::Fail);
-    assert!(c.message.contains("0 % of BEP flow"), "{}", c.message);
+    assert!(
+        said(&r.analysis, &c.message).contains("0 % of BEP flow"),
+        "{}",
+        said(&r.analysis, &c.message)
+    );
 }
 
 #[test]
@@ -362,8 +372,16 @@ fn pump_below_the_static_head_fails_with_both_heads() {
     assert!(p.duty.is_none());
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
-    assert!(c.message.contains("shut-off head 49.89 m"), "{}", c.message);
-    assert!(c.message.contains("static head 60.00 m"), "{}", c.message);
+    assert!(
+        said(&r.analysis, &c.message).contains("shut-off head 49.89 m"),
+        "{}",
+        said(&r.analysis, &c.message)
+    );
+    assert!(
+        said(&r.analysis, &c.message).contains("static head 60.00 m"),
+        "{}",
+        said(&r.analysis, &c.message)
+    );
     assert_eq!(c.limit, Some(60.0));
     assert!(p.failure.is_some());
     assert!(r.analysis.selection.recommended.is_none());
@@ -419,9 +437,9 @@ fn duty_past_the_last_curve_point_fails_with_no_published_data() {
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
     assert!(
-        c.message.contains("no published data there"),
+        said(&r.analysis, &c.message).contains("no published data there"),
         "{}",
-        c.message
+        said(&r.analysis, &c.message)
     );
     // The value is the flow per pump, the limit the end of the published curve (80 m³/h).
     let (value, limit) = (c.value.expect("flow"), c.limit.expect("end"));
@@ -437,9 +455,9 @@ fn duty_past_the_last_curve_point_fails_with_no_published_data() {
     let c = check(p, "duty-point");
     assert_eq!(c.status, Status::Fail);
     assert!(
-        c.message.contains("no published data there"),
+        said(&r.analysis, &c.message).contains("no published data there"),
         "{}",
-        c.message
+        said(&r.analysis, &c.message)
     );
 }
 
@@ -463,15 +481,15 @@ fn parallel_pair_is_on_its_curve_where_one_pump_alone_runs_off_it() {
     // The same pump alone on this system runs past the end of its curve: it fails, and
     // so does the parallel set's one-pump-alone check in the same case.
     assert!(one.duty.is_none());
-    assert!(check(one, "duty-point")
-        .message
-        .contains("no published data there"));
+    assert!(
+        said(&r.analysis, &check(one, "duty-point").message).contains("no published data there")
+    );
     let alone = check(pair, "one-pump-alone");
     assert_eq!(alone.status, Status::Fail);
     assert!(
-        alone.message.contains("no published data there"),
+        said(&r.analysis, &alone.message).contains("no published data there"),
         "{}",
-        alone.message
+        said(&r.analysis, &alone.message)
     );
     // The JSON documents the arrangement and the per-pump duty.
     let j = &r.json["cases"][0]["pumps"][1];
@@ -503,7 +521,11 @@ fn boiling_water_with_a_suction_lift_has_negative_npsh() {
     assert!(d.npsh_available < 0.0);
     let c = check(p, "npsh-margin");
     assert_eq!(c.status, Status::Fail);
-    assert!(c.message.contains("cavitate"), "{}", c.message);
+    assert!(
+        said(&r.analysis, &c.message).contains("cavitate"),
+        "{}",
+        said(&r.analysis, &c.message)
+    );
     assert!(r.analysis.selection.recommended.is_none());
 }
 

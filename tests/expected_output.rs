@@ -89,7 +89,13 @@ fn checked_and_analysed(source: &str) -> Vec<dutyline::diagnostics::Diagnostic> 
     let mut all = checked.diagnostics;
     if let Some(design) = checked.design {
         let analysis = dutyline::analysis::analyse(&design);
-        all.extend(analysis.warnings.iter().map(|w| w.diagnostic()));
+        let units = dutyline::display::Units::new(design.project.units);
+        all.extend(
+            analysis
+                .warnings
+                .iter()
+                .map(|w| w.diagnostic(|m| units.render(m))),
+        );
     }
     all
 }

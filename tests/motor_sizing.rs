@@ -4,6 +4,7 @@
 //! fails, and sites above 1000 m are warned about.
 
 mod common;
+use common::said;
 use dutyline::analysis::checks::Status;
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::Analysis;
@@ -89,12 +90,16 @@ fn a_duty_needing_5_64_hp_gets_7_5_hp_not_5_hp() {
     assert!(m.choice.within_nameplate && m.choice.non_overloading);
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Pass);
-    assert!(c.message.contains("margin only"), "{}", c.message);
+    assert!(
+        said(&a, &c.message).contains("margin only"),
+        "{}",
+        said(&a, &c.message)
+    );
     // A US package: hp, no kW, in the message.
     assert!(
-        c.message.contains("5.64 hp") && !c.message.contains("kW"),
+        said(&a, &c.message).contains("5.64 hp") && !said(&a, &c.message).contains("kW"),
         "{}",
-        c.message
+        said(&a, &c.message)
     );
 }
 
@@ -141,7 +146,11 @@ fn a_stated_nameplate_below_the_duty_fails() {
     assert!((m.choice.loading_ratio - 1.128).abs() < 1e-9);
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Fail);
-    assert!(c.message.contains("above the nameplate"), "{}", c.message);
+    assert!(
+        said(&a, &c.message).contains("above the nameplate"),
+        "{}",
+        said(&a, &c.message)
+    );
     assert!(a.selection.recommended.is_none());
 }
 
@@ -177,11 +186,15 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Warn);
     assert!(
-        c.message.contains("400 gpm") && c.message.contains("case normal"),
+        said(&a, &c.message).contains("400 gpm") && said(&a, &c.message).contains("case normal"),
         "{}",
-        c.message
+        said(&a, &c.message)
     );
-    assert!(c.message.contains("overloads"), "{}", c.message);
+    assert!(
+        said(&a, &c.message).contains("overloads"),
+        "{}",
+        said(&a, &c.message)
+    );
 }
 
 #[test]
@@ -215,8 +228,12 @@ fn run_out_above_nameplate_times_service_factor_fails_and_selection_is_non_overl
     );
     let (_, a) = analyse(&src);
     let c = motor_check(pump(&a, 0));
-    assert_eq!(c.status, Status::Fail, "{}", c.message);
-    assert!(c.message.contains("service factor"), "{}", c.message);
+    assert_eq!(c.status, Status::Fail, "{}", said(&a, &c.message));
+    assert!(
+        said(&a, &c.message).contains("service factor"),
+        "{}",
+        said(&a, &c.message)
+    );
     assert!(a.selection.recommended.is_none());
 }
 
@@ -232,7 +249,7 @@ fn on_a_variable_frequency_drive_the_service_factor_is_one() {
     let m = a.motor_sizing[0].as_ref().expect("motor");
     assert!(m.variable_speed);
     assert_eq!(m.choice.service_factor, 1.0);
-    assert!(motor_check(pump(&a, 0)).message.contains("taken as 1.0"));
+    assert!(said(&a, &motor_check(pump(&a, 0)).message).contains("taken as 1.0"));
     // Input power counts the drive: 97 % by default (common practice).
     let d = pump(&a, 0).duty.as_ref().expect("duty");
     assert_eq!(d.drive_efficiency, 0.97);
@@ -282,12 +299,20 @@ fn sites_above_1000_m_warn_that_ratings_hold_to_1000_m_and_40_c() {
         .find(|w| w.code == Code::MotorAltitude)
         .expect("altitude warning");
     // 1000 m = 3280.8 ft; 40 °C = 104.0 °F; US units only.
-    assert!(w.message.contains("3280.8 ft"), "{}", w.message);
-    assert!(w.message.contains("104.0 °F"), "{}", w.message);
     assert!(
-        !w.message.contains(" m ") && !w.message.contains("°C"),
+        said(&a, &w.message).contains("3280.8 ft"),
         "{}",
-        w.message
+        said(&a, &w.message)
+    );
+    assert!(
+        said(&a, &w.message).contains("104.0 °F"),
+        "{}",
+        said(&a, &w.message)
+    );
+    assert!(
+        !said(&a, &w.message).contains(" m ") && !said(&a, &w.message).contains("°C"),
+        "{}",
+        said(&a, &w.message)
     );
     // 3000 ft (914 m) is below the limit: no warning.
     let src = src.replace("elevation = 4000 ft", "elevation = 3000 ft");

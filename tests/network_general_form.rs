@@ -3,6 +3,8 @@
 //! chain itself, within the network solver's tolerance; a second reservoir splits the
 //! flow, and design errors in the network statements are located.
 
+mod common;
+use common::said;
 use dutyline::analysis::{analyse, Analysis};
 use dutyline::NoFiles;
 
@@ -136,7 +138,7 @@ fn statuses(a: &Analysis, id: &str) -> Vec<(String, &'static str)> {
         .flat_map(|c| &c.pumps)
         .flat_map(|p| &p.checks)
         .filter(|k| k.id.as_str() == id)
-        .map(|k| (k.message.clone(), k.status.keyword()))
+        .map(|k| (said(a, &k.message), k.status.keyword()))
         .collect()
 }
 

@@ -2,6 +2,8 @@
 //! the cases whose static head lies in the band where the curve is crossed twice, a
 //! caution for parallel sets, and a remark in the selection (issue 16).
 
+mod common;
+use common::said;
 use dutyline::analysis::{analyse, Analysis};
 
 /// An invented SI lift: 41 m static head in case `normal`, 35 m in case `low`.
@@ -43,11 +45,11 @@ fn analysed(src: &str) -> Analysis {
     analyse(checked.design.as_ref().unwrap())
 }
 
-fn unstable(a: &Analysis) -> Vec<&str> {
+fn unstable(a: &Analysis) -> Vec<String> {
     a.warnings
         .iter()
         .filter(|w| w.code.as_str() == "unstable-curve")
-        .map(|w| w.message.as_str())
+        .map(|w| said(a, &w.message))
         .collect()
 }
 
@@ -58,7 +60,7 @@ fn a_rising_curve_names_its_flow_range_rise_and_the_case_in_the_band() {
     let a = analysed(&design("", RISING, LEVELS));
     let w = unstable(&a);
     assert_eq!(w.len(), 1, "{w:?}");
-    let w = w[0];
+    let w = &w[0];
     // The least-squares quadratic of the five points, solved by hand from the normal
     // equations in exact fractions (Python `fractions`): H = 39.9143 + 0.443571 q
     // − 0.00660714 q² (q in m³/h), vertex at q = 33.568 m³/h, H = 47.3591 m, rise 7.4448 m.
@@ -100,7 +102,7 @@ fn a_slower_speed_moves_the_band_by_the_affinity_laws() {
         "case low { b.level = 45 m, P.speed = 1575 rpm }\ncase fast { }",
     );
     let a = analysed(&design("", RISING, levels));
-    let w = unstable(&a)[0];
+    let w = &unstable(&a)[0];
     assert!(w.contains("in case low the static head 35.00 m"), "{w}");
     assert!(w.contains("32.33 m to 38.36 m"), "{w}");
     assert!(w.contains("in case normal the static head 41.00 m"), "{w}");
@@ -110,7 +112,7 @@ fn a_slower_speed_moves_the_band_by_the_affinity_laws() {
 fn a_parallel_set_with_a_rising_curve_is_cautioned() {
     let extra = "    arrangement = parallel\n    count = 2\n";
     let a = analysed(&design(extra, RISING, LEVELS));
-    let w = unstable(&a)[0];
+    let w = &unstable(&a)[0];
     assert!(w.contains("in a parallel set of 2"), "{w}");
     assert!(w.contains("hunt"), "{w}");
     // Heads do not add in parallel: the same band holds case normal.

@@ -7,7 +7,7 @@ use super::checks::Status;
 use super::limits::CheckId;
 use super::{CaseResult, Warning};
 use crate::diagnostics::Code;
-use crate::display::Units;
+use crate::message::{Kind, Message, Part};
 use crate::model::{Design, Metric};
 
 /// One requirement across the cases.
@@ -15,8 +15,8 @@ use crate::model::{Design, Metric};
 pub struct RequirementRow {
     /// As written in the design (the diff's key).
     pub written: String,
-    /// In report units and plain words.
-    pub text: String,
+    /// In plain words with its limit (printed in report units).
+    pub text: Message,
     /// Per case (design order): whether the requirement applies there.
     pub applies: Vec<bool>,
     /// Per candidate (design order), per case: the requirement check's status where it applies.
@@ -25,7 +25,6 @@ pub struct RequirementRow {
 
 /// The requirement × case matrix.
 pub fn requirement_matrix(design: &Design, cases: &[CaseResult]) -> Vec<RequirementRow> {
-    let units = Units::new(design.project.units);
     design
         .requirements
         .iter()
@@ -54,7 +53,7 @@ pub fn requirement_matrix(design: &Design, cases: &[CaseResult]) -> Vec<Requirem
                 .collect();
             RequirementRow {
                 written: r.text.clone(),
-                text: super::checks::requirement_text(&units, r),
+                text: super::checks::requirement_text(r),
                 applies,
                 status,
             }
@@ -78,8 +77,6 @@ pub fn capacity_table(design: &Design, cases: &[CaseResult]) -> Vec<Vec<Option<f
 /// A warning per candidate × case without a flow requirement of its own whose
 /// capacity at the limit is below the largest flow requirement of another case.
 pub fn governing_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
-    let units = Units::new(design.project.units);
-    let fl = units.flow();
     let own = |name: &str| super::duty::required_flow(design, name);
     // The largest stated `flow >=` requirement and its case.
     let Some((q_max, governing)) = cases
@@ -103,13 +100,15 @@ pub fn governing_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning>
                 continue;
             };
             if any_flow_requirement && q < q_max {
-                let (qs, ms) = fl.fmt_against(q, q_max);
                 out.push(Warning {
                     code: Code::GoverningCase,
-                    message: format!(
-                        "pump {}: in case {} the set delivers {qs} at its limit (maximum speed, largest impeller allowed), below the {ms} required in case {governing}; if case {} must deliver that flow, give it its own flow requirement",
-                        p.name, c.name, c.name
-                    ),
+                    message: crate::message![
+                        format!("pump {}: in case {} the set delivers ", p.name, c.name),
+                        Part::Against(Kind::Flow, q, q_max),
+                        " at its limit (maximum speed, largest impeller allowed), below the ",
+                        Part::Against(Kind::Flow, q_max, q),
+                        format!(" required in case {governing}; if case {} must deliver that flow, give it its own flow requirement", c.name)
+                    ],
                     span: design.cases.iter().find(|d| d.name == c.name).map(|d| d.span),
                 });
             }

@@ -1,13 +1,14 @@
 //! The checks a reviewer asks for, each with its value, limit, status and the
 //! source of its limit (the limits and their sources live in [`super::limits`]).
 //!
-//! Messages are in the design's report units, never in input syntax; limits are
+//! Messages are typed ([`Message`]: words and SI quantities with their kinds), never
+//! input syntax; the outputs print them in the design's report units. Limits are
 //! compared in SI and printed so that a value and its limit never contradict each
-//! other after rounding ([`crate::display::Shown::fmt_against`]).
+//! other after rounding ([`Part::Against`]).
 
 use super::duty::{Duty, Headroom};
 use super::limits::{self, CheckId, Limit, Source};
-use crate::display::Units;
+use crate::message::{self, flow, head, Kind, Message, Part};
 use crate::model::{Case, Design, Metric, PumpCandidate, Requirement};
 
 /// The outcome of a check.
@@ -43,8 +44,8 @@ pub struct Check {
     pub value: Option<f64>,
     /// The limit it is compared with, in the same unit.
     pub limit: Option<f64>,
-    /// In report units, plain language.
-    pub message: String,
+    /// Plain language with typed quantities (printed in report units by the outputs).
+    pub message: Message,
     /// Where the limit comes from, as printed (`origin.text()`).
     pub source: String,
     /// Where the limit comes from, typed.
@@ -61,7 +62,7 @@ impl Check {
         status: Status,
         value: Option<f64>,
         limit: Option<f64>,
-        message: String,
+        message: impl Into<Message>,
         origin: Source,
     ) -> Check {
         Check {
@@ -69,7 +70,7 @@ impl Check {
             status,
             value,
             limit,
-            message,
+            message: message.into(),
             source: origin.text(),
             origin,
             subject: None,
@@ -124,46 +125,44 @@ pub fn npsh_ratio_limit(design: &Design, case: &Case) -> Limit {
 
 /// Checks of one duty point that need nothing beyond the case.
 pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) -> Vec<Check> {
-    let units = Units::new(design.project.units);
     let mut out = vec![operating_region(d)];
     out.push(npsh_margin(
-        &units,
         d.npsh_available,
         d.npsh_required,
         npsh_ratio_limit(design, case),
     ));
-    out.extend(velocity_checks(&units, d));
+    out.extend(velocity_checks(d));
     for r in design.requirements.iter().filter(|r| applies(r, case)) {
-        out.push(requirement_check(&units, r, d));
+        out.push(requirement_check(r, d));
     }
-    out.extend(minimum_flow(&units, d, p));
+    out.extend(minimum_flow(d, p));
     out
 }
 
 /// Flow per pump against the stated minimum continuous flow (the manufacturer's
 /// value; running below it overheats the liquid and loads the bearings, common practice).
-fn minimum_flow(units: &Units, d: &Duty, p: &PumpCandidate) -> Option<Check> {
+fn minimum_flow(d: &Duty, p: &PumpCandidate) -> Option<Check> {
     let min = p
         .min_flow?
         .get::<uom::si::volume_rate::cubic_meter_per_second>();
-    let fl = units.flow();
     let ok = d.flow_per_pump >= min;
     Some(Check::typed(
         CheckId::MinimumFlow,
         if ok { Status::Pass } else { Status::Fail },
         Some(d.flow_per_pump),
         Some(min),
-        format!(
-            "flow per pump {} is {} the minimum continuous flow {}{}",
-            fl.fmt(d.flow_per_pump),
-            if ok { "at or above" } else { "below" },
-            fl.fmt(min),
+        crate::message![
+            "flow per pump ",
+            flow(d.flow_per_pump),
+            if ok { " is at or above" } else { " is below" },
+            " the minimum continuous flow ",
+            flow(min),
             if ok {
                 ""
             } else {
                 ": add a minimum-flow bypass or choose a smaller pump"
             }
-        ),
+        ],
         Source::DesignData("the manufacturer's minimum continuous flow stated in the design"),
     ))
 }
@@ -175,7 +174,7 @@ fn operating_region(d: &Duty) -> Check {
             Status::Warn,
             None,
             None,
-            "no efficiency data: the best efficiency point is unknown".into(),
+            "no efficiency data: the best efficiency point is unknown",
             Source::DesignData("pump curve data"),
         );
     };
@@ -214,8 +213,7 @@ fn operating_region(d: &Duty) -> Check {
 }
 
 /// NPSH available against NPSH required (NPSH3, 3 % head drop) at one point.
-pub fn npsh_margin(units: &Units, available: f64, required: Option<f64>, ratio: Limit) -> Check {
-    let hd = units.head();
+pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check {
     let Some(nr) = required.filter(|n| *n > 0.0) else {
         return Check::typed(
             CheckId::NpshMargin,
@@ -226,10 +224,11 @@ pub fn npsh_margin(units: &Units, available: f64, required: Option<f64>, ratio: 
             },
             None,
             Some(ratio.value),
-            format!(
-                "NPSH available is {}; the curve gives no NPSH required at this flow: obtain it from the manufacturer",
-                hd.fmt(available)
-            ),
+            crate::message![
+                "NPSH available is ",
+                head(available),
+                "; the curve gives no NPSH required at this flow: obtain it from the manufacturer"
+            ],
             ratio.source,
         );
     };
@@ -242,20 +241,33 @@ pub fn npsh_margin(units: &Units, available: f64, required: Option<f64>, ratio: 
     } else {
         Status::Pass
     };
-    let (rs, ls) = crate::display::ratio_against(r, ratio.value);
+    let limit_ratio = Part::RatioAgainst(ratio.value, r);
     let mut msg = if available <= 0.0 {
-        format!(
-            "NPSH available is {} (zero or negative): the liquid boils before it reaches the impeller; NPSH required {} (limit ratio {ls})",
-            hd.fmt(available),
-            hd.fmt(nr)
-        )
+        crate::message![
+            "NPSH available is ",
+            head(available),
+            " (zero or negative): the liquid boils before it reaches the impeller; NPSH required ",
+            head(nr),
+            " (limit ratio ",
+            limit_ratio,
+            ")"
+        ]
     } else {
-        let (es, el) = hd.fmt_against(excess, MIN_NPSH_EXCESS_M);
-        format!(
-            "NPSH available {} is {rs} times the NPSH required {} (limit {ls}); excess {es} (at least {el})",
-            hd.fmt(available),
-            hd.fmt(nr)
-        )
+        crate::message![
+            "NPSH available ",
+            head(available),
+            " is ",
+            Part::RatioAgainst(r, ratio.value),
+            " times the NPSH required ",
+            head(nr),
+            " (limit ",
+            limit_ratio,
+            "); excess ",
+            message::against(Kind::Head, excess, MIN_NPSH_EXCESS_M),
+            " (at least ",
+            message::against(Kind::Head, MIN_NPSH_EXCESS_M, excess),
+            ")"
+        ]
     };
     if available <= nr {
         msg.push_str(": the pump will cavitate");
@@ -275,8 +287,7 @@ pub fn npsh_margin(units: &Units, available: f64, required: Option<f64>, ratio: 
     )
 }
 
-fn velocity_checks(units: &Units, d: &Duty) -> Vec<Check> {
-    let vel = units.velocity();
+fn velocity_checks(d: &Duty) -> Vec<Check> {
     let mut out = Vec::new();
     for (label, v, (lo, hi)) in [
         ("suction", d.suction_velocity, SUCTION_VELOCITY),
@@ -298,16 +309,22 @@ fn velocity_checks(units: &Units, d: &Duty) -> Vec<Check> {
         } else {
             (Status::Pass, "within the typical range", hi)
         };
-        let (vs, _) = vel.fmt_against(v, bound);
-        let (los, _) = vel.fmt_against(lo, v);
-        let (his, _) = vel.fmt_against(hi, v);
+        let speed = |si, other| message::against(Kind::Velocity, si, other);
         out.push(
             Check::typed(
                 CheckId::Velocity,
                 status,
                 Some(v),
                 Some(hi),
-                format!("{label} velocity at the pump {vs}, {note} ({los} to {his})"),
+                crate::message![
+                    format!("{label} velocity at the pump "),
+                    speed(v, bound),
+                    format!(", {note} ("),
+                    speed(lo, v),
+                    " to ",
+                    speed(hi, v),
+                    ")"
+                ],
                 limits::SUCTION_VELOCITY_LOW.source,
             )
             .about(label),
@@ -316,19 +333,19 @@ fn velocity_checks(units: &Units, d: &Duty) -> Vec<Check> {
     out
 }
 
-/// A requirement in report units and plain words: "flow at least 560.0 m³/h (case peak)".
-pub fn requirement_text(units: &Units, r: &Requirement) -> String {
+/// A requirement in plain words: "flow at least 560.0 m³/h (case peak)" in report units.
+pub fn requirement_text(r: &Requirement) -> Message {
     let word = if r.at_least { "at least" } else { "at most" };
     let cases = match r.cases.len() {
         0 => String::new(),
         1 => format!(" (case {})", r.cases[0]),
         _ => format!(" (cases {})", r.cases.join(", ")),
     };
-    format!(
-        "{} {word} {}{cases}",
-        metric_words(r.metric),
-        metric_value(units, r.metric, r.limit_si)
-    )
+    crate::message![
+        format!("{} {word} ", metric_words(r.metric)),
+        metric_value(r.metric, r.limit_si),
+        cases
+    ]
 }
 
 fn metric_words(m: Metric) -> &'static str {
@@ -344,19 +361,19 @@ fn metric_words(m: Metric) -> &'static str {
     }
 }
 
-/// A value of a requirement's quantity in report units.
-pub fn metric_value(units: &Units, m: Metric, si: f64) -> String {
+/// A value of a requirement's quantity (SI, or a fraction or ratio) as a message part.
+pub fn metric_value(m: Metric, si: f64) -> Part {
     match m {
-        Metric::Flow => units.flow().fmt(si),
-        Metric::Head | Metric::NpshExcess => units.head().fmt(si),
-        Metric::NpshMargin => format!("{si:.2}"),
-        Metric::Efficiency => crate::display::percent(si),
-        Metric::SuctionVelocity | Metric::DischargeVelocity => units.velocity().fmt(si),
-        Metric::ShaftPower => units.power().fmt(si),
+        Metric::Flow => flow(si),
+        Metric::Head | Metric::NpshExcess => head(si),
+        Metric::NpshMargin => Part::Text(format!("{si:.2}")),
+        Metric::Efficiency => Part::Percent(si),
+        Metric::SuctionVelocity | Metric::DischargeVelocity => message::value(Kind::Velocity, si),
+        Metric::ShaftPower => message::value(Kind::Power, si),
     }
 }
 
-fn requirement_check(units: &Units, r: &Requirement, d: &Duty) -> Check {
+fn requirement_check(r: &Requirement, d: &Duty) -> Check {
     let value = match r.metric {
         Metric::Flow => Some(d.flow),
         Metric::Head => Some(d.head),
@@ -370,7 +387,7 @@ fn requirement_check(units: &Units, r: &Requirement, d: &Duty) -> Check {
         Metric::DischargeVelocity => d.discharge_velocity,
         Metric::ShaftPower => d.shaft_power,
     };
-    let text = requirement_text(units, r);
+    let text = requirement_text(r);
     let check = match value {
         Some(v) => {
             // A solved duty meets its target to the solver's tolerance (1e-9 relative).
@@ -385,11 +402,12 @@ fn requirement_check(units: &Units, r: &Requirement, d: &Duty) -> Check {
                 if ok { Status::Pass } else { Status::Fail },
                 Some(v),
                 Some(r.limit_si),
-                format!(
-                    "{text}: {}, {}",
-                    if ok { "met" } else { "not met" },
-                    metric_value(units, r.metric, v)
-                ),
+                {
+                    let mut m = text;
+                    m.push(if ok { ": met, " } else { ": not met, " });
+                    m.push(metric_value(r.metric, v));
+                    m
+                },
                 Source::DesignRequirement,
             )
         }
@@ -398,7 +416,11 @@ fn requirement_check(units: &Units, r: &Requirement, d: &Duty) -> Check {
             Status::Fail,
             None,
             Some(r.limit_si),
-            format!("{text}: no value to compare (missing curve data)"),
+            {
+                let mut m = text;
+                m.push(": no value to compare (missing curve data)");
+                m
+            },
             Source::DesignRequirement,
         ),
     };
@@ -431,17 +453,22 @@ pub fn headroom_check(headroom: &Option<Headroom>) -> Option<Check> {
     } else {
         Status::Pass
     };
-    let (fs, ls) = crate::display::percent_against(fraction, limits::HEADROOM.value);
     Some(Check::typed(
         CheckId::Headroom,
         status,
         Some(fraction),
         Some(limits::HEADROOM.value),
-        format!(
-            "{what} needed {:.1} % of the published value against a limit of {:.1} %: headroom {fs} (at least {ls})",
-            100.0 * needed,
-            100.0 * h.limit_value,
-        ),
+        crate::message![
+            format!(
+                "{what} needed {:.1} % of the published value against a limit of {:.1} %: headroom ",
+                100.0 * needed,
+                100.0 * h.limit_value,
+            ),
+            Part::PercentAgainst(fraction, limits::HEADROOM.value),
+            " (at least ",
+            Part::PercentAgainst(limits::HEADROOM.value, fraction),
+            ")"
+        ],
         limits::HEADROOM.source,
     ))
 }

@@ -10,7 +10,7 @@ use super::checks::{self, Check};
 use super::limits::{CheckId, Source};
 use super::system::{CaseSystem, NpshTerms, SegmentAtFlow, G};
 use crate::diagnostics::Span;
-use crate::display::Units;
+use crate::message::{flow, head, Kind, Message, Part};
 use crate::model::{Adjust, ArrangementKind, Case, Design, Metric, PumpCandidate, Side};
 use crate::pumps::{self, DutyOutcome, PumpCurves, ScaledPump};
 
@@ -39,18 +39,13 @@ pub struct CandidateCurves {
     /// head m), at its published speed, for plots of the whole impeller family.
     pub published_head_samples: Vec<Vec<(f64, f64)>>,
     /// Remarks on the fits (a rising head, few points).
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Message>,
 }
 
 impl CandidateCurves {
-    /// The candidate's curves fitted, remarks in SI units (see [`CandidateCurves::fit_for`]).
+    /// The candidate's curves fitted, with remarks on the fits.
     pub fn fit(p: &PumpCandidate) -> CandidateCurves {
-        CandidateCurves::fit_for(p, &Units::new(crate::model::ReportUnits::Si))
-    }
-
-    /// The candidate's curves fitted, the remarks' diameters in `units`.
-    pub fn fit_for(p: &PumpCandidate, units: &Units) -> CandidateCurves {
-        let mut warnings = Vec::new();
+        let mut warnings: Vec<Message> = Vec::new();
         let published: Vec<Result<PumpCurves, String>> = p
             .curves
             .iter()
@@ -85,14 +80,16 @@ impl CandidateCurves {
             .collect();
         for (i, r) in published.iter().enumerate() {
             match r {
-                Ok(c) => {
-                    warnings.extend(c.warnings.iter().map(|w| format!("curve {}: {w}", i + 1)))
-                }
-                Err(e) => warnings.push(format!("curve {} cannot be used: {e}", i + 1)),
+                Ok(c) => warnings.extend(
+                    c.warnings
+                        .iter()
+                        .map(|w| format!("curve {}: {w}", i + 1).into()),
+                ),
+                Err(e) => warnings.push(format!("curve {} cannot be used: {e}", i + 1).into()),
             }
         }
         let good: Vec<&PumpCurves> = published.iter().filter_map(|r| r.as_ref().ok()).collect();
-        let evaluated = choose(p, &good, &mut warnings, units);
+        let evaluated = choose(p, &good, &mut warnings);
         let evaluated_bep = evaluated
             .as_ref()
             .and_then(|(c, _)| pumps::best_efficiency_point(c));
@@ -125,10 +122,9 @@ impl CandidateCurves {
 fn choose(
     p: &PumpCandidate,
     good: &[&PumpCurves],
-    warnings: &mut Vec<String>,
-    units: &Units,
+    warnings: &mut Vec<Message>,
 ) -> Option<(PumpCurves, f64)> {
-    let dia = units.diameter();
+    let dia = |si| Part::Typeset(Kind::Diameter, si);
     let largest = good.iter().max_by(|a, b| {
         a.impeller_diameter_m
             .unwrap_or(0.0)
@@ -152,11 +148,11 @@ fn choose(
         let (lo, hi) = fam.range();
         if want >= lo && want <= hi {
             let point = fam.at(want).ok()?;
-            warnings.extend(point.warnings().iter().cloned());
-            warnings.push(format!(
+            warnings.extend(point.warnings().iter().map(Message::text));
+            warnings.push(Message::text(format!(
                 "impeller {:.1} mm interpolated between the published diameters",
                 want * 1000.0
-            ));
+            )));
             let (a, b) = point.domain();
             let n = 25;
             let flow: Vec<f64> = (0..n)
@@ -174,10 +170,10 @@ fn choose(
             return match pumps::fit_table(&t) {
                 Ok(c) => Some((c, 1.0)),
                 Err(e) => {
-                    warnings.push(format!(
+                    warnings.push(Message::text(format!(
                         "interpolated impeller could not be fitted: {}",
                         e.message
-                    ));
+                    )));
                     None
                 }
             };
@@ -195,14 +191,21 @@ fn choose(
     match base {
         Some(b) => {
             let r = want / b.impeller_diameter_m.unwrap_or(want);
-            warnings.push(format!("impeller {} from the published {} by the trim law (ratio {:.3}): confirm with the manufacturer", dia.text(want), dia.text(b.impeller_diameter_m.unwrap_or(0.0)), r));
+            warnings.push(crate::message![
+                "impeller ",
+                dia(want),
+                " from the published ",
+                dia(b.impeller_diameter_m.unwrap_or(0.0)),
+                format!(" by the trim law (ratio {r:.3}): confirm with the manufacturer")
+            ]);
             Some(((**b).clone(), r))
         }
         None => {
-            warnings.push(format!(
-                "impeller {} is larger than any published curve; the largest is used",
-                dia.text(want)
-            ));
+            warnings.push(crate::message![
+                "impeller ",
+                dia(want),
+                " is larger than any published curve; the largest is used"
+            ]);
             Some(((*largest).clone(), 1.0))
         }
     }
@@ -342,7 +345,7 @@ pub struct PumpResult {
     /// The duty point, when there is one.
     pub duty: Option<Duty>,
     /// Why there is no duty point, when there is none.
-    pub failure: Option<String>,
+    pub failure: Option<Message>,
     /// The checks of this case × candidate.
     pub checks: Vec<Check>,
     /// The arrangement's curve as installed in this case.
@@ -350,7 +353,7 @@ pub struct PumpResult {
     /// Energy over a year, when the case has hours.
     pub energy: Option<YearEnergy>,
     /// Remarks on this case × candidate.
-    pub warnings: Vec<String>,
+    pub warnings: Vec<Message>,
     /// Motor input efficiency used, and where it comes from.
     pub motor_efficiency: (f64, String),
     /// Speed or diameter needed against its limit (`adjust = speed` or `trim` only).
@@ -439,7 +442,6 @@ fn adjust_to_requirement(
 ) -> (f64, f64) {
     let (n_par, n_ser) = stages(p);
     let (mut speed_ratio, mut diameter_ratio) = ratios;
-    let units = crate::display::Units::new(design.project.units);
     let required = required_flow(design, &case.name);
     match (p.adjust, required) {
         (
@@ -464,19 +466,19 @@ fn adjust_to_requirement(
                 Some(r) if r <= max_ratio * (1.0 + 1e-12) => speed_ratio = r,
                 Some(_) | None => {
                     speed_ratio = max_ratio;
-                    out.warnings.push(format!(
-                        "the flow requirement {} cannot be met within the maximum speed ({:.0} % of the published speed): the pump runs at its maximum speed",
-                        units.flow().fmt(q),
-                        100.0 * max_ratio
-                    ));
+                    out.warnings.push(crate::message![
+                        "the flow requirement ",
+                        flow(q),
+                        format!(" cannot be met within the maximum speed ({:.0} % of the published speed): the pump runs at its maximum speed", 100.0 * max_ratio)
+                    ]);
                 }
             }
             if let Some(r) = needed.filter(|r| *r < min_ratio) {
-                out.warnings.push(format!(
+                out.warnings.push(Message::text(format!(
                     "the flow requirement needs {:.0} % speed, below the minimum speed {:.0} %: the pump runs at its minimum speed",
                     100.0 * r,
                     100.0 * min_ratio
-                ));
+                )));
             }
         }
         (Adjust::Trim { min_ratio }, Some(q)) => {
@@ -492,16 +494,17 @@ fn adjust_to_requirement(
                 Some(d) if d >= min_ratio => diameter_ratio = d,
                 Some(_) => {
                     diameter_ratio = min_ratio;
-                    out.warnings.push(format!(
-                        "the flow requirement {} needs a trim below the smallest allowed ({:.0} %): the impeller is trimmed to the smallest allowed",
-                        units.flow().fmt(q),
-                        100.0 * min_ratio
-                    ));
+                    out.warnings.push(crate::message![
+                        "the flow requirement ",
+                        flow(q),
+                        format!(" needs a trim below the smallest allowed ({:.0} %): the impeller is trimmed to the smallest allowed", 100.0 * min_ratio)
+                    ]);
                 }
-                None => out.warnings.push(format!(
-                    "the flow requirement {} cannot be met even with the published impeller: it is not trimmed",
-                    units.flow().fmt(q)
-                )),
+                None => out.warnings.push(crate::message![
+                    "the flow requirement ",
+                    flow(q),
+                    " cannot be met even with the published impeller: it is not trimmed"
+                ]),
             }
         }
         (Adjust::Speed { .. } | Adjust::Trim { .. }, None) => out.warnings.push(
@@ -512,33 +515,35 @@ fn adjust_to_requirement(
     (speed_ratio, diameter_ratio)
 }
 
-/// Why a solve found no duty point, in report units.
-fn describe_failure(design: &Design, outcome: &DutyOutcome) -> String {
-    let u = crate::display::Units::new(design.project.units);
-    let (fl, hd) = (u.flow(), u.head());
+/// Why a solve found no duty point.
+fn describe_failure(outcome: &DutyOutcome) -> Message {
     match outcome {
         DutyOutcome::ShutoffBelowStatic {
             shutoff_head,
             static_head,
-        } => format!(
-            "no duty point: the shut-off head {} is below the static head {}",
-            hd.fmt(*shutoff_head),
-            hd.fmt(*static_head)
-        ),
+        } => crate::message![
+            "no duty point: the shut-off head ",
+            head(*shutoff_head),
+            " is below the static head ",
+            head(*static_head)
+        ],
         DutyOutcome::CurveEndsBeforeSystem {
             end_flow,
             pump_head,
             system_head,
-        } => format!(
-            "no duty point within the published data: at {} the pump still gives {} against {} of system head; no published data there",
-            fl.fmt(*end_flow),
-            hd.fmt(*pump_head),
-            hd.fmt(*system_head)
-        ),
-        DutyOutcome::NoSolution { message } => format!("no duty point: {message}"),
-        DutyOutcome::Point { flow, head, .. } => {
-            format!("duty point at {} and {}", fl.fmt(*flow), hd.fmt(*head))
-        }
+        } => crate::message![
+            "no duty point within the published data: at ",
+            flow(*end_flow),
+            " the pump still gives ",
+            head(*pump_head),
+            " against ",
+            head(*system_head),
+            " of system head; no published data there"
+        ],
+        DutyOutcome::NoSolution { message } => Message::text(format!("no duty point: {message}")),
+        DutyOutcome::Point {
+            flow: q, head: h, ..
+        } => crate::message!["duty point at ", flow(*q), " and ", head(*h)],
     }
 }
 
@@ -594,7 +599,7 @@ pub fn evaluate(
         capacity_flow: None,
         affinity_scale: 1.0,
     };
-    let fail = |out: &mut PumpResult, why: String, value, limit, source: Source| {
+    let fail = |out: &mut PumpResult, why: Message, value, limit, source: Source| {
         out.checks.push(Check::typed(
             CheckId::DutyPoint,
             checks::Status::Fail,
@@ -636,7 +641,7 @@ pub fn evaluate(
         Err(e) => {
             fail(
                 &mut out,
-                e.message,
+                e.message.into(),
                 None,
                 None,
                 Source::DesignData("affinity laws"),
@@ -646,7 +651,8 @@ pub fn evaluate(
     };
     let (par, ser) = (n_par as f64, n_ser as f64);
     out.capacity_flow = capacity(p, base, *trim, case_speed / base.speed_rpm, sys, par, ser);
-    out.warnings.extend(scaled.warnings().iter().cloned());
+    out.warnings
+        .extend(scaled.warnings().iter().map(Message::text));
     out.speed_rpm = scaled.speed_rpm();
     out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
@@ -671,7 +677,6 @@ pub fn evaluate(
         &|q| sys.head(q),
         q_end * (1.0 + SEARCH_BEYOND_CURVE),
     );
-    let units = crate::display::Units::new(design.project.units);
     let (q, h, crossings) = match &outcome {
         DutyOutcome::Point {
             flow,
@@ -680,7 +685,7 @@ pub fn evaluate(
             warnings,
             ..
         } => {
-            out.warnings.extend(warnings.iter().cloned());
+            out.warnings.extend(warnings.iter().map(Message::text));
             (*flow, *head, *crossings)
         }
         other => {
@@ -696,7 +701,7 @@ pub fn evaluate(
                 } => (Some(*pump_head), Some(*system_head)),
                 _ => (None, None),
             };
-            let why = describe_failure(design, other);
+            let why = describe_failure(other);
             fail(
                 &mut out,
                 why,
@@ -709,11 +714,13 @@ pub fn evaluate(
     };
     let qp = q / par;
     if qp > q_data_end * (1.0 + 1e-9) {
-        let why = format!(
-            "the pump and system curves meet at {} per pump, beyond the end of the published curve at {}: no published data there",
-            units.flow().fmt(qp),
-            units.flow().fmt(q_data_end)
-        );
+        let why = crate::message![
+            "the pump and system curves meet at ",
+            flow(qp),
+            " per pump, beyond the end of the published curve at ",
+            flow(q_data_end),
+            ": no published data there"
+        ];
         fail(
             &mut out,
             why,
@@ -729,7 +736,7 @@ pub fn evaluate(
     if let (crate::model::Fluid::Custom(_), Some(b)) = (&case.scenario.fluid, bep) {
         let nu = sys.fluid.viscosity / sys.fluid.density;
         let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
-        out.warnings.extend(w);
+        out.warnings.extend(w.into_iter().map(Message::text));
     }
     let duty = Duty {
         flow: q,
@@ -759,8 +766,7 @@ pub fn evaluate(
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
         crate::model::Fluid::Water { .. } => None,
     };
-    out.warnings
-        .extend(sys.flow_warnings(q, custom_fluid, &Units::new(design.project.units)));
+    out.warnings.extend(sys.flow_warnings(q, custom_fluid));
     out.checks = checks::duty_checks(design, case, &duty, p);
     out.checks.extend(checks::headroom_check(&out.headroom));
     out.duty = Some(duty);

@@ -27,6 +27,8 @@ pub const SYSTEM_CURVE_POINTS: usize = 31;
 /// The whole analysis of a design.
 #[derive(Clone, Debug)]
 pub struct Analysis {
+    /// The design's report units: the system the outputs word its messages in.
+    pub report_units: crate::model::ReportUnits,
     /// One result per case, in the design's order.
     pub cases: Vec<CaseResult>,
     /// Per candidate, the fitted published curves (shared by all cases).
@@ -58,16 +60,20 @@ pub struct Analysis {
 pub struct Warning {
     /// What kind of remark.
     pub code: crate::diagnostics::Code,
-    /// The remark in words, in the design's report units.
-    pub message: String,
+    /// The remark in words and typed quantities (printed in the design's report units).
+    pub message: crate::message::Message,
     /// Where in the design it applies, when known.
     pub span: Option<crate::diagnostics::Span>,
 }
 
 impl Warning {
-    /// The warning as a [`crate::diagnostics::Diagnostic`], rendered like the design's own.
-    pub fn diagnostic(&self) -> crate::diagnostics::Diagnostic {
-        crate::diagnostics::Diagnostic::warning(self.code, self.message.clone(), self.span)
+    /// The warning as a [`crate::diagnostics::Diagnostic`], rendered like the design's own,
+    /// its message worded by `render` (the outputs' report units).
+    pub fn diagnostic(
+        &self,
+        render: impl Fn(&crate::message::Message) -> String,
+    ) -> crate::diagnostics::Diagnostic {
+        crate::diagnostics::Diagnostic::warning(self.code, render(&self.message), self.span)
     }
 }
 
@@ -115,15 +121,13 @@ pub fn analyse(design: &Design) -> Analysis {
     let candidates: Vec<duty::CandidateCurves> = design
         .pumps
         .iter()
-        .map(|p| {
-            duty::CandidateCurves::fit_for(p, &crate::display::Units::new(design.project.units))
-        })
+        .map(duty::CandidateCurves::fit)
         .collect();
     for c in &candidates {
         for w in &c.warnings {
             warnings.push(Warning {
                 code: Code::PumpCurve,
-                message: format!("pump {}: {w}", c.name),
+                message: w.clone().prefixed(format!("pump {}: ", c.name)),
                 span: Some(c.span),
             });
         }
@@ -141,7 +145,7 @@ pub fn analyse(design: &Design) -> Analysis {
             Err(e) => {
                 warnings.push(Warning {
                     code: Code::CaseFailed,
-                    message: format!("case {}: {e}", case.name),
+                    message: format!("case {}: {e}", case.name).into(),
                     span: Some(case.span),
                 });
                 (None, Some(e))
@@ -161,7 +165,7 @@ pub fn analyse(design: &Design) -> Analysis {
                 Err(e) => {
                     warnings.push(Warning {
                         code: Code::CaseFailed,
-                        message: format!("case {}: {e}", case.name),
+                        message: format!("case {}: {e}", case.name).into(),
                         span: Some(case.span),
                     });
                     pumps.clear();
@@ -258,7 +262,7 @@ pub fn analyse(design: &Design) -> Analysis {
         for n in &c.notes {
             warnings.push(Warning {
                 code: Code::SafetyScreen,
-                message: n.clone(),
+                message: n.clone().into(),
                 span: None,
             });
         }
@@ -268,6 +272,7 @@ pub fn analyse(design: &Design) -> Analysis {
         selection::rank_by_profile(design, &mut selection, &yearly);
     }
     Analysis {
+        report_units: design.project.units,
         safety,
         operation: yearly,
         capacity: capacity::capacity_table(design, &cases),
@@ -289,7 +294,6 @@ pub fn analyse(design: &Design) -> Analysis {
 /// Warnings about the piping that do not depend on a pump: missing entrance or exit losses.
 fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     let mut out = Vec::new();
-    let units = crate::display::Units::new(design.project.units);
     let base = &design.base;
     let has = |side: Side, prefix: &str| {
         base.lines
@@ -301,7 +305,7 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     };
     if let Some(l) = base.lines.iter().find(|l| l.side == Side::Suction) {
         if !has(Side::Suction, "entrance") && !has(Side::Suction, "foot_valve") {
-            out.push(Warning { code: Code::NoEntranceLoss, message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name), span: Some(l.span) });
+            out.push(Warning { code: Code::NoEntranceLoss, message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name).into(), span: Some(l.span) });
         }
     }
     if let Some(l) = base.lines.iter().rev().find(|l| l.side == Side::Discharge) {
@@ -311,7 +315,8 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
                 message: format!(
                     "line {}: no exit fitting; the exit loss (one velocity head) is not counted",
                     l.name
-                ),
+                )
+                .into(),
                 span: Some(l.span),
             });
         }
@@ -321,13 +326,21 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             if s.static_head <= 0.0 {
                 out.push(Warning {
                     code: Code::StaticHead,
-                    message: format!("case {}: the static head is {} (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction", c.name, units.head().fmt(s.static_head)),
+                    message: crate::message![format!("case {}: the static head is ", c.name), crate::message::head(s.static_head), " (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction"],
                     span: None,
                 });
             }
             let npsh0 = s.npsh_available(0.0);
             if npsh0 <= 0.0 {
-                out.push(Warning { code: Code::NpshNegative, message: format!("case {}: NPSH available is {} even at zero flow: the liquid would boil at the pump suction", c.name, units.head().fmt(npsh0)), span: None });
+                out.push(Warning {
+                    code: Code::NpshNegative,
+                    message: crate::message![
+                        format!("case {}: NPSH available is ", c.name),
+                        crate::message::head(npsh0),
+                        " even at zero flow: the liquid would boil at the pump suction"
+                    ],
+                    span: None,
+                });
             }
         }
     }

@@ -16,7 +16,7 @@ use super::checks::{Check, Status};
 use super::duty::{self, CandidateCurves};
 use super::limits::{self, CheckId};
 use super::{CaseResult, Warning};
-use crate::display::Units;
+use crate::message::{self, Kind};
 use crate::model::{Adjust, Design, MotorStandardChoice, PumpCandidate};
 use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard, ScaledPump};
 
@@ -131,14 +131,14 @@ pub fn motor_pass(
             match (&sizing, &r.duty) {
                 (Some(m), Some(d)) => {
                     let per_pump = d.shaft_power.unwrap_or(0.0) / p.count.max(1) as f64;
-                    r.checks.push(motor_check(design, m, per_pump));
+                    r.checks.push(motor_check(m, per_pump));
                 }
                 (None, Some(d)) if d.shaft_power.is_some() => r.checks.push(Check::typed(
                     CheckId::Motor,
                     Status::Fail,
                     None,
                     None,
-                    "no standard motor rating carries the shaft power".into(),
+                    "no standard motor rating carries the shaft power",
                     limits::MOTOR_RATING_SOURCE,
                 )),
                 _ => {}
@@ -229,9 +229,7 @@ fn size(
 /// alone, a low static head); warn when the run-out is above the nameplate but within
 /// the service factor (NEMA MG 1: margin for abnormal conditions, not for continuous
 /// duty); else pass (rule: common practice).
-fn motor_check(design: &Design, m: &MotorSizing, shaft_per_pump: f64) -> Check {
-    let u = Units::new(design.project.units);
-    let (pw, fl) = (u.power(), u.flow());
+fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
     let rating = m.choice.rating_w;
     let above_at_duty = shaft_per_pump > rating * (1.0 + 1e-9);
     let beyond_service_factor =
@@ -243,23 +241,39 @@ fn motor_check(design: &Design, m: &MotorSizing, shaft_per_pump: f64) -> Check {
     } else {
         Status::Pass
     };
-    let (ds, rs) = pw.fmt_against(shaft_per_pump, rating);
-    let (ros, _) = pw.fmt_against(m.run_out_shaft_power, rating);
-    let mut msg = format!(
-        "{} motor per pump{}: shaft power here {ds} is {:.0} % of the nameplate {rs}; largest at any duty {} (case {})",
-        m.choice.rating_label,
-        if m.rating_stated { " (stated in the design)" } else { "" },
-        100.0 * shaft_per_pump / rating,
-        pw.fmt(m.max_operating_shaft_power),
-        m.max_operating_case,
-    );
+    let power = |si, other| message::against(Kind::Power, si, other);
+    let mut msg = crate::message![
+        format!(
+            "{} motor per pump{}: shaft power here ",
+            m.choice.rating_label,
+            if m.rating_stated {
+                " (stated in the design)"
+            } else {
+                ""
+            }
+        ),
+        power(shaft_per_pump, rating),
+        format!(
+            " is {:.0} % of the nameplate ",
+            100.0 * shaft_per_pump / rating
+        ),
+        power(rating, shaft_per_pump),
+        "; largest at any duty ",
+        message::value(Kind::Power, m.max_operating_shaft_power),
+        format!(" (case {})", m.max_operating_case),
+    ];
     if above_at_duty {
         msg.push_str(": above the nameplate at duty, choose a larger motor");
     }
-    msg.push_str(&format!(
-        "; along the curve to run-out at {:.0} rpm and the largest impeller allowed the largest is {ros} at {} per pump (case {}), {:.0} % of nameplate",
-        m.run_out_speed_rpm,
-        fl.fmt(m.run_out_flow),
+    msg.push(format!(
+        "; along the curve to run-out at {:.0} rpm and the largest impeller allowed the largest is ",
+        m.run_out_speed_rpm
+    ));
+    msg.push(power(m.run_out_shaft_power, rating));
+    msg.push(" at ");
+    msg.push(message::flow(m.run_out_flow));
+    msg.push(format!(
+        " per pump (case {}), {:.0} % of nameplate",
         m.run_out_case,
         100.0 * m.choice.runout_loading_ratio,
     ));
@@ -270,7 +284,7 @@ fn motor_check(design: &Design, m: &MotorSizing, shaft_per_pump: f64) -> Check {
     } else {
         ": overloads towards run-out within the service factor, protect the motor, limit the flow or choose a larger motor"
     });
-    msg.push_str(&if m.variable_speed {
+    msg.push(if m.variable_speed {
         "; on a variable-frequency drive the service factor is taken as 1.0".to_string()
     } else {
         format!(
@@ -290,7 +304,6 @@ fn motor_check(design: &Design, m: &MotorSizing, shaft_per_pump: f64) -> Check {
 
 /// Motor ratings hold to 1000 m altitude and 40 °C ambient: a warning above that.
 fn altitude_warning(design: &Design) -> Option<Warning> {
-    let u = Units::new(design.project.units);
     let (z, case) = design
         .cases
         .iter()
@@ -298,13 +311,20 @@ fn altitude_warning(design: &Design) -> Option<Warning> {
         .max_by(|a, b| a.0.total_cmp(&b.0))?;
     let limit = limits::MOTOR_ALTITUDE_M.value;
     (z > limit && !design.pumps.is_empty()).then(|| {
-        let (zs, ls) = u.elevation().fmt_against(z, limit);
+        let limit_shown = message::against(Kind::Elevation, limit, z);
         Warning {
             code: Code::MotorAltitude,
-            message: format!(
-                "site elevation {zs} is above {ls}: motor ratings hold up to {ls} altitude and {} ambient; derate the motor as its manufacturer states",
-                u.temperature().fmt(limits::MOTOR_AMBIENT_K.value)
-            ),
+            message: crate::message![
+                "site elevation ",
+                message::against(Kind::Elevation, z, limit),
+                " is above ",
+                limit_shown.clone(),
+                ": motor ratings hold up to ",
+                limit_shown,
+                " altitude and ",
+                message::value(Kind::Temperature, limits::MOTOR_AMBIENT_K.value),
+                " ambient; derate the motor as its manufacturer states"
+            ],
             span: Some(case.span),
         }
     })

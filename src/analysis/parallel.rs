@@ -16,7 +16,7 @@ use super::duty::{self, CandidateCurves};
 use super::limits::{CheckId, Source};
 use super::motor::MotorSizing;
 use super::CaseResult;
-use crate::display::Units;
+use crate::message::{self, flow, head, Kind, Message};
 use crate::model::{Adjust, ArrangementKind, Design, PumpCandidate};
 use crate::pumps::{self, ScaledPump};
 
@@ -100,8 +100,6 @@ fn evaluate(
         Adjust::None => (case_ratio, *trim),
     };
     let scaled = ScaledPump::new(base, speed, diameter).ok()?;
-    let units = Units::new(design.project.units);
-    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
     let (_, end) = scaled.domain();
     let outcome = pumps::solve_duty(
         &|q| scaled.eval_head(q),
@@ -121,7 +119,7 @@ fn evaluate(
             Status::Fail,
             None,
             Some(end),
-            String::new(),
+            Message::new(),
             Source::DesignData("the published curve's flow range"),
         ),
     };
@@ -131,30 +129,33 @@ fn evaluate(
         case.name
     );
     let Some((q, h)) = outcome.point().filter(|(q, _)| *q <= end * (1.0 + 1e-9)) else {
-        alone.check.message = format!(
-            "{prefix}: it runs out beyond the end of the published curve at {}: no published data there",
-            fl.fmt(end)
-        );
+        alone.check.message = crate::message![
+            format!("{prefix}: it runs out beyond the end of the published curve at "),
+            flow(end),
+            ": no published data there"
+        ];
         return Some((i, alone));
     };
     let shaft = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q);
     let npsha = sys.npsh_available(q);
     let npshr = scaled.eval_npshr(q);
-    let npsh = checks::npsh_margin(&units, npsha, npshr, checks::npsh_ratio_limit(design, dc));
+    let npsh = checks::npsh_margin(npsha, npshr, checks::npsh_ratio_limit(design, dc));
     let mut status = npsh.status;
-    let mut msg = format!("{prefix}: {} at {}", fl.fmt(q), hd.fmt(h));
+    let mut msg = crate::message![format!("{prefix}: "), flow(q), " at ", head(h)];
     if let (Some(w), Some(m)) = (shaft, motor) {
-        let (ws, rs) = pw.fmt_against(w, m.choice.rating_w);
-        let over = w > m.choice.rating_w * (1.0 + 1e-9);
-        msg.push_str(&format!(
-            ", shaft power {ws} against the nameplate {rs}{}",
-            if over { " (above the nameplate)" } else { "" }
-        ));
+        let rating = m.choice.rating_w;
+        let over = w > rating * (1.0 + 1e-9);
+        msg.push(", shaft power ");
+        msg.push(message::against(Kind::Power, w, rating));
+        msg.push(" against the nameplate ");
+        msg.push(message::against(Kind::Power, rating, w));
+        msg.push(if over { " (above the nameplate)" } else { "" });
         if over {
             status = status.max(Status::Warn);
         }
     }
-    msg.push_str(&format!("; {}", npsh.message));
+    msg.push("; ");
+    msg.append(&npsh.message);
     alone.flow = Some(q);
     alone.head = Some(h);
     alone.shaft_power = shaft;

@@ -12,6 +12,7 @@
 
 use super::checks::Status;
 use super::CaseResult;
+use crate::message::{Message, Part};
 use crate::model::Design;
 use crate::pumps::{self, LccMethod};
 
@@ -58,7 +59,7 @@ pub struct Selection {
     /// The score in words, for the package.
     pub criteria_text: String,
     /// The basis of the ranking in one sentence.
-    pub basis: String,
+    pub basis: Message,
     /// Qualifying candidates by score, then the others.
     pub ranking: Vec<Ranked>,
     /// Why nothing is recommended, when nothing is.
@@ -205,7 +206,7 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
         let why = if qualifies {
             format!(
                 "qualifies: every case analysed with a duty point, no failing check ({})",
-                crate::display::count(warnings, "warning", "warnings")
+                crate::numbers::count(warnings, "warning", "warnings")
             )
         } else {
             format!(
@@ -287,7 +288,7 @@ fn price_text(design: &Design) -> String {
     match design.energy.price_per_joule {
         Some(p) => format!(
             " at {} {}/kWh",
-            crate::display::significant_trimmed(p * 3.6e6, 4),
+            crate::numbers::significant_trimmed(p * 3.6e6, 4),
             design.energy.currency
         ),
         None => String::new(),
@@ -295,7 +296,7 @@ fn price_text(design: &Design) -> String {
 }
 
 /// The basis sentence printed beside the ranking.
-fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
+fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> Message {
     let fixed: Vec<&str> = design
         .cases
         .iter()
@@ -310,15 +311,15 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
     if criterion == "mean efficiency" {
         return "No case states operating hours, so energy cannot be compared: qualifying candidates are ranked by their mean pump efficiency over the cases.".into();
     }
-    let per = crate::display::Units::new(design.project.units).volume_cost_unit();
-    let mut s = format!(
-        "Candidates are compared per volume delivered ({}).",
+    let mut s = crate::message![
         if criterion.starts_with("life") {
-            format!("life-cycle energy cost per {per}")
+            "Candidates are compared per volume delivered (life-cycle energy cost per "
         } else {
-            format!("energy per {per}")
-        }
-    );
+            "Candidates are compared per volume delivered (energy per "
+        },
+        Part::VolumeCostUnit,
+        ")."
+    ];
     let cases_word = |names: &[&str], one: &str, many: &str| {
         if names.len() == 1 {
             format!("Case {} {one}", names[0])
@@ -327,13 +328,13 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> String {
         }
     };
     if !fixed.is_empty() {
-        s.push_str(&format!(
+        s.push(format!(
             " {} the volume to pump (hours × required flow): each candidate runs that volume ÷ its delivered flow.",
             cases_word(&fixed, "fixes", "fix")
         ));
     }
     if !open.is_empty() {
-        s.push_str(&format!(
+        s.push(format!(
             " {} hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
             cases_word(&open, "states", "state")
         ));
@@ -427,7 +428,7 @@ pub fn rank_by_profile(
             "yearly input energy".to_string()
         }
     );
-    selection.basis = profile_basis(design, priced);
+    selection.basis = profile_basis(design, priced).into();
     selection.close_call = close_call(&selection.ranking, selection.criterion);
 }
 

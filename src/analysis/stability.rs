@@ -6,7 +6,7 @@
 use super::duty::{stages, CandidateCurves};
 use super::{CaseResult, Warning};
 use crate::diagnostics::Code;
-use crate::display::Units;
+use crate::message::{flow, head};
 use crate::model::{ArrangementKind, Design};
 use crate::pumps::stability::{rising_region, RisingRegion};
 
@@ -33,8 +33,6 @@ pub fn unstable_warnings(
     regions: &[Option<RisingRegion>],
     cases: &[CaseResult],
 ) -> Vec<Warning> {
-    let units = Units::new(design.project.units);
-    let (flow, head) = (units.flow(), units.head());
     let mut out = Vec::new();
     for (k, (c, region)) in candidates.iter().zip(regions).enumerate() {
         let (Some(region), Some(p)) = (region, design.pumps.get(k)) else {
@@ -43,43 +41,48 @@ pub fn unstable_warnings(
         let (par, ser) = stages(p);
         let trim = c.evaluated.as_ref().map_or(1.0, |e| e.1);
         let one = region.scaled(trim, trim * trim);
-        let mut message = format!(
-            "pump {}: the head curve rises with flow from {} to {} by {} ({} to {}, one pump at the published speed and the chosen impeller): an unstable (rising) curve (ANSI/HI 9.6.3 guidance on rising head curves, from memory)",
-            c.name,
-            flow.fmt(one.flow_low),
-            flow.fmt(one.flow_peak),
-            head.fmt(one.rise()),
-            head.fmt(one.head_low),
-            head.fmt(one.head_peak),
-        );
+        let mut message = crate::message![
+            format!("pump {}: the head curve rises with flow from ", c.name),
+            flow(one.flow_low),
+            " to ",
+            flow(one.flow_peak),
+            " by ",
+            head(one.rise()),
+            " (",
+            head(one.head_low),
+            " to ",
+            head(one.head_peak),
+            ", one pump at the published speed and the chosen impeller): an unstable (rising) curve (ANSI/HI 9.6.3 guidance on rising head curves, from memory)"
+        ];
         let inside = cases_in_band(cases, k, region, par, ser);
         if inside.is_empty() {
-            message.push_str(&format!(
-                "; no case's static head lies in the band where a level system curve crosses it twice ({} to {} for the {} at the published speed, scaled by the affinity laws in each case)",
-                head.fmt(one.head_low * ser as f64),
-                head.fmt(one.head_peak * ser as f64),
-                if ser > 1 { "series set" } else { "pump" },
-            ));
+            message.append(&crate::message![
+                "; no case's static head lies in the band where a level system curve crosses it twice (",
+                head(one.head_low * ser as f64),
+                " to ",
+                head(one.head_peak * ser as f64),
+                format!(
+                    " for the {} at the published speed, scaled by the affinity laws in each case)",
+                    if ser > 1 { "series set" } else { "pump" }
+                )
+            ]);
         } else {
-            message.push_str("; ");
-            message.push_str(
-                &inside
-                    .iter()
-                    .map(|(name, hs, band)| {
-                        format!(
-                            "in case {name} the static head {} lies in the band {} to {} where the curve is crossed twice",
-                            head.fmt(*hs),
-                            head.fmt(band.head_low),
-                            head.fmt(band.head_peak)
-                        )
-                    })
-                    .collect::<Vec<_>>()
-                    .join("; "),
-            );
+            for (name, hs, band) in &inside {
+                message.push("; in case ");
+                message.append(&crate::message![
+                    format!("{name} the static head "),
+                    head(*hs),
+                    " lies in the band ",
+                    head(band.head_low),
+                    " to ",
+                    head(band.head_peak),
+                    " where the curve is crossed twice"
+                ]);
+            }
             message.push_str(": the pump may run at either intersection (the duty point taken is the larger-flow one); confirm a stable curve with the manufacturer");
         }
         if p.arrangement == ArrangementKind::Parallel && par > 1 {
-            message.push_str(&format!(
+            message.push(format!(
                 "; in a parallel set of {par} a pump with a rising curve can be held near shut-off by the others and hunt between intersections (common practice): prefer a continuously falling curve for parallel duty"
             ));
         }

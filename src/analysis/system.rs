@@ -15,11 +15,11 @@ use uom::si::{
 };
 
 use crate::analysis::network::station::StationNetwork;
-use crate::display::Units;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
 use crate::hydraulics::roughness;
+use crate::message::{Kind, Message, Part};
 use crate::model::{Fluid, PipeCondition, Scenario, Side, SurfacePressure};
 
 /// Standard acceleration of gravity, 9.80665 m/s² (CGPM 1901; NIST SP 330).
@@ -323,29 +323,28 @@ impl CaseSystem {
     /// Validity warnings at flow q, one per segment and remark: the laminar-turbulent
     /// transition, Darcy-Weisbach beyond Moody's (1944) chart, and Hazen-Williams outside
     /// its range (water only: `custom_fluid` names a liquid that is not water).
-    /// Values in the remarks are in `units`.
-    pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>, units: &Units) -> Vec<String> {
+    pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>) -> Vec<Message> {
         let mut out = Vec::new();
         for (i, regime, re) in self.regimes(q) {
             let seg = &self.segments[i];
             if regime == FlowRegime::Transitional {
-                out.push(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1));
+                out.push(Message::text(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1)));
             }
             if let Some(c) = seg.hazen_williams_c {
-                let mut ws: Vec<String> = friction::hazen_williams_remarks(
+                let mut ws: Vec<Message> = friction::hazen_williams_remarks(
                     q / seg.area,
                     seg.inner_diameter,
                     c,
                     self.fluid.temperature_k.unwrap_or(288.15),
                 )
                 .into_iter()
-                .map(|r| hazen_williams_remark(r, units))
+                .map(hazen_williams_remark)
                 .collect();
                 if let Some(name) = custom_fluid {
-                    ws.push(format!("Hazen-Williams is fitted to water, not to {name}; use Darcy-Weisbach with Colebrook"));
+                    ws.push(Message::text(format!("Hazen-Williams is fitted to water, not to {name}; use Darcy-Weisbach with Colebrook")));
                 }
                 for w in ws {
-                    out.push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
+                    out.push(w.prefixed(format!("line {} segment {}: ", seg.line, seg.index + 1)));
                 }
             } else if regime != FlowRegime::Laminar {
                 // Beyond Moody's chart (Re > 1e8, eps/D > 0.05). The first warning of
@@ -353,7 +352,11 @@ impl CaseSystem {
                 let rr = seg.roughness / seg.inner_diameter;
                 let skip = usize::from(regime == FlowRegime::Transitional);
                 for w in friction::friction_warnings(re, rr).into_iter().skip(skip) {
-                    out.push(format!("line {} segment {}: {w}", seg.line, seg.index + 1));
+                    out.push(Message::text(format!(
+                        "line {} segment {}: {w}",
+                        seg.line,
+                        seg.index + 1
+                    )));
                 }
             }
         }
@@ -496,36 +499,45 @@ pub fn k_of(f: &FittingState, re: f64, d: f64) -> f64 {
     .unwrap_or(f64::NAN)
 }
 
-/// A Hazen-Williams remark in words, its value and limit in the report's units
+/// A Hazen-Williams remark in words with its value and limit
 /// (limits common practice, see [`friction::HazenWilliamsRemark`]).
-fn hazen_williams_remark(remark: friction::HazenWilliamsRemark, units: &Units) -> String {
+fn hazen_williams_remark(remark: friction::HazenWilliamsRemark) -> Message {
     use friction::HazenWilliamsRemark as R;
     match remark {
-        R::NotFinite(name, value) => {
-            format!("Hazen-Williams: {name} is not a finite number ({value})")
-        }
+        R::NotFinite(name, value) => Message::text(format!(
+            "Hazen-Williams: {name} is not a finite number ({value})"
+        )),
         R::Temperature(t) => {
             let (lo, hi) = friction::HW_TEMPERATURE_RANGE_K;
-            let tu = units.temperature();
-            format!(
-                "Hazen-Williams is fitted to water at ordinary temperatures (about {}–{}); {} is outside, use Darcy-Weisbach with Colebrook",
-                tu.figure(lo),
-                tu.text(hi),
-                tu.text(t)
-            )
+            crate::message![
+                "Hazen-Williams is fitted to water at ordinary temperatures (about ",
+                Part::Figure(Kind::Temperature, lo),
+                "–",
+                Part::Typeset(Kind::Temperature, hi),
+                "); ",
+                Part::Typeset(Kind::Temperature, t),
+                " is outside, use Darcy-Weisbach with Colebrook"
+            ]
         }
-        R::Velocity(v) => {
-            let (value, limit) = units.velocity().fmt_against(v, friction::HW_MAX_VELOCITY);
-            format!("Hazen-Williams: velocity {value} is above about {limit}, where its fixed exponents misjudge the loss; use Darcy-Weisbach")
-        }
-        R::Diameter(d) => {
-            let (value, limit) = units.diameter().fmt_against(d, friction::HW_MIN_DIAMETER);
-            format!("Hazen-Williams: inside diameter {value} is below about {limit}, outside the pipes it was fitted to; use Darcy-Weisbach")
-        }
-        R::C(c) => format!(
-            "Hazen-Williams: C = {} is outside the usual 60–150 range of published C values",
-            crate::display::significant_trimmed(c, 4)
-        ),
+        R::Velocity(v) => crate::message![
+            "Hazen-Williams: velocity ",
+            Part::Against(Kind::Velocity, v, friction::HW_MAX_VELOCITY),
+            " is above about ",
+            Part::Against(Kind::Velocity, friction::HW_MAX_VELOCITY, v),
+            ", where its fixed exponents misjudge the loss; use Darcy-Weisbach"
+        ],
+        R::Diameter(d) => crate::message![
+            "Hazen-Williams: inside diameter ",
+            Part::Against(Kind::Diameter, d, friction::HW_MIN_DIAMETER),
+            " is below about ",
+            Part::Against(Kind::Diameter, friction::HW_MIN_DIAMETER, d),
+            ", outside the pipes it was fitted to; use Darcy-Weisbach"
+        ],
+        R::C(c) => crate::message![
+            "Hazen-Williams: C = ",
+            Part::Significant(c, 4),
+            " is outside the usual 60–150 range of published C values"
+        ],
     }
 }
 

@@ -121,7 +121,9 @@ pub fn check(
     let errors = checked.diagnostics.iter().filter(|d| d.is_error()).count();
     if let (true, 0, Some(design)) = (options.analyse, errors, &checked.design) {
         let analysis = dutyline::analysis::analyse(design);
-        checked.diagnostics.extend(analysis_warnings(&analysis));
+        checked
+            .diagnostics
+            .extend(analysis_warnings(design, &analysis));
     }
     let warnings = checked.diagnostics.len() - errors;
     if errors > 0 || (options.deny_warnings && warnings > 0) {
@@ -138,8 +140,14 @@ pub fn check(
 
 /// The analysis warnings as diagnostics: with the design's own warnings they are the
 /// `warnings` list of `results --format json`, so both commands count the same.
-pub fn analysis_warnings(analysis: &Analysis) -> Vec<Diagnostic> {
-    analysis.warnings.iter().map(|w| w.diagnostic()).collect()
+/// Their quantities are in the design's report units.
+pub fn analysis_warnings(design: &dutyline::Design, analysis: &Analysis) -> Vec<Diagnostic> {
+    let units = dutyline::display::Units::new(design.project.units);
+    analysis
+        .warnings
+        .iter()
+        .map(|w| w.diagnostic(|m| units.render(m)))
+        .collect()
 }
 
 /// The options of `results`.

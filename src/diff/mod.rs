@@ -93,7 +93,11 @@ pub fn diff(
         format: FORMAT,
         units: new.project.units.keyword(),
         inputs: diff_designs(old, new),
-        results: diff_analyses(old_analysis, new_analysis),
+        results: diff_analyses(
+            old_analysis,
+            new_analysis,
+            &crate::display::Units::new(new.project.units),
+        ),
         report_units: new.project.units,
     }
 }

@@ -5,6 +5,7 @@
 //! Numbers are SI with the unit in the key, as in the results JSON
 //! (`flow_m3_s`, `head_m`, `shaft_power_W`); ratios are fractions.
 
+use crate::display::Units;
 use serde::Serialize;
 
 use crate::analysis::checks::Check;
@@ -145,8 +146,8 @@ impl ResultsDiff {
     }
 }
 
-/// Compare two analyses. Cases and candidates are matched by name.
-pub fn diff_analyses(old: &Analysis, new: &Analysis) -> ResultsDiff {
+/// Compare two analyses (check messages in `units`, the new design's). Cases and candidates are matched by name.
+pub fn diff_analyses(old: &Analysis, new: &Analysis, units: &Units) -> ResultsDiff {
     let names = |cases: &[CaseResult]| cases.iter().map(|c| c.name.clone()).collect::<Vec<_>>();
     let (old_cases, new_cases) = (names(&old.cases), names(&new.cases));
     let pumps = |a: &Analysis| {
@@ -174,6 +175,7 @@ pub fn diff_analyses(old: &Analysis, new: &Analysis) -> ResultsDiff {
                 pump,
                 before.as_ref(),
                 after.as_ref(),
+                units,
             ));
         }
     }
@@ -227,7 +229,8 @@ fn row(case: &str, pump: &str, before: Option<&PumpResult>, after: Option<&PumpR
 
 /// The name a check is matched by between the two analyses.
 fn check_key(c: &Check) -> String {
-    let subject = c.subject.as_deref().unwrap_or(&c.message);
+    // Requirement and velocity checks always name their subject.
+    let subject = c.subject.as_deref().unwrap_or_default();
     match c.id.as_str() {
         "requirement" => format!("requirement {}", requirement_key(subject)),
         "velocity" => match subject.split_whitespace().next() {
@@ -289,6 +292,7 @@ fn check_changes(
     pump: &str,
     before: Option<&PumpResult>,
     after: Option<&PumpResult>,
+    units: &Units,
 ) -> Vec<CheckChange> {
     let (old, new) = (keyed(before), keyed(after));
     let mut out = Vec::new();
@@ -301,7 +305,10 @@ fn check_changes(
                 check: key.to_string(),
                 before: status(b),
                 after: status(a),
-                message: a.or(b).map(|c| c.message.clone()).unwrap_or_default(),
+                message: a
+                    .or(b)
+                    .map(|c| units.render(&c.message))
+                    .unwrap_or_default(),
             });
         }
     };

@@ -273,10 +273,9 @@ fn diagnostics(source: &str, files: &dyn FileAccess, uri: &str) -> Vec<Value> {
     if let (false, Some(design)) = (all.iter().any(|d| d.is_error()), &checked.design) {
         let analysis = crate::analysis::analyse(design);
         all.extend(
-            analysis
-                .warnings
-                .iter()
-                .map(|w| Diagnostic::warning(w.code, w.message.clone(), w.span)),
+            analysis.warnings.iter().map(|w| {
+                w.diagnostic(|m| crate::display::Units::new(design.project.units).render(m))
+            }),
         );
     }
     all.iter().map(|d| lsp_diagnostic(d, source, uri)).collect()

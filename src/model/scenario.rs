@@ -969,9 +969,13 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
 /// below its freezing point (273.15 K; IAPWS-IF97 region 1 starts there), or at or
 /// above its boiling point at the source surface (vapour pressure by IAPWS-IF97 Eq. 30
 /// at or above the surface's absolute pressure: it flashes before reaching the pump).
-/// Values are in the design's report units.
-pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
-    let units = crate::display::Units::new(design.project.units);
+/// `render` words the typed messages (in the design's report units: the caller's
+/// outputs own them).
+pub fn water_state_errors(
+    design: &Design,
+    render: &dyn Fn(&crate::message::Message) -> String,
+) -> Vec<Diagnostic> {
+    use crate::message::{value, Kind};
     let mut out = Vec::new();
     for case in &design.cases {
         let Fluid::Water { temperature } = &case.scenario.fluid else {
@@ -983,16 +987,18 @@ pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
             case.span
         };
         let t = temperature.get::<kelvin>();
-        let shown = units.temperature().fmt(t);
+        let shown = value(Kind::Temperature, t);
         if t <= crate::fluid::water::FREEZING_POINT_K {
             out.push(
                 Diagnostic::error(
                     Code::OutOfRange,
-                    format!(
-                        "case {}: water at {shown} is at or below its freezing point ({}): the case cannot be analysed",
-                        case.name,
-                        units.temperature().fmt(crate::fluid::water::FREEZING_POINT_K)
-                    ),
+                    render(&crate::message![
+                        format!("case {}: water at ", case.name),
+                        shown,
+                        " is at or below its freezing point (",
+                        value(Kind::Temperature, crate::fluid::water::FREEZING_POINT_K),
+                        "): the case cannot be analysed"
+                    ]),
                     Some(span),
                 )
                 .with_help("give the water a temperature above freezing, or describe the liquid with `fluid NAME { ... }`"),
@@ -1016,19 +1022,26 @@ pub fn water_state_errors(design: &Design) -> Vec<Diagnostic> {
         };
         if let Some(pv) = boils {
             let vapour = if pv.is_finite() {
-                format!("its vapour pressure {}", units.pressure().fmt(pv))
+                crate::message!["its vapour pressure ", value(Kind::Pressure, pv)]
             } else {
-                "it is above its critical point".to_string()
+                crate::message!["it is above its critical point"]
             };
             out.push(
                 Diagnostic::error(
                     Code::OutOfRange,
-                    format!(
-                        "case {}: water at {shown} boils at the surface of tank {}: {vapour} is at or above the surface's absolute pressure {}; the case cannot be analysed",
-                        case.name,
-                        case.scenario.source.name,
-                        units.pressure().fmt(surface)
-                    ),
+                    render(&{
+                        let mut m =
+                            crate::message![format!("case {}: water at ", case.name), shown];
+                        m.push(format!(
+                            " boils at the surface of tank {}: ",
+                            case.scenario.source.name
+                        ));
+                        m.append(&vapour);
+                        m.push(" is at or above the surface's absolute pressure ");
+                        m.push(value(Kind::Pressure, surface));
+                        m.push("; the case cannot be analysed");
+                        m
+                    }),
                     Some(span),
                 )
                 .with_help("lower the temperature or raise the pressure on the source tank"),

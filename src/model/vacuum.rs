@@ -3,6 +3,7 @@
 //! pressure or both may be overridden).
 
 use crate::diagnostics::{Code, Diagnostic, Span};
+use crate::message::{self, Kind, Message};
 use crate::model::{Design, Scenario, SurfacePressure, Tank};
 use uom::si::length::meter;
 use uom::si::pressure::pascal;
@@ -10,9 +11,13 @@ use uom::si::pressure::pascal;
 /// Check-time errors for every case in which a tank's absolute surface pressure
 /// (barometric + gauge, Pa) is zero or negative. The barometric pressure is the
 /// design's, or the U.S. Standard Atmosphere 1976 at the site elevation (NOAA/NASA/USAF,
-/// 1976, Eq. 33a). Values are printed in the design's report units.
-pub fn absolute_pressure_errors(design: &Design) -> Vec<Diagnostic> {
-    let units = crate::display::Units::new(design.project.units);
+/// 1976, Eq. 33a). `render` words the typed messages (in the design's report units:
+/// the caller's outputs own them).
+pub fn absolute_pressure_errors(
+    design: &Design,
+    render: &dyn Fn(&Message) -> String,
+) -> Vec<Diagnostic> {
+    let pressure = |si| message::value(Kind::Pressure, si);
     let mut out = Vec::new();
     for case in &design.cases {
         let Some(barometric) = barometric_pa(&case.scenario) else {
@@ -26,14 +31,18 @@ pub fn absolute_pressure_errors(design: &Design) -> Vec<Diagnostic> {
             if barometric + gauge > 0.0 {
                 continue;
             }
-            let message = format!(
-                "case {}: tank {} has a gauge pressure of {} where the barometric pressure is {}: its absolute pressure would be {}, below absolute zero",
-                case.name,
-                tank.name,
-                units.pressure().fmt(gauge),
-                units.pressure().fmt(barometric),
-                units.pressure().fmt(barometric + gauge),
-            );
+            let message = render(&crate::message![
+                format!(
+                    "case {}: tank {} has a gauge pressure of ",
+                    case.name, tank.name
+                ),
+                pressure(gauge),
+                " where the barometric pressure is ",
+                pressure(barometric),
+                ": its absolute pressure would be ",
+                pressure(barometric + gauge),
+                ", below absolute zero"
+            ]);
             let at = if case.span == Span::new(0, 0) {
                 tank.span
             } else {
@@ -42,10 +51,11 @@ pub fn absolute_pressure_errors(design: &Design) -> Vec<Diagnostic> {
             out.push(
                 Diagnostic::error(Code::OutOfRange, message, Some(at))
                     .with_secondary(tank.span, "the tank")
-                    .with_help(format!(
-                        "a vacuum reaches at most −{} (gauge) at this site; give a gauge pressure above that, or the absolute pressure with `kPa(a)` or `psia`",
-                        units.pressure().fmt(barometric)
-                    )),
+                    .with_help(render(&crate::message![
+                        "a vacuum reaches at most −",
+                        pressure(barometric),
+                        " (gauge) at this site; give a gauge pressure above that, or the absolute pressure with `kPa(a)` or `psia`"
+                    ])),
             );
         }
     }

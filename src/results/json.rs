@@ -10,6 +10,7 @@ use crate::analysis::checks::Check;
 use crate::analysis::duty::PumpResult;
 use crate::analysis::{Analysis, CaseResult};
 use crate::diagnostics::{line_col, Diagnostic};
+use crate::display::Units;
 use crate::model::{ArrangementKind, Design};
 
 mod engineering;
@@ -163,7 +164,7 @@ struct Pump<'a> {
     speed_rpm: f64,
     impeller_diameter_m: Option<f64>,
     duty: Option<Duty<'a>>,
-    failure: Option<&'a str>,
+    failure: Option<String>,
     checks: Vec<CheckOut<'a>>,
     annual_energy_J: Option<f64>,
     annual_energy_cost: Option<f64>,
@@ -173,7 +174,7 @@ struct Pump<'a> {
     /// Wave 2: the flow of the arrangement at its limit (maximum speed, largest impeller).
     capacity_flow_m3_s: Option<f64>,
     motor_efficiency_source: &'a str,
-    warnings: &'a [String],
+    warnings: Vec<String>,
     /// Wave 2, networks only: the network at the duty point.
     #[serde(skip_serializing_if = "Option::is_none")]
     network: Option<engineering::NetworkOut<'a>>,
@@ -216,7 +217,7 @@ pub(super) struct CheckOut<'a> {
     status: &'static str,
     value: Option<f64>,
     limit: Option<f64>,
-    message: &'a str,
+    message: String,
     source: &'a str,
     /// Wave 2: what the check is about when an id repeats per duty (the velocity's
     /// side, or the requirement as written in the design).
@@ -230,7 +231,7 @@ struct Selection<'a> {
     criterion: &'static str,
     criteria: &'a str,
     /// Wave 2: the basis of the ranking in one sentence.
-    basis: &'a str,
+    basis: String,
     refusal: Option<&'a str>,
     /// The first two qualifying candidates are within 2 % on the score: the remark.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -273,6 +274,7 @@ fn case<'a>(
     c: &'a CaseResult,
     d: Option<&'a crate::model::Case>,
     safety_case: Option<&'a crate::analysis::safety::CaseSafety>,
+    units: Units,
 ) -> Case<'a> {
     let s = c.system.as_ref();
     let site = d.map(|d| &d.scenario.site);
@@ -356,8 +358,8 @@ fn case<'a>(
                 network_head_m: s.and_then(|s| s.network.as_ref()).map(|_| p.network),
             })
             .collect(),
-        pumps: c.pumps.iter().map(pump).collect(),
-        lines: safety::lines(safety_case),
+        pumps: c.pumps.iter().map(|p| pump(p, units)).collect(),
+        lines: safety::lines(safety_case, units),
     }
 }
 
@@ -375,19 +377,20 @@ fn design_flow(c: &CaseResult) -> f64 {
         })
 }
 
-pub(super) fn check(c: &Check) -> CheckOut<'_> {
+/// A check in JSON, its message in `units`.
+pub(super) fn check(c: &Check, units: Units) -> CheckOut<'_> {
     CheckOut {
         id: c.id.as_str(),
         status: c.status.keyword(),
         value: c.value.and_then(finite),
         limit: c.limit.and_then(finite),
-        message: &c.message,
+        message: units.render(&c.message),
         source: &c.source,
         subject: c.subject.as_deref(),
     }
 }
 
-fn pump(p: &PumpResult) -> Pump<'_> {
+fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
     Pump {
         name: &p.name,
         arrangement: Arrangement {
@@ -430,15 +433,15 @@ fn pump(p: &PumpResult) -> Pump<'_> {
             segments: engineering::segments(&d.segments),
             headroom: p.headroom.as_ref().map(engineering::headroom),
         }),
-        failure: p.failure.as_deref(),
-        checks: p.checks.iter().map(check).collect(),
+        failure: p.failure.as_ref().map(|m| units.render(m)),
+        checks: p.checks.iter().map(|c| check(c, units)).collect(),
         annual_energy_J: p.energy.map(|e| e.energy_j),
         annual_energy_cost: p.energy.and_then(|e| e.cost),
         running_hours_per_year: p.energy.map(|e| e.hours),
         annual_volume_m3: p.energy.map(|e| e.volume_m3),
         capacity_flow_m3_s: p.capacity_flow,
         motor_efficiency_source: &p.motor_efficiency.1,
-        warnings: &p.warnings,
+        warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
         network: p.network.as_ref().map(engineering::network),
     }
 }
@@ -452,6 +455,7 @@ pub fn to_json(
     source: &str,
     diagnostics: &[Diagnostic],
 ) -> String {
+    let units = Units::new(design.project.units);
     let mut warnings: Vec<Warn> = diagnostics
         .iter()
         .map(|d| {
@@ -468,7 +472,7 @@ pub fn to_json(
         let lc = w.span.map(|s| line_col(source, s.start));
         warnings.push(Warn {
             code: w.code.to_string(),
-            message: w.message.clone(),
+            message: units.render(&w.message),
             line: lc.map(|x| x.0),
             column: lc.map(|x| x.1),
         });
@@ -497,6 +501,7 @@ pub fn to_json(
                     c,
                     design.cases.iter().find(|d| d.name == c.name),
                     analysis.safety.cases.get(i),
+                    units,
                 )
             })
             .collect(),
@@ -510,7 +515,7 @@ pub fn to_json(
             recommended: sel.recommended.as_deref(),
             criterion: sel.criterion,
             criteria: &sel.criteria_text,
-            basis: &sel.basis,
+            basis: units.render(&sel.basis),
             refusal: sel.refusal.as_deref(),
             close_call: sel.close_call.as_deref(),
             ranking: sel

@@ -49,7 +49,13 @@ pub(super) fn operation(o: &mut String, design: &Design, analysis: &Analysis) {
             }
         }
         for c in &op.checks {
-            let _ = writeln!(o, "  check {} {}: {}", c.id, c.status.keyword(), c.message);
+            let _ = writeln!(
+                o,
+                "  check {} {}: {}",
+                c.id,
+                c.status.keyword(),
+                u.render(&c.message)
+            );
         }
         if let Some(l) = &op.lcc {
             let _ = writeln!(

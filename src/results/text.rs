@@ -140,7 +140,13 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     }
                 }
                 None => {
-                    let _ = writeln!(o, "    {}", r.failure.as_deref().unwrap_or("no duty point"));
+                    let _ = writeln!(
+                        o,
+                        "    {}",
+                        r.failure
+                            .as_ref()
+                            .map_or("no duty point".to_string(), |m| u.render(m))
+                    );
                 }
             }
             if let Some(q) = r.capacity_flow {
@@ -161,11 +167,11 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                     "    check {} {}: {}",
                     ch.id,
                     ch.status.keyword(),
-                    ch.message
+                    u.render(&ch.message)
                 );
             }
             for w in &r.warnings {
-                let _ = writeln!(o, "    warning: {w}");
+                let _ = writeln!(o, "    warning: {}", u.render(w));
             }
         }
     }
@@ -173,7 +179,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     super::operation_text::operation(&mut o, design, analysis);
     let sel = &analysis.selection;
     let _ = writeln!(o, "\nselection by {}:", sel.criterion);
-    let _ = writeln!(o, "  basis: {}", sel.basis);
+    let _ = writeln!(o, "  basis: {}", u.render(&sel.basis));
     for (i, r) in sel.ranking.iter().enumerate() {
         let _ = writeln!(o, "  {}. {}: {}", i + 1, r.name, r.why);
         if let Some(se) = r.specific_energy_j_m3 {
@@ -209,16 +215,16 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     if let Some(remark) = &sel.close_call {
         let _ = writeln!(o, "close call: {remark}");
     }
-    safety(&mut o, analysis);
+    safety(&mut o, analysis, &u);
     for w in &analysis.warnings {
-        let _ = writeln!(o, "warning {}: {}", w.code, w.message);
+        let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
     }
     o
 }
 
 /// The pressure and surge screen: the checks that do not pass, per case (screening
 /// estimates; the package has the full screen).
-fn safety(o: &mut String, analysis: &Analysis) {
+fn safety(o: &mut String, analysis: &Analysis, u: &Units) {
     use crate::analysis::checks::Status;
     let s = &analysis.safety;
     let Some(candidate) = &s.candidate else {
@@ -235,7 +241,7 @@ fn safety(o: &mut String, analysis: &Analysis) {
                 c.case,
                 k.id,
                 k.status.keyword(),
-                k.message
+                u.render(&k.message)
             );
         }
     }
@@ -362,7 +368,7 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
                 o,
                 "  one pump alone {}: {}",
                 alone.check.status.keyword(),
-                alone.check.message
+                u.render(&alone.check.message)
             );
         }
         let caps: Vec<String> = analysis
@@ -404,7 +410,12 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
                 format!("{}: {}", c.name, st.join(", "))
             })
             .collect();
-        let _ = writeln!(o, "requirement {}: {}", row.text, cells.join("; "));
+        let _ = writeln!(
+            o,
+            "requirement {}: {}",
+            u.render(&row.text),
+            cells.join("; ")
+        );
     }
 }
 

@@ -85,3 +85,11 @@ pub fn analyse_valid(
     let analysis = dutyline::analysis::analyse(&design);
     (design, analysis)
 }
+
+/// A typed message of an analysis in its design's report units, as the outputs print it.
+pub fn said(
+    analysis: &dutyline::analysis::Analysis,
+    message: &dutyline::message::Message,
+) -> String {
+    dutyline::display::Units::new(analysis.report_units).render(message)
+}

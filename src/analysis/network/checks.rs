@@ -13,7 +13,7 @@ use crate::analysis::checks::{Check, Status};
 use crate::analysis::duty::PumpResult;
 use crate::analysis::limits::{CheckId, Source};
 use crate::analysis::CaseSystem;
-use crate::display::Units;
+use crate::message::{self, flow, head, Kind};
 use crate::model::network::NodeQuantity;
 use crate::model::Design;
 
@@ -35,7 +35,7 @@ pub fn at_duties(
         let at = net
             .at_duty(q)
             .map_err(|e| format!("the network at the duty of pump {}: {e}", p.name))?;
-        p.checks.extend(node_checks(design, &at));
+        p.checks.extend(node_checks(&at));
         p.checks.extend(requirement_checks(design, case, &at));
         p.checks.extend(super::valves::valve_checks(net, &at));
         p.network = Some(at);
@@ -47,9 +47,8 @@ pub fn at_duties(
 }
 
 /// The node-pressure checks at one duty.
-pub fn node_checks(design: &Design, at: &NetworkAtDuty) -> Vec<Check> {
-    let u = Units::new(design.project.units);
-    let pr = u.pressure();
+pub fn node_checks(at: &NetworkAtDuty) -> Vec<Check> {
+    let pr = |si| message::value(Kind::Pressure, si);
     let mut out = Vec::new();
     for n in at.nodes.iter().filter(|n| n.kind != "tank") {
         if let Some(req) = n.required_pressure {
@@ -64,48 +63,46 @@ pub fn node_checks(design: &Design, at: &NetworkAtDuty) -> Vec<Check> {
                     status,
                     Some(n.pressure),
                     Some(req),
-                    format!(
-                        "{} {}: residual pressure {} {verdict} the required {}",
-                        n.kind,
-                        n.name,
-                        pr.fmt(n.pressure),
-                        pr.fmt(req)
-                    ),
+                    crate::message![
+                        format!("{} {}: residual pressure ", n.kind, n.name),
+                        pr(n.pressure),
+                        format!(" {verdict} the required "),
+                        pr(req)
+                    ],
                     Source::DesignRequirement,
                 )
                 .about(n.name.clone()),
             );
         }
-        if let Some(c) = vacuum_check(n, &u) {
+        if let Some(c) = vacuum_check(n) {
             out.push(c);
         }
     }
     out
 }
 
-fn vacuum_check(n: &NodeAtDuty, u: &Units) -> Option<Check> {
-    let pr = u.pressure();
+fn vacuum_check(n: &NodeAtDuty) -> Option<Check> {
+    let pr = message::value(Kind::Pressure, n.pressure);
     let (status, message, origin) = if n.near_vapour {
         (
             Status::Fail,
-            format!(
-                "{} {}: pressure {} is within {} of the vapour pressure: the column may separate; raise the grade line, and have the transients analysed",
-                n.kind,
-                n.name,
-                pr.fmt(n.pressure),
-                u.head().fmt(NEAR_VAPOUR_HEAD_M)
-            ),
+            crate::message![
+                format!("{} {}: pressure ", n.kind, n.name),
+                pr,
+                " is within ",
+                head(NEAR_VAPOUR_HEAD_M),
+                " of the vapour pressure: the column may separate; raise the grade line, and have the transients analysed"
+            ],
             Source::CommonPractice("a margin above vapour pressure against column separation"),
         )
     } else if n.below_atmospheric {
         (
             Status::Warn,
-            format!(
-                "{} {}: pressure {} is below atmospheric: air enters at joints and air valves; confirm the pipe's vacuum rating with the manufacturer",
-                n.kind,
-                n.name,
-                pr.fmt(n.pressure)
-            ),
+            crate::message![
+                format!("{} {}: pressure ", n.kind, n.name),
+                pr,
+                " is below atmospheric: air enters at joints and air valves; confirm the pipe's vacuum rating with the manufacturer"
+            ],
             Source::CommonPractice("a pressure main stays above atmospheric pressure"),
         )
     } else {
@@ -126,7 +123,6 @@ fn vacuum_check(n: &NodeAtDuty, u: &Units) -> Option<Check> {
 
 /// The design's node requirements that apply to a case, at one duty.
 pub fn requirement_checks(design: &Design, case: &str, at: &NetworkAtDuty) -> Vec<Check> {
-    let u = Units::new(design.project.units);
     design
         .node_requirements
         .iter()
@@ -136,18 +132,13 @@ pub fn requirement_checks(design: &Design, case: &str, at: &NetworkAtDuty) -> Ve
             let (value, shown, limit_shown, what) = match r.quantity {
                 NodeQuantity::Pressure => (
                     n.pressure,
-                    u.pressure().fmt(n.pressure),
-                    u.pressure().fmt(r.limit_si),
+                    message::value(Kind::Pressure, n.pressure),
+                    message::value(Kind::Pressure, r.limit_si),
                     "pressure",
                 ),
                 NodeQuantity::Flow => {
                     let q = n.inflow.unwrap_or(0.0);
-                    (
-                        q,
-                        u.flow().fmt(q),
-                        u.flow().fmt(r.limit_si),
-                        "flow into the tank",
-                    )
+                    (q, flow(q), flow(r.limit_si), "flow into the tank")
                 }
             };
             let ok = if r.at_least {
@@ -161,13 +152,16 @@ pub fn requirement_checks(design: &Design, case: &str, at: &NetworkAtDuty) -> Ve
                     if ok { Status::Pass } else { Status::Fail },
                     Some(value),
                     Some(r.limit_si),
-                    format!(
-                        "{what} at {} {} {}: {}, {shown}",
-                        r.node,
-                        if r.at_least { "at least" } else { "at most" },
+                    crate::message![
+                        format!(
+                            "{what} at {} {} ",
+                            r.node,
+                            if r.at_least { "at least" } else { "at most" }
+                        ),
                         limit_shown,
-                        if ok { "met" } else { "not met" }
-                    ),
+                        if ok { ": met, " } else { ": not met, " },
+                        shown
+                    ],
                     Source::DesignRequirement,
                 )
                 .about(r.text.clone()),

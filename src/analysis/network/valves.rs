@@ -20,7 +20,7 @@ use super::{Network, NodeKind};
 use crate::analysis::checks::{Check, Status};
 use crate::analysis::limits::{self, CheckId};
 use crate::analysis::system::G;
-use crate::display::{percent_against, ratio_against};
+use crate::message::{Message, Part};
 
 /// The valve checks at one duty: an opening check per open valve and an authority
 /// check per open control valve.
@@ -55,12 +55,19 @@ fn opening_check(name: &str, v: &Valve) -> Check {
     } else {
         (Status::Pass, hi, "within")
     };
-    let (shown, limit_shown) = if status == Status::Pass {
-        let (shown, lo_shown) = percent_against(x, lo.value);
-        let (_, hi_shown) = percent_against(x, hi.value);
-        (shown, format!("{lo_shown} to {hi_shown}"))
+    let limit_shown: Message = if status == Status::Pass {
+        crate::message![
+            Part::PercentAgainst(lo.value, x),
+            " to ",
+            Part::PercentAgainst(hi.value, x)
+        ]
     } else {
-        percent_against(x, limit.value)
+        crate::message![Part::PercentAgainst(limit.value, x)]
+    };
+    let shown = if status == Status::Pass {
+        Part::PercentAgainst(x, lo.value)
+    } else {
+        Part::PercentAgainst(x, limit.value)
     };
     let advice = match status {
         Status::Pass => String::new(),
@@ -75,7 +82,16 @@ fn opening_check(name: &str, v: &Valve) -> Check {
         status,
         Some(x),
         Some(limit.value),
-        format!("valve {name}: opening {shown} is {verdict} {limit_shown}{advice}"),
+        {
+            let mut m = crate::message![
+                format!("valve {name}: opening "),
+                shown,
+                format!(" is {verdict} ")
+            ];
+            m.append(&limit_shown);
+            m.push(advice);
+            m
+        },
         limit.source,
     )
     .about(name.to_string())
@@ -153,7 +169,6 @@ fn pass_through(net: &Network, entry: usize, node: usize) -> bool {
 
 fn authority_check(name: &str, n: f64) -> Check {
     let limit = limits::VALVE_AUTHORITY;
-    let (shown, limit_shown) = ratio_against(n, limit.value);
     let (status, text) = if n < limit.value {
         (
             Status::Warn,
@@ -167,7 +182,12 @@ fn authority_check(name: &str, n: f64) -> Check {
         status,
         Some(n),
         Some(limit.value),
-        format!("control valve {name}: authority {shown} (fully open valve drop over it plus the rest of its branch) is {text} {limit_shown}"),
+        crate::message![
+            format!("control valve {name}: authority "),
+            Part::RatioAgainst(n, limit.value),
+            format!(" (fully open valve drop over it plus the rest of its branch) is {text} "),
+            Part::RatioAgainst(limit.value, n)
+        ],
         limit.source,
     )
     .about(name.to_string())

@@ -9,7 +9,7 @@ use super::{CandidateOperation, PointResult};
 use crate::analysis::checks::{npsh_ratio_limit, Check, Status, AOR, POR};
 use crate::analysis::limits::{self, CheckId, Limit, Source};
 use crate::analysis::CaseResult;
-use crate::display::{percent, Units};
+use crate::message::{head, Message, Part};
 use crate::model::operation::Control;
 use crate::model::Design;
 
@@ -18,9 +18,9 @@ fn hours_where(points: &[PointResult], f: impl Fn(&PointResult) -> bool) -> f64 
     points.iter().filter(|p| f(p)).map(|p| p.hours).sum::<f64>() + 0.0
 }
 
-fn share(h: f64, total: f64) -> String {
+fn share(h: f64, total: f64) -> Part {
     if total > 0.0 {
-        percent(h / total)
+        Part::Percent(h / total)
     } else {
         "0 %".into()
     }
@@ -33,7 +33,6 @@ pub fn profile_checks(
     op: &CandidateOperation,
     cases: &[CaseResult],
 ) -> Vec<Check> {
-    let u = Units::new(design.project.units);
     let pts = &op.points;
     let total: f64 = pts.iter().map(|p| p.hours).sum();
     let mut out = vec![delivery(pts, total)];
@@ -51,19 +50,33 @@ pub fn profile_checks(
             if h > 0.0 { Status::Warn } else { Status::Pass },
             Some(h),
             Some(0.0),
-            format!(
-                "{h:.0} h a year ({}) at minimum speed with the surplus head throttled",
-                share(h, total)
-            ),
+            crate::message![
+                format!("{h:.0} h a year ("),
+                share(h, total),
+                ") at minimum speed with the surplus head throttled"
+            ],
             Source::DesignData("the design's minimum speed"),
         ));
-        out.extend(deadhead(design, m, op, cases, &u));
+        out.extend(deadhead(design, m, op, cases));
         let below = hours_where(pts, |p| {
             p.state.as_ref().is_some_and(|s| s.below_system_curve)
         });
-        out.push(Check::typed(CheckId::ControlCurve, if below > 0.0 { Status::Warn } else { Status::Pass }, Some(below), Some(0.0),
-            format!("the control curve lies below the system curve for {below:.0} h a year ({}); there the set gives the system head", share(below, total)),
-            Source::DesignData("the profile's control curve against the case's system curve")));
+        out.push(Check::typed(
+            CheckId::ControlCurve,
+            if below > 0.0 {
+                Status::Warn
+            } else {
+                Status::Pass
+            },
+            Some(below),
+            Some(0.0),
+            crate::message![
+                format!("the control curve lies below the system curve for {below:.0} h a year ("),
+                share(below, total),
+                "); there the set gives the system head"
+            ],
+            Source::DesignData("the profile's control curve against the case's system curve"),
+        ));
     }
     out.push(npsh(design, pts));
     out.extend(motor_load(pts));
@@ -84,11 +97,16 @@ fn delivery(pts: &[PointResult], total: f64) -> Check {
         Some(missed),
         Some(0.0),
         match first {
-            Some(why) => format!(
-                "{missed:.0} h a year ({}) not delivered: {why}",
-                share(missed, total)
-            ),
-            None => "every load point of the profile is delivered".into(),
+            Some(why) => {
+                let mut m = crate::message![
+                    format!("{missed:.0} h a year ("),
+                    share(missed, total),
+                    ") not delivered: "
+                ];
+                m.push(why);
+                m
+            }
+            None => Message::text("every load point of the profile is delivered"),
         },
         Source::DesignData("the design's load profile"),
     )
@@ -106,8 +124,8 @@ fn region(pts: &[PointResult], total: f64) -> Vec<Check> {
         Status::Pass
     };
     vec![Check::typed(CheckId::ProfileRegion, status, Some(outside_por), Some(0.0),
-        format!("{outside_por:.0} h a year ({}) outside the preferred region {:.0}–{:.0} % of BEP flow; {outside_aor:.0} h outside the allowable {:.0}–{:.0} %",
-            share(outside_por, total), POR.0 * 100.0, POR.1 * 100.0, AOR.0 * 100.0, AOR.1 * 100.0),
+        crate::message![format!("{outside_por:.0} h a year ("), share(outside_por, total), format!(") outside the preferred region {:.0}–{:.0} % of BEP flow; {outside_aor:.0} h outside the allowable {:.0}–{:.0} %",
+            POR.0 * 100.0, POR.1 * 100.0, AOR.0 * 100.0, AOR.1 * 100.0)],
         limits::POR_LOW.source)]
 }
 
@@ -136,10 +154,29 @@ fn min_flow(design: &Design, pts: &[PointResult], total: f64) -> Check {
         .iter()
         .find_map(|x| x.min_flow_ratio);
     let limit = stated.unwrap_or(AOR.0);
-    Check::typed(CheckId::ProfileMinFlow, if hours > 0.0 { Status::Fail } else { Status::Pass }, worst, Some(limit),
-        format!("smallest flow per pump {} of BEP flow; {hours:.0} h a year ({}) below the minimum continuous flow of {}",
-            worst.map_or("–".into(), percent), share(hours, total), percent(limit)),
-        if stated.is_some() { Source::DesignRequirement } else { limits::AOR_LOW.source })
+    Check::typed(
+        CheckId::ProfileMinFlow,
+        if hours > 0.0 {
+            Status::Fail
+        } else {
+            Status::Pass
+        },
+        worst,
+        Some(limit),
+        crate::message![
+            "smallest flow per pump ",
+            worst.map_or("–".into(), Part::Percent),
+            format!(" of BEP flow; {hours:.0} h a year ("),
+            share(hours, total),
+            ") below the minimum continuous flow of ",
+            Part::Percent(limit)
+        ],
+        if stated.is_some() {
+            Source::DesignRequirement
+        } else {
+            limits::AOR_LOW.source
+        },
+    )
 }
 
 /// Shut-off head at minimum speed: H₀,min = (N_min/N_r)²·H₀ (affinity laws) per pump,
@@ -150,7 +187,6 @@ fn deadhead(
     m: &SetModel,
     op: &CandidateOperation,
     cases: &[CaseResult],
-    u: &Units,
 ) -> Vec<Check> {
     let SpeedRange::Variable { min, .. } = m.speed else {
         return Vec::new();
@@ -177,11 +213,37 @@ fn deadhead(
         } else {
             Status::Fail
         };
-        out.push(Check::typed(CheckId::Deadhead, status, Some(shutoff), Some(need),
-            format!("case {}: shut-off head at minimum speed ({:.0} %) {} against static head {} plus margin {}{}",
-                profile.case, min * 100.0, u.head().fmt(shutoff), u.head().fmt(sys.static_head), u.head().fmt(margin),
-                if status == Status::Fail { ": the pump would deadhead; raise the minimum speed" } else { "" }),
-            if profile.deadhead_margin.is_some() { Source::DesignRequirement } else { limits::DEADHEAD_MARGIN.source }).about(profile.case.clone()));
+        out.push(
+            Check::typed(
+                CheckId::Deadhead,
+                status,
+                Some(shutoff),
+                Some(need),
+                crate::message![
+                    format!(
+                        "case {}: shut-off head at minimum speed ({:.0} %) ",
+                        profile.case,
+                        min * 100.0
+                    ),
+                    head(shutoff),
+                    " against static head ",
+                    head(sys.static_head),
+                    " plus margin ",
+                    head(margin),
+                    if status == Status::Fail {
+                        ": the pump would deadhead; raise the minimum speed"
+                    } else {
+                        ""
+                    }
+                ],
+                if profile.deadhead_margin.is_some() {
+                    Source::DesignRequirement
+                } else {
+                    limits::DEADHEAD_MARGIN.source
+                },
+            )
+            .about(profile.case.clone()),
+        );
     }
     out
 }
@@ -220,7 +282,7 @@ fn npsh(design: &Design, pts: &[PointResult]) -> Check {
             Status::Warn,
             None,
             None,
-            "no NPSH required data at the load points".into(),
+            "no NPSH required data at the load points",
             Source::DesignData("the curve tables of the design"),
         ),
     }
@@ -244,10 +306,22 @@ fn motor_load(pts: &[PointResult]) -> Vec<Check> {
     } else {
         Status::Pass
     };
-    vec![Check::typed(CheckId::ProfileMotorLoad, status, Some(max), Some(1.0),
-        format!("motor load {}–{} of nameplate over the profile (above 100 % fails; below {} the part-load efficiency falls off)",
-            percent(min), percent(max), percent(limits::MOTOR_LIGHT_LOAD.value)),
-        limits::MOTOR_LIGHT_LOAD.source)]
+    vec![Check::typed(
+        CheckId::ProfileMotorLoad,
+        status,
+        Some(max),
+        Some(1.0),
+        crate::message![
+            "motor load ",
+            Part::Percent(min),
+            "–",
+            Part::Percent(max),
+            " of nameplate over the profile (above 100 % fails; below ",
+            Part::Percent(limits::MOTOR_LIGHT_LOAD.value),
+            " the part-load efficiency falls off)"
+        ],
+        limits::MOTOR_LIGHT_LOAD.source,
+    )]
 }
 
 fn starts(design: &Design, pts: &[PointResult]) -> Vec<Check> {

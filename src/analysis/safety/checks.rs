@@ -8,60 +8,52 @@ use super::{max_at, CaseSafety, LineSafety};
 use crate::analysis::checks::{Check, Status};
 use crate::analysis::limits::{self, CheckId, Source};
 use crate::analysis::system::G;
-use crate::display::Units;
-use crate::model::{Design, Side};
+use crate::message::{self, head, Kind, Message};
+use crate::model::Side;
 
 /// The sentence every failing surge screen ends with.
 pub const TRANSIENT_ADVICE: &str =
     "a screening estimate: a full transient (water-hammer) analysis is needed";
 
-/// Where a station is, in report units ("at 805 ft chainage, elevation 1352.0 ft").
-fn place(units: &Units, l: &LineSafety, i: usize) -> String {
+/// Where a station is ("at chainage 805 ft, elevation 1352.0 ft" in report units).
+fn place(l: &LineSafety, i: usize) -> Message {
     let st = &l.stations[i];
-    format!(
-        "at chainage {}, elevation {}",
-        units.length().fmt(st.chainage),
-        units.elevation().fmt(st.elevation)
-    )
+    crate::message![
+        "at chainage ",
+        message::value(Kind::Length, st.chainage),
+        ", elevation ",
+        message::value(Kind::Elevation, st.elevation)
+    ]
+}
+
+/// A pressure rating or screened pressure (Pa) that must not read like `other`.
+fn rating_against(si: f64, other: f64) -> message::Part {
+    message::against(Kind::Rating, si, other)
+}
+
+/// A gauge pressure (Pa) that must not read like `other`.
+fn pressure_against(si: f64, other: f64) -> message::Part {
+    message::against(Kind::Pressure, si, other)
 }
 
 /// All safety checks of a case.
-pub fn line_checks(design: &Design, c: &CaseSafety) -> Vec<Check> {
-    let units = Units::new(design.project.units);
+pub fn line_checks(c: &CaseSafety) -> Vec<Check> {
     let mut out = Vec::new();
     for l in &c.lines {
         if let Some(p) = &l.pressure_duty {
-            out.extend(rating_check(
-                &units,
-                l,
-                p,
-                CheckId::PressureRating,
-                "operating",
-            ));
-            out.extend(minimum_checks(&units, l));
+            out.extend(rating_check(l, p, CheckId::PressureRating, "operating"));
+            out.extend(minimum_checks(l));
         }
         if let Some(p) = &l.pressure_shutoff {
-            out.extend(rating_check(
-                &units,
-                l,
-                p,
-                CheckId::ShutoffPressure,
-                "shut-off",
-            ));
+            out.extend(rating_check(l, p, CheckId::ShutoffPressure, "shut-off"));
         }
-        out.extend(surge_checks(&units, l));
+        out.extend(surge_checks(l));
     }
     out
 }
 
 /// Pressure against the working rating along a line: the station nearest its rating.
-fn rating_check(
-    units: &Units,
-    l: &LineSafety,
-    p: &[f64],
-    id: CheckId,
-    what: &str,
-) -> Option<Check> {
+fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &str) -> Option<Check> {
     let rated: Vec<(usize, f64, f64)> = p
         .iter()
         .zip(&l.rating_at)
@@ -79,12 +71,16 @@ fn rating_check(
                 Status::Warn,
                 Some(pmax),
                 None,
-                format!(
-                    "line {}: highest {what} pressure {} {}; no segment has a rating (give `rating = ...` from the manufacturer)",
-                    l.name,
-                    units.rating().fmt(pmax),
-                    place(units, l, i)
-                ),
+                {
+                    let mut m = crate::message![
+                        format!("line {}: highest {what} pressure ", l.name),
+                        message::value(Kind::Rating, pmax),
+                        " "
+                    ];
+                    m.append(&place(l, i));
+                    m.push("; no segment has a rating (give `rating = ...` from the manufacturer)");
+                    m
+                },
                 source,
             )
             .about(l.name.clone()),
@@ -95,7 +91,6 @@ fn rating_check(
         .copied()
         .max_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)))?;
     let status = if pv > r { Status::Fail } else { Status::Pass };
-    let (vs, rs) = units.rating().fmt_against(pv, r);
     let unrated = l.rating_at.iter().filter(|r| r.is_none()).count();
     let note = if unrated > 0 {
         "; some segments have no rating"
@@ -108,11 +103,18 @@ fn rating_check(
             status,
             Some(pv),
             Some(r),
-            format!(
-                "line {}: {what} pressure {vs} against the rating {rs} {}{note}",
-                l.name,
-                place(units, l, i)
-            ),
+            {
+                let mut m = crate::message![
+                    format!("line {}: {what} pressure ", l.name),
+                    rating_against(pv, r),
+                    " against the rating ",
+                    rating_against(r, pv),
+                    " "
+                ];
+                m.append(&place(l, i));
+                m.push(note);
+                m
+            },
             source,
         )
         .about(l.name.clone()),
@@ -121,7 +123,7 @@ fn rating_check(
 
 /// Lowest duty pressure against the stated minimum and against vapour pressure plus
 /// the margin.
-fn minimum_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
+fn minimum_checks(l: &LineSafety) -> Vec<Check> {
     let Some((pmin, i)) = l.min_duty() else {
         return Vec::new();
     };
@@ -130,18 +132,28 @@ fn minimum_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
     // design; the stated minimum is for lines under positive pressure.
     if l.side == Side::Discharge {
         let lim = limits::MIN_STEADY_PRESSURE_PA;
-        let (vs, ls) = units.pressure().fmt_against(pmin, lim.value);
         out.push(
             Check::typed(
                 CheckId::MinimumPressure,
-                if pmin < lim.value { Status::Warn } else { Status::Pass },
+                if pmin < lim.value {
+                    Status::Warn
+                } else {
+                    Status::Pass
+                },
                 Some(pmin),
                 Some(lim.value),
-                format!(
-                    "line {}: lowest operating pressure {vs} {}; at least {ls} keeps air valves from admitting air",
-                    l.name,
-                    place(units, l, i)
-                ),
+                {
+                    let mut m = crate::message![
+                        format!("line {}: lowest operating pressure ", l.name),
+                        pressure_against(pmin, lim.value),
+                        " "
+                    ];
+                    m.append(&place(l, i));
+                    m.push("; at least ");
+                    m.push(pressure_against(lim.value, pmin));
+                    m.push(" keeps air valves from admitting air");
+                    m
+                },
                 lim.source,
             )
             .about(l.name.clone()),
@@ -149,18 +161,28 @@ fn minimum_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
     }
     let margin = limits::VAPOUR_MARGIN_PA;
     let floor = l.vapour_gauge + margin.value;
-    let (vs, ls) = units.pressure().fmt_against(pmin, floor);
     out.push(
         Check::typed(
             CheckId::VapourMargin,
-            if pmin < floor { Status::Fail } else { Status::Pass },
+            if pmin < floor {
+                Status::Fail
+            } else {
+                Status::Pass
+            },
             Some(pmin),
             Some(floor),
-            format!(
-                "line {}: lowest operating pressure {vs} (gauge) {} against vapour pressure plus margin {ls} (gauge)",
-                l.name,
-                place(units, l, i)
-            ),
+            {
+                let mut m = crate::message![
+                    format!("line {}: lowest operating pressure ", l.name),
+                    pressure_against(pmin, floor),
+                    " (gauge) "
+                ];
+                m.append(&place(l, i));
+                m.push(" against vapour pressure plus margin ");
+                m.push(pressure_against(floor, pmin));
+                m.push(" (gauge)");
+                m
+            },
             margin.source,
         )
         .about(l.name.clone()),
@@ -170,7 +192,7 @@ fn minimum_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
 
 /// The surge screens of a line: pump-trip downsurge against vapour pressure
 /// (discharge lines) and surge plus operating pressure against the transient rating.
-fn surge_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
+fn surge_checks(l: &LineSafety) -> Vec<Check> {
     let (Some(sg), Some(p)) = (&l.surge, &l.pressure_duty) else {
         return Vec::new();
     };
@@ -187,64 +209,75 @@ fn surge_checks(units: &Units, l: &LineSafety) -> Vec<Check> {
         if let Some((room, i)) = worst {
             let down = sg.joukowsky_head;
             let fails = down >= room;
-            let (vs, ls) = units.head().fmt_against(down, room);
             out.push(
                 Check::typed(
                     CheckId::ColumnSeparation,
                     if fails { Status::Fail } else { Status::Pass },
                     Some(down),
                     Some(room),
-                    format!(
-                        "line {}: a pump-trip downsurge of {vs} against {ls} of head above vapour pressure {}{}",
-                        l.name,
-                        place(units, l, i),
+                    {
+                        let mut m = crate::message![
+                            format!("line {}: a pump-trip downsurge of ", l.name),
+                            message::against(Kind::Head, down, room),
+                            " against ",
+                            message::against(Kind::Head, room, down),
+                            " of head above vapour pressure "
+                        ];
+                        m.append(&place(l, i));
                         if fails {
-                            format!("; the column may separate there, and its rejoin and check-valve slam can exceed the Joukowsky rise: {TRANSIENT_ADVICE}")
-                        } else {
-                            String::new()
+                            m.push(format!("; the column may separate there, and its rejoin and check-valve slam can exceed the Joukowsky rise: {TRANSIENT_ADVICE}"));
                         }
-                    ),
+                        m
+                    },
                     source,
                 )
                 .about(l.name.clone()),
             );
         }
     }
-    let head = sg
-        .valve
-        .as_ref()
-        .map(|v| v.head)
-        .unwrap_or(0.0)
-        .max(if l.side == Side::Discharge {
-            sg.joukowsky_head
-        } else {
-            0.0
-        });
-    if head <= 0.0 {
+    let surge_head =
+        sg.valve
+            .as_ref()
+            .map(|v| v.head)
+            .unwrap_or(0.0)
+            .max(if l.side == Side::Discharge {
+                sg.joukowsky_head
+            } else {
+                0.0
+            });
+    if surge_head <= 0.0 {
         return out;
     }
     let worst = p
         .iter()
         .zip(&l.transient_at)
         .enumerate()
-        .filter_map(|(i, (p, r))| r.map(|r| (i, p + l.density * G * head, r)))
+        .filter_map(|(i, (p, r))| r.map(|r| (i, p + l.density * G * surge_head, r)))
         .max_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)));
     if let Some((i, ps, r)) = worst {
         let fails = ps > r;
-        let (vs, rs) = units.rating().fmt_against(ps, r);
         out.push(
             Check::typed(
                 CheckId::Surge,
                 if fails { Status::Fail } else { Status::Pass },
                 Some(ps),
                 Some(r),
-                format!(
-                    "line {}: operating pressure plus a surge of {} reaches {vs} {} against the transient rating {rs}{}",
-                    l.name,
-                    units.head().fmt(head),
-                    place(units, l, i),
-                    if fails { format!("; {TRANSIENT_ADVICE}") } else { String::new() }
-                ),
+                {
+                    let mut m = crate::message![
+                        format!("line {}: operating pressure plus a surge of ", l.name),
+                        head(surge_head),
+                        " reaches ",
+                        rating_against(ps, r),
+                        " "
+                    ];
+                    m.append(&place(l, i));
+                    m.push(" against the transient rating ");
+                    m.push(rating_against(r, ps));
+                    if fails {
+                        m.push(format!("; {TRANSIENT_ADVICE}"));
+                    }
+                    m
+                },
                 source,
             )
             .about(l.name.clone()),

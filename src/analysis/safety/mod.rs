@@ -172,7 +172,6 @@ pub fn screen(
             let flow = k.and_then(|k| result.pumps.get(k)?.duty.as_ref().map(|d| d.flow));
             match &result.system {
                 Some(sys) => case_screen(
-                    design,
                     &case.scenario.lines,
                     &case.scenario.fluid,
                     sys,
@@ -274,7 +273,6 @@ pub fn suction_static_pressure(sys: &CaseSystem) -> f64 {
 
 /// The screen of one case: every line, then its checks.
 fn case_screen(
-    design: &Design,
     lines: &[Line],
     fluid: &Fluid,
     sys: &CaseSystem,
@@ -301,7 +299,7 @@ fn case_screen(
         let ls = line_screen(line, sys, flow, shutoff, temperature, k, &mut out.notes);
         out.lines.push(ls);
     }
-    out.checks = checks::line_checks(design, &out);
+    out.checks = checks::line_checks(&out);
     out
 }
 

@@ -7,6 +7,7 @@ use crate::report::layout::document::Block;
 
 /// The assumptions, notes and cautions chapter.
 pub(super) fn chapter(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis) {
+    let units = crate::display::Units::new(design.project.units);
     blocks.push(Block::heading(1, "Assumptions, notes and cautions"));
     blocks.push(Block::heading(2, "Assumptions of the design"));
     if design.assumptions.is_empty() {
@@ -33,7 +34,9 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
     if !analysis.warnings.is_empty() {
         blocks.push(Block::heading(2, "Warnings of the analysis"));
         for w in &analysis.warnings {
-            blocks.push(Block::note(super::wording::plain(&w.message)));
+            blocks.push(Block::note(super::wording::plain(
+                &units.render(&w.message),
+            )));
         }
     }
     blocks.push(Block::heading(2, "Cautions"));

@@ -24,7 +24,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
                     p.name.clone(),
                     check_name(&check.id.to_string()),
                     mark.to_string(),
-                    super::wording::plain(&check.message),
+                    super::wording::plain(&units.render(&check.message)),
                     super::sources::publication(&check.source, units),
                 ]);
             }

@@ -388,7 +388,7 @@ fn candidate(
                 vec![
                     c.id.as_str().to_string(),
                     c.status.keyword().to_uppercase(),
-                    super::wording::plain(&c.message),
+                    super::wording::plain(&units.render(&c.message)),
                     c.source.clone(),
                 ]
             })

@@ -23,7 +23,7 @@ pub(super) fn chapter(
     let selection = &analysis.selection;
     blocks.push(Block::Paragraph(vec![
         Span::bold("Basis of the ranking: "),
-        Span::plain(super::wording::plain(&selection.basis)),
+        Span::plain(super::wording::plain(&units.render(&selection.basis))),
     ]));
     blocks.push(Block::text(super::wording::plain(&selection.criteria_text)));
     ranking(blocks, design, analysis, units);
@@ -137,6 +137,7 @@ fn capacity(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units
 
 /// Which requirement applies in which case, and each candidate's status there.
 fn requirement_matrix(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis) {
+    let units = Units::new(design.project.units);
     let matrix = &analysis.requirement_matrix;
     if matrix.is_empty() {
         return;
@@ -151,7 +152,7 @@ fn requirement_matrix(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
     let rows: Vec<Vec<String>> = matrix
         .iter()
         .map(|row| {
-            let mut cells = vec![super::wording::plain(&row.text)];
+            let mut cells = vec![super::wording::plain(&units.render(&row.text))];
             for (k, applies) in row.applies.iter().enumerate() {
                 cells.push(if *applies {
                     design

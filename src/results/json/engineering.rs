@@ -13,6 +13,7 @@ use crate::analysis::duty::Headroom;
 use crate::analysis::motor::MotorSizing;
 use crate::analysis::parallel::OneAlone;
 use crate::analysis::{Analysis, NpshTerms, SegmentAtFlow};
+use crate::display::Units;
 use crate::pumps::MotorStandard;
 
 #[derive(Serialize)]
@@ -152,7 +153,7 @@ pub(super) struct OneAloneOut<'a> {
     /// `null` when the pump runs beyond the end of its published curve.
     duty: Option<OneAloneDutyOut>,
     status: &'static str,
-    message: &'a str,
+    message: String,
 }
 
 #[derive(Serialize)]
@@ -165,7 +166,7 @@ pub(super) struct OneAloneDutyOut {
     npsh_required_m: Option<f64>,
 }
 
-pub(super) fn one_alone(a: &OneAlone) -> OneAloneOut<'_> {
+pub(super) fn one_alone(a: &OneAlone, units: Units) -> OneAloneOut<'_> {
     OneAloneOut {
         case: &a.case,
         speed_rpm: a.speed_rpm,
@@ -180,7 +181,7 @@ pub(super) fn one_alone(a: &OneAlone) -> OneAloneOut<'_> {
             _ => None,
         },
         status: a.check.status.keyword(),
-        message: &a.check.message,
+        message: units.render(&a.check.message),
     }
 }
 
@@ -219,7 +220,7 @@ pub(super) fn capacity<'a>(
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct RequirementOut<'a> {
     requirement: &'a str,
-    text: &'a str,
+    text: String,
     cases: Vec<RequirementCaseOut<'a>>,
 }
 
@@ -246,7 +247,7 @@ pub(super) fn requirement_matrix<'a>(
     rows.iter()
         .map(|r| RequirementOut {
             requirement: &r.written,
-            text: &r.text,
+            text: crate::display::Units::new(design.project.units).render(&r.text),
             cases: analysis
                 .cases
                 .iter()

@@ -125,6 +125,7 @@ fn curve<'a>(c: &CurveData, fitted: Option<&'a Result<PumpCurves, String>>) -> C
 
 /// Every candidate of the design, in file order.
 pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<Candidate<'a>> {
+    let units = crate::display::Units::new(design.project.units);
     design
         .pumps
         .iter()
@@ -156,13 +157,13 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
                     .one_alone
                     .get(k)
                     .and_then(|a| a.as_ref())
-                    .map(super::engineering::one_alone),
+                    .map(|a| super::engineering::one_alone(a, units)),
                 capacity: super::engineering::capacity(design, analysis, k),
                 operation: analysis
                     .operation
                     .iter()
                     .find(|o| o.name == p.name)
-                    .map(super::operation::operation),
+                    .map(|o| super::operation::operation(o, units)),
             }
         })
         .collect()

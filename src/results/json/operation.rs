@@ -8,6 +8,7 @@ use serde::Serialize;
 
 use super::{check, finite, CheckOut};
 use crate::analysis::operation::{CandidateOperation, PointResult};
+use crate::display::Units;
 
 /// One load point of one candidate.
 #[derive(Serialize)]
@@ -137,7 +138,7 @@ fn point(p: &PointResult) -> PointOut<'_> {
 }
 
 /// The operation of one candidate.
-pub(super) fn operation(o: &CandidateOperation) -> OperationOut<'_> {
+pub(super) fn operation(o: &CandidateOperation, units: Units) -> OperationOut<'_> {
     let y = &o.yearly;
     OperationOut {
         profile: o.points.iter().map(point).collect(),
@@ -182,7 +183,7 @@ pub(super) fn operation(o: &CandidateOperation) -> OperationOut<'_> {
             })
             .collect(),
         controls: o.controls.iter().map(|c| c.keyword()).collect(),
-        profile_checks: o.checks.iter().map(check).collect(),
+        profile_checks: o.checks.iter().map(|c| check(c, units)).collect(),
         profile_failure: o.failure.as_deref(),
     }
 }

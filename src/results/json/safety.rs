@@ -10,6 +10,7 @@ use serde::Serialize;
 
 use super::{check, finite, CheckOut};
 use crate::analysis::safety::{CaseSafety, LineSafety, Safety, SegmentWave};
+use crate::display::Units;
 
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
@@ -155,7 +156,7 @@ fn pick(v: &Option<Vec<f64>>, i: usize) -> Option<f64> {
     v.as_ref().and_then(|v| v.get(i).copied()).and_then(finite)
 }
 
-fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety) -> LineOut<'a> {
+fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety, units: Units) -> LineOut<'a> {
     let profile = l
         .stations
         .iter()
@@ -228,13 +229,13 @@ fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety) -> LineOut<'a> {
             .checks
             .iter()
             .filter(|k| k.subject.as_deref() == Some(l.name.as_str()))
-            .map(check)
+            .map(|k| check(k, units))
             .collect(),
     }
 }
 
 /// The `lines[]` of a case.
-pub(super) fn lines(c: Option<&CaseSafety>) -> Vec<LineOut<'_>> {
-    c.map(|c| c.lines.iter().map(|l| line(c, l)).collect())
+pub(super) fn lines(c: Option<&CaseSafety>, units: Units) -> Vec<LineOut<'_>> {
+    c.map(|c| c.lines.iter().map(|l| line(c, l, units)).collect())
         .unwrap_or_default()
 }

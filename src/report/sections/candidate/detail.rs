@@ -414,7 +414,7 @@ pub(super) fn one_alone(
         ),
         (
             "Finding".into(),
-            super::super::wording::plain(&alone.check.message),
+            super::super::wording::plain(&units.render(&alone.check.message)),
         ),
     ]));
 }

@@ -54,7 +54,7 @@ pub(super) fn chapter(
     if let Some(Some(alone)) = analysis.one_alone.get(index) {
         detail::one_alone(blocks, pump, alone, units);
     }
-    remarks(blocks, pump, &all_results);
+    remarks(blocks, pump, &all_results, units);
 }
 
 /// The arrangement in words: "single pump", "2 in parallel", "3 in series".
@@ -256,7 +256,10 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
                 c.name.clone(),
                 "—".into(),
                 "no duty point".into(),
-                r.failure.clone().unwrap_or_default(),
+                r.failure
+                    .as_ref()
+                    .map(|m| units.render(m))
+                    .unwrap_or_default(),
                 String::new(),
                 String::new(),
                 String::new(),
@@ -285,10 +288,14 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
 }
 
 /// The warnings of every case, each once.
-fn remarks(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]) {
+fn remarks(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun], units: &Units) {
     let warnings: Vec<String> = results
         .iter()
-        .flat_map(|(c, r)| r.warnings.iter().map(move |w| format!("{}: {w}", c.name)))
+        .flat_map(|(c, r)| {
+            r.warnings
+                .iter()
+                .map(move |w| format!("{}: {}", c.name, units.render(w)))
+        })
         .collect();
     if !warnings.is_empty() {
         blocks.push(Block::heading(2, format!("Remarks on {}", pump.name)));

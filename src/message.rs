@@ -1,0 +1,177 @@
+//! Typed messages: what the model and the analysis say about a design, with every
+//! quantity kept as an SI value and its kind, so that only the outputs turn it into
+//! report units (through [`crate::display::Units::render`]). A stage below the
+//! outputs never formats a quantity itself.
+
+/// The kind of a quantity in a message: which report unit shows it (see the
+/// methods of the same names on [`crate::display::Units`]).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Kind {
+    /// Volume flow, m³/s.
+    Flow,
+    /// Head of fluid, m.
+    Head,
+    /// Elevation or level, m.
+    Elevation,
+    /// Pipe length, m.
+    Length,
+    /// Diameter, m.
+    Diameter,
+    /// Pressure, Pa.
+    Pressure,
+    /// A pressure rating or screened pressure, Pa.
+    Rating,
+    /// Power, W.
+    Power,
+    /// Velocity, m/s.
+    Velocity,
+    /// Pressure-wave speed, m/s.
+    WaveSpeed,
+    /// Temperature, K.
+    Temperature,
+    /// Rotational speed, rpm.
+    Speed,
+    /// Energy, J.
+    Energy,
+    /// Energy per volume delivered, J/m³.
+    SpecificEnergy,
+    /// Volume, m³.
+    Volume,
+}
+
+/// One piece of a message.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Part {
+    /// Plain words, printed as they are.
+    Text(String),
+    /// A quantity (SI value of its kind), printed with its report unit.
+    Value(Kind, f64),
+    /// A quantity printed with as many more decimals as it takes not to read like
+    /// `against` (the first of [`crate::display::Shown::fmt_against`]); SI values.
+    Against(Kind, f64, f64),
+    /// A quantity typeset for print: a minus sign (U+2212), never "−0.0"
+    /// ([`crate::display::Shown::text`]); SI value.
+    Typeset(Kind, f64),
+    /// As [`Part::Typeset`] without the unit ([`crate::display::Shown::figure`]).
+    Figure(Kind, f64),
+    /// A fraction as a percentage with one decimal ("76.5 %").
+    Percent(f64),
+    /// A fraction as a percentage that does not read like the fraction `against`.
+    PercentAgainst(f64, f64),
+    /// A ratio with two decimals or more, not reading like the ratio `against`.
+    RatioAgainst(f64, f64),
+    /// A number to `digits` significant figures, trailing zeros dropped.
+    Significant(f64, usize),
+    /// The name of the volume a cost per volume is given in (`m³`, `1000 gal`).
+    VolumeCostUnit,
+}
+
+impl From<&str> for Part {
+    fn from(text: &str) -> Part {
+        Part::Text(text.to_string())
+    }
+}
+
+impl From<String> for Part {
+    fn from(text: String) -> Part {
+        Part::Text(text)
+    }
+}
+
+impl From<&String> for Part {
+    fn from(text: &String) -> Part {
+        Part::Text(text.clone())
+    }
+}
+
+/// A sentence of words and quantities, rendered in report units by the outputs.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Message {
+    /// The pieces in reading order.
+    pub parts: Vec<Part>,
+}
+
+impl Message {
+    /// An empty message.
+    pub fn new() -> Message {
+        Message::default()
+    }
+    /// A message of plain words only.
+    pub fn text(text: impl Into<String>) -> Message {
+        Message {
+            parts: vec![Part::Text(text.into())],
+        }
+    }
+    /// Appends one part.
+    pub fn push(&mut self, part: impl Into<Part>) {
+        self.parts.push(part.into());
+    }
+    /// Appends plain words.
+    pub fn push_str(&mut self, text: &str) {
+        self.parts.push(Part::Text(text.to_string()));
+    }
+    /// Appends every part of `other`.
+    pub fn append(&mut self, other: &Message) {
+        self.parts.extend(other.parts.iter().cloned());
+    }
+    /// `text` followed by this message.
+    pub fn prefixed(mut self, text: impl Into<String>) -> Message {
+        self.parts.insert(0, Part::Text(text.into()));
+        self
+    }
+    /// The message's text when it holds no quantity (plain words only), else `None`.
+    pub fn plain(&self) -> Option<String> {
+        let mut out = String::new();
+        for part in &self.parts {
+            match part {
+                Part::Text(t) => out.push_str(t),
+                _ => return None,
+            }
+        }
+        Some(out)
+    }
+}
+
+impl From<&str> for Message {
+    fn from(text: &str) -> Message {
+        Message::text(text)
+    }
+}
+
+impl From<String> for Message {
+    fn from(text: String) -> Message {
+        Message::text(text)
+    }
+}
+
+/// A quantity of `kind` (SI value) as a message part.
+pub fn value(kind: Kind, si: f64) -> Part {
+    Part::Value(kind, si)
+}
+
+/// A flow (m³/s) as a message part.
+pub fn flow(si: f64) -> Part {
+    Part::Value(Kind::Flow, si)
+}
+
+/// A head (m) as a message part.
+pub fn head(si: f64) -> Part {
+    Part::Value(Kind::Head, si)
+}
+
+/// A quantity that must not read like `against` (both SI) as a message part.
+pub fn against(kind: Kind, si: f64, against: f64) -> Part {
+    Part::Against(kind, si, against)
+}
+
+/// A message from its parts: `message!["flow ", flow(q), " is low"]`; each item is
+/// anything that turns into a [`Part`] (`&str`, `String`, a part).
+#[macro_export]
+macro_rules! message {
+    ($($part:expr),* $(,)?) => {{
+        #[allow(unused_mut)]
+        let mut m = $crate::message::Message::new();
+        $( m.push($part); )*
+        m
+    }};
+}
