@@ -111,6 +111,18 @@ fn the_tables_replace_the_typical_curves_point_by_point() {
         }
     }
     assert!(checked >= 6, "{checked}");
+    // The results JSON says which data were used (docs/results-json.md).
+    let json: serde_json::Value = serde_json::from_str(&dutyline::results::to_json(
+        &d,
+        &a,
+        "k.duty",
+        &kestrel(MOTOR),
+        &[],
+    ))
+    .unwrap();
+    let kr1 = &json["candidates"][0];
+    assert_eq!(kr1["motor_part_load"], "design_table");
+    assert_eq!(kr1["drive_losses"], "design_iec_61800_9_2");
     // The yearly energy differs from the typical curves' (the tables were used).
     let (e1, e2) = (
         a.operation[0].yearly.energy_j,

@@ -162,7 +162,7 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
                     .operation
                     .iter()
                     .find(|o| o.name == p.name)
-                    .map(super::operation::operation),
+                    .map(|o| super::operation::operation(o, design)),
             }
         })
         .collect()
