@@ -366,4 +366,11 @@ fn wall_and_rating_changes_show() {
             "line discharge › segment 2 › wall: 0.322 in → 0.5 in",
         ]
     );
+    assert_eq!(
+        changes_after(&[(
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser }",
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser\n flanges = asme_150 }"
+        )]),
+        vec!["line discharge › segment 2 › flanges: added (ASME B16.5 class 150 flanges (material group 1.1))"]
+    );
 }
