@@ -339,8 +339,8 @@ fn profile_cost_and_motor_changes_show() {
     );
     assert_eq!(
         changes_after(&[(
-            "    efficiency = 94.1 %\n",
-            "    efficiency = 94.1 %\n    supply = 50 Hz\n"
+            "    service_factor = 1.15\n",
+            "    service_factor = 1.15\n    supply = 50 Hz\n"
         )]),
         vec!["motor › supply: added (50 Hz)"]
     );
@@ -368,5 +368,12 @@ fn wall_and_rating_changes_show() {
             "line discharge › segment 2 › inner_diameter: 7.94236 in → 7.565 in",
             "line discharge › segment 2 › wall: 0.322 in → 0.5 in",
         ]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser }",
+            "pipe pvc 8 in schedule 40 { length = 2650 ft + riser\n flanges = asme_150 }"
+        )]),
+        vec!["line discharge › segment 2 › flanges: added (ASME B16.5 class 150 flanges (material group 1.1))"]
     );
 }

@@ -247,7 +247,7 @@ fn text_lists_inputs_then_a_table_per_case_and_pump() {
     let d = diff::diff(&a, &aa, &b, &ab);
     let text = diff::render_text(&d);
     assert!(
-        text.starts_with("Input changes (6)\n  revision B: added ("),
+        text.starts_with("Input changes (9)\n  revision B: added ("),
         "{text}"
     );
     assert!(

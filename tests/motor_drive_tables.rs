@@ -111,6 +111,18 @@ fn the_tables_replace_the_typical_curves_point_by_point() {
         }
     }
     assert!(checked >= 6, "{checked}");
+    // The results JSON says which data were used (docs/results-json.md).
+    let json: serde_json::Value = serde_json::from_str(&dutyline::results::to_json(
+        &d,
+        &a,
+        "k.duty",
+        &kestrel(MOTOR),
+        &[],
+    ))
+    .unwrap();
+    let kr1 = &json["candidates"][0];
+    assert_eq!(kr1["motor_part_load"], "design_table");
+    assert_eq!(kr1["drive_losses"], "design_iec_61800_9_2");
     // The yearly energy differs from the typical curves' (the tables were used).
     let (e1, e2) = (
         a.operation[0].yearly.energy_j,
@@ -171,4 +183,53 @@ fn table_mistakes_get_located_diagnostics() {
         .diagnostics
         .iter()
         .any(|d| d.code.as_str() == "unexpected-statement"));
+}
+
+#[test]
+fn the_supply_frequency_selects_the_iec_table() {
+    // Kestrel's KR1 motor is 90 kW (non-overloading to its 81.1 kW run-out), 4 poles
+    // (1480 rpm on 50 Hz). Without a stated efficiency the default is the IE3 value:
+    // 95.2 % at 50 Hz (IEC 60034-30-1, 90 kW 4-pole, from memory); on `supply = 60 Hz`
+    // the 60 Hz table (by hp) is read: 90 kW = 120.7 hp takes the 100 hp row (the largest
+    // not above it), 4 poles at 60 Hz (1480 rpm below 1800 rpm synchronous), 95.4 %
+    // (NEMA MG 1 Table 12-12, from memory).
+    let motor = |extra: &str| {
+        kestrel(&format!(
+            "motor {{\n    standard = iec\n    drive_efficiency = 97 %\n{extra}}}"
+        ))
+    };
+    let sizing = |src: &str| {
+        let c = dutyline::check(src, &files());
+        let d = c.design.unwrap_or_else(|| panic!("{:?}", c.diagnostics));
+        let a = dutyline::analysis::analyse(&d);
+        a.motor_sizing[0].clone().unwrap()
+    };
+    let fifty = sizing(&motor(""));
+    assert_eq!(fifty.supply_hz, 50.0);
+    let sixty = sizing(&motor("    supply = 60 Hz\n"));
+    assert_eq!(sixty.supply_hz, 60.0);
+    assert!(
+        (fifty.choice.rating_w - 90e3).abs() < 1.0,
+        "{}",
+        fifty.choice.rating_w
+    );
+    assert!(
+        (fifty.efficiency - 0.952).abs() < 1e-12,
+        "{}",
+        fifty.efficiency_source
+    );
+    assert!(
+        (sixty.efficiency - 0.954).abs() < 1e-12,
+        "{}",
+        sixty.efficiency_source
+    );
+    assert!(
+        sixty.efficiency_source.contains("60 Hz"),
+        "{}",
+        sixty.efficiency_source
+    );
+    // Only 50 Hz and 60 Hz have tables.
+    let c = dutyline::check(&motor("    supply = 55 Hz\n"), &files());
+    let e = c.diagnostics.iter().find(|d| d.is_error()).unwrap();
+    assert_eq!(e.code.as_str(), "out-of-range");
 }

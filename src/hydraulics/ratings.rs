@@ -161,9 +161,13 @@ impl Basis {
                 pressure(1.5 * pr)
             ),
             Basis::C900 { dr, class, short_term, cycles_at_class } => format!(
-                "AWWA C900-16 DR {dr}: pressure class PC = HDB/(SF·(DR − 1)/2) = 4000 psi/(2.0 × ({dr} − 1)/2), rounded down to 5 psi = {}; occasional surge to the short-term rating 2·S_ST/(2.5·(DR − 1)) = {}; recurring surges: AWWA M23 fatigue, C = 5.05·10²¹·S^−4.906 = {} cycles with the peak at PC",
+                "AWWA C900-16 DR {dr}: pressure class PC = HDB/(SF·(DR − 1)/2) = {}/(2.0 × ({dr} − 1)/2), rounded down to the standard's tabulated step = {}; occasional surge to the short-term rating 2·S_ST/(2.5·(DR − 1)) = {} (S_ST = {}); recurring surges: AWWA M23 fatigue, C = 9.67·10⁶·(S/S₁)^−4.906 with S₁ = {}; at the peak PC, S = PC·(DR − 1)/2 = {}: C = {} cycles",
+                pressure(C900_HDB_PSI * PSI),
                 pressure(class),
                 pressure(short_term),
+                pressure(C900_SHORT_TERM_PSI * PSI),
+                pressure(1000.0 * PSI),
+                pressure(class * (dr - 1.0) / 2.0),
                 significant_cycles(cycles_at_class)
             ),
             Basis::SteelM11 { wall, yield_strength, outer_diameter, p } => format!(
@@ -217,13 +221,24 @@ pub struct RatingInput<'a> {
 /// 2, from memory): the default of an AWWA M11 rating.
 pub const STEEL_YIELD_PSI: f64 = 35_000.0;
 
-/// A cycle count to three significant figures: `3.21e5`.
+/// A cycle count to three significant figures with a superscript power: `3.24 × 10⁵`.
 fn significant_cycles(c: f64) -> String {
-    if c.is_finite() {
-        format!("{c:.2e}").replace('e', "·10^")
-    } else {
-        "unlimited".into()
+    if !(c.is_finite() && c > 0.0) {
+        return "unlimited".into();
     }
+    let text = format!("{c:.2e}");
+    let (mantissa, exp) = text.split_once('e').unwrap_or((&text, "0"));
+    let sup: String = exp
+        .chars()
+        .map(|ch| match ch {
+            '-' => '⁻',
+            d => "⁰¹²³⁴⁵⁶⁷⁸⁹"
+                .chars()
+                .nth(d.to_digit(10).unwrap_or(0) as usize)
+                .unwrap_or('⁰'),
+        })
+        .collect();
+    format!("{mantissa} × 10{sup}")
 }
 
 /// Cycles to failure of PVC pressure pipe under recurring surges, AWWA M23 (3rd ed.,

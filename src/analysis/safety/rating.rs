@@ -138,6 +138,9 @@ fn flanges_govern(
             }
             if out.transient.is_none_or(|t| r < t) {
                 out.transient = Some(r);
+                if !out.note.contains(class.description()) {
+                    out.note = format!("the {} limit the transient pressure", class.description());
+                }
             }
         }
         Err(why) => {

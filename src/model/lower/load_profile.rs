@@ -184,6 +184,7 @@ fn lower_profile(
         span: block.span,
     };
     let mut bins = DEFAULT_HOURLY_BINS;
+    let mut bins_span: Option<Span> = None;
     let mut control_word = "throttle".to_string();
     let mut control_head: Option<(f64, Span)> = None;
     for field in &f.fields {
@@ -260,6 +261,7 @@ fn lower_profile(
                         ));
                     }
                     bins = v as usize;
+                    bins_span = Some(field.value.span);
                 }
                 _ => {
                     let v = expect_number(field.value, env, "starts per hour")?;
@@ -298,7 +300,13 @@ fn lower_profile(
         })
         .collect();
     match tables.as_slice() {
-        [(Source::Inline(t), _)] => p.points = lower_points(t, p.design_flow, env, d),
+        [(Source::Inline(t), _)] => {
+            if let Some(at) = bins_span {
+                d.push(Diagnostic::error(Code::UnusedField, "`bins` has no meaning for a profile table", Some(at))
+                    .with_help("`bins` sets how many flow bins `curve hourly from \"file.csv\"` summarises a year of hourly flows into"));
+            }
+            p.points = lower_points(t, p.design_flow, env, d)
+        }
         [(Source::Hourly(path, at), _)] => {
             if let Some((points, binning)) =
                 super::hourly::hourly_points(files, path, *at, bins, p.design_flow, d)

@@ -163,7 +163,7 @@ pub(super) fn candidates<'a>(design: &'a Design, analysis: &'a Analysis) -> Vec<
                     .operation
                     .iter()
                     .find(|o| o.name == p.name)
-                    .map(|o| super::operation::operation(o, units)),
+                    .map(|o| super::operation::operation(o, design, units)),
             }
         })
         .collect()

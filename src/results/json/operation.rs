@@ -9,6 +9,7 @@ use serde::Serialize;
 use super::{check, finite, CheckOut};
 use crate::analysis::operation::{CandidateOperation, PointResult};
 use crate::display::Units;
+use crate::model::Design;
 
 /// One load point of one candidate.
 #[derive(Serialize)]
@@ -100,6 +101,11 @@ pub(super) struct OperationOut<'a> {
     pub controls: Vec<&'static str>,
     pub profile_checks: Vec<CheckOut<'a>>,
     pub profile_failure: Option<&'a str>,
+    /// `"typical_curve"` (WSEO 1993) or `"design_table"`.
+    pub motor_part_load: &'static str,
+    /// `"typical_curve"` (DOE Tip Sheet #11), `"design_iec_61800_9_2"`, or `null`
+    /// without a drive.
+    pub drive_losses: Option<&'static str>,
 }
 
 fn point(p: &PointResult) -> PointOut<'_> {
@@ -138,9 +144,24 @@ fn point(p: &PointResult) -> PointOut<'_> {
 }
 
 /// The operation of one candidate.
-pub(super) fn operation(o: &CandidateOperation, units: Units) -> OperationOut<'_> {
+pub(super) fn operation<'a>(
+    o: &'a CandidateOperation,
+    design: &Design,
+    units: Units,
+) -> OperationOut<'a> {
     let y = &o.yearly;
+    let m = &design.motor;
     OperationOut {
+        motor_part_load: if m.motor_table.is_some() {
+            "design_table"
+        } else {
+            "typical_curve"
+        },
+        drive_losses: o.variable_speed.then_some(if m.drive_losses.is_some() {
+            "design_iec_61800_9_2"
+        } else {
+            "typical_curve"
+        }),
         profile: o.points.iter().map(point).collect(),
         yearly: YearlyOut {
             energy_J: y.energy_j,
