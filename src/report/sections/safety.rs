@@ -217,6 +217,16 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
             ..Default::default()
         });
     }
+    series.push(Series {
+        name: "vapour pressure".into(),
+        points: pts(
+            &|k| Some(head_of(base.stations[k].elevation, base.vapour_gauge, rho)),
+            base,
+        ),
+        style_index: 5,
+        dashed: true,
+        ..Default::default()
+    });
     if let Some(p) = &base.pressure_downsurge {
         series.push(Series {
             name: format!(
@@ -246,16 +256,6 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
         dashed: true,
         ..Default::default()
     });
-    series.push(Series {
-        name: "vapour pressure".into(),
-        points: pts(
-            &|k| Some(head_of(base.stations[k].elevation, base.vapour_gauge, rho)),
-            base,
-        ),
-        style_index: 5,
-        dashed: true,
-        ..Default::default()
-    });
     let chart = Chart {
         x_label: format!("Chainage ({})", ln.label),
         y_label: format!("Elevation and grade ({})", hd.label),
@@ -266,7 +266,7 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
     blocks.push(Block::Figure {
         chart,
         height_mm: 105.0,
-        caption: format!("Line {}: pipe profile, hydraulic grade line per case and at shut-off, rating envelope (above the plot where not drawn) and vapour pressure; rating and vapour lines are elevation + pressure/(ρg) of case {}", base.name, s.cases.iter().find(|c| c.lines.get(i).is_some()).map(|c| c.case.as_str()).unwrap_or("")),
+        caption: format!("Line {}: pipe profile, hydraulic grade line per case and at shut-off, rating envelope (above the plot where not drawn) and vapour pressure; rating and vapour lines are elevation + pressure/(ρg) of case {}; where the pump-trip downsurge would fall below vapour pressure the column separates and its line is held on the vapour-pressure line", base.name, s.cases.iter().find(|c| c.lines.get(i).is_some()).map(|c| c.case.as_str()).unwrap_or("")),
     });
 }
 
