@@ -303,12 +303,50 @@ pub struct Duty {
     pub suction_velocity: Option<f64>,
     /// Velocity in the discharge segment next to the pump, m/s.
     pub discharge_velocity: Option<f64>,
-    /// Every segment at the duty flow.
+    /// Every segment at the duty flow (station piping at the flow per pump).
     pub segments: Vec<SegmentAtFlow>,
+    /// Each pump's own station piping at the duty (`serves = each_pump` lines), or `None`.
+    pub station: Option<StationPiping>,
     /// Always false: a duty beyond the published curve fails (kept for the JSON field).
     pub extrapolated: bool,
     /// How many times the pump and system curves cross (more than one warns).
     pub crossings: usize,
+}
+
+/// One pump's own station piping at a duty: the branch losses taken from its head and
+/// the suction path NPSH available is computed along.
+#[derive(Clone, Debug, PartialEq)]
+pub struct StationPiping {
+    /// Flow through each pump and its own piping, m³/s.
+    pub flow_per_pump: f64,
+    /// Loss of one pump's own suction branch, m.
+    pub suction_head: f64,
+    /// Loss of one pump's own discharge branch, m.
+    pub discharge_head: f64,
+    /// The suction path of NPSH available, from the source to the pump: (line name,
+    /// segment index in its line, the flow it carries, m³/s).
+    pub npsh_path: Vec<(String, usize, f64)>,
+}
+
+/// The station piping of a set carrying `q` with `qp` per pump (m³/s), when the design
+/// gives any.
+fn station_piping(sys: &CaseSystem, q: f64, qp: f64) -> Option<StationPiping> {
+    if !sys.has_station_piping() {
+        return None;
+    }
+    let (suction_head, discharge_head) = sys.station_losses(qp);
+    let npsh_path = sys
+        .segments
+        .iter()
+        .filter(|s| s.side == Side::Suction)
+        .map(|s| (s.line.clone(), s.index, sys.segment_flow(s, q, qp)))
+        .collect();
+    Some(StationPiping {
+        flow_per_pump: qp,
+        suction_head,
+        discharge_head,
+        npsh_path,
+    })
 }
 
 /// Energy of one case × candidate over a year.
@@ -449,8 +487,8 @@ fn adjust_to_requirement(
             },
             Some(q),
         ) => {
-            let h = sys.head(q) / n_ser as f64;
             let qp = q / n_par as f64;
+            let h = sys.head(q) / n_ser as f64 + sys.station_loss(qp);
             let needed = pumps::speed_for_duty(base, qp, h, 0.05, 3.0_f64.max(max_ratio))
                 .ok()
                 .map(|s| s.speed_ratio);
@@ -480,8 +518,8 @@ fn adjust_to_requirement(
             }
         }
         (Adjust::Trim { min_ratio }, Some(q)) => {
-            let h = sys.head(q) / n_ser as f64;
             let qp = q / n_par as f64;
+            let h = sys.head(q) / n_ser as f64 + sys.station_loss(qp);
             let needed = pumps::trim_for_duty(base, qp, h, 0.05).ok().map(|(d, _)| d);
             out.headroom = Some(Headroom {
                 limit: AdjustLimit::Trim,
@@ -542,6 +580,14 @@ fn describe_failure(design: &Design, outcome: &DutyOutcome) -> String {
     }
 }
 
+/// The head an arrangement offers its headers at total flow q (m³/s), m: each pump's
+/// head less its own station piping's loss ([`CaseSystem::station_loss`]), × pumps in
+/// series, at q / pumps in parallel per pump.
+pub fn set_head(scaled: &ScaledPump, sys: &CaseSystem, parallel: f64, series: f64, q: f64) -> f64 {
+    let qp = q / parallel;
+    series * (scaled.eval_head(qp) - sys.station_loss(qp))
+}
+
 /// The flow of an arrangement (m³/s) where its curve meets the system curve within the
 /// published data, or `None`.
 pub fn meeting_flow(
@@ -551,7 +597,7 @@ pub fn meeting_flow(
     series: f64,
 ) -> Option<f64> {
     let (_, end) = scaled.domain();
-    let head = |q: f64| series * scaled.eval_head(q / parallel);
+    let head = |q: f64| set_head(scaled, sys, parallel, series, q);
     pumps::solve_duty(&head, &|q| sys.head(q), end * parallel)
         .point()
         .map(|(q, _)| q)
@@ -651,7 +697,7 @@ pub fn evaluate(
     out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     let rho = sys.fluid.density;
-    let head_arr = |q: f64| ser * scaled.eval_head(q / par);
+    let head_arr = |q: f64| set_head(&scaled, sys, par, ser, q);
     let (_, q_data_end) = scaled.domain();
     let q_end = q_data_end * par;
     out.operating_curve = (0..PUMP_CURVE_POINTS)
@@ -731,13 +777,17 @@ pub fn evaluate(
         let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
         out.warnings.extend(w);
     }
+    let station = station_piping(sys, q, qp);
+    let branch = station
+        .as_ref()
+        .map_or(0.0, |s| s.suction_head + s.discharge_head);
     let duty = Duty {
         flow: q,
         head: h,
         flow_per_pump: qp,
-        head_per_pump: h / ser,
+        head_per_pump: h / ser + branch,
         efficiency,
-        hydraulic_power: pumps::hydraulic_power_w(rho, q, h),
+        hydraulic_power: pumps::hydraulic_power_w(rho, q, h + ser * branch),
         shaft_power,
         input_power: None,
         motor_efficiency: out.motor_efficiency.0,
@@ -746,12 +796,13 @@ pub fn evaluate(
         wire_to_water_efficiency: None,
         bep_flow: bep,
         flow_ratio_to_bep: bep.filter(|b| *b > 0.0).map(|b| qp / b),
-        npsh_available: sys.npsh_available(q),
-        npsh_terms: sys.npsh_terms(q),
+        npsh_available: sys.npsh_available_per_pump(q, qp),
+        npsh_terms: sys.npsh_terms_per_pump(q, qp),
         npsh_required: scaled.eval_npshr(qp),
-        suction_velocity: sys.pump_velocity(Side::Suction, q),
-        discharge_velocity: sys.pump_velocity(Side::Discharge, q),
-        segments: sys.segments_at(q),
+        suction_velocity: sys.pump_velocity_set(Side::Suction, q, qp),
+        discharge_velocity: sys.pump_velocity_set(Side::Discharge, q, qp),
+        segments: sys.segments_at_set(q, qp),
+        station,
         extrapolated: false,
         crossings,
     };

@@ -82,6 +82,9 @@ pub struct SegmentState {
     pub k_fixed_sum: f64,
     /// Equivalent lengths of `loss { equivalent_length }`, m.
     pub equivalent_length: f64,
+    /// Station piping (`serves = each_pump`): each pump has its own copy of the segment,
+    /// carrying one pump's flow; left out of [`CaseSystem::losses`] (the header's curve).
+    pub per_pump: bool,
 }
 
 /// A fitting on a segment, as used for its K.
@@ -206,7 +209,9 @@ impl CaseSystem {
         ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
         for line in ordered {
             for (i, seg) in line.segments.iter().enumerate() {
-                segments.push(resolve_segment(s, &line.name, line.side, i, seg)?);
+                let mut state = resolve_segment(s, &line.name, line.side, i, seg)?;
+                state.per_pump = line.per_pump;
+                segments.push(state);
             }
         }
         let rho_g = fluid.density * G;
@@ -258,10 +263,11 @@ impl CaseSystem {
         segment_losses_in(&self.fluid, seg, q)
     }
 
-    /// All losses at flow q.
+    /// All losses at flow q of the piping the whole set's flow passes (station piping,
+    /// `serves = each_pump`, is left out: see [`CaseSystem::station_losses`]).
     pub fn losses(&self, q: f64) -> Losses {
         let mut out = Losses::default();
-        for seg in &self.segments {
+        for seg in self.segments.iter().filter(|s| !s.per_pump) {
             let (wall, minor) = self.segment_losses(seg, q);
             out.friction += wall;
             out.minor += minor;
@@ -311,13 +317,64 @@ impl CaseSystem {
             - self.fluid.vapor_pressure / rho_g
     }
 
+    /// Whether the design gives station piping (`serves = each_pump` lines).
+    pub fn has_station_piping(&self) -> bool {
+        self.segments.iter().any(|s| s.per_pump)
+    }
+
+    /// Losses of one pump's own station piping at its flow `qp` (m³/s), m: (suction
+    /// branch, discharge branch), each wall friction + minor losses. Both 0 without
+    /// station piping.
+    pub fn station_losses(&self, qp: f64) -> (f64, f64) {
+        let (mut suction, mut discharge) = (0.0, 0.0);
+        for seg in self.segments.iter().filter(|s| s.per_pump) {
+            let (wall, minor) = self.segment_losses(seg, qp);
+            match seg.side {
+                Side::Suction => suction += wall + minor,
+                Side::Discharge => discharge += wall + minor,
+            }
+        }
+        (suction, discharge)
+    }
+
+    /// Head one pump's station piping takes at its flow `qp` (m³/s), suction and
+    /// discharge branches together, m: the "modified pump curve" of a station, the pump's
+    /// head less its own piping's loss, is what the set offers its headers (Sanks,
+    /// *Pumping Station Design*, 3rd ed., ch. on system and pump curves, from memory).
+    pub fn station_loss(&self, qp: f64) -> f64 {
+        let (s, d) = self.station_losses(qp);
+        s + d
+    }
+
+    /// NPSH available of one pump of a set, m: the common suction piping at the set's
+    /// flow `q` and the pump's own suction branch at its flow `qp` (m³/s); see
+    /// [`CaseSystem::npsh_available`]. Equal to it without station piping.
+    pub fn npsh_available_per_pump(&self, q: f64, qp: f64) -> f64 {
+        self.npsh_available_after(self.losses(q).suction + self.station_losses(qp).0)
+    }
+
+    /// The flow a segment carries when the set carries `q` and each pump `qp`, m³/s.
+    pub fn segment_flow(&self, seg: &SegmentState, q: f64, qp: f64) -> f64 {
+        if seg.per_pump {
+            qp
+        } else {
+            q
+        }
+    }
+
     /// Velocity in the segment next to the pump on a side, m/s.
     pub fn pump_velocity(&self, side: Side, q: f64) -> Option<f64> {
+        self.pump_velocity_set(side, q, q)
+    }
+
+    /// Velocity next to the pump on a side when the set carries `q` and each pump `qp`
+    /// (m³/s), m/s: station piping there carries `qp`.
+    pub fn pump_velocity_set(&self, side: Side, q: f64, qp: f64) -> Option<f64> {
         let seg = match side {
             Side::Suction => self.segments.iter().rev().find(|s| s.side == Side::Suction),
             Side::Discharge => self.segments.iter().find(|s| s.side == Side::Discharge),
         }?;
-        Some(q / seg.area)
+        Some(self.segment_flow(seg, q, qp) / seg.area)
     }
 
     /// Validity warnings at flow q, one per segment and remark: the laminar-turbulent
@@ -428,12 +485,29 @@ pub struct SegmentAtFlow {
 }
 
 impl CaseSystem {
-    /// NPSH available at flow q (m³/s), term by term (see [`NpshTerms`]).
+    /// NPSH available at flow q (m³/s), term by term (see [`NpshTerms`]); station
+    /// piping is left out (the suction header's value).
     pub fn npsh_terms(&self, q: f64) -> NpshTerms {
+        self.npsh_terms_of(q, None)
+    }
+
+    /// NPSH available of one pump of a set, term by term: the common suction piping at
+    /// the set's flow `q`, the pump's own suction branch at its flow `qp` (m³/s).
+    pub fn npsh_terms_per_pump(&self, q: f64, qp: f64) -> NpshTerms {
+        self.npsh_terms_of(q, Some(qp))
+    }
+
+    /// The NPSH terms with station piping at `qp` when given, else left out.
+    fn npsh_terms_of(&self, q: f64, qp: Option<f64>) -> NpshTerms {
         let rho_g = self.fluid.density * G;
         let (mut friction, mut minor) = (0.0, 0.0);
         for seg in self.segments.iter().filter(|s| s.side == Side::Suction) {
-            let (wall, m) = self.segment_losses(seg, q);
+            let flow = match (seg.per_pump, qp) {
+                (false, _) => q,
+                (true, Some(qp)) => qp,
+                (true, None) => continue,
+            };
+            let (wall, m) = self.segment_losses(seg, flow);
             friction += wall;
             minor += m;
         }
@@ -449,9 +523,16 @@ impl CaseSystem {
 
     /// Every segment at flow q (m³/s), in the order of [`CaseSystem::segments`].
     pub fn segments_at(&self, q: f64) -> Vec<SegmentAtFlow> {
+        self.segments_at_set(q, q)
+    }
+
+    /// Every segment when the set carries `q` and each pump `qp` (m³/s): station piping
+    /// at `qp`, the rest at `q`.
+    pub fn segments_at_set(&self, q_set: f64, qp: f64) -> Vec<SegmentAtFlow> {
         self.segments
             .iter()
             .map(|seg| {
+                let q = self.segment_flow(seg, q_set, qp);
                 let velocity = q / seg.area;
                 let reynolds = self.reynolds(seg, q);
                 let (friction_head, minor_head) = self.segment_losses(seg, q);
@@ -661,5 +742,6 @@ pub fn resolve_segment(
         k_laminar_sum,
         k_fixed_sum,
         equivalent_length,
+        per_pump: false,
     })
 }

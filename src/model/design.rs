@@ -251,6 +251,9 @@ pub struct Line {
     pub closure_time: Option<Time>,
     /// How the line is restrained against axial movement (wave speed).
     pub restraint: Restraint,
+    /// `serves = each_pump`: station piping, one copy of the line per pump of the set,
+    /// each carrying one pump's flow (the set's flow / pumps in parallel).
+    pub per_pump: bool,
     /// Where the `line` block is written.
     pub span: Span,
 }

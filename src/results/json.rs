@@ -120,6 +120,9 @@ struct Segment<'a> {
     losses: Vec<inputs::Loss<'a>>,
     k_total: f64,
     equivalent_length_m: f64,
+    /// Wave 2: `each_pump` on station piping (one copy per pump); absent otherwise.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    serves: Option<&'static str>,
 }
 
 #[derive(Serialize)]
@@ -207,6 +210,9 @@ struct Duty<'a> {
     npsh_terms: engineering::NpshTermsOut,
     segments: Vec<engineering::SegmentOut<'a>>,
     headroom: Option<engineering::HeadroomOut>,
+    /// Wave 2, station piping only: each pump's own branches and the NPSH suction path.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    station_piping: Option<engineering::StationPipingOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -337,6 +343,7 @@ fn case<'a>(
                         losses: inputs::losses(d, &g.line, g.index),
                         k_total: g.k_constant,
                         equivalent_length_m: g.equivalent_length,
+                        serves: g.per_pump.then_some("each_pump"),
                     })
                     .collect()
             })
@@ -426,6 +433,7 @@ fn pump(p: &PumpResult) -> Pump<'_> {
             npsh_terms: engineering::npsh_terms(&d.npsh_terms),
             segments: engineering::segments(&d.segments),
             headroom: p.headroom.as_ref().map(engineering::headroom),
+            station_piping: d.station.as_ref().map(engineering::station_piping),
         }),
         failure: p.failure.as_deref(),
         checks: p.checks.iter().map(check).collect(),
