@@ -401,6 +401,9 @@ pub struct PumpResult {
     pub affinity_scale: f64,
     /// The network at the duty point (general-form designs with a duty only).
     pub network: Option<crate::analysis::network::station::NetworkAtDuty>,
+    /// With station piping only: NPSH available per pump at each flow of the case's
+    /// system curve (m, the set's flow shared by the pumps in parallel); else empty.
+    pub npsh_available_curve: Vec<f64>,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -636,6 +639,7 @@ pub fn evaluate(
         warnings: Vec::new(),
         motor_efficiency,
         network: None,
+        npsh_available_curve: Vec::new(),
         headroom: None,
         capacity_flow: None,
         affinity_scale: 1.0,

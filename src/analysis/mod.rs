@@ -18,7 +18,7 @@ pub mod selection;
 pub mod stability;
 pub mod system;
 
-use crate::model::{Design, Side};
+use crate::model::{ArrangementKind, Design, Side};
 pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
 
 /// Number of points of each tabulated system curve.
@@ -231,6 +231,18 @@ pub fn analyse(design: &Design) -> Analysis {
                     (point, s.npsh_available_after(l.suction))
                 })
                 .unzip();
+            if s.has_station_piping() {
+                for p in &mut c.pumps {
+                    let par = match p.arrangement {
+                        ArrangementKind::Parallel => p.count.max(1) as f64,
+                        _ => 1.0,
+                    };
+                    p.npsh_available_curve = curve
+                        .iter()
+                        .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
+                        .collect();
+                }
+            }
             c.system_curve = curve;
             c.npsh_available_curve = npsh;
         }

@@ -80,6 +80,61 @@ pub(super) fn npsh_terms(
     });
 }
 
+/// Each pump's own station piping at the duty, when the design gives any: the flow per
+/// pump, its branches' losses and its own head (the header's head plus them).
+pub(super) fn station_piping(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let (fl, hd) = (units.flow(), units.head());
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .filter_map(|(case, run)| {
+            let duty = run.duty.as_ref()?;
+            let st = duty.station.as_ref()?;
+            let path: Vec<String> = st
+                .npsh_path
+                .iter()
+                .map(|(line, i, q)| format!("{line} {} at {}", i + 1, fl.text(*q)))
+                .collect();
+            Some(vec![
+                case.name.clone(),
+                fl.figure(st.flow_per_pump),
+                hd.figure(st.suction_head),
+                hd.figure(st.discharge_head),
+                hd.figure(duty.head_per_pump - st.suction_head - st.discharge_head),
+                hd.figure(duty.head_per_pump),
+                path.join(", "),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("Station piping of each pump, {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.12, Align::Left),
+            Column::new("Flow per pump", 0.11, Align::Right),
+            Column::new("Own suction loss", 0.11, Align::Right),
+            Column::new("Own discharge loss", 0.11, Align::Right),
+            Column::new("Head at headers", 0.11, Align::Right),
+            Column::new("Pump head", 0.1, Align::Right),
+            Column::new("Suction path of NPSHa (segment at flow)", 0.34, Align::Left),
+        ],
+        rows,
+        caption: Some(format!(
+            "Heads in {}, flows in {}. Each pump has its own suction and discharge branch carrying one pump's flow; pump head = head at headers + own suction loss + own discharge loss (the modified pump curve: the set offers its headers each pump's head less its own branches' loss). NPSHa in the table above is each pump's own: the common suction at the set's flow, the pump's own branch at its flow. Pumps of a set and their branches are taken as identical, so they share the flow equally",
+            hd.label, fl.label
+        )),
+    });
+}
+
 /// Every segment at each case's duty flow: flow, velocity, Re, f, friction and minor
 /// head and the K of each fitting at that Reynolds number.
 pub(super) fn segments(

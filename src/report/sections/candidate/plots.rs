@@ -222,7 +222,12 @@ pub(super) fn head_plot(
             } else {
                 String::new()
             };
-            let name = format!("pump {} at {:.0} rpm{which}", pump.name, run.speed_rpm);
+            // With station piping the set's curve is at the headers (less its own piping).
+            let own = match run.duty.as_ref().and_then(|d| d.station.as_ref()) {
+                Some(_) => " less own piping",
+                None => "",
+            };
+            let name = format!("pump {} at {:.0} rpm{own}{which}", pump.name, run.speed_rpm);
             let points = run
                 .operating_curve
                 .iter()
@@ -342,16 +347,21 @@ pub(super) fn npsh_plot(
             ));
         }
     }
-    for (case, _) in results {
+    for (case, result) in results {
+        // With station piping NPSHa is each pump's own, along its own suction path.
+        let (npsha, label) = match result.npsh_available_curve.is_empty() {
+            true => (&case.npsh_available_curve, "NPSHa"),
+            false => (&result.npsh_available_curve, "NPSHa per pump"),
+        };
         let points: Vec<(f64, f64)> = case
             .system_curve
             .iter()
-            .zip(&case.npsh_available_curve)
+            .zip(npsha)
             .map(|(point, n)| (fl.value(point.flow), hd.value(*n)))
             .collect();
         if !points.is_empty() {
             series.push(line(
-                format!("NPSHa ({})", case.name),
+                format!("{label} ({})", case.name),
                 points,
                 Stroke::Dashed,
                 &mut palette,
