@@ -207,3 +207,34 @@ fn a_misspelt_serves_value_is_refused() {
         .expect("an error");
     assert!(d.message.contains("each_pump"), "{}", d.message);
 }
+
+#[test]
+fn duty_and_npsh_per_pump_match_an_independent_solve_with_friction() {
+    // tests/reference/gen_station.py: the same design solved by scipy's brentq with
+    // fluids' Colebrook friction and iapws water (wall friction included).
+    let text = include_str!("reference/station_scipy.csv");
+    let rows = common::read_csv(text);
+    assert_eq!(rows.len(), 2);
+    let a = analyse(&design(true));
+    for row in &rows {
+        let case = common::text(row, "case");
+        let c = a.cases.iter().find(|c| c.name == case).expect(case);
+        let d = c.pumps[0].duty.as_ref().expect("duty");
+        let qp = common::num(row, "flow_per_pump_m3_s");
+        assert!((d.flow_per_pump / qp - 1.0).abs() < 1e-6, "{case}: flow");
+        assert!(
+            (d.head - common::num(row, "head_at_headers_m")).abs() < 1e-4,
+            "{case}: header"
+        );
+        assert!(
+            (d.head_per_pump - common::num(row, "pump_head_m")).abs() < 1e-4,
+            "{case}: pump"
+        );
+        let npsha = common::num(row, "npsh_available_m");
+        assert!(
+            (d.npsh_available - npsha).abs() < 1e-4,
+            "{case}: NPSHa {} against {npsha}",
+            d.npsh_available
+        );
+    }
+}
