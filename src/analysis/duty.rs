@@ -307,6 +307,8 @@ pub struct Duty {
     pub segments: Vec<SegmentAtFlow>,
     /// Each pump's own station piping at the duty (`serves = each_pump` lines), or `None`.
     pub station: Option<StationPiping>,
+    /// The source well at the duty flow, or `None` for a tank.
+    pub well: Option<WellAtDuty>,
     /// Always false: a duty beyond the published curve fails (kept for the JSON field).
     pub extrapolated: bool,
     /// How many times the pump and system curves cross (more than one warns).
@@ -326,6 +328,31 @@ pub struct StationPiping {
     /// The suction path of NPSH available, from the source to the pump: (line name,
     /// segment index in its line, the flow it carries, m³/s).
     pub npsh_path: Vec<(String, usize, f64)>,
+}
+
+/// A source well at a duty: its drawdown s = B·Q + C·Q² in parts and its pumping level.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WellAtDuty {
+    /// Static water level, m on the design's datum.
+    pub static_level: f64,
+    /// Aquifer loss B·Q at the duty flow, m.
+    pub aquifer_loss: f64,
+    /// Well loss C·Q² at the duty flow, m.
+    pub well_loss: f64,
+    /// Pumping level: static level − aquifer loss − well loss, m on the datum.
+    pub pumping_level: f64,
+}
+
+/// The source well at total flow q (m³/s), when the source is one.
+fn well_at(sys: &CaseSystem, q: f64) -> Option<WellAtDuty> {
+    let w = sys.well?;
+    let (aquifer_loss, well_loss) = w.parts(q);
+    Some(WellAtDuty {
+        static_level: sys.source_level,
+        aquifer_loss,
+        well_loss,
+        pumping_level: sys.source_level - aquifer_loss - well_loss,
+    })
 }
 
 /// The station piping of a set carrying `q` with `qp` per pump (m³/s), when the design
@@ -807,6 +834,7 @@ pub fn evaluate(
         discharge_velocity: sys.pump_velocity_set(Side::Discharge, q, qp),
         segments: sys.segments_at_set(q, qp),
         station,
+        well: well_at(sys, q),
         extrapolated: false,
         crossings,
     };

@@ -86,6 +86,8 @@ pub struct SystemPoint {
     pub minor: f64,
     /// The network's part (entry head above its zero-flow value), m; 0 for a chain.
     pub network: f64,
+    /// A source well's drawdown at the flow, m; 0 for a tank.
+    pub drawdown: f64,
 }
 
 /// The analysis of one case.
@@ -222,13 +224,14 @@ pub fn analyse(design: &Design) -> Analysis {
                     let l = s.losses(q);
                     let point = SystemPoint {
                         flow: q,
-                        head: s.static_head + l.friction + l.minor + l.network,
+                        head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
                         static_head: s.static_head,
                         friction: l.friction,
                         minor: l.minor,
                         network: l.network,
+                        drawdown: l.drawdown,
                     };
-                    (point, s.npsh_available_after(l.suction))
+                    (point, s.npsh_available_after(l.suction + l.drawdown))
                 })
                 .unzip();
             if s.has_station_piping() {

@@ -44,6 +44,44 @@ pub struct FluidState {
     pub source: String,
 }
 
+/// The source well's drawdown law, when the source tank states one.
+fn well_drawdown(s: &Scenario) -> Result<Option<WellDrawdown>, SystemError> {
+    for t in [&s.source, &s.destination] {
+        let stated = t.drawdown.is_some() || t.test_flow.is_some() || t.well_loss.is_some();
+        if stated && t.name == s.destination.name {
+            return Err(SystemError {
+                message: format!(
+                    "tank {} is a destination: a drawdown belongs to a well the pumps draw from",
+                    t.name
+                ),
+            });
+        }
+    }
+    let t = &s.source;
+    match (t.drawdown, t.test_flow) {
+        (None, None) if t.well_loss.is_none() => Ok(None),
+        (Some(d), Some(q)) => {
+            let well = WellDrawdown {
+                drawdown: d.get::<meter>(),
+                test_flow: q.get::<uom::si::volume_rate::cubic_meter_per_second>(),
+                well_loss: t.well_loss.map_or(0.0, |w| w.get::<meter>()),
+            };
+            if well.well_loss > well.drawdown || well.test_flow <= 0.0 {
+                return Err(SystemError {
+                    message: format!("well {}: its well loss exceeds its drawdown", t.name),
+                });
+            }
+            Ok(Some(well))
+        }
+        _ => Err(SystemError {
+            message: format!(
+                "well {}: a drawdown needs its test flow (`drawdown` and `test_flow`)",
+                t.name
+            ),
+        }),
+    }
+}
+
 /// One pipe segment, resolved for a case.
 #[derive(Clone, Debug)]
 pub struct SegmentState {
@@ -111,6 +149,36 @@ pub struct Losses {
     pub suction: f64,
     /// The network's part: entry head at the flow minus at zero flow, m (0 for a chain).
     pub network: f64,
+    /// A source well's drawdown below its static level at the flow, m (0 for a tank).
+    pub drawdown: f64,
+}
+
+/// A source well's drawdown law, s = B·Q + C·Q² (Jacob 1947, "Drawdown test to determine
+/// effective radius of artesian well", Trans. ASCE 112; the step-drawdown form of
+/// Driscoll, *Groundwater and Wells*, 2nd ed., 1986, ch. 16, from memory), from the
+/// design's test point: B·Q_t = drawdown − well loss (aquifer loss), C·Q_t² = well loss.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WellDrawdown {
+    /// Drawdown below the static level at the test flow, m.
+    pub drawdown: f64,
+    /// The test flow, m³/s.
+    pub test_flow: f64,
+    /// The part of the drawdown at the test flow that is well loss (∝ Q²), m.
+    pub well_loss: f64,
+}
+
+impl WellDrawdown {
+    /// (Aquifer loss B·Q, well loss C·Q²) at flow q (m³/s), m; none at q ≤ 0.
+    pub fn parts(&self, q: f64) -> (f64, f64) {
+        let r = q.max(0.0) / self.test_flow;
+        ((self.drawdown - self.well_loss) * r, self.well_loss * r * r)
+    }
+
+    /// Drawdown at flow q (m³/s), m.
+    pub fn at(&self, q: f64) -> f64 {
+        let (a, w) = self.parts(q);
+        a + w
+    }
 }
 
 /// A case's hydraulic model.
@@ -143,6 +211,8 @@ pub struct CaseSystem {
     pub network: Option<(StationNetwork, f64)>,
     /// Set when a network solve at some flow failed (the case is then reported failed).
     pub network_failed: std::cell::Cell<bool>,
+    /// The source is a well with a drawdown (its `source_level` the static level).
+    pub well: Option<WellDrawdown>,
 }
 
 /// Why a case could not be set up.
@@ -231,7 +301,9 @@ impl CaseSystem {
                 (Some((net, h0)), stat)
             }
         };
+        let well = well_drawdown(s)?;
         Ok(CaseSystem {
+            well,
             network,
             network_failed: std::cell::Cell::new(false),
             fluid,
@@ -276,13 +348,19 @@ impl CaseSystem {
             }
         }
         out.network = self.network_head(q);
+        out.drawdown = self.drawdown(q);
         out
+    }
+
+    /// The source well's drawdown at flow q (m³/s), m; 0 for a tank.
+    pub fn drawdown(&self, q: f64) -> f64 {
+        self.well.map_or(0.0, |w| w.at(q))
     }
 
     /// System head at flow q, m.
     pub fn head(&self, q: f64) -> f64 {
         let l = self.losses(q);
-        self.static_head + l.friction + l.minor + l.network
+        self.static_head + l.friction + l.minor + l.network + l.drawdown
     }
 
     /// The network's part of the system head at flow q, m: H_entry(q) − H_entry(0).
@@ -305,11 +383,12 @@ impl CaseSystem {
     /// suction losses, minus the vapour-pressure head (ANSI/HI 9.6.1; Karassik et al.,
     /// *Pump Handbook*, 4th ed., ch. 2).
     pub fn npsh_available(&self, q: f64) -> f64 {
-        self.npsh_available_after(self.losses(q).suction)
+        let l = self.losses(q);
+        self.npsh_available_after(l.suction + l.drawdown)
     }
 
     /// NPSH available, m, for a suction-line loss already computed (see
-    /// [`CaseSystem::npsh_available`]).
+    /// [`CaseSystem::npsh_available`]); a well's drawdown counts as part of it.
     pub fn npsh_available_after(&self, suction_loss: f64) -> f64 {
         let rho_g = self.fluid.density * G;
         self.source_abs_pa / rho_g + (self.source_level - self.centreline)
@@ -350,7 +429,8 @@ impl CaseSystem {
     /// flow `q` and the pump's own suction branch at its flow `qp` (m³/s); see
     /// [`CaseSystem::npsh_available`]. Equal to it without station piping.
     pub fn npsh_available_per_pump(&self, q: f64, qp: f64) -> f64 {
-        self.npsh_available_after(self.losses(q).suction + self.station_losses(qp).0)
+        let l = self.losses(q);
+        self.npsh_available_after(l.suction + l.drawdown + self.station_losses(qp).0)
     }
 
     /// The flow a segment carries when the set carries `q` and each pump `qp`, m³/s.
@@ -435,7 +515,8 @@ pub struct NpshTerms {
     pub barometric_head: f64,
     /// Gauge pressure on the source surface as head (p_abs − p_baro)/(ρg), m.
     pub surface_pressure_head: f64,
-    /// Source level minus the pump datum (centreline), m.
+    /// Source level minus the pump datum (centreline), m; for a well, its pumping level
+    /// (static level less the drawdown at the flow).
     pub static_suction_head: f64,
     /// Minus the vapour-pressure head, −p_v/(ρg), m.
     pub vapour_pressure_head: f64,
@@ -514,7 +595,7 @@ impl CaseSystem {
         NpshTerms {
             barometric_head: self.barometric_pa / rho_g,
             surface_pressure_head: (self.source_abs_pa - self.barometric_pa) / rho_g,
-            static_suction_head: self.source_level - self.centreline,
+            static_suction_head: self.source_level - self.drawdown(q) - self.centreline,
             vapour_pressure_head: -self.fluid.vapor_pressure / rho_g,
             suction_friction_head: -friction,
             suction_minor_head: -minor,

@@ -180,6 +180,12 @@ pub struct Tank {
     pub level: Length,
     /// Pressure on the surface, gauge or absolute.
     pub surface_pressure: SurfacePressure,
+    /// A well: its drawdown below the static `level` at `test_flow` (`drawdown = 12 ft`).
+    pub drawdown: Option<Length>,
+    /// A well: the flow of the drawdown test (`test_flow = 500 gpm`).
+    pub test_flow: Option<VolumeRate>,
+    /// A well: the part of `drawdown` that is well loss, growing as Q² (`well_loss`).
+    pub well_loss: Option<Length>,
     /// Where the tank's name is written.
     pub span: Span,
 }

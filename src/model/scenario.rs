@@ -263,12 +263,27 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
 }
 
 /// The fields of `tank`.
-pub const TANK_FIELDS: &[&str] = &["level", "pressure"];
+pub const TANK_FIELDS: &[&str] = &["level", "pressure", "drawdown", "test_flow", "well_loss"];
 
 /// Set one field of a tank (base or case override), checking its dimension and range.
 pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "level" => tank.level = expect_level(e, env, "tank level")?,
+        "drawdown" | "well_loss" => {
+            let v = expect_length(e, env, "drawdown")?.get::<meter>();
+            let v = length(env.in_range(&ranges::DRAWDOWN, v, e.span)?);
+            match field {
+                "drawdown" => tank.drawdown = Some(v),
+                _ => tank.well_loss = Some(v),
+            }
+        }
+        "test_flow" => {
+            let q = expect_dim(e, env, Dimension::VOLUME_RATE, "test flow")?.si;
+            let q = env.in_range(&ranges::TEST_FLOW, q, e.span)?;
+            tank.test_flow = Some(uom::si::f64::VolumeRate::new::<
+                uom::si::volume_rate::cubic_meter_per_second,
+            >(q));
+        }
         "pressure" => {
             let p = expect_pressure(e, env, "surface pressure", true)?;
             match p {

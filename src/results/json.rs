@@ -148,6 +148,9 @@ struct Point {
     /// Wave 2, networks only: the entry head above its zero-flow value.
     #[serde(skip_serializing_if = "Option::is_none")]
     network_head_m: Option<f64>,
+    /// Wave 2, a source well only: its drawdown at the flow.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    drawdown_head_m: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -213,6 +216,9 @@ struct Duty<'a> {
     /// Wave 2, station piping only: each pump's own branches and the NPSH suction path.
     #[serde(skip_serializing_if = "Option::is_none")]
     station_piping: Option<engineering::StationPipingOut<'a>>,
+    /// Wave 2, a source well only: its drawdown and pumping level at the duty.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    well: Option<engineering::WellOut>,
 }
 
 #[derive(Serialize)]
@@ -358,6 +364,7 @@ fn case<'a>(
                 friction_head_m: p.friction,
                 minor_head_m: p.minor,
                 network_head_m: s.and_then(|s| s.network.as_ref()).map(|_| p.network),
+                drawdown_head_m: s.and_then(|s| s.well).map(|_| p.drawdown),
             })
             .collect(),
         pumps: c.pumps.iter().map(pump).collect(),
@@ -434,6 +441,7 @@ fn pump(p: &PumpResult) -> Pump<'_> {
             segments: engineering::segments(&d.segments),
             headroom: p.headroom.as_ref().map(engineering::headroom),
             station_piping: d.station.as_ref().map(engineering::station_piping),
+            well: d.well.as_ref().map(engineering::well),
         }),
         failure: p.failure.as_deref(),
         checks: p.checks.iter().map(check).collect(),

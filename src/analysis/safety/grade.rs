@@ -75,7 +75,9 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
 /// datum: barometric pressure is zero), with each segment's (wall, minor) loss.
 fn segment_energy(sys: &CaseSystem, q: f64) -> Vec<(f64, f64, f64)> {
     let rho_g = sys.fluid.density * G;
-    let source = sys.source_level + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
+    // A well's surface is its pumping level at the flow.
+    let source =
+        sys.source_level - sys.drawdown(q) + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
     let destination = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
     let losses: Vec<(f64, f64)> = sys
         .segments

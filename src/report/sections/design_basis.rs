@@ -131,7 +131,10 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             })
             .collect(),
         caption: Some(
-            "Surface levels, pump datum, surface pressures and static head per case".into(),
+            match analysis.cases.iter().any(|c| c.system.as_ref().is_some_and(|s| s.well.is_some())) {
+                false => "Surface levels, pump datum, surface pressures and static head per case".into(),
+                true => "Surface levels, pump datum, surface pressures and static head per case; a well's level is its static water level and the static head is taken from it: the drawdown at each flow is added to the system curve, and the pumping level at each duty is in the candidate chapters".into(),
+            },
         ),
     });
 }

@@ -9,7 +9,7 @@
 use serde::Serialize;
 
 use crate::analysis::capacity::RequirementRow;
-use crate::analysis::duty::{Headroom, StationPiping};
+use crate::analysis::duty::{Headroom, StationPiping, WellAtDuty};
 use crate::analysis::motor::MotorSizing;
 use crate::analysis::parallel::OneAlone;
 use crate::analysis::{Analysis, NpshTerms, SegmentAtFlow};
@@ -44,6 +44,26 @@ pub(super) struct StationPipingOut<'a> {
     suction_branch_head_m: f64,
     discharge_branch_head_m: f64,
     npsh_suction_path: Vec<PathStepOut<'a>>,
+}
+
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct WellOut {
+    static_level_m: f64,
+    aquifer_loss_m: f64,
+    well_loss_m: f64,
+    drawdown_m: f64,
+    pumping_level_m: f64,
+}
+
+pub(super) fn well(w: &WellAtDuty) -> WellOut {
+    WellOut {
+        static_level_m: w.static_level,
+        aquifer_loss_m: w.aquifer_loss,
+        well_loss_m: w.well_loss,
+        drawdown_m: w.aquifer_loss + w.well_loss,
+        pumping_level_m: w.pumping_level,
+    }
 }
 
 #[derive(Serialize)]

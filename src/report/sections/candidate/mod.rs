@@ -45,6 +45,7 @@ pub(super) fn chapter(
     duty_table(blocks, pump, &all_results, units);
     detail::npsh_terms(blocks, pump, &all_results, units);
     detail::station_piping(blocks, pump, &all_results, units);
+    detail::well_levels(blocks, pump, &all_results, units);
     detail::power(blocks, pump, &all_results, units);
     detail::segments(blocks, pump, &all_results, units);
     let capacity = analysis.capacity.get(index).map_or(&[][..], Vec::as_slice);
