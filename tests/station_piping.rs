@@ -238,3 +238,36 @@ fn duty_and_npsh_per_pump_match_an_independent_solve_with_friction() {
         );
     }
 }
+
+#[test]
+fn the_pressure_screen_takes_station_piping_at_the_flow_per_pump() {
+    let a = analyse(&design(true));
+    let d = a.cases[0].pumps[0].duty.as_ref().expect("duty");
+    let lines = &a.safety.cases[0].lines;
+    let line = |name: &str| lines.iter().find(|l| l.name == name).expect(name);
+    // The same 6 in pipe: a pump's own discharge carries half the common discharge's
+    // velocity, and so (Joukowsky, Δh = a·Δv/g) half its surge head.
+    let own = line("own_discharge");
+    let common = line("header_out");
+    assert!((own.velocities[0] / common.velocities[0] - 0.5).abs() < 1e-12);
+    assert!(
+        (own.velocities[0] - d.flow_per_pump / (std::f64::consts::PI / 4.0 * 0.154_051f64.powi(2)))
+            .abs()
+            < 1e-6
+    );
+    let (jo, jc) = (
+        own.surge.as_ref().expect("surge").joukowsky_head,
+        common.surge.as_ref().expect("surge").joukowsky_head,
+    );
+    assert!((jo / jc - 0.5).abs() < 0.05, "{jo} {jc}");
+    // The grade at the pump outlet is the destination level plus the common discharge
+    // loss and the pump's own: 140 ft + the losses of both at their flows.
+    let out = own.grade_duty.as_ref().expect("grade")[0];
+    let losses: f64 = d
+        .segments
+        .iter()
+        .filter(|s| s.line == "own_discharge" || s.line == "header_out")
+        .map(|s| s.friction_head + s.minor_head)
+        .sum();
+    assert!((out - (140.0 * FT + losses)).abs() < 0.5 * FT, "{out}");
+}

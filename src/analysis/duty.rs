@@ -842,8 +842,12 @@ pub fn evaluate(
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
         crate::model::Fluid::Water { .. } => None,
     };
-    out.warnings
-        .extend(sys.flow_warnings(q, custom_fluid, &Units::new(design.project.units)));
+    out.warnings.extend(sys.flow_warnings_set(
+        q,
+        qp,
+        custom_fluid,
+        &Units::new(design.project.units),
+    ));
     out.checks = checks::duty_checks(design, case, &duty, p);
     out.checks.extend(checks::headroom_check(&out.headroom));
     out.duty = Some(duty);

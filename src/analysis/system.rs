@@ -462,9 +462,22 @@ impl CaseSystem {
     /// its range (water only: `custom_fluid` names a liquid that is not water).
     /// Values in the remarks are in `units`.
     pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>, units: &Units) -> Vec<String> {
+        self.flow_warnings_set(q, q, custom_fluid, units)
+    }
+
+    /// [`CaseSystem::flow_warnings`] when the set carries `q_set` and each pump `qp`
+    /// (m³/s): station piping is judged at `qp`.
+    pub fn flow_warnings_set(
+        &self,
+        q_set: f64,
+        qp: f64,
+        custom_fluid: Option<&str>,
+        units: &Units,
+    ) -> Vec<String> {
         let mut out = Vec::new();
-        for (i, regime, re) in self.regimes(q) {
+        for (i, regime, re) in self.regimes_set(q_set, qp) {
             let seg = &self.segments[i];
+            let q = self.segment_flow(seg, q_set, qp);
             if regime == FlowRegime::Transitional {
                 out.push(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1));
             }
@@ -499,10 +512,18 @@ impl CaseSystem {
 
     /// The regimes met at flow q, with the segment each occurs in.
     pub fn regimes(&self, q: f64) -> Vec<(usize, FlowRegime, f64)> {
+        self.regimes_set(q, q)
+    }
+
+    /// The regimes met when the set carries `q_set` and each pump `qp` (m³/s).
+    fn regimes_set(&self, q_set: f64, qp: f64) -> Vec<(usize, FlowRegime, f64)> {
         self.segments
             .iter()
             .enumerate()
-            .map(|(i, s)| (i, self.friction(s, q).regime, self.reynolds(s, q)))
+            .map(|(i, s)| {
+                let q = self.segment_flow(s, q_set, qp);
+                (i, self.friction(s, q).regime, self.reynolds(s, q))
+            })
             .collect()
     }
 }
