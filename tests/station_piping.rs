@@ -271,3 +271,24 @@ fn the_pressure_screen_takes_station_piping_at_the_flow_per_pump() {
         .sum();
     assert!((out - (140.0 * FT + losses)).abs() < 0.5 * FT, "{out}");
 }
+
+#[test]
+fn in_a_series_set_each_pump_loses_its_own_piping_at_the_whole_flow() {
+    // Series: the set's flow passes every pump and its own branches (the interstage
+    // piping): 2 (100 − 0.1 Q − 50 k Q²) = 40 + 100 k Q², 200 k Q² + 0.2 Q − 160 = 0.
+    let src = design(true).replace("arrangement = parallel", "arrangement = series");
+    let a = analyse(&src);
+    let k = k1();
+    let q = root(200.0 * k, 0.2, -160.0);
+    let d = a.cases[0].pumps[0].duty.as_ref().expect("duty");
+    let got = d.flow / (GAL / 60.0);
+    assert!((got / q - 1.0).abs() < 2e-3, "{got} against {q}");
+    assert!((d.flow_per_pump - d.flow).abs() < 1e-15);
+    let st = d.station.as_ref().expect("station piping");
+    // Each pump's head is half the header's head plus its own branches.
+    let branch = st.suction_head + st.discharge_head;
+    assert!((d.head_per_pump - (d.head / 2.0 + branch)).abs() < 1e-9);
+    // NPSHa of the first pump: its own suction branch at the whole flow.
+    let minor_ft = d.npsh_terms.suction_minor_head / FT;
+    assert!((minor_ft / (-20.0 * k * got * got) - 1.0).abs() < 1e-3, "{minor_ft}");
+}
