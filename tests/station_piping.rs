@@ -290,5 +290,8 @@ fn in_a_series_set_each_pump_loses_its_own_piping_at_the_whole_flow() {
     assert!((d.head_per_pump - (d.head / 2.0 + branch)).abs() < 1e-9);
     // NPSHa of the first pump: its own suction branch at the whole flow.
     let minor_ft = d.npsh_terms.suction_minor_head / FT;
-    assert!((minor_ft / (-20.0 * k * got * got) - 1.0).abs() < 1e-3, "{minor_ft}");
+    assert!(
+        (minor_ft / (-20.0 * k * got * got) - 1.0).abs() < 1e-3,
+        "{minor_ft}"
+    );
 }
