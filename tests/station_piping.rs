@@ -295,3 +295,32 @@ fn in_a_series_set_each_pump_loses_its_own_piping_at_the_whole_flow() {
         "{minor_ft}"
     );
 }
+
+#[test]
+fn speed_adjustment_meets_the_requirement_with_each_pump_s_own_losses() {
+    // adjust = speed to 350 gpm: each pump carries 175 gpm and must give the headers'
+    // 40 + 100 k 350² ft plus its own 50 k 175² ft; by the affinity laws
+    // r² H(qp/r) = 100 r² − 0.1 × 175 r = that head, solved for r.
+    let src = design(true).replace(
+        "    count = 2\n",
+        "    count = 2\n    adjust = speed\n    min_speed = 60 %\n",
+    ) + "require {\n    flow >= 350 gpm for normal\n}\n";
+    let a = analyse(&src);
+    let k = k1();
+    let need = 40.0 + 100.0 * k * 350.0 * 350.0 + 50.0 * k * 175.0 * 175.0;
+    let r = root(100.0, -17.5, -need);
+    let p = &a.cases[0].pumps[0];
+    let got = p
+        .headroom
+        .as_ref()
+        .and_then(|h| h.needed)
+        .expect("speed needed");
+    // 0.2 %: the 1 ft pipes' wall friction is left out of the hand solution.
+    assert!((got / r - 1.0).abs() < 2e-3, "{got} against {r}");
+    let d = p.duty.as_ref().expect("duty");
+    assert!(
+        (d.flow / (GAL / 60.0) - 350.0).abs() < 0.5,
+        "{}",
+        d.flow / (GAL / 60.0)
+    );
+}
