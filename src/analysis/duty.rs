@@ -455,6 +455,15 @@ pub fn required_flow(design: &Design, case_name: &str) -> Option<f64> {
         .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))))
 }
 
+/// Pumps in parallel and in series of an arrangement as it runs in `case`: a parallel
+/// set runs the pumps the case says (`PUMP.running = N`), else all of them.
+pub fn stages_in(p: &PumpCandidate, case: &Case) -> (u32, u32) {
+    match (p.arrangement, case.scenario.running(&p.name)) {
+        (ArrangementKind::Parallel, Some(n)) => (n.max(1), 1),
+        _ => stages(p),
+    }
+}
+
 /// Pumps in parallel and in series of an arrangement.
 pub fn stages(p: &PumpCandidate) -> (u32, u32) {
     match p.arrangement {
@@ -505,7 +514,7 @@ fn adjust_to_requirement(
     ratios: (f64, f64),
     out: &mut PumpResult,
 ) -> (f64, f64) {
-    let (n_par, n_ser) = stages(p);
+    let (n_par, n_ser) = stages_in(p, case);
     let (mut speed_ratio, mut diameter_ratio) = ratios;
     let units = crate::display::Units::new(design.project.units);
     let required = required_flow(design, &case.name);
@@ -641,7 +650,7 @@ pub fn evaluate(
     p: &PumpCandidate,
     cc: &CandidateCurves,
 ) -> PumpResult {
-    let (n_par, n_ser) = stages(p);
+    let (n_par, n_ser) = stages_in(p, case);
     let motor_efficiency = match design.motor.efficiency {
         Some(e) => (e, "given in the design".to_string()),
         None => (
@@ -652,7 +661,10 @@ pub fn evaluate(
     let mut out = PumpResult {
         name: p.name.clone(),
         arrangement: p.arrangement,
-        count: p.count,
+        count: match p.arrangement {
+            ArrangementKind::Parallel => n_par,
+            _ => p.count,
+        },
         standby: p.standby,
         // The rated speed until a usable curve says otherwise: an unusable curve must
         // not print "pump P at 0 rpm" (issue 11).

@@ -210,11 +210,14 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
     ));
     if speeds {
         for (pump, speed) in &s.pump_speeds {
-            out.push(Node::group(
-                format!("pump {pump}"),
-                "",
-                vec![Node::leaf("speed", v(speed.value, Measure::Speed))],
-            ));
+            let mut fields = vec![Node::leaf("speed", v(speed.value, Measure::Speed))];
+            // Pumps running (issue 12), only where a case runs fewer than the set has.
+            if let Some((_, count, _, running)) = s.pump_running.iter().find(|r| &r.0 == pump) {
+                if running < count {
+                    fields.push(Node::leaf("running", running.to_string()));
+                }
+            }
+            out.push(Node::group(format!("pump {pump}"), "", fields));
         }
     }
     out

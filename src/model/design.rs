@@ -120,6 +120,19 @@ pub struct Scenario {
     pub hours_per_year: Time,
     /// Speed overrides for pumps in this case, by pump name.
     pub pump_speeds: Vec<(String, Frequency)>,
+    /// Per pump candidate: (name, pumps of its set, whether the set is parallel, pumps
+    /// running in this case: the set's count unless a case says `PUMP.running = N`).
+    pub pump_running: Vec<(String, u32, bool, u32)>,
+}
+
+impl Scenario {
+    /// Pumps of candidate `name`'s parallel set running in this case, when it is one.
+    pub fn running(&self, name: &str) -> Option<u32> {
+        self.pump_running
+            .iter()
+            .find(|(n, _, parallel, _)| n == name && *parallel)
+            .map(|(_, _, _, r)| *r)
+    }
 }
 
 /// The pumped liquid.

@@ -892,6 +892,29 @@ pub fn apply_override(
                 entry.1 = Frequency::new::<hertz>(v);
             }
         }
+        [pump, "running"] if s.pump_running.iter().any(|(n, ..)| n == pump) => {
+            let n = expect_number(e, env, "pumps running")?;
+            if let Some(entry) = s.pump_running.iter_mut().find(|(p, ..)| p == pump) {
+                let (count, parallel) = (entry.1, entry.2);
+                if !parallel {
+                    return Err(Diagnostic::error(
+                        Code::OutOfRange,
+                        format!("pump {pump} is not a parallel set: all its pumps run"),
+                        Some(e.span),
+                    )
+                    .with_help("`running` sets how many pumps of a parallel set (`arrangement = parallel`) run in the case"));
+                }
+                if !(n.fract() == 0.0 && n >= 1.0 && n <= count as f64) {
+                    return Err(Diagnostic::error(
+                        Code::OutOfRange,
+                        format!("pump {pump} is a set of {count} in parallel: 1 to {count} of them can run"),
+                        Some(e.span),
+                    )
+                    .with_label(format!("a whole number from 1 to {count}")));
+                }
+                entry.3 = n as u32;
+            }
+        }
         [line, index, field] if SEGMENT_FIELDS.contains(field) => {
             let n: usize = index.parse().map_err(|_| no_such_path(path, s))?;
             if !s.lines.iter().any(|l| l.name == *line) {
@@ -952,6 +975,11 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
     }
     for (p, _) in &s.pump_speeds {
         valid.push(format!("{p}.speed"));
+    }
+    for (p, _, parallel, _) in &s.pump_running {
+        if *parallel {
+            valid.push(format!("{p}.running"));
+        }
     }
     let written = path.dotted();
     let near = nearest(&written, valid.iter().map(|v| v.as_str()));

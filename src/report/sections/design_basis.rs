@@ -348,8 +348,13 @@ fn changed_fields(overrides: &[String]) -> String {
         .filter_map(|o| {
             let (field, value) = o.split_once(" = ").unwrap_or((o.as_str(), ""));
             let word = !value.is_empty() && value.chars().all(|c| c.is_ascii_alphabetic());
+            let count = !value.is_empty() && value.chars().all(|c| c.is_ascii_digit());
             match field {
                 "hours" | "hours_per_year" => None,
+                _ if field.ends_with(".running") && count => Some(format!(
+                    "pumps of {} running: {value}",
+                    field.trim_end_matches(".running")
+                )),
                 "roughness" | "pipe_condition" if word => Some(format!("pipe condition: {value}")),
                 _ if word => Some(format!("{}: {value}", super::wording::plain(field))),
                 _ => Some(super::wording::plain(field)),

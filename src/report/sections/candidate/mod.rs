@@ -59,6 +59,20 @@ pub(super) fn chapter(
     remarks(blocks, pump, &all_results);
 }
 
+/// ", running 1 in case low_demand" for the cases that run fewer pumps of a parallel
+/// set than it has, else empty.
+fn fewer_running(pump: &PumpCandidate, results: &[CaseRun]) -> String {
+    let fewer: Vec<String> = results
+        .iter()
+        .filter(|(_, run)| run.count < pump.count)
+        .map(|(case, run)| format!("{} in case {}", run.count, case.name))
+        .collect();
+    match fewer.is_empty() {
+        true => String::new(),
+        false => format!(", running {}", fewer.join(", ")),
+    }
+}
+
 /// The arrangement in words: "single pump", "2 in parallel", "3 in series".
 fn arrangement(pump: &PumpCandidate) -> String {
     match pump.arrangement {
@@ -282,7 +296,7 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
             Column::new(format!("Input ({})", pw.label), 0.09, Align::Right),
         ],
         rows,
-        caption: Some(format!("Flow, head and power are for the whole arrangement ({arrangement}); efficiency, BEP ratio and NPSHr per pump")),
+        caption: Some(format!("Flow, head and power are for the whole arrangement ({arrangement}{}); efficiency, BEP ratio and NPSHr per pump", fewer_running(pump, results))),
     });
 }
 

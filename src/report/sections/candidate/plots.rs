@@ -418,13 +418,14 @@ pub(super) fn power_plot(
     units: &Units,
 ) {
     let (fl, pw) = (units.flow(), units.power());
-    let per = pump.count.max(1) as f64;
     let mut palette = Palette::default();
     let mut series = Vec::new();
     for (k, (case, run)) in results.iter().enumerate() {
         if k > 0 && results[k - 1].1.operating_curve == run.operating_curve {
             continue;
         }
+        // The pumps running in the case (a case may run fewer of a parallel set).
+        let per = run.count.max(1) as f64;
         let points: Vec<(f64, f64)> = run
             .operating_curve
             .iter()
@@ -447,6 +448,7 @@ pub(super) fn power_plot(
         .filter_map(|(case, run)| {
             let duty = run.duty.as_ref()?;
             let shaft = duty.shaft_power?;
+            let per = run.count.max(1) as f64;
             Some(left_marker(
                 fl.value(duty.flow),
                 pw.value(shaft / per),
