@@ -180,6 +180,25 @@ fn field_changes_are_reported_with_their_path() {
         )]),
         vec!["motor › efficiency: added (94.1 %)"]
     );
+    // Issue 12: a well's drawdown test and a line serving each pump are inputs too.
+    let changes = changes_after(&[(
+        "tank wet_well { level = 1208.5 ft }",
+        "tank wet_well {\n    level = 1208.5 ft\n    drawdown = 6 ft\n    test_flow = 700 gpm\n}",
+    )]);
+    assert_eq!(
+        changes,
+        vec![
+            "tank wet_well › drawdown: added (6 ft)",
+            "tank wet_well › test_flow: added (700 gpm)"
+        ]
+    );
+    assert_eq!(
+        changes_after(&[(
+            "line suction from wet_well to pump {\n",
+            "line suction from wet_well to pump {\n    serves = each_pump\n"
+        )]),
+        vec!["line suction › serves: added (each_pump)"]
+    );
 }
 
 #[test]

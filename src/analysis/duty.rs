@@ -306,12 +306,77 @@ pub struct Duty {
     pub suction_velocity: Option<f64>,
     /// Velocity in the discharge segment next to the pump, m/s.
     pub discharge_velocity: Option<f64>,
-    /// Every segment at the duty flow.
+    /// Every segment at the duty flow (station piping at the flow per pump).
     pub segments: Vec<SegmentAtFlow>,
+    /// Each pump's own station piping at the duty (`serves = each_pump` lines), or `None`.
+    pub station: Option<StationPiping>,
+    /// The source well at the duty flow, or `None` for a tank.
+    pub well: Option<WellAtDuty>,
     /// Always false: a duty beyond the published curve fails (kept for the JSON field).
     pub extrapolated: bool,
     /// How many times the pump and system curves cross (more than one warns).
     pub crossings: usize,
+}
+
+/// One pump's own station piping at a duty: the branch losses taken from its head and
+/// the suction path NPSH available is computed along.
+#[derive(Clone, Debug, PartialEq)]
+pub struct StationPiping {
+    /// Flow through each pump and its own piping, m³/s.
+    pub flow_per_pump: f64,
+    /// Loss of one pump's own suction branch, m.
+    pub suction_head: f64,
+    /// Loss of one pump's own discharge branch, m.
+    pub discharge_head: f64,
+    /// The suction path of NPSH available, from the source to the pump: (line name,
+    /// segment index in its line, the flow it carries, m³/s).
+    pub npsh_path: Vec<(String, usize, f64)>,
+}
+
+/// A source well at a duty: its drawdown s = B·Q + C·Q² in parts and its pumping level.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WellAtDuty {
+    /// Static water level, m on the design's datum.
+    pub static_level: f64,
+    /// Aquifer loss B·Q at the duty flow, m.
+    pub aquifer_loss: f64,
+    /// Well loss C·Q² at the duty flow, m.
+    pub well_loss: f64,
+    /// Pumping level: static level − aquifer loss − well loss, m on the datum.
+    pub pumping_level: f64,
+}
+
+/// The source well at total flow q (m³/s), when the source is one.
+fn well_at(sys: &CaseSystem, q: f64) -> Option<WellAtDuty> {
+    let w = sys.well?;
+    let (aquifer_loss, well_loss) = w.parts(q);
+    Some(WellAtDuty {
+        static_level: sys.source_level,
+        aquifer_loss,
+        well_loss,
+        pumping_level: sys.source_level - aquifer_loss - well_loss,
+    })
+}
+
+/// The station piping of a set carrying `q` with `qp` per pump (m³/s), when the design
+/// gives any.
+fn station_piping(sys: &CaseSystem, q: f64, qp: f64) -> Option<StationPiping> {
+    if !sys.has_station_piping() {
+        return None;
+    }
+    let (suction_head, discharge_head) = sys.station_losses(qp);
+    let npsh_path = sys
+        .segments
+        .iter()
+        .filter(|s| s.side == Side::Suction)
+        .map(|s| (s.line.clone(), s.index, sys.segment_flow(s, q, qp)))
+        .collect();
+    Some(StationPiping {
+        flow_per_pump: qp,
+        suction_head,
+        discharge_head,
+        npsh_path,
+    })
 }
 
 /// Energy of one case × candidate over a year.
@@ -366,6 +431,9 @@ pub struct PumpResult {
     pub affinity_scale: f64,
     /// The network at the duty point (general-form designs with a duty only).
     pub network: Option<crate::analysis::network::station::NetworkAtDuty>,
+    /// With station piping only: NPSH available per pump at each flow of the case's
+    /// system curve (m, the set's flow shared by the pumps in parallel); else empty.
+    pub npsh_available_curve: Vec<f64>,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -388,6 +456,15 @@ pub fn required_flow(design: &Design, case_name: &str) -> Option<f64> {
         })
         .map(|r| r.limit_si)
         .fold(None, |a: Option<f64>, b| Some(a.map_or(b, |a| a.max(b))))
+}
+
+/// Pumps in parallel and in series of an arrangement as it runs in `case`: a parallel
+/// set runs the pumps the case says (`PUMP.running = N`), else all of them.
+pub fn stages_in(p: &PumpCandidate, case: &Case) -> (u32, u32) {
+    match (p.arrangement, case.scenario.running(&p.name)) {
+        (ArrangementKind::Parallel, Some(n)) => (n.max(1), 1),
+        _ => stages(p),
+    }
 }
 
 /// Pumps in parallel and in series of an arrangement.
@@ -440,7 +517,7 @@ fn adjust_to_requirement(
     ratios: (f64, f64),
     out: &mut PumpResult,
 ) -> (f64, f64) {
-    let (n_par, n_ser) = stages(p);
+    let (n_par, n_ser) = stages_in(p, case);
     let (mut speed_ratio, mut diameter_ratio) = ratios;
     let required = required_flow(design, &case.name);
     match (p.adjust, required) {
@@ -451,8 +528,8 @@ fn adjust_to_requirement(
             },
             Some(q),
         ) => {
-            let h = sys.head(q) / n_ser as f64;
             let qp = q / n_par as f64;
+            let h = sys.head(q) / n_ser as f64 + sys.station_loss(qp);
             let needed = pumps::speed_for_duty(base, qp, h, 0.05, 3.0_f64.max(max_ratio))
                 .ok()
                 .map(|s| s.speed_ratio);
@@ -482,8 +559,8 @@ fn adjust_to_requirement(
             }
         }
         (Adjust::Trim { min_ratio }, Some(q)) => {
-            let h = sys.head(q) / n_ser as f64;
             let qp = q / n_par as f64;
+            let h = sys.head(q) / n_ser as f64 + sys.station_loss(qp);
             let needed = pumps::trim_for_duty(base, qp, h, 0.05).ok().map(|(d, _)| d);
             out.headroom = Some(Headroom {
                 limit: AdjustLimit::Trim,
@@ -547,6 +624,14 @@ fn describe_failure(outcome: &DutyOutcome) -> Message {
     }
 }
 
+/// The head an arrangement offers its headers at total flow q (m³/s), m: each pump's
+/// head less its own station piping's loss ([`CaseSystem::station_loss`]), × pumps in
+/// series, at q / pumps in parallel per pump.
+pub fn set_head(scaled: &ScaledPump, sys: &CaseSystem, parallel: f64, series: f64, q: f64) -> f64 {
+    let qp = q / parallel;
+    series * (scaled.eval_head(qp) - sys.station_loss(qp))
+}
+
 /// The flow of an arrangement (m³/s) where its curve meets the system curve within the
 /// published data, or `None`.
 pub fn meeting_flow(
@@ -556,7 +641,7 @@ pub fn meeting_flow(
     series: f64,
 ) -> Option<f64> {
     let (_, end) = scaled.domain();
-    let head = |q: f64| series * scaled.eval_head(q / parallel);
+    let head = |q: f64| set_head(scaled, sys, parallel, series, q);
     pumps::solve_duty(&head, &|q| sys.head(q), end * parallel)
         .point()
         .map(|(q, _)| q)
@@ -570,7 +655,7 @@ pub fn evaluate(
     p: &PumpCandidate,
     cc: &CandidateCurves,
 ) -> PumpResult {
-    let (n_par, n_ser) = stages(p);
+    let (n_par, n_ser) = stages_in(p, case);
     let motor_efficiency = match design.motor.efficiency {
         Some(e) => (e, "given in the design".to_string()),
         None => (
@@ -581,7 +666,10 @@ pub fn evaluate(
     let mut out = PumpResult {
         name: p.name.clone(),
         arrangement: p.arrangement,
-        count: p.count,
+        count: match p.arrangement {
+            ArrangementKind::Parallel => n_par,
+            _ => p.count,
+        },
         standby: p.standby,
         // The rated speed until a usable curve says otherwise: an unusable curve must
         // not print "pump P at 0 rpm" (issue 11).
@@ -595,6 +683,7 @@ pub fn evaluate(
         warnings: Vec::new(),
         motor_efficiency,
         network: None,
+        npsh_available_curve: Vec::new(),
         headroom: None,
         capacity_flow: None,
         affinity_scale: 1.0,
@@ -657,7 +746,7 @@ pub fn evaluate(
     out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     let rho = sys.fluid.density;
-    let head_arr = |q: f64| ser * scaled.eval_head(q / par);
+    let head_arr = |q: f64| set_head(&scaled, sys, par, ser, q);
     let (_, q_data_end) = scaled.domain();
     let q_end = q_data_end * par;
     out.operating_curve = (0..PUMP_CURVE_POINTS)
@@ -738,13 +827,17 @@ pub fn evaluate(
         let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
         out.warnings.extend(w.into_iter().map(Message::text));
     }
+    let station = station_piping(sys, q, qp);
+    let branch = station
+        .as_ref()
+        .map_or(0.0, |s| s.suction_head + s.discharge_head);
     let duty = Duty {
         flow: q,
         head: h,
         flow_per_pump: qp,
-        head_per_pump: h / ser,
+        head_per_pump: h / ser + branch,
         efficiency,
-        hydraulic_power: pumps::hydraulic_power_w(rho, q, h),
+        hydraulic_power: pumps::hydraulic_power_w(rho, q, h + ser * branch),
         shaft_power,
         input_power: None,
         motor_efficiency: out.motor_efficiency.0,
@@ -753,12 +846,14 @@ pub fn evaluate(
         wire_to_water_efficiency: None,
         bep_flow: bep,
         flow_ratio_to_bep: bep.filter(|b| *b > 0.0).map(|b| qp / b),
-        npsh_available: sys.npsh_available(q),
-        npsh_terms: sys.npsh_terms(q),
+        npsh_available: sys.npsh_available_per_pump(q, qp),
+        npsh_terms: sys.npsh_terms_per_pump(q, qp),
         npsh_required: scaled.eval_npshr(qp),
-        suction_velocity: sys.pump_velocity(Side::Suction, q),
-        discharge_velocity: sys.pump_velocity(Side::Discharge, q),
-        segments: sys.segments_at(q),
+        suction_velocity: sys.pump_velocity_set(Side::Suction, q, qp),
+        discharge_velocity: sys.pump_velocity_set(Side::Discharge, q, qp),
+        segments: sys.segments_at_set(q, qp),
+        station,
+        well: well_at(sys, q),
         extrapolated: false,
         crossings,
     };
@@ -766,7 +861,8 @@ pub fn evaluate(
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
         crate::model::Fluid::Water { .. } => None,
     };
-    out.warnings.extend(sys.flow_warnings(q, custom_fluid));
+    out.warnings
+        .extend(sys.flow_warnings_set(q, qp, custom_fluid));
     out.checks = checks::duty_checks(design, case, &duty, p);
     out.checks.extend(checks::headroom_check(&out.headroom));
     out.duty = Some(duty);

@@ -18,7 +18,7 @@ pub mod selection;
 pub mod stability;
 pub mod system;
 
-use crate::model::{Design, Side};
+use crate::model::{ArrangementKind, Design, Side};
 pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
 
 /// Number of points of each tabulated system curve.
@@ -92,6 +92,8 @@ pub struct SystemPoint {
     pub minor: f64,
     /// The network's part (entry head above its zero-flow value), m; 0 for a chain.
     pub network: f64,
+    /// A source well's drawdown at the flow, m; 0 for a tank.
+    pub drawdown: f64,
 }
 
 /// The analysis of one case.
@@ -226,15 +228,28 @@ pub fn analyse(design: &Design) -> Analysis {
                     let l = s.losses(q);
                     let point = SystemPoint {
                         flow: q,
-                        head: s.static_head + l.friction + l.minor + l.network,
+                        head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
                         static_head: s.static_head,
                         friction: l.friction,
                         minor: l.minor,
                         network: l.network,
+                        drawdown: l.drawdown,
                     };
-                    (point, s.npsh_available_after(l.suction))
+                    (point, s.npsh_available_after(l.suction + l.drawdown))
                 })
                 .unzip();
+            if s.has_station_piping() {
+                for p in &mut c.pumps {
+                    let par = match p.arrangement {
+                        ArrangementKind::Parallel => p.count.max(1) as f64,
+                        _ => 1.0,
+                    };
+                    p.npsh_available_curve = curve
+                        .iter()
+                        .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
+                        .collect();
+                }
+            }
             c.system_curve = curve;
             c.npsh_available_curve = npsh;
         }

@@ -130,7 +130,7 @@ pub fn motor_pass(
             }
             match (&sizing, &r.duty) {
                 (Some(m), Some(d)) => {
-                    let per_pump = d.shaft_power.unwrap_or(0.0) / p.count.max(1) as f64;
+                    let per_pump = d.shaft_power.unwrap_or(0.0) / r.count.max(1) as f64;
                     r.checks.push(motor_check(m, per_pump));
                 }
                 (None, Some(d)) if d.shaft_power.is_some() => r.checks.push(Check::typed(
@@ -157,12 +157,13 @@ fn size(
     i: usize,
     cases: &[CaseResult],
 ) -> Option<MotorSizing> {
-    let per_pump = p.count.max(1) as f64;
     let (max_shaft, max_case) = cases
         .iter()
         .filter_map(|c| {
+            // Per pump: the shaft power of the pumps running in that case.
+            let r = c.pumps.get(i)?;
             Some((
-                c.pumps.get(i)?.duty.as_ref()?.shaft_power? / per_pump,
+                r.duty.as_ref()?.shaft_power? / r.count.max(1) as f64,
                 &c.name,
             ))
         })

@@ -102,7 +102,7 @@ fn evaluate(
     let scaled = ScaledPump::new(base, speed, diameter).ok()?;
     let (_, end) = scaled.domain();
     let outcome = pumps::solve_duty(
-        &|q| scaled.eval_head(q),
+        &|q| duty::set_head(&scaled, sys, 1.0, 1.0, q),
         &|q| sys.head(q),
         end * (1.0 + duty::SEARCH_BEYOND_CURVE),
     );
@@ -137,7 +137,7 @@ fn evaluate(
         return Some((i, alone));
     };
     let shaft = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q);
-    let npsha = sys.npsh_available(q);
+    let npsha = sys.npsh_available_per_pump(q, q);
     let npshr = scaled.eval_npshr(q);
     let npsh = checks::npsh_margin(npsha, npshr, checks::npsh_ratio_limit(design, dc));
     let mut status = npsh.status;

@@ -44,6 +44,44 @@ pub struct FluidState {
     pub source: String,
 }
 
+/// The source well's drawdown law, when the source tank states one.
+fn well_drawdown(s: &Scenario) -> Result<Option<WellDrawdown>, SystemError> {
+    for t in [&s.source, &s.destination] {
+        let stated = t.drawdown.is_some() || t.test_flow.is_some() || t.well_loss.is_some();
+        if stated && t.name == s.destination.name {
+            return Err(SystemError {
+                message: format!(
+                    "tank {} is a destination: a drawdown belongs to a well the pumps draw from",
+                    t.name
+                ),
+            });
+        }
+    }
+    let t = &s.source;
+    match (t.drawdown, t.test_flow) {
+        (None, None) if t.well_loss.is_none() => Ok(None),
+        (Some(d), Some(q)) => {
+            let well = WellDrawdown {
+                drawdown: d.get::<meter>(),
+                test_flow: q.get::<uom::si::volume_rate::cubic_meter_per_second>(),
+                well_loss: t.well_loss.map_or(0.0, |w| w.get::<meter>()),
+            };
+            if well.well_loss > well.drawdown || well.test_flow <= 0.0 {
+                return Err(SystemError {
+                    message: format!("well {}: its well loss exceeds its drawdown", t.name),
+                });
+            }
+            Ok(Some(well))
+        }
+        _ => Err(SystemError {
+            message: format!(
+                "well {}: a drawdown needs its test flow (`drawdown` and `test_flow`)",
+                t.name
+            ),
+        }),
+    }
+}
+
 /// One pipe segment, resolved for a case.
 #[derive(Clone, Debug)]
 pub struct SegmentState {
@@ -82,6 +120,9 @@ pub struct SegmentState {
     pub k_fixed_sum: f64,
     /// Equivalent lengths of `loss { equivalent_length }`, m.
     pub equivalent_length: f64,
+    /// Station piping (`serves = each_pump`): each pump has its own copy of the segment,
+    /// carrying one pump's flow; left out of [`CaseSystem::losses`] (the header's curve).
+    pub per_pump: bool,
 }
 
 /// A fitting on a segment, as used for its K.
@@ -108,6 +149,36 @@ pub struct Losses {
     pub suction: f64,
     /// The network's part: entry head at the flow minus at zero flow, m (0 for a chain).
     pub network: f64,
+    /// A source well's drawdown below its static level at the flow, m (0 for a tank).
+    pub drawdown: f64,
+}
+
+/// A source well's drawdown law, s = B·Q + C·Q² (Jacob 1947, "Drawdown test to determine
+/// effective radius of artesian well", Trans. ASCE 112; the step-drawdown form of
+/// Driscoll, *Groundwater and Wells*, 2nd ed., 1986, ch. 16, from memory), from the
+/// design's test point: B·Q_t = drawdown − well loss (aquifer loss), C·Q_t² = well loss.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct WellDrawdown {
+    /// Drawdown below the static level at the test flow, m.
+    pub drawdown: f64,
+    /// The test flow, m³/s.
+    pub test_flow: f64,
+    /// The part of the drawdown at the test flow that is well loss (∝ Q²), m.
+    pub well_loss: f64,
+}
+
+impl WellDrawdown {
+    /// (Aquifer loss B·Q, well loss C·Q²) at flow q (m³/s), m; none at q ≤ 0.
+    pub fn parts(&self, q: f64) -> (f64, f64) {
+        let r = q.max(0.0) / self.test_flow;
+        ((self.drawdown - self.well_loss) * r, self.well_loss * r * r)
+    }
+
+    /// Drawdown at flow q (m³/s), m.
+    pub fn at(&self, q: f64) -> f64 {
+        let (a, w) = self.parts(q);
+        a + w
+    }
 }
 
 /// A case's hydraulic model.
@@ -140,6 +211,8 @@ pub struct CaseSystem {
     pub network: Option<(StationNetwork, f64)>,
     /// Set when a network solve at some flow failed (the case is then reported failed).
     pub network_failed: std::cell::Cell<bool>,
+    /// The source is a well with a drawdown (its `source_level` the static level).
+    pub well: Option<WellDrawdown>,
 }
 
 /// Why a case could not be set up.
@@ -206,7 +279,9 @@ impl CaseSystem {
         ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
         for line in ordered {
             for (i, seg) in line.segments.iter().enumerate() {
-                segments.push(resolve_segment(s, &line.name, line.side, i, seg)?);
+                let mut state = resolve_segment(s, &line.name, line.side, i, seg)?;
+                state.per_pump = line.per_pump;
+                segments.push(state);
             }
         }
         let rho_g = fluid.density * G;
@@ -226,7 +301,9 @@ impl CaseSystem {
                 (Some((net, h0)), stat)
             }
         };
+        let well = well_drawdown(s)?;
         Ok(CaseSystem {
+            well,
             network,
             network_failed: std::cell::Cell::new(false),
             fluid,
@@ -258,10 +335,11 @@ impl CaseSystem {
         segment_losses_in(&self.fluid, seg, q)
     }
 
-    /// All losses at flow q.
+    /// All losses at flow q of the piping the whole set's flow passes (station piping,
+    /// `serves = each_pump`, is left out: see [`CaseSystem::station_losses`]).
     pub fn losses(&self, q: f64) -> Losses {
         let mut out = Losses::default();
-        for seg in &self.segments {
+        for seg in self.segments.iter().filter(|s| !s.per_pump) {
             let (wall, minor) = self.segment_losses(seg, q);
             out.friction += wall;
             out.minor += minor;
@@ -270,13 +348,19 @@ impl CaseSystem {
             }
         }
         out.network = self.network_head(q);
+        out.drawdown = self.drawdown(q);
         out
+    }
+
+    /// The source well's drawdown at flow q (m³/s), m; 0 for a tank.
+    pub fn drawdown(&self, q: f64) -> f64 {
+        self.well.map_or(0.0, |w| w.at(q))
     }
 
     /// System head at flow q, m.
     pub fn head(&self, q: f64) -> f64 {
         let l = self.losses(q);
-        self.static_head + l.friction + l.minor + l.network
+        self.static_head + l.friction + l.minor + l.network + l.drawdown
     }
 
     /// The network's part of the system head at flow q, m: H_entry(q) − H_entry(0).
@@ -299,11 +383,12 @@ impl CaseSystem {
     /// suction losses, minus the vapour-pressure head (ANSI/HI 9.6.1; Karassik et al.,
     /// *Pump Handbook*, 4th ed., ch. 2).
     pub fn npsh_available(&self, q: f64) -> f64 {
-        self.npsh_available_after(self.losses(q).suction)
+        let l = self.losses(q);
+        self.npsh_available_after(l.suction + l.drawdown)
     }
 
     /// NPSH available, m, for a suction-line loss already computed (see
-    /// [`CaseSystem::npsh_available`]).
+    /// [`CaseSystem::npsh_available`]); a well's drawdown counts as part of it.
     pub fn npsh_available_after(&self, suction_loss: f64) -> f64 {
         let rho_g = self.fluid.density * G;
         self.source_abs_pa / rho_g + (self.source_level - self.centreline)
@@ -311,22 +396,86 @@ impl CaseSystem {
             - self.fluid.vapor_pressure / rho_g
     }
 
+    /// Whether the design gives station piping (`serves = each_pump` lines).
+    pub fn has_station_piping(&self) -> bool {
+        self.segments.iter().any(|s| s.per_pump)
+    }
+
+    /// Losses of one pump's own station piping at its flow `qp` (m³/s), m: (suction
+    /// branch, discharge branch), each wall friction + minor losses. Both 0 without
+    /// station piping.
+    pub fn station_losses(&self, qp: f64) -> (f64, f64) {
+        let (mut suction, mut discharge) = (0.0, 0.0);
+        for seg in self.segments.iter().filter(|s| s.per_pump) {
+            let (wall, minor) = self.segment_losses(seg, qp);
+            match seg.side {
+                Side::Suction => suction += wall + minor,
+                Side::Discharge => discharge += wall + minor,
+            }
+        }
+        (suction, discharge)
+    }
+
+    /// Head one pump's station piping takes at its flow `qp` (m³/s), suction and
+    /// discharge branches together, m: the "modified pump curve" of a station, the pump's
+    /// head less its own piping's loss, is what the set offers its headers (Sanks,
+    /// *Pumping Station Design*, 3rd ed., ch. on system and pump curves, from memory).
+    pub fn station_loss(&self, qp: f64) -> f64 {
+        let (s, d) = self.station_losses(qp);
+        s + d
+    }
+
+    /// NPSH available of one pump of a set, m: the common suction piping at the set's
+    /// flow `q` and the pump's own suction branch at its flow `qp` (m³/s); see
+    /// [`CaseSystem::npsh_available`]. Equal to it without station piping.
+    pub fn npsh_available_per_pump(&self, q: f64, qp: f64) -> f64 {
+        let l = self.losses(q);
+        self.npsh_available_after(l.suction + l.drawdown + self.station_losses(qp).0)
+    }
+
+    /// The flow a segment carries when the set carries `q` and each pump `qp`, m³/s.
+    pub fn segment_flow(&self, seg: &SegmentState, q: f64, qp: f64) -> f64 {
+        if seg.per_pump {
+            qp
+        } else {
+            q
+        }
+    }
+
     /// Velocity in the segment next to the pump on a side, m/s.
     pub fn pump_velocity(&self, side: Side, q: f64) -> Option<f64> {
+        self.pump_velocity_set(side, q, q)
+    }
+
+    /// Velocity next to the pump on a side when the set carries `q` and each pump `qp`
+    /// (m³/s), m/s: station piping there carries `qp`.
+    pub fn pump_velocity_set(&self, side: Side, q: f64, qp: f64) -> Option<f64> {
         let seg = match side {
             Side::Suction => self.segments.iter().rev().find(|s| s.side == Side::Suction),
             Side::Discharge => self.segments.iter().find(|s| s.side == Side::Discharge),
         }?;
-        Some(q / seg.area)
+        Some(self.segment_flow(seg, q, qp) / seg.area)
     }
 
     /// Validity warnings at flow q, one per segment and remark: the laminar-turbulent
     /// transition, Darcy-Weisbach beyond Moody's (1944) chart, and Hazen-Williams outside
     /// its range (water only: `custom_fluid` names a liquid that is not water).
     pub fn flow_warnings(&self, q: f64, custom_fluid: Option<&str>) -> Vec<Message> {
+        self.flow_warnings_set(q, q, custom_fluid)
+    }
+
+    /// [`CaseSystem::flow_warnings`] when the set carries `q_set` and each pump `qp`
+    /// (m³/s): station piping is judged at `qp`.
+    pub fn flow_warnings_set(
+        &self,
+        q_set: f64,
+        qp: f64,
+        custom_fluid: Option<&str>,
+    ) -> Vec<Message> {
         let mut out = Vec::new();
-        for (i, regime, re) in self.regimes(q) {
+        for (i, regime, re) in self.regimes_set(q_set, qp) {
             let seg = &self.segments[i];
+            let q = self.segment_flow(seg, q_set, qp);
             if regime == FlowRegime::Transitional {
                 out.push(Message::text(format!("line {} segment {}: Re = {re:.0} lies in the laminar-turbulent transition (2000–4000): friction is uncertain", seg.line, seg.index + 1)));
             }
@@ -365,10 +514,18 @@ impl CaseSystem {
 
     /// The regimes met at flow q, with the segment each occurs in.
     pub fn regimes(&self, q: f64) -> Vec<(usize, FlowRegime, f64)> {
+        self.regimes_set(q, q)
+    }
+
+    /// The regimes met when the set carries `q_set` and each pump `qp` (m³/s).
+    fn regimes_set(&self, q_set: f64, qp: f64) -> Vec<(usize, FlowRegime, f64)> {
         self.segments
             .iter()
             .enumerate()
-            .map(|(i, s)| (i, self.friction(s, q).regime, self.reynolds(s, q)))
+            .map(|(i, s)| {
+                let q = self.segment_flow(s, q_set, qp);
+                (i, self.friction(s, q).regime, self.reynolds(s, q))
+            })
             .collect()
     }
 }
@@ -381,7 +538,8 @@ pub struct NpshTerms {
     pub barometric_head: f64,
     /// Gauge pressure on the source surface as head (p_abs − p_baro)/(ρg), m.
     pub surface_pressure_head: f64,
-    /// Source level minus the pump datum (centreline), m.
+    /// Source level minus the pump datum (centreline), m; for a well, its pumping level
+    /// (static level less the drawdown at the flow).
     pub static_suction_head: f64,
     /// Minus the vapour-pressure head, −p_v/(ρg), m.
     pub vapour_pressure_head: f64,
@@ -431,19 +589,36 @@ pub struct SegmentAtFlow {
 }
 
 impl CaseSystem {
-    /// NPSH available at flow q (m³/s), term by term (see [`NpshTerms`]).
+    /// NPSH available at flow q (m³/s), term by term (see [`NpshTerms`]); station
+    /// piping is left out (the suction header's value).
     pub fn npsh_terms(&self, q: f64) -> NpshTerms {
+        self.npsh_terms_of(q, None)
+    }
+
+    /// NPSH available of one pump of a set, term by term: the common suction piping at
+    /// the set's flow `q`, the pump's own suction branch at its flow `qp` (m³/s).
+    pub fn npsh_terms_per_pump(&self, q: f64, qp: f64) -> NpshTerms {
+        self.npsh_terms_of(q, Some(qp))
+    }
+
+    /// The NPSH terms with station piping at `qp` when given, else left out.
+    fn npsh_terms_of(&self, q: f64, qp: Option<f64>) -> NpshTerms {
         let rho_g = self.fluid.density * G;
         let (mut friction, mut minor) = (0.0, 0.0);
         for seg in self.segments.iter().filter(|s| s.side == Side::Suction) {
-            let (wall, m) = self.segment_losses(seg, q);
+            let flow = match (seg.per_pump, qp) {
+                (false, _) => q,
+                (true, Some(qp)) => qp,
+                (true, None) => continue,
+            };
+            let (wall, m) = self.segment_losses(seg, flow);
             friction += wall;
             minor += m;
         }
         NpshTerms {
             barometric_head: self.barometric_pa / rho_g,
             surface_pressure_head: (self.source_abs_pa - self.barometric_pa) / rho_g,
-            static_suction_head: self.source_level - self.centreline,
+            static_suction_head: self.source_level - self.drawdown(q) - self.centreline,
             vapour_pressure_head: -self.fluid.vapor_pressure / rho_g,
             suction_friction_head: -friction,
             suction_minor_head: -minor,
@@ -452,9 +627,16 @@ impl CaseSystem {
 
     /// Every segment at flow q (m³/s), in the order of [`CaseSystem::segments`].
     pub fn segments_at(&self, q: f64) -> Vec<SegmentAtFlow> {
+        self.segments_at_set(q, q)
+    }
+
+    /// Every segment when the set carries `q` and each pump `qp` (m³/s): station piping
+    /// at `qp`, the rest at `q`.
+    pub fn segments_at_set(&self, q_set: f64, qp: f64) -> Vec<SegmentAtFlow> {
         self.segments
             .iter()
             .map(|seg| {
+                let q = self.segment_flow(seg, q_set, qp);
                 let velocity = q / seg.area;
                 let reynolds = self.reynolds(seg, q);
                 let (friction_head, minor_head) = self.segment_losses(seg, q);
@@ -673,5 +855,6 @@ pub fn resolve_segment(
         k_laminar_sum,
         k_fixed_sum,
         equivalent_length,
+        per_pump: false,
     })
 }

@@ -207,10 +207,24 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
             SurfacePressure::Gauge(p) => v(p.value, Measure::GaugePressure),
             SurfacePressure::Absolute(p) => v(p.value, Measure::AbsolutePressure),
         };
+        let mut fields = vec![
+            Node::leaf("level", level.clone()),
+            Node::leaf("pressure", pressure),
+        ];
+        // A well's drawdown test (issue 12), only where the design states one.
+        if let Some(d) = t.drawdown {
+            fields.push(Node::leaf("drawdown", v(d.value, Measure::Length)));
+        }
+        if let Some(q) = t.test_flow {
+            fields.push(Node::leaf("test_flow", v(q.value, Measure::Flow)));
+        }
+        if let Some(w) = t.well_loss {
+            fields.push(Node::leaf("well_loss", v(w.value, Measure::Length)));
+        }
         out.push(Node::group(
             format!("tank {}", t.name),
             format!("level {level}"),
-            vec![Node::leaf("level", level), Node::leaf("pressure", pressure)],
+            fields,
         ));
     }
     out.push(Node::group(
@@ -231,11 +245,14 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
     ));
     if speeds {
         for (pump, speed) in &s.pump_speeds {
-            out.push(Node::group(
-                format!("pump {pump}"),
-                "",
-                vec![Node::leaf("speed", v(speed.value, Measure::Speed))],
-            ));
+            let mut fields = vec![Node::leaf("speed", v(speed.value, Measure::Speed))];
+            // Pumps running (issue 12), only where a case runs fewer than the set has.
+            if let Some((_, count, _, running)) = s.pump_running.iter().find(|r| &r.0 == pump) {
+                if running < count {
+                    fields.push(Node::leaf("running", running.to_string()));
+                }
+            }
+            out.push(Node::group(format!("pump {pump}"), "", fields));
         }
     }
     out
@@ -339,6 +356,9 @@ fn line_safety_fields(l: &Line, units: ReportUnits) -> Vec<Node> {
     }
     if l.restraint != crate::model::Restraint::default() {
         out.push(Node::leaf("restraint", l.restraint.keyword()));
+    }
+    if l.per_pump {
+        out.push(Node::leaf("serves", "each_pump"));
     }
     out
 }

@@ -120,6 +120,19 @@ pub struct Scenario {
     pub hours_per_year: Time,
     /// Speed overrides for pumps in this case, by pump name.
     pub pump_speeds: Vec<(String, Frequency)>,
+    /// Per pump candidate: (name, pumps of its set, whether the set is parallel, pumps
+    /// running in this case: the set's count unless a case says `PUMP.running = N`).
+    pub pump_running: Vec<(String, u32, bool, u32)>,
+}
+
+impl Scenario {
+    /// Pumps of candidate `name`'s parallel set running in this case, when it is one.
+    pub fn running(&self, name: &str) -> Option<u32> {
+        self.pump_running
+            .iter()
+            .find(|(n, _, parallel, _)| n == name && *parallel)
+            .map(|(_, _, _, r)| *r)
+    }
 }
 
 /// The pumped liquid.
@@ -180,6 +193,12 @@ pub struct Tank {
     pub level: Length,
     /// Pressure on the surface, gauge or absolute.
     pub surface_pressure: SurfacePressure,
+    /// A well: its drawdown below the static `level` at `test_flow` (`drawdown = 12 ft`).
+    pub drawdown: Option<Length>,
+    /// A well: the flow of the drawdown test (`test_flow = 500 gpm`).
+    pub test_flow: Option<VolumeRate>,
+    /// A well: the part of `drawdown` that is well loss, growing as Q² (`well_loss`).
+    pub well_loss: Option<Length>,
     /// Where the tank's name is written.
     pub span: Span,
 }
@@ -251,6 +270,9 @@ pub struct Line {
     pub closure_time: Option<Time>,
     /// How the line is restrained against axial movement (wave speed).
     pub restraint: Restraint,
+    /// `serves = each_pump`: station piping, one copy of the line per pump of the set,
+    /// each carrying one pump's flow (the set's flow / pumps in parallel).
+    pub per_pump: bool,
     /// Where the `line` block is written.
     pub span: Span,
 }

@@ -294,6 +294,24 @@ pub const CLOSURE_TIME: Range = Range {
     usual: (0.5, 3_600.0),
 };
 
+/// A well's drawdown (or its well-loss part) at the test flow. Deeper than the deepest
+/// water wells (about 3 km) is impossible; beyond 300 m unusual (common practice).
+pub const DRAWDOWN: Range = Range {
+    what: "a drawdown",
+    unit: ("m", 1.0),
+    possible: (0.0, 3000.0),
+    usual: (0.0, 300.0),
+};
+
+/// The flow of a well's drawdown test: above zero; above 1 m³/s (about 16 000 gpm) a
+/// single well is unusual (common practice).
+pub const TEST_FLOW: Range = Range {
+    what: "a test flow",
+    unit: ("m^3/s", 1.0),
+    possible: (1e-9, 100.0),
+    usual: (1e-5, 1.0),
+};
+
 /// Every range, for the language reference and its test.
 pub const ALL: &[Range] = &[
     PIPE_BORE,
@@ -323,6 +341,8 @@ pub const ALL: &[Range] = &[
     ELASTIC_MODULUS,
     CORROSION_ALLOWANCE,
     CLOSURE_TIME,
+    DRAWDOWN,
+    TEST_FLOW,
 ];
 
 impl Range {

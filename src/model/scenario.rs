@@ -263,12 +263,27 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
 }
 
 /// The fields of `tank`.
-pub const TANK_FIELDS: &[&str] = &["level", "pressure"];
+pub const TANK_FIELDS: &[&str] = &["level", "pressure", "drawdown", "test_flow", "well_loss"];
 
 /// Set one field of a tank (base or case override), checking its dimension and range.
 pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "level" => tank.level = expect_level(e, env, "tank level")?,
+        "drawdown" | "well_loss" => {
+            let v = expect_length(e, env, "drawdown")?.get::<meter>();
+            let v = length(env.in_range(&ranges::DRAWDOWN, v, e.span)?);
+            match field {
+                "drawdown" => tank.drawdown = Some(v),
+                _ => tank.well_loss = Some(v),
+            }
+        }
+        "test_flow" => {
+            let q = expect_dim(e, env, Dimension::VOLUME_RATE, "test flow")?.si;
+            let q = env.in_range(&ranges::TEST_FLOW, q, e.span)?;
+            tank.test_flow = Some(uom::si::f64::VolumeRate::new::<
+                uom::si::volume_rate::cubic_meter_per_second,
+            >(q));
+        }
         "pressure" => {
             let p = expect_pressure(e, env, "surface pressure", true)?;
             match p {
@@ -880,6 +895,29 @@ pub fn apply_override(
                 entry.1 = Frequency::new::<hertz>(v);
             }
         }
+        [pump, "running"] if s.pump_running.iter().any(|(n, ..)| n == pump) => {
+            let n = expect_number(e, env, "pumps running")?;
+            if let Some(entry) = s.pump_running.iter_mut().find(|(p, ..)| p == pump) {
+                let (count, parallel) = (entry.1, entry.2);
+                if !parallel {
+                    return Err(Diagnostic::error(
+                        Code::OutOfRange,
+                        format!("pump {pump} is not a parallel set: all its pumps run"),
+                        Some(e.span),
+                    )
+                    .with_help("`running` sets how many pumps of a parallel set (`arrangement = parallel`) run in the case"));
+                }
+                if !(n.fract() == 0.0 && n >= 1.0 && n <= count as f64) {
+                    return Err(Diagnostic::error(
+                        Code::OutOfRange,
+                        format!("pump {pump} is a set of {count} in parallel: 1 to {count} of them can run"),
+                        Some(e.span),
+                    )
+                    .with_label(format!("a whole number from 1 to {count}")));
+                }
+                entry.3 = n as u32;
+            }
+        }
         [line, index, field] if SEGMENT_FIELDS.contains(field) => {
             let n: usize = index.parse().map_err(|_| no_such_path(path, s))?;
             if !s.lines.iter().any(|l| l.name == *line) {
@@ -940,6 +978,11 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
     }
     for (p, _) in &s.pump_speeds {
         valid.push(format!("{p}.speed"));
+    }
+    for (p, _, parallel, _) in &s.pump_running {
+        if *parallel {
+            valid.push(format!("{p}.running"));
+        }
     }
     let written = path.dotted();
     let near = nearest(&written, valid.iter().map(|v| v.as_str()));

@@ -121,6 +121,9 @@ struct Segment<'a> {
     losses: Vec<inputs::Loss<'a>>,
     k_total: f64,
     equivalent_length_m: f64,
+    /// Wave 2: `each_pump` on station piping (one copy per pump); absent otherwise.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    serves: Option<&'static str>,
 }
 
 #[derive(Serialize)]
@@ -146,6 +149,9 @@ struct Point {
     /// Wave 2, networks only: the entry head above its zero-flow value.
     #[serde(skip_serializing_if = "Option::is_none")]
     network_head_m: Option<f64>,
+    /// Wave 2, a source well only: its drawdown at the flow.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    drawdown_head_m: Option<f64>,
 }
 
 #[derive(Serialize)]
@@ -208,6 +214,12 @@ struct Duty<'a> {
     npsh_terms: engineering::NpshTermsOut,
     segments: Vec<engineering::SegmentOut<'a>>,
     headroom: Option<engineering::HeadroomOut>,
+    /// Wave 2, station piping only: each pump's own branches and the NPSH suction path.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    station_piping: Option<engineering::StationPipingOut<'a>>,
+    /// Wave 2, a source well only: its drawdown and pumping level at the duty.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    well: Option<engineering::WellOut>,
 }
 
 #[derive(Serialize)]
@@ -342,6 +354,7 @@ fn case<'a>(
                         losses: inputs::losses(d, &g.line, g.index),
                         k_total: g.k_constant,
                         equivalent_length_m: g.equivalent_length,
+                        serves: g.per_pump.then_some("each_pump"),
                     })
                     .collect()
             })
@@ -356,6 +369,7 @@ fn case<'a>(
                 friction_head_m: p.friction,
                 minor_head_m: p.minor,
                 network_head_m: s.and_then(|s| s.network.as_ref()).map(|_| p.network),
+                drawdown_head_m: s.and_then(|s| s.well).map(|_| p.drawdown),
             })
             .collect(),
         pumps: c.pumps.iter().map(|p| pump(p, units)).collect(),
@@ -432,6 +446,8 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
             npsh_terms: engineering::npsh_terms(&d.npsh_terms),
             segments: engineering::segments(&d.segments),
             headroom: p.headroom.as_ref().map(engineering::headroom),
+            station_piping: d.station.as_ref().map(engineering::station_piping),
+            well: d.well.as_ref().map(engineering::well),
         }),
         failure: p.failure.as_ref().map(|m| units.render(m)),
         checks: p.checks.iter().map(|c| check(c, units)).collect(),

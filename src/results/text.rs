@@ -84,17 +84,19 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
             );
         }
         let networked = s.network.is_some();
+        let well = s.well.is_some();
         let _ = writeln!(
             o,
-            "  system curve ({} | {} = static + friction + minor{}):",
+            "  system curve ({} | {} = static + friction + minor{}{}):",
             fl.label,
             hd.label,
-            if networked { " + network" } else { "" }
+            if networked { " + network" } else { "" },
+            if well { " + drawdown" } else { "" }
         );
         for pt in c.system_curve.iter().step_by(3) {
             let _ = writeln!(
                 o,
-                "    {:>9} | {:>8} = {} + {} + {}{}",
+                "    {:>9} | {:>8} = {} + {} + {}{}{}",
                 fl.num(pt.flow),
                 hd.num(pt.head),
                 hd.num(pt.static_head),
@@ -102,6 +104,11 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 hd.num(pt.minor),
                 if networked {
                     format!(" + {}", hd.num(pt.network))
+                } else {
+                    String::new()
+                },
+                if well {
+                    format!(" + {}", hd.num(pt.drawdown))
                 } else {
                     String::new()
                 }
@@ -276,6 +283,26 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
                 "—".to_string()
             },
             hd.fmt(d.npsh_available - n)
+        );
+    }
+    if let Some(w) = &d.well {
+        let _ = writeln!(
+            o,
+            "    well: pumping level {} = static {} − aquifer loss {} − well loss {}",
+            u.elevation().fmt(w.pumping_level),
+            u.elevation().num(w.static_level),
+            hd.num(w.aquifer_loss),
+            hd.num(w.well_loss)
+        );
+    }
+    if let Some(st) = &d.station {
+        let _ = writeln!(
+            o,
+            "    station piping per pump: {} each; own suction {}, own discharge {}; pump head {}",
+            fl.fmt(st.flow_per_pump),
+            hd.fmt(st.suction_head),
+            hd.fmt(st.discharge_head),
+            hd.fmt(d.head_per_pump)
         );
     }
     let _ = writeln!(o, "    hydraulic power: {}", pw.fmt(d.hydraulic_power));

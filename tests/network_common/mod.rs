@@ -42,6 +42,7 @@ pub fn segment(length: f64, diameter: f64, roughness: f64, k: f64) -> SegmentSta
         k_laminar_sum: 0.0,
         k_fixed_sum: 0.0,
         equivalent_length: 0.0,
+        per_pump: false,
     }
 }
 

@@ -145,9 +145,10 @@ pub fn evaluate(
     let qp = q / k as f64;
     let ser = m.series.max(1) as f64;
     let system_head = sys.head(q);
+    let branch = sys.station_loss(qp);
     let (ratio, at_min, below) = match (m.speed, set_head) {
         (SpeedRange::Variable { min, max }, Some((h, below))) => {
-            match speed_for(m, qp, h / ser, min, max)? {
+            match speed_for(m, qp, h / ser + branch, min, max)? {
                 Some(r) => (r, false, below),
                 None => (min, true, below),
             }
@@ -163,10 +164,10 @@ pub fn evaluate(
         ));
     }
     let head_per_pump = pump.eval_head(qp);
-    if head_per_pump * ser < system_head - 1e-6 {
+    if (head_per_pump - branch) * ser < system_head - 1e-6 {
         return Err(format!(
             "{k} pump(s) give {:.2} m at {q:.5} m3/s, below the {system_head:.2} m the line needs",
-            head_per_pump * ser
+            (head_per_pump - branch) * ser
         ));
     }
     power_chain(
@@ -231,14 +232,14 @@ fn power_chain(
         flow_per_pump: qp,
         head_per_pump,
         system_head,
-        surplus_head: (head_per_pump * ser - system_head).max(0.0),
+        surplus_head: ((head_per_pump - sys.station_loss(qp)) * ser - system_head).max(0.0),
         efficiency,
         bep_ratio: m
             .bep_flow
             .map(|b| b * pump.flow_scale())
             .filter(|b| *b > 0.0)
             .map(|b| qp / b),
-        npsh_available: sys.npsh_available(q),
+        npsh_available: sys.npsh_available_per_pump(q, qp),
         npsh_required: pump.eval_npshr(qp),
         shaft_power: shaft_per_pump * running,
         motor_load,

@@ -71,16 +71,19 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
     out
 }
 
-/// Energy head at the upstream end of every case segment at flow `q`, m (gauge
-/// datum: barometric pressure is zero), with each segment's (wall, minor) loss.
-fn segment_energy(sys: &CaseSystem, q: f64) -> Vec<(f64, f64, f64)> {
+/// Energy head at the upstream end of every case segment when the set carries `q` and
+/// each pump `qp` (m³/s; station piping carries `qp`), m (gauge datum: barometric
+/// pressure is zero), with each segment's (wall, minor) loss.
+fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
     let rho_g = sys.fluid.density * G;
-    let source = sys.source_level + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
+    // A well's surface is its pumping level at the flow.
+    let source =
+        sys.source_level - sys.drawdown(q) + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
     let destination = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
     let losses: Vec<(f64, f64)> = sys
         .segments
         .iter()
-        .map(|s| sys.segment_losses(s, q))
+        .map(|s| sys.segment_losses(s, sys.segment_flow(s, q, qp)))
         .collect();
     let mut out = Vec::with_capacity(losses.len());
     let mut e = source;
@@ -107,9 +110,10 @@ fn segment_energy(sys: &CaseSystem, q: f64) -> Vec<(f64, f64, f64)> {
     out
 }
 
-/// Hydraulic grade (m) at each station at flow `q` (m³/s).
-pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64) -> Vec<f64> {
-    let energy = segment_energy(sys, q);
+/// Hydraulic grade (m) at each station when the set carries `q` and each pump `qp`
+/// (m³/s).
+pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64, qp: f64) -> Vec<f64> {
+    let energy = segment_energy(sys, q, qp);
     let mut starts = vec![0.0; sys.segments.len()];
     // Chainage where each segment starts (the first non-"before" station of it).
     let mut seen = vec![false; sys.segments.len()];
@@ -124,7 +128,7 @@ pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64) -> Vec<f64> {
         .map(|st| {
             let seg = &sys.segments[st.segment];
             let (e0, wall, minor) = energy[st.segment];
-            let v = q / seg.area;
+            let v = sys.segment_flow(seg, q, qp) / seg.area;
             let hv = v * v / (2.0 * G);
             if st.before_losses {
                 let hv0 = if seg.side == Side::Suction { 0.0 } else { hv };

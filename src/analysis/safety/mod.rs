@@ -169,7 +169,10 @@ pub fn screen(
         .iter()
         .zip(cases)
         .map(|(case, result)| {
-            let flow = k.and_then(|k| result.pumps.get(k)?.duty.as_ref().map(|d| d.flow));
+            let flow = k.and_then(|k| {
+                let d = result.pumps.get(k)?.duty.as_ref()?;
+                Some((d.flow, d.flow_per_pump))
+            });
             match &result.system {
                 Some(sys) => case_screen(
                     &case.scenario.lines,
@@ -276,7 +279,7 @@ fn case_screen(
     lines: &[Line],
     fluid: &Fluid,
     sys: &CaseSystem,
-    flow: Option<f64>,
+    flow: Option<(f64, f64)>,
     shutoff: Option<&Shutoff>,
     name: &str,
 ) -> CaseSafety {
@@ -288,7 +291,7 @@ fn case_screen(
     };
     let mut out = CaseSafety {
         case: name.to_string(),
-        flow,
+        flow: flow.map(|(q, _)| q),
         ..Default::default()
     };
     let k = surge::bulk_modulus(sys, fluid);
@@ -303,11 +306,12 @@ fn case_screen(
     out
 }
 
-/// The screen of one line.
+/// The screen of one line; `flow` is the set's and each pump's flow at the duty (m³/s),
+/// station piping (`serves = each_pump`) carrying the latter.
 fn line_screen(
     line: &Line,
     sys: &CaseSystem,
-    flow: Option<f64>,
+    flow: Option<(f64, f64)>,
     shutoff: Option<&Shutoff>,
     temperature: Option<f64>,
     k: Option<f64>,
@@ -321,7 +325,8 @@ fn line_screen(
     let profile = geometry::line_profile(line, ends);
     notes.extend(profile.warning.clone());
     let stations = grade::stations(sys, &line.name, &profile);
-    let grade_duty = flow.map(|q| grade::grade_at(sys, &stations, q));
+    let grade_duty = flow.map(|(q, qp)| grade::grade_at(sys, &stations, q, qp));
+    let line_flow = flow.map(|(q, qp)| if line.per_pump { qp } else { q });
     let pressure_duty = grade_duty
         .as_ref()
         .map(|g| grade::pressures(&stations, g, rho));
@@ -350,7 +355,8 @@ fn line_screen(
     let transient_at = at_stations(&stations, first_segment, &ratings, |r| r.transient);
     let velocities: Vec<f64> = (0..line.segments.len())
         .map(|i| {
-            flow.map(|q| q / sys.segments[first_segment + i].area)
+            line_flow
+                .map(|q| q / sys.segments[first_segment + i].area)
                 .unwrap_or(0.0)
         })
         .collect();
@@ -368,7 +374,7 @@ fn line_screen(
         let areas: Vec<f64> = (0..line.segments.len())
             .map(|i| sys.segments[first_segment + i].area)
             .collect();
-        surge::line_surge(line, waves, &areas, flow.unwrap_or(0.0))
+        surge::line_surge(line, waves, &areas, line_flow.unwrap_or(0.0))
     });
     let pressure_downsurge = match (&surge, &pressure_duty, line.side) {
         (Some(sg), Some(p), Side::Discharge) => Some(

@@ -144,6 +144,7 @@ fn lower_line(
         profile: extras.profile,
         closure_time: extras.closure_time,
         restraint: extras.restraint,
+        per_pump: extras.per_pump,
         span: name_span,
     })
 }

@@ -136,6 +136,13 @@ fn base_scenario(
                 .iter()
                 .map(|p| (p.name.clone(), p.rated_speed))
                 .collect(),
+            pump_running: pump_list
+                .iter()
+                .map(|p| {
+                    let parallel = p.arrangement == ArrangementKind::Parallel;
+                    (p.name.clone(), p.count, parallel, p.count)
+                })
+                .collect(),
         }),
         _ => None,
     }

@@ -20,7 +20,7 @@ use crate::units::{Dimension, QuantityKind};
 pub const MAX_PROFILE_POINTS: usize = 2000;
 
 /// The fields a line block accepts besides its pipes, fittings and losses.
-pub const LINE_FIELDS: &[&str] = &["closure_time", "restraint"];
+pub const LINE_FIELDS: &[&str] = &["closure_time", "restraint", "serves"];
 
 /// What a line says for the safety screen, besides its pipes.
 #[derive(Default)]
@@ -28,6 +28,7 @@ pub struct LineExtras {
     pub profile: Option<Profile>,
     pub closure_time: Option<Time>,
     pub restraint: Restraint,
+    pub per_pump: bool,
 }
 
 /// Split a line body: the profile and line fields are read here; the statements
@@ -82,6 +83,10 @@ pub fn lower_line_extras(
                 .and_then(|q| env.in_range(&ranges::CLOSURE_TIME, q.si, field.value.span))
             {
                 Ok(t) => extras.closure_time = Some(Time::new::<second>(t)),
+                Err(d) => diags.push(d),
+            },
+            "serves" => match expect_word(field.value, env, "serves", &["set", "each_pump"]) {
+                Ok(w) => extras.per_pump = w == "each_pump",
                 Err(d) => diags.push(d),
             },
             _ => match expect_word(

@@ -57,6 +57,9 @@ fn lower_tank(
         name: name.clone(),
         level: Length::new::<meter>(0.0),
         surface_pressure: SurfacePressure::Gauge(scenario::pressure(0.0)),
+        drawdown: None,
+        test_flow: None,
+        well_loss: None,
         span: name_span,
     };
     let what = format!("tank {name}");
@@ -67,6 +70,32 @@ fn lower_tank(
     for field in &fields.fields {
         if let Err(e) = scenario::set_tank(&mut tank, field.name, field.value, env) {
             diags.push(e);
+        }
+    }
+    let has = |f: &str| fields.get(f).is_some();
+    if (has("well_loss") || has("test_flow")) && !has("drawdown") {
+        diags.push(missing("drawdown", &what, block.span, "drawdown = 12 ft"));
+    }
+    if has("drawdown") && !has("test_flow") {
+        diags.push(missing(
+            "test_flow",
+            &what,
+            block.span,
+            "test_flow = 500 gpm",
+        ));
+    }
+    if let (Some(s), Some(w)) = (tank.drawdown, tank.well_loss) {
+        if w > s {
+            diags.push(
+                Diagnostic::error(
+                    Code::ConflictingFields,
+                    format!("the well loss of tank {name} exceeds its whole drawdown"),
+                    fields.get("well_loss").map(|f| f.value.span),
+                )
+                .with_help(
+                    "`well_loss` is the part of `drawdown` (at the test flow) that grows as Q²",
+                ),
+            );
         }
     }
     Some(tank)

@@ -131,7 +131,10 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             })
             .collect(),
         caption: Some(
-            "Surface levels, pump datum, surface pressures and static head per case".into(),
+            match analysis.cases.iter().any(|c| c.system.as_ref().is_some_and(|s| s.well.is_some())) {
+                false => "Surface levels, pump datum, surface pressures and static head per case".into(),
+                true => "Surface levels, pump datum, surface pressures and static head per case; a well's level is its static water level and the static head is taken from it: the drawdown at each flow is added to the system curve, and the pumping level at each duty is in the candidate chapters".into(),
+            },
         ),
     });
 }
@@ -345,8 +348,13 @@ fn changed_fields(overrides: &[String]) -> String {
         .filter_map(|o| {
             let (field, value) = o.split_once(" = ").unwrap_or((o.as_str(), ""));
             let word = !value.is_empty() && value.chars().all(|c| c.is_ascii_alphabetic());
+            let count = !value.is_empty() && value.chars().all(|c| c.is_ascii_digit());
             match field {
                 "hours" | "hours_per_year" => None,
+                _ if field.ends_with(".running") && count => Some(format!(
+                    "pumps of {} running: {value}",
+                    field.trim_end_matches(".running")
+                )),
                 "roughness" | "pipe_condition" if word => Some(format!("pipe condition: {value}")),
                 _ if word => Some(format!("{}: {value}", super::wording::plain(field))),
                 _ => Some(super::wording::plain(field)),

@@ -50,8 +50,15 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
             columns,
             rows,
             caption: Some(format!(
-                "System head against flow{}",
-                group_label(k, groups)
+                "System head against flow{}{}",
+                group_label(k, groups),
+                match group
+                    .iter()
+                    .any(|c| c.system.as_ref().is_some_and(|s| s.well.is_some()))
+                {
+                    true => "; from a well's static level, with its drawdown at each flow added (s = B·Q + C·Q², the candidate chapters' well tables)",
+                    false => "",
+                }
             )),
         });
         let chart = Chart {

@@ -23,7 +23,9 @@ pub fn requirement(requirement: &Requirement, units: &Units) -> String {
 }
 
 /// Field words of the design language and how the package names them.
-const FIELD_WORDS: [(&str, &str); 14] = [
+const FIELD_WORDS: [(&str, &str); 16] = [
+    ("test_flow", "test flow"),
+    ("well_loss", "well loss"),
     ("npsh_margin", "NPSH margin"),
     ("npsh_excess", "NPSH excess"),
     ("suction_velocity", "suction velocity"),

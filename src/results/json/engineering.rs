@@ -9,7 +9,7 @@
 use serde::Serialize;
 
 use crate::analysis::capacity::RequirementRow;
-use crate::analysis::duty::Headroom;
+use crate::analysis::duty::{Headroom, StationPiping, WellAtDuty};
 use crate::analysis::motor::MotorSizing;
 use crate::analysis::parallel::OneAlone;
 use crate::analysis::{Analysis, NpshTerms, SegmentAtFlow};
@@ -35,6 +35,60 @@ pub(super) fn npsh_terms(t: &NpshTerms) -> NpshTermsOut {
         vapour_pressure_head_m: t.vapour_pressure_head,
         suction_friction_head_m: t.suction_friction_head,
         suction_minor_head_m: t.suction_minor_head,
+    }
+}
+
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct StationPipingOut<'a> {
+    flow_per_pump_m3_s: f64,
+    suction_branch_head_m: f64,
+    discharge_branch_head_m: f64,
+    npsh_suction_path: Vec<PathStepOut<'a>>,
+}
+
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct WellOut {
+    static_level_m: f64,
+    aquifer_loss_m: f64,
+    well_loss_m: f64,
+    drawdown_m: f64,
+    pumping_level_m: f64,
+}
+
+pub(super) fn well(w: &WellAtDuty) -> WellOut {
+    WellOut {
+        static_level_m: w.static_level,
+        aquifer_loss_m: w.aquifer_loss,
+        well_loss_m: w.well_loss,
+        drawdown_m: w.aquifer_loss + w.well_loss,
+        pumping_level_m: w.pumping_level,
+    }
+}
+
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct PathStepOut<'a> {
+    line: &'a str,
+    index: usize,
+    flow_m3_s: f64,
+}
+
+pub(super) fn station_piping(s: &StationPiping) -> StationPipingOut<'_> {
+    StationPipingOut {
+        flow_per_pump_m3_s: s.flow_per_pump,
+        suction_branch_head_m: s.suction_head,
+        discharge_branch_head_m: s.discharge_head,
+        npsh_suction_path: s
+            .npsh_path
+            .iter()
+            .map(|(line, index, flow)| PathStepOut {
+                line,
+                index: *index,
+                flow_m3_s: *flow,
+            })
+            .collect(),
     }
 }
 

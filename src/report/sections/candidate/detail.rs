@@ -80,6 +80,117 @@ pub(super) fn npsh_terms(
     });
 }
 
+/// Each pump's own station piping at the duty, when the design gives any: the flow per
+/// pump, its branches' losses and its own head (the header's head plus them).
+pub(super) fn station_piping(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let (fl, hd) = (units.flow(), units.head());
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .filter_map(|(case, run)| {
+            let duty = run.duty.as_ref()?;
+            let st = duty.station.as_ref()?;
+            let path: Vec<String> = st
+                .npsh_path
+                .iter()
+                .map(|(line, i, q)| format!("{line} {} at {}", i + 1, fl.text(*q)))
+                .collect();
+            Some(vec![
+                case.name.clone(),
+                fl.figure(st.flow_per_pump),
+                hd.figure(st.suction_head),
+                hd.figure(st.discharge_head),
+                hd.figure(duty.head_per_pump - st.suction_head - st.discharge_head),
+                hd.figure(duty.head_per_pump),
+                path.join(", "),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("Station piping of each pump, {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.12, Align::Left),
+            Column::new("Flow per pump", 0.11, Align::Right),
+            Column::new("Own suction loss", 0.11, Align::Right),
+            Column::new("Own discharge loss", 0.11, Align::Right),
+            Column::new("Head at headers", 0.11, Align::Right),
+            Column::new("Pump head", 0.1, Align::Right),
+            Column::new("Suction path of NPSHa (segment at flow)", 0.34, Align::Left),
+        ],
+        rows,
+        caption: Some(format!(
+            "Heads in {}, flows in {}. Each pump has its own suction and discharge branch carrying one pump's flow; pump head = head at headers + own suction loss + own discharge loss (the modified pump curve: the set offers its headers each pump's head less its own branches' loss). NPSHa in the table above is each pump's own: the common suction at the set's flow, the pump's own branch at its flow. Pumps of a set and their branches are taken as identical, so they share the flow equally",
+            hd.label, fl.label
+        )),
+    });
+}
+
+/// A source well at each duty: the drawdown s = B·Q + C·Q² in its parts from the test
+/// point, and the pumping level NPSH available and the static head start from.
+pub(super) fn well_levels(
+    blocks: &mut Vec<Block>,
+    pump: &PumpCandidate,
+    results: &[CaseRun],
+    units: &Units,
+) {
+    let (fl, hd, el) = (units.flow(), units.head(), units.elevation());
+    let rows: Vec<Vec<String>> = results
+        .iter()
+        .filter_map(|(case, run)| {
+            let duty = run.duty.as_ref()?;
+            let w = duty.well?;
+            let test = case.system.as_ref()?.well?;
+            Some(vec![
+                case.name.clone(),
+                format!(
+                    "{} at {} ({} well loss)",
+                    hd.text(test.drawdown),
+                    fl.text(test.test_flow),
+                    hd.text(test.well_loss)
+                ),
+                fl.figure(duty.flow),
+                el.figure(w.static_level),
+                hd.figure(w.aquifer_loss),
+                hd.figure(w.well_loss),
+                el.figure(w.pumping_level),
+            ])
+        })
+        .collect();
+    if rows.is_empty() {
+        return;
+    }
+    blocks.push(Block::heading(
+        2,
+        format!("Well pumping level, {}", pump.name),
+    ));
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Case", 0.12, Align::Left),
+            Column::new("Drawdown test", 0.26, Align::Left),
+            Column::new("Duty flow", 0.1, Align::Right),
+            Column::new("Static level", 0.12, Align::Right),
+            Column::new("Aquifer loss B·Q", 0.13, Align::Right),
+            Column::new("Well loss C·Q²", 0.13, Align::Right),
+            Column::new("Pumping level", 0.14, Align::Right),
+        ],
+        rows,
+        caption: Some(format!(
+            "Levels in {}, heads in {}, flows in {}. Drawdown s = B·Q + C·Q² (Jacob 1947; step-drawdown tests, Driscoll, Groundwater and Wells, 2nd ed., 1986, ch. 16), fitted to the test: B·Qt = test drawdown − its well loss, C·Qt² = its well loss, so aquifer loss = (s − well loss)·Q/Qt and well loss = well loss·(Q/Qt)². Pumping level = static level − aquifer loss − well loss; the static suction head of NPSHa and the system's static head are taken from it. The drawdown grows with seasons and years of pumping: confirm the test with the well's own record",
+            el.label, hd.label, fl.label
+        )),
+    });
+}
+
 /// Every segment at each case's duty flow: flow, velocity, Re, f, friction and minor
 /// head and the K of each fitting at that Reynolds number.
 pub(super) fn segments(

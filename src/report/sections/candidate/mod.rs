@@ -44,6 +44,8 @@ pub(super) fn chapter(
     }
     duty_table(blocks, pump, &all_results, units);
     detail::npsh_terms(blocks, pump, &all_results, units);
+    detail::station_piping(blocks, pump, &all_results, units);
+    detail::well_levels(blocks, pump, &all_results, units);
     detail::power(blocks, pump, &all_results, units);
     detail::segments(blocks, pump, &all_results, units);
     let capacity = analysis.capacity.get(index).map_or(&[][..], Vec::as_slice);
@@ -55,6 +57,20 @@ pub(super) fn chapter(
         detail::one_alone(blocks, pump, alone, units);
     }
     remarks(blocks, pump, &all_results, units);
+}
+
+/// ", running 1 in case low_demand" for the cases that run fewer pumps of a parallel
+/// set than it has, else empty.
+fn fewer_running(pump: &PumpCandidate, results: &[CaseRun]) -> String {
+    let fewer: Vec<String> = results
+        .iter()
+        .filter(|(_, run)| run.count < pump.count)
+        .map(|(case, run)| format!("{} in case {}", run.count, case.name))
+        .collect();
+    match fewer.is_empty() {
+        true => String::new(),
+        false => format!(", running {}", fewer.join(", ")),
+    }
 }
 
 /// The arrangement in words: "single pump", "2 in parallel", "3 in series".
@@ -283,7 +299,7 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
             Column::new(format!("Input ({})", pw.label), 0.09, Align::Right),
         ],
         rows,
-        caption: Some(format!("Flow, head and power are for the whole arrangement ({arrangement}); efficiency, BEP ratio and NPSHr per pump")),
+        caption: Some(format!("Flow, head and power are for the whole arrangement ({arrangement}{}); efficiency, BEP ratio and NPSHr per pump", fewer_running(pump, results))),
     });
 }
 

@@ -222,7 +222,12 @@ pub(super) fn head_plot(
             } else {
                 String::new()
             };
-            let name = format!("pump {} at {:.0} rpm{which}", pump.name, run.speed_rpm);
+            // With station piping the set's curve is at the headers (less its own piping).
+            let own = match run.duty.as_ref().and_then(|d| d.station.as_ref()) {
+                Some(_) => " less own piping",
+                None => "",
+            };
+            let name = format!("pump {} at {:.0} rpm{own}{which}", pump.name, run.speed_rpm);
             let points = run
                 .operating_curve
                 .iter()
@@ -342,16 +347,21 @@ pub(super) fn npsh_plot(
             ));
         }
     }
-    for (case, _) in results {
+    for (case, result) in results {
+        // With station piping NPSHa is each pump's own, along its own suction path.
+        let (npsha, label) = match result.npsh_available_curve.is_empty() {
+            true => (&case.npsh_available_curve, "NPSHa"),
+            false => (&result.npsh_available_curve, "NPSHa per pump"),
+        };
         let points: Vec<(f64, f64)> = case
             .system_curve
             .iter()
-            .zip(&case.npsh_available_curve)
+            .zip(npsha)
             .map(|(point, n)| (fl.value(point.flow), hd.value(*n)))
             .collect();
         if !points.is_empty() {
             series.push(line(
-                format!("NPSHa ({})", case.name),
+                format!("{label} ({})", case.name),
                 points,
                 Stroke::Dashed,
                 &mut palette,
@@ -408,13 +418,14 @@ pub(super) fn power_plot(
     units: &Units,
 ) {
     let (fl, pw) = (units.flow(), units.power());
-    let per = pump.count.max(1) as f64;
     let mut palette = Palette::default();
     let mut series = Vec::new();
     for (k, (case, run)) in results.iter().enumerate() {
         if k > 0 && results[k - 1].1.operating_curve == run.operating_curve {
             continue;
         }
+        // The pumps running in the case (a case may run fewer of a parallel set).
+        let per = run.count.max(1) as f64;
         let points: Vec<(f64, f64)> = run
             .operating_curve
             .iter()
@@ -437,6 +448,7 @@ pub(super) fn power_plot(
         .filter_map(|(case, run)| {
             let duty = run.duty.as_ref()?;
             let shaft = duty.shaft_power?;
+            let per = run.count.max(1) as f64;
             Some(left_marker(
                 fl.value(duty.flow),
                 pw.value(shaft / per),
