@@ -13,6 +13,7 @@ use crate::diagnostics::{line_col, Diagnostic};
 use crate::model::{ArrangementKind, Design};
 
 mod engineering;
+mod envelope;
 mod inputs;
 mod operation;
 mod safety;
@@ -207,6 +208,9 @@ struct Duty<'a> {
     npsh_terms: engineering::NpshTermsOut,
     segments: Vec<engineering::SegmentOut<'a>>,
     headroom: Option<engineering::HeadroomOut>,
+    /// Issue 15: the duty envelope, when the design asks for one.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    envelope: Option<envelope::EnvelopeOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -251,6 +255,10 @@ struct Ranked<'a> {
     life_cost_per_m3: Option<f64>,
     mean_wire_to_water_efficiency: Option<f64>,
     why: &'a str,
+    /// Issue 15: with an envelope, whether the candidate also qualifies at every point
+    /// of it (duty found, no worst-point check failing).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    qualifies_across_envelope: Option<bool>,
 }
 
 #[derive(Serialize)]
@@ -426,6 +434,7 @@ fn pump(p: &PumpResult) -> Pump<'_> {
             npsh_terms: engineering::npsh_terms(&d.npsh_terms),
             segments: engineering::segments(&d.segments),
             headroom: p.headroom.as_ref().map(engineering::headroom),
+            envelope: None,
         }),
         failure: p.failure.as_deref(),
         checks: p.checks.iter().map(check).collect(),
@@ -490,11 +499,19 @@ pub fn to_json(
             .iter()
             .enumerate()
             .map(|(i, c)| {
-                case(
+                let mut out = case(
                     c,
                     design.cases.iter().find(|d| d.name == c.name),
                     analysis.safety.cases.get(i),
-                )
+                );
+                if let Some(e) = &analysis.envelope {
+                    for (j, p) in out.pumps.iter_mut().enumerate() {
+                        if let Some(d) = &mut p.duty {
+                            d.envelope = envelope::envelope(e, i, j);
+                        }
+                    }
+                }
+                out
             })
             .collect(),
         candidates: inputs::candidates(design, analysis),
@@ -525,6 +542,14 @@ pub fn to_json(
                     life_cost_per_m3: r.life_cost_per_m3,
                     mean_wire_to_water_efficiency: r.mean_wire_to_water,
                     why: &r.why,
+                    qualifies_across_envelope: analysis.envelope.as_ref().map(|e| {
+                        r.qualifies
+                            && design
+                                .pumps
+                                .iter()
+                                .position(|p| p.name == r.name)
+                                .is_some_and(|i| e.across[i])
+                    }),
                 })
                 .collect(),
         },
