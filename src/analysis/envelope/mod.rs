@@ -128,6 +128,9 @@ pub struct DutyEnvelope {
     pub pump_band: (Vec<(f64, f64)>, Vec<(f64, f64)>),
     /// NPSH margin and motor load at nominal and at their worst point.
     pub checks: Vec<WorstCheck>,
+    /// The duty region where the pump band and the system band overlap, as a closed
+    /// outline (flow m³/s, head m): the upper edge left to right, the lower edge back.
+    pub region: Vec<(f64, f64)>,
 }
 
 /// The envelopes, or `None` when the design asks for none.
@@ -421,9 +424,45 @@ fn duty_envelope(
         shaft_power_max,
         pump_band: band,
         checks: Vec::new(),
+        region: Vec::new(),
     };
+    env.region = region(ctx.systems, &shifted(-1.0), &shifted(1.0), &env);
     env.checks = worst_checks(ctx, pr, nominal, &env, par * ser);
     Some(env)
+}
+
+/// The overlap of the pump band and the system band between the envelope's flows, on
+/// 41 flows: lower edge max(system low, pump minus), upper edge min(system high, pump
+/// plus), where the lower lies below the upper.
+fn region(
+    systems: &[(Vec<f64>, Result<CaseSystem, String>)],
+    minus: &Shifted,
+    plus: &Shifted,
+    env: &DutyEnvelope,
+) -> Vec<(f64, f64)> {
+    let (a, b) = (env.flow_min.value, env.flow_max.value);
+    let minus_end = minus.end_per_pump() * minus.parallel;
+    let edges: Vec<(f64, f64, f64)> = (0..=40)
+        .filter_map(|i| {
+            let q = a + (b - a) * i as f64 / 40.0;
+            let heads = systems
+                .iter()
+                .filter_map(|(_, s)| s.as_ref().ok().map(|s| s.head(q)));
+            let (lo, hi) = heads.fold((f64::INFINITY, f64::NEG_INFINITY), |(x, y), h| {
+                (x.min(h), y.max(h))
+            });
+            let pump_lo = if q <= minus_end {
+                minus.head(q)
+            } else {
+                f64::NEG_INFINITY
+            };
+            let (low, up) = (lo.max(pump_lo), hi.min(plus.head(q)));
+            (low.is_finite() && up.is_finite() && low <= up).then_some((q, low, up))
+        })
+        .collect();
+    let mut out: Vec<(f64, f64)> = edges.iter().map(|e| (e.0, e.2)).collect();
+    out.extend(edges.iter().rev().map(|e| (e.0, e.1)));
+    out
 }
 
 fn corner_duty(s: &Shifted, sys: &CaseSystem, t: &Tolerance) -> Result<CornerDuty, String> {
@@ -499,8 +538,31 @@ fn worst_checks(
                     units.flow().fmt(q)
                 ),
             ),
-            corner: format!("pump {state_name}, {} per pump", units.flow().fmt(q)),
+            corner: format!("pump {state_name}"),
         });
     }
     out
+}
+
+impl Envelopes {
+    /// The ranking's word on candidate `pump` given whether it qualifies at nominal.
+    pub fn standing(&self, pump: usize, qualifies_nominal: bool) -> &'static str {
+        match (
+            qualifies_nominal,
+            self.across.get(pump).copied().unwrap_or(false),
+        ) {
+            (true, true) => "qualifies across the envelope",
+            (true, false) => "qualifies at nominal only",
+            (false, _) => "does not qualify at nominal",
+        }
+    }
+
+    /// The method in words, for the text results and the package (ISO 9906 named).
+    pub fn method_words(&self) -> String {
+        let combine = match self.combine {
+            Combine::Corners => "every corner (each input range at both ends, the pump at its minus, nominal and plus tolerance; exact bounds where each effect is monotone in its input)".to_string(),
+            Combine::Samples(n) => format!("{n} quasi-random points of a Halton sequence over the input ranges and the pump's tolerance (the same points every run)"),
+        };
+        format!("Each candidate keeps the speed and impeller of its nominal duty. Its published curve is moved within the tolerance of its ISO 9906:2012 acceptance grade, a cross at the guarantee point (taken as the case's nominal duty): flow and head are scaled as a whole, H'(Q) = kH·H(Q/kQ), so that the curve passes through the cross's corner (kQ = 1 ± tQ, kH = 1 ± tH); this is conservative, as the standard accepts a curve through either end of the cross. Away from nominal the efficiency is at its minus tolerance, and NPSH3 at its plus tolerance at every point. Combination: {combine}. Motor load is the largest shaft power along the shifted curves between the lowest and highest flow of the envelope, not at the corners only.")
+    }
 }
