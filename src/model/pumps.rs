@@ -61,7 +61,7 @@ fn test_grade(e: &crate::syntax::ast::Expr) -> Result<crate::pumps::tolerance::G
         )
         .with_label("not an ISO 9906 grade")
         .with_help(
-            "write e.g. `test_grade = 2B`; a catalogue curve without a stated grade is taken as 3B",
+            "write e.g. `test_grade = \"2B\"`; a catalogue curve without a stated grade is taken as 3B",
         )
     })
 }
