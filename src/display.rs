@@ -505,21 +505,6 @@ fn significant_decimals(value: f64, digits: usize) -> usize {
     (digits as i64 - 1 - magnitude).clamp(0, 12) as usize
 }
 
-#[cfg(test)]
-mod significant_tests {
-    use super::*;
-
-    #[test]
-    fn significant_figures_keep_or_drop_zeros() {
-        assert_eq!(significant(0.049236, 4), "0.04924");
-        assert_eq!(significant(0.0329, 4), "0.03290");
-        assert_eq!(significant(-0.0329, 2), "\u{2212}0.033");
-        assert_eq!(significant(70692.4, 4), "70692");
-        assert_eq!(significant_trimmed(0.118, 4), "0.118");
-        assert_eq!(significant_trimmed(0.21, 4), "0.21");
-    }
-}
-
 /// An input range of the design's uncertainty in words and report units: what varies,
 /// and its range ("Hazen-Williams C of every Hazen-Williams pipe", "90 % to 105 % of
 /// each case's value").
@@ -556,5 +541,20 @@ pub fn uncertainty_range(r: &crate::model::uncertainty::InputRange, u: &Units) -
             "Every stated loss (K and equivalent length)".into(),
             format!("± {}", percent(*plus_minus)),
         ),
+    }
+}
+
+#[cfg(test)]
+mod significant_tests {
+    use super::*;
+
+    #[test]
+    fn significant_figures_keep_or_drop_zeros() {
+        assert_eq!(significant(0.049236, 4), "0.04924");
+        assert_eq!(significant(0.0329, 4), "0.03290");
+        assert_eq!(significant(-0.0329, 2), "\u{2212}0.033");
+        assert_eq!(significant(70692.4, 4), "70692");
+        assert_eq!(significant_trimmed(0.118, 4), "0.118");
+        assert_eq!(significant_trimmed(0.21, 4), "0.21");
     }
 }

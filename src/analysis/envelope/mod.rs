@@ -106,6 +106,9 @@ pub struct WorstCheck {
     pub corner: String,
 }
 
+/// A head curve: (flow m³/s, head m) points.
+pub type HeadCurve = Vec<(f64, f64)>;
+
 /// The envelope of one case × candidate.
 #[derive(Clone, Debug)]
 pub struct DutyEnvelope {
@@ -125,7 +128,7 @@ pub struct DutyEnvelope {
     /// flows, W, with the pump state (−1, 0, +1) and the flow per pump (m³/s) there.
     pub shaft_power_max: Option<(f64, f64, f64)>,
     /// The minus and plus head curves of the arrangement (flow m³/s, head m).
-    pub pump_band: (Vec<(f64, f64)>, Vec<(f64, f64)>),
+    pub pump_band: (HeadCurve, HeadCurve),
     /// NPSH margin and motor load at nominal and at their worst point.
     pub checks: Vec<WorstCheck>,
     /// The duty region where the pump band and the system band overlap, as a closed
