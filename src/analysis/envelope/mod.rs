@@ -152,7 +152,7 @@ pub fn analyse(
             if p.test_grade.is_none() {
                 warnings.push(Warning {
                     code: Code::NoTestGrade,
-                    message: format!("pump {}: no `test_grade`: the envelope takes grade {} of ISO 9906:2012 (the widest); state the grade of the purchase specification", p.name, DEFAULT_GRADE.label()),
+                    message: format!("pump {}: no test acceptance grade stated: the envelope takes grade {} of ISO 9906:2012 (the widest); state the grade of the purchase specification", p.name, DEFAULT_GRADE.label()),
                     span: Some(p.span),
                 });
             }
