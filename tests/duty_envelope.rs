@@ -227,6 +227,56 @@ fn motor_load_over_the_envelope_can_fail_where_the_nominal_passes() {
     assert_eq!(env.standing(0, true), "qualifies at nominal only");
 }
 
+#[test]
+fn a_temperature_range_lowers_the_worst_npsh_at_the_hot_end() {
+    // Vapour pressure of water rises from 2.339 kPa at 20 °C to 7.385 kPa at 40 °C
+    // (IAPWS-IF97 saturation table, from memory): 5.05 kPa/(992.2 kg/m³·g) = 0.52 m less
+    // NPSH available, less the rise of p_baro/ρg as the water gets lighter (998.2 → 992.2
+    // kg/m³, 101.325 kPa at sea level: 10.35 → 10.41 m, +0.06 m): about 0.46 m.
+    let src = design(
+        "test_grade = \"1B\"",
+        "uncertainty {\n    temperature 20 K\n}",
+        "",
+    );
+    let (a, e) = envelope_of(&src);
+    let w = e.npsh_margin_worst.expect("an NPSH ratio");
+    assert!(
+        e.corners[w.corner].name.contains("temperature high"),
+        "{}",
+        e.corners[w.corner].name
+    );
+    let nominal = a.cases[0].pumps[0].duty.as_ref().unwrap().npsh_available;
+    let hot = e.corners[w.corner].duty.as_ref().unwrap().npsh_available;
+    assert!((nominal - hot - 0.46).abs() < 0.03, "{nominal} {hot}");
+}
+
+#[test]
+fn malformed_ranges_are_refused_with_bad_uncertainty() {
+    let codes = |block: &str| -> Vec<String> {
+        dutyline::check(&design("", block, ""), &dutyline::NoFiles)
+            .diagnostics
+            .iter()
+            .filter(|d| d.is_error())
+            .map(|d| d.code.as_str().to_string())
+            .collect()
+    };
+    for block in [
+        "uncertainty {\n    combine = samples\n}",
+        "uncertainty {\n    level nowhere 1 m\n}",
+        "uncertainty {\n    roughness 200 % to 50 %\n}",
+        "uncertainty {\n    loss 20 %\n    loss 10 %\n}",
+        "uncertainty {\n    level low 2 kPa\n}",
+        "uncertainty {\n    samples = 64\n}",
+        "uncertainty {\n    wind 3 m\n}",
+    ] {
+        assert_eq!(codes(block), vec!["bad-uncertainty".to_string()], "{block}");
+    }
+    assert!(
+        codes("uncertainty {\n    combine = samples\n    samples = 16\n    level low 1 m\n}")
+            .is_empty()
+    );
+}
+
 proptest! {
     #![proptest_config(ProptestConfig { cases: 12, ..ProptestConfig::default() })]
 
