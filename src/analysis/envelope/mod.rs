@@ -350,43 +350,8 @@ fn duty_envelope(
         parallel: par,
         series: ser,
     };
-    let sample = matches!(ctx.u.combine, Combine::Samples(_));
-    let corners: Vec<Corner> = points(ctx.u, ctx.tolerance.grade.unilateral())
-        .into_iter()
-        .enumerate()
-        .map(|(i, (pump, x))| {
-            let sys = ctx.systems.iter().find(|(y, _)| *y == x).map(|(_, s)| s);
-            let duty = match sys {
-                Some(Ok(sys)) => corner_duty(&shifted(pump), sys, ctx.tolerance),
-                Some(Err(e)) => Err(e.clone()),
-                None => Err("no system".into()),
-            };
-            Corner {
-                name: corner_name(ctx.u, sample.then_some(i), pump, &x),
-                pump,
-                inputs: x,
-                duty,
-            }
-        })
-        .collect();
-    let extreme = |f: &dyn Fn(&CornerDuty) -> Option<f64>, max: bool| -> Option<Extreme> {
-        corners
-            .iter()
-            .enumerate()
-            .filter_map(|(i, c)| {
-                c.duty.as_ref().ok().and_then(f).map(|v| Extreme {
-                    value: v,
-                    corner: i,
-                })
-            })
-            .reduce(|a, b| {
-                if (b.value > a.value) == max && b.value != a.value {
-                    b
-                } else {
-                    a
-                }
-            })
-    };
+    let corners = evaluate_points(ctx, &shifted);
+    let extreme = |f: &dyn Fn(&CornerDuty) -> Option<f64>, max: bool| extreme(&corners, f, max);
     let flow_min = extreme(&|d| Some(d.flow), false)?;
     let flow_max = extreme(&|d| Some(d.flow), true)?;
     let head_min = extreme(&|d| Some(d.head), false)?;
@@ -432,6 +397,54 @@ fn duty_envelope(
     env.region = region(ctx.systems, &shifted(-1.0), &shifted(1.0), &env);
     env.checks = worst_checks(ctx, pr, nominal, &env, par * ser);
     Some(env)
+}
+
+/// Every point of the combination on its system, for the pump shifted by `shifted(u)`.
+fn evaluate_points<'a>(ctx: &Ctx, shifted: &dyn Fn(f64) -> Shifted<'a>) -> Vec<Corner> {
+    let sample = matches!(ctx.u.combine, Combine::Samples(_));
+    points(ctx.u, ctx.tolerance.grade.unilateral())
+        .into_iter()
+        .enumerate()
+        .map(|(i, (pump, x))| {
+            let sys = ctx.systems.iter().find(|(y, _)| *y == x).map(|(_, s)| s);
+            let duty = match sys {
+                Some(Ok(sys)) => corner_duty(&shifted(pump), sys, ctx.tolerance),
+                Some(Err(e)) => Err(e.clone()),
+                None => Err("no system".into()),
+            };
+            Corner {
+                name: corner_name(ctx.u, sample.then_some(i), pump, &x),
+                pump,
+                inputs: x,
+                duty,
+            }
+        })
+        .collect()
+}
+
+/// The smallest (or largest, `max`) value of `f` over the points with a duty, with the
+/// first point giving it.
+fn extreme(
+    corners: &[Corner],
+    f: &dyn Fn(&CornerDuty) -> Option<f64>,
+    max: bool,
+) -> Option<Extreme> {
+    corners
+        .iter()
+        .enumerate()
+        .filter_map(|(i, c)| {
+            c.duty.as_ref().ok().and_then(f).map(|v| Extreme {
+                value: v,
+                corner: i,
+            })
+        })
+        .reduce(|a, b| {
+            if (b.value > a.value) == max && b.value != a.value {
+                b
+            } else {
+                a
+            }
+        })
 }
 
 /// The overlap of the pump band and the system band between the envelope's flows, on

@@ -199,86 +199,8 @@ fn range(
                 RangeKind::HazenWilliamsC(spread)
             })
         }
-        "level" => {
-            let (tank, rest) = match args.split_first() {
-                Some((
-                    Arg {
-                        kind: ArgKind::Word(t),
-                        span: ts,
-                    },
-                    rest,
-                )) => {
-                    let known =
-                        base.is_none_or(|b| b.source.name == *t || b.destination.name == *t);
-                    if !known {
-                        return Err(bad(
-                            format!("`{t}` is neither the source nor the destination tank"),
-                            *ts,
-                            "a level range applies to the tank the pump draws from or delivers to",
-                        ));
-                    }
-                    (t.clone(), rest)
-                }
-                _ => {
-                    return Err(bad(
-                        "a level range names its tank",
-                        span,
-                        "e.g. `level clearwell 0.4 m`",
-                    ))
-                }
-            };
-            let v = one_value(rest, span, Dimension::LENGTH, "a length, e.g. `0.4 m`")?;
-            positive(
-                v,
-                50.0,
-                span,
-                "the level range is ± a length above zero and at most 50 m",
-            )?;
-            Ok(RangeKind::Level {
-                tank,
-                plus_minus_m: v,
-            })
-        }
-        "temperature" => {
-            if let Some(Fluid::Custom(_)) = base.map(|b| &b.fluid) {
-                return Err(bad("a temperature range needs water: a named liquid states its properties at one temperature", span, "drop the range, or give cases at the other temperatures"));
-            }
-            let q = match args {
-                [a] => literal(a)?,
-                _ => {
-                    return Err(bad(
-                        "a temperature range is one ± value",
-                        span,
-                        "e.g. `temperature 4 K`",
-                    ))
-                }
-            };
-            if q.dim != Dimension::TEMPERATURE {
-                return Err(bad(
-                    "a temperature range is a temperature difference",
-                    span,
-                    "e.g. `temperature 4 K` or `temperature 5 delta_degF`",
-                ));
-            }
-            // A scale unit standing alone (`4 K`, `5 degC`) is read as that many degrees.
-            let dt = match (q.kind, &args[0].kind) {
-                (QuantityKind::TemperaturePoint, ArgKind::Quantity { unit, value }) => {
-                    let zero = crate::syntax::ast::Number {
-                        text: "0".into(),
-                        value: 0.0,
-                    };
-                    q.si - eval::quantity_literal(&zero, unit)?.si + 0.0 * value.value
-                }
-                _ => q.si,
-            };
-            positive(
-                dt,
-                40.0,
-                span,
-                "the temperature range is ± a difference above zero and at most 40 K",
-            )?;
-            Ok(RangeKind::Temperature { plus_minus_k: dt })
-        }
+        "level" => level_range(args, span, base),
+        "temperature" => temperature_range(args, span, base),
         _ => {
             let v = one_value(args, span, Dimension::NONE, "a percentage, e.g. `20 %`")?;
             positive(
@@ -381,4 +303,91 @@ fn spread(item: &str, v: &[crate::units::Quantity], span: Span) -> Result<Spread
         ));
     };
     Ok(s)
+}
+
+/// `level TANK D`: the source or destination tank, ± D.
+fn level_range(args: &[Arg], span: Span, base: Option<&Scenario>) -> Result<RangeKind, Diagnostic> {
+    let (tank, rest) = match args.split_first() {
+        Some((
+            Arg {
+                kind: ArgKind::Word(t),
+                span: ts,
+            },
+            rest,
+        )) => {
+            let known = base.is_none_or(|b| b.source.name == *t || b.destination.name == *t);
+            if !known {
+                return Err(bad(
+                    format!("`{t}` is neither the source nor the destination tank"),
+                    *ts,
+                    "a level range applies to the tank the pump draws from or delivers to",
+                ));
+            }
+            (t.clone(), rest)
+        }
+        _ => {
+            return Err(bad(
+                "a level range names its tank",
+                span,
+                "e.g. `level clearwell 0.4 m`",
+            ))
+        }
+    };
+    let v = one_value(rest, span, Dimension::LENGTH, "a length, e.g. `0.4 m`")?;
+    positive(
+        v,
+        50.0,
+        span,
+        "the level range is ± a length above zero and at most 50 m",
+    )?;
+    Ok(RangeKind::Level {
+        tank,
+        plus_minus_m: v,
+    })
+}
+
+/// `temperature D`: water only, ± a temperature difference.
+fn temperature_range(
+    args: &[Arg],
+    span: Span,
+    base: Option<&Scenario>,
+) -> Result<RangeKind, Diagnostic> {
+    if let Some(Fluid::Custom(_)) = base.map(|b| &b.fluid) {
+        return Err(bad("a temperature range needs water: a named liquid states its properties at one temperature", span, "drop the range, or give cases at the other temperatures"));
+    }
+    let q = match args {
+        [a] => literal(a)?,
+        _ => {
+            return Err(bad(
+                "a temperature range is one ± value",
+                span,
+                "e.g. `temperature 4 K`",
+            ))
+        }
+    };
+    if q.dim != Dimension::TEMPERATURE {
+        return Err(bad(
+            "a temperature range is a temperature difference",
+            span,
+            "e.g. `temperature 4 K` or `temperature 5 delta_degF`",
+        ));
+    }
+    // A scale unit standing alone (`4 K`, `5 degC`) is read as that many degrees.
+    let dt = match (q.kind, &args[0].kind) {
+        (QuantityKind::TemperaturePoint, ArgKind::Quantity { unit, value }) => {
+            let zero = crate::syntax::ast::Number {
+                text: "0".into(),
+                value: 0.0,
+            };
+            q.si - eval::quantity_literal(&zero, unit)?.si + 0.0 * value.value
+        }
+        _ => q.si,
+    };
+    positive(
+        dt,
+        40.0,
+        span,
+        "the temperature range is ± a difference above zero and at most 40 K",
+    )?;
+    Ok(RangeKind::Temperature { plus_minus_k: dt })
 }
