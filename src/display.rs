@@ -309,6 +309,23 @@ impl Units {
             },
         )
     }
+    /// Temperature difference: K or °F (from K).
+    pub fn temperature_difference(&self) -> Shown {
+        self.pick(
+            Shown {
+                label: "K",
+                factor: 1.0,
+                offset: 0.0,
+                decimals: 1,
+            },
+            Shown {
+                label: "°F",
+                factor: 5.0 / 9.0,
+                offset: 0.0,
+                decimals: 1,
+            },
+        )
+    }
     /// Density: kg/m³ or lb/ft³ (from kg/m³).
     pub fn density(&self) -> Shown {
         self.pick(
@@ -489,6 +506,45 @@ pub fn pipe(material_keyword: &str, label: &str, inner_diameter_m: f64, units: &
 /// A fraction as a percentage, "76.5 %".
 pub fn percent(f: f64) -> String {
     format!("{:.1} %", 100.0 * f)
+}
+
+/// An input range of the design's uncertainty in words and report units: what varies,
+/// and its range ("Hazen-Williams C of every Hazen-Williams pipe", "90 % to 105 % of
+/// each case's value").
+pub fn uncertainty_range(r: &crate::model::uncertainty::InputRange, u: &Units) -> (String, String) {
+    use crate::model::uncertainty::{RangeKind, Spread};
+    let spread = |s: &Spread, absolute: &dyn Fn(f64) -> String| match s {
+        Spread::Factor(a, b) => format!("{} to {} of each case's value", percent(*a), percent(*b)),
+        Spread::Absolute(a, b) => format!("{} to {} in every case", absolute(*a), absolute(*b)),
+    };
+    match &r.kind {
+        RangeKind::Roughness(s) => (
+            "Absolute roughness of every Darcy-Weisbach pipe".into(),
+            spread(s, &|v| u.roughness().fmt(v)),
+        ),
+        RangeKind::HazenWilliamsC(s) => (
+            "Hazen-Williams C of every Hazen-Williams pipe".into(),
+            spread(s, &|v| format!("{v:.0}")),
+        ),
+        RangeKind::Level { tank, plus_minus_m } => (
+            format!("Level of tank {tank}"),
+            format!(
+                "± {} about each case's level",
+                u.length().fmt(*plus_minus_m)
+            ),
+        ),
+        RangeKind::Temperature { plus_minus_k } => (
+            "Water temperature".into(),
+            format!(
+                "± {} about each case's temperature",
+                u.temperature_difference().fmt(*plus_minus_k)
+            ),
+        ),
+        RangeKind::Loss { plus_minus } => (
+            "Every stated loss (K and equivalent length)".into(),
+            format!("± {}", percent(*plus_minus)),
+        ),
+    }
 }
 
 #[cfg(test)]

@@ -60,6 +60,10 @@ fn the_grammar_keywords_are_the_language_keywords() {
     assert_eq!(alternatives(&g, "statement"), set(keywords::STATEMENTS));
     assert_eq!(alternatives(&g, "reserved"), set(keywords::RESERVED));
     assert_eq!(alternatives(&g, "line-item"), set(keywords::LINE_ITEMS));
+    assert_eq!(
+        alternatives(&g, "uncertainty-item"),
+        set(keywords::UNCERTAINTY_ITEMS)
+    );
     // `speed` is a field as often as an argument word, so it is left to the field rule.
     let mut args = set(keywords::ARGUMENT_WORDS);
     args.remove("speed");

@@ -8,6 +8,7 @@ use crate::diagnostics::Code;
 pub mod capacity;
 pub mod checks;
 pub mod duty;
+pub mod envelope;
 pub mod limits;
 pub mod motor;
 pub mod network;
@@ -53,6 +54,9 @@ pub struct Analysis {
     pub safety: safety::Safety,
     /// Per candidate, the operation over the design's load profiles (empty without one).
     pub operation: Vec<operation::CandidateOperation>,
+    /// Duty envelopes from test tolerances and input ranges (issue 15); `None` when the
+    /// design asks for none.
+    pub envelope: Option<envelope::Envelopes>,
 }
 
 /// A remark of the analysis, with the design-file line where it applies when known.
@@ -282,6 +286,7 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
+    let envelope = envelope::analyse(design, &cases, &candidates, &motor_sizing, &mut warnings);
     let yearly = operation::analyse(design, &cases, &candidates, &motor_sizing);
     if !yearly.is_empty() {
         selection::rank_by_profile(design, &mut selection, &yearly);
@@ -289,6 +294,7 @@ pub fn analyse(design: &Design) -> Analysis {
     Analysis {
         report_units: design.project.units,
         safety,
+        envelope,
         operation: yearly,
         capacity: capacity::capacity_table(design, &cases),
         requirement_matrix: capacity::requirement_matrix(design, &cases),

@@ -95,6 +95,7 @@ codes! {
     MissingTable = "missing-table": "a `load_profile` without its `curve { ... }` table of flow against hours";
     UnexpectedStatement = "unexpected-statement": "a statement other than fields and the table inside a `load_profile`";
     MixedRates = "mixed-rates": "`inflation` given with real discount rates (real and nominal rates mixed)";
+    BadUncertainty = "bad-uncertainty": "an `uncertainty` statement or `test_grade` that is not understood (a range, a grade, the combination)";
     MissingName = "missing-name": "a `load_profile` or `cost` block without the name of its case or pump";
     ZeroLength = "zero-length": "a pipe of zero length (warning: no wall friction counted)";
     BadFitting = "bad-fitting": "a fitting without its name, or a malformed count";
@@ -138,6 +139,7 @@ codes! {
     UnstableCurve = "unstable-curve": "a pump head curve that rises with flow somewhere (warning)";
     MotorAltitude = "motor-altitude": "a site above 1000 m, where a motor's rating is derated (warning)";
     SafetyScreen = "safety-screen": "a remark of the pressure and surge screen, e.g. a line it could not screen (warning)";
+    NoTestGrade = "no-test-grade": "an envelope asked for and a candidate without `test_grade`: grade 3B of ISO 9906:2012 is assumed (warning)";
     // The command line.
     Usage = "usage": "command-line arguments that do not make sense together";
     OutputRefused = "output-refused": "an output path that would replace the design, a non-PDF file or a non-regular file";

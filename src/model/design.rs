@@ -41,6 +41,9 @@ pub struct Design {
     pub energy: EnergySettings,
     /// Load profiles, control, staging and life-cycle cost elements.
     pub operation: super::operation::OperationSettings,
+    /// Input ranges and how they combine into duty envelopes (issue 15); `None` when the
+    /// design states no range and no pump test grade.
+    pub uncertainty: Option<super::uncertainty::Uncertainty>,
 }
 
 /// The `project` block: the title block of the package.
@@ -489,6 +492,8 @@ pub struct PumpCandidate {
     pub motor_rating: Option<uom::si::f64::Power>,
     /// The manufacturer's minimum continuous flow per pump (`min_flow`), when stated.
     pub min_flow: Option<VolumeRate>,
+    /// The pump test acceptance grade of ISO 9906:2012 the purchase states (`test_grade`).
+    pub test_grade: Option<crate::pumps::tolerance::Grade>,
     /// Where the pump's name is written.
     pub span: Span,
 }

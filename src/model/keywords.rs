@@ -32,6 +32,7 @@ pub const STATEMENTS: &[&str] = &[
     "equipment",
     "load_profile",
     "cost",
+    "uncertainty",
 ];
 
 /// Words the grammar itself reserves: constants, case scopes of a requirement, curve
@@ -40,6 +41,9 @@ pub const RESERVED: &[&str] = &["let", "for", "curve"];
 
 /// The items of a `line` block.
 pub const LINE_ITEMS: &[&str] = &["pipe", "fitting", "loss"];
+
+/// The ranges of an `uncertainty` block (`roughness 50 % to 200 %`).
+pub const UNCERTAINTY_ITEMS: &[&str] = lower::UNCERTAINTY_ITEMS;
 
 /// Connecting words in statement arguments: `line NAME from A to B`, `curve impeller D
 /// from "file.csv"`, `pipe steel 8 in schedule 40`, `curve hourly from "flows.csv"`.
@@ -50,7 +54,7 @@ pub const ARGUMENT_WORDS: &[&str] = &[
 /// Words a field takes as its value (`units = us`, `roughness = aged`, ...).
 pub const VALUE_WORDS: &[&str] = &[
     "us", "si", "single", "parallel", "series", "none", "speed", "trim", "nema", "iec", "new",
-    "aged", "water", "pump",
+    "aged", "water", "pump", "corners", "samples",
 ];
 
 /// The overrides of a case besides `TANK.level` and the other dotted paths.
@@ -71,6 +75,7 @@ pub fn fields(block: &str) -> &'static [&'static str] {
         "motor" => lower::MOTOR_FIELDS,
         "energy" => lower::ENERGY_FIELDS,
         "case" => CASE_FIELDS,
+        "uncertainty" => lower::UNCERTAINTY_FIELDS,
         _ => &[],
     }
 }

@@ -12,6 +12,7 @@ pub mod operation;
 mod pumps;
 pub mod ranges;
 pub mod scenario;
+pub mod uncertainty;
 pub mod vacuum;
 
 pub use design::*;

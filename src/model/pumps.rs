@@ -33,6 +33,7 @@ pub const PUMP_FIELDS: &[&str] = &[
     "min_trim",
     "motor_rating",
     "min_flow",
+    "test_grade",
 ];
 
 const COLUMNS: &[(&str, Dimension)] = &[
@@ -42,6 +43,28 @@ const COLUMNS: &[(&str, Dimension)] = &[
     ("npshr", Dimension::LENGTH),
     ("power", Dimension::POWER),
 ];
+
+/// The ISO 9906:2012 acceptance grade of `test_grade = 2B` (written bare, as the standard
+/// does, or quoted).
+fn test_grade(e: &crate::syntax::ast::Expr) -> Result<crate::pumps::tolerance::Grade, Diagnostic> {
+    use crate::syntax::ast::ExprKind;
+    let text = match &e.kind {
+        ExprKind::Quantity { value, unit } => format!("{}{}", value.text, unit.text),
+        ExprKind::Text(t) => t.clone(),
+        _ => String::new(),
+    };
+    crate::pumps::tolerance::Grade::parse(&text).ok_or_else(|| {
+        Diagnostic::error(
+            Code::BadUncertainty,
+            "a test grade is one of the ISO 9906:2012 grades 1B, 1E, 1U, 2B, 2U, 3B",
+            Some(e.span),
+        )
+        .with_label("not an ISO 9906 grade")
+        .with_help(
+            "write e.g. `test_grade = \"2B\"`; a catalogue curve without a stated grade is taken as 3B",
+        )
+    })
+}
 
 /// Lower `pump NAME "description" { ... }`.
 pub fn lower_pump(
@@ -89,6 +112,7 @@ pub fn lower_pump(
         adjust: Adjust::None,
         motor_rating: None,
         min_flow: None,
+        test_grade: None,
         span,
     };
     let mut push = |r: Result<(), Diagnostic>| {
@@ -184,6 +208,7 @@ pub fn lower_pump(
                         uom::si::volume_rate::cubic_meter_per_second,
                     >(v));
                 }
+                "test_grade" => p.test_grade = Some(test_grade(e)?),
                 "adjust" => {
                     adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?
                 }

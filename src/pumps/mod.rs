@@ -22,6 +22,7 @@
 //!   [`motor_efficiency`]: IE3 class efficiencies by rating and poles (IEC 60034-30-1).
 //! - [`energy`]: hydraulic, shaft and input power; annual energy; present worth.
 //! - [`stability`]: where a head curve rises with flow (unstable curves).
+//! - [`tolerance`]: ISO 9906:2012 acceptance grades and the shifted curve of a pump within them.
 //! - [`viscous`]: whether a viscous liquid needs the water curve corrected (ANSI/HI 9.6.7).
 
 pub mod affinity;
@@ -37,6 +38,7 @@ pub mod motor_efficiency;
 pub mod part_load;
 pub mod spline;
 pub mod stability;
+pub mod tolerance;
 pub mod viscous;
 
 pub use affinity::{speed_for_duty, trim_for_duty, ScaledPump, SpeedForDuty};

@@ -14,6 +14,7 @@ use crate::display::Units;
 use crate::model::{ArrangementKind, Design};
 
 mod engineering;
+mod envelope;
 mod inputs;
 mod operation;
 mod safety;
@@ -220,6 +221,9 @@ struct Duty<'a> {
     /// Wave 2, a source well only: its drawdown and pumping level at the duty.
     #[serde(skip_serializing_if = "Option::is_none")]
     well: Option<engineering::WellOut>,
+    /// Issue 15: the duty envelope, when the design asks for one.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    envelope: Option<envelope::EnvelopeOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -267,6 +271,10 @@ struct Ranked<'a> {
     life_cost_per_m3: Option<f64>,
     mean_wire_to_water_efficiency: Option<f64>,
     why: &'a str,
+    /// Issue 15: with an envelope, whether the candidate also qualifies at every point
+    /// of it (duty found, no worst-point check failing).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    qualifies_across_envelope: Option<bool>,
 }
 
 #[derive(Serialize)]
@@ -448,6 +456,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
             headroom: p.headroom.as_ref().map(engineering::headroom),
             station_piping: d.station.as_ref().map(engineering::station_piping),
             well: d.well.as_ref().map(engineering::well),
+            envelope: None,
         }),
         failure: p.failure.as_ref().map(|m| units.render(m)),
         checks: p.checks.iter().map(|c| check(c, units)).collect(),
@@ -513,12 +522,20 @@ pub fn to_json(
             .iter()
             .enumerate()
             .map(|(i, c)| {
-                case(
+                let mut out = case(
                     c,
                     design.cases.iter().find(|d| d.name == c.name),
                     analysis.safety.cases.get(i),
                     units,
-                )
+                );
+                if let Some(e) = &analysis.envelope {
+                    for (j, p) in out.pumps.iter_mut().enumerate() {
+                        if let Some(d) = &mut p.duty {
+                            d.envelope = envelope::envelope(e, i, j, units);
+                        }
+                    }
+                }
+                out
             })
             .collect(),
         candidates: inputs::candidates(design, analysis),
@@ -550,6 +567,14 @@ pub fn to_json(
                     life_cost_per_m3: r.life_cost_per_m3,
                     mean_wire_to_water_efficiency: r.mean_wire_to_water,
                     why: &r.why,
+                    qualifies_across_envelope: analysis.envelope.as_ref().map(|e| {
+                        r.qualifies
+                            && design
+                                .pumps
+                                .iter()
+                                .position(|p| p.name == r.name)
+                                .is_some_and(|i| e.across[i])
+                    }),
                 })
                 .collect(),
         },

@@ -1,6 +1,7 @@
 //! Results as data: the JSON contract (`shared/design/results-json.md`) and a
 //! stable, diff-friendly text summary in report units.
 
+mod envelope_text;
 mod json;
 mod operation_text;
 mod text;

@@ -184,11 +184,20 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     }
     candidates(&mut o, design, analysis);
     super::operation_text::operation(&mut o, design, analysis);
+    super::envelope_text::envelope(&mut o, design, analysis);
     let sel = &analysis.selection;
     let _ = writeln!(o, "\nselection by {}:", sel.criterion);
     let _ = writeln!(o, "  basis: {}", u.render(&sel.basis));
     for (i, r) in sel.ranking.iter().enumerate() {
         let _ = writeln!(o, "  {}. {}: {}", i + 1, r.name, r.why);
+        if let Some(e) = &analysis.envelope {
+            let j = design.pumps.iter().position(|p| p.name == r.name);
+            let _ = writeln!(
+                o,
+                "     {}",
+                e.standing(j.unwrap_or(usize::MAX), r.qualifies)
+            );
+        }
         if let Some(se) = r.specific_energy_j_m3 {
             let _ = writeln!(
                 o,

@@ -8,7 +8,15 @@ use crate::syntax::ast::{Arg, File, Statement, StatementKind};
 
 const TOP_LEVEL: &[&str] = crate::model::keywords::STATEMENTS;
 const ONCE: &[&str] = &[
-    "project", "purpose", "fluid", "site", "station", "require", "motor", "energy",
+    "project",
+    "purpose",
+    "fluid",
+    "site",
+    "station",
+    "require",
+    "motor",
+    "energy",
+    "uncertainty",
 ];
 
 /// A top-level block: keyword, arguments, body, span of the whole statement.

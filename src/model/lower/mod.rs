@@ -19,6 +19,7 @@ mod project;
 mod requirements;
 mod setting;
 mod tanks;
+mod uncertainty;
 
 use uom::si::f64::Time;
 use uom::si::time::second;
@@ -32,6 +33,7 @@ pub use blocks::{Block, Blocks};
 pub(crate) use operation::{ENERGY_FIELDS, MOTOR_FIELDS};
 pub(crate) use project::PROJECT_FIELDS;
 pub(crate) use setting::STATION_FIELDS;
+pub(crate) use uncertainty::{UNCERTAINTY_FIELDS, UNCERTAINTY_ITEMS};
 
 /// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
 pub const MAX_CASES: usize = 200;
@@ -80,6 +82,8 @@ pub fn lower(
         rates: energy.rates,
         inflation: energy.inflation,
     };
+    let uncertainty =
+        uncertainty::lower_uncertainty(&blocks, base.as_ref(), &pump_list, &env, &mut diags);
     diags.extend(env.warnings.take());
     let has_errors = diags.iter().any(|x| x.is_error());
     let design = match base {
@@ -97,6 +101,7 @@ pub fn lower(
             motor,
             energy,
             operation: yearly,
+            uncertainty,
         }),
         _ => None,
     };

@@ -105,6 +105,8 @@ pub struct Chart {
     pub hlines: Vec<HLine>,
     /// Shaded x bands (regions of flow).
     pub bands: Vec<XBand>,
+    /// Shaded closed outlines on the left axis (e.g. a duty envelope), behind the series.
+    pub fills: Vec<Vec<(f64, f64)>>,
     /// Draw a legend below the plot.
     pub legend: bool,
 }
@@ -122,6 +124,7 @@ impl Default for Chart {
             points: Vec::new(),
             hlines: Vec::new(),
             bands: Vec::new(),
+            fills: Vec::new(),
             legend: true,
         }
     }
@@ -377,6 +380,18 @@ pub(crate) fn draw(
         ctx.backend_coord(&(x, y))
     })
     .map_err(e)?;
+    for outline in &chart.fills {
+        let clamp = |&(x, y): &(f64, f64)| (x.clamp(ax.x.lo, ax.x.hi), y.clamp(ax.y.lo, ax.y.hi));
+        let pixels: Vec<(i32, i32)> = outline
+            .iter()
+            .filter(|p| p.0.is_finite() && p.1.is_finite())
+            .map(|p| ctx.backend_coord(&clamp(p)))
+            .collect();
+        if pixels.len() >= 3 {
+            root.draw(&Polygon::new(pixels, RGBColor(246, 208, 160).filled()))
+                .map_err(e)?;
+        }
+    }
     let mut drawn_lines: Vec<Vec<(i32, i32)>> = Vec::new();
     for series in &chart.series {
         let (colour, line) = series_look(style, series);

@@ -9,6 +9,7 @@ mod candidate;
 mod changes;
 mod checks;
 mod design_basis;
+mod envelope;
 mod front;
 mod method;
 mod network;
@@ -84,6 +85,7 @@ pub fn document_attached(
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }
     operation::chapter(&mut blocks, design, analysis, &units);
+    envelope::chapter(&mut blocks, design, analysis, &units);
     selection::chapter(&mut blocks, design, analysis, &units);
     checks::chapter(&mut blocks, analysis, &units);
     safety::chapter(&mut blocks, analysis, &units);

@@ -91,7 +91,7 @@ fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units:
                             .map(|c| significant(c * units.volume_per_cost_unit(), 4)),
                     ),
                     or_dash(r.mean_wire_to_water.map(percent)),
-                    super::wording::plain(&r.why),
+                    super::wording::plain(&r.why) + &envelope_standing(design, analysis, r),
                 ]
             })
             .collect(),
@@ -100,6 +100,24 @@ fn ranking(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units:
 }
 
 /// Flow of each candidate per case at its limit (full speed or largest impeller).
+/// With duty envelopes, a qualifying candidate's standing across them ("; qualifies at
+/// nominal only"), else nothing.
+fn envelope_standing(
+    design: &Design,
+    analysis: &Analysis,
+    r: &crate::analysis::selection::Ranked,
+) -> String {
+    let Some(e) = analysis.envelope.as_ref().filter(|_| r.qualifies) else {
+        return String::new();
+    };
+    let i = design
+        .pumps
+        .iter()
+        .position(|p| p.name == r.name)
+        .unwrap_or(usize::MAX);
+    format!("; {}", e.standing(i, r.qualifies))
+}
+
 fn capacity(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: &Units) {
     if analysis
         .capacity
