@@ -32,7 +32,7 @@ pub(crate) use project::PROJECT_FIELDS;
 pub(crate) use setting::STATION_FIELDS;
 
 /// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
-pub const MAX_CASES: usize = 10_000;
+pub const MAX_CASES: usize = 1_000;
 /// Most pipe segments over all lines.
 pub const MAX_SEGMENTS: usize = 100;
 /// Most pump candidates.

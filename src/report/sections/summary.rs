@@ -358,7 +358,7 @@ pub(super) fn chapter(
     blocks.push(Block::PageBreak);
     blocks.push(Block::heading(1, "Case summary"));
     blocks.push(Block::text(format!(
-        "This design has {}, more than the {SUMMARY_CASES} this package shows one by one. The design basis, system curve, network, candidate, selection, checks and safety chapters therefore show only the {} listed in the next table, chosen as the extremes of static head, duty flow, shaft power and NPSH ratio; the totals (energy per year, ranking, motor sizing, operation) are over every case. The tables of this chapter cover every case, in bins of duty flow. Every case's full results are in the results file (dutyline results).",
+        "This design has {}, more than the {SUMMARY_CASES} this package shows one by one. The design basis, system curve, network, candidate, selection, checks and safety chapters therefore show only the {} listed in the next table, chosen as the extremes of static head, duty flow, shaft power and NPSH ratio; the totals (energy per year, ranking, motor sizing, operation) are over every case. The tables of this chapter cover every case, in bins of duty flow. Every case's full results are in the results file attached to this package.",
         count(analysis.cases.len(), "operating case", "operating cases"),
         count(kept.len(), "governing case", "governing cases"),
     )));
