@@ -4,13 +4,15 @@
 //! Run: `cargo bench --bench engine -- --warm-up-time 1 --measurement-time 3`.
 //! Targets: full demo build < 30 ms, one duty solve < 10 µs, large design < 200 ms.
 
-use std::fmt::Write;
 use std::hint::black_box;
 
 use criterion::{criterion_group, criterion_main, Criterion};
 use dutyline::analysis::duty::CandidateCurves;
 use dutyline::analysis::CaseSystem;
 use dutyline::{check, Design, NoFiles};
+
+#[path = "support/large_design.rs"]
+mod large_design;
 
 const DEMO: &str = include_str!("../examples-demo/orchard-lift-rev-a.duty");
 
@@ -61,65 +63,8 @@ fn demo_to_pdf(c: &mut Criterion) {
     });
 }
 
-/// 100 cases × 10 candidates × 20 pipe segments, to the results JSON.
-fn large_design() -> String {
-    let mut s = String::from(
-        "project { title = \"Large generated design\", units = si }\n\
-         fluid water { temperature = 15 degC }\nsite { elevation = 120 m }\n\
-         tank low { level = 100 m }\ntank high { level = 140 m }\n\
-         station { centreline = 98 m }\n\
-         line suction from low to pump {\n",
-    );
-    for _ in 0..2 {
-        s.push_str("    pipe steel 8 in schedule 40 { length = 6 m }\n    fitting elbow_90_long\n");
-    }
-    s.push_str("    fitting entrance_rounded\n}\nline discharge from pump to high {\n");
-    for i in 0..18 {
-        let size = if i % 2 == 0 {
-            "6 in schedule 40"
-        } else {
-            "8 in schedule 40"
-        };
-        writeln!(s, "    pipe steel {size} {{ length = {} m }}", 40 + 7 * i).unwrap();
-        s.push_str("    fitting elbow_90_standard * 2\n    fitting gate_valve\n");
-    }
-    s.push_str("    fitting check_valve_swing\n    fitting exit\n}\n");
-    for i in 0..100 {
-        writeln!(
-            s,
-            "case c{i} {{ low.level = {:.2} m, hours = 80 h{} }}",
-            99.0 + 0.03 * i as f64,
-            if i % 3 == 0 { ", roughness = aged" } else { "" }
-        )
-        .unwrap();
-    }
-    s.push_str("require {\n    npsh_margin >= 1.2\n}\n");
-    for p in 0..10 {
-        let shut = 70.0 + 2.0 * p as f64;
-        writeln!(s, "pump P{p} \"generated {p}\" {{\n    speed = 1780 rpm").unwrap();
-        s.push_str("    curve impeller 300 mm {\n        flow m^3/h head m efficiency % npshr m\n");
-        for k in 0..7 {
-            let q = 60.0 * k as f64;
-            let h = shut - 0.00012 * (1.0 + 0.05 * p as f64) * q * q;
-            let e = if k == 0 {
-                0.0
-            } else {
-                84.0 - 0.0009 * (q - 230.0) * (q - 230.0)
-            };
-            let n = if k == 0 {
-                "-".to_string()
-            } else {
-                format!("{:.2}", 2.0 + 0.00004 * q * q)
-            };
-            writeln!(s, "        {q:.1} {h:.2} {e:.1} {n}").unwrap();
-        }
-        s.push_str("    }\n}\n");
-    }
-    s
-}
-
 fn large_to_results(c: &mut Criterion) {
-    let src = large_design();
+    let src = large_design::large_design(100);
     let checked = check(&src, &NoFiles);
     assert!(!checked.has_errors(), "the generated design checks");
     let design = checked.design.expect("design");

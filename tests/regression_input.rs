@@ -188,12 +188,14 @@ fn one_mebibyte_comment_line_builds_in_linear_time() {
 #[test]
 fn too_many_cases_points_at_the_first_case_over() {
     // Issue 11: `too-many` had no line:column.
-    let extra: String = (0..200).map(|n| format!("case c{n} {{ }}\n")).collect();
+    let max = dutyline::model::MAX_CASES;
+    let extra: String = (0..max).map(|n| format!("case c{n} {{ }}\n")).collect();
     let src = format!("{DEMO}{extra}");
     let (d, (line, _), text) = error_at(&src, Code::TooMany);
-    // The demo has 4 cases, so case 201 is `c196`.
-    assert_eq!(text, "c196");
-    assert_eq!(line, line_of(&src, "case c196 "));
+    // The demo has 4 cases, so case MAX_CASES + 1 is `c{MAX_CASES - 4}`.
+    let first_over = format!("c{}", max - 4);
+    assert_eq!(text, first_over);
+    assert_eq!(line, line_of(&src, &format!("case {first_over} ")));
     assert!(d.help.is_some());
 }
 

@@ -5,6 +5,8 @@
 pub mod layout;
 pub mod sections;
 
+pub use sections::SUMMARY_CASES;
+
 use crate::analysis::Analysis;
 use crate::model::Design;
 use layout::style::Style;

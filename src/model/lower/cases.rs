@@ -8,6 +8,7 @@ use crate::model::eval::Env;
 use crate::model::fields::block_name;
 use crate::model::scenario;
 use crate::syntax::ast::StatementKind;
+use std::collections::HashMap;
 
 /// Every case in file order; without any, the base as case `design` (with a warning).
 pub fn lower_cases(
@@ -18,22 +19,27 @@ pub fn lower_cases(
     diags: &mut Vec<Diagnostic>,
 ) -> Vec<Case> {
     let mut cases: Vec<Case> = Vec::new();
+    // Names seen so far, for the duplicate check in constant time per case.
+    let mut names: HashMap<String, Span> = HashMap::new();
+    let written = blocks.all("case").count();
     for block in blocks.all("case") {
-        if let Some(case) = lower_case(block, &cases, base, source, env, diags) {
+        if let Some(case) = lower_case(block, &names, base, source, env, diags) {
+            names.insert(case.name.clone(), case.span);
             cases.push(case);
+        }
+        // Over the limit is an error, not a slow run: the rest is not lowered.
+        if cases.len() > MAX_CASES {
+            break;
         }
     }
     if let Some(first_over) = cases.get(MAX_CASES) {
         diags.push(
             Diagnostic::error(
                 Code::TooMany,
-                format!(
-                    "the design has {} cases; at most {MAX_CASES} are accepted",
-                    cases.len()
-                ),
+                format!("the design has {written} cases; at most {MAX_CASES} are accepted"),
                 Some(first_over.span),
             )
-            .with_label(format!("case {} of {}", MAX_CASES + 1, cases.len()))
+            .with_label(format!("case {} of {written}", MAX_CASES + 1))
             .with_help("split the cases over several design files (copies differing only in their cases), or drop cases that repeat another's conditions"),
         );
     }
@@ -61,7 +67,7 @@ pub fn lower_cases(
 /// One `case NAME { path = value ... }` applied to a copy of the base.
 fn lower_case(
     block: &Block,
-    earlier: &[Case],
+    earlier: &HashMap<String, Span>,
     base: Option<&Scenario>,
     source: &str,
     env: &Env,
@@ -75,12 +81,8 @@ fn lower_case(
         "case normal { }",
         diags,
     )?;
-    if let Some(first) = earlier.iter().find(|c| &c.name == name) {
-        diags.push(duplicate_name(
-            &format!("case `{name}`"),
-            name_span,
-            first.span,
-        ));
+    if let Some(first) = earlier.get(name.as_str()) {
+        diags.push(duplicate_name(&format!("case `{name}`"), name_span, *first));
         return None;
     }
     let mut scenario = base?.clone();

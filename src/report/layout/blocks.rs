@@ -82,15 +82,41 @@ pub fn collect_headings(blocks: &[Block]) -> Vec<HeadingEntry> {
     entries
 }
 
+/// Chunks of a document, with where each contents block's chunks lie.
+pub struct Chunks {
+    /// Every block's chunks in order.
+    pub chunks: Vec<Chunk>,
+    /// Start and length in `chunks` of each [`Block::Contents`]' chunks: the only
+    /// chunks that depend on heading page numbers.
+    pub contents: Vec<(usize, usize)>,
+}
+
+impl Chunks {
+    /// Replaces the contents chunks by ones laid out with `headings`' page numbers;
+    /// every other chunk is independent of them and is kept, not measured again.
+    pub fn relayout_contents(&mut self, ctx: &Ctx, headings: &[HeadingEntry]) {
+        let mut shift = 0isize;
+        for (start, len) in &mut self.contents {
+            let at = start.saturating_add_signed(shift);
+            let fresh = contents::contents_chunks(ctx, headings);
+            shift += fresh.len() as isize - *len as isize;
+            let n = fresh.len();
+            self.chunks.splice(at..at + *len, fresh);
+            (*start, *len) = (at, n);
+        }
+    }
+}
+
 /// Lays out every block into chunks. `headings` supplies numbers and (on the second
-/// pass) page numbers for the contents.
+/// pass, through [`Chunks::relayout_contents`]) page numbers for the contents.
 pub fn chunks(
     ctx: &Ctx,
     title_text: &str,
     blocks: &[Block],
     headings: &[HeadingEntry],
-) -> Result<Vec<Chunk>, LayoutError> {
+) -> Result<Chunks, LayoutError> {
     let mut out = Vec::new();
+    let mut contents_at = Vec::new();
     let (mut heading, mut figure, mut table_no, mut equation) = (0, 0, 0, 0);
     for block in blocks {
         match block {
@@ -129,7 +155,11 @@ pub fn chunks(
                 equation += 1;
                 out.push(equation_chunk(ctx, text, equation));
             }
-            Block::Contents => out.extend(contents::contents_chunks(ctx, headings)),
+            Block::Contents => {
+                let fresh = contents::contents_chunks(ctx, headings);
+                contents_at.push((out.len(), fresh.len()));
+                out.extend(fresh);
+            }
             Block::TitleBlock {
                 lines,
                 seal_box,
@@ -154,7 +184,10 @@ pub fn chunks(
             Block::Callout { kind, text } => out.extend(callout_chunks(ctx, *kind, text)),
         }
     }
-    Ok(out)
+    Ok(Chunks {
+        chunks: out,
+        contents: contents_at,
+    })
 }
 
 fn heading_chunk(ctx: &Ctx, entry: &HeadingEntry) -> Chunk {

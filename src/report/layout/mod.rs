@@ -116,10 +116,13 @@ pub fn layout(doc: &Document, style: &Style) -> Result<Layout, LayoutError> {
     };
     let has_contents = doc.blocks.iter().any(|b| matches!(b, Block::Contents));
     let mut headings = blocks::collect_headings(&doc.blocks);
-    for _ in 0..MAX_PASSES {
-        let chunks = blocks::chunks(&ctx, &doc.title, &doc.blocks, &headings)?;
+    let mut chunks = blocks::chunks(&ctx, &doc.title, &doc.blocks, &headings)?;
+    for pass in 0..MAX_PASSES {
+        if pass > 0 {
+            chunks.relayout_contents(&ctx, &headings);
+        }
         let mut placed = headings.clone();
-        let mut pages = paginate::flow(&chunks, style, &mut placed);
+        let mut pages = paginate::flow(&chunks.chunks, style, &mut placed);
         let settled = placed.iter().zip(&headings).all(|(a, b)| a.page == b.page);
         headings = placed;
         if settled || !has_contents {

@@ -7,9 +7,21 @@ use crate::display::Units;
 use crate::report::layout::document::{Align, Block, Column};
 
 /// The checks chapter.
-pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Units) {
+/// `summarised`: the analysis holds only the governing cases (the case summary
+/// counts every case's checks).
+pub(super) fn chapter(
+    blocks: &mut Vec<Block>,
+    analysis: &Analysis,
+    units: &Units,
+    summarised: bool,
+) {
     blocks.push(Block::heading(1, "Checks"));
-    blocks.push(Block::text("Every check of every case and candidate, with its status and where its limit comes from. A fail disqualifies the candidate; a warning asks for the reviewer's attention."));
+    let scope = if summarised {
+        "Every check of the governing cases (the case summary counts every case's checks)"
+    } else {
+        "Every check of every case and candidate"
+    };
+    blocks.push(Block::text(format!("{scope}, with its status and where its limit comes from. A fail disqualifies the candidate; a warning asks for the reviewer's attention.")));
     let mut rows = Vec::new();
     for c in &analysis.cases {
         for p in &c.pumps {
@@ -45,7 +57,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
 }
 
 /// A check's id in words for print: "npsh-margin" → "NPSH margin".
-fn check_name(id: &str) -> String {
+pub(super) fn check_name(id: &str) -> String {
     id.split('-')
         .map(|w| match w {
             "npsh" => "NPSH".to_string(),

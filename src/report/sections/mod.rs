@@ -17,6 +17,8 @@ mod operation;
 mod references;
 mod safety;
 mod selection;
+mod summary;
+pub use summary::SUMMARY_CASES;
 pub(crate) mod sources;
 mod system_curves;
 mod wording;
@@ -77,19 +79,32 @@ pub fn document_attached(
     if let Some(changes) = changes {
         changes::chapter(&mut blocks, changes);
     }
+    let (full_design, full_analysis) = (design, analysis);
+    let kept = summary::summarised(design).then(|| summary::governing(analysis));
+    let restricted = kept.as_ref().map(|kept| {
+        let keep: Vec<usize> = kept.iter().map(|g| g.index).collect();
+        summary::restricted(design, analysis, &keep)
+    });
+    // A summarised package's per-case chapters see only the governing cases.
+    let (design, analysis) = restricted
+        .as_ref()
+        .map_or((design, analysis), |(d, a)| (d, a));
     design_basis::chapter(&mut blocks, design, analysis, &units);
     method::chapter(&mut blocks, &units);
+    if let Some(kept) = &kept {
+        summary::chapter(&mut blocks, full_analysis, kept, &units);
+    }
     system_curves::chapter(&mut blocks, analysis, &units);
     network::chapter(&mut blocks, design, analysis, &units);
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }
-    operation::chapter(&mut blocks, design, analysis, &units);
-    envelope::chapter(&mut blocks, design, analysis, &units);
+    operation::chapter(&mut blocks, full_design, full_analysis, &units);
+    envelope::chapter(&mut blocks, full_design, full_analysis, &units);
     selection::chapter(&mut blocks, design, analysis, &units);
-    checks::chapter(&mut blocks, analysis, &units);
+    checks::chapter(&mut blocks, analysis, &units, kept.is_some());
     safety::chapter(&mut blocks, analysis, &units);
-    assumptions::chapter(&mut blocks, design, analysis);
+    assumptions::chapter(&mut blocks, full_design, full_analysis);
     references::chapter(&mut blocks);
     appendix::chapter(&mut blocks, source, sha256);
     attached::appendix(&mut blocks, &attachments);
