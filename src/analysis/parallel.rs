@@ -18,7 +18,7 @@ use super::motor::MotorSizing;
 use super::CaseResult;
 use crate::display::Units;
 use crate::model::{Adjust, ArrangementKind, Design, PumpCandidate};
-use crate::pumps::{self, ScaledPump};
+use crate::pumps::ScaledPump;
 
 /// One pump of a parallel set alone.
 #[derive(Clone, Debug, PartialEq)]
@@ -103,10 +103,11 @@ fn evaluate(
     let units = Units::new(design.project.units);
     let (fl, hd, pw) = (units.flow(), units.head(), units.power());
     let (_, end) = scaled.domain();
-    let outcome = pumps::solve_duty(
+    let outcome = super::system_table::solve_duty(
         &|q| scaled.eval_head(q),
-        &|q| sys.head(q),
+        sys,
         end * (1.0 + duty::SEARCH_BEYOND_CURVE),
+        cc.duty_scan.as_ref(),
     );
     let mut alone = OneAlone {
         case: case.name.clone(),
