@@ -288,16 +288,21 @@ impl CaseSystem {
 
     /// All losses at flow q.
     pub fn losses(&self, q: f64) -> Losses {
-        self.losses_with_slope(q).0
+        self.sum_losses::<false>(q).0
     }
 
     /// All losses at flow q, and the slope with flow of the chain's friction + minor
     /// losses, s/m² (the network's part has no slope here).
     pub fn losses_with_slope(&self, q: f64) -> (Losses, f64) {
+        self.sum_losses::<true>(q)
+    }
+
+    /// Every segment's losses summed at q, with the slope only when `SLOPE` (else 0).
+    fn sum_losses<const SLOPE: bool>(&self, q: f64) -> (Losses, f64) {
         let mut out = Losses::default();
         let mut slope = 0.0;
         for seg in &self.segments {
-            let l = segment_loss_slopes_in(&self.fluid, seg, q);
+            let l = segment_losses_with::<SLOPE>(&self.fluid, seg, q);
             out.friction += l.wall;
             out.minor += l.minor;
             slope += l.wall_slope + l.minor_slope;
@@ -595,7 +600,7 @@ pub fn friction_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> friction::
 /// Wall-friction and minor losses of one segment at flow q (m³/s) of a fluid, m
 /// (zero at q <= 0); see the module documentation for the laws.
 pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64, f64) {
-    let l = segment_loss_slopes_in(fluid, seg, q);
+    let l = segment_losses_with::<false>(fluid, seg, q);
     (l.wall, l.minor)
 }
 
@@ -618,6 +623,16 @@ pub struct SegmentLoss {
 /// [`friction::darcy_friction_slope`]; Hazen-Williams h ∝ q^1.852 gives 1.852·h/q; a
 /// constant K gives 2·h/q and the K₁/Re part of a 2-K/3-K fitting (∝ q) gives h/q.
 pub fn segment_loss_slopes_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> SegmentLoss {
+    segment_losses_with::<true>(fluid, seg, q)
+}
+
+/// The losses of [`segment_loss_slopes_in`], their slopes only when `SLOPE` (else zero):
+/// the value-only callers do not pay for the friction factor's derivative.
+fn segment_losses_with<const SLOPE: bool>(
+    fluid: &FluidState,
+    seg: &SegmentState,
+    q: f64,
+) -> SegmentLoss {
     if q <= 0.0 {
         return SegmentLoss::default();
     }
@@ -641,7 +656,11 @@ pub fn segment_loss_slopes_in(fluid: &FluidState, seg: &SegmentState, q: f64) ->
             let fr = friction_in(fluid, seg, q);
             let (f, re) = (fr.f, re.max(1e-9));
             let rr = seg.roughness / seg.inner_diameter;
-            let exponent = 2.0 + re / f * friction::darcy_friction_slope(re, rr, &fr);
+            let exponent = if SLOPE {
+                2.0 + re / f * friction::darcy_friction_slope(re, rr, &fr)
+            } else {
+                0.0
+            };
             (
                 f * seg.length / seg.inner_diameter * velocity_head,
                 f * seg.equivalent_length / seg.inner_diameter * velocity_head,
@@ -658,6 +677,13 @@ pub fn segment_loss_slopes_in(fluid: &FluidState, seg: &SegmentState, q: f64) ->
     };
     let k_quadratic = seg.k_constant + seg.k_fixed_sum;
     let k = k_quadratic + laminar;
+    if !SLOPE {
+        return SegmentLoss {
+            wall,
+            minor: k * velocity_head + equivalent,
+            ..SegmentLoss::default()
+        };
+    }
     SegmentLoss {
         wall,
         minor: k * velocity_head + equivalent,
