@@ -1,8 +1,10 @@
-//! Engine benchmarks: parse + check, one system-curve point, one duty solve, the full
-//! demo build to PDF bytes, and a large generated design to results.
+//! Engine benchmarks: parse + check, one system-curve point, one duty solve (the demo's,
+//! and a 20-segment line's fast and exact), the full demo build to PDF bytes, and a
+//! large generated design to results.
 //!
 //! Run: `cargo bench --bench engine -- --warm-up-time 1 --measurement-time 3`.
-//! Targets: full demo build < 30 ms, one duty solve < 10 µs, large design < 200 ms.
+//! Targets: full demo build < 30 ms, one duty solve < 1 µs (20 segments, issue 17),
+//! large design < 200 ms.
 
 use std::hint::black_box;
 
@@ -52,6 +54,37 @@ fn duty_solve(c: &mut Criterion) {
     });
 }
 
+/// One duty solve on a 20-segment line (the large design's first case and first
+/// candidate): the fast path (tabulated system curve, the candidate's grid scan) as the
+/// analysis runs it, and the exact solve it replaced (system curve evaluated exactly,
+/// the pump sampled on the grid) for comparison. Target: the fast one under 1 µs.
+fn duty_solve_20_segments(c: &mut Criterion) {
+    let src = large_design();
+    let design = check(&src, &NoFiles).design.expect("design");
+    let cases = &design.cases[..1];
+    let candidates: Vec<CandidateCurves> = design.pumps.iter().map(CandidateCurves::fit).collect();
+    let mut sys = CaseSystem::new(&cases[0].scenario).expect("system");
+    assert_eq!(sys.segments.len(), 20);
+    sys.tabulate(dutyline::analysis::duty::search_reach(
+        &cases[0],
+        &design,
+        &candidates,
+    ));
+    let cc = &candidates[0];
+    let (pump, _) = cc.evaluated.as_ref().expect("a fitted curve");
+    let scan = cc.duty_scan.as_ref().expect("a scan");
+    let q_end = pump.head.domain().1 * 1.1;
+    let head = |q: f64| pump.head.eval(q);
+    c.bench_function("duty_solve_20_segments", |b| {
+        b.iter(|| {
+            dutyline::analysis::system_table::solve_duty(&head, &sys, black_box(q_end), Some(scan))
+        })
+    });
+    c.bench_function("duty_solve_20_segments_exact", |b| {
+        b.iter(|| dutyline::pumps::solve_duty(&head, &|q| sys.head(q), black_box(q_end)))
+    });
+}
+
 fn demo_to_pdf(c: &mut Criterion) {
     let style = dutyline::report::layout::style::Style::builtin("letter").expect("style");
     c.bench_function("demo_build_pdf", |b| {
@@ -87,6 +120,7 @@ criterion_group!(
     parse_and_check,
     system_head,
     duty_solve,
+    duty_solve_20_segments,
     demo_to_pdf,
     large_to_results
 );

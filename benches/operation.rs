@@ -27,7 +27,7 @@ fn design() -> dutyline::Design {
         src.push_str(&kr1.replacen("pump KR1", &format!("pump C{i}"), 1));
     }
     let rest = &KESTREL[end..];
-    let rest = &rest[rest.find("\nprofile").expect("profile")..];
+    let rest = &rest[rest.find("\nload_profile").expect("load_profile")..];
     let rows: String = (0..50)
         .map(|k| format!("        {:.1}       150\n", 20.0 + 80.0 * k as f64 / 49.0))
         .collect();

@@ -9,6 +9,7 @@ use uom::si::{
 use super::checks::{self, Check};
 use super::limits::{CheckId, Source};
 use super::system::{CaseSystem, NpshTerms, SegmentAtFlow, G};
+use super::system_table;
 use crate::diagnostics::Span;
 use crate::message::{flow, head, Kind, Message, Part};
 use crate::model::{Adjust, ArrangementKind, Case, Design, Metric, PumpCandidate, Side};
@@ -40,6 +41,10 @@ pub struct CandidateCurves {
     pub published_head_samples: Vec<Vec<(f64, f64)>>,
     /// Remarks on the fits (a rising head, few points).
     pub warnings: Vec<Message>,
+    /// Where the evaluated head curve rises on the duty solve's grid, searched to
+    /// [`SEARCH_BEYOND_CURVE`] past its data: the same for every case, speed and trim
+    /// (see [`pumps::PumpScan`]).
+    pub duty_scan: Option<pumps::PumpScan>,
 }
 
 impl CandidateCurves {
@@ -105,10 +110,15 @@ impl CandidateCurves {
                     .collect()
             })
             .collect();
+        let duty_scan = evaluated.as_ref().map(|(c, _)| {
+            let (_, end) = c.head.domain();
+            pumps::PumpScan::new(&|q| c.head.eval(q), end * (1.0 + SEARCH_BEYOND_CURVE))
+        });
         CandidateCurves {
             name: p.name.clone(),
             span: p.span,
             published,
+            duty_scan,
             evaluated,
             evaluated_bep,
             published_head_samples,
@@ -642,9 +652,37 @@ pub fn meeting_flow(
 ) -> Option<f64> {
     let (_, end) = scaled.domain();
     let head = |q: f64| set_head(scaled, sys, parallel, series, q);
-    pumps::solve_duty(&head, &|q| sys.head(q), end * parallel)
+    system_table::solve_duty(&head, sys, end * parallel, None)
         .point()
         .map(|(q, _)| q)
+}
+
+/// The largest flow (m³/s) a duty solve of any candidate can search in a case: the
+/// published data end × pumps in parallel × the largest speed (the case's, or the
+/// maximum of `adjust = speed`) × the impeller ratio (at least 1) × (1 +
+/// [`SEARCH_BEYOND_CURVE`]); the range of the case's system table. 0 without a curve.
+pub fn search_reach(case: &Case, design: &Design, candidates: &[CandidateCurves]) -> f64 {
+    let mut reach: f64 = 0.0;
+    for (p, cc) in design.pumps.iter().zip(candidates) {
+        let Some((base, trim)) = &cc.evaluated else {
+            continue;
+        };
+        let case_speed = case
+            .scenario
+            .pump_speeds
+            .iter()
+            .find(|(n, _)| *n == p.name)
+            .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
+            .unwrap_or(1.0);
+        let speed = match p.adjust {
+            Adjust::Speed { max_ratio, .. } => max_ratio.max(case_speed),
+            _ => case_speed,
+        };
+        let (n_par, _) = stages(p);
+        let end = base.head.domain().1 * n_par as f64 * speed * trim.max(1.0);
+        reach = reach.max(end * (1.0 + SEARCH_BEYOND_CURVE));
+    }
+    reach
 }
 
 /// Evaluate one candidate in one case.
@@ -761,11 +799,8 @@ pub fn evaluate(
             }
         })
         .collect();
-    let outcome = pumps::solve_duty(
-        &head_arr,
-        &|q| sys.head(q),
-        q_end * (1.0 + SEARCH_BEYOND_CURVE),
-    );
+    let search_end = q_end * (1.0 + SEARCH_BEYOND_CURVE);
+    let outcome = system_table::solve_duty(&head_arr, sys, search_end, sys.scan(cc));
     let (q, h, crossings) = match &outcome {
         DutyOutcome::Point {
             flow,

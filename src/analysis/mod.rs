@@ -7,6 +7,7 @@
 use crate::diagnostics::Code;
 pub mod capacity;
 pub mod checks;
+pub mod concurrent;
 pub mod duty;
 pub mod envelope;
 pub mod limits;
@@ -18,6 +19,7 @@ pub mod safety;
 pub mod selection;
 pub mod stability;
 pub mod system;
+pub mod system_table;
 
 use crate::model::{ArrangementKind, Design, Side};
 pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
@@ -138,52 +140,24 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
-    let systems: Vec<Result<CaseSystem, String>> = design
-        .cases
-        .iter()
-        .map(|c| CaseSystem::new(&c.scenario).map_err(|e| e.message))
-        .collect();
+    let solved = concurrent::map(&design.cases, |case| solve_case(design, case, &candidates));
     let mut cases: Vec<CaseResult> = Vec::new();
-    for (case, sys) in design.cases.iter().zip(systems) {
-        let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
-        let (system, error) = match sys {
-            Ok(s) => (Some(s), None),
+    for (case, solved) in design.cases.iter().zip(solved) {
+        let (system, error, pumps) = match solved {
+            Ok((s, pumps)) => (Some(s), None, pumps),
             Err(e) => {
                 warnings.push(Warning {
                     code: Code::CaseFailed,
                     message: format!("case {}: {e}", case.name).into(),
                     span: Some(case.span),
                 });
-                (None, Some(e))
+                (None, Some(e), Vec::new())
             }
-        };
-        let mut pumps: Vec<duty::PumpResult> = match &system {
-            Some(s) => candidates
-                .iter()
-                .zip(&design.pumps)
-                .map(|(cc, p)| duty::evaluate(design, case, s, p, cc))
-                .collect(),
-            None => Vec::new(),
-        };
-        let (system, error) = match system {
-            Some(s) => match network::checks::at_duties(design, &case.name, &s, &mut pumps) {
-                Ok(()) => (Some(s), error),
-                Err(e) => {
-                    warnings.push(Warning {
-                        code: Code::CaseFailed,
-                        message: format!("case {}: {e}", case.name).into(),
-                        span: Some(case.span),
-                    });
-                    pumps.clear();
-                    (None, Some(e))
-                }
-            },
-            None => (None, error),
         };
         cases.push(CaseResult {
             name: case.name.clone(),
             overrides: case.overrides.clone(),
-            hours_per_year: hours,
+            hours_per_year: case.scenario.hours_per_year.get::<uom::si::time::hour>(),
             system,
             error,
             system_curve: Vec::new(),
@@ -310,6 +284,25 @@ pub fn analyse(design: &Design) -> Analysis {
         warnings,
         flow_max,
     }
+}
+
+/// One case on its own (no other case's data): its system (tabulated for the duty
+/// solves), every candidate's duty, and the network at every duty; `Err` with why the
+/// case could not be set up or its network failed.
+fn solve_case(
+    design: &Design,
+    case: &crate::model::Case,
+    candidates: &[duty::CandidateCurves],
+) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
+    let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
+    sys.tabulate(duty::search_reach(case, design, candidates));
+    let mut pumps: Vec<duty::PumpResult> = candidates
+        .iter()
+        .zip(&design.pumps)
+        .map(|(cc, p)| duty::evaluate(design, case, &sys, p, cc))
+        .collect();
+    network::checks::at_duties(design, &case.name, &sys, &mut pumps)?;
+    Ok((sys, pumps))
 }
 
 /// Warnings about the piping that do not depend on a pump: missing entrance or exit losses.

@@ -18,7 +18,7 @@ use super::motor::MotorSizing;
 use super::CaseResult;
 use crate::message::{self, flow, head, Kind, Message};
 use crate::model::{Adjust, ArrangementKind, Design, PumpCandidate};
-use crate::pumps::{self, ScaledPump};
+use crate::pumps::ScaledPump;
 
 /// One pump of a parallel set alone.
 #[derive(Clone, Debug, PartialEq)]
@@ -101,10 +101,11 @@ fn evaluate(
     };
     let scaled = ScaledPump::new(base, speed, diameter).ok()?;
     let (_, end) = scaled.domain();
-    let outcome = pumps::solve_duty(
+    let outcome = super::system_table::solve_duty(
         &|q| duty::set_head(&scaled, sys, 1.0, 1.0, q),
-        &|q| sys.head(q),
+        sys,
         end * (1.0 + duty::SEARCH_BEYOND_CURVE),
+        sys.scan(cc),
     );
     let mut alone = OneAlone {
         case: case.name.clone(),

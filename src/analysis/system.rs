@@ -15,6 +15,7 @@ use uom::si::{
 };
 
 use crate::analysis::network::station::StationNetwork;
+use crate::analysis::system_table::SystemTable;
 use crate::fluid;
 use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
@@ -179,6 +180,16 @@ impl WellDrawdown {
         let (a, w) = self.parts(q);
         a + w
     }
+
+    /// The drawdown's slope with flow at q (m³/s), s/m²: B + 2·C·q, 0 at q ≤ 0.
+    pub fn slope(&self, q: f64) -> f64 {
+        if q <= 0.0 {
+            return 0.0;
+        }
+        let b = (self.drawdown - self.well_loss) / self.test_flow;
+        let c = self.well_loss / (self.test_flow * self.test_flow);
+        b + 2.0 * c * q
+    }
 }
 
 /// A case's hydraulic model.
@@ -210,9 +221,35 @@ pub struct CaseSystem {
     /// zero station flow, m; `None` for a single chain.
     pub network: Option<(StationNetwork, f64)>,
     /// Set when a network solve at some flow failed (the case is then reported failed).
-    pub network_failed: std::cell::Cell<bool>,
+    pub network_failed: Flag,
     /// The source is a well with a drawdown (its `source_level` the static level).
     pub well: Option<WellDrawdown>,
+    /// The system curve tabulated for the fast duty path ([`CaseSystem::tabulate`]);
+    /// `None` until tabulated, and for a network.
+    pub duty_table: Option<SystemTable>,
+}
+
+/// A flag that can be raised through a shared reference: an atomic, so that a
+/// [`CaseSystem`] can be read by several threads at once (the yearly operation runs its
+/// candidates in parallel). Cloning copies its state.
+#[derive(Debug, Default)]
+pub struct Flag(std::sync::atomic::AtomicBool);
+
+impl Flag {
+    /// Whether the flag is raised.
+    pub fn get(&self) -> bool {
+        self.0.load(std::sync::atomic::Ordering::Relaxed)
+    }
+    /// Raise or lower the flag.
+    pub fn set(&self, value: bool) {
+        self.0.store(value, std::sync::atomic::Ordering::Relaxed);
+    }
+}
+
+impl Clone for Flag {
+    fn clone(&self) -> Flag {
+        Flag(std::sync::atomic::AtomicBool::new(self.get()))
+    }
 }
 
 /// Why a case could not be set up.
@@ -305,7 +342,8 @@ impl CaseSystem {
         Ok(CaseSystem {
             well,
             network,
-            network_failed: std::cell::Cell::new(false),
+            network_failed: Flag::default(),
+            duty_table: None,
             fluid,
             barometric_pa,
             barometric_source,
@@ -338,18 +376,61 @@ impl CaseSystem {
     /// All losses at flow q of the piping the whole set's flow passes (station piping,
     /// `serves = each_pump`, is left out: see [`CaseSystem::station_losses`]).
     pub fn losses(&self, q: f64) -> Losses {
+        self.sum_losses::<false>(q).0
+    }
+
+    /// All losses at flow q, and the slope with flow of the chain's friction + minor
+    /// losses, s/m² (the network's part has no slope here).
+    pub fn losses_with_slope(&self, q: f64) -> (Losses, f64) {
+        self.sum_losses::<true>(q)
+    }
+
+    /// Every segment's losses summed at q, with the slope only when `SLOPE` (else 0).
+    fn sum_losses<const SLOPE: bool>(&self, q: f64) -> (Losses, f64) {
         let mut out = Losses::default();
+        let mut slope = 0.0;
         for seg in self.segments.iter().filter(|s| !s.per_pump) {
-            let (wall, minor) = self.segment_losses(seg, q);
-            out.friction += wall;
-            out.minor += minor;
+            let l = segment_losses_with::<SLOPE>(&self.fluid, seg, q);
+            out.friction += l.wall;
+            out.minor += l.minor;
+            slope += l.wall_slope + l.minor_slope;
             if seg.side == Side::Suction {
-                out.suction += wall + minor;
+                out.suction += l.wall + l.minor;
             }
         }
         out.network = self.network_head(q);
         out.drawdown = self.drawdown(q);
-        out
+        slope += self.well.map_or(0.0, |w| w.slope(q));
+        (out, slope)
+    }
+
+    /// System head at flow q, m, and its slope dH/dq, s/m², for a chain (the network's
+    /// part of the head has no slope here; see [`CaseSystem::losses_with_slope`]).
+    pub fn head_and_slope(&self, q: f64) -> (f64, f64) {
+        let (l, slope) = self.losses_with_slope(q);
+        (
+            self.static_head + l.friction + l.minor + l.network + l.drawdown,
+            slope,
+        )
+    }
+
+    /// Tabulate the system curve on [0, q_max] (m³/s) for the duty solves
+    /// ([`SystemTable`]); a network is not tabulated.
+    pub fn tabulate(&mut self, q_max: f64) {
+        self.duty_table = SystemTable::new(self, q_max);
+    }
+
+    /// The pump scan of a candidate for the fast duty path, when it holds for this
+    /// system: not with station piping (each pump's own branches change the set's curve).
+    pub fn scan<'a>(
+        &self,
+        cc: &'a super::duty::CandidateCurves,
+    ) -> Option<&'a crate::pumps::PumpScan> {
+        if self.segments.iter().any(|s| s.per_pump) {
+            None
+        } else {
+            cc.duty_scan.as_ref()
+        }
     }
 
     /// The source well's drawdown at flow q (m³/s), m; 0 for a tank.
@@ -740,15 +821,48 @@ pub fn friction_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> friction::
 /// Wall-friction and minor losses of one segment at flow q (m³/s) of a fluid, m
 /// (zero at q <= 0); see the module documentation for the laws.
 pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64, f64) {
+    let l = segment_losses_with::<false>(fluid, seg, q);
+    (l.wall, l.minor)
+}
+
+/// One segment's losses at a flow and their slopes with flow.
+#[derive(Clone, Copy, Debug, Default, PartialEq)]
+pub struct SegmentLoss {
+    /// Wall-friction loss, m.
+    pub wall: f64,
+    /// Minor loss (fittings, stated K and equivalent lengths), m.
+    pub minor: f64,
+    /// d(wall)/dq, s/m².
+    pub wall_slope: f64,
+    /// d(minor)/dq, s/m².
+    pub minor_slope: f64,
+}
+
+/// Losses of one segment at flow q (m³/s) of a fluid and their analytic slopes (all zero
+/// at q <= 0; see the module documentation for the laws). With h = f·(L/D)·v²/2g and
+/// v = q/A, Re = ρvD/μ ∝ q: dh/dq = (h/q)·(2 + (Re/f)·df/dRe), df/dRe of
+/// [`friction::darcy_friction_slope`]; Hazen-Williams h ∝ q^1.852 gives 1.852·h/q; a
+/// constant K gives 2·h/q and the K₁/Re part of a 2-K/3-K fitting (∝ q) gives h/q.
+pub fn segment_loss_slopes_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> SegmentLoss {
+    segment_losses_with::<true>(fluid, seg, q)
+}
+
+/// The losses of [`segment_loss_slopes_in`], their slopes only when `SLOPE` (else zero):
+/// the value-only callers do not pay for the friction factor's derivative.
+fn segment_losses_with<const SLOPE: bool>(
+    fluid: &FluidState,
+    seg: &SegmentState,
+    q: f64,
+) -> SegmentLoss {
     if q <= 0.0 {
-        return (0.0, 0.0);
+        return SegmentLoss::default();
     }
     let v = q / seg.area;
     let velocity_head = v * v / (2.0 * G);
     let re = reynolds_in(fluid, seg, q);
     // Wall friction and equivalent lengths by the segment's one method; the Darcy
     // friction factor is only solved for when Darcy-Weisbach is used.
-    let (wall, equivalent) = match seg.hazen_williams_c {
+    let (wall, equivalent, exponent) = match seg.hazen_williams_c {
         Some(c) => {
             let d = seg.inner_diameter;
             let wall = friction::hazen_williams_head_loss_m(q, d, seg.length, c);
@@ -757,13 +871,21 @@ pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64
             } else {
                 0.0
             };
-            (wall, equivalent)
+            (wall, equivalent, 1.852)
         }
         None => {
-            let f = friction_in(fluid, seg, q).f;
+            let fr = friction_in(fluid, seg, q);
+            let (f, re) = (fr.f, re.max(1e-9));
+            let rr = seg.roughness / seg.inner_diameter;
+            let exponent = if SLOPE {
+                2.0 + re / f * friction::darcy_friction_slope(re, rr, &fr)
+            } else {
+                0.0
+            };
             (
                 f * seg.length / seg.inner_diameter * velocity_head,
                 f * seg.equivalent_length / seg.inner_diameter * velocity_head,
+                exponent,
             )
         }
     };
@@ -774,8 +896,21 @@ pub fn segment_losses_in(fluid: &FluidState, seg: &SegmentState, q: f64) -> (f64
     } else {
         0.0
     };
-    let k = seg.k_constant + seg.k_fixed_sum + laminar;
-    (wall, k * velocity_head + equivalent)
+    let k_quadratic = seg.k_constant + seg.k_fixed_sum;
+    let k = k_quadratic + laminar;
+    if !SLOPE {
+        return SegmentLoss {
+            wall,
+            minor: k * velocity_head + equivalent,
+            ..SegmentLoss::default()
+        };
+    }
+    SegmentLoss {
+        wall,
+        minor: k * velocity_head + equivalent,
+        wall_slope: exponent * wall / q,
+        minor_slope: ((2.0 * k_quadratic + laminar) * velocity_head + exponent * equivalent) / q,
+    }
 }
 
 /// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,

@@ -19,7 +19,8 @@ mod explicit;
 mod hazen_williams;
 
 pub use colebrook::{
-    colebrook, colebrook_warm, solve_colebrook, von_karman_fully_rough, ColebrookSolution,
+    colebrook, colebrook_slope, colebrook_warm, solve_colebrook, von_karman_fully_rough,
+    ColebrookSolution,
 };
 pub use explicit::{churchill_1977, haaland_1983, laminar, swamee_jain_1976};
 pub use hazen_williams::{
@@ -166,6 +167,28 @@ pub fn checked_darcy_friction_factor(re: f64, rr: f64) -> Result<Friction, Frict
     })
 }
 
+/// dF/dRe of [`darcy_friction_factor`] at (re, eps/D = rr), 1/(unit of Re), given the
+/// `friction` it returned there: laminar d(64/Re)/dRe = -f/Re; Colebrook by implicit
+/// differentiation ([`colebrook_slope`]); in the critical zone a central difference of
+/// [`transitional_friction_factor`] with a step of 1e-6 Re (the bridge has no simple closed
+/// derivative, and the zone is rarely met). NaN where the friction factor is NaN.
+pub fn darcy_friction_slope(re: f64, rr: f64, friction: &Friction) -> f64 {
+    match friction.regime {
+        FlowRegime::Laminar => -friction.f / re,
+        FlowRegime::Turbulent => colebrook_slope(re, rr, friction.f),
+        FlowRegime::Transitional => {
+            let h = re * 1e-6;
+            match (
+                transitional_friction_factor(re + h, rr),
+                transitional_friction_factor(re - h, rr),
+            ) {
+                (Ok(up), Ok(down)) => (up - down) / (2.0 * h),
+                _ => f64::NAN,
+            }
+        }
+    }
+}
+
 /// The transitional bridge for 2000 <= Re <= 4000:
 /// f = f_Ch(Re) · c_2000^(1-w) · c_4000^w, w = ln(Re/2000) / ln 2,
 /// c_2000 = (64/2000) / f_Ch(2000), c_4000 = f_Colebrook(4000) / f_Ch(4000),
@@ -243,6 +266,24 @@ mod tests {
             (f.regime, f.correlation),
             (FlowRegime::Turbulent, TURBULENT_NAME)
         );
+    }
+
+    #[test]
+    fn slope_in_every_regime_matches_a_difference_quotient() {
+        for &re in &[500.0, 1999.0, 2500.0, 3900.0, 4100.0, 1e5, 1e7] {
+            for rr in ROUGHNESSES {
+                let fr = darcy_friction_factor(re, rr);
+                let h = re * 1e-5;
+                let numeric = (darcy_friction_factor(re + h, rr).f
+                    - darcy_friction_factor(re - h, rr).f)
+                    / (2.0 * h);
+                let analytic = darcy_friction_slope(re, rr, &fr);
+                assert!(
+                    (analytic - numeric).abs() <= 1e-5 * fr.f / re,
+                    "Re {re} rr {rr}: {analytic} vs {numeric}"
+                );
+            }
+        }
     }
 
     #[test]

@@ -237,24 +237,75 @@ pub fn solve_duty(
     q_end: f64,
 ) -> DutyOutcome {
     if !(q_end.is_finite() && q_end > 0.0) {
-        return DutyOutcome::NoSolution {
-            message: format!("the flow range end must be a positive finite flow, got {q_end}"),
-        };
+        return bad_range(q_end);
+    }
+    solve_duty_scanned(
+        pump_head,
+        system_head,
+        q_end,
+        &PumpScan::new(pump_head, q_end),
+    )
+}
+
+fn bad_range(q_end: f64) -> DutyOutcome {
+    DutyOutcome::NoSolution {
+        message: format!("the flow range end must be a positive finite flow, got {q_end}"),
+    }
+}
+
+/// Where a pump head curve rises on the [`DUTY_GRID_INTERVALS`] equal intervals of
+/// [0, q_end]: what [`solve_duty`] learns by sampling the pump, kept so that it can be
+/// reused. A curve scaled by the affinity laws (flow × s, head × s²) and searched to the
+/// same multiple of its data end has the same grid in its own flows, hence the same
+/// rising intervals: one scan of a candidate's published curve serves every case.
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct PumpScan {
+    /// The grid nodes (0..=[`DUTY_GRID_INTERVALS`]) where g = pump − system is needed:
+    /// both ends, and both ends of every interval over which the pump head rises (or is
+    /// not finite at an end, so that the solve's error names it), ascending.
+    nodes: Vec<usize>,
+}
+
+impl PumpScan {
+    /// Sample `pump_head` at the grid nodes of [0, q_end] (m³/s).
+    pub fn new(pump_head: &dyn Fn(f64) -> f64, q_end: f64) -> PumpScan {
+        let node = |i: usize| q_end * i as f64 / DUTY_GRID_INTERVALS as f64;
+        let pump: Vec<f64> = (0..=DUTY_GRID_INTERVALS)
+            .map(|i| pump_head(node(i)))
+            .collect();
+        let rises =
+            |i: usize| pump[i + 1] > pump[i] || !pump[i].is_finite() || !pump[i + 1].is_finite();
+        let nodes = (0..=DUTY_GRID_INTERVALS)
+            .filter(|&i| i == 0 || i == DUTY_GRID_INTERVALS || rises(i - 1) || rises(i))
+            .collect();
+        PumpScan { nodes }
+    }
+
+    /// True when the head never rises (and is finite) on the whole grid.
+    pub fn never_rises(&self) -> bool {
+        self.nodes.len() == 2
+    }
+}
+
+/// [`solve_duty`] with the pump's grid scan already done ([`PumpScan::new`] on this pump
+/// and `q_end`, or on the published curve it is scaled from): the same brackets, the same
+/// roots, the same outcome, without sampling the pump at every node. The fast duty path
+/// of the analysis pairs it with the tabulated system curve of
+/// [`crate::analysis::system_table`].
+pub fn solve_duty_scanned(
+    pump_head: &dyn Fn(f64) -> f64,
+    system_head: &dyn Fn(f64) -> f64,
+    q_end: f64,
+    scan: &PumpScan,
+) -> DutyOutcome {
+    if !(q_end.is_finite() && q_end > 0.0) {
+        return bad_range(q_end);
     }
     let g = |q: f64| pump_head(q) - system_head(q);
     let node = |i: usize| q_end * i as f64 / DUTY_GRID_INTERVALS as f64;
-    let pump: Vec<f64> = (0..=DUTY_GRID_INTERVALS)
-        .map(|i| pump_head(node(i)))
-        .collect();
-    // The nodes where g is needed: both ends, and both ends of every interval over which
-    // the pump head rises (or is not finite, so that the error below names it).
-    let rises =
-        |i: usize| pump[i + 1] > pump[i] || !pump[i].is_finite() || !pump[i + 1].is_finite();
-    let nodes: Vec<usize> = (0..=DUTY_GRID_INTERVALS)
-        .filter(|&i| i == 0 || i == DUTY_GRID_INTERVALS || rises(i - 1) || rises(i))
-        .collect();
+    let nodes = &scan.nodes;
     let mut values = Vec::with_capacity(nodes.len());
-    for &i in &nodes {
+    for &i in nodes {
         let v = g(node(i));
         if !v.is_finite() {
             return DutyOutcome::NoSolution {
@@ -383,6 +434,22 @@ mod tests {
         assert_eq!(all_flows.len(), 2);
         assert!((all_flows[0] - (0.02 - d)).abs() < 1e-11, "{all_flows:?}");
         assert!((flow - (0.02 + d)).abs() < 1e-11, "{flow}");
+    }
+
+    #[test]
+    fn a_scan_of_the_unscaled_curve_serves_the_scaled_one() {
+        // Affinity scaling H(q) = s²·H0(q/s) maps the grid of [0, s·q0] onto that of
+        // [0, q0]: the scan of H0 gives the same crossings as sampling the scaled curve.
+        let h0 = |q: f64| 40.0 + 400.0 * q - 10_000.0 * q * q;
+        let scan = PumpScan::new(&h0, 0.05);
+        assert!(!scan.never_rises());
+        for s in [0.7, 1.0, 1.15] {
+            let pump = |q: f64| s * s * h0(q / s);
+            let system = |q: f64| 30.0 * s * s + 2_000.0 * q * q;
+            let exact = solve_duty(&pump, &system, 0.05 * s);
+            let scanned = solve_duty_scanned(&pump, &system, 0.05 * s, &scan);
+            assert_eq!(exact, scanned, "speed ratio {s}");
+        }
     }
 
     #[test]

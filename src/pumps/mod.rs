@@ -44,7 +44,7 @@ pub mod viscous;
 pub use affinity::{speed_for_duty, trim_for_duty, ScaledPump, SpeedForDuty};
 pub use arrangement::{combined_head, ArrangedPump, Arrangement};
 pub use curves::{best_efficiency_point, fit_table, Bep, CurveTable, PumpCurves};
-pub use duty::{brent, solve_duty, DutyOutcome};
+pub use duty::{brent, solve_duty, solve_duty_scanned, DutyOutcome, PumpScan};
 pub use energy::{
     annual_energy_j, energy_cost, hydraulic_power_w, life_cycle_energy_cost, motor_input_power_w,
     present_worth_factor, shaft_power_w, LccMethod, STANDARD_GRAVITY,

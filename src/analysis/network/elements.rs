@@ -23,7 +23,7 @@
 
 use std::sync::Arc;
 
-use crate::analysis::system::{segment_losses_in, FluidState, SegmentState, G};
+use crate::analysis::system::{segment_loss_slopes_in, FluidState, SegmentState, G};
 
 /// Below this flow (m³/s, 1 mL/s) a quadratic law is continued by its chord (numerical
 /// regularisation; the flows of interest are far larger).
@@ -181,23 +181,23 @@ fn power_law(r: f64, n: f64, q: f64) -> (f64, f64) {
     (h * q.signum(), (n * h / a).max(MIN_SLOPE))
 }
 
-/// Loss of a pipe run at a flow (either sign), and its slope by a forward difference
-/// of the run's own law (so Colebrook's variation of f with Re is in the slope).
+/// Loss of a pipe run at a flow (either sign), and its analytic slope
+/// ([`segment_loss_slopes_in`]: Colebrook's variation of f with Re is in it), taken at
+/// |Q| floored to a thousandth of [`REGULAR_FLOW`] so that it stays positive at zero flow.
 fn pipe_law(fluid: &FluidState, run: &PipeRun, q: f64) -> (f64, f64) {
-    let loss = |a: f64| -> f64 {
-        run.segments
-            .iter()
-            .map(|s| {
-                let (w, m) = segment_losses_in(fluid, s, a);
-                w + m
-            })
-            .sum()
+    let at = |a: f64| -> (f64, f64) {
+        run.segments.iter().fold((0.0, 0.0), |(h, s), seg| {
+            let l = segment_loss_slopes_in(fluid, seg, a);
+            (h + (l.wall + l.minor), s + (l.wall_slope + l.minor_slope))
+        })
     };
-    let a = q.abs().max(REGULAR_FLOW * 1e-3);
-    let h = loss(q.abs());
-    let step = a * 1e-6;
-    let slope = ((loss(a + step) - loss(a)) / step).max(MIN_SLOPE);
-    (h * q.signum(), slope)
+    let floor = REGULAR_FLOW * 1e-3;
+    let (h, slope) = if q.abs() >= floor {
+        at(q.abs())
+    } else {
+        (at(q.abs()).0, at(floor).1)
+    };
+    (h * q.signum(), slope.max(MIN_SLOPE))
 }
 
 /// A pump set's loss (minus its head gain) at the set's flow.

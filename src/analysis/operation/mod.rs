@@ -129,20 +129,17 @@ pub fn analyse(
     if design.operation.profiles.is_empty() {
         return Vec::new();
     }
-    design
-        .pumps
-        .iter()
-        .enumerate()
-        .map(|(i, p)| {
-            candidate(
-                design,
-                cases,
-                p,
-                candidates.get(i),
-                motors.get(i).and_then(|m| m.as_ref()),
-            )
-        })
-        .collect()
+    // Candidates are independent: on every core, in the design's order.
+    let indexed: Vec<(usize, &PumpCandidate)> = design.pumps.iter().enumerate().collect();
+    crate::analysis::concurrent::map(&indexed, |&(i, p)| {
+        candidate(
+            design,
+            cases,
+            p,
+            candidates.get(i),
+            motors.get(i).and_then(|m| m.as_ref()),
+        )
+    })
 }
 
 fn empty(p: &PumpCandidate, why: String) -> CandidateOperation {
