@@ -152,6 +152,11 @@ impl Material {
             })
     }
 
+    /// The keyword in words for print ("ductile iron" for `ductile_iron`).
+    pub fn words(self) -> String {
+        self.keyword().replace('_', " ")
+    }
+
     /// The canonical keyword, lower_snake_case.
     pub fn keyword(self) -> &'static str {
         match self {

@@ -128,6 +128,10 @@ impl Control {
             Control::OnOff => "on_off",
         }
     }
+    /// The keyword in words for print ("constant pressure" for `constant_pressure`).
+    pub fn words(self) -> String {
+        self.keyword().replace('_', " ")
+    }
 
     /// What a fixed-speed candidate does under this profile: cycles on and off when
     /// the profile says so, else throttles.
@@ -156,6 +160,10 @@ impl Staging {
             Staging::LeastPower => "least_power",
             Staging::AllRunning => "all_running",
         }
+    }
+    /// The keyword in words for print ("constant pressure" for `constant_pressure`).
+    pub fn words(self) -> String {
+        self.keyword().replace('_', " ")
     }
 }
 

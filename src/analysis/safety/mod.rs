@@ -396,13 +396,7 @@ fn line_screen(
         segment_labels: line
             .segments
             .iter()
-            .map(|s| {
-                format!(
-                    "{} {}",
-                    s.material.keyword().replace('_', " "),
-                    s.size_label
-                )
-            })
+            .map(|s| format!("{} {}", s.material.words(), s.size_label))
             .collect(),
         segment_pipes: line
             .segments

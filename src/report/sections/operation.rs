@@ -207,8 +207,8 @@ fn profile_table(blocks: &mut Vec<Block>, p: &LoadProfile, units: &Units) {
             "Load profile on case {} ({:.0} h a year; control {}, staging {})",
             p.case,
             total,
-            p.control.keyword().replace('_', " "),
-            p.staging.keyword().replace('_', " ")
+            p.control.words(),
+            p.staging.words()
         )),
     });
 }
@@ -230,7 +230,7 @@ fn candidate(
         return;
     }
     blocks.push(Block::KeyValue(vec![
-        ("Control".into(), op.controls.iter().map(|c| c.keyword().replace('_', " ")).collect::<Vec<_>>().join(", ")),
+        ("Control".into(), op.controls.iter().map(|c| c.words()).collect::<Vec<_>>().join(", ")),
         ("Motor per pump".into(), format!("{} nameplate, full-load efficiency {}", pw.fmt(op.motor_rating_w), percent(op.motor_full_load_efficiency))),
         ("Drive".into(), match op.drive_full_load_efficiency { Some(e) => format!("variable-frequency drive, full-load efficiency {}, speed {:.0}–{:.0} % of {:.0} rpm", percent(e), op.speed_range.0 * 100.0, op.speed_range.1 * 100.0, op.published_speed_rpm), None => "none (fixed speed)".into() }),
     ]));
@@ -412,7 +412,7 @@ fn head_figure(
         series.push(Series {
             name: format!(
                 "control curve ({}, case {})",
-                plot.control.keyword().replace('_', " "),
+                plot.control.words(),
                 plot.case
             ),
             points: plot
