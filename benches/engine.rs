@@ -59,7 +59,7 @@ fn duty_solve(c: &mut Criterion) {
 /// analysis runs it, and the exact solve it replaced (system curve evaluated exactly,
 /// the pump sampled on the grid) for comparison. Target: the fast one under 1 µs.
 fn duty_solve_20_segments(c: &mut Criterion) {
-    let src = large_design();
+    let src = large_design::large_design(100);
     let design = check(&src, &NoFiles).design.expect("design");
     let cases = &design.cases[..1];
     let candidates: Vec<CandidateCurves> = design.pumps.iter().map(CandidateCurves::fit).collect();

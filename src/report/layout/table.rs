@@ -97,6 +97,23 @@ fn header_word_width(ctx: &Ctx, header: &str, size: f64) -> f64 {
         + 0.5
 }
 
+/// Width in points a column needs so that no percentage of its body ("123.2 %") is
+/// split from its sign: the widest cell that is a number followed by " %".
+fn percent_width(ctx: &Ctx, rows: &[Vec<String>], column: usize, size: f64) -> f64 {
+    rows.iter()
+        .filter_map(|r| r.get(column))
+        .filter(|cell| {
+            cell.strip_suffix(" %").is_some_and(|n| {
+                n.len() <= 8
+                    && n.trim_start_matches(['-', '\u{2212}'])
+                        .parse::<f64>()
+                        .is_ok()
+            })
+        })
+        .map(|cell| ctx.fonts.width(Face::Regular, cell, size) + 2.0 * PAD_X + 0.5)
+        .fold(0.0, f64::max)
+}
+
 /// Rows kept together at the start and at the end of a table, so a table never
 /// leaves one or two rows alone on a page.
 pub const MIN_ROWS_TOGETHER: usize = 3;
@@ -126,7 +143,10 @@ pub fn table_chunks(
     let fractions: Vec<f64> = columns.iter().map(|c| c.width_fraction).collect();
     let header_words: Vec<f64> = columns
         .iter()
-        .map(|c| header_word_width(ctx, &c.header, size))
+        .enumerate()
+        .map(|(i, c)| {
+            header_word_width(ctx, &c.header, size).max(percent_width(ctx, rows, i, size))
+        })
         .collect();
     let widths = column_widths_with_minimums(
         &fractions,

@@ -82,7 +82,13 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
     let mut tokens = Vec::new();
     let mut word: Vec<Glyph> = Vec::new();
     for &(face, text) in pieces {
-        for ch in text.chars().filter(|c| *c != '\r') {
+        let mut chars = text.chars().filter(|c| *c != '\r').peekable();
+        while let Some(ch) = chars.next() {
+            // A space before a percent sign does not break: "130 %" stays on one line.
+            if ch == ' ' && chars.peek() == Some(&'%') && !word.is_empty() {
+                word.push(glyph(fonts, face, ' ', size));
+                continue;
+            }
             if ch == '\n' || ch == ' ' || ch == '\t' {
                 if !word.is_empty() {
                     tokens.push(Token::Word(std::mem::take(&mut word)));
@@ -303,6 +309,18 @@ mod tests {
         }
         let joined: Vec<String> = lines.iter().map(Line::text).collect();
         assert_eq!(joined.join(" "), text);
+    }
+
+    #[test]
+    fn a_percent_sign_stays_with_its_number() {
+        let f = fonts().expect("fonts");
+        let text = "outside the allowable 50–130 %";
+        // Just too narrow for the whole text: the break falls before "130 %", never
+        // between "130" and "%".
+        let width = f.width(Face::Regular, text, 9.0) - 1.0;
+        let lines = wrap_plain(f, text, Face::Regular, 9.0, width);
+        let texts: Vec<String> = lines.iter().map(Line::text).collect();
+        assert_eq!(texts, ["outside the allowable", "50–130 %"]);
     }
 
     #[test]
