@@ -54,29 +54,14 @@ fn analyse(src: &str) -> Analysis {
     common::analyse_valid(src, &dutyline::NoFiles).1
 }
 
-/// Positive root of a q² + b q + c = 0.
-fn root(a: f64, b: f64, c: f64) -> f64 {
-    (-b + (b * b - 4.0 * a * c).sqrt()) / (2.0 * a)
-}
-
-/// The loss coefficient of the discharge in ft per gpm²: 6 in schedule 40 has
-/// ID 6.065 in (ASME B36.10M), A = π/4 × (6.065/12)² = 0.200 63 ft²; v = Q × 0.002 228 0
-/// ft³/s per gpm / A = 0.011 105 Q ft/s; K v²/2g = 100 × (0.011 105 Q)² / 64.348 =
-/// 1.9165e-4 Q² ft (g = 32.174 ft/s², standard gravity).
-fn k_ft_per_gpm2() -> f64 {
-    let area = std::f64::consts::PI / 4.0 * (6.065_f64 / 12.0).powi(2);
-    let v_per_gpm = (GAL / 0.3048_f64.powi(3)) / 60.0 / area;
-    100.0 * v_per_gpm * v_per_gpm / (2.0 * 32.174_048_556)
-}
-
 #[test]
 fn one_pump_alone_runs_out_against_the_lowest_head_case() {
     let a = analyse(&design(900));
-    let k = k_ft_per_gpm2();
+    let k = common::k100_in_6in_sch40_ft_per_gpm2();
     assert!((k - 1.9165e-4).abs() < 1e-7, "{k}");
     // The pair in case normal: 100 − 0.05 Q = 40 + k Q²: Q = 444.1 gpm, 222 per pump.
     let pair = a.cases[0].pumps[0].duty.as_ref().expect("pair duty");
-    let q_pair = root(k, 0.05, -60.0);
+    let q_pair = common::positive_root(k, 0.05, -60.0);
     assert!((q_pair - 444.1).abs() < 0.1, "{q_pair}");
     // Tolerance 0.2 %: the 1 ft of pipe friction (about 0.03 velocity heads) is left out
     // of the hand solution.
@@ -85,7 +70,7 @@ fn one_pump_alone_runs_out_against_the_lowest_head_case() {
     // 100 − 0.1 q = 35 + k q²: q = (−0.1 + √(0.01 + 4 k 65)) / 2k = 377.2 gpm.
     let alone = a.one_alone[0].as_ref().expect("one pump alone");
     assert_eq!(alone.case, "high_suction");
-    let q_alone = root(k, 0.1, -65.0);
+    let q_alone = common::positive_root(k, 0.1, -65.0);
     assert!((q_alone - 377.2).abs() < 0.1, "{q_alone}");
     let q = alone.flow.expect("flow") / (GAL / 60.0);
     assert!((q / q_alone - 1.0).abs() < 2e-3, "{q}");

@@ -59,25 +59,15 @@ fn analyse(src: &str) -> Analysis {
     common::analyse_valid(src, &dutyline::NoFiles).1
 }
 
-/// Positive root of a q² + b q + c = 0.
-fn root(a: f64, b: f64, c: f64) -> f64 {
-    (-b + (b * b - 4.0 * a * c).sqrt()) / (2.0 * a)
-}
-
-/// K = 100 in 6 in schedule 40 (ID 6.065 in, ASME B36.10M), ft per gpm²
-/// (tests/parallel_one_alone.rs derives the same 1.9165e-4).
-fn k() -> f64 {
-    let area = std::f64::consts::PI / 4.0 * (6.065_f64 / 12.0).powi(2);
-    let v_per_gpm = (GAL / 0.3048_f64.powi(3)) / 60.0 / area;
-    100.0 * v_per_gpm * v_per_gpm / (2.0 * 32.174_048_556)
-}
-
 #[test]
 fn a_case_running_one_pump_of_the_pair_finds_its_own_duty() {
     let a = analyse(&design("PAIR.running = 1"));
-    let k = k();
+    let k = common::k100_in_6in_sch40_ft_per_gpm2();
     // Both: 100 − 0.05 Q = 40 + k Q²; one: 100 − 0.1 Q = 40 + k Q².
-    let (q2, q1) = (root(k, 0.05, -60.0), root(k, 0.1, -60.0));
+    let (q2, q1) = (
+        common::positive_root(k, 0.05, -60.0),
+        common::positive_root(k, 0.1, -60.0),
+    );
     let both = &a.cases[0].pumps[0];
     let one = &a.cases[1].pumps[0];
     assert_eq!((both.count, one.count), (2, 1));

@@ -669,11 +669,8 @@ pub fn search_reach(case: &Case, design: &Design, candidates: &[CandidateCurves]
         };
         let case_speed = case
             .scenario
-            .pump_speeds
-            .iter()
-            .find(|(n, _)| *n == p.name)
-            .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
-            .unwrap_or(1.0);
+            .pump_speed_rpm(&p.name)
+            .map_or(1.0, |rpm| rpm / base.speed_rpm);
         let speed = match p.adjust {
             Adjust::Speed { max_ratio, .. } => max_ratio.max(case_speed),
             _ => case_speed,
@@ -749,10 +746,7 @@ pub fn evaluate(
     };
     let case_speed = case
         .scenario
-        .pump_speeds
-        .iter()
-        .find(|(n, _)| *n == p.name)
-        .map(|(_, s)| s.get::<cycle_per_minute>())
+        .pump_speed_rpm(&p.name)
         .unwrap_or(base.speed_rpm);
     let (speed_ratio, diameter_ratio) = adjust_to_requirement(
         design,

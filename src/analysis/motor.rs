@@ -78,11 +78,8 @@ fn run_out(
         let Some(sys) = &c.system else { continue };
         let case_ratio = dc
             .scenario
-            .pump_speeds
-            .iter()
-            .find(|(n, _)| *n == p.name)
-            .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
-            .unwrap_or(1.0);
+            .pump_speed_rpm(&p.name)
+            .map_or(1.0, |rpm| rpm / base.speed_rpm);
         let (speed, diameter) = match p.adjust {
             Adjust::Speed { max_ratio, .. } => (max_ratio.max(case_ratio), *trim),
             Adjust::Trim { .. } => (case_ratio, 1.0),

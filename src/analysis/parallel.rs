@@ -9,8 +9,6 @@
 //! Unequal pumps in parallel (a weaker pump deadheading against the header) cannot be
 //! written in a design yet: a set is `count` identical pumps.
 
-use uom::si::frequency::cycle_per_minute;
-
 use super::checks::{self, Check, Status};
 use super::duty::{self, CandidateCurves};
 use super::limits::{CheckId, Source};
@@ -89,11 +87,8 @@ fn evaluate(
     let dc = design.cases.iter().find(|d| d.name == case.name)?;
     let case_ratio = dc
         .scenario
-        .pump_speeds
-        .iter()
-        .find(|(n, _)| *n == p.name)
-        .map(|(_, s)| s.get::<cycle_per_minute>() / base.speed_rpm)
-        .unwrap_or(1.0);
+        .pump_speed_rpm(&p.name)
+        .map_or(1.0, |rpm| rpm / base.speed_rpm);
     let (speed, diameter) = match p.adjust {
         Adjust::Speed { max_ratio, .. } => (max_ratio, *trim),
         Adjust::Trim { .. } => (case_ratio, 1.0),

@@ -136,6 +136,14 @@ impl Scenario {
             .find(|(n, _, parallel, _)| n == name && *parallel)
             .map(|(_, _, _, r)| *r)
     }
+
+    /// Speed of candidate `name` stated for this case, rpm, when the case states one.
+    pub fn pump_speed_rpm(&self, name: &str) -> Option<f64> {
+        self.pump_speeds
+            .iter()
+            .find(|(n, _)| n == name)
+            .map(|(_, s)| s.get::<uom::si::frequency::cycle_per_minute>())
+    }
 }
 
 /// The pumped liquid.

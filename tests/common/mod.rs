@@ -93,3 +93,20 @@ pub fn said(
 ) -> String {
     dutyline::display::Units::new(analysis.report_units).render(message)
 }
+
+/// Positive root of a q² + b q + c = 0 (hand-solved duties on linear pump curves).
+pub fn positive_root(a: f64, b: f64, c: f64) -> f64 {
+    (-b + (b * b - 4.0 * a * c).sqrt()) / (2.0 * a)
+}
+
+/// The head of K = 100 velocity heads in 6 in schedule 40, ft per gpm²: ID 6.065 in
+/// (ASME B36.10M), A = π/4 × (6.065/12)² = 0.200 63 ft²; v = Q × 0.002 228 0 ft³/s per
+/// gpm / A = 0.011 105 Q ft/s; K v²/2g = 100 × (0.011 105 Q)² / 64.348 = 1.9165e-4 Q² ft
+/// (1 US gal = 3.785 411 784 L, NIST SP 811 Appendix B; g = 32.174 ft/s², standard
+/// gravity).
+pub fn k100_in_6in_sch40_ft_per_gpm2() -> f64 {
+    let gal_m3 = 3.785_411_784e-3;
+    let area = std::f64::consts::PI / 4.0 * (6.065_f64 / 12.0).powi(2);
+    let v_per_gpm = (gal_m3 / 0.3048_f64.powi(3)) / 60.0 / area;
+    100.0 * v_per_gpm * v_per_gpm / (2.0 * 32.174_048_556)
+}
