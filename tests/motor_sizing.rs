@@ -43,6 +43,14 @@ pump P "test pump" {{
     )
 }
 
+/// Power rising to 8 hp at the end of the curve (400 gpm).
+const RISING: &str = "        flow gpm head ft power hp
+        0 100 4.0
+        100 95 5.0
+        200 85 6.0
+        300 70 7.0
+        400 50 8.0";
+
 /// Constant 5.64 hp along the curve: every duty needs 5.64 hp of shaft power.
 const FLAT_564: &str = "        flow gpm head ft power hp
         0 100 5.64
@@ -156,18 +164,11 @@ fn a_stated_nameplate_below_the_duty_fails() {
 
 #[test]
 fn run_out_above_the_nameplate_warns_with_case_and_flow() {
-    // Power rising to 8 hp at the end of the curve (400 gpm).
-    let rising = "        flow gpm head ft power hp
-        0 100 4.0
-        100 95 5.0
-        200 85 6.0
-        300 70 7.0
-        400 50 8.0";
     // A stated 7.5 hp nameplate with the NEMA default service factor 1.15.
     let src = design(
         "    standard = nema",
         "    motor_rating = 7.5 hp\n",
-        rising,
+        RISING,
         "case normal { hours = 1000 h }",
     );
     let (_, a) = analyse(&src);
@@ -199,19 +200,12 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
 
 #[test]
 fn run_out_above_nameplate_times_service_factor_fails_and_selection_is_non_overloading() {
-    // The same curve rising to 8 hp at its end (400 gpm).
-    let rising = "        flow gpm head ft power hp
-        0 100 4.0
-        100 95 5.0
-        200 85 6.0
-        300 70 7.0
-        400 50 8.0";
     // Selected by the tool: the nameplate carries the run-out, 8 hp → 10 hp (NEMA MG 1
     // series … 7.5, 10, 15 hp, from memory): non-overloading, pass.
     let src = design(
         "    standard = nema",
         "",
-        rising,
+        RISING,
         "case normal { hours = 1000 h }",
     );
     let (_, a) = analyse(&src);
@@ -223,7 +217,7 @@ fn run_out_above_nameplate_times_service_factor_fails_and_selection_is_non_overl
     let src = design(
         "    standard = nema\n    service_factor = 1.0",
         "    motor_rating = 7.5 hp\n",
-        rising,
+        RISING,
         "case normal { hours = 1000 h }",
     );
     let (_, a) = analyse(&src);
