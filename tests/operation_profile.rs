@@ -309,3 +309,27 @@ fn profile_mistakes_get_located_diagnostics() {
         assert!(e.span.is_some());
     }
 }
+
+/// A load point beyond what the set gives is reported in the design's units: the reason
+/// is a typed message, so a US design reads gpm and ft, never the engine's m³/s (the
+/// reasons were SI text before; found in review of the Kestrel package).
+#[test]
+fn an_undelivered_point_says_why_in_the_design_units() {
+    let src = std::fs::read_to_string("examples-demo/orchard-lift-rev-a.duty").unwrap();
+    let src = src.replacen("        700        300\n", "        2500       300\n", 1);
+    let (design, a) = analysed(&src);
+    let failed: Vec<_> = a
+        .operation
+        .iter()
+        .flat_map(|o| &o.points)
+        .filter_map(|p| p.failure.as_ref())
+        .collect();
+    assert!(!failed.is_empty(), "2500 gpm is beyond every candidate");
+    let text = dutyline::results::to_text(&design, &a);
+    let line = text
+        .lines()
+        .find(|l| l.contains("not delivered:"))
+        .expect("a not-delivered line");
+    assert!(line.contains("gpm"), "{line}");
+    assert!(!line.contains("m3/s") && !line.contains("m³/s"), "{line}");
+}

@@ -77,7 +77,7 @@ fn points(o: &mut String, u: &Units, op: &CandidateOperation) {
                 fl.fmt(p.flow),
                 p.hours,
                 p.case,
-                p.failure.as_deref().unwrap_or("")
+                p.failure.as_ref().map(|m| u.render(m)).unwrap_or_default()
             );
             continue;
         };

@@ -103,7 +103,7 @@ fn delivery(pts: &[PointResult], total: f64) -> Check {
                     share(missed, total),
                     ") not delivered: "
                 ];
-                m.push(why);
+                m.append(&why);
                 m
             }
             None => Message::text("every load point of the profile is delivered"),

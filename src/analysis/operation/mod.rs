@@ -17,6 +17,7 @@ use super::checks::{Check, AOR};
 use super::duty::{stages, CandidateCurves};
 use super::motor::MotorSizing;
 use super::{CaseResult, CaseSystem};
+use crate::message::{against, flow, Kind, Message};
 use crate::model::operation::{Control, LoadProfile};
 use crate::model::{Adjust, Design, PumpCandidate};
 use crate::pumps::part_load::DriveLosses;
@@ -38,7 +39,7 @@ pub struct PointResult {
     /// The running set (mid level band for on/off); `None` when not delivered.
     pub state: Option<SetState>,
     /// Why the point is not delivered.
-    pub failure: Option<String>,
+    pub failure: Option<Message>,
     /// Share of the hours the set runs (1 for continuous control; Q/Q_run for on/off).
     pub duty_cycle: f64,
     /// On/off: worst starts per hour, Q_run/(4·V) (inflow half the pump flow).
@@ -50,7 +51,7 @@ pub struct PointResult {
     /// Hydraulic power of the set over its input power while running.
     pub wire_to_water: Option<f64>,
     /// Mean input power over the hours (W) by running count, or why that count fails.
-    pub by_count: Vec<(u32, Result<f64, String>)>,
+    pub by_count: Vec<(u32, Result<f64, Message>)>,
 }
 
 /// Energy, cost and efficiency over a year.
@@ -251,7 +252,7 @@ fn candidate(
                 out.points.push(undelivered(
                     profile,
                     lp,
-                    "the profile's case could not be analysed".into(),
+                    Message::text("the profile's case could not be analysed"),
                 ));
             }
             continue;
@@ -298,7 +299,7 @@ fn candidate(
 fn undelivered(
     profile: &LoadProfile,
     lp: &crate::model::operation::LoadPoint,
-    why: String,
+    why: Message,
 ) -> PointResult {
     PointResult {
         case: profile.case.clone(),
@@ -400,7 +401,7 @@ fn on_off(
     k: u32,
     q: f64,
     band: f64,
-) -> Result<(SetState, f64), String> {
+) -> Result<(SetState, f64), Message> {
     let at = |dz: f64| {
         let mut s = sys.clone();
         s.static_head += dz;
@@ -408,7 +409,14 @@ fn on_off(
     };
     let (lo, mid, hi) = (at(0.0)?, at(0.5 * band)?, at(band)?);
     if lo.flow.min(mid.flow).min(hi.flow) < q {
-        return Err(format!("{k} pump(s) deliver {:.5} m3/s at the top of the level band, less than the {q:.5} m3/s demanded", hi.flow));
+        return Err(crate::message![
+            crate::numbers::count(k as usize, "pump", "pumps"),
+            " deliver ",
+            against(Kind::Flow, hi.flow, q),
+            " at the top of the level band, less than the ",
+            flow(q),
+            " demanded"
+        ]);
     }
     let se = |s: &SetState| s.input_power / s.flow;
     let mean_se = (se(&lo) + 4.0 * se(&mid) + se(&hi)) / 6.0;

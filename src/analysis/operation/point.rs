@@ -13,6 +13,7 @@
 //! with H_set the head the running set develops (DOE/Hydraulic Institute usage).
 
 use crate::analysis::{CaseSystem, G};
+use crate::message::{self, against, flow, Kind, Message};
 use crate::pumps::part_load::{self, DriveLosses};
 use crate::pumps::{brent, PumpCurves, ScaledPump};
 
@@ -113,22 +114,25 @@ fn scaled<'a>(m: &SetModel<'a>, r: f64) -> ScaledPump<'a> {
 /// Speed ratio at which one pump gives `head` (m) at `qp` (m³/s) within `min..max`:
 /// solves r²·H(qp/r) = head by Brent (1e-10, 100 iterations). `Ok(None)` when even the
 /// minimum speed gives more (run at minimum speed, throttled).
-fn speed_for(m: &SetModel, qp: f64, head: f64, min: f64, max: f64) -> Result<Option<f64>, String> {
+fn speed_for(m: &SetModel, qp: f64, head: f64, min: f64, max: f64) -> Result<Option<f64>, Message> {
     let h = |r: f64| scaled(m, r).eval_head(qp);
     if h(max) < head {
-        return Err(format!(
-            "at its maximum speed one pump gives {:.2} m at {:.5} m3/s, below the {:.2} m needed",
-            h(max),
-            qp,
-            head
-        ));
+        return Err(crate::message![
+            "at its maximum speed one pump gives ",
+            against(Kind::Head, h(max), head),
+            " at ",
+            flow(qp),
+            ", below the ",
+            message::head(head),
+            " needed"
+        ]);
     }
     if h(min) >= head {
         return Ok(None);
     }
     brent(|r| h(r) - head, min, max, 1e-10, 100)
         .map(Some)
-        .map_err(|e| e.message)
+        .map_err(|e| Message::text(e.message))
 }
 
 /// The set with `k` pumps running at total flow `q` (m³/s) against the system `sys`,
@@ -140,7 +144,7 @@ pub fn evaluate(
     k: u32,
     q: f64,
     set_head: Option<(f64, bool)>,
-) -> Result<SetState, String> {
+) -> Result<SetState, Message> {
     let k = k.clamp(1, m.parallel.max(1));
     let qp = q / k as f64;
     let ser = m.series.max(1) as f64;
@@ -158,17 +162,26 @@ pub fn evaluate(
     };
     let pump = scaled(m, ratio);
     if qp > pump.domain().1 * (1.0 + 1e-9) {
-        return Err(format!(
-            "{k} pump(s) would each carry {qp:.5} m3/s, beyond the published curve's end at {:.5} m3/s",
-            pump.domain().1
-        ));
+        return Err(crate::message![
+            pumps_running(k),
+            " would each carry ",
+            against(Kind::Flow, qp, pump.domain().1),
+            ", beyond the published curve's end at ",
+            flow(pump.domain().1)
+        ]);
     }
     let head_per_pump = pump.eval_head(qp);
     if (head_per_pump - branch) * ser < system_head - 1e-6 {
-        return Err(format!(
-            "{k} pump(s) give {:.2} m at {q:.5} m3/s, below the {system_head:.2} m the line needs",
-            (head_per_pump - branch) * ser
-        ));
+        return Err(crate::message![
+            pumps_running(k),
+            " give ",
+            against(Kind::Head, (head_per_pump - branch) * ser, system_head),
+            " at ",
+            flow(q),
+            ", below the ",
+            message::head(system_head),
+            " the line needs"
+        ]);
     }
     power_chain(
         m,
@@ -195,7 +208,7 @@ fn power_chain(
     system_head: f64,
     at_min_speed: bool,
     below_system_curve: bool,
-) -> Result<SetState, String> {
+) -> Result<SetState, Message> {
     let pump = scaled(m, ratio);
     let qp = q / k as f64;
     let ser = m.series.max(1) as f64;
@@ -205,7 +218,7 @@ fn power_chain(
         Some(e) => rho * G * qp * head_per_pump / e,
         None => pump
             .eval_shaft_power(qp)
-            .ok_or("the curve gives neither efficiency nor power here")?,
+            .ok_or_else(|| Message::text("the curve gives neither efficiency nor power here"))?,
     };
     let motor_load = shaft_per_pump / m.motor_rating_w;
     let motor_efficiency = match &m.motor_table {
@@ -260,7 +273,7 @@ fn power_chain(
 /// The set with `k` pumps running at fixed speed against `sys` at its duty point (the
 /// crossing of the set's curve with the system curve), for on/off control. `Err` when
 /// the curves do not meet within the published data.
-pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, String> {
+pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, Message> {
     let ratio = match m.speed {
         SpeedRange::Fixed(r) => r,
         SpeedRange::Variable { max, .. } => 1.0_f64.min(max),
@@ -269,10 +282,16 @@ pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, Str
     let k = k.clamp(1, m.parallel.max(1));
     let q = crate::analysis::duty::meeting_flow(&pump, sys, k as f64, m.series.max(1) as f64)
         .ok_or_else(|| {
-            format!(
-                "{k} pump(s) at fixed speed do not meet the system curve within the published data"
-            )
+            crate::message![
+                pumps_running(k),
+                " at fixed speed do not meet the system curve within the published data"
+            ]
         })?;
     let h = pump.eval_head(q / k as f64);
     power_chain(m, sys, k, ratio, q, h, sys.head(q), false, false)
+}
+
+/// "1 pump" or "k pumps": the count running, for messages.
+fn pumps_running(k: u32) -> String {
+    crate::numbers::count(k as usize, "pump", "pumps")
 }

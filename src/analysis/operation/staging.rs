@@ -8,19 +8,20 @@
 //! pump. Every count is evaluated (n ≤ 20), so the choice is exact, not a heuristic.
 
 use super::point::SetState;
+use crate::message::Message;
 use crate::model::operation::Staging;
 
 /// What one count gives at a point: its state and the power the choice compares
 /// (mean input power over the hours: the running power × the share of time running).
-pub type Outcome = Result<(SetState, f64), String>;
+pub type Outcome = Result<(SetState, f64), Message>;
 
 /// The count chosen, with every count's outcome (for the audit trail).
 #[derive(Clone, Debug)]
 pub struct Choice {
     /// The chosen state and its mean input power (W), or why no count delivers.
-    pub chosen: Result<(SetState, f64), String>,
+    pub chosen: Result<(SetState, f64), Message>,
     /// Per count k = 1..n: mean input power (W) or why that count does not deliver.
-    pub by_count: Vec<(u32, Result<f64, String>)>,
+    pub by_count: Vec<(u32, Result<f64, Message>)>,
 }
 
 /// Choose the running count among 1..=`n` by `staging`; `eval(k)` gives count k's
@@ -50,7 +51,7 @@ pub fn choose(
         None => Err(outcomes
             .last()
             .and_then(|(_, o)| o.as_ref().err().cloned())
-            .unwrap_or_else(|| "no count of pumps delivers this flow".into())),
+            .unwrap_or_else(|| Message::text("no count of pumps delivers this flow"))),
     };
     Choice {
         chosen,

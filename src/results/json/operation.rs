@@ -19,7 +19,7 @@ pub(super) struct PointOut<'a> {
     flow_m3_s: f64,
     hours: f64,
     delivered: bool,
-    failure: Option<&'a str>,
+    failure: Option<String>,
     pumps_running: Option<u32>,
     speed_rpm: Option<f64>,
     speed_ratio: Option<f64>,
@@ -108,14 +108,14 @@ pub(super) struct OperationOut<'a> {
     pub drive_losses: Option<&'static str>,
 }
 
-fn point(p: &PointResult) -> PointOut<'_> {
+fn point(p: &PointResult, units: Units) -> PointOut<'_> {
     let s = p.state.as_ref();
     PointOut {
         case: &p.case,
         flow_m3_s: p.flow,
         hours: p.hours,
         delivered: s.is_some(),
-        failure: p.failure.as_deref(),
+        failure: p.failure.as_ref().map(|m| units.render(m)),
         pumps_running: s.map(|s| s.running),
         speed_rpm: s.map(|s| s.speed_rpm),
         speed_ratio: s.map(|s| s.speed_ratio),
@@ -162,7 +162,7 @@ pub(super) fn operation<'a>(
         } else {
             "typical_curve"
         }),
-        profile: o.points.iter().map(point).collect(),
+        profile: o.points.iter().map(|p| point(p, units)).collect(),
         yearly: YearlyOut {
             energy_J: y.energy_j,
             cost: y.cost,
