@@ -324,3 +324,34 @@ fn a_date_that_does_not_exist_is_an_error() {
         assert_eq!(bad, !valid, "{date}");
     }
 }
+
+/// Issue 8 (review of the Orchard package): a US package printed the velocity ranges and
+/// the NPSH excess as metric figures converted ("1.97 ft/s to 4.921 ft/s", "at least
+/// 3.3 ft"). The rules of thumb are the trade's round figures of each system (2–5 ft/s
+/// suction, 5–10 ft/s discharge, 3 ft of NPSH excess; 0.6–1.5 m/s, 1.5–3 m/s, 1 m;
+/// common practice), so each design's units pick its own.
+#[test]
+fn rules_of_thumb_are_the_round_figures_of_the_design_units() {
+    let text_of = |src: &str| {
+        let c = dutyline::check(src, &dutyline::NoFiles);
+        let design = c.design.expect("the demo checks");
+        let analysis = dutyline::analysis::analyse(&design);
+        dutyline::results::to_text(&design, &analysis)
+    };
+    let us = text_of(DEMO);
+    for figure in [
+        "(2.00 ft/s to 5.00 ft/s)",
+        "(5.00 ft/s to 10.00 ft/s)",
+        "(at least 3.0 ft)",
+    ] {
+        assert!(us.contains(figure), "US text lacks {figure}");
+    }
+    let si = text_of(&DEMO.replacen("units = us", "units = si", 1));
+    for figure in [
+        "(0.60 m/s to 1.50 m/s)",
+        "(1.50 m/s to 3.00 m/s)",
+        "(at least 1.00 m)",
+    ] {
+        assert!(si.contains(figure), "SI text lacks {figure}");
+    }
+}

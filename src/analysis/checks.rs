@@ -9,7 +9,7 @@
 use super::duty::{Duty, Headroom};
 use super::limits::{self, CheckId, Limit, Source};
 use crate::message::{self, flow, head, Kind, Message, Part};
-use crate::model::{Case, Design, Metric, PumpCandidate, Requirement};
+use crate::model::{Case, Design, Metric, PumpCandidate, ReportUnits, Requirement};
 
 /// The outcome of a check.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
@@ -90,18 +90,41 @@ pub const POR: (f64, f64) = (limits::POR_LOW.value, limits::POR_HIGH.value);
 pub const AOR: (f64, f64) = (limits::AOR_LOW.value, limits::AOR_HIGH.value);
 /// Default NPSH margin ratio (see [`limits::NPSH_RATIO`]).
 pub const DEFAULT_NPSH_RATIO: f64 = limits::NPSH_RATIO.value;
-/// Smallest NPSH excess, m (see [`limits::NPSH_EXCESS_M`]).
-pub const MIN_NPSH_EXCESS_M: f64 = limits::NPSH_EXCESS_M.value;
-/// Typical suction velocities, m/s (see [`limits::SUCTION_VELOCITY_LOW`]).
-pub const SUCTION_VELOCITY: (f64, f64) = (
-    limits::SUCTION_VELOCITY_LOW.value,
-    limits::SUCTION_VELOCITY_HIGH.value,
-);
-/// Typical discharge velocities, m/s (see [`limits::DISCHARGE_VELOCITY_LOW`]).
-pub const DISCHARGE_VELOCITY: (f64, f64) = (
-    limits::DISCHARGE_VELOCITY_LOW.value,
-    limits::DISCHARGE_VELOCITY_HIGH.value,
-);
+/// Typical suction velocities in the design's practice, m/s (see
+/// [`limits::SUCTION_VELOCITY_LOW`]).
+pub fn suction_velocity(units: ReportUnits) -> (f64, f64) {
+    (
+        limits::SUCTION_VELOCITY_LOW.for_units(units).value,
+        limits::SUCTION_VELOCITY_HIGH.for_units(units).value,
+    )
+}
+
+/// Typical discharge velocities in the design's practice, m/s (see
+/// [`limits::DISCHARGE_VELOCITY_LOW`]).
+pub fn discharge_velocity(units: ReportUnits) -> (f64, f64) {
+    (
+        limits::DISCHARGE_VELOCITY_LOW.for_units(units).value,
+        limits::DISCHARGE_VELOCITY_HIGH.for_units(units).value,
+    )
+}
+
+/// The NPSH limits a case must meet: the margin ratio ([`npsh_ratio_limit`]) and the
+/// smallest excess of the design's practice ([`limits::NPSH_EXCESS`]).
+pub fn npsh_limits(design: &Design, case: &Case) -> NpshLimits {
+    NpshLimits {
+        ratio: npsh_ratio_limit(design, case),
+        excess: limits::NPSH_EXCESS.for_units(design.project.units),
+    }
+}
+
+/// The two NPSH limits of a duty.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct NpshLimits {
+    /// NPSHa / NPSH3 at least (a ratio).
+    pub ratio: Limit,
+    /// NPSHa − NPSH3 at least, m (below it: a warning).
+    pub excess: Limit,
+}
 
 fn applies(r: &Requirement, case: &Case) -> bool {
     r.cases.is_empty() || r.cases.contains(&case.name)
@@ -129,9 +152,9 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) ->
     out.push(npsh_margin(
         d.npsh_available,
         d.npsh_required,
-        npsh_ratio_limit(design, case),
+        npsh_limits(design, case),
     ));
-    out.extend(velocity_checks(d));
+    out.extend(velocity_checks(d, design.project.units));
     for r in design.requirements.iter().filter(|r| applies(r, case)) {
         out.push(requirement_check(r, d));
     }
@@ -213,7 +236,8 @@ fn operating_region(d: &Duty) -> Check {
 }
 
 /// NPSH available against NPSH required (NPSH3, 3 % head drop) at one point.
-pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check {
+pub fn npsh_margin(available: f64, required: Option<f64>, npsh: NpshLimits) -> Check {
+    let (ratio, min_excess) = (npsh.ratio, npsh.excess.value);
     let Some(nr) = required.filter(|n| *n > 0.0) else {
         return Check::typed(
             CheckId::NpshMargin,
@@ -236,7 +260,7 @@ pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check
     let excess = available - nr;
     let status = if available <= nr || r < ratio.value {
         Status::Fail
-    } else if excess < MIN_NPSH_EXCESS_M {
+    } else if excess < min_excess {
         Status::Warn
     } else {
         Status::Pass
@@ -263,9 +287,9 @@ pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check
             " (limit ",
             limit_ratio,
             "); excess ",
-            message::against(Kind::Head, excess, MIN_NPSH_EXCESS_M),
+            message::against(Kind::Head, excess, min_excess),
             " (at least ",
-            message::against(Kind::Head, MIN_NPSH_EXCESS_M, excess),
+            message::against(Kind::Head, min_excess, excess),
             ")"
         ]
     };
@@ -273,7 +297,7 @@ pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check
         msg.push_str(": the pump will cavitate");
     }
     let origin = if status == Status::Warn {
-        limits::NPSH_EXCESS_M.source
+        npsh.excess.source
     } else {
         ratio.source
     };
@@ -287,11 +311,11 @@ pub fn npsh_margin(available: f64, required: Option<f64>, ratio: Limit) -> Check
     )
 }
 
-fn velocity_checks(d: &Duty) -> Vec<Check> {
+fn velocity_checks(d: &Duty, units: ReportUnits) -> Vec<Check> {
     let mut out = Vec::new();
     for (label, v, (lo, hi)) in [
-        ("suction", d.suction_velocity, SUCTION_VELOCITY),
-        ("discharge", d.discharge_velocity, DISCHARGE_VELOCITY),
+        ("suction", d.suction_velocity, suction_velocity(units)),
+        ("discharge", d.discharge_velocity, discharge_velocity(units)),
     ] {
         let Some(v) = v else { continue };
         let (status, note, bound) = if v > hi {
@@ -325,7 +349,7 @@ fn velocity_checks(d: &Duty) -> Vec<Check> {
                     speed(hi, v),
                     ")"
                 ],
-                limits::SUCTION_VELOCITY_LOW.source,
+                limits::SUCTION_VELOCITY_LOW.for_units(units).source,
             )
             .about(label),
         );

@@ -3,6 +3,8 @@
 //!
 //! Limits are compared in SI; the outputs print them in report units.
 
+use crate::model::ReportUnits;
+
 /// The stable id of a check: `as_str()` is the string of the JSON and the diff.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
 pub enum CheckId {
@@ -297,16 +299,52 @@ pub const AOR_HIGH: Limit = AOR_LOW.with_value(1.30);
 /// NPSH margin ratio NPSHa/NPSH3 when the design states none: 1.3, within the 1.1–2.0
 /// range of ANSI/HI 9.6.1 for general water services.
 pub const NPSH_RATIO: Limit = Limit::recalled(1.3, HI_961, "NPSH margin ratio guidance");
-/// Smallest NPSH excess NPSHa − NPSHr: 1 m (about 3 ft).
-pub const NPSH_EXCESS_M: Limit = Limit::common_practice(1.0, "NPSH excess of about 1 m");
-/// Typical suction velocity, m/s: 0.6–1.5 (2–5 ft/s).
-pub const SUCTION_VELOCITY_LOW: Limit = Limit::common_practice(0.6, "typical velocities");
-/// Upper end of the typical suction velocity, m/s.
-pub const SUCTION_VELOCITY_HIGH: Limit = SUCTION_VELOCITY_LOW.with_value(1.5);
-/// Typical discharge velocity, m/s: 1.5–3 (5–10 ft/s).
-pub const DISCHARGE_VELOCITY_LOW: Limit = SUCTION_VELOCITY_LOW.with_value(1.5);
-/// Upper end of the typical discharge velocity, m/s.
-pub const DISCHARGE_VELOCITY_HIGH: Limit = SUCTION_VELOCITY_LOW.with_value(3.0);
+/// A rule of thumb the trade states as a round figure in each system of units (1 m of
+/// NPSH excess in SI practice, 3 ft in US practice): the design's units pick the figure,
+/// so a US package reads "2 ft/s to 5 ft/s", not the metric figure converted.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct PracticeLimit {
+    /// The SI practice figure (SI value).
+    pub si: Limit,
+    /// The US practice figure, converted exactly to SI (SI value).
+    pub us: Limit,
+}
+
+impl PracticeLimit {
+    /// The figure of the design's system of units.
+    pub const fn for_units(&self, units: ReportUnits) -> Limit {
+        match units {
+            ReportUnits::Si => self.si,
+            ReportUnits::Us => self.us,
+        }
+    }
+}
+
+/// One foot, m (exact, by the 1959 international yard and pound agreement).
+const FT: f64 = 0.3048;
+
+/// Smallest NPSH excess NPSHa − NPSHr, m: 1 m in SI practice, 3 ft in US practice.
+pub const NPSH_EXCESS: PracticeLimit = PracticeLimit {
+    si: Limit::common_practice(1.0, "NPSH excess of about 1 m"),
+    us: Limit::common_practice(3.0 * FT, "NPSH excess of about 3 ft"),
+};
+/// Typical suction velocity, m/s, lower end: 0.6 m/s (SI practice), 2 ft/s (US).
+pub const SUCTION_VELOCITY_LOW: PracticeLimit = PracticeLimit {
+    si: Limit::common_practice(0.6, "typical velocities"),
+    us: Limit::common_practice(2.0 * FT, "typical velocities"),
+};
+/// Typical suction velocity, m/s, upper end: 1.5 m/s (SI practice), 5 ft/s (US).
+pub const SUCTION_VELOCITY_HIGH: PracticeLimit = PracticeLimit {
+    si: SUCTION_VELOCITY_LOW.si.with_value(1.5),
+    us: SUCTION_VELOCITY_LOW.us.with_value(5.0 * FT),
+};
+/// Typical discharge velocity, m/s, lower end: 1.5 m/s (SI practice), 5 ft/s (US).
+pub const DISCHARGE_VELOCITY_LOW: PracticeLimit = SUCTION_VELOCITY_HIGH;
+/// Typical discharge velocity, m/s, upper end: 3 m/s (SI practice), 10 ft/s (US).
+pub const DISCHARGE_VELOCITY_HIGH: PracticeLimit = PracticeLimit {
+    si: SUCTION_VELOCITY_LOW.si.with_value(3.0),
+    us: SUCTION_VELOCITY_LOW.us.with_value(10.0 * FT),
+};
 /// Smallest headroom of speed or diameter to its limit, as a fraction of the limit: 5 %.
 pub const HEADROOM: Limit = Limit::common_practice(0.05, "speed or diameter headroom of 5 %");
 /// Site altitude up to which motor ratings hold, m (with 40 °C ambient): IEC 60034-1

@@ -135,7 +135,7 @@ fn evaluate(
     let shaft = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q);
     let npsha = sys.npsh_available_per_pump(q, q);
     let npshr = scaled.eval_npshr(q);
-    let npsh = checks::npsh_margin(npsha, npshr, checks::npsh_ratio_limit(design, dc));
+    let npsh = checks::npsh_margin(npsha, npshr, checks::npsh_limits(design, dc));
     let mut status = npsh.status;
     let mut msg = crate::message![format!("{prefix}: "), flow(q), " at ", head(h)];
     if let (Some(w), Some(m)) = (shaft, motor) {

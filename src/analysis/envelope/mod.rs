@@ -509,7 +509,7 @@ fn worst_checks(
         .cloned();
     if let (Some(n), Some(w)) = (nominal_npsh, env.npsh_margin_worst) {
         if let Ok(d) = &env.corners[w.corner].duty {
-            let limit = checks::npsh_ratio_limit(ctx.design, ctx.case);
+            let limit = checks::npsh_limits(ctx.design, ctx.case);
             out.push(WorstCheck {
                 nominal: n,
                 worst: checks::npsh_margin(d.npsh_available, d.npsh_required, limit),
