@@ -321,10 +321,14 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
     if let Some(ip) = d.input_power {
         let _ = writeln!(
             o,
-            "    input power: {} (motor {}, drive {})",
+            "    input power: {} (motor {}, {})",
             pw.fmt(ip),
             percent(d.motor_efficiency),
-            percent(d.drive_efficiency)
+            if d.drive_efficiency < 1.0 {
+                format!("drive {}", percent(d.drive_efficiency))
+            } else {
+                "no drive".to_string()
+            }
         );
     }
     if let (Some(se), Some(w)) = (d.specific_energy, d.wire_to_water_efficiency) {

@@ -293,6 +293,8 @@ fn candidate(
         )),
     });
     let se = units.specific_energy();
+    // Without a drive there is no drive efficiency to print (not "100.0 %").
+    let no_drive = (!op.variable_speed).then_some("none");
     blocks.push(Block::Table {
         columns: vec![
             Column::new(format!("Flow ({})", fl.label), 0.10, Align::Right),
@@ -318,8 +320,9 @@ fn candidate(
                     s(p, &|x| pw.figure(x.shaft_power)),
                     s(p, &|x| percent(x.motor_load)),
                     s(p, &|x| percent(x.motor_efficiency)),
-                    s(p, &|x| percent(x.drive_efficiency)),
-                    s(p, &|x| pw.figure(x.drive_losses)),
+                    no_drive.map_or_else(|| s(p, &|x| percent(x.drive_efficiency)), String::from),
+                    no_drive
+                        .map_or_else(|| s(p, &|x| pw.figure(x.drive_losses)), |_| "—".to_string()),
                     s(p, &|x| pw.figure(x.input_power)),
                     or_dash(p.wire_to_water.map(percent)),
                     or_dash(p.specific_energy.map(|e| se.figure(e))),
