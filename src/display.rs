@@ -102,6 +102,12 @@ impl Units {
     pub fn new(system: ReportUnits) -> Units {
         Units { system }
     }
+    fn pick_label(&self, si: &'static str, us: &'static str) -> &'static str {
+        match self.system {
+            ReportUnits::Si => si,
+            ReportUnits::Us => us,
+        }
+    }
     fn pick(&self, si: Shown, us: Shown) -> Shown {
         match self.system {
             ReportUnits::Si => si,
@@ -227,6 +233,23 @@ impl Units {
             },
         )
     }
+    /// A gauge pressure (above the local atmosphere): kPa or psig (from Pa). US practice
+    /// names the reference in the unit; SI practice writes gauge pressures plain and
+    /// marks absolute ones, so neither reader takes a gauge figure for an absolute one
+    /// (the classic NPSH error).
+    pub fn gauge_pressure(&self) -> Shown {
+        Shown {
+            label: self.pick_label("kPa", "psig"),
+            ..self.pressure()
+        }
+    }
+    /// An absolute pressure: kPa abs or psia (from Pa).
+    pub fn absolute_pressure(&self) -> Shown {
+        Shown {
+            label: self.pick_label("kPa abs", "psia"),
+            ..self.pressure()
+        }
+    }
     /// Power: kW or hp (from W).
     pub fn power(&self) -> Shown {
         self.pick(
@@ -268,11 +291,19 @@ impl Units {
             ..self.velocity()
         }
     }
-    /// A pressure rating or a screened pressure: kPa or psi, one decimal.
+    /// A pressure rating, or a stress in a rating's basis: kPa or psi, one decimal
+    /// (ratings are gauge by the standards' convention and printed as they state them).
     pub fn rating(&self) -> Shown {
         Shown {
             decimals: 1,
             ..self.pressure()
+        }
+    }
+    /// A screened operating pressure along a line (gauge): kPa or psig, one decimal.
+    pub fn screened_pressure(&self) -> Shown {
+        Shown {
+            decimals: 1,
+            ..self.gauge_pressure()
         }
     }
     /// A modulus of elasticity or bulk modulus: GPa or ksi.
@@ -449,6 +480,8 @@ impl Units {
             Kind::Length => self.length(),
             Kind::Diameter => self.diameter(),
             Kind::Pressure => self.pressure(),
+            Kind::GaugePressure => self.gauge_pressure(),
+            Kind::AbsolutePressure => self.absolute_pressure(),
             Kind::Rating => self.rating(),
             Kind::Power => self.power(),
             Kind::Velocity => self.velocity(),

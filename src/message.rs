@@ -17,8 +17,12 @@ pub enum Kind {
     Length,
     /// Diameter, m.
     Diameter,
-    /// Pressure, Pa.
+    /// A pressure difference (a drop, a rise), Pa.
     Pressure,
+    /// A gauge pressure (above the local atmosphere), Pa.
+    GaugePressure,
+    /// An absolute pressure, Pa.
+    AbsolutePressure,
     /// A pressure rating or screened pressure, Pa.
     Rating,
     /// Power, W.

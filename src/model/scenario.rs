@@ -1065,7 +1065,7 @@ pub fn water_state_errors(
         };
         if let Some(pv) = boils {
             let vapour = if pv.is_finite() {
-                crate::message!["its vapour pressure ", value(Kind::Pressure, pv)]
+                crate::message!["its vapour pressure ", value(Kind::AbsolutePressure, pv)]
             } else {
                 crate::message!["it is above its critical point"]
             };
@@ -1081,7 +1081,7 @@ pub fn water_state_errors(
                         ));
                         m.append(&vapour);
                         m.push(" is at or above the surface's absolute pressure ");
-                        m.push(value(Kind::Pressure, surface));
+                        m.push(value(Kind::AbsolutePressure, surface));
                         m.push("; the case cannot be analysed");
                         m
                     }),

@@ -17,7 +17,8 @@ pub fn absolute_pressure_errors(
     design: &Design,
     render: &dyn Fn(&Message) -> String,
 ) -> Vec<Diagnostic> {
-    let pressure = |si| message::value(Kind::Pressure, si);
+    let gauge_of = |si| message::value(Kind::GaugePressure, si);
+    let absolute = |si| message::value(Kind::AbsolutePressure, si);
     let mut out = Vec::new();
     for case in &design.cases {
         let Some(barometric) = barometric_pa(&case.scenario) else {
@@ -36,11 +37,11 @@ pub fn absolute_pressure_errors(
                     "case {}: tank {} has a gauge pressure of ",
                     case.name, tank.name
                 ),
-                pressure(gauge),
+                gauge_of(gauge),
                 " where the barometric pressure is ",
-                pressure(barometric),
+                absolute(barometric),
                 ": its absolute pressure would be ",
-                pressure(barometric + gauge),
+                absolute(barometric + gauge),
                 ", below absolute zero"
             ]);
             let at = if case.span == Span::new(0, 0) {
@@ -52,9 +53,9 @@ pub fn absolute_pressure_errors(
                 Diagnostic::error(Code::OutOfRange, message, Some(at))
                     .with_secondary(tank.span, "the tank")
                     .with_help(render(&crate::message![
-                        "a vacuum reaches at most −",
-                        pressure(barometric),
-                        " (gauge) at this site; give a gauge pressure above that, or the absolute pressure with `kPa(a)` or `psia`"
+                        "a vacuum reaches at most ",
+                        message::value(Kind::Pressure, barometric),
+                        " below atmospheric at this site; give a gauge pressure above that, or the absolute pressure with `kPa(a)` or `psia`"
                     ])),
             );
         }

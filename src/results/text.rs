@@ -43,22 +43,22 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 .unwrap_or_default(),
             u.density().fmt(s.fluid.density),
             u.viscosity().fmt(s.fluid.viscosity),
-            u.pressure().fmt(s.fluid.vapor_pressure)
+            u.absolute_pressure().fmt(s.fluid.vapor_pressure)
         );
         let _ = writeln!(
             o,
             "  barometric pressure: {}",
-            u.pressure().fmt(s.barometric_pa)
+            u.absolute_pressure().fmt(s.barometric_pa)
         );
         let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
         let _ = writeln!(
             o,
-            "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {} absolute; pipe condition {}",
+            "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {}; pipe condition {}",
             u.elevation().fmt(s.source_level),
             u.elevation().fmt(s.destination_level),
             u.elevation().fmt(s.centreline),
-            u.pressure().fmt(s.source_abs_pa),
-            u.pressure().fmt(s.destination_abs_pa),
+            u.absolute_pressure().fmt(s.source_abs_pa),
+            u.absolute_pressure().fmt(s.destination_abs_pa),
             s.pipe_condition.keyword()
         );
         for g in &s.segments {
@@ -461,7 +461,7 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
 
 /// The network at a duty point: every node (head, pressure, flags) and link.
 fn network_detail(o: &mut String, u: &Units, n: &crate::analysis::network::station::NetworkAtDuty) {
-    let (fl, hd, pr, vel) = (u.flow(), u.head(), u.pressure(), u.velocity());
+    let (fl, hd, pr, vel) = (u.flow(), u.head(), u.gauge_pressure(), u.velocity());
     for x in &n.nodes {
         let mut flags = Vec::new();
         if x.below_required {

@@ -48,7 +48,7 @@ pub fn at_duties(
 
 /// The node-pressure checks at one duty.
 pub fn node_checks(at: &NetworkAtDuty) -> Vec<Check> {
-    let pr = |si| message::value(Kind::Pressure, si);
+    let pr = |si| message::value(Kind::GaugePressure, si);
     let mut out = Vec::new();
     for n in at.nodes.iter().filter(|n| n.kind != "tank") {
         if let Some(req) = n.required_pressure {
@@ -82,7 +82,7 @@ pub fn node_checks(at: &NetworkAtDuty) -> Vec<Check> {
 }
 
 fn vacuum_check(n: &NodeAtDuty) -> Option<Check> {
-    let pr = message::value(Kind::Pressure, n.pressure);
+    let pr = message::value(Kind::GaugePressure, n.pressure);
     let (status, message, origin) = if n.near_vapour {
         (
             Status::Fail,
@@ -132,8 +132,8 @@ pub fn requirement_checks(design: &Design, case: &str, at: &NetworkAtDuty) -> Ve
             let (value, shown, limit_shown, what) = match r.quantity {
                 NodeQuantity::Pressure => (
                     n.pressure,
-                    message::value(Kind::Pressure, n.pressure),
-                    message::value(Kind::Pressure, r.limit_si),
+                    message::value(Kind::GaugePressure, n.pressure),
+                    message::value(Kind::GaugePressure, r.limit_si),
                     "pressure",
                 ),
                 NodeQuantity::Flow => {

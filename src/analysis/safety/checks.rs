@@ -33,7 +33,7 @@ fn rating_against(si: f64, other: f64) -> message::Part {
 
 /// A gauge pressure (Pa) that must not read like `other`.
 fn pressure_against(si: f64, other: f64) -> message::Part {
-    message::against(Kind::Pressure, si, other)
+    message::against(Kind::GaugePressure, si, other)
 }
 
 /// All safety checks of a case.
@@ -175,12 +175,11 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
                 let mut m = crate::message![
                     format!("line {}: lowest operating pressure ", l.name),
                     pressure_against(pmin, floor),
-                    " (gauge) "
+                    " "
                 ];
                 m.append(&place(l, i));
                 m.push(" against vapour pressure plus margin ");
                 m.push(pressure_against(floor, pmin));
-                m.push(" (gauge)");
                 m
             },
             margin.source,

@@ -49,8 +49,8 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
                     .unwrap_or_else(|| "—".into()),
                 units.density().text(system.fluid.density),
                 units.viscosity().text(system.fluid.viscosity),
-                units.pressure().text(system.fluid.vapor_pressure),
-                units.pressure().text(system.barometric_pa),
+                units.absolute_pressure().text(system.fluid.vapor_pressure),
+                units.absolute_pressure().text(system.barometric_pa),
             ]
         })
         .collect();
@@ -104,7 +104,11 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
                 Align::Right,
             ),
             Column::new("Pump centreline", 0.16, Align::Right),
-            Column::new("Surface pressures (gauge)", 0.18, Align::Right),
+            Column::new(
+                format!("Surface pressures ({})", units.gauge_pressure().label),
+                0.18,
+                Align::Right,
+            ),
             Column::new("Static head", 0.14, Align::Right),
         ],
         rows: analysis
@@ -120,11 +124,11 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
                     format!(
                         "{} / {}",
                         units
-                            .pressure()
-                            .text(system.source_abs_pa - system.barometric_pa),
+                            .gauge_pressure()
+                            .figure(system.source_abs_pa - system.barometric_pa),
                         units
-                            .pressure()
-                            .text(system.destination_abs_pa - system.barometric_pa)
+                            .gauge_pressure()
+                            .figure(system.destination_abs_pa - system.barometric_pa)
                     ),
                     units.head().text(system.static_head),
                 ]

@@ -61,7 +61,7 @@ pub(super) fn chapter(
         links_table(blocks, net, units);
     }
     if !design.node_requirements.is_empty() {
-        let pr = units.pressure();
+        let pr = units.gauge_pressure();
         let fl = units.flow();
         let rows = design
             .node_requirements
@@ -226,7 +226,7 @@ fn state_tables(blocks: &mut Vec<Block>, what: &str, at: &NetworkAtDuty, units: 
     let (fl, hd, pr, vel, el) = (
         units.flow(),
         units.head(),
-        units.pressure(),
+        units.gauge_pressure(),
         units.velocity(),
         units.elevation(),
     );

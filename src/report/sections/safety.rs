@@ -126,7 +126,7 @@ fn shutoff(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
         "Highest static suction pressure pₛ".into(),
         format!(
             "{} (case {})",
-            units.pressure().fmt(so.suction_pressure),
+            units.gauge_pressure().fmt(so.suction_pressure),
             so.suction_case
         ),
     ));
@@ -300,7 +300,7 @@ fn grade_range(series: &[Series]) -> Option<(f64, f64)> {
 }
 
 fn pressure_table(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
-    let (ln, el, pr) = (units.length(), units.elevation(), units.rating());
+    let (ln, el, pr) = (units.length(), units.elevation(), units.screened_pressure());
     let cases: Vec<(&CaseSafety, &LineSafety)> = s
         .cases
         .iter()
