@@ -2,7 +2,8 @@
 //! the maximum, the capacity at the limit in every case, and a warning naming both
 //! cases where a case without its own flow requirement delivers less at its limit than
 //! another case requires. The Kestrel Ridge demo's hot, aged-pipe case delivers
-//! 531 m³/h at full speed while peak requires 560 m³/h.
+//! 531 m³/h at full speed while peak requires 560 m³/h (without the demo's own
+//! requirement for that case).
 
 mod common;
 use common::said;
@@ -11,12 +12,20 @@ use dutyline::analysis::checks::Status;
 use dutyline::analysis::Analysis;
 use dutyline::diagnostics::Code;
 
+/// The Kestrel demo with flow requirements for peak and average only: the demo itself
+/// states what low_well and hot_aged must deliver (520 m³/h), which the warning asks for.
 fn kestrel() -> String {
     let path = format!(
         "{}/examples-demo/kestrel-booster.duty",
         env!("CARGO_MANIFEST_DIR")
     );
-    std::fs::read_to_string(path).expect("demo")
+    let demo = std::fs::read_to_string(path).expect("demo");
+    let own = "    flow >= 520 m^3/h for low_well, hot_aged\n";
+    assert!(
+        demo.contains(own),
+        "the demo's own requirement for low_well and hot_aged"
+    );
+    demo.replacen(own, "", 1)
 }
 
 fn analyse(src: &str) -> Analysis {
