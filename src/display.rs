@@ -48,6 +48,18 @@ impl Shown {
     pub fn figure(&self, si: f64) -> String {
         typeset(self.value(si), self.decimals)
     }
+    /// A column of figures (SI values, in order) with as many more decimals (up to
+    /// three) as it takes for neighbours that differ not to print alike, so a table of
+    /// stations never shows "4, 4" for 3.9 and 4.4; equal neighbours still print alike.
+    pub fn figures_apart(&self, column: &[f64]) -> Vec<String> {
+        let shown: Vec<f64> = column.iter().map(|&si| self.value(si)).collect();
+        let decimals = shown
+            .windows(2)
+            .map(|w| decimals_apart(self.decimals, w[0], w[1]).min(self.decimals + 3))
+            .max()
+            .unwrap_or(self.decimals);
+        shown.iter().map(|&v| typeset(v, decimals)).collect()
+    }
 }
 
 /// The fewest decimals, from `base` up to `base + 4`, at which `a` and `b` print
@@ -611,5 +623,22 @@ mod render_tests {
             Units::new(ReportUnits::Si).render(&m),
             "1.5004 m/s above 1.4996 m/s"
         );
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Stations 0.9 ft apart print with a decimal (not "4, 4"); a repeated station
+    /// still prints twice alike.
+    #[test]
+    fn neighbouring_figures_print_apart() {
+        let ft = Units::new(ReportUnits::Us).length();
+        let column: Vec<f64> = [0.0, 0.0, 3.9, 4.4, 5.0].iter().map(|x| x * FT).collect();
+        let shown = ft.figures_apart(&column);
+        assert_eq!(shown, ["0.0", "0.0", "3.9", "4.4", "5.0"]);
+        let wide: Vec<f64> = [0.0, 100.0, 200.0].iter().map(|x| x * FT).collect();
+        assert_eq!(ft.figures_apart(&wide), ["0", "100", "200"]);
     }
 }

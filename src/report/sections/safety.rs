@@ -339,10 +339,12 @@ fn pressure_table(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) 
         w,
         Align::Right,
     ));
+    let chainages: Vec<f64> = base.stations.iter().map(|st| st.chainage).collect();
+    let chainage_text = ln.figures_apart(&chainages);
     let rows = (0..base.stations.len())
         .map(|k| {
             let st = &base.stations[k];
-            let mut r = vec![ln.figure(st.chainage), el.figure(st.elevation)];
+            let mut r = vec![chainage_text[k].clone(), el.figure(st.elevation)];
             for (_, l) in &cases {
                 r.push(
                     l.pressure_duty
