@@ -280,9 +280,9 @@ impl Limit {
 }
 
 /// ANSI/HI 9.6.3 (Rotodynamic pumps, guideline for operating regions).
-const HI_963: &str = "ANSI/HI 9.6.3 Rotodynamic Pumps — Guideline for Operating Regions";
+const HI_963: &str = "ANSI/HI 9.6.3-2017 Rotodynamic Pumps — Guideline for Operating Regions";
 /// ANSI/HI 9.6.1 (Rotodynamic pumps, guideline for NPSH margin).
-const HI_961: &str = "ANSI/HI 9.6.1 Rotodynamic Pumps — Guideline for NPSH Margin";
+const HI_961: &str = "ANSI/HI 9.6.1-2017 Rotodynamic Pumps — Guideline for NPSH Margin";
 
 /// Preferred operating region, lower end: 70 % of BEP flow.
 pub const POR_LOW: Limit = Limit::recalled(0.70, HI_963, "preferred operating region");

@@ -121,10 +121,13 @@ const SI: &[(&str, &str)] = &[
     ("SUMP", "151 m"),
     ("RESERVOIR", "190 m"),
     ("CENTRELINE", "150 m"),
-    ("SUCTION_PIPE", "ductile_iron 8 in class 350 { length = 6 m"),
+    (
+        "SUCTION_PIPE",
+        "cement_lined_ductile_iron 8 in class 350 { length = 6 m",
+    ),
     (
         "DISCHARGE_PIPE",
-        "ductile_iron 6 in class 350 { length = 450 m",
+        "cement_lined_ductile_iron 6 in class 350 { length = 450 m",
     ),
     ("VALVE", "butterfly"),
     ("LOW_SUMP", "150.2 m"),

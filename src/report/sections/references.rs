@@ -29,7 +29,7 @@ impl Provenance {
 
 /// The references: publication (title, edition, table or clause), what it supplies,
 /// and how its values came in.
-const REFERENCES: [(&str, &str, Provenance); 31] = [
+const REFERENCES: [(&str, &str, Provenance); 42] = [
     ("IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997 for the Thermodynamic Properties of Water and Steam (IAPWS-IF97).", "density, vapour pressure", Provenance::Method),
     ("IAPWS R12-08(2008), Release on the IAPWS Formulation 2008 for the Viscosity of Ordinary Water Substance.", "viscosity", Provenance::Method),
     ("U.S. Standard Atmosphere, 1976. NOAA, NASA, USAF, Washington D.C.; ISO 2533:1975 Standard Atmosphere.", "barometric pressure at the site elevation", Provenance::Method),
@@ -49,10 +49,10 @@ const REFERENCES: [(&str, &str, Provenance); 31] = [
     ("ASTM B88, Seamless Copper Water Tube; AWWA C151/A21.51, Ductile-Iron Pipe, Centrifugally Cast.", "dimensions of copper tube and ductile iron pipe", Provenance::Recalled),
     ("Fritsch, F.N. and Carlson, R.E. (1980), Monotone piecewise cubic interpolation. SIAM J. Numer. Anal. 17(2), 238–246.", "monotone curve fit", Provenance::Method),
     ("Brent, R.P. (1973), Algorithms for Minimization without Derivatives. Prentice-Hall, ch. 4.", "duty-point root finding", Provenance::Method),
-    ("ANSI/HI 9.6.1, Rotodynamic Pumps — Guideline for NPSH Margin. Hydraulic Institute.", "NPSH margin ratios; NPSH3 definition", Provenance::Recalled),
-    ("ANSI/HI 9.6.3, Rotodynamic Pumps — Guideline for Operating Regions. Hydraulic Institute.", "preferred operating region 70–120 % of BEP flow", Provenance::Recalled),
-    ("ANSI/HI 9.6.7, Rotodynamic Pumps — Guideline for Effects of Liquid Viscosity on Performance. Hydraulic Institute.", "viscosity parameter B", Provenance::Recalled),
-    ("ISO 9906:2012, Rotodynamic pumps — Hydraulic performance acceptance tests — Grades 1, 2 and 3.", "acceptance tolerances (not applied)", Provenance::Recalled),
+    ("ANSI/HI 9.6.1-2017, Rotodynamic Pumps — Guideline for NPSH Margin. Hydraulic Institute (edition from memory).", "NPSH margin ratios (1.1–2.0 for general water services); NPSH3 definition", Provenance::Recalled),
+    ("ANSI/HI 9.6.3-2017, Rotodynamic Pumps — Guideline for Operating Regions. Hydraulic Institute (edition from memory).", "preferred operating region 70–120 % of BEP flow; rising head curves", Provenance::Recalled),
+    ("ANSI/HI 9.6.7-2015, Rotodynamic Pumps — Guideline for Effects of Liquid Viscosity on Performance. Hydraulic Institute (edition from memory).", "viscosity parameter B", Provenance::Recalled),
+    ("ISO 9906:2012, Rotodynamic pumps — Hydraulic performance acceptance tests — Grades 1, 2 and 3.", "acceptance grades, Table 8 tolerance factors: duty envelopes", Provenance::Recalled),
     ("NEMA MG 1, Motors and Generators, Parts 12, 30 and 31 (ratings, service factor, inverter-fed motors).", "standard ratings and service factor", Provenance::Recalled),
     ("IEC 60034-1, Rotating electrical machines — Part 1: Rating and performance (duty type S1).", "continuous rating", Provenance::Recalled),
     ("IEC 60072-1, Dimensions and output series for rotating electrical machines — Part 1.", "standard output ratings", Provenance::Recalled),
@@ -60,6 +60,17 @@ const REFERENCES: [(&str, &str, Provenance); 31] = [
     ("Washington State Energy Office (1993), Energy-Efficient Electric Motor Selection Handbook; reproduced in U.S. DOE (1997), Determining Electric Motor Load and Efficiency, DOE/GO-10097-517, Figure 2.", "typical motor part-load efficiency as a share of full-load efficiency", Provenance::RecalledCrossChecked),
     ("U.S. DOE (2012), Adjustable Speed Drive Part-Load Efficiency, Motor Systems Tip Sheet #11, Table 1.", "drive efficiency against load and rating (losses at part load)", Provenance::RecalledCrossChecked),
     ("IEC 61800-9-2:2017, Adjustable speed electrical power drive systems — Part 9-2: Ecodesign — Energy efficiency indicators, eight reference operating points.", "reference points of relative frequency and torque at which drive losses are declared", Provenance::Recalled),
+    ("Todini, E. and Pilati, S. (1988), A gradient algorithm for the analysis of pipe networks. In Coulbeck, B. and Orr, C.-H. (eds), Computer Applications in Water Supply, Vol. 1, Research Studies Press, 1–20.", "network solve (global gradient algorithm)", Provenance::Method),
+    ("IEC 60534-2-1:2011, Industrial-process control valves — Part 2-1: Flow capacity — Sizing equations for fluid flow under installed conditions.", "valve flow coefficients Kv and Cv", Provenance::Recalled),
+    ("Jacob, C.E. (1947), Drawdown test to determine effective radius of artesian well. Trans. ASCE 112, 1047–1070.", "well drawdown s = BQ + CQ²", Provenance::Method),
+    ("Sanks, R.L. (ed.) (1998), Pumping Station Design, 2nd ed. Butterworth-Heinemann.", "modified pump curve (each pump's own station piping)", Provenance::Recalled),
+    ("Korteweg, D.J. (1878), Über die Fortpflanzungsgeschwindigkeit des Schalles in elastischen Röhren. Annalen der Physik 241(12), 525–542; Wylie, E.B. and Streeter, V.L. (1993), Fluid Transients in Systems. Prentice Hall, ch. 2.", "pressure-wave speed and pipe restraint factors", Provenance::Recalled),
+    ("Joukowsky, N. (1900), Über den hydraulischen Stoss in Wasserleitungsröhren. Mém. Acad. Imp. Sci. St.-Pétersbourg 9(5); Michaud, J. (1878), Coups de bélier dans les conduites. Bull. Soc. Vaudoise Ing. Arch. 4.", "surge head of a sudden and of a slow flow change", Provenance::Method),
+    ("AWWA C150/A21.50, Thickness Design of Ductile-Iron Pipe; AWWA C104/A21.4, Cement-Mortar Lining for Ductile-Iron Pipe and Fittings.", "ductile iron pressure classes; lining thickness", Provenance::Recalled),
+    ("AWWA C900-16, Polyvinyl Chloride (PVC) Pressure Pipe and Fabricated Fittings, 4 In. Through 60 In.; AWWA Manual M23, PVC Pipe — Design and Installation.", "PVC pressure class, short-term rating, recurring-surge fatigue", Provenance::Recalled),
+    ("AWWA Manual M11, Steel Pipe — A Guide for Design and Installation; ASME B31.3, Process Piping, 304.1.2 and Table A-1.", "steel pipe pressure design", Provenance::Recalled),
+    ("ASME B16.5, Pipe Flanges and Flanged Fittings (group 1.1); ASME B16.1, Gray Iron Pipe Flanges and Flanged Fittings; AWWA C207, Steel Pipe Flanges for Waterworks Service.", "flange pressure–temperature ratings", Provenance::Recalled),
+    ("IEC 60034-30-1:2014, Rotating electrical machines — Part 30-1: Efficiency classes of line operated AC motors (IE code).", "motor full-load efficiency by class, 50 and 60 Hz", Provenance::Recalled),
     ("NIST Special Publication 811 (2008), Guide for the Use of the International System of Units, Appendix B.", "unit conversion factors", Provenance::Method),
 ];
 
