@@ -120,6 +120,39 @@ fn coarse_bins_keep_hours_and_volume() {
     assert_eq!(d.operation.profiles[0].points.len(), 3);
 }
 
+/// The results JSON carries the binning (`load_profiles[].hourly`), so a reviewer can
+/// rebuild the load points from the file: the same 3 bins as above.
+#[test]
+fn the_results_json_states_the_binning() {
+    let src = hourly_design("").replace("bins = 10", "bins = 3");
+    let c = dutyline::check(&src, &files(hourly_csv(8784)));
+    let d = c.design.unwrap_or_else(|| panic!("{:?}", c.diagnostics));
+    let a = dutyline::analysis::analyse(&d);
+    let json = dutyline::results::to_json(&d, &a, "x.duty", &src, &[]);
+    let v: serde_json::Value = serde_json::from_str(&json).unwrap();
+    let profile = &v["load_profiles"][0];
+    assert_eq!(profile["case"], "average");
+    let h = &profile["hourly"];
+    assert_eq!(h["source"], "hourly.csv");
+    assert_eq!(h["rows"], 8784);
+    assert_eq!(h["hours"], serde_json::json!([400.0, 3400.0, 3900.0]));
+    assert_eq!(h["zero_flow_hours"], 8784.0 - 7700.0);
+    let edges = h["bin_edges_m3_s"].as_array().unwrap();
+    assert_eq!(edges.len(), 4);
+    assert!((edges[3].as_f64().unwrap() * 3600.0 - 560.0).abs() < 1e-9);
+    let points = profile["points"].as_array().unwrap();
+    assert_eq!(points.len(), 3);
+    assert_eq!(points[1]["hours"], 3400.0);
+    // A design that gives the table itself has no binning.
+    let table = dutyline::check(&kestrel(), &files(hourly_csv(8760)))
+        .design
+        .unwrap();
+    let at = dutyline::analysis::analyse(&table);
+    let json = dutyline::results::to_json(&table, &at, "x.duty", &kestrel(), &[]);
+    let v: serde_json::Value = serde_json::from_str(&json).unwrap();
+    assert!(v["load_profiles"][0]["hourly"].is_null());
+}
+
 #[test]
 fn bad_hourly_files_get_located_diagnostics() {
     let src = hourly_design("");

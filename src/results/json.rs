@@ -34,6 +34,8 @@ struct Doc<'a> {
     candidates: Vec<inputs::Candidate<'a>>,
     /// Wave 2: each requirement across the cases, with each candidate's status.
     requirement_matrix: Vec<engineering::RequirementOut<'a>>,
+    /// Issue 13: the design's load profiles, with the binning of hourly ones.
+    load_profiles: Vec<operation::LoadProfileOut<'a>>,
     selection: Selection<'a>,
     /// Issue 14: the candidate whose duties the safety screen uses, and its shut-off.
     safety: safety::SafetyOut<'a>,
@@ -544,6 +546,7 @@ pub fn to_json(
             analysis,
             &analysis.requirement_matrix,
         ),
+        load_profiles: operation::load_profiles(design),
         selection: Selection {
             recommended: sel.recommended.as_deref(),
             criterion: sel.criterion,

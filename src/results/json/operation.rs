@@ -208,3 +208,68 @@ pub(super) fn operation<'a>(
         profile_failure: o.failure.as_deref(),
     }
 }
+
+/// A load profile as the design gives it (issue 13): its case, control, staging, design
+/// flow and load points, and, for `curve hourly from "file.csv"`, how the hourly flows
+/// were binned, so a reviewer can rebuild the points from the file.
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct LoadProfileOut<'a> {
+    case: &'a str,
+    control: &'static str,
+    staging: &'static str,
+    design_flow_m3_s: f64,
+    points: Vec<LoadPointOut>,
+    hourly: Option<HourlyOut<'a>>,
+}
+
+/// One load point of a profile: a flow and its hours per year.
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct LoadPointOut {
+    flow_m3_s: f64,
+    hours: f64,
+}
+
+/// The binning of an hourly profile: equal-width bins from zero flow.
+#[derive(Serialize)]
+#[cfg_attr(test, derive(schemars::JsonSchema))]
+pub(super) struct HourlyOut<'a> {
+    source: &'a str,
+    rows: usize,
+    bin_edges_m3_s: &'a [f64],
+    hours: &'a [f64],
+    mean_flow_m3_s: &'a [f64],
+    zero_flow_hours: f64,
+}
+
+/// The design's load profiles, in file order.
+pub(super) fn load_profiles(design: &Design) -> Vec<LoadProfileOut<'_>> {
+    design
+        .operation
+        .profiles
+        .iter()
+        .map(|p| LoadProfileOut {
+            case: &p.case,
+            control: p.control.keyword(),
+            staging: p.staging.keyword(),
+            design_flow_m3_s: p.design_flow,
+            points: p
+                .points
+                .iter()
+                .map(|lp| LoadPointOut {
+                    flow_m3_s: lp.flow,
+                    hours: lp.hours,
+                })
+                .collect(),
+            hourly: p.binning.as_ref().map(|b| HourlyOut {
+                source: &b.source,
+                rows: b.rows,
+                bin_edges_m3_s: &b.edges,
+                hours: &b.hours,
+                mean_flow_m3_s: &b.mean_flow,
+                zero_flow_hours: b.zero_hours,
+            }),
+        })
+        .collect()
+}
