@@ -192,3 +192,76 @@ fn out_of_range_evaluations_warn() {
     assert_eq!(validity_warnings(exit, ctx(1000.0, 0.1)).len(), 1); // turbulent K at Re = 1000
     assert!(validity_warnings(exit, ctx(1e5, 0.1)).is_empty());
 }
+
+/// A design line with a size change between two pipes, for β from the bores.
+fn line_with(first: &str, fitting: &str, second: &str) -> String {
+    format!(
+        "project {{ title = \"t\" }}\nfluid water {{ temperature = 20 degC }}\n\
+         tank a {{ level = 0 m }}\ntank b {{ level = 20 m }}\nstation {{ centreline = -1 m }}\n\
+         line suction from a to pump {{\n    pipe steel 8 in schedule 40 {{ length = 5 m }}\n    fitting exit\n}}\n\
+         line discharge from pump to b {{\n{first}{fitting}{second}    fitting exit\n}}\n\
+         pump P {{\n    speed = 1780 rpm\n    curve {{\n        flow m^3/h head m efficiency %\n        0 40 0\n        100 35 70\n        200 25 75\n    }}\n}}\n"
+    )
+}
+
+fn discharge_betas(src: &str) -> Vec<(Option<f64>, bool)> {
+    let c = dutyline::check(src, &dutyline::NoFiles);
+    let d = c.design.unwrap_or_else(|| panic!("{:?}", c.diagnostics));
+    d.base.lines[1]
+        .segments
+        .iter()
+        .flat_map(|s| &s.fittings)
+        .filter(|f| f.spec.needs_beta)
+        .map(|f| (f.beta, f.beta_from_bores))
+        .collect()
+}
+
+/// β = d₁/d₂ on the inner diameters (Crane TP-410): 6 in schedule 40 into 8 in schedule
+/// 40 steel is 6.065 / 7.981 in = 0.7599 (ASME B36.10M walls 0.280 and 0.322 in), not the
+/// nominal 6/8 = 0.75; a contraction takes the previous (larger) pipe; a stated β stays.
+#[test]
+fn a_size_change_without_beta_takes_the_ratio_of_the_bores() {
+    let six = "    pipe steel 6 in schedule 40 { length = 3 m }\n";
+    let eight = "    pipe steel 8 in schedule 40 { length = 30 m }\n";
+    let out = discharge_betas(&line_with(six, "    fitting expansion_sudden\n", eight));
+    assert_eq!(out.len(), 1);
+    let (beta, derived) = out[0];
+    assert!((beta.unwrap() - 6.065 / 7.981).abs() < 1e-9, "{beta:?}");
+    assert!(derived);
+    let out = discharge_betas(&line_with(
+        eight,
+        "",
+        &format!("{six}    fitting contraction_sudden\n"),
+    ));
+    assert!((out[0].0.unwrap() - 6.065 / 7.981).abs() < 1e-9 && out[0].1);
+    let stated = discharge_betas(&line_with(
+        six,
+        "    fitting expansion_sudden { beta = 0.7 }\n",
+        eight,
+    ));
+    assert_eq!(stated[0], (Some(0.7), false));
+}
+
+/// Without a larger neighbour the ratio cannot be taken: `missing-field` at the fitting.
+#[test]
+fn a_size_change_without_a_larger_neighbour_needs_its_beta() {
+    let eight = "    pipe steel 8 in schedule 40 { length = 30 m }\n";
+    let six = "    pipe steel 6 in schedule 40 { length = 3 m }\n";
+    for src in [
+        line_with(eight, "    fitting expansion_sudden\n", six),
+        line_with(six, "    fitting expansion_sudden\n", ""),
+    ] {
+        let c = dutyline::check(&src, &dutyline::NoFiles);
+        let d = c
+            .diagnostics
+            .iter()
+            .find(|d| d.code == dutyline::diagnostics::Code::MissingField)
+            .unwrap_or_else(|| panic!("{:?}", c.diagnostics));
+        let span = d.span.unwrap();
+        assert_eq!(
+            &src[span.start..span.start + 25],
+            "fitting expansion_sudden\n"
+        );
+        assert!(d.message.contains("beta"), "{}", d.message);
+    }
+}

@@ -135,6 +135,8 @@ pub struct FittingState {
     pub count: u32,
     /// Diameter ratio small/large of a size change (dimensionless).
     pub beta: Option<f64>,
+    /// β comes from the inner diameters of the pipes, not from the design.
+    pub beta_from_bores: bool,
     /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
 }
@@ -953,6 +955,7 @@ pub fn resolve_segment(
             spec: f.spec,
             count: f.count,
             beta: f.beta,
+            beta_from_bores: f.beta_from_bores,
             angle_rad: f.angle_rad,
         });
     }

@@ -369,6 +369,9 @@ pub struct FittingUse {
     pub count: u32,
     /// Diameter ratio small/large for size changes (dimensionless, 0–1).
     pub beta: Option<f64>,
+    /// β was taken from the inner diameters of this pipe and its neighbour in the line
+    /// (not stated in the design).
+    pub beta_from_bores: bool,
     /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
     /// A pressure rating stated in the design (`rating = 250 psi`), gauge.

@@ -12,6 +12,7 @@ pub mod operation;
 mod pumps;
 pub mod ranges;
 pub mod scenario;
+mod size_change;
 pub mod uncertainty;
 pub mod vacuum;
 

@@ -656,6 +656,7 @@ pub fn lower_fitting(
         spec,
         count,
         beta: None,
+        beta_from_bores: false,
         angle_rad: None,
         rating: None,
         span,
@@ -691,14 +692,6 @@ pub fn lower_fitting(
                 },
             }
         }
-    }
-    if spec.needs_beta && use_.beta.is_none() {
-        diags.push(missing(
-            "beta",
-            &format!("fitting {name}"),
-            span,
-            "fitting expansion_sudden { beta = 0.75 }",
-        ));
     }
     if spec.needs_angle && use_.angle_rad.is_none() {
         diags.push(missing(
@@ -849,6 +842,7 @@ pub fn lower_segments(body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>
             }
         }
     }
+    super::size_change::fill_ratios(&mut segments, diags);
     segments
 }
 

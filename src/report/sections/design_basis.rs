@@ -335,6 +335,9 @@ fn fitting_text(f: &crate::analysis::system::FittingState) -> String {
     let mut text = super::wording::fitting(f.spec.description);
     if let Some(beta) = f.beta {
         text.push_str(&format!("; β = {beta:.3}"));
+        if f.beta_from_bores {
+            text.push_str(" (ratio of the inner diameters)");
+        }
     }
     if let Some(angle) = f.angle_rad {
         text.push_str(&format!("; θ = {:.1}°", angle.to_degrees()));
