@@ -381,8 +381,10 @@ fn wall_and_rating_changes_show() {
             "pipe pvc 8 in schedule 80 { length = 2650 ft + riser }"
         )]),
         // PVC 8 in: minimum wall 0.322 in at schedule 40 and 0.500 in at schedule 80
-        // (ASTM D1785 table 1, from memory; the catalogue's values); the bore follows.
+        // (ASTM D1785 table 1, from memory; the catalogue's values); the bore follows,
+        // and so does the β the expansion takes from the bores: 6.065 / 7.565 = 0.80172.
         vec![
+            "line discharge › segment 1 › fitting expansion_gradual › beta: 0.763627 → 0.801718",
             "line discharge › segment 2 › size: 8 in schedule 40 → 8 in schedule 80",
             "line discharge › segment 2 › inner_diameter: 7.94236 in → 7.565 in",
             "line discharge › segment 2 › wall: 0.322 in → 0.5 in",

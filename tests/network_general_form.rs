@@ -19,6 +19,18 @@ fn orchard() -> String {
 /// The orchard demo with its discharge split at a junction after the first pipe.
 fn orchard_general_form() -> String {
     let src = orchard();
+    // The expansion takes β from the next pipe of its line; split from it, it states
+    // the chain's β (the ratio of the bores) itself.
+    let chain = dutyline::check(&src, &NoFiles).design.expect("demo");
+    let beta = chain.base.lines[1].segments[0]
+        .fittings
+        .iter()
+        .find_map(|f| f.beta)
+        .expect("the chain's expansion β");
+    let src = src.replace(
+        "fitting expansion_gradual { angle = 15 deg }",
+        &format!("fitting expansion_gradual {{ beta = {beta:.17}, angle = 15 deg }}"),
+    );
     let from = "    pipe pvc 8 in schedule 40 { length = 2650 ft + riser }";
     assert!(src.contains(from));
     let src = src.replace(
