@@ -304,3 +304,32 @@ proptest! {
         prop_assert_eq!(s.corners.len(), 64);
     }
 }
+
+/// A parallel pair with one pump running in the case (`P.running = 1`) has the envelope
+/// of one pump: the same extremes as the single pump, to the solver's tolerance (the
+/// envelope once took the whole set, two pumps, around a one-pump duty).
+#[test]
+fn the_envelope_runs_the_pumps_running_in_the_case() {
+    let single = design("test_grade = \"2B\"", "", "");
+    let pair = single
+        .replace(
+            "    speed = 1480 rpm\n",
+            "    speed = 1480 rpm\n    arrangement = parallel\n    count = 2\n",
+        )
+        .replace(
+            "case normal { hours = 1000 h }",
+            "case normal {\n    hours = 1000 h\n    P.running = 1\n}",
+        );
+    let (_, one) = envelope_of(&single);
+    let (a, two) = envelope_of(&pair);
+    let duty = a.cases[0].pumps[0].duty.as_ref().expect("a duty").flow;
+    assert!(two.flow_min.value <= duty && duty <= two.flow_max.value);
+    for (x, y) in [
+        (one.flow_min.value, two.flow_min.value),
+        (one.flow_max.value, two.flow_max.value),
+        (one.head_min.value, two.head_min.value),
+        (one.head_max.value, two.head_max.value),
+    ] {
+        assert!((x - y).abs() <= 1e-7 * x.abs(), "{x} {y}");
+    }
+}

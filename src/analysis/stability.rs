@@ -54,7 +54,7 @@ pub fn unstable_warnings(
             head(one.head_peak),
             ", one pump at the published speed and the chosen impeller): an unstable (rising) curve (ANSI/HI 9.6.3 guidance on rising head curves, from memory)"
         ];
-        let inside = cases_in_band(cases, k, region, par, ser);
+        let inside = cases_in_band(design, cases, k, region);
         if inside.is_empty() {
             message.append(&crate::message![
                 "; no case's static head lies in the band where a level system curve crosses it twice (",
@@ -99,17 +99,20 @@ pub fn unstable_warnings(
 /// two-crossing band of candidate `k`'s curve as installed in that case (speed, trim,
 /// series count).
 fn cases_in_band(
+    design: &Design,
     cases: &[CaseResult],
     k: usize,
     region: &RisingRegion,
-    par: u32,
-    ser: u32,
 ) -> Vec<(String, f64, RisingRegion)> {
+    let pump = &design.pumps[k];
     cases
         .iter()
         .filter_map(|c| {
             let system = c.system.as_ref()?;
             let result = c.pumps.get(k)?;
+            // The pumps running in this case (`PUMP.running`), not the whole set.
+            let case = design.cases.iter().find(|d| d.name == c.name)?;
+            let (par, ser) = super::duty::stages_in(pump, case);
             let n = result.affinity_scale;
             let band = region.scaled(n * par as f64, n * n * ser as f64);
             band.two_crossings_at(system.static_head)

@@ -16,7 +16,7 @@ pub mod inputs;
 pub mod pump;
 
 use super::checks::{self, Check, Status};
-use super::duty::{stages, CandidateCurves, PumpResult};
+use super::duty::{stages_in, CandidateCurves, PumpResult};
 use super::limits::{CheckId, Source};
 use super::system::CaseSystem;
 use super::{CaseResult, Warning};
@@ -342,7 +342,8 @@ fn duty_envelope(
 ) -> Option<DutyEnvelope> {
     let nominal = pr.duty.as_ref()?;
     let scaled = installed(pr, cc)?;
-    let (par, ser) = stages(p);
+    // The pumps running in this case (`PUMP.running`), as the nominal duty has them.
+    let (par, ser) = stages_in(p, ctx.case);
     let (par, ser) = (f64::from(par), f64::from(ser));
     let shifted = |u: f64| Shifted {
         scaled: &scaled,
