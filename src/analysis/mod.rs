@@ -7,6 +7,7 @@
 use crate::diagnostics::Code;
 pub mod capacity;
 pub mod checks;
+pub mod closed_loop;
 pub mod concurrent;
 pub mod duty;
 pub mod envelope;
@@ -294,6 +295,11 @@ fn solve_case(
     case: &crate::model::Case,
     candidates: &[duty::CandidateCurves],
 ) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
+    if closed_loop::is_closed_loop(&case.scenario)
+        && case.scenario.source.reference.on_discharge.is_some()
+    {
+        return Err(format!("the expansion tank {} connects on the pump discharge: the pressure at the pump suction is the reference less the pump head, which this version does not calculate; connect it at the suction", case.scenario.source.name));
+    }
     let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
     sys.tabulate(duty::search_reach(case, design, candidates));
     let mut pumps: Vec<duty::PumpResult> = candidates
@@ -302,6 +308,10 @@ fn solve_case(
         .map(|(cc, p)| duty::evaluate(design, case, &sys, p, cc))
         .collect();
     network::checks::at_duties(design, &case.name, &sys, &mut pumps)?;
+    let loop_checks = closed_loop::case_checks(&case.scenario, &sys);
+    for p in pumps.iter_mut().filter(|p| p.duty.is_some()) {
+        p.checks.extend(loop_checks.iter().cloned());
+    }
     Ok((sys, pumps))
 }
 

@@ -266,6 +266,27 @@ fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
     }
 }
 
+/// A glycol mixture's state: density and viscosity by Melinder (2010) at its mass
+/// fraction and temperature; the source gives no vapour pressure, so water's at the
+/// temperature is used (IAPWS-IF97; glycol lowers the mixture's, so this is on the safe
+/// side for NPSH).
+fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemError> {
+    let t = g.temperature.get::<kelvin>();
+    let x = g.mass_fraction();
+    let (density, viscosity) = fluid::glycol::glycol_properties(g.glycol, x, t)
+        .map_err(|e| SystemError { message: e.message })?;
+    let vapor_pressure =
+        fluid::saturation_pressure_pa(t).map_err(|e| SystemError { message: e.message })?;
+    Ok(FluidState {
+        name: g.glycol.name().into(),
+        temperature_k: Some(t),
+        density,
+        viscosity,
+        vapor_pressure,
+        source: "Melinder 2010 (density, viscosity); vapour pressure of water, IAPWS-IF97".into(),
+    })
+}
+
 impl CaseSystem {
     /// Resolve a scenario: fluid properties, barometric pressure, pipes.
     pub fn new(s: &Scenario) -> Result<CaseSystem, SystemError> {
@@ -301,6 +322,7 @@ impl CaseSystem {
                         .into(),
                 }
             }
+            Fluid::Glycol(g) => glycol_state(g)?,
             Fluid::Custom(c) => FluidState {
                 name: c.name.clone(),
                 temperature_k: c.temperature.map(|t| t.get::<kelvin>()),

@@ -172,6 +172,20 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
             "temperature",
             v(temperature.value, Measure::Temperature),
         )),
+        Fluid::Glycol(g) => {
+            fluid.push(Node::leaf("fraction", v(g.fraction, Measure::Percent)));
+            fluid.push(Node::leaf(
+                "basis",
+                match g.basis {
+                    crate::model::FractionBasis::Mass => "mass",
+                    crate::model::FractionBasis::Volume => "volume",
+                },
+            ));
+            fluid.push(Node::leaf(
+                "temperature",
+                v(g.temperature.value, Measure::Temperature),
+            ));
+        }
         Fluid::Custom(c) => {
             if let Some(t) = c.temperature {
                 fluid.push(Node::leaf("temperature", v(t.value, Measure::Temperature)));

@@ -173,7 +173,8 @@ pub fn screen(
                 let d = result.pumps.get(k)?.duty.as_ref()?;
                 Some((d.flow, d.flow_per_pump))
             });
-            match &result.system {
+            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
+            match raised.as_ref().or(result.system.as_ref()) {
                 Some(sys) => case_screen(
                     &case.scenario.lines,
                     &case.scenario.fluid,
@@ -247,9 +248,12 @@ fn shutoff(
     let head = ser as f64 * largest.head.eval(q0.max(0.0)) * ratio * ratio;
     let (suction_pressure, suction_case) = cases
         .iter()
-        .filter_map(|c| {
-            c.system
+        .zip(&design.cases)
+        .filter_map(|(c, case)| {
+            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
+            raised
                 .as_ref()
+                .or(c.system.as_ref())
                 .map(|s| (suction_static_pressure(s), c.name.clone()))
         })
         .max_by(|a, b| a.0.total_cmp(&b.0))?;
@@ -284,7 +288,7 @@ fn case_screen(
     name: &str,
 ) -> CaseSafety {
     let temperature = match fluid {
-        Fluid::Water { .. } => sys.fluid.temperature_k,
+        Fluid::Water { .. } | Fluid::Glycol(_) => sys.fluid.temperature_k,
         Fluid::Custom(c) => c
             .temperature
             .map(|t| t.get::<uom::si::thermodynamic_temperature::kelvin>()),

@@ -180,6 +180,26 @@ pub fn lower_network(
             }
         }
     }
+    let returns = |t: &Tank| links.iter().any(|l| l.from == t.name || l.to == t.name);
+    if let Some(src) = chain
+        .source
+        .as_ref()
+        .filter(|t| reached.is_empty() && returns(t))
+    {
+        // A closed loop: the network returns to the tank the pumps draw from, the
+        // loop's pressure reference (grammar/LANGUAGE.md, "Closed loops").
+        if let Some(at) = src.reference.on_discharge {
+            diags.push(Diagnostic::warning(Code::ExpansionTankDischarge, format!("the expansion tank {} connects on the pump discharge: the pumps then lower the pressure at their suction by their head, and the loop's cases are not analysed", src.name), Some(at))
+                .with_help("connect the expansion tank at the pump suction (common practice), so that the pumps add pressure to the loop instead of subtracting it"));
+        }
+        let layout = NetworkLayout {
+            entry,
+            nodes,
+            tanks: Vec::new(),
+            links,
+        };
+        return (Some(layout), Some(src.clone()));
+    }
     if reached.is_empty() {
         let span = nodes.iter().find(|n| n.name == entry).map(|n| n.span);
         diags.push(Diagnostic::error(Code::NoDownstreamTank, "the network reaches no tank downstream of the station", span)
