@@ -269,14 +269,15 @@ fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
 /// A glycol mixture's state: density and viscosity by Melinder (2010) at its mass
 /// fraction and temperature; the source gives no vapour pressure, so water's at the
 /// temperature is used (IAPWS-IF97; glycol lowers the mixture's, so this is on the safe
-/// side for NPSH).
+/// side for NPSH), and below 0 °C water's at its triple point (611.7 Pa), which is
+/// higher still.
 fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemError> {
     let t = g.temperature.get::<kelvin>();
     let x = g.mass_fraction();
     let (density, viscosity) = fluid::glycol::glycol_properties(g.glycol, x, t)
         .map_err(|e| SystemError { message: e.message })?;
-    let vapor_pressure =
-        fluid::saturation_pressure_pa(t).map_err(|e| SystemError { message: e.message })?;
+    let vapor_pressure = fluid::saturation_pressure_pa(t.max(fluid::water::TRIPLE_POINT_K))
+        .map_err(|e| SystemError { message: e.message })?;
     Ok(FluidState {
         name: g.glycol.name().into(),
         temperature_k: Some(t),

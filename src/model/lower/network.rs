@@ -371,6 +371,7 @@ fn lower_equipment(
         drop: Pressure::default(),
         rated_flow: VolumeRate::default(),
         exponent: 2.0,
+        rated_on_water: false,
     };
     let mut complete = true;
     for (field, example) in [

@@ -1,0 +1,199 @@
+//! Closed loops (issue 12): the network returns to the tank the pumps draw from, the
+//! loop's pressure reference. Hand solutions: the system curve is the sum of the
+//! losses (static head cancels), NPSH available term by term from the minimum
+//! reference pressure, the high-point check by hydrostatics, the expansion tank on the
+//! discharge warned, and an equipment drop rated on water restated for the glycol.
+
+mod common;
+
+use dutyline::analysis::Analysis;
+use dutyline::fluid::glycol::{glycol_properties, Glycol};
+
+const G: f64 = 9.80665; // standard gravity, m/s² (CGPM 1901)
+const LS: f64 = 1e-3; // m³/s per L/s
+
+/// A loop: expansion tank (level 2 m, `pressure`) → 1 m of 24 in pipe → pump (centreline
+/// 0.5 m) → 1 m of 24 in pipe → coil (50 kPa at 10 L/s) → 1 m of 24 in pipe → back to
+/// the tank. The 24 in pipes carry 10 L/s at 0.04 m/s: friction about 4e-6 m, left out
+/// of the hand solutions. Pump H = 40 − 0.1 q² (q in L/s).
+fn design(fluid: &str, tank: &str, coil: &str) -> String {
+    format!(
+        r#"project {{ title = "Closed loop", units = si }}
+fluid {fluid}
+site {{ elevation = 0 m }}
+tank et {{
+    level = 2 m
+    {tank}
+}}
+station {{ centreline = 0.5 m }}
+line suction from et to pump {{
+    pipe steel 24 in schedule 40 {{ length = 1 m }}
+}}
+line discharge from pump to coil_in {{
+    pipe steel 24 in schedule 40 {{ length = 1 m }}
+}}
+junction coil_in {{ elevation = 1 m }}
+junction coil_out {{ elevation = 30 m }}
+equipment coil from coil_in to coil_out {{
+    drop = 50 kPa
+    rated_flow = 10 L/s
+    {coil}
+}}
+line back from coil_out to et {{
+    pipe steel 24 in schedule 40 {{ length = 1 m }}
+}}
+case design {{ hours = 1000 h }}
+pump P "test" {{
+    speed = 1450 rpm
+    curve impeller 200 mm {{
+        flow L/s   head m   npshr m
+        0          40.0     -
+        10         30.0     2
+        20         0.0      4
+    }}
+}}
+"#
+    )
+}
+
+fn analyse(src: &str) -> Analysis {
+    common::analyse_valid(src, &dutyline::NoFiles).1
+}
+
+const GLYCOL: &str = "ethylene_glycol { fraction = 30 %, basis = mass, temperature = 10 degC }";
+
+#[test]
+fn the_system_curve_is_the_losses_and_npsh_uses_the_minimum_pressure() {
+    let a = analyse(&design(GLYCOL, "pressure = 200 kPa", ""));
+    let (rho, _) = glycol_properties(Glycol::Ethylene, 0.30, 283.15).unwrap();
+    let c = &a.cases[0];
+    let sys = c.system.as_ref().expect("system");
+    // Static head cancels: one surface at both ends.
+    assert!(sys.static_head.abs() < 1e-12, "{}", sys.static_head);
+    // Coil: h = 50 kPa/(ρg)·(q/10)²; pump 40 − 0.1 q² → 40 = (0.1 + r) q².
+    let r = 50e3 / (rho * G) / 100.0;
+    let q = (40.0 / (0.1 + r)).sqrt();
+    let d = c.pumps[0].duty.as_ref().expect("duty");
+    assert!((d.flow / LS - q).abs() < 1e-3, "{} vs {q}", d.flow / LS);
+    assert!(
+        (d.head - r * q * q).abs() < 1e-3,
+        "{} vs {}",
+        d.head,
+        r * q * q
+    );
+    // NPSHa term by term: (200 kPa + p_baro)/(ρg) + (2 − 0.5) − p_v/(ρg) − suction losses.
+    let t = &d.npsh_terms;
+    let p_baro = 101_325.0; // U.S. Standard Atmosphere 1976 at sea level
+    assert!((t.barometric_head - p_baro / (rho * G)).abs() < 1e-6);
+    assert!((t.surface_pressure_head - 200e3 / (rho * G)).abs() < 1e-9);
+    assert!((t.static_suction_head - 1.5).abs() < 1e-12);
+    let pv = dutyline::fluid::saturation_pressure_pa(283.15).unwrap();
+    // Water's vapour pressure at 10 °C (IAPWS-IF97: 1.2282 kPa) stands in for the mixture's.
+    assert!((pv - 1228.2).abs() < 1.0, "{pv}");
+    assert!((t.vapour_pressure_head + pv / (rho * G)).abs() < 1e-9);
+    assert!(t.suction_friction_head.abs() < 1e-4);
+    assert!((t.sum() - d.npsh_available).abs() < 1e-9);
+}
+
+#[test]
+fn the_high_point_is_checked_at_rest_from_the_minimum_pressure() {
+    let check = |tank: &str| {
+        let a = analyse(&design(GLYCOL, tank, ""));
+        let p = &a.cases[0].pumps[0];
+        let c = p
+            .checks
+            .iter()
+            .find(|c| c.id == "loop-high-point")
+            .expect("loop-high-point")
+            .clone();
+        (c.status.keyword(), c.value.unwrap(), c.limit.unwrap())
+    };
+    let (rho, _) = glycol_properties(Glycol::Ethylene, 0.30, 283.15).unwrap();
+    // Highest node 30 m, reference at 2 m: p = 300 kPa − ρ g 28 m.
+    let (status, p, limit) = check("pressure = 300 kPa");
+    assert!((p - (300e3 - rho * G * 28.0)).abs() < 1e-6, "{p}");
+    assert_eq!((status, limit), ("fail", 30e3)); // 300 − 290.3 = 9.7 kPa < 30 kPa
+                                                 // A higher fill pressure passes; a stated high point above the nodes governs.
+    let (status, p, _) = check("pressure = 400 kPa");
+    assert_eq!(status, "pass", "{p}");
+    let (status, p, _) = check("pressure = 400 kPa\n    high_point = 40 m");
+    assert!((p - (400e3 - rho * G * 38.0)).abs() < 1e-6);
+    assert_eq!(status, "fail");
+    let (status, _, limit) = check("pressure = 400 kPa\n    high_point_pressure = 120 kPa");
+    assert_eq!((status, limit), ("fail", 120e3));
+}
+
+#[test]
+fn an_expansion_tank_on_the_discharge_is_warned_and_not_analysed() {
+    let src = design(GLYCOL, "pressure = 400 kPa\n    connects = discharge", "");
+    let checked = dutyline::check(&src, &dutyline::NoFiles);
+    let w = checked
+        .diagnostics
+        .iter()
+        .find(|d| d.code.as_str() == "expansion-tank-discharge")
+        .expect("warning");
+    assert!(!w.is_error());
+    let a = dutyline::analysis::analyse(&checked.design.expect("valid"));
+    assert!(a.cases[0].system.is_none());
+    assert!(a.cases[0].pumps.iter().all(|p| p.duty.is_none()));
+}
+
+#[test]
+fn a_drop_rated_on_water_is_restated_by_the_density_ratio() {
+    let (rho, _) = glycol_properties(Glycol::Ethylene, 0.30, 283.15).unwrap();
+    let stated = analyse(&design(GLYCOL, "pressure = 400 kPa", ""));
+    let on_water = analyse(&design(GLYCOL, "pressure = 400 kPa", "rated_on = water"));
+    // Δp_fluid = Δp_water·ρ/1000: as head, 50 kPa/(1000 g) regardless of the fluid.
+    let r = 50e3 / (1000.0 * G) / 100.0;
+    let q = (40.0 / (0.1 + r)).sqrt();
+    let d = on_water.cases[0].pumps[0].duty.as_ref().unwrap();
+    assert!((d.flow / LS - q).abs() < 1e-3, "{} vs {q}", d.flow / LS);
+    // The glycol is denser than the rating fluid, so the restated drop is larger and the
+    // flow smaller than with the drop taken as the glycol's.
+    let ds = stated.cases[0].pumps[0].duty.as_ref().unwrap();
+    assert!(rho > 1000.0 && d.flow < ds.flow);
+}
+
+#[test]
+fn freeze_margin_warns_near_the_freezing_point_and_passes_above() {
+    let status = |t: &str| {
+        let f = format!("ethylene_glycol {{ fraction = 30 %, basis = mass, temperature = {t} }}");
+        let a = analyse(&design(&f, "pressure = 400 kPa", ""));
+        let c = a.cases[0].pumps[0]
+            .checks
+            .iter()
+            .find(|c| c.id == "freeze-margin")
+            .expect("freeze-margin")
+            .clone();
+        (c.status.keyword(), c.limit.unwrap())
+    };
+    // 30 % ethylene glycol by mass freezes at −14.6 °C (Melinder 2010, the fit).
+    let tf = dutyline::fluid::glycol::freezing_point_k(Glycol::Ethylene, 0.30);
+    assert!((tf - 273.15 + 14.6).abs() < 0.2, "{tf}");
+    let (s, limit) = status("10 degC");
+    assert_eq!(s, "pass");
+    assert!((limit - (tf + 3.0)).abs() < 1e-9);
+    assert_eq!(status("-13 degC").0, "warn");
+}
+
+#[test]
+fn a_temperature_below_the_freezing_point_is_refused_where_it_is_written() {
+    let f = "ethylene_glycol { fraction = 30 %, basis = mass, temperature = -20 degC }";
+    let src = design(f, "pressure = 400 kPa", "");
+    let d = dutyline::check(&src, &dutyline::NoFiles)
+        .diagnostics
+        .into_iter()
+        .find(|d| d.code.as_str() == "out-of-range")
+        .expect("refused");
+    assert!(d.message.contains("freezing point"), "{}", d.message);
+    let at = d.span.expect("located");
+    assert_eq!(&src[at.start..at.end], "-20 degC");
+    // A volume fraction above the range by mass is refused too: 58 % by volume of
+    // ethylene glycol is 60.5 % by mass.
+    let f = "ethylene_glycol { fraction = 58 %, basis = volume, temperature = 10 degC }";
+    let d = dutyline::check(&design(f, "pressure = 400 kPa", ""), &dutyline::NoFiles);
+    assert!(d
+        .diagnostics
+        .iter()
+        .any(|d| d.code.as_str() == "out-of-range"));
+}
