@@ -16,11 +16,12 @@ impl dutyline::FileAccess for DemoFiles {
     }
 }
 
-const DEMOS: [&str; 4] = [
+const DEMOS: [&str; 5] = [
     "orchard-lift-rev-a",
     "orchard-lift-rev-b",
     "kestrel-booster",
     "hillside-district",
+    "wrenfield-chilled-water",
 ];
 
 struct Package {

@@ -266,6 +266,23 @@ fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
     }
 }
 
+/// The mixture as the outputs name it: "ethylene glycol, 30 % by mass", or "..., 35 %
+/// by volume (37.4 % by mass)".
+fn glycol_name(g: &crate::model::GlycolMixture) -> String {
+    let pc = |x: f64| crate::numbers::significant_trimmed(100.0 * x, 3);
+    match g.basis {
+        crate::model::FractionBasis::Mass => {
+            format!("{}, {} % by mass", g.glycol.name(), pc(g.fraction))
+        }
+        crate::model::FractionBasis::Volume => format!(
+            "{}, {} % by volume ({} % by mass)",
+            g.glycol.name(),
+            pc(g.fraction),
+            pc(g.mass_fraction())
+        ),
+    }
+}
+
 /// A glycol mixture's state: density and viscosity by Melinder (2010) at its mass
 /// fraction and temperature; the source gives no vapour pressure, so water's at the
 /// temperature is used (IAPWS-IF97; glycol lowers the mixture's, so this is on the safe
@@ -279,7 +296,7 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
     let vapor_pressure = fluid::saturation_pressure_pa(t.max(fluid::water::TRIPLE_POINT_K))
         .map_err(|e| SystemError { message: e.message })?;
     Ok(FluidState {
-        name: g.glycol.name().into(),
+        name: glycol_name(g),
         temperature_k: Some(t),
         density,
         viscosity,

@@ -36,6 +36,9 @@ pub struct Safety {
     pub shutoff: Option<Shutoff>,
     /// Per case, in design order.
     pub cases: Vec<CaseSafety>,
+    /// A closed loop's maximum reference pressure (gauge), Pa, when the screen takes it
+    /// instead of the fill pressure (`closed_loop::rating_system`).
+    pub closed_loop_max_pa: Option<f64>,
 }
 
 /// The shut-off condition: the pump running against a closed discharge.
@@ -190,10 +193,18 @@ pub fn screen(
             }
         })
         .collect();
+    let closed_loop_max_pa = design
+        .base
+        .source
+        .reference
+        .max_pressure
+        .filter(|_| crate::analysis::closed_loop::is_closed_loop(&design.base))
+        .map(|p| p.get::<uom::si::pressure::pascal>());
     Safety {
         candidate: k.map(|k| design.pumps[k].name.clone()),
         shutoff,
         cases: cases_out,
+        closed_loop_max_pa,
     }
 }
 
