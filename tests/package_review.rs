@@ -237,8 +237,10 @@ fn a_us_package_prints_no_si_value_and_an_si_package_no_us_value() {
                         .chars()
                         .all(|c| c.is_ascii_digit() || "./-".contains(c));
                     let arrangement = ["parallel", "series"].contains(&pair[2]);
+                    // A network tank's inflow column ("in 116.1") after a pressure.
+                    let inflow = pair[2].parse::<f64>().is_ok();
                     assert!(
-                        !(numeric && pair[1] == "in" && !arrangement),
+                        !(numeric && pair[1] == "in" && !arrangement && !inflow),
                         "{demo}: page {} prints {} in",
                         k + 1,
                         pair[0]

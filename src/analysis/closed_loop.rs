@@ -21,9 +21,10 @@ use crate::model::{Fluid, Scenario};
 /// Standard gravity, m/s² (CGPM 1901).
 const G: f64 = 9.806_65;
 
-/// Whether a scenario is a closed loop: its network returns to the source tank.
+/// Whether a scenario is a closed loop: its network (or its discharge line) returns to
+/// the source tank.
 pub fn is_closed_loop(s: &Scenario) -> bool {
-    s.network.is_some() && s.destination.name == s.source.name
+    s.destination.name == s.source.name
 }
 
 /// The case's checks for every candidate: the freeze margin of a glycol mixture, and a

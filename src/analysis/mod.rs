@@ -327,12 +327,19 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             .flat_map(|s| &s.fittings)
             .any(|f| f.spec.name.starts_with(prefix))
     };
-    if let Some(l) = base.lines.iter().find(|l| l.side == Side::Suction) {
+    // A closed loop's reference tank is a tee off the loop, not an entrance or an exit.
+    let open = !closed_loop::is_closed_loop(base);
+    if let Some(l) = base.lines.iter().find(|l| open && l.side == Side::Suction) {
         if !has(Side::Suction, "entrance") && !has(Side::Suction, "foot_valve") {
             out.push(Warning { code: Code::NoEntranceLoss, message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name).into(), span: Some(l.span) });
         }
     }
-    if let Some(l) = base.lines.iter().rev().find(|l| l.side == Side::Discharge) {
+    if let Some(l) = base
+        .lines
+        .iter()
+        .rev()
+        .find(|l| open && l.side == Side::Discharge)
+    {
         if !has(Side::Discharge, "exit") {
             out.push(Warning {
                 code: Code::NoExitLoss,
@@ -347,7 +354,7 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     }
     for c in cases {
         if let Some(s) = &c.system {
-            if s.static_head <= 0.0 {
+            if s.static_head <= 0.0 && open {
                 out.push(Warning {
                     code: Code::StaticHead,
                     message: crate::message![format!("case {}: the static head is ", c.name), crate::message::head(s.static_head), " (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction"],

@@ -301,7 +301,7 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
         density,
         viscosity,
         vapor_pressure,
-        source: "Melinder 2010 (density, viscosity); vapour pressure of water, IAPWS-IF97".into(),
+        source: "Melinder, Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., IIR 2010 (density, viscosity, freezing point); vapour pressure of water, IAPWS-IF97".into(),
     })
 }
 
@@ -371,10 +371,15 @@ impl CaseSystem {
                 let h0 = net.entry_head(0.0).map_err(|e| SystemError {
                     message: format!("the network: {e}"),
                 })?;
-                // The entry head (gauge-based) stands in for the destination surface.
-                let stat = h0 + barometric_pa / rho_g
-                    - s.source.level.get::<meter>()
-                    - source_abs_pa / rho_g;
+                // The entry head (gauge-based) stands in for the destination surface; a
+                // closed loop returns to its source: no static head, exactly.
+                let stat = if s.destination.name == s.source.name {
+                    0.0
+                } else {
+                    h0 + barometric_pa / rho_g
+                        - s.source.level.get::<meter>()
+                        - source_abs_pa / rho_g
+                };
                 (Some((net, h0)), stat)
             }
         };

@@ -188,10 +188,6 @@ pub fn lower_network(
     {
         // A closed loop: the network returns to the tank the pumps draw from, the
         // loop's pressure reference (grammar/LANGUAGE.md, "Closed loops").
-        if let Some(at) = src.reference.on_discharge {
-            diags.push(Diagnostic::warning(Code::ExpansionTankDischarge, format!("the expansion tank {} connects on the pump discharge: the pumps then lower the pressure at their suction by their head, and the loop's cases are not analysed", src.name), Some(at))
-                .with_help("connect the expansion tank at the pump suction (common practice), so that the pumps add pressure to the loop instead of subtracting it"));
-        }
         let layout = NetworkLayout {
             entry,
             nodes,

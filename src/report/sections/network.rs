@@ -485,7 +485,7 @@ fn closed_loop_method(design: &Design, units: &Units) -> Option<String> {
         ""
     };
     Some(format!(
-        "This is a closed loop: the network returns to {}, the tank the pumps draw from, which is the loop's pressure reference. Its level and surface pressure are both ends of the system, so the static head cancels and the system curve is friction and equipment only. Its stated pressure is the minimum (cold fill or precharge), used for NPSH available and every pressure check; {max}. The loop's high point is checked at rest from the minimum pressure, p = p_min − ρ·g·(z_high − z_ref), against the least {} gauge that keeps air out at the vents: with the tank at the pump suction the pumps raise the pressure everywhere downstream, so rest is the lowest.{restated}",
+        "This is a closed loop: the network returns to {}, the tank the pumps draw from, which is the loop's pressure reference. Its level and surface pressure are both ends of the system, so the static head cancels and the system curve is friction and equipment only. Its stated pressure is the minimum (cold fill or precharge), used for NPSH available and every pressure check; {max}. The loop's high point is checked at rest from the minimum pressure, p = p₀ − ρ·g·Δz (p₀ the minimum pressure at the reference, Δz the height of the high point above it), against the least {} gauge that keeps air out at the vents: with the tank at the pump suction the pumps raise the pressure everywhere downstream, so rest is the lowest.{restated}",
         s.source.name,
         pr.fmt(least),
     ))
