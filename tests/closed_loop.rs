@@ -197,3 +197,67 @@ fn a_temperature_below_the_freezing_point_is_refused_where_it_is_written() {
         .iter()
         .any(|d| d.code.as_str() == "out-of-range"));
 }
+
+#[test]
+fn a_chain_whose_discharge_returns_to_its_source_is_a_closed_loop_too() {
+    // One tank at both ends of a single chain: 5 m + 200 m of 4 in pipe, ten elbows.
+    let src = r#"project { title = "Chain loop", units = si }
+fluid propylene_glycol { fraction = 40 %, basis = mass, temperature = 5 degC }
+site { elevation = 0 m }
+tank et { level = 2 m, pressure = 150 kPa, max_pressure = 500 kPa, high_point = 12 m }
+station { centreline = 0.5 m }
+line suction from et to pump {
+    pipe steel 4 in schedule 40 { length = 5 m }
+}
+line discharge from pump to et {
+    pipe steel 4 in schedule 40 { length = 200 m }
+    fitting elbow_90_long * 10
+}
+case design { hours = 1000 h }
+case refilled { et.pressure = 120 kPa }
+pump P "test" {
+    speed = 1450 rpm
+    curve impeller 200 mm {
+        flow L/s   head m   npshr m
+        0          40.0     -
+        10         30.0     2
+        20         0.0      4
+    }
+}
+"#;
+    let checked = dutyline::check(src, &dutyline::NoFiles);
+    // No entrance, exit or static-head remarks: the tank is a tee off the loop.
+    let codes: Vec<&str> = checked
+        .diagnostics
+        .iter()
+        .map(|d| d.code.as_str())
+        .collect();
+    let a = dutyline::analysis::analyse(&checked.design.expect("valid"));
+    let warned: Vec<&str> = a.warnings.iter().map(|w| w.code.as_str()).collect();
+    for code in ["no-entrance-loss", "no-exit-loss", "static-head"] {
+        assert!(!codes.contains(&code) && !warned.contains(&code), "{code}");
+    }
+    let (rho, _) = glycol_properties(Glycol::Propylene, 0.40, 278.15).unwrap();
+    for (case, p_min) in [(0, 150e3), (1, 120e3)] {
+        let c = &a.cases[case];
+        // A case override of the tank moves both ends: the static head stays zero.
+        assert_eq!(c.system.as_ref().unwrap().static_head, 0.0);
+        let d = c.pumps[0].duty.as_ref().expect("duty");
+        assert!((d.npsh_terms.surface_pressure_head - p_min / (rho * G)).abs() < 1e-9);
+        let hp = c.pumps[0]
+            .checks
+            .iter()
+            .find(|k| k.id == "loop-high-point")
+            .unwrap();
+        // Highest point 12 m (stated) above the 2 m reference: p = p_min − ρ g 10 m.
+        assert!((hp.value.unwrap() - (p_min - rho * G * 10.0)).abs() < 1e-6);
+    }
+    // The rating screen takes the maximum: the shut-off's suction pressure is 500 kPa
+    // plus the static column from the reference to the pump, ρ g 1.5 m.
+    let so = a.safety.shutoff.as_ref().expect("shut-off");
+    assert!(
+        (so.suction_pressure - (500e3 + rho * G * 1.5)).abs() < 1e-6,
+        "{}",
+        so.suction_pressure
+    );
+}
