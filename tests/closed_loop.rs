@@ -260,4 +260,25 @@ pump P "test" {
         "{}",
         so.suction_pressure
     );
+    // Ratings see the maximum, minimum-pressure checks the fill: every operating
+    // pressure rated lies above 500 kPa less the 10 m column; every lowest pressure
+    // checked lies below 150 kPa plus the loop's head (about 12 m) and the column.
+    let checks = &a.safety.cases[0].checks;
+    let value = |id: &str| {
+        checks
+            .iter()
+            .filter(|c| c.id == id)
+            .map(|c| c.value.unwrap())
+            .collect::<Vec<f64>>()
+    };
+    let rated = value("pressure-rating");
+    assert!(
+        !rated.is_empty() && rated.iter().all(|p| *p > 500e3 - rho * G * 10.0),
+        "{rated:?}"
+    );
+    let lowest = value("minimum-pressure");
+    assert!(
+        !lowest.is_empty() && lowest.iter().all(|p| *p < 150e3 + rho * G * 14.0),
+        "{lowest:?}"
+    );
 }

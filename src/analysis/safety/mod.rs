@@ -18,7 +18,7 @@ use uom::si::frequency::cycle_per_minute;
 
 use super::checks::Check;
 use super::duty::{stages, CandidateCurves};
-use super::limits;
+use super::limits::{self, CheckId};
 use super::system::{CaseSystem, G};
 use super::CaseResult;
 use crate::model::{Adjust, Design, Fluid, Line, Side};
@@ -176,17 +176,21 @@ pub fn screen(
                 let d = result.pumps.get(k)?.duty.as_ref()?;
                 Some((d.flow, d.flow_per_pump))
             });
-            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
-            match raised.as_ref().or(result.system.as_ref()) {
-                Some(sys) => case_screen(
+            let screen_at = |sys: &CaseSystem| {
+                case_screen(
                     &case.scenario.lines,
                     &case.scenario.fluid,
                     sys,
                     flow,
                     shutoff.as_ref(),
                     &result.name,
-                ),
-                None => CaseSafety {
+                )
+            };
+            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
+            match (&result.system, raised.as_ref()) {
+                (Some(sys), Some(high)) => at_both_pressures(screen_at(sys), screen_at(high)),
+                (Some(sys), None) => screen_at(sys),
+                _ => CaseSafety {
                     case: result.name.clone(),
                     ..Default::default()
                 },
@@ -206,6 +210,26 @@ pub fn screen(
         cases: cases_out,
         closed_loop_max_pa,
     }
+}
+
+/// A closed loop screened at both reference pressures: the minimum-pressure, vapour and
+/// column-separation checks (and the plotted grades) from the screen at the minimum
+/// (fill) pressure `low`; the rating, shut-off and surge checks and the shut-off
+/// pressures from the screen at the maximum `high`.
+fn at_both_pressures(mut low: CaseSafety, high: CaseSafety) -> CaseSafety {
+    let minimum = |c: &Check| {
+        matches!(
+            c.id,
+            CheckId::MinimumPressure | CheckId::VapourMargin | CheckId::ColumnSeparation
+        )
+    };
+    let mut checks: Vec<Check> = low.checks.into_iter().filter(|c| minimum(c)).collect();
+    checks.extend(high.checks.into_iter().filter(|c| !minimum(c)));
+    low.checks = checks;
+    for (l, h) in low.lines.iter_mut().zip(high.lines) {
+        l.pressure_shutoff = h.pressure_shutoff;
+    }
+    low
 }
 
 /// The recommended candidate, else the first with a duty in some case.

@@ -142,7 +142,7 @@ fn ratings_table(
     blocks.push(Block::heading(2, "Pressure ratings"));
     blocks.push(Block::text(format!("Ratings at the liquid temperature of case {} (thermoplastic ratings fall with temperature). The weakest of a pipe and the fittings rated on it governs. A rating given in the design is used as given, without a surge allowance.", c.case)));
     if let Some(max) = closed_loop_max {
-        blocks.push(Block::text(format!("A closed loop: the pressures screened here take its reference at the maximum pressure, {} gauge (relief setting or hot system), not the fill pressure.", units.pressure().fmt(max))));
+        blocks.push(Block::text(format!("A closed loop: the rating, shut-off and surge checks take its reference at the maximum pressure, {} gauge (relief setting or hot system); the minimum-pressure, vapour and column-separation checks, the grade plots and the pressure tables take the minimum (fill) pressure.", units.pressure().fmt(max))));
     }
     let pr = units.rating();
     let mut rows = Vec::new();
