@@ -282,3 +282,23 @@ pump P "test" {
         "{lowest:?}"
     );
 }
+
+#[test]
+fn the_discharge_grade_of_a_loop_starts_from_the_loop_not_the_tank() {
+    let a = analyse(&design(GLYCOL, "pressure = 400 kPa", ""));
+    let (rho, _) = glycol_properties(Glycol::Ethylene, 0.30, 283.15).unwrap();
+    let d = a.cases[0].pumps[0].duty.as_ref().unwrap();
+    // At the pump outlet (0.5 m) the energy head is the tank's, 2 m + 400 kPa/(ρg), plus
+    // the coil's loss, which is the whole duty head less 4e-6 m of friction.
+    let expect = 400e3 + rho * G * (2.0 + d.head - 0.5);
+    let line = a.safety.cases[0]
+        .lines
+        .iter()
+        .find(|l| l.name == "discharge")
+        .expect("screened");
+    let p0 = line.pressure_duty.as_ref().expect("duty grade")[0];
+    // Within 1 mm of head (10 Pa: velocity head and the pipes' friction, each below
+    // 1e-4 m); the tank's head alone would be short by the coil's 13 m.
+    assert!((p0 - expect).abs() < 10.0, "{p0} vs {expect}");
+    assert!(d.head > 10.0);
+}

@@ -224,6 +224,8 @@ pub struct CaseSystem {
     pub network_failed: Flag,
     /// The source is a well with a drawdown (its `source_level` the static level).
     pub well: Option<WellDrawdown>,
+    /// A closed loop: the discharge (or the network) returns to the source tank.
+    pub closed_loop: bool,
     /// The system curve tabulated for the fast duty path ([`CaseSystem::tabulate`]);
     /// `None` until tabulated, and for a network.
     pub duty_table: Option<SystemTable>,
@@ -386,6 +388,7 @@ impl CaseSystem {
         let well = well_drawdown(s)?;
         Ok(CaseSystem {
             well,
+            closed_loop: s.destination.name == s.source.name,
             network,
             network_failed: Flag::default(),
             duty_table: None,
