@@ -302,3 +302,28 @@ fn the_discharge_grade_of_a_loop_starts_from_the_loop_not_the_tank() {
     assert!((p0 - expect).abs() < 10.0, "{p0} vs {expect}");
     assert!(d.head > 10.0);
 }
+
+#[test]
+fn loop_fields_on_an_open_system_are_warned_unused() {
+    let src = design(GLYCOL, "pressure = 400 kPa", "")
+        .replace(
+            "line back from coil_out to et",
+            "line back from coil_out to top",
+        )
+        .replace(
+            "station {",
+            "tank top { level = 30 m, max_pressure = 600 kPa }\nstation {",
+        );
+    let checked = dutyline::check(&src, &dutyline::NoFiles);
+    let d = checked
+        .diagnostics
+        .iter()
+        .find(|d| d.code.as_str() == "unused-field")
+        .expect("warned");
+    assert!(
+        !d.is_error() && d.message.contains("tank top"),
+        "{}",
+        d.message
+    );
+    assert!(checked.design.is_some());
+}

@@ -161,6 +161,17 @@ fn expansion_tank_side(network: &lines::Network, diags: &mut Vec<Diagnostic>) {
         return;
     };
     if src.name != dst.name {
+        for t in [src, dst] {
+            let r = &t.reference;
+            let stated = r.max_pressure.is_some()
+                || r.high_point.is_some()
+                || r.high_point_pressure.is_some()
+                || r.on_discharge.is_some();
+            if stated {
+                diags.push(Diagnostic::warning(Code::UnusedField, format!("tank {}: `max_pressure`, `high_point`, `high_point_pressure` and `connects` belong to a closed loop's reference tank, and this design does not return to it; they are not used", t.name), Some(t.span))
+                    .with_help("a closed loop ends its network (or its discharge line) at the tank its suction line starts from"));
+            }
+        }
         return;
     }
     if let Some(at) = src.reference.on_discharge {
