@@ -8,6 +8,7 @@ use proptest::prelude::*;
 const DEMOS: &[&str] = &[
     "examples-demo/orchard-lift-rev-a.duty",
     "examples-demo/orchard-lift-rev-b.duty",
+    "examples-demo/wrenfield-chilled-water.duty",
 ];
 
 fn read(path: &str) -> String {

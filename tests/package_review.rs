@@ -16,11 +16,12 @@ impl dutyline::FileAccess for DemoFiles {
     }
 }
 
-const DEMOS: [&str; 4] = [
+const DEMOS: [&str; 5] = [
     "orchard-lift-rev-a",
     "orchard-lift-rev-b",
     "kestrel-booster",
     "hillside-district",
+    "wrenfield-chilled-water",
 ];
 
 struct Package {
@@ -236,8 +237,10 @@ fn a_us_package_prints_no_si_value_and_an_si_package_no_us_value() {
                         .chars()
                         .all(|c| c.is_ascii_digit() || "./-".contains(c));
                     let arrangement = ["parallel", "series"].contains(&pair[2]);
+                    // A network tank's inflow column ("in 116.1") after a pressure.
+                    let exempt = arrangement || pair[2].parse::<f64>().is_ok();
                     assert!(
-                        !(numeric && pair[1] == "in" && !arrangement),
+                        !(numeric && pair[1] == "in" && !exempt),
                         "{demo}: page {} prints {} in",
                         k + 1,
                         pair[0]

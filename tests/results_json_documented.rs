@@ -28,6 +28,7 @@ fn every_key_of_the_demo_documents_is_in_docs_results_json() {
         "orchard-lift-rev-b",
         "kestrel-booster",
         "hillside-district",
+        "wrenfield-chilled-water",
     ] {
         let path = format!("{}/examples-demo/{demo}.duty", env!("CARGO_MANIFEST_DIR"));
         let src = std::fs::read_to_string(&path).expect("demo");

@@ -29,6 +29,7 @@ fn one_thread_and_two_give_the_same_results() {
         "examples-demo/orchard-lift-rev-b.duty",
         "examples-demo/kestrel-booster.duty",
         "examples-demo/hillside-district.duty",
+        "examples-demo/wrenfield-chilled-water.duty",
     ] {
         let one = results_json(demo, "1");
         assert!(one.len() > 1000, "{demo}: results printed");

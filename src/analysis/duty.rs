@@ -851,7 +851,8 @@ pub fn evaluate(
     let efficiency = scaled.eval_efficiency(qp).filter(|e| *e > 0.0);
     let shaft_power = arrangement_power(&scaled, rho, par, ser, q);
     let bep = cc.evaluated_bep.map(|b| b.flow * scaled.flow_scale());
-    if let (crate::model::Fluid::Custom(_), Some(b)) = (&case.scenario.fluid, bep) {
+    let not_water = !matches!(case.scenario.fluid, crate::model::Fluid::Water { .. });
+    if let (true, Some(b)) = (not_water, bep) {
         let nu = sys.fluid.viscosity / sys.fluid.density;
         let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
         out.warnings.extend(w.into_iter().map(Message::text));
@@ -888,6 +889,7 @@ pub fn evaluate(
     };
     let custom_fluid = match &case.scenario.fluid {
         crate::model::Fluid::Custom(f) => Some(f.name.as_str()),
+        crate::model::Fluid::Glycol(g) => Some(g.glycol.name()),
         crate::model::Fluid::Water { .. } => None,
     };
     out.warnings

@@ -63,11 +63,16 @@ pub enum CheckId {
     ValveOpening,
     /// A network control valve's authority at the duty against its usual minimum.
     ValveAuthority,
+    /// A glycol mixture's temperature against its freezing point plus a margin.
+    FreezeMargin,
+    /// A closed loop's high point at rest, at the minimum reference pressure, against
+    /// the least pressure it must keep (air ingress).
+    LoopHighPoint,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 27] = [
+    pub const ALL: [CheckId; 29] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -95,6 +100,8 @@ impl CheckId {
         CheckId::ControlCurve,
         CheckId::ValveOpening,
         CheckId::ValveAuthority,
+        CheckId::FreezeMargin,
+        CheckId::LoopHighPoint,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -127,6 +134,8 @@ impl CheckId {
             CheckId::ControlCurve => "control-curve",
             CheckId::ValveOpening => "valve-opening",
             CheckId::ValveAuthority => "valve-authority",
+            CheckId::FreezeMargin => "freeze-margin",
+            CheckId::LoopHighPoint => "loop-high-point",
         }
     }
 
@@ -189,6 +198,12 @@ impl CheckId {
             }
             CheckId::ValveAuthority => {
                 "network control valve authority at the duty (fully open valve drop over the drop between its end nodes)"
+            }
+            CheckId::FreezeMargin => {
+                "glycol mixture temperature against its freezing point plus a margin"
+            }
+            CheckId::LoopHighPoint => {
+                "closed loop high point at rest, at the minimum reference pressure, against its least pressure (air ingress)"
             }
         }
     }
@@ -455,6 +470,20 @@ pub const VALVE_OPENING_HIGH: Limit = VALVE_OPENING_LOW.with_value(0.90);
 pub const VALVE_AUTHORITY: Limit = Limit::common_practice(
     0.25,
     "a control valve authority of at least 0.25, about 0.5 typical",
+);
+
+/// Least margin of a glycol mixture's temperature above its freezing point, K: 3 K
+/// (freeze protection is usually specified a few kelvin below the lowest temperature
+/// the fluid can see; common practice).
+pub const FREEZE_MARGIN_K: Limit = Limit::common_practice(
+    3.0,
+    "glycol freezing point at least 3 K below the fluid temperature",
+);
+/// Least gauge pressure at a closed loop's high point when the design states none, Pa:
+/// 30 kPa (0.3 bar), so that air vents do not draw air in (common practice).
+pub const LOOP_HIGH_POINT_PA: Limit = Limit::common_practice(
+    30.0e3,
+    "least gauge pressure of 30 kPa at a closed loop's high point",
 );
 
 #[cfg(test)]

@@ -7,6 +7,7 @@
 use crate::diagnostics::Code;
 pub mod capacity;
 pub mod checks;
+pub mod closed_loop;
 pub mod concurrent;
 pub mod duty;
 pub mod envelope;
@@ -294,6 +295,11 @@ fn solve_case(
     case: &crate::model::Case,
     candidates: &[duty::CandidateCurves],
 ) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
+    if closed_loop::is_closed_loop(&case.scenario)
+        && case.scenario.source.reference.on_discharge.is_some()
+    {
+        return Err(format!("the expansion tank {} connects on the pump discharge: the pressure at the pump suction is the reference less the pump head, which this version does not calculate; connect it at the suction", case.scenario.source.name));
+    }
     let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
     sys.tabulate(duty::search_reach(case, design, candidates));
     let mut pumps: Vec<duty::PumpResult> = candidates
@@ -302,6 +308,10 @@ fn solve_case(
         .map(|(cc, p)| duty::evaluate(design, case, &sys, p, cc))
         .collect();
     network::checks::at_duties(design, &case.name, &sys, &mut pumps)?;
+    let loop_checks = closed_loop::case_checks(&case.scenario, &sys);
+    for p in pumps.iter_mut().filter(|p| p.duty.is_some()) {
+        p.checks.extend(loop_checks.iter().cloned());
+    }
     Ok((sys, pumps))
 }
 
@@ -317,12 +327,19 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             .flat_map(|s| &s.fittings)
             .any(|f| f.spec.name.starts_with(prefix))
     };
-    if let Some(l) = base.lines.iter().find(|l| l.side == Side::Suction) {
+    // A closed loop's reference tank is a tee off the loop, not an entrance or an exit.
+    let open = !closed_loop::is_closed_loop(base);
+    if let Some(l) = base.lines.iter().find(|l| open && l.side == Side::Suction) {
         if !has(Side::Suction, "entrance") && !has(Side::Suction, "foot_valve") {
             out.push(Warning { code: Code::NoEntranceLoss, message: format!("line {}: no entrance fitting on the suction side; the entrance loss is not counted", l.name).into(), span: Some(l.span) });
         }
     }
-    if let Some(l) = base.lines.iter().rev().find(|l| l.side == Side::Discharge) {
+    if let Some(l) = base
+        .lines
+        .iter()
+        .rev()
+        .find(|l| open && l.side == Side::Discharge)
+    {
         if !has(Side::Discharge, "exit") {
             out.push(Warning {
                 code: Code::NoExitLoss,
@@ -337,7 +354,7 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
     }
     for c in cases {
         if let Some(s) = &c.system {
-            if s.static_head <= 0.0 {
+            if s.static_head <= 0.0 && open {
                 out.push(Warning {
                     code: Code::StaticHead,
                     message: crate::message![format!("case {}: the static head is ", c.name), crate::message::head(s.static_head), " (zero or negative): the fluid would flow by gravity; a pump may only be needed for the friction"],

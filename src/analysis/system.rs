@@ -226,6 +226,8 @@ pub struct CaseSystem {
     pub network_failed: Flag,
     /// The source is a well with a drawdown (its `source_level` the static level).
     pub well: Option<WellDrawdown>,
+    /// A closed loop: the discharge (or the network) returns to the source tank.
+    pub closed_loop: bool,
     /// The system curve tabulated for the fast duty path ([`CaseSystem::tabulate`]);
     /// `None` until tabulated, and for a network.
     pub duty_table: Option<SystemTable>,
@@ -268,6 +270,45 @@ fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
     }
 }
 
+/// The mixture as the outputs name it: "ethylene glycol, 30 % by mass", or "..., 35 %
+/// by volume (37.4 % by mass)".
+fn glycol_name(g: &crate::model::GlycolMixture) -> String {
+    let pc = |x: f64| crate::numbers::significant_trimmed(100.0 * x, 3);
+    match g.basis {
+        crate::model::FractionBasis::Mass => {
+            format!("{}, {} % by mass", g.glycol.name(), pc(g.fraction))
+        }
+        crate::model::FractionBasis::Volume => format!(
+            "{}, {} % by volume ({} % by mass)",
+            g.glycol.name(),
+            pc(g.fraction),
+            pc(g.mass_fraction())
+        ),
+    }
+}
+
+/// A glycol mixture's state: density and viscosity by Melinder (2010) at its mass
+/// fraction and temperature; the source gives no vapour pressure, so water's at the
+/// temperature is used (IAPWS-IF97; glycol lowers the mixture's, so this is on the safe
+/// side for NPSH), and below 0 °C water's at its triple point (611.7 Pa), which is
+/// higher still.
+fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemError> {
+    let t = g.temperature.get::<kelvin>();
+    let x = g.mass_fraction();
+    let (density, viscosity) = fluid::glycol::glycol_properties(g.glycol, x, t)
+        .map_err(|e| SystemError { message: e.message })?;
+    let vapor_pressure = fluid::saturation_pressure_pa(t.max(fluid::water::TRIPLE_POINT_K))
+        .map_err(|e| SystemError { message: e.message })?;
+    Ok(FluidState {
+        name: glycol_name(g),
+        temperature_k: Some(t),
+        density,
+        viscosity,
+        vapor_pressure,
+        source: "Melinder, Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., IIR 2010 (density, viscosity, freezing point); vapour pressure of water, IAPWS-IF97".into(),
+    })
+}
+
 impl CaseSystem {
     /// Resolve a scenario: fluid properties, barometric pressure, pipes.
     pub fn new(s: &Scenario) -> Result<CaseSystem, SystemError> {
@@ -303,6 +344,7 @@ impl CaseSystem {
                         .into(),
                 }
             }
+            Fluid::Glycol(g) => glycol_state(g)?,
             Fluid::Custom(c) => FluidState {
                 name: c.name.clone(),
                 temperature_k: c.temperature.map(|t| t.get::<kelvin>()),
@@ -333,16 +375,22 @@ impl CaseSystem {
                 let h0 = net.entry_head(0.0).map_err(|e| SystemError {
                     message: format!("the network: {e}"),
                 })?;
-                // The entry head (gauge-based) stands in for the destination surface.
-                let stat = h0 + barometric_pa / rho_g
-                    - s.source.level.get::<meter>()
-                    - source_abs_pa / rho_g;
+                // The entry head (gauge-based) stands in for the destination surface; a
+                // closed loop returns to its source: no static head, exactly.
+                let stat = if s.destination.name == s.source.name {
+                    0.0
+                } else {
+                    h0 + barometric_pa / rho_g
+                        - s.source.level.get::<meter>()
+                        - source_abs_pa / rho_g
+                };
                 (Some((net, h0)), stat)
             }
         };
         let well = well_drawdown(s)?;
         Ok(CaseSystem {
             well,
+            closed_loop: s.destination.name == s.source.name,
             network,
             network_failed: Flag::default(),
             duty_table: None,

@@ -172,6 +172,20 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
             "temperature",
             v(temperature.value, Measure::Temperature),
         )),
+        Fluid::Glycol(g) => {
+            fluid.push(Node::leaf("fraction", v(g.fraction, Measure::Percent)));
+            fluid.push(Node::leaf(
+                "basis",
+                match g.basis {
+                    crate::model::FractionBasis::Mass => "mass",
+                    crate::model::FractionBasis::Volume => "volume",
+                },
+            ));
+            fluid.push(Node::leaf(
+                "temperature",
+                v(g.temperature.value, Measure::Temperature),
+            ));
+        }
         Fluid::Custom(c) => {
             if let Some(t) = c.temperature {
                 fluid.push(Node::leaf("temperature", v(t.value, Measure::Temperature)));
@@ -201,7 +215,9 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
         Node::group("fluid", s.fluid.name(), fluid),
         Node::group("site", "", site),
     ];
-    for t in [&s.source, &s.destination] {
+    // A closed loop's one reference tank is both ends: listed once.
+    let closed = s.destination.name == s.source.name;
+    for t in std::iter::once(&s.source).chain((!closed).then_some(&s.destination)) {
         let level = v(t.level.value, Measure::Length);
         let pressure = match t.surface_pressure {
             SurfacePressure::Gauge(p) => v(p.value, Measure::GaugePressure),
@@ -220,6 +236,26 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
         }
         if let Some(w) = t.well_loss {
             fields.push(Node::leaf("well_loss", v(w.value, Measure::Length)));
+        }
+        // A closed loop's reference (issue 12), only where the design states it.
+        let r = &t.reference;
+        if let Some(p) = r.max_pressure {
+            fields.push(Node::leaf(
+                "max_pressure",
+                v(p.value, Measure::GaugePressure),
+            ));
+        }
+        if let Some(z) = r.high_point {
+            fields.push(Node::leaf("high_point", v(z.value, Measure::Length)));
+        }
+        if let Some(p) = r.high_point_pressure {
+            fields.push(Node::leaf(
+                "high_point_pressure",
+                v(p.value, Measure::GaugePressure),
+            ));
+        }
+        if r.on_discharge.is_some() {
+            fields.push(Node::leaf("connects", "discharge"));
         }
         out.push(Node::group(
             format!("tank {}", t.name),

@@ -1,9 +1,10 @@
-//! Fluid properties: liquid water from IAPWS-IF97 and barometric pressure
-//! from the U.S. Standard Atmosphere 1976.
+//! Fluid properties: liquid water from IAPWS-IF97, glycol-water mixtures from
+//! Melinder (2010), and barometric pressure from the U.S. Standard Atmosphere 1976.
 //!
 //! All quantities are SI (K, Pa, kg/m^3, Pa·s).
 
 pub mod atmosphere;
+pub mod glycol;
 pub mod water;
 
 pub use atmosphere::barometric_pressure_pa;

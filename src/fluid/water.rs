@@ -16,6 +16,8 @@ use super::{FluidError, LiquidProperties};
 /// Lowest temperature accepted (exclusive): the normal freezing point, K.
 /// The triple point is 273.16 K; IF97 region 1 starts at 273.15 K.
 pub const FREEZING_POINT_K: f64 = 273.15;
+/// Triple point of water, K (IAPWS-IF97: 273.16 K, p = 611.657 Pa).
+pub const TRIPLE_POINT_K: f64 = 273.16;
 /// Critical temperature of water (IAPWS-IF97 Eq. 3 constant T_c), K. Accepted
 /// temperatures are strictly below it.
 pub const CRITICAL_TEMPERATURE_K: f64 = 647.096;

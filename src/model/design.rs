@@ -156,6 +156,48 @@ pub enum Fluid {
     },
     /// A liquid whose properties the design states.
     Custom(CustomFluid),
+    /// An aqueous glycol mixture, its properties from Melinder (2010).
+    Glycol(GlycolMixture),
+}
+
+/// How a glycol fraction is stated (`basis = mass | volume`).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum FractionBasis {
+    /// Mass of glycol over mass of mixture.
+    Mass,
+    /// Volume of glycol over the volumes of glycol and water before mixing, at 20 °C.
+    Volume,
+}
+
+/// `fluid ethylene_glycol { fraction = 30 %, basis = mass, temperature = 7 degC }`.
+#[derive(Clone, Debug)]
+pub struct GlycolMixture {
+    /// Which glycol.
+    pub glycol: crate::fluid::glycol::Glycol,
+    /// The fraction as stated, 0–1 (dimensionless), on `basis`.
+    pub fraction: f64,
+    /// Mass or volume basis of `fraction`.
+    pub basis: FractionBasis,
+    /// Mixture temperature (absolute).
+    pub temperature: ThermodynamicTemperature,
+}
+
+impl GlycolMixture {
+    /// The glycol's mass fraction (dimensionless): the stated one, or converted from
+    /// the volume fraction (`fluid::glycol::mass_fraction_from_volume`).
+    pub fn mass_fraction(&self) -> f64 {
+        match self.basis {
+            FractionBasis::Mass => self.fraction,
+            FractionBasis::Volume => {
+                crate::fluid::glycol::mass_fraction_from_volume(self.glycol, self.fraction)
+            }
+        }
+    }
+
+    /// The mixture's freezing point, K (Melinder 2010).
+    pub fn freezing_point_k(&self) -> f64 {
+        crate::fluid::glycol::freezing_point_k(self.glycol, self.mass_fraction())
+    }
 }
 
 /// A liquid described by its properties (`fluid "name" { ... }`).
@@ -182,6 +224,17 @@ impl Fluid {
         match self {
             Fluid::Water { .. } => "water",
             Fluid::Custom(c) => &c.name,
+            Fluid::Glycol(g) => g.glycol.name(),
+        }
+    }
+
+    /// The temperature of water or a glycol mixture (the fluids whose properties follow
+    /// from it); `None` for a named liquid.
+    pub fn temperature_mut(&mut self) -> Option<&mut ThermodynamicTemperature> {
+        match self {
+            Fluid::Water { temperature } => Some(temperature),
+            Fluid::Glycol(g) => Some(&mut g.temperature),
+            Fluid::Custom(_) => None,
         }
     }
 }
@@ -210,8 +263,27 @@ pub struct Tank {
     pub test_flow: Option<VolumeRate>,
     /// A well: the part of `drawdown` that is well loss, growing as Q² (`well_loss`).
     pub well_loss: Option<Length>,
+    /// The closed-loop fields of a pressure reference (expansion tank, fill point).
+    pub reference: LoopReference,
     /// Where the tank's name is written.
     pub span: Span,
+}
+
+/// What a closed loop's pressure reference states besides its level and its minimum
+/// (cold fill, precharge) `pressure` (grammar/LANGUAGE.md, "Closed loops").
+#[derive(Clone, Debug, Default)]
+pub struct LoopReference {
+    /// `max_pressure`: the highest gauge pressure at the reference (relief setting or the
+    /// hot system), for the ratings.
+    pub max_pressure: Option<Pressure>,
+    /// `high_point`: the loop's highest point (air vents, top coil) on the datum, when
+    /// higher than every node the design names.
+    pub high_point: Option<Length>,
+    /// `high_point_pressure`: the least gauge pressure the high point must keep.
+    pub high_point_pressure: Option<Pressure>,
+    /// `connects = discharge`: where that word is written (the tank connects on the pump
+    /// discharge); `None` for the suction (the default).
+    pub on_discharge: Option<Span>,
 }
 
 /// The pressure on a free surface.

@@ -53,8 +53,29 @@ pub const ARGUMENT_WORDS: &[&str] = &[
 
 /// Words a field takes as its value (`units = us`, `roughness = aged`, ...).
 pub const VALUE_WORDS: &[&str] = &[
-    "us", "si", "single", "parallel", "series", "none", "speed", "trim", "nema", "iec", "new",
-    "aged", "water", "pump", "corners", "samples",
+    "us",
+    "si",
+    "single",
+    "parallel",
+    "series",
+    "none",
+    "speed",
+    "trim",
+    "nema",
+    "iec",
+    "new",
+    "aged",
+    "water",
+    "pump",
+    "corners",
+    "samples",
+    "ethylene_glycol",
+    "propylene_glycol",
+    "mass",
+    "volume",
+    "suction",
+    "discharge",
+    "fluid",
 ];
 
 /// The overrides of a case besides `TANK.level` and the other dotted paths.

@@ -130,6 +130,9 @@ pub struct EquipmentData {
     pub rated_flow: VolumeRate,
     /// Exponent n of Δp ∝ Qⁿ (2 unless stated).
     pub exponent: f64,
+    /// `rated_on = water`: the drop is the maker's rating on water, restated for the
+    /// design's fluid (`false`: the drop is for the design's fluid, the default).
+    pub rated_on_water: bool,
 }
 
 /// Fields of `junction` and `delivery` blocks.
@@ -144,7 +147,7 @@ pub const VALVE_FIELDS: &[&str] = &[
     "kind",
 ];
 /// Fields of an `equipment` block.
-pub const EQUIPMENT_FIELDS: &[&str] = &["drop", "rated_flow", "exponent"];
+pub const EQUIPMENT_FIELDS: &[&str] = &["drop", "rated_flow", "exponent", "rated_on"];
 
 fn out_of_range(what: &str, why: &str, span: Span) -> Diagnostic {
     Diagnostic::error(Code::OutOfRange, format!("{what} {why}"), Some(span))
@@ -292,6 +295,10 @@ pub fn set_equipment(
                 ));
             }
             q.exponent = n;
+        }
+        "rated_on" => {
+            let w = expect_word(e, env, "rating fluid", &["water", "fluid"])?;
+            q.rated_on_water = w == "water";
         }
         other => return Err(unknown_field("equipment", other, e.span)),
     }

@@ -13,7 +13,7 @@ use uom::si::{
 };
 
 use super::design::*;
-use super::eval::{self, expect_dim, expect_number, expect_temperature, Env};
+use super::eval::{self, expect_dim, expect_number, expect_temperature, expect_word, Env};
 use super::fields::{missing, read_fields, unknown_field};
 use super::ranges;
 use crate::diagnostics::{Diagnostic, Span};
@@ -94,7 +94,60 @@ pub const FLUID_FIELDS: &[&str] = &[
     "kinematic_viscosity",
     "vapor_pressure",
     "bulk_modulus",
+    "fraction",
+    "basis",
 ];
+
+/// The glycols `fluid WORD { ... }` names, with their engine kind.
+pub const GLYCOLS: &[(&str, crate::fluid::glycol::Glycol)] = &[
+    ("ethylene_glycol", crate::fluid::glycol::Glycol::Ethylene),
+    ("propylene_glycol", crate::fluid::glycol::Glycol::Propylene),
+];
+
+/// One field of a glycol mixture (`temperature`, `fraction`, `basis`).
+fn set_glycol(g: &mut GlycolMixture, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
+    match field {
+        "temperature" => {
+            g.temperature = ThermodynamicTemperature::new::<kelvin>(expect_temperature(e, env, "fluid temperature")?)
+        }
+        "fraction" => {
+            let x = expect_number(e, env, "glycol fraction")?;
+            if !(x.is_finite() && x > 0.0 && x < 1.0) {
+                return Err(Diagnostic::error(Code::OutOfRange, "a glycol fraction lies between 0 % and 100 %", Some(e.span))
+                    .with_help("write it as a percentage, e.g. `fraction = 30 %`"));
+            }
+            g.fraction = x;
+        }
+        "basis" => {
+            g.basis = match expect_word(e, env, "fraction basis", &["mass", "volume"])?.as_str() {
+                "mass" => FractionBasis::Mass,
+                _ => FractionBasis::Volume,
+            }
+        }
+        other => {
+            return Err(Diagnostic::error(
+                Code::UnknownField,
+                format!("{} has no field `{other}`: its properties follow from its fraction and temperature (Melinder 2010)", g.glycol.name()),
+                Some(e.span),
+            )
+            .with_help("a glycol mixture takes `fraction`, `basis` and `temperature`"))
+        }
+    }
+    Ok(())
+}
+
+/// The glycol mixture inside the range of Melinder's correlation (mass fraction 0–60 %,
+/// from its freezing point to 100 °C); an `out-of-range` error at `span` otherwise.
+pub fn check_glycol_range(fluid: &Fluid, span: Span) -> Result<(), Diagnostic> {
+    let Fluid::Glycol(g) = fluid else {
+        return Ok(());
+    };
+    let t = g.temperature.get::<kelvin>();
+    crate::fluid::glycol::check_range(g.glycol, g.mass_fraction(), t).map_err(|err| {
+        Diagnostic::error(Code::OutOfRange, err.message, Some(span))
+            .with_help("the glycol properties (Melinder 2010) cover 0 to 60 % by mass, from the mixture's freezing point to 100 °C")
+    })
+}
 
 /// Set one fluid field.
 pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
@@ -144,6 +197,7 @@ pub fn set_fluid(fluid: &mut Fluid, field: &str, e: &Expr, env: &Env) -> Result<
             let q = expect_dim(e, env, Dimension::PRESSURE, "bulk modulus")?;
             c.bulk_modulus = Some(pressure(env.in_range(&ranges::BULK_MODULUS, q.si, e.span)?));
         }
+        (Fluid::Glycol(g), field) => set_glycol(g, field, e, env)?,
         (_, other) => return Err(Diagnostic::error(Code::UnknownField, format!("the fluid has no field `{other}`"), Some(e.span))),
     }
     Ok(())
@@ -169,6 +223,18 @@ pub fn lower_fluid(
         Some(ArgKind::Word(w)) if w == "water" => Fluid::Water {
             temperature: ThermodynamicTemperature::new::<kelvin>(288.15),
         },
+        Some(ArgKind::Word(w)) if GLYCOLS.iter().any(|(n, _)| n == w) => {
+            Fluid::Glycol(GlycolMixture {
+                glycol: GLYCOLS
+                    .iter()
+                    .find(|(n, _)| n == w)
+                    .map(|(_, g)| *g)
+                    .unwrap_or(crate::fluid::glycol::Glycol::Ethylene),
+                fraction: 0.3,
+                basis: FractionBasis::Mass,
+                temperature: ThermodynamicTemperature::new::<kelvin>(288.15),
+            })
+        }
         Some(ArgKind::Text(name)) => Fluid::Custom(CustomFluid {
             name: name.clone(),
             temperature: None,
@@ -180,7 +246,7 @@ pub fn lower_fluid(
         _ => {
             let at = args.first().map(|a| a.span).unwrap_or(span);
             diags.push(
-                Diagnostic::error(Code::BadFluid, "a fluid is `water` or a quoted name", Some(at))
+                Diagnostic::error(Code::BadFluid, "a fluid is `water`, `ethylene_glycol`, `propylene_glycol` or a quoted name", Some(at))
                     .with_help("write `fluid water { temperature = 15 degC }` or `fluid \"brine\" { density = ..., viscosity = ..., vapor_pressure = ... }`"),
             );
             return None;
@@ -195,6 +261,17 @@ pub fn lower_fluid(
                     span,
                     "temperature = 15 degC",
                 ));
+            }
+        }
+        Fluid::Glycol(_) => {
+            for (req, ex) in [
+                ("fraction", "fraction = 30 %"),
+                ("basis", "basis = mass"),
+                ("temperature", "temperature = 7 degC"),
+            ] {
+                if f.get(req).is_none() {
+                    diags.push(missing(req, "a glycol mixture", span, ex));
+                }
             }
         }
         Fluid::Custom(_) => {
@@ -223,6 +300,10 @@ pub fn lower_fluid(
         if let Err(d) = set_fluid(&mut fluid, field.name, field.value, env) {
             diags.push(d);
         }
+    }
+    if let Err(d) = check_glycol_range(&fluid, f.get("temperature").map_or(span, |x| x.value.span))
+    {
+        diags.push(d);
     }
     Some(fluid)
 }
@@ -263,12 +344,62 @@ pub fn set_site(site: &mut Site, field: &str, e: &Expr, env: &Env) -> Result<(),
 }
 
 /// The fields of `tank`.
-pub const TANK_FIELDS: &[&str] = &["level", "pressure", "drawdown", "test_flow", "well_loss"];
+pub const TANK_FIELDS: &[&str] = &[
+    "level",
+    "pressure",
+    "drawdown",
+    "test_flow",
+    "well_loss",
+    "max_pressure",
+    "high_point",
+    "high_point_pressure",
+    "connects",
+];
+
+/// One closed-loop field of a tank (`max_pressure`, `high_point`, `high_point_pressure`,
+/// `connects`).
+fn set_reference(
+    r: &mut LoopReference,
+    field: &str,
+    e: &Expr,
+    env: &Env,
+) -> Result<(), Diagnostic> {
+    let gauge = |what: &str| -> Result<Pressure, Diagnostic> {
+        match expect_pressure(e, env, what, true)? {
+            SurfacePressure::Gauge(g) => Ok(pressure(env.in_range(
+                &ranges::GAUGE_PRESSURE,
+                g.get::<pascal>(),
+                e.span,
+            )?)),
+            SurfacePressure::Absolute(_) => Err(Diagnostic::error(
+                Code::UnitMismatch,
+                format!("{what} is a gauge pressure"),
+                Some(e.span),
+            )
+            .with_help("write it as kPa, bar or psi (gauge)")),
+        }
+    };
+    match field {
+        "max_pressure" => r.max_pressure = Some(gauge("the maximum pressure")?),
+        "high_point_pressure" => {
+            r.high_point_pressure = Some(gauge("the high point's least pressure")?)
+        }
+        "high_point" => r.high_point = Some(expect_level(e, env, "loop high point")?),
+        _ => {
+            let w = expect_word(e, env, "connection", &["suction", "discharge"])?;
+            r.on_discharge = (w == "discharge").then_some(e.span);
+        }
+    }
+    Ok(())
+}
 
 /// Set one field of a tank (base or case override), checking its dimension and range.
 pub fn set_tank(tank: &mut Tank, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
     match field {
         "level" => tank.level = expect_level(e, env, "tank level")?,
+        "max_pressure" | "high_point" | "high_point_pressure" | "connects" => {
+            set_reference(&mut tank.reference, field, e, env)?
+        }
         "drawdown" | "well_loss" => {
             let v = expect_length(e, env, "drawdown")?.get::<meter>();
             let v = length(env.in_range(&ranges::DRAWDOWN, v, e.span)?);
@@ -863,11 +994,18 @@ pub fn apply_override(
                 }
         }
         ["hours"] => s.hours_per_year = expect_hours(e, env)?,
-        ["fluid", field] => set_fluid(&mut s.fluid, field, e, env)?,
+        ["fluid", field] => {
+            set_fluid(&mut s.fluid, field, e, env)?;
+            check_glycol_range(&s.fluid, e.span)?;
+        }
         ["site", field] if SITE_FIELDS.contains(field) => set_site(&mut s.site, field, e, env)?,
         ["station", "centreline"] => s.centreline = expect_level(e, env, "pump centreline")?,
         [tank, field] if *tank == s.source.name && TANK_FIELDS.contains(field) => {
-            set_tank(&mut s.source, field, e, env)?
+            set_tank(&mut s.source, field, e, env)?;
+            // A closed loop returns to the tank it draws from: one tank, both ends.
+            if s.destination.name == s.source.name {
+                s.destination = s.source.clone();
+            }
         }
         [tank, field] if *tank == s.destination.name && TANK_FIELDS.contains(field) => {
             set_tank(&mut s.destination, field, e, env)?

@@ -8,7 +8,7 @@ use uom::si::{length::meter, thermodynamic_temperature::kelvin};
 
 use crate::analysis::system::CaseSystem;
 use crate::model::uncertainty::{InputRange, RangeKind};
-use crate::model::{Fluid, Scenario};
+use crate::model::Scenario;
 
 /// The case's system with every input `j` at `x[j]` of its range (0 low end, 1 high
 /// end, 0.5 the case's value for ± ranges).
@@ -26,7 +26,7 @@ pub fn system_at(s: &Scenario, inputs: &[InputRange], x: &[f64]) -> Result<CaseS
                 }
             }
             RangeKind::Temperature { plus_minus_k } => {
-                if let Fluid::Water { temperature } = &mut s.fluid {
+                if let Some(temperature) = s.fluid.temperature_mut() {
                     let t = temperature.get::<kelvin>() + signed * plus_minus_k;
                     *temperature = ThermodynamicTemperature::new::<kelvin>(t);
                 }

@@ -100,7 +100,7 @@ impl StationNetwork {
                 name: l.name.clone(),
                 from,
                 to,
-                element: element(s, &l.name, &l.kind)?,
+                element: element(s, &l.name, &l.kind, fluid)?,
                 check: l.check,
             });
         }
@@ -152,7 +152,12 @@ impl StationNetwork {
     }
 }
 
-fn element(s: &Scenario, name: &str, kind: &NetLinkKind) -> Result<Element, SystemError> {
+fn element(
+    s: &Scenario,
+    name: &str,
+    kind: &NetLinkKind,
+    fluid: &FluidState,
+) -> Result<Element, SystemError> {
     Ok(match kind {
         NetLinkKind::Pipe(segments) => Element::Pipe(PipeRun {
             segments: segments
@@ -173,11 +178,24 @@ fn element(s: &Scenario, name: &str, kind: &NetLinkKind) -> Result<Element, Syst
             control: v.control,
         }),
         NetLinkKind::Equipment(q) => Element::Equipment(Equipment {
-            rated_drop: q.drop.get::<pascal>(),
+            rated_drop: q.drop.get::<pascal>() * water_rating_factor(q, fluid),
             rated_flow: q.rated_flow.get::<cubic_meter_per_second>(),
             exponent: q.exponent,
         }),
     })
+}
+
+/// The factor restating an equipment drop rated on water for the case's fluid: ρ/ρ_w
+/// (ρ_w = 1000 kg/m³, the reference of the flow coefficient Kv, IEC 60534-2-1) — at the
+/// same flow in fully turbulent flow Δp = K·ρ·v²/2, so the drop scales with density (the
+/// specific-gravity correction; no viscosity correction is applied). 1 when the drop is
+/// stated for the design's fluid.
+pub fn water_rating_factor(q: &crate::model::network::EquipmentData, fluid: &FluidState) -> f64 {
+    if q.rated_on_water {
+        fluid.density / super::elements::KV_REFERENCE_DENSITY
+    } else {
+        1.0
+    }
 }
 
 /// One node at a duty point, with the flags a reviewer looks for.

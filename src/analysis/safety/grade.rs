@@ -79,7 +79,7 @@ fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
     // A well's surface is its pumping level at the flow.
     let source =
         sys.source_level - sys.drawdown(q) + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
-    let destination = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
+    let destination = discharge_end_head(sys, q, rho_g);
     let losses: Vec<(f64, f64)> = sys
         .segments
         .iter()
@@ -108,6 +108,20 @@ fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
         }
     }
     out
+}
+
+/// Energy head at the far end of the discharge lines at station flow `q`, m (gauge
+/// datum): the destination surface's head; for a closed loop, the network's entry node
+/// head at that flow (the loop's losses downstream of the discharge lines lie between
+/// that node and the reference tank, so the tank's head would understate every
+/// discharge pressure by them). Open networks still take the destination surface
+/// (unchanged here; see DEVELOPERS.md, "Closed loops").
+fn discharge_end_head(sys: &CaseSystem, q: f64, rho_g: f64) -> f64 {
+    let surface = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
+    match &sys.network {
+        Some((net, _)) if sys.closed_loop => net.entry_head(q).unwrap_or(surface),
+        _ => surface,
+    }
 }
 
 /// Hydraulic grade (m) at each station when the set carries `q` and each pump `qp`

@@ -18,7 +18,7 @@ use uom::si::frequency::cycle_per_minute;
 
 use super::checks::Check;
 use super::duty::{stages, CandidateCurves};
-use super::limits;
+use super::limits::{self, CheckId};
 use super::system::{CaseSystem, G};
 use super::CaseResult;
 use crate::model::{Adjust, Design, Fluid, Line, Side};
@@ -36,6 +36,9 @@ pub struct Safety {
     pub shutoff: Option<Shutoff>,
     /// Per case, in design order.
     pub cases: Vec<CaseSafety>,
+    /// A closed loop's maximum reference pressure (gauge), Pa, when the screen takes it
+    /// instead of the fill pressure (`closed_loop::rating_system`).
+    pub closed_loop_max_pa: Option<f64>,
 }
 
 /// The shut-off condition: the pump running against a closed discharge.
@@ -173,27 +176,60 @@ pub fn screen(
                 let d = result.pumps.get(k)?.duty.as_ref()?;
                 Some((d.flow, d.flow_per_pump))
             });
-            match &result.system {
-                Some(sys) => case_screen(
+            let screen_at = |sys: &CaseSystem| {
+                case_screen(
                     &case.scenario.lines,
                     &case.scenario.fluid,
                     sys,
                     flow,
                     shutoff.as_ref(),
                     &result.name,
-                ),
-                None => CaseSafety {
+                )
+            };
+            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
+            match (&result.system, raised.as_ref()) {
+                (Some(sys), Some(high)) => at_both_pressures(screen_at(sys), screen_at(high)),
+                (Some(sys), None) => screen_at(sys),
+                _ => CaseSafety {
                     case: result.name.clone(),
                     ..Default::default()
                 },
             }
         })
         .collect();
+    let closed_loop_max_pa = design
+        .base
+        .source
+        .reference
+        .max_pressure
+        .filter(|_| crate::analysis::closed_loop::is_closed_loop(&design.base))
+        .map(|p| p.get::<uom::si::pressure::pascal>());
     Safety {
         candidate: k.map(|k| design.pumps[k].name.clone()),
         shutoff,
         cases: cases_out,
+        closed_loop_max_pa,
     }
+}
+
+/// A closed loop screened at both reference pressures: the minimum-pressure, vapour and
+/// column-separation checks (and the plotted grades) from the screen at the minimum
+/// (fill) pressure `low`; the rating, shut-off and surge checks and the shut-off
+/// pressures from the screen at the maximum `high`.
+fn at_both_pressures(mut low: CaseSafety, high: CaseSafety) -> CaseSafety {
+    let minimum = |c: &Check| {
+        matches!(
+            c.id,
+            CheckId::MinimumPressure | CheckId::VapourMargin | CheckId::ColumnSeparation
+        )
+    };
+    let mut checks: Vec<Check> = low.checks.into_iter().filter(|c| minimum(c)).collect();
+    checks.extend(high.checks.into_iter().filter(|c| !minimum(c)));
+    low.checks = checks;
+    for (l, h) in low.lines.iter_mut().zip(high.lines) {
+        l.pressure_shutoff = h.pressure_shutoff;
+    }
+    low
 }
 
 /// The recommended candidate, else the first with a duty in some case.
@@ -247,9 +283,12 @@ fn shutoff(
     let head = ser as f64 * largest.head.eval(q0.max(0.0)) * ratio * ratio;
     let (suction_pressure, suction_case) = cases
         .iter()
-        .filter_map(|c| {
-            c.system
+        .zip(&design.cases)
+        .filter_map(|(c, case)| {
+            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
+            raised
                 .as_ref()
+                .or(c.system.as_ref())
                 .map(|s| (suction_static_pressure(s), c.name.clone()))
         })
         .max_by(|a, b| a.0.total_cmp(&b.0))?;
@@ -284,7 +323,7 @@ fn case_screen(
     name: &str,
 ) -> CaseSafety {
     let temperature = match fluid {
-        Fluid::Water { .. } => sys.fluid.temperature_k,
+        Fluid::Water { .. } | Fluid::Glycol(_) => sys.fluid.temperature_k,
         Fluid::Custom(c) => c
             .temperature
             .map(|t| t.get::<uom::si::thermodynamic_temperature::kelvin>()),

@@ -62,6 +62,7 @@ pub fn lower(
     if layout.is_some() {
         network.destination = downstream;
     }
+    expansion_tank_side(&network, &mut diags);
     let pump_list = candidates::lower_candidates(&blocks, &env, files, &mut diags);
     let motor = operation::lower_motor(blocks.body("motor"), texts.project.units, &env, &mut diags);
     let energy = operation::lower_energy(blocks.body("energy"), &env, &mut diags);
@@ -150,6 +151,32 @@ fn base_scenario(
                 .collect(),
         }),
         _ => None,
+    }
+}
+
+/// A closed loop (its discharge returns to the source tank) whose expansion tank
+/// connects on the pump discharge: warned (grammar/LANGUAGE.md, "Closed loops").
+fn expansion_tank_side(network: &lines::Network, diags: &mut Vec<Diagnostic>) {
+    let (Some(src), Some(dst)) = (&network.source, &network.destination) else {
+        return;
+    };
+    if src.name != dst.name {
+        for t in [src, dst] {
+            let r = &t.reference;
+            let stated = r.max_pressure.is_some()
+                || r.high_point.is_some()
+                || r.high_point_pressure.is_some()
+                || r.on_discharge.is_some();
+            if stated {
+                diags.push(Diagnostic::warning(Code::UnusedField, format!("tank {}: `max_pressure`, `high_point`, `high_point_pressure` and `connects` belong to a closed loop's reference tank, and this design does not return to it; they are not used", t.name), Some(t.span))
+                    .with_help("a closed loop ends its network (or its discharge line) at the tank its suction line starts from"));
+            }
+        }
+        return;
+    }
+    if let Some(at) = src.reference.on_discharge {
+        diags.push(Diagnostic::warning(Code::ExpansionTankDischarge, format!("the expansion tank {} connects on the pump discharge: the pumps then lower the pressure at their suction by their head, and the loop's cases are not analysed", src.name), Some(at))
+                .with_help("connect the expansion tank at the pump suction (common practice), so that the pumps add pressure to the loop instead of subtracting it"));
     }
 }
 

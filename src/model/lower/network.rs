@@ -180,6 +180,22 @@ pub fn lower_network(
             }
         }
     }
+    let returns = |t: &Tank| links.iter().any(|l| l.from == t.name || l.to == t.name);
+    if let Some(src) = chain
+        .source
+        .as_ref()
+        .filter(|t| reached.is_empty() && returns(t))
+    {
+        // A closed loop: the network returns to the tank the pumps draw from, the
+        // loop's pressure reference (grammar/LANGUAGE.md, "Closed loops").
+        let layout = NetworkLayout {
+            entry,
+            nodes,
+            tanks: Vec::new(),
+            links,
+        };
+        return (Some(layout), Some(src.clone()));
+    }
     if reached.is_empty() {
         let span = nodes.iter().find(|n| n.name == entry).map(|n| n.span);
         diags.push(Diagnostic::error(Code::NoDownstreamTank, "the network reaches no tank downstream of the station", span)
@@ -351,6 +367,7 @@ fn lower_equipment(
         drop: Pressure::default(),
         rated_flow: VolumeRate::default(),
         exponent: 2.0,
+        rated_on_water: false,
     };
     let mut complete = true;
     for (field, example) in [

@@ -60,6 +60,7 @@ fn lower_tank(
         drawdown: None,
         test_flow: None,
         well_loss: None,
+        reference: LoopReference::default(),
         span: name_span,
     };
     let what = format!("tank {name}");

@@ -44,6 +44,9 @@ pub(super) fn chapter(
          head the station must supply at each flow with the split solved at that flow: its \
          'network' part is the entry node's head above its value at zero station flow."
     )));
+    if let Some(text) = closed_loop_method(design, units) {
+        blocks.push(Block::text(text));
+    }
     if let Some(text) = valve_check_method(design) {
         blocks.push(Block::text(text));
     }
@@ -448,6 +451,44 @@ fn schematic(
             "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
         ),
     });
+}
+
+/// The closed-loop paragraph: the reference tank, the cancelled static head, the minimum
+/// and maximum pressures, the high point and the equipment rated on water.
+fn closed_loop_method(design: &Design, units: &Units) -> Option<String> {
+    let s = &design.base;
+    if !crate::analysis::closed_loop::is_closed_loop(s) {
+        return None;
+    }
+    let pr = units.pressure();
+    let r = &s.source.reference;
+    let max = r.max_pressure.map_or_else(
+        || "no maximum is stated, so the rating screen takes the minimum".to_string(),
+        |p| {
+            format!(
+                "the maximum, {} gauge, is used for the pressure ratings and the shut-off screen",
+                pr.fmt(p.get::<uom::si::pressure::pascal>())
+            )
+        },
+    );
+    let least = r
+        .high_point_pressure
+        .map_or(crate::analysis::limits::LOOP_HIGH_POINT_PA.value, |p| {
+            p.get::<uom::si::pressure::pascal>()
+        });
+    let water = s.network.iter().flat_map(|n| &n.links).any(
+        |l| matches!(&l.kind, crate::model::network::NetLinkKind::Equipment(q) if q.rated_on_water),
+    );
+    let restated = if water {
+        " Drops rated on water are restated for the fluid at the same flow by the density ratio, Δp = Δp_water·ρ/ρ₀ (ρ₀ = 1000 kg/m³; the specific-gravity correction of fully turbulent flow); no viscosity correction is applied."
+    } else {
+        ""
+    };
+    Some(format!(
+        "This is a closed loop: the network returns to {}, the tank the pumps draw from, which is the loop's pressure reference. Its level and surface pressure are both ends of the system, so the static head cancels and the system curve is friction and equipment only. Its stated pressure is the minimum (cold fill or precharge), used for NPSH available and every pressure check; {max}. The loop's high point is checked at rest from the minimum pressure, p = p₀ − ρ·g·Δz (p₀ the minimum pressure at the reference, Δz the height of the high point above it), against the least {} gauge that keeps air out at the vents: with the tank at the pump suction the pumps raise the pressure everywhere downstream, so rest is the lowest.{restated}",
+        s.source.name,
+        pr.fmt(least),
+    ))
 }
 
 /// How the valve checks are made, when the network has a valve.

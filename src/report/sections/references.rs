@@ -77,8 +77,16 @@ const REFERENCES: [(&str, &str, Provenance); 42] = [
 /// The open transcriptions the recalled tables were compared with, and what was not.
 const CROSS_CHECKS: &str = "Cross-checks: the tool's test suite compares the recalled fitting constants (Hooper 2-K, Darby 3-K, Crane foot valves, size changes and entrances) and the pipe dimension tables (ASME B36.10M and B36.19M, ASTM D1785, PE by DR), the typical motor part-load curve (WSEO 1993) and the drive part-load table (DOE Tip Sheet #11) with the open transcriptions of the same tables in the Python fluids package (Caleb Bell et al.), and checks that each material's new and aged roughness gives the friction factor implied by its Hazen-Williams C. A transcription is a second reading of the same publication, not a source: where they differ, the publication governs. The Hazen-Williams C values, the NPSH margin and operating-region limits and the motor tables are recalled without such a cross-check.";
 
+/// The glycol reference, listed (last) only when the design pumps a glycol mixture.
+const MELINDER: (&str, &str, Provenance) = (
+    "Melinder, Å. (2010), Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., International Institute of Refrigeration, Paris: the fits for aqueous ethylene and propylene glycol.",
+    "glycol density, viscosity and freezing point",
+    Provenance::Method,
+);
+
 /// The references chapter.
-pub(super) fn chapter(blocks: &mut Vec<Block>) {
+pub(super) fn chapter(blocks: &mut Vec<Block>, design: &crate::model::Design) {
+    let glycol = matches!(design.base.fluid, crate::model::Fluid::Glycol(_)).then_some(&MELINDER);
     blocks.push(Block::heading(1, "References"));
     blocks.push(Block::Table {
         columns: vec![
@@ -89,6 +97,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>) {
         ],
         rows: REFERENCES
             .iter()
+            .chain(glycol)
             .enumerate()
             .map(|(k, (publication, supplies, provenance))| {
                 vec![
@@ -102,4 +111,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>) {
         caption: Some("Publications the calculation relies on".into()),
     });
     blocks.push(Block::text(CROSS_CHECKS));
+    if glycol.is_some() {
+        blocks.push(Block::text("The glycol coefficients were taken from CoolProp's open transcription of Melinder's tables (mass fraction, kelvin) and the test suite evaluates them against that transcription; where the two differ, the publication governs."));
+    }
 }

@@ -29,7 +29,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
     intro(blocks, s, analysis);
     method(blocks);
     shutoff(blocks, s, units);
-    ratings_table(blocks, first, units);
+    ratings_table(blocks, first, units, s.closed_loop_max_pa);
     for (i, line) in first.lines.iter().enumerate() {
         blocks.push(Block::heading(2, format!("Line {}", line.name)));
         blocks.push(Block::text(format!(
@@ -133,9 +133,17 @@ fn shutoff(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
     blocks.push(Block::KeyValue(kv));
 }
 
-fn ratings_table(blocks: &mut Vec<Block>, c: &CaseSafety, units: &Units) {
+fn ratings_table(
+    blocks: &mut Vec<Block>,
+    c: &CaseSafety,
+    units: &Units,
+    closed_loop_max: Option<f64>,
+) {
     blocks.push(Block::heading(2, "Pressure ratings"));
     blocks.push(Block::text(format!("Ratings at the liquid temperature of case {} (thermoplastic ratings fall with temperature). The weakest of a pipe and the fittings rated on it governs. A rating given in the design is used as given, without a surge allowance.", c.case)));
+    if let Some(max) = closed_loop_max {
+        blocks.push(Block::text(format!("A closed loop: the rating, shut-off and surge checks take its reference at the maximum pressure, {} gauge (relief setting or hot system); the minimum-pressure, vapour and column-separation checks, the grade plots and the pressure tables take the minimum (fill) pressure.", units.pressure().fmt(max))));
+    }
     let pr = units.rating();
     let mut rows = Vec::new();
     for l in &c.lines {

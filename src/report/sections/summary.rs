@@ -219,6 +219,7 @@ pub(super) fn restricted(
                 .iter()
                 .filter_map(|&i| analysis.safety.cases.get(i).cloned())
                 .collect(),
+            closed_loop_max_pa: analysis.safety.closed_loop_max_pa,
         },
         operation: analysis.operation.clone(),
     };
