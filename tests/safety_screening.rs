@@ -475,3 +475,33 @@ fn a_named_liquid_with_a_bulk_modulus_is_surge_screened() {
     assert!(stiff < (1.8e9_f64 / 850.0).sqrt());
     assert!(soft < (1.2e9_f64 / 850.0).sqrt());
 }
+
+/// A discharge line that ends at a network's entry node ends there in the screen too:
+/// its last station is at the entry node's elevation and its pressure there is the
+/// entry node's pressure at the duty (the hillside demo's station line once ended at
+/// the ridge tank's level and grade, understating the screened discharge pressures by
+/// the network's losses and delivery pressures).
+#[test]
+fn a_network_discharge_line_ends_at_the_entry_node() {
+    let a = analyse(&demo("hillside-district"), &BTreeMap::new());
+    let screened = a.safety.candidate.clone().expect("a screened candidate");
+    for (case, cs) in a.cases.iter().zip(&a.safety.cases) {
+        let pump = case.pumps.iter().find(|p| p.name == screened).unwrap();
+        let net = pump.network.as_ref().expect("the network at the duty");
+        let entry = net.nodes.iter().find(|n| n.name == "manifold").unwrap();
+        let line = cs.lines.iter().find(|l| l.name == "discharge").unwrap();
+        let last = line.stations.len() - 1;
+        assert!((line.stations[last].elevation - entry.elevation).abs() < 1e-9);
+        let p = line.pressure_duty.as_ref().expect("pressures at the duty")[last];
+        // The screen's pressure is the energy grade less the velocity head, the node's
+        // the network's head (velocity heads neglected at nodes): equal within ρv²/2.
+        let v = line.velocities.iter().cloned().fold(0.0, f64::max);
+        let velocity_pressure = line.density * v * v / 2.0;
+        assert!(
+            (p - entry.pressure).abs() <= velocity_pressure * (1.0 + 1e-9),
+            "case {}: line end {p} Pa, entry node {} Pa",
+            cs.case,
+            entry.pressure
+        );
+    }
+}

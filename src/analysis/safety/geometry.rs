@@ -50,8 +50,9 @@ impl LineProfile {
 }
 
 /// The profile of `line`: its `profile`, else its segments' end elevations, else a
-/// straight grade from `ends.0` (upstream end) to `ends.1` (downstream end), m.
-pub fn line_profile(line: &Line, ends: (f64, f64)) -> LineProfile {
+/// straight grade from `ends.0` (upstream end) to `ends.1` (downstream end), m;
+/// `discharge_end` names where a discharge line ends ("the destination level").
+pub fn line_profile(line: &Line, ends: (f64, f64), discharge_end: &str) -> LineProfile {
     let length: f64 = line.segments.iter().map(|s| s.length.get::<meter>()).sum();
     if let Some(p) = &line.profile {
         let mut knots: Vec<(f64, f64)> = p
@@ -112,7 +113,7 @@ pub fn line_profile(line: &Line, ends: (f64, f64)) -> LineProfile {
                 "straight grade from the source level to the pump centreline".to_string()
             }
             Side::Discharge => {
-                "straight grade from the pump centreline to the destination level".to_string()
+                format!("straight grade from the pump centreline to {discharge_end}")
             }
         }
     };

@@ -111,16 +111,15 @@ fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
 }
 
 /// Energy head at the far end of the discharge lines at station flow `q`, m (gauge
-/// datum): the destination surface's head; for a closed loop, the network's entry node
-/// head at that flow (the loop's losses downstream of the discharge lines lie between
-/// that node and the reference tank, so the tank's head would understate every
-/// discharge pressure by them). Open networks still take the destination surface
-/// (unchanged here; see DEVELOPERS.md, "Closed loops").
+/// datum): the destination surface's head for a chain; for a network (open or a closed
+/// loop), the network's entry node head at that flow. The network's losses and
+/// delivery pressures lie between that node and the tanks beyond it, so a tank's head
+/// would understate every discharge pressure by them (unconservative for ratings).
 fn discharge_end_head(sys: &CaseSystem, q: f64, rho_g: f64) -> f64 {
     let surface = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
     match &sys.network {
-        Some((net, _)) if sys.closed_loop => net.entry_head(q).unwrap_or(surface),
-        _ => surface,
+        Some((net, _)) => net.entry_head(q).unwrap_or(surface),
+        None => surface,
     }
 }
 

@@ -357,11 +357,19 @@ fn line_screen(
     notes: &mut Vec<String>,
 ) -> LineSafety {
     let rho = sys.fluid.density;
+    // Discharge lines end at the destination surface, or at a network's entry node.
+    let (discharge_end, end_name) = match &sys.network {
+        Some((net, _)) => (
+            net.network.nodes[net.entry].elevation,
+            "the network's entry node",
+        ),
+        None => (sys.destination_level, "the destination level"),
+    };
     let ends = match line.side {
         Side::Suction => (sys.source_level, sys.centreline),
-        Side::Discharge => (sys.centreline, sys.destination_level),
+        Side::Discharge => (sys.centreline, discharge_end),
     };
-    let profile = geometry::line_profile(line, ends);
+    let profile = geometry::line_profile(line, ends, end_name);
     notes.extend(profile.warning.clone());
     let stations = grade::stations(sys, &line.name, &profile);
     let grade_duty = flow.map(|(q, qp)| grade::grade_at(sys, &stations, q, qp));
