@@ -61,11 +61,13 @@ pub enum CheckId {
     ValveOpening,
     /// A network control valve's authority at the duty against its usual minimum.
     ValveAuthority,
+    /// A network without a downstream tank: the duty flow against the design demands.
+    DesignDemand,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 27] = [
+    pub const ALL: [CheckId; 28] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -93,6 +95,7 @@ impl CheckId {
         CheckId::ControlCurve,
         CheckId::ValveOpening,
         CheckId::ValveAuthority,
+        CheckId::DesignDemand,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -125,6 +128,7 @@ impl CheckId {
             CheckId::ControlCurve => "control-curve",
             CheckId::ValveOpening => "valve-opening",
             CheckId::ValveAuthority => "valve-authority",
+            CheckId::DesignDemand => "design-demand",
         }
     }
 
@@ -187,6 +191,9 @@ impl CheckId {
             }
             CheckId::ValveAuthority => {
                 "network control valve authority at the duty (fully open valve drop over the drop between its end nodes)"
+            }
+            CheckId::DesignDemand => {
+                "a demand-only network's duty flow against the sum of its design demands (scale 1)"
             }
         }
     }
