@@ -339,17 +339,19 @@ impl CaseSystem {
             }
         };
         let well = well_drawdown(s)?;
-        let (destination_level, destination_abs_pa) =
-            match network.as_ref().and_then(|(n, _)| Some((n, n.governing_at_zero()?))) {
-                // A demand-only network: its governing node at zero flow stands in for
-                // the destination surface (elevation, required pressure).
-                Some((n, i)) => {
-                    let node = &n.network.nodes[i];
-                    let p = node.required_pressure.unwrap_or(0.0);
-                    (node.elevation, barometric_pa + p)
-                }
-                None => (s.destination.level.get::<meter>(), destination_abs_pa),
-            };
+        let (destination_level, destination_abs_pa) = match network
+            .as_ref()
+            .and_then(|(n, _)| Some((n, n.governing_at_zero()?)))
+        {
+            // A demand-only network: its governing node at zero flow stands in for
+            // the destination surface (elevation, required pressure).
+            Some((n, i)) => {
+                let node = &n.network.nodes[i];
+                let p = node.required_pressure.unwrap_or(0.0);
+                (node.elevation, barometric_pa + p)
+            }
+            None => (s.destination.level.get::<meter>(), destination_abs_pa),
+        };
         Ok(CaseSystem {
             well,
             network,

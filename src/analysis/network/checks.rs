@@ -98,10 +98,7 @@ pub fn design_demand_check(at: &NetworkAtDuty) -> Option<Check> {
         crate::message![
             "the duty delivers ",
             flow(at.station_flow),
-            format!(
-                ", {:.1} % of the design demands ",
-                100.0 * scale
-            ),
+            format!(", {:.1} % of the design demands ", 100.0 * scale),
             flow(design),
             if ok {
                 ", every demand scaled alike with the governing node at its required pressure"

@@ -398,7 +398,11 @@ impl StationNetwork {
         let rho_g = net.fluid.density * G;
         // A demand-only network's governing node sits at its required pressure by
         // construction: a micrometre of head absorbs the rounding of the rise.
-        let slack = if self.pattern.is_some() { 1e-6 * rho_g } else { 0.0 };
+        let slack = if self.pattern.is_some() {
+            1e-6 * rho_g
+        } else {
+            0.0
+        };
         let nodes = net
             .nodes
             .iter()
@@ -434,9 +438,7 @@ impl StationNetwork {
                     demand,
                     inflow,
                     required_pressure: n.required_pressure,
-                    below_required: n
-                        .required_pressure
-                        .is_some_and(|r| st.pressure < r - slack),
+                    below_required: n.required_pressure.is_some_and(|r| st.pressure < r - slack),
                     below_atmospheric: !fixed && st.pressure < 0.0,
                     near_vapour: !fixed
                         && absolute < net.fluid.vapor_pressure + NEAR_VAPOUR_HEAD_M * rho_g,

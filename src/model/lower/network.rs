@@ -185,7 +185,10 @@ pub fn lower_network(
     }
     if reached.is_empty() {
         let span = nodes.iter().find(|n| n.name == entry).map(|n| n.span);
-        if !nodes.iter().any(|n| n.demand.get::<cubic_meter_per_second>() > 0.0) {
+        if !nodes
+            .iter()
+            .any(|n| n.demand.get::<cubic_meter_per_second>() > 0.0)
+        {
             diags.push(Diagnostic::error(Code::NoDownstreamTank, "the network reaches no tank downstream of the station and draws no demand: the station's flow has nowhere to go", span)
                 .with_help("give the delivery points their demands (`demand = 180 gpm`), or add a tank with `tank NAME { level = ... }` and a line to it"));
             return (None, None);
