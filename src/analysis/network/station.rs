@@ -313,7 +313,7 @@ fn demand_pattern(net: &mut Network, entry: usize) -> Result<Option<DemandPatter
             NodeKind::FixedHead { .. } => 0.0,
         })
         .sum();
-    if !(design_demand > 0.0) || !design_demand.is_finite() {
+    if design_demand.is_nan() || design_demand <= 0.0 || !design_demand.is_finite() {
         return Err(SystemError {
             message: "the network reaches no tank downstream of the station and its demands sum to zero in this case: the station's flow has nowhere to go".into(),
         });
