@@ -30,10 +30,19 @@ route from dutyline's, which holds the entry head and raises every head afterwar
 - symmetric_pair: two identical branches to two identical delivery points (a hand
   check: the flow splits equally, each branch carries Q/2).
 
+Well fields (issue 12; `well_fields`): several wells, each with the same pump, into one
+collector. Every well adds four nodes (static level, pumping level, pump suction, pump
+discharge) and four links (drawdown s = B Q + C Q^2 from the one test point, Jacob 1947;
+suction pipe; pump; discharge pipe); the whole network is solved by the same
+solve_root. NPSH available per pump = p_b/(rho g) + (H_suction - z_pump) - p_v/(rho g).
+- three_wells: three unequal wells (levels, drawdowns, column lengths) into a two-node
+  collector and a main to a reservoir (invented).
+- twin_wells: two identical wells into one node (a hand check: equal flows).
+
 Writes network_scipy.json next to this script: per network its data and the solution
 (heads of every node, m; flows of every link, m^3/s), and under `demand_only` the
 demand-only networks with their solutions per station flow. The Rust tests
-(tests/network_reference.rs, tests/network_demand_only.rs) build the same networks from
+(tests/network_reference.rs, tests/network_demand_only.rs, tests/well_field.rs) build the same networks from
 this file.
 Run: python3 gen_network.py   (pip install fluids scipy numpy)
 """
@@ -140,6 +149,10 @@ def link_loss(link, q, fluid):
             assert re > 4000.0, f"{link['name']}: Re {re} not turbulent; keep the reference turbulent"
         f = Colebrook(re, link["roughness_m"] / d)
         return s * (f * link["length_m"] / d + link["k"]) * v * v / (2 * G)
+    if kind == "drawdown":
+        b = (link["drawdown_m"] - link["well_loss_m"]) / link["test_flow_m3_s"]
+        c = link["well_loss_m"] / link["test_flow_m3_s"] ** 2
+        return s * (b * a + c * a * a)
     if kind == "pump":
         per = q / link["parallel"]
         return -(link["shutoff_m"] - link["curve_m_s2_m6"] * per * abs(per))
@@ -257,6 +270,104 @@ DEMAND_ONLY = [
 ]
 
 
+def well(name, level, drawdown, well_loss, pump_z, column_m, node):
+    return dict(name=name, static_level_m=level, drawdown_m=drawdown, test_flow_m3_s=0.02,
+                well_loss_m=well_loss, pump_elevation_m=pump_z,
+                suction=dict(length_m=3.0, diameter_m=0.15, roughness_m=0.00005, k=1.0),
+                discharge=dict(length_m=column_m, diameter_m=0.1023, roughness_m=0.00005,
+                               k=2.0),
+                collector_node=node)
+
+
+WELL_FIELDS = [
+    dict(
+        name="three_wells",
+        fluid=dict(density=998.2, viscosity=1.0016e-3, vapor_pressure_pa=2339.0),
+        barometric_pa=101325.0,
+        pump=dict(shutoff_m=90.0, curve_m_s2_m6=60000.0),
+        collector=dict(
+            nodes=[
+                dict(name="C1", demand_m3_s=0.0, elevation_m=100.0),
+                dict(name="C2", demand_m3_s=0.0, elevation_m=100.0),
+                dict(name="reservoir", fixed_head_m=118.0, elevation_m=118.0),
+            ],
+            links=[
+                pipe("header", "C1", "C2", 300.0, 0.1541, 0.00005),
+                pipe("main", "C2", "reservoir", 1200.0, 0.2027, 0.00005, k=3.0),
+            ],
+        ),
+        wells=[
+            well("w1", 70.0, 6.0, 1.5, 55.0, 80.0, "C1"),
+            well("w2", 68.0, 9.0, 3.0, 52.0, 260.0, "C1"),
+            well("w3", 72.0, 4.0, 1.0, 60.0, 140.0, "C2"),
+        ],
+    ),
+    dict(
+        name="twin_wells",
+        fluid=dict(density=998.2, viscosity=1.0016e-3, vapor_pressure_pa=2339.0),
+        barometric_pa=101325.0,
+        pump=dict(shutoff_m=90.0, curve_m_s2_m6=60000.0),
+        collector=dict(
+            nodes=[
+                dict(name="C", demand_m3_s=0.0, elevation_m=100.0),
+                dict(name="reservoir", fixed_head_m=115.0, elevation_m=115.0),
+            ],
+            links=[pipe("main", "C", "reservoir", 900.0, 0.2027, 0.00005, k=3.0)],
+        ),
+        wells=[
+            well("a", 70.0, 6.0, 1.5, 55.0, 120.0, "C"),
+            well("b", 70.0, 6.0, 1.5, 55.0, 120.0, "C"),
+        ],
+    ),
+]
+
+
+def field_network(field):
+    """The collector with every well's four nodes and four links appended, named as
+    dutyline's analysis/network/field.rs names them."""
+    nodes = list(field["collector"]["nodes"])
+    links = list(field["collector"]["links"])
+    for w in field["wells"]:
+        n = w["name"]
+        lv = w["static_level_m"]
+        nodes += [dict(name=f"{n} static level", fixed_head_m=lv, elevation_m=lv),
+                  dict(name=f"{n} pumping level", demand_m3_s=0.0, elevation_m=lv),
+                  dict(name=f"{n} pump suction", demand_m3_s=0.0, elevation_m=w["pump_elevation_m"]),
+                  dict(name=f"{n} pump discharge", demand_m3_s=0.0, elevation_m=w["pump_elevation_m"])]
+        sp, dp = w["suction"], w["discharge"]
+        links += [dict(name=f"{n} drawdown", kind="drawdown",
+                       **{"from": f"{n} static level", "to": f"{n} pumping level"},
+                       drawdown_m=w["drawdown_m"], test_flow_m3_s=w["test_flow_m3_s"],
+                       well_loss_m=w["well_loss_m"]),
+                  pipe(f"{n} suction", f"{n} pumping level", f"{n} pump suction",
+                       sp["length_m"], sp["diameter_m"], sp["roughness_m"], sp["k"]),
+                  dict(name=f"{n} pump", kind="pump",
+                       **{"from": f"{n} pump suction", "to": f"{n} pump discharge"},
+                       shutoff_m=field["pump"]["shutoff_m"],
+                       curve_m_s2_m6=field["pump"]["curve_m_s2_m6"], parallel=1),
+                  pipe(f"{n} discharge", f"{n} pump discharge", w["collector_node"],
+                       dp["length_m"], dp["diameter_m"], dp["roughness_m"], dp["k"])]
+    return dict(name=field["name"], fluid=field["fluid"], nodes=nodes, links=links)
+
+
+def solve_field(field):
+    net = field_network(field)
+    sol = solve_root(net)
+    fl = field["fluid"]
+    rho_g = fl["density"] * G
+    pumps = []
+    for w in field["wells"]:
+        n = w["name"]
+        q = sol["flows_m3_s"][f"{n} pump"]
+        hs = sol["heads_m"][f"{n} pump suction"]
+        hd = sol["heads_m"][f"{n} pump discharge"]
+        pumps.append(dict(well=n, flow_m3_s=q, head_m=hd - hs,
+                          pumping_level_m=sol["heads_m"][f"{n} pumping level"],
+                          npsh_available_m=field["barometric_pa"] / rho_g
+                          + (hs - w["pump_elevation_m"]) - fl["vapor_pressure_pa"] / rho_g))
+    return dict(sol, pumps=pumps, total_flow_m3_s=sum(p["flow_m3_s"] for p in pumps))
+
+
 def need_head(n, fluid):
     """z + p_req/(rho g), m: the head a governing node must keep."""
     return n["elevation_m"] + n.get("required_pressure_pa", 0.0) / (fluid["density"] * G)
@@ -328,6 +439,13 @@ def main():
             for s in sols:  # the hand solution: equal split
                 assert abs(s["flows_m3_s"]["left"] - s["flows_m3_s"]["right"]) < 1e-12
         out["demand_only"].append(dict(net, solutions=sols))
+    out["well_fields"] = []
+    for field in WELL_FIELDS:
+        sol = solve_field(field)
+        if field["name"] == "twin_wells":  # the hand solution: equal split
+            a, b = sol["pumps"]
+            assert abs(a["flow_m3_s"] - b["flow_m3_s"]) < 1e-12
+        out["well_fields"].append(dict(field, solution=sol))
     path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "network_scipy.json")
     with open(path, "w") as f:
         json.dump(out, f, indent=1, sort_keys=True)
@@ -335,6 +453,9 @@ def main():
     for e in out["networks"]:
         print(e["name"], {k: round(v, 6) for k, v in e["solution"]["flows_m3_s"].items()})
         print("  heads", {k: round(v, 4) for k, v in e["solution"]["heads_m"].items()})
+    for e in out["well_fields"]:
+        print(e["name"], [(p["well"], round(p["flow_m3_s"], 6), round(p["head_m"], 3),
+                           round(p["npsh_available_m"], 3)) for p in e["solution"]["pumps"]])
     for e in out["demand_only"]:
         for s in e["solutions"]:
             print(e["name"], s["station_flow_m3_s"], s["governing"],

@@ -227,6 +227,12 @@ fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
                     e.exponent
                 ),
                 Element::Pump(_) => "pump set".to_string(),
+                Element::Drawdown(w) => format!(
+                    "well drawdown {} at {} (well loss {})",
+                    len.fmt(w.drawdown),
+                    fl.fmt(w.test_flow),
+                    len.fmt(w.well_loss)
+                ),
             };
             vec![
                 l.name.clone(),
