@@ -11,6 +11,8 @@
 //! - The design path: the duty, the governing node at its required pressure, and the
 //!   `design-demand` check against the design demands.
 
+mod report_common;
+
 use dutyline::analysis::{analyse, Analysis};
 use dutyline::NoFiles;
 
@@ -271,4 +273,48 @@ fn demands_summing_to_zero_fail_the_case_with_a_reason() {
     assert!(dry.system.is_none());
     let text = format!("{:?}", dry);
     assert!(text.contains("demands sum to zero"), "{text}");
+}
+
+/// The package of a demand-only design states the scaled demands and prints no NaN.
+#[test]
+fn the_package_states_the_scaled_demands() {
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/designs/demand-only-terrace.duty"
+    );
+    let src = std::fs::read_to_string(path).unwrap();
+    let d = dutyline::check(&src, &NoFiles)
+        .design
+        .expect("valid design");
+    let a = analyse(&d);
+    let style =
+        dutyline::report::layout::style::Style::builtin(dutyline::report::builtin_style_for(&d))
+            .unwrap();
+    let pdf = dutyline::report::render_pdf(&d, &a, &src, &style, None).unwrap();
+    let pages = report_common::pdftext::page_texts(&pdf).unwrap();
+    let all = pages
+        .join("\n")
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join(" ");
+    for want in [
+        "scaled alike by Q / D",
+        "the critical node governs",
+        "Design demand D per case: summer 46.8 m³/h; spring 39.6 m³/h",
+        "governing node at zero flow",
+        "design-demand",
+    ] {
+        assert!(all.contains(want), "no `{want}` in the package");
+    }
+    assert!(!all.contains("NaN"));
+    // Each duty's node table names its scale: Q / D of that case.
+    for c in &a.cases {
+        let at = c.pumps[0].network.as_ref().unwrap();
+        let scale = at.demand_scale.unwrap();
+        assert!(
+            all.contains(&format!("scaled by {scale:.3}")),
+            "{}: {scale}",
+            c.name
+        );
+    }
 }
