@@ -68,11 +68,13 @@ pub enum CheckId {
     /// A closed loop's high point at rest, at the minimum reference pressure, against
     /// the least pressure it must keep (air ingress).
     LoopHighPoint,
+    /// A network without a downstream tank: the duty flow against the design demands.
+    DesignDemand,
 }
 
 impl CheckId {
     /// Every check id, in the order the package lists them.
-    pub const ALL: [CheckId; 29] = [
+    pub const ALL: [CheckId; 30] = [
         CheckId::DutyPoint,
         CheckId::OperatingRegion,
         CheckId::NpshMargin,
@@ -102,6 +104,7 @@ impl CheckId {
         CheckId::ValveAuthority,
         CheckId::FreezeMargin,
         CheckId::LoopHighPoint,
+        CheckId::DesignDemand,
     ];
 
     /// The id as the JSON and the diff spell it.
@@ -136,6 +139,7 @@ impl CheckId {
             CheckId::ValveAuthority => "valve-authority",
             CheckId::FreezeMargin => "freeze-margin",
             CheckId::LoopHighPoint => "loop-high-point",
+            CheckId::DesignDemand => "design-demand",
         }
     }
 
@@ -204,6 +208,9 @@ impl CheckId {
             }
             CheckId::LoopHighPoint => {
                 "closed loop high point at rest, at the minimum reference pressure, against its least pressure (air ingress)"
+            }
+            CheckId::DesignDemand => {
+                "a demand-only network's duty flow against the sum of its design demands (scale 1)"
             }
         }
     }

@@ -388,6 +388,19 @@ impl CaseSystem {
             }
         };
         let well = well_drawdown(s)?;
+        let (destination_level, destination_abs_pa) = match network
+            .as_ref()
+            .and_then(|(n, _)| Some((n, n.governing_at_zero()?)))
+        {
+            // A demand-only network: its governing node at zero flow stands in for
+            // the destination surface (elevation, required pressure).
+            Some((n, i)) => {
+                let node = &n.network.nodes[i];
+                let p = node.required_pressure.unwrap_or(0.0);
+                (node.elevation, barometric_pa + p)
+            }
+            None => (s.destination.level.get::<meter>(), destination_abs_pa),
+        };
         Ok(CaseSystem {
             well,
             closed_loop: s.destination.name == s.source.name,
@@ -398,7 +411,7 @@ impl CaseSystem {
             barometric_pa,
             barometric_source,
             source_level: s.source.level.get::<meter>(),
-            destination_level: s.destination.level.get::<meter>(),
+            destination_level,
             centreline: s.centreline.get::<meter>(),
             source_abs_pa,
             destination_abs_pa,

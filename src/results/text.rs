@@ -462,6 +462,13 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
 /// The network at a duty point: every node (head, pressure, flags) and link.
 fn network_detail(o: &mut String, u: &Units, n: &crate::analysis::network::station::NetworkAtDuty) {
     let (fl, hd, pr, vel) = (u.flow(), u.head(), u.gauge_pressure(), u.velocity());
+    if let Some(scale) = n.demand_scale {
+        let _ = writeln!(
+            o,
+            "    demands: the design demands {} scaled by {scale:.4} to the duty (no downstream tank)",
+            fl.fmt(n.station_flow / scale)
+        );
+    }
     for x in &n.nodes {
         let mut flags = Vec::new();
         if x.below_required {

@@ -36,6 +36,7 @@ pub fn at_duties(
             .at_duty(q)
             .map_err(|e| format!("the network at the duty of pump {}: {e}", p.name))?;
         p.checks.extend(node_checks(&at));
+        p.checks.extend(design_demand_check(&at));
         p.checks.extend(requirement_checks(design, case, &at));
         p.checks.extend(super::valves::valve_checks(net, &at));
         p.network = Some(at);
@@ -79,6 +80,34 @@ pub fn node_checks(at: &NetworkAtDuty) -> Vec<Check> {
         }
     }
     out
+}
+
+/// A network without a downstream tank: the duty's demand scale Q / D against 1. The
+/// governing node sits at its required pressure at every station flow (the system curve
+/// is built so), so what a pump too small shows is a flow below the design demands: fail
+/// below scale 1 (less a part in 10⁹ for rounding).
+pub fn design_demand_check(at: &NetworkAtDuty) -> Option<Check> {
+    let scale = at.demand_scale?;
+    let design = at.station_flow / scale;
+    let ok = scale >= 1.0 - 1e-9;
+    Some(Check::typed(
+        CheckId::DesignDemand,
+        if ok { Status::Pass } else { Status::Fail },
+        Some(at.station_flow),
+        Some(design),
+        crate::message![
+            "the duty delivers ",
+            flow(at.station_flow),
+            format!(", {:.1} % of the design demands ", 100.0 * scale),
+            flow(design),
+            if ok {
+                ", every demand scaled alike with the governing node at its required pressure"
+            } else {
+                ": the network's demands cannot all be met at their required pressures"
+            }
+        ],
+        Source::DesignRequirement,
+    ))
 }
 
 fn vacuum_check(n: &NodeAtDuty) -> Option<Check> {

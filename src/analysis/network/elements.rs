@@ -14,6 +14,10 @@
 //!   N₁ = 1, from memory); Cv (US gal/min at 1 psi) = 1.156·Kv (common practice; the
 //!   exact factor from NIST SP 811 units is 1.1561); inherent characteristics of
 //!   IEC 60534-1 (from memory): linear Kv = x·Kvs and equal percentage Kv = Kvs·R^(x−1).
+//! - **Well drawdown**: from a well's static level to its pumping level,
+//!   s = B·Q + C·Q² (Jacob 1947, "Drawdown test to determine effective radius of
+//!   artesian well", Trans. ASCE 112), continued as an odd law for reverse flow
+//!   (a recharging well, outside the method's scope, is only kept solvable).
 //!
 //! **Zero flow.** Laws that are flat at Q = 0 (quadratic drops) are continued linearly
 //! below [`REGULAR_FLOW`] (the chord through the law's value there), so the slope never
@@ -23,7 +27,7 @@
 
 use std::sync::Arc;
 
-use crate::analysis::system::{segment_loss_slopes_in, FluidState, SegmentState, G};
+use crate::analysis::system::{segment_loss_slopes_in, FluidState, SegmentState, WellDrawdown, G};
 
 /// Below this flow (m³/s, 1 mL/s) a quadratic law is continued by its chord (numerical
 /// regularisation; the flows of interest are far larger).
@@ -129,6 +133,8 @@ pub enum Element {
     Equipment(Equipment),
     /// A valve by flow coefficient.
     Valve(Valve),
+    /// A well's drawdown from its static level to its pumping level.
+    Drawdown(WellDrawdown),
 }
 
 impl Element {
@@ -139,6 +145,7 @@ impl Element {
             Element::Pump(_) => "pump",
             Element::Equipment(_) => "equipment",
             Element::Valve(_) => "valve",
+            Element::Drawdown(_) => "drawdown",
         }
     }
 
@@ -165,6 +172,10 @@ impl Element {
                 let kv_si = v.kv() / 3600.0; // m³/s at 1 bar
                 let r = 1e5 / (KV_REFERENCE_DENSITY * G) / (kv_si * kv_si);
                 power_law(r, 2.0, q)
+            }
+            Element::Drawdown(w) => {
+                let a = q.abs();
+                (w.at(a) * q.signum(), w.slope(a).max(MIN_SLOPE))
             }
         }
     }

@@ -12,6 +12,7 @@
 
 pub mod checks;
 pub mod elements;
+pub mod field;
 pub mod gradient;
 pub mod sparse;
 pub mod station;

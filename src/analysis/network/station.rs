@@ -6,6 +6,17 @@
 //! the rest, so the split between destinations is a result of each solve. The head the
 //! station must supply at Q is then H_entry(Q) plus the chain's losses to the entry node
 //! ([`crate::analysis::CaseSystem::head`]): the station's system curve.
+//!
+//! **A network without a downstream tank** (demands only, [`DemandPattern`]) has nothing
+//! to float on: at a station flow Q the case's demands are scaled by Q / D (D their sum
+//! at the design, scale 1) so that they draw exactly Q, and the entry head is the
+//! smallest that keeps every governing node at its requirement: the head losses from the
+//! entry are solved with the entry's head fixed, then every head is raised by
+//! max over the governing nodes of (z + p_req/ρg − H). The governing nodes are those
+//! with a stated required pressure and those drawing a demand (which must at least be
+//! reached at zero gauge pressure). The critical-node rule of the system-head curve of a
+//! distribution network (Walski et al., *Advanced Water Distribution Modeling and
+//! Management*, 2003, ch. 8, from memory).
 
 use uom::si::{length::meter, pressure::pascal, volume_rate::cubic_meter_per_second};
 
@@ -34,6 +45,23 @@ pub struct StationNetwork {
     pub barometric_pa: f64,
     /// The topology prepared once (checks, ordering) for the many solves of a case.
     prepared: Prepared,
+    /// Set for a network without a downstream tank: the demands are scaled with the
+    /// station's flow and the entry head set by the governing node.
+    pub pattern: Option<DemandPattern>,
+}
+
+/// A network without a downstream tank: its design demands scale with the station flow.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DemandPattern {
+    /// The design demands' sum D (scale 1), m³/s, the entry node's own included.
+    pub design_demand: f64,
+}
+
+impl DemandPattern {
+    /// The scale Q / D of the design demands that draws a station flow `q` (m³/s).
+    pub fn scale(&self, q: f64) -> f64 {
+        q / self.design_demand
+    }
 }
 
 fn gauge(p: SurfacePressure, barometric: f64) -> f64 {
@@ -120,11 +148,12 @@ impl StationNetwork {
             NodeKind::Junction { demand } => demand,
             NodeKind::FixedHead { .. } => 0.0,
         };
-        let network = Network {
+        let mut network = Network {
             fluid: fluid.clone(),
             nodes,
             links,
         };
+        let pattern = demand_pattern(&mut network, entry)?;
         let prepared = Prepared::new(&network).map_err(|e| SystemError {
             message: format!("the network: {e}"),
         })?;
@@ -134,16 +163,100 @@ impl StationNetwork {
             entry,
             entry_demand,
             barometric_pa,
+            pattern,
         })
     }
 
     /// Solve with the station delivering `q` (m³/s) into the entry node.
     pub fn solve_at(&self, q: f64) -> Result<Solution, NetworkError> {
-        let mut net = self.network.clone();
-        net.nodes[self.entry].kind = NodeKind::Junction {
-            demand: self.entry_demand - q,
+        let Some(pattern) = &self.pattern else {
+            let mut net = self.network.clone();
+            net.nodes[self.entry].kind = NodeKind::Junction {
+                demand: self.entry_demand - q,
+            };
+            return solve_prepared(&net, &self.prepared, &Settings::default());
         };
+        debug_assert!(pattern.design_demand > 0.0);
+        let mut sol = self.solve_held(q)?;
+        self.raise_to_governing(&mut sol);
+        Ok(sol)
+    }
+
+    /// A demand-only network solved at station flow `q` (m³/s) with the demands scaled
+    /// and the entry head held at the entry's elevation (before the governing rise).
+    fn solve_held(&self, q: f64) -> Result<Solution, NetworkError> {
+        let mut net = self.network.clone();
+        let scale = self.pattern.as_ref().map_or(1.0, |p| p.scale(q));
+        for n in &mut net.nodes {
+            if let NodeKind::Junction { demand } = &mut n.kind {
+                *demand *= scale;
+            }
+        }
         solve_prepared(&net, &self.prepared, &Settings::default())
+    }
+
+    /// Raise every head of a demand-only solve (entry held at its elevation) by the
+    /// largest shortfall of a governing node (see the module's doc), and restate the
+    /// pressures ρg(H − z).
+    fn raise_to_governing(&self, sol: &mut Solution) {
+        let net = &self.network;
+        let rho_g = net.fluid.density * G;
+        let Some((_, shift)) = self.governing(sol) else {
+            return;
+        };
+        for (st, n) in sol.nodes.iter_mut().zip(&net.nodes) {
+            st.head += shift;
+            st.pressure = rho_g * (st.head - n.elevation);
+        }
+    }
+
+    /// The governing node of a demand-only solve and its shortfall z + p_req/ρg − H, m:
+    /// the largest over the nodes that govern (the first in design order on a tie).
+    fn governing(&self, sol: &Solution) -> Option<(usize, f64)> {
+        let rho_g = self.network.fluid.density * G;
+        self.network
+            .nodes
+            .iter()
+            .enumerate()
+            .filter(|(i, n)| self.governs(*i, n))
+            .map(|(i, n)| {
+                let need = n.elevation + n.required_pressure.unwrap_or(0.0) / rho_g;
+                (i, need - sol.nodes[i].head)
+            })
+            .fold(None, |best: Option<(usize, f64)>, x| match best {
+                Some(b) if b.1 >= x.1 => Some(b),
+                _ => Some(x),
+            })
+    }
+
+    /// A demand-only network's governing node at zero station flow (the highest
+    /// elevation plus required pressure head), by index; `None` when a tank floats on it.
+    pub fn governing_at_zero(&self) -> Option<usize> {
+        self.pattern.as_ref()?;
+        let sol = self.solve_held(0.0).ok()?;
+        self.governing(&sol).map(|(i, _)| i)
+    }
+
+    /// Whether node `i` governs a demand-only network's entry head: it states a required
+    /// pressure or draws a demand.
+    fn governs(&self, i: usize, n: &Node) -> bool {
+        let demand = match n.kind {
+            _ if i == self.entry => self.entry_demand,
+            NodeKind::Junction { demand } => demand,
+            NodeKind::FixedHead { .. } => 0.0,
+        };
+        n.required_pressure.is_some() || demand > 0.0
+    }
+
+    /// The demand drawn at node `i` with the station delivering `q` (m³/s): the design
+    /// demand, scaled in a network without a downstream tank; 0 for a tank.
+    fn demand_at(&self, i: usize, q: f64) -> f64 {
+        let scale = self.pattern.as_ref().map_or(1.0, |p| p.scale(q));
+        match self.network.nodes[i].kind {
+            _ if i == self.entry => self.entry_demand * scale,
+            NodeKind::Junction { demand } => demand * scale,
+            NodeKind::FixedHead { .. } => 0.0,
+        }
     }
 
     /// Head at the entry node, m, with the station delivering `q` (m³/s).
@@ -196,6 +309,39 @@ pub fn water_rating_factor(q: &crate::model::network::EquipmentData, fluid: &Flu
     } else {
         1.0
     }
+}
+
+/// For a network with no fixed-head node (no tank downstream): hold the entry node's
+/// head for the solve (at its elevation; [`StationNetwork::solve_at`] raises it to the
+/// governing node) and return the design demand pattern. `None` when a tank floats on
+/// the network; an error when the demands of the case sum to zero.
+fn demand_pattern(net: &mut Network, entry: usize) -> Result<Option<DemandPattern>, SystemError> {
+    if net
+        .nodes
+        .iter()
+        .any(|n| matches!(n.kind, NodeKind::FixedHead { .. }))
+    {
+        return Ok(None);
+    }
+    let design_demand: f64 = net
+        .nodes
+        .iter()
+        .map(|n| match n.kind {
+            NodeKind::Junction { demand } => demand,
+            NodeKind::FixedHead { .. } => 0.0,
+        })
+        .sum();
+    if design_demand.is_nan() || design_demand <= 0.0 || !design_demand.is_finite() {
+        return Err(SystemError {
+            message: "the network reaches no tank downstream of the station and its demands sum to zero in this case: the station's flow has nowhere to go".into(),
+        });
+    }
+    let n = &mut net.nodes[entry];
+    n.kind = NodeKind::FixedHead {
+        level: n.elevation,
+        surface_pressure: 0.0,
+    };
+    Ok(Some(DemandPattern { design_demand }))
 }
 
 /// One node at a duty point, with the flags a reviewer looks for.
@@ -257,6 +403,9 @@ pub struct NetworkAtDuty {
     pub links: Vec<LinkAtDuty>,
     /// Newton iterations the solve used.
     pub iterations: usize,
+    /// A network without a downstream tank: the scale Q / D of the design demands at
+    /// this duty (dimensionless); `None` when a tank floats on the network.
+    pub demand_scale: Option<f64>,
 }
 
 impl StationNetwork {
@@ -265,13 +414,21 @@ impl StationNetwork {
         let sol = self.solve_at(q)?;
         let net = &self.network;
         let rho_g = net.fluid.density * G;
+        // A demand-only network's governing node sits at its required pressure by
+        // construction: a micrometre of head absorbs the rounding of the rise.
+        let slack = if self.pattern.is_some() {
+            1e-6 * rho_g
+        } else {
+            0.0
+        };
         let nodes = net
             .nodes
             .iter()
             .enumerate()
             .map(|(i, n)| {
                 let st = sol.nodes[i];
-                let fixed = matches!(n.kind, NodeKind::FixedHead { .. });
+                let fixed = matches!(n.kind, NodeKind::FixedHead { .. })
+                    && !(self.pattern.is_some() && i == self.entry);
                 let inflow = fixed.then(|| {
                     net.links
                         .iter()
@@ -289,11 +446,7 @@ impl StationNetwork {
                         .sum()
                 });
                 let absolute = st.pressure + self.barometric_pa;
-                let demand = match n.kind {
-                    NodeKind::Junction { .. } if i == self.entry => self.entry_demand,
-                    NodeKind::Junction { demand } => demand,
-                    NodeKind::FixedHead { .. } => 0.0,
-                };
+                let demand = self.demand_at(i, q);
                 NodeAtDuty {
                     name: n.name.clone(),
                     kind: n.word,
@@ -303,7 +456,7 @@ impl StationNetwork {
                     demand,
                     inflow,
                     required_pressure: n.required_pressure,
-                    below_required: n.required_pressure.is_some_and(|r| st.pressure < r),
+                    below_required: n.required_pressure.is_some_and(|r| st.pressure < r - slack),
                     below_atmospheric: !fixed && st.pressure < 0.0,
                     near_vapour: !fixed
                         && absolute < net.fluid.vapor_pressure + NEAR_VAPOUR_HEAD_M * rho_g,
@@ -337,6 +490,7 @@ impl StationNetwork {
             nodes,
             links,
             iterations: sol.iterations,
+            demand_scale: self.pattern.as_ref().map(|p| p.scale(q)),
         })
     }
 }

@@ -4,6 +4,9 @@
 //! lines end at a node.
 
 use uom::si::f64::{Length, Pressure, VolumeRate};
+use uom::si::length::meter;
+use uom::si::pressure::pascal;
+use uom::si::volume_rate::cubic_meter_per_second;
 
 use super::lines::{self, line_ends};
 use super::{duplicate_name, Block, Blocks};
@@ -198,9 +201,24 @@ pub fn lower_network(
     }
     if reached.is_empty() {
         let span = nodes.iter().find(|n| n.name == entry).map(|n| n.span);
-        diags.push(Diagnostic::error(Code::NoDownstreamTank, "the network reaches no tank downstream of the station", span)
-            .with_help("this version solves networks that float on at least one downstream tank or reservoir; add one with `tank NAME { level = ... }` and a line to it"));
-        return (None, None);
+        if !nodes
+            .iter()
+            .any(|n| n.demand.get::<cubic_meter_per_second>() > 0.0)
+        {
+            diags.push(Diagnostic::error(Code::NoDownstreamTank, "the network reaches no tank downstream of the station and draws no demand: the station's flow has nowhere to go", span)
+                .with_help("give the delivery points their demands (`demand = 180 gpm`), or add a tank with `tank NAME { level = ... }` and a line to it"));
+            return (None, None);
+        }
+        let stand_in = demand_only_destination(span.unwrap_or_default());
+        return (
+            Some(NetworkLayout {
+                entry,
+                nodes,
+                tanks: reached,
+                links,
+            }),
+            Some(stand_in),
+        );
     }
     let destination = reached.remove(0);
     (
@@ -212,6 +230,26 @@ pub fn lower_network(
         }),
         Some(destination),
     )
+}
+
+/// The name of the stand-in destination of a network without a downstream tank (not an
+/// identifier, so no case override or requirement can name it).
+pub const DEMAND_ONLY_DESTINATION: &str = "network demands";
+
+/// The stand-in destination of a network without a downstream tank: the engine
+/// replaces its level and pressure by the governing node's
+/// ([`crate::analysis::network::station`]); it only fills the scenario's slot.
+fn demand_only_destination(span: Span) -> Tank {
+    Tank {
+        name: DEMAND_ONLY_DESTINATION.into(),
+        level: Length::new::<meter>(0.0),
+        surface_pressure: SurfacePressure::Gauge(Pressure::new::<pascal>(0.0)),
+        drawdown: None,
+        test_flow: None,
+        well_loss: None,
+        reference: crate::model::design::LoopReference::default(),
+        span,
+    }
 }
 
 fn lower_link(

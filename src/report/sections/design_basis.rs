@@ -87,6 +87,26 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
     }
 }
 
+/// For a network without a downstream tank: which node the destination columns give.
+fn governing_note(analysis: &Analysis) -> String {
+    let names: Vec<String> = analysis
+        .cases
+        .iter()
+        .filter_map(|c| {
+            let (net, _) = c.system.as_ref()?.network.as_ref()?;
+            let i = net.governing_at_zero()?;
+            Some(format!("{} {}", c.name, net.network.nodes[i].name))
+        })
+        .collect();
+    if names.is_empty() {
+        return String::new();
+    }
+    format!(
+        "; the network has no downstream tank: the destination columns give its governing node at zero flow (elevation and required pressure; {}), see Network",
+        names.join(", ")
+    )
+}
+
 /// Surface levels, pump centreline, surface pressures and static head per case.
 fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: &Units) {
     blocks.push(Block::heading(2, "Levels and static head"));
@@ -134,12 +154,14 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
                 ]
             })
             .collect(),
-        caption: Some(
+        caption: Some(format!(
+            "{}{}",
             match analysis.cases.iter().any(|c| c.system.as_ref().is_some_and(|s| s.well.is_some())) {
-                false => "Surface levels, pump datum, surface pressures and static head per case".into(),
-                true => "Surface levels, pump datum, surface pressures and static head per case; a well's level is its static water level and the static head is taken from it: the drawdown at each flow is added to the system curve, and the pumping level at each duty is in the candidate chapters".into(),
+                false => "Surface levels, pump datum, surface pressures and static head per case",
+                true => "Surface levels, pump datum, surface pressures and static head per case; a well's level is its static water level and the static head is taken from it: the drawdown at each flow is added to the system curve, and the pumping level at each duty is in the candidate chapters",
             },
-        ),
+            governing_note(analysis)
+        )),
     });
 }
 

@@ -47,6 +47,9 @@ pub(super) fn chapter(
     if let Some(text) = closed_loop_method(design, units) {
         blocks.push(Block::text(text));
     }
+    if let Some(text) = demand_only_method(analysis, units) {
+        blocks.push(Block::text(text));
+    }
     if let Some(text) = valve_check_method(design) {
         blocks.push(Block::text(text));
     }
@@ -126,6 +129,37 @@ pub(super) fn chapter(
     }
 }
 
+/// The method of a network without a downstream tank: scaled demands and the governing
+/// node (see [`crate::analysis::network::station`]), with the design demand per case.
+fn demand_only_method(analysis: &Analysis, units: &Units) -> Option<String> {
+    let per_case: Vec<String> = analysis
+        .cases
+        .iter()
+        .filter_map(|c| {
+            let (net, _) = c.system.as_ref()?.network.as_ref()?;
+            let d = net.pattern.as_ref()?.design_demand;
+            Some(format!("{} {}", c.name, units.flow().text(d)))
+        })
+        .collect();
+    if per_case.is_empty() {
+        return None;
+    }
+    Some(format!(
+        "The network reaches no tank downstream of the station, so nothing fixes its heads \
+         but the station. At a station flow Q the case's demands are scaled alike by Q / D, \
+         D being their sum as designed (scale 1), so that they draw exactly Q; the entry \
+         node's head is then the smallest that keeps every node with a required pressure at \
+         it, and every node drawing a demand at zero gauge pressure or above (the critical \
+         node governs). That head, less its value at zero flow, is the network part of the \
+         system curve, and the duty is where the pump curve meets it. The design demands \
+         (scale 1) are the requirement point: a duty below them fails the check \
+         'design-demand', a duty above them delivers more than designed at the same \
+         governing pressure. Node pressures and demands below are at the duty, with the \
+         demands scaled. Design demand D per case: {}.",
+        per_case.join("; ")
+    ))
+}
+
 /// The links with the data their losses come from (base case values).
 fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
     let (len, dia, rough) = (units.length(), units.diameter(), units.roughness());
@@ -196,6 +230,12 @@ fn links_table(blocks: &mut Vec<Block>, net: &StationNetwork, units: &Units) {
                     e.exponent
                 ),
                 Element::Pump(_) => "pump set".to_string(),
+                Element::Drawdown(w) => format!(
+                    "well drawdown {} at {} (well loss {})",
+                    len.fmt(w.drawdown),
+                    fl.fmt(w.test_flow),
+                    len.fmt(w.well_loss)
+                ),
             };
             vec![
                 l.name.clone(),
@@ -282,10 +322,17 @@ fn state_tables(blocks: &mut Vec<Block>, what: &str, at: &NetworkAtDuty, units: 
             Column::new("Flag", 0.19, Align::Left),
         ],
         rows: nodes,
-        caption: Some(format!(
-            "Nodes at the duty, {what} (station flow {}); pressure = ρg(head − elevation); a tank's column gives its inflow",
-            fl.fmt(at.station_flow)
-        )),
+        caption: Some(match at.demand_scale {
+            None => format!(
+                "Nodes at the duty, {what} (station flow {}); pressure = ρg(head − elevation); a tank's column gives its inflow",
+                fl.fmt(at.station_flow)
+            ),
+            Some(scale) => format!(
+                "Nodes at the duty, {what} (station flow {}: the design demands {} scaled by {scale:.3}); pressure = ρg(head − elevation)",
+                fl.fmt(at.station_flow),
+                fl.fmt(at.station_flow / scale)
+            ),
+        }),
     });
     let links = at
         .links

@@ -335,6 +335,9 @@ pub(super) fn requirement_matrix<'a>(
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 pub struct NetworkOut<'a> {
     station_flow_m3_s: f64,
+    /// A network without a downstream tank only: the scale of the design demands.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    demand_scale: Option<f64>,
     nodes: Vec<NodeOut<'a>>,
     links: Vec<LinkOut<'a>>,
 }
@@ -373,6 +376,7 @@ struct LinkOut<'a> {
 pub fn network(n: &crate::analysis::network::station::NetworkAtDuty) -> NetworkOut<'_> {
     NetworkOut {
         station_flow_m3_s: n.station_flow,
+        demand_scale: n.demand_scale,
         nodes: n
             .nodes
             .iter()
