@@ -130,7 +130,7 @@ fn pressurised_and_vacuum_tanks_enter_npsh_and_static_head_with_their_sign() {
     assert!((dp.npsh_terms.surface_pressure_head - 10.0 * PSI / rho_g_p).abs() < 1e-9);
     assert!((dv.npsh_terms.surface_pressure_head + 5.0 * PSI / rho_g_v).abs() < 1e-9);
     // The barometric term is the same pressure in all three.
-    assert!((dp.npsh_terms.barometric_head - o.barometric_pa / rho_g_p).abs() < 1e-9);
+    assert!((dp.npsh_terms.barometric_head - o.barometric.pa() / rho_g_p).abs() < 1e-9);
     // Static head: Δz + (p_dest − p_source)/(ρg): 5 − 10 psi lowers it by 5 psi of head;
     // the vacuum on the source raises it by 5 psi of head.
     let dz = o.static_head; // open tanks: the static head is the level difference

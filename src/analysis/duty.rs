@@ -361,10 +361,10 @@ fn well_at(sys: &CaseSystem, q: f64) -> Option<WellAtDuty> {
     let w = sys.well?;
     let (aquifer_loss, well_loss) = w.parts(q);
     Some(WellAtDuty {
-        static_level: sys.source_level,
+        static_level: sys.source_level.m(),
         aquifer_loss,
         well_loss,
-        pumping_level: sys.source_level - aquifer_loss - well_loss,
+        pumping_level: sys.source_level.m() - aquifer_loss - well_loss,
     })
 }
 

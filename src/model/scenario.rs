@@ -1048,17 +1048,15 @@ pub fn water_state_errors(
             );
             continue;
         }
-        let site = &case.scenario.site;
-        let barometric = match site.barometric_pressure {
-            Some(p) => Ok(p.get::<pascal>()),
-            None => crate::fluid::barometric_pressure_pa(site.elevation.get::<meter>())
-                .map_err(|e| e.message),
+        let Ok(barometric) = case.scenario.site.barometric() else {
+            continue;
         };
-        let Ok(barometric) = barometric else { continue };
-        let surface = match case.scenario.source.surface_pressure {
-            SurfacePressure::Gauge(g) => barometric + g.get::<pascal>(),
-            SurfacePressure::Absolute(a) => a.get::<pascal>(),
-        };
+        let surface = case
+            .scenario
+            .source
+            .surface_pressure
+            .absolute(barometric)
+            .pa();
         let boils = match crate::fluid::saturation_pressure_pa(t) {
             Ok(pv) => (pv >= surface).then_some(pv),
             Err(_) => Some(f64::INFINITY),

@@ -43,22 +43,22 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
                 .unwrap_or_default(),
             u.density().fmt(s.fluid.density),
             u.viscosity().fmt(s.fluid.viscosity),
-            u.pressure().fmt(s.fluid.vapor_pressure)
+            u.pressure().fmt(s.fluid.vapor_pressure.pa())
         );
         let _ = writeln!(
             o,
             "  barometric pressure: {}",
-            u.pressure().fmt(s.barometric_pa)
+            u.pressure().fmt(s.barometric.pa())
         );
         let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
         let _ = writeln!(
             o,
             "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {} absolute; pipe condition {}",
-            u.elevation().fmt(s.source_level),
-            u.elevation().fmt(s.destination_level),
-            u.elevation().fmt(s.centreline),
-            u.pressure().fmt(s.source_abs_pa),
-            u.pressure().fmt(s.destination_abs_pa),
+            u.elevation().fmt(s.source_level.m()),
+            u.elevation().fmt(s.destination_level.m()),
+            u.elevation().fmt(s.centreline.m()),
+            u.pressure().fmt(s.source_surface.pa()),
+            u.pressure().fmt(s.destination_surface.pa()),
             s.pipe_condition.keyword()
         );
         for g in &s.segments {

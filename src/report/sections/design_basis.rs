@@ -49,8 +49,8 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
                     .unwrap_or_else(|| "—".into()),
                 units.density().text(system.fluid.density),
                 units.viscosity().text(system.fluid.viscosity),
-                units.pressure().text(system.fluid.vapor_pressure),
-                units.pressure().text(system.barometric_pa),
+                units.pressure().text(system.fluid.vapor_pressure.pa()),
+                units.pressure().text(system.barometric.pa()),
             ]
         })
         .collect();
@@ -114,17 +114,17 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             .map(|(case, system)| {
                 vec![
                     case.name.clone(),
-                    units.elevation().text(system.source_level),
-                    units.elevation().text(system.destination_level),
-                    units.elevation().text(system.centreline),
+                    units.elevation().text(system.source_level.m()),
+                    units.elevation().text(system.destination_level.m()),
+                    units.elevation().text(system.centreline.m()),
                     format!(
                         "{} / {}",
                         units
                             .pressure()
-                            .text(system.source_abs_pa - system.barometric_pa),
+                            .text(system.source_gauge().pa()),
                         units
                             .pressure()
-                            .text(system.destination_abs_pa - system.barometric_pa)
+                            .text(system.destination_gauge().pa())
                     ),
                     units.head().text(system.static_head),
                 ]
