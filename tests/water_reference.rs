@@ -133,10 +133,22 @@ fn near_critical_viscosity_warning_follows_the_r12_08_zone() {
     // about 645.91 K < T < 650.77 K and 245.8 < ρ < 405.3 kg/m³. Densities by IAPWS-IF97
     // (iapws 1.5, IAPWS97): saturated liquid 400.37 kg/m³ at 646 K, 402.96 kg/m³ at
     // 645.91 K, 422.57 kg/m³ at 645 K; 669.34 kg/m³ at 646 K and 60 MPa.
-    assert!(near_critical(646.0, 101_325.0), "646 K saturated, 400 kg/m³: in the zone");
-    assert!(!near_critical(646.0, 60e6), "646 K at 60 MPa, 669 kg/m³: too dense");
-    assert!(!near_critical(645.0, 101_325.0), "645 K saturated, 423 kg/m³: below the zone");
-    assert!(!near_critical(645.91, 101_325.0), "the zone's lower edge is exclusive");
+    assert!(
+        near_critical(646.0, 101_325.0),
+        "646 K saturated, 400 kg/m³: in the zone"
+    );
+    assert!(
+        !near_critical(646.0, 60e6),
+        "646 K at 60 MPa, 669 kg/m³: too dense"
+    );
+    assert!(
+        !near_critical(645.0, 101_325.0),
+        "645 K saturated, 423 kg/m³: below the zone"
+    );
+    assert!(
+        !near_critical(645.91, 101_325.0),
+        "the zone's lower edge is exclusive"
+    );
     // Far from it, nothing to say.
     assert!(!near_critical(293.15, 101_325.0));
 }
