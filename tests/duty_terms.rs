@@ -139,6 +139,13 @@ fn pressurised_and_vacuum_tanks_enter_npsh_and_static_head_with_their_sign() {
     // Reservoir 1342.0 − 2.5 = 1339.5 ft, wet well 1208.5 ft: 131.0 ft = 39.9288 m.
     assert!((dz - 131.0 * 0.3048).abs() < 1e-9, "{dz}");
     assert!(rho_g > 0.0);
+    // The printed terms add up to NPSHa (solved by a separate path) with the surface
+    // term's sign: + for the pressurised source, − for the vacuum.
+    for d in [&dp, &dv] {
+        assert!((d.npsh_terms.sum() - d.npsh_available).abs() < 1e-9);
+    }
+    // Without station piping, the set's terms are the suction header's.
+    assert_eq!(p.npsh_terms(dp.flow), dp.npsh_terms);
     assert!(dp.npsh_available > duty(&open).npsh_available);
     assert!(dv.npsh_available < duty(&open).npsh_available);
 }
