@@ -602,6 +602,35 @@ fn lower_table(
     diags: &mut Vec<Diagnostic>,
 ) -> Option<CurveData> {
     let before = diags.len();
+    let units = table_units(t, diags);
+    if diags.len() > before || !table_size_ok(t, diags) {
+        return None;
+    }
+    let mut c = CurveData {
+        impeller,
+        speed,
+        flow: vec![],
+        head: vec![],
+        efficiency: vec![],
+        npshr: vec![],
+        shaft_power: vec![],
+        span: t.span,
+    };
+    for row in &t.rows {
+        table_row(&mut c, row, &units, env, diags);
+    }
+    if diags.len() > before {
+        return None;
+    }
+    Some(c)
+}
+
+/// The unit of each known column of a curve table, in order; errors for an unknown
+/// column, a unit of the wrong dimension, and a missing `flow` or `head`.
+fn table_units<'t>(
+    t: &'t Table,
+    diags: &mut Vec<Diagnostic>,
+) -> Vec<(&'t str, crate::units::Unit)> {
     let mut units = Vec::new();
     for c in &t.columns {
         let Some((_, dim)) = COLUMNS.iter().find(|(n, _)| *n == c.name.name) else {
@@ -638,9 +667,11 @@ fn lower_table(
             ));
         }
     }
-    if diags.len() > before {
-        return None;
-    }
+    units
+}
+
+/// Whether the table has from 3 to [`MAX_CURVE_POINTS`] rows (an error if not).
+fn table_size_ok(t: &Table, diags: &mut Vec<Diagnostic>) -> bool {
     if t.rows.len() > MAX_CURVE_POINTS {
         diags.push(Diagnostic::error(
             Code::TooMany,
@@ -650,7 +681,7 @@ fn lower_table(
             ),
             Some(t.span),
         ));
-        return None;
+        return false;
     }
     if t.rows.len() < 3 {
         diags.push(
@@ -661,112 +692,108 @@ fn lower_table(
             )
             .with_help("give points from shut-off to beyond the expected duty"),
         );
-        return None;
+        return false;
     }
-    let mut c = CurveData {
-        impeller,
-        speed,
-        flow: vec![],
-        head: vec![],
-        efficiency: vec![],
-        npshr: vec![],
-        shaft_power: vec![],
-        span: t.span,
-    };
-    for row in &t.rows {
-        if row.cells.len() != units.len() {
-            diags.push(Diagnostic::error(
-                Code::BadRow,
-                format!(
-                    "this row has {} values; the table has {} columns",
-                    row.cells.len(),
-                    units.len()
-                ),
-                Some(row.span),
-            ));
+    true
+}
+
+/// One row of a curve table into `c`: every value in its column's unit, in its range;
+/// flows increasing.
+fn table_row(
+    c: &mut CurveData,
+    row: &Row,
+    units: &[(&str, crate::units::Unit)],
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) {
+    if row.cells.len() != units.len() {
+        diags.push(Diagnostic::error(
+            Code::BadRow,
+            format!(
+                "this row has {} values; the table has {} columns",
+                row.cells.len(),
+                units.len()
+            ),
+            Some(row.span),
+        ));
+        return;
+    }
+    let mut eff = None;
+    let mut npsh = None;
+    let mut pow = None;
+    let mut flow = None;
+    let mut head = None;
+    for ((name, u), cell) in units.iter().zip(&row.cells) {
+        let Some(v) = &cell.value else {
+            if matches!(*name, "flow" | "head") {
+                diags.push(Diagnostic::error(
+                    Code::BadRow,
+                    format!("every point needs a {name}"),
+                    Some(cell.span),
+                ));
+            }
+            continue;
+        };
+        let si = crate::units::Quantity::from_value(v.value, u).si;
+        if si < 0.0 {
+            diags.push(
+                Diagnostic::error(
+                    Code::OutOfRange,
+                    format!("negative values are not allowed in the `{name}` column"),
+                    Some(cell.span),
+                )
+                .with_label("negative")
+                .with_help("a curve table gives magnitudes from shut-off (zero flow) upwards"),
+            );
             continue;
         }
-        let mut eff = None;
-        let mut npsh = None;
-        let mut pow = None;
-        let mut flow = None;
-        let mut head = None;
-        for ((name, u), cell) in units.iter().zip(&row.cells) {
-            let Some(v) = &cell.value else {
-                if matches!(*name, "flow" | "head") {
-                    diags.push(Diagnostic::error(
-                        Code::BadRow,
-                        format!("every point needs a {name}"),
-                        Some(cell.span),
-                    ));
-                }
-                continue;
-            };
-            let si = crate::units::Quantity::from_value(v.value, u).si;
-            if si < 0.0 {
-                diags.push(
-                    Diagnostic::error(
-                        Code::OutOfRange,
-                        format!("negative values are not allowed in the `{name}` column"),
-                        Some(cell.span),
-                    )
-                    .with_label("negative")
-                    .with_help("a curve table gives magnitudes from shut-off (zero flow) upwards"),
-                );
+        let range = match *name {
+            "flow" => Some(&ranges::CURVE_FLOW),
+            "head" => Some(&ranges::CURVE_HEAD),
+            "npshr" => Some(&ranges::CURVE_NPSHR),
+            "power" => Some(&ranges::CURVE_POWER),
+            _ => None,
+        };
+        if let Some(range) = range {
+            if let Err(d) = env.in_range(range, si, cell.span) {
+                diags.push(d);
                 continue;
             }
-            let range = match *name {
-                "flow" => Some(&ranges::CURVE_FLOW),
-                "head" => Some(&ranges::CURVE_HEAD),
-                "npshr" => Some(&ranges::CURVE_NPSHR),
-                "power" => Some(&ranges::CURVE_POWER),
-                _ => None,
-            };
-            if let Some(range) = range {
-                if let Err(d) = env.in_range(range, si, cell.span) {
-                    diags.push(d);
-                    continue;
-                }
-            }
-            match *name {
-                "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),
-                "head" => head = Some(Length::new::<meter>(si)),
-                "efficiency" => {
-                    if si > 1.0 {
-                        diags.push(
-                            Diagnostic::error(
-                                Code::OutOfRange,
-                                "an efficiency cannot exceed 100 %",
-                                Some(cell.span),
-                            )
-                            .with_help("is the column's unit `%`?"),
-                        );
-                    }
-                    eff = Some(Ratio::new::<ratio>(si))
-                }
-                "npshr" => npsh = Some(Length::new::<meter>(si)),
-                _ => pow = Some(Power::new::<watt>(si)),
-            }
         }
-        if let (Some(q), Some(h)) = (flow, head) {
-            if let Some(prev) = c.flow.last() {
-                if q <= *prev {
-                    diags.push(Diagnostic::error(
-                        Code::BadRow,
-                        "flows must increase down the table",
-                        Some(row.span),
-                    ));
+        match *name {
+            "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),
+            "head" => head = Some(Length::new::<meter>(si)),
+            "efficiency" => {
+                if si > 1.0 {
+                    diags.push(
+                        Diagnostic::error(
+                            Code::OutOfRange,
+                            "an efficiency cannot exceed 100 %",
+                            Some(cell.span),
+                        )
+                        .with_help("is the column's unit `%`?"),
+                    );
                 }
+                eff = Some(Ratio::new::<ratio>(si))
             }
-            c.flow.push(q);
-            c.head.push(h);
-            c.efficiency.push(eff);
-            c.npshr.push(npsh);
-            c.shaft_power.push(pow);
+            "npshr" => npsh = Some(Length::new::<meter>(si)),
+            _ => pow = Some(Power::new::<watt>(si)),
         }
     }
-    if diags.len() > before {
-        return None;
+    if let (Some(q), Some(h)) = (flow, head) {
+        if let Some(prev) = c.flow.last() {
+            if q <= *prev {
+                diags.push(Diagnostic::error(
+                    Code::BadRow,
+                    "flows must increase down the table",
+                    Some(row.span),
+                ));
+            }
+        }
+        c.flow.push(q);
+        c.head.push(h);
+        c.efficiency.push(eff);
+        c.npshr.push(npsh);
+        c.shaft_power.push(pow);
     }
-    Some(c)
 }
