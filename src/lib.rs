@@ -67,7 +67,7 @@
 // Diagnostics are returned by value on the cold error path; boxing them would only
 // add noise to every stage.
 #![allow(clippy::result_large_err)]
-#![warn(missing_docs)]
+#![deny(missing_docs)]
 
 pub mod analysis;
 pub mod diagnostics;

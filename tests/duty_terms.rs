@@ -130,7 +130,7 @@ fn pressurised_and_vacuum_tanks_enter_npsh_and_static_head_with_their_sign() {
     assert!((dp.npsh_terms.surface_pressure_head - 10.0 * PSI / rho_g_p).abs() < 1e-9);
     assert!((dv.npsh_terms.surface_pressure_head + 5.0 * PSI / rho_g_v).abs() < 1e-9);
     // The barometric term is the same pressure in all three.
-    assert!((dp.npsh_terms.barometric_head - o.barometric_pa / rho_g_p).abs() < 1e-9);
+    assert!((dp.npsh_terms.barometric_head - o.barometric.pa() / rho_g_p).abs() < 1e-9);
     // Static head: Δz + (p_dest − p_source)/(ρg): 5 − 10 psi lowers it by 5 psi of head;
     // the vacuum on the source raises it by 5 psi of head.
     let dz = o.static_head; // open tanks: the static head is the level difference
@@ -139,6 +139,13 @@ fn pressurised_and_vacuum_tanks_enter_npsh_and_static_head_with_their_sign() {
     // Reservoir 1342.0 − 2.5 = 1339.5 ft, wet well 1208.5 ft: 131.0 ft = 39.9288 m.
     assert!((dz - 131.0 * 0.3048).abs() < 1e-9, "{dz}");
     assert!(rho_g > 0.0);
+    // The printed terms add up to NPSHa (solved by a separate path) with the surface
+    // term's sign: + for the pressurised source, − for the vacuum.
+    for d in [&dp, &dv] {
+        assert!((d.npsh_terms.sum() - d.npsh_available).abs() < 1e-9);
+    }
+    // Without station piping, the set's terms are the suction header's.
+    assert_eq!(p.npsh_terms(dp.flow), dp.npsh_terms);
     assert!(dp.npsh_available > duty(&open).npsh_available);
     assert!(dv.npsh_available < duty(&open).npsh_available);
 }

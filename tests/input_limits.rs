@@ -1,6 +1,7 @@
 //! Input limits: a file too large, too many cases, segments or curve points each give
 //! one clear error, and the limit itself is still accepted.
 
+mod common;
 use dutyline::diagnostics::Code;
 use std::collections::BTreeMap;
 use std::fmt::Write;
@@ -8,21 +9,9 @@ use std::fmt::Write;
 use dutyline::model::{MAX_CASES, MAX_CURVE_POINTS, MAX_SEGMENTS};
 use dutyline::syntax::MAX_SOURCE_BYTES;
 
-const HEAD: &str = r#"project { title = "Limits" }
-fluid water { temperature = 15 degC }
-site { elevation = 0 m }
-tank a { level = 10 m }
-tank b { level = 40 m }
-station { centreline = 9 m }
-line s from a to pump {
-    pipe steel 4 in schedule 40 { length = 10 m }
-    fitting entrance_flush
-}
-"#;
-
 /// A discharge line of `segments` pipes, `cases` cases and a pump curve of `points` rows.
 fn design(segments: usize, cases: usize, points: usize) -> String {
-    let mut s = HEAD.to_string();
+    let mut s = common::SMALL_LIFT_SUCTION.to_string();
     s.push_str("line d from pump to b {\n");
     for _ in 0..segments {
         s.push_str("    pipe steel 4 in schedule 40 { length = 1 m }\n");

@@ -100,10 +100,10 @@ fn engine_value(a: &Analysis, row: &HashMap<String, String>) -> f64 {
             .unwrap_or_else(|| panic!("engine has no duty for {pump} in {}", case.name))
     };
     match text(row, "quantity") {
-        "barometric_pressure_Pa" => sys.barometric_pa,
+        "barometric_pressure_Pa" => sys.barometric.pa(),
         "density_kg_m3" => sys.fluid.density,
         "dynamic_viscosity_Pa_s" => sys.fluid.viscosity,
-        "vapor_pressure_Pa" => sys.fluid.vapor_pressure,
+        "vapor_pressure_Pa" => sys.fluid.vapor_pressure.pa(),
         "static_head_m" => sys.static_head,
         "system_head_m" => {
             let l = sys.losses(at());

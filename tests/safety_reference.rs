@@ -121,7 +121,8 @@ fn water_bulk_modulus_matches_iapws_speed_of_sound() {
             .system
             .as_ref()
             .unwrap()
-            .source_abs_pa,
+            .source_surface
+            .pa(),
     )
     .unwrap();
     assert!(

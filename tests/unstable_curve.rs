@@ -6,24 +6,12 @@ mod common;
 use common::said;
 use dutyline::analysis::{analyse, Analysis};
 
-/// An invented SI lift: 41 m static head in case `normal`, 35 m in case `low`.
-const BASE: &str = r#"project { title = "Rising curve", units = si }
-fluid water { temperature = 15 degC }
-site { elevation = 0 m }
-tank a { level = 10 m }
-tank b { level = 51 m }
-station { centreline = 9 m }
-line s from a to pump {
-    pipe steel 4 in schedule 40 { length = 10 m }
-    fitting entrance_flush
+/// The small lift of `common` raised to 41 m static head in case `normal`, 35 m in
+/// case `low`.
+fn base() -> String {
+    common::small_lift().replace("tank b { level = 40 m }", "tank b { level = 51 m }")
+        + "case low { b.level = 45 m }\n"
 }
-line d from pump to b {
-    pipe steel 4 in schedule 40 { length = 100 m }
-    fitting exit
-}
-case normal { }
-case low { b.level = 45 m }
-"#;
 
 /// A drooping curve: 40 m at shut-off, rising to about 47 m near 35 m³/h.
 const RISING: &str = "0 40 0 -\n20 46 50 2.0\n40 47 70 2.5\n60 43 75 3.2\n80 33 68 4.5\n";
@@ -31,7 +19,7 @@ const RISING: &str = "0 40 0 -\n20 46 50 2.0\n40 47 70 2.5\n60 43 75 3.2\n80 33 
 const FALLING: &str = "0 50 0 -\n20 48 50 2.0\n40 44 70 2.5\n60 37 75 3.2\n80 27 68 4.5\n";
 
 fn design(extra: &str, rows: &str, levels: (&str, &str)) -> String {
-    let base = BASE
+    let base = base()
         .replace("tank b { level = 51 m }", levels.0)
         .replace("case low { b.level = 45 m }", levels.1);
     format!(

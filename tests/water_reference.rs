@@ -120,3 +120,53 @@ fn matches_iapws_package_over_the_liquid_range() {
     }
     println!("worst relative deviation: rho {worst_rho:e}, mu {worst_mu:e}, p_sat {worst_ps:e}");
 }
+
+/// Whether a state carries the near-critical viscosity warning.
+fn near_critical(t: f64, p: f64) -> bool {
+    let state = water_state(t, p).unwrap_or_else(|e| panic!("T {t} p {p}: {e}"));
+    state.warnings.iter().any(|w| w.contains("near-critical"))
+}
+
+#[test]
+fn near_critical_viscosity_warning_follows_the_r12_08_zone() {
+    // IAPWS R12-08 §3 (from memory): the critical enhancement of viscosity matters for
+    // about 645.91 K < T < 650.77 K and 245.8 < ρ < 405.3 kg/m³. Densities by IAPWS-IF97
+    // (iapws 1.5, IAPWS97): saturated liquid 400.37 kg/m³ at 646 K, 402.96 kg/m³ at
+    // 645.91 K, 422.57 kg/m³ at 645 K; 669.34 kg/m³ at 646 K and 60 MPa.
+    assert!(
+        near_critical(646.0, 101_325.0),
+        "646 K saturated, 400 kg/m³: in the zone"
+    );
+    assert!(
+        !near_critical(646.0, 60e6),
+        "646 K at 60 MPa, 669 kg/m³: too dense"
+    );
+    assert!(
+        !near_critical(645.0, 101_325.0),
+        "645 K saturated, 423 kg/m³: below the zone"
+    );
+    assert!(
+        !near_critical(645.91, 101_325.0),
+        "the zone's lower edge is exclusive"
+    );
+    // Far from it, nothing to say.
+    assert!(!near_critical(293.15, 101_325.0));
+}
+
+#[test]
+fn exactly_at_the_vapour_pressure_the_water_is_saturated_liquid_not_boiling() {
+    // At p = p_sat(T) the liquid is on the saturation line (IAPWS-IF97 region 4): its
+    // properties are the saturated liquid's, and it is not clamped from below.
+    let t = 373.15;
+    let p_sat = saturation_pressure_pa(t).expect("p_sat");
+    // IAPWS-IF97 Eq. 30 at 373.15 K: 0.101 418 MPa (the value steam tables print, from
+    // memory).
+    assert!(rel(p_sat, 101_418.0) < 1e-4, "{p_sat}");
+    let at = water_state(t, p_sat).expect("saturated liquid");
+    assert!(!at.clamped_to_saturation);
+    assert!(at.warnings.is_empty(), "{:?}", at.warnings);
+    assert_eq!(at.if97_region, 4);
+    let below = water_state(t, 0.99 * p_sat).expect("clamped");
+    assert!(below.clamped_to_saturation);
+    assert_eq!(below.properties, at.properties);
+}

@@ -53,7 +53,9 @@ fn build(f: &serde_json::Value) -> (Network, Vec<FieldWell>) {
         f["fluid"]["density"].as_f64().unwrap(),
         f["fluid"]["viscosity"].as_f64().unwrap(),
     );
-    collector.fluid.vapor_pressure = f["fluid"]["vapor_pressure_pa"].as_f64().unwrap();
+    collector.fluid.vapor_pressure = dutyline::hydraulics::heads::AbsolutePressure::new(
+        f["fluid"]["vapor_pressure_pa"].as_f64().unwrap(),
+    );
     let wells = f["wells"]
         .as_array()
         .unwrap()

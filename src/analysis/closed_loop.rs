@@ -107,8 +107,8 @@ pub fn high_point_m(s: &Scenario) -> f64 {
 
 fn high_point(s: &Scenario, sys: &CaseSystem) -> Check {
     let z = high_point_m(s);
-    let p_ref = sys.source_abs_pa - sys.barometric_pa;
-    let p = p_ref - sys.fluid.density * G * (z - sys.source_level);
+    let p_ref = sys.source_gauge().pa();
+    let p = p_ref - sys.fluid.density * G * (z - sys.source_level.m());
     let (limit, origin) = match s.source.reference.high_point_pressure {
         Some(v) => (
             v.get::<uom::si::pressure::pascal>(),
@@ -120,7 +120,7 @@ fn high_point(s: &Scenario, sys: &CaseSystem) -> Check {
         ),
     };
     let ok = p >= limit;
-    let pr = |v| message::value(Kind::Pressure, v);
+    let pr = |v| message::value(Kind::GaugePressure, v);
     Check::typed(
         CheckId::LoopHighPoint,
         if ok { Status::Pass } else { Status::Fail },
@@ -132,7 +132,7 @@ fn high_point(s: &Scenario, sys: &CaseSystem) -> Check {
             ": at rest, at the minimum pressure ",
             pr(p_ref),
             " at the reference (level ",
-            message::value(Kind::Elevation, sys.source_level),
+            message::value(Kind::Elevation, sys.source_level.m()),
             "), the pressure there is ",
             pr(p),
             if ok {

@@ -361,10 +361,10 @@ fn well_at(sys: &CaseSystem, q: f64) -> Option<WellAtDuty> {
     let w = sys.well?;
     let (aquifer_loss, well_loss) = w.parts(q);
     Some(WellAtDuty {
-        static_level: sys.source_level,
+        static_level: sys.source_level.m(),
         aquifer_loss,
         well_loss,
-        pumping_level: sys.source_level - aquifer_loss - well_loss,
+        pumping_level: sys.source_level.m() - aquifer_loss - well_loss,
     })
 }
 
@@ -691,51 +691,9 @@ pub fn evaluate(
     cc: &CandidateCurves,
 ) -> PumpResult {
     let (n_par, n_ser) = stages_in(p, case);
-    let motor_efficiency = match design.motor.efficiency {
-        Some(e) => (e, "given in the design".to_string()),
-        None => (
-            DEFAULT_MOTOR_EFFICIENCY,
-            "assumed: typical premium-efficiency motor (common practice)".to_string(),
-        ),
-    };
-    let mut out = PumpResult {
-        name: p.name.clone(),
-        arrangement: p.arrangement,
-        count: match p.arrangement {
-            ArrangementKind::Parallel => n_par,
-            _ => p.count,
-        },
-        standby: p.standby,
-        // The rated speed until a usable curve says otherwise: an unusable curve must
-        // not print "pump P at 0 rpm" (issue 11).
-        speed_rpm: p.rated_speed.get::<cycle_per_minute>(),
-        impeller_diameter_m: None,
-        duty: None,
-        failure: None,
-        checks: Vec::new(),
-        operating_curve: Vec::new(),
-        energy: None,
-        warnings: Vec::new(),
-        motor_efficiency,
-        network: None,
-        npsh_available_curve: Vec::new(),
-        headroom: None,
-        capacity_flow: None,
-        affinity_scale: 1.0,
-    };
-    let fail = |out: &mut PumpResult, why: Message, value, limit, source: Source| {
-        out.checks.push(Check::typed(
-            CheckId::DutyPoint,
-            checks::Status::Fail,
-            value,
-            limit,
-            why.clone(),
-            source,
-        ));
-        out.failure = Some(why);
-    };
+    let mut out = new_result(design, p, n_par);
     let Some((base, trim)) = &cc.evaluated else {
-        fail(
+        fail_duty(
             &mut out,
             "no usable pump curve".into(),
             None,
@@ -760,7 +718,7 @@ pub fn evaluate(
     let scaled = match ScaledPump::new(base, speed_ratio, diameter_ratio) {
         Ok(s) => s,
         Err(e) => {
-            fail(
+            fail_duty(
                 &mut out,
                 e.message.into(),
                 None,
@@ -781,18 +739,7 @@ pub fn evaluate(
     let head_arr = |q: f64| set_head(&scaled, sys, par, ser, q);
     let (_, q_data_end) = scaled.domain();
     let q_end = q_data_end * par;
-    out.operating_curve = (0..PUMP_CURVE_POINTS)
-        .map(|i| {
-            let q = q_end * i as f64 / (PUMP_CURVE_POINTS - 1) as f64;
-            PumpPoint {
-                flow: q,
-                head: head_arr(q),
-                efficiency: scaled.eval_efficiency(q / par),
-                npshr: scaled.eval_npshr(q / par),
-                shaft_power: arrangement_power(&scaled, rho, par, ser, q),
-            }
-        })
-        .collect();
+    out.operating_curve = operating_curve(&scaled, sys, par, ser, q_end);
     let search_end = q_end * (1.0 + SEARCH_BEYOND_CURVE);
     let outcome = system_table::solve_duty(&head_arr, sys, search_end, sys.scan(cc));
     let (q, h, crossings) = match &outcome {
@@ -807,20 +754,9 @@ pub fn evaluate(
             (*flow, *head, *crossings)
         }
         other => {
-            let (value, limit) = match other {
-                DutyOutcome::ShutoffBelowStatic {
-                    shutoff_head,
-                    static_head,
-                } => (Some(*shutoff_head), Some(*static_head)),
-                DutyOutcome::CurveEndsBeforeSystem {
-                    pump_head,
-                    system_head,
-                    ..
-                } => (Some(*pump_head), Some(*system_head)),
-                _ => (None, None),
-            };
+            let (value, limit) = failure_values(other);
             let why = describe_failure(other);
-            fail(
+            fail_duty(
                 &mut out,
                 why,
                 value,
@@ -839,7 +775,7 @@ pub fn evaluate(
             flow(q_data_end),
             ": no published data there"
         ];
-        fail(
+        fail_duty(
             &mut out,
             why,
             Some(qp),
@@ -899,6 +835,104 @@ pub fn evaluate(
     out.duty = Some(duty);
     set_input_power(design, case, &mut out, None);
     out
+}
+
+/// A candidate's result before its duty: name, arrangement, rated speed, the motor
+/// efficiency and its source; nothing solved yet.
+fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> PumpResult {
+    let motor_efficiency = match design.motor.efficiency {
+        Some(e) => (e, "given in the design".to_string()),
+        None => (
+            DEFAULT_MOTOR_EFFICIENCY,
+            "assumed: typical premium-efficiency motor (common practice)".to_string(),
+        ),
+    };
+    PumpResult {
+        name: p.name.clone(),
+        arrangement: p.arrangement,
+        count: match p.arrangement {
+            ArrangementKind::Parallel => n_par,
+            _ => p.count,
+        },
+        standby: p.standby,
+        // The rated speed until a usable curve says otherwise: an unusable curve must
+        // not print "pump P at 0 rpm" (issue 11).
+        speed_rpm: p.rated_speed.get::<cycle_per_minute>(),
+        impeller_diameter_m: None,
+        duty: None,
+        failure: None,
+        checks: Vec::new(),
+        operating_curve: Vec::new(),
+        energy: None,
+        warnings: Vec::new(),
+        motor_efficiency,
+        network: None,
+        npsh_available_curve: Vec::new(),
+        headroom: None,
+        capacity_flow: None,
+        affinity_scale: 1.0,
+    }
+}
+
+/// Record why there is no duty: a failed duty-point check with its value and limit,
+/// and the reason.
+fn fail_duty(
+    out: &mut PumpResult,
+    why: Message,
+    value: Option<f64>,
+    limit: Option<f64>,
+    source: Source,
+) {
+    out.checks.push(Check::typed(
+        CheckId::DutyPoint,
+        checks::Status::Fail,
+        value,
+        limit,
+        why.clone(),
+        source,
+    ));
+    out.failure = Some(why);
+}
+
+/// The value and the limit a failed duty solve reports: the shut-off head against the
+/// static head, or the pump head at the curve's end against the system head there.
+fn failure_values(outcome: &DutyOutcome) -> (Option<f64>, Option<f64>) {
+    match outcome {
+        DutyOutcome::ShutoffBelowStatic {
+            shutoff_head,
+            static_head,
+        } => (Some(*shutoff_head), Some(*static_head)),
+        DutyOutcome::CurveEndsBeforeSystem {
+            pump_head,
+            system_head,
+            ..
+        } => (Some(*pump_head), Some(*system_head)),
+        _ => (None, None),
+    }
+}
+
+/// The arrangement's operating curve at [`PUMP_CURVE_POINTS`] flows from zero to
+/// `q_end` (m³/s): head, efficiency, NPSHr and shaft power.
+fn operating_curve(
+    scaled: &ScaledPump,
+    sys: &CaseSystem,
+    par: f64,
+    ser: f64,
+    q_end: f64,
+) -> Vec<PumpPoint> {
+    let rho = sys.fluid.density;
+    (0..PUMP_CURVE_POINTS)
+        .map(|i| {
+            let q = q_end * i as f64 / (PUMP_CURVE_POINTS - 1) as f64;
+            PumpPoint {
+                flow: q,
+                head: set_head(scaled, sys, par, ser, q),
+                efficiency: scaled.eval_efficiency(q / par),
+                npshr: scaled.eval_npshr(q / par),
+                shaft_power: arrangement_power(scaled, rho, par, ser, q),
+            }
+        })
+        .collect()
 }
 
 /// The arrangement's flow at the limit the design allows: the maximum speed and the

@@ -166,73 +166,8 @@ pub fn analyse(design: &Design) -> Analysis {
             pumps,
         });
     }
-    // One flow range for all tables and plots: past the largest duty and the pump curves.
-    let mut flow_max: f64 = 0.0;
-    for c in &cases {
-        for p in &c.pumps {
-            if let Some(d) = &p.duty {
-                flow_max = flow_max.max(1.25 * d.flow);
-            }
-            if let Some(last) = p.operating_curve.last() {
-                flow_max = flow_max.max(last.flow);
-            }
-        }
-    }
-    for r in &design.requirements {
-        if r.metric == crate::model::Metric::Flow {
-            flow_max = flow_max.max(1.5 * r.limit_si);
-        }
-    }
-    if flow_max <= 0.0 {
-        // No pumps and no flow requirement: up to 3 m/s in the discharge pipe next to the pump.
-        flow_max = cases
-            .iter()
-            .filter_map(|c| c.system.as_ref())
-            .filter_map(|s| {
-                s.segments
-                    .iter()
-                    .find(|x| x.side == Side::Discharge)
-                    .map(|x| 3.0 * x.area)
-            })
-            .fold(0.0, f64::max);
-    }
-    if flow_max <= 0.0 || !flow_max.is_finite() {
-        flow_max = 0.1;
-    }
-    for c in &mut cases {
-        if let Some(s) = &c.system {
-            let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = (0..SYSTEM_CURVE_POINTS)
-                .map(|i| {
-                    let q = flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64;
-                    let l = s.losses(q);
-                    let point = SystemPoint {
-                        flow: q,
-                        head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
-                        static_head: s.static_head,
-                        friction: l.friction,
-                        minor: l.minor,
-                        network: l.network,
-                        drawdown: l.drawdown,
-                    };
-                    (point, s.npsh_available_after(l.suction + l.drawdown))
-                })
-                .unzip();
-            if s.has_station_piping() {
-                for p in &mut c.pumps {
-                    let par = match p.arrangement {
-                        ArrangementKind::Parallel => p.count.max(1) as f64,
-                        _ => 1.0,
-                    };
-                    p.npsh_available_curve = curve
-                        .iter()
-                        .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
-                        .collect();
-                }
-            }
-            c.system_curve = curve;
-            c.npsh_available_curve = npsh;
-        }
-    }
+    let flow_max = flow_range(design, &cases);
+    tabulate_cases(&mut cases, flow_max);
     warnings.extend(system_warnings(design, &cases));
     let motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
     let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
@@ -284,6 +219,84 @@ pub fn analyse(design: &Design) -> Analysis {
         selection,
         warnings,
         flow_max,
+    }
+}
+
+/// One flow range for all tables and plots, m³/s: past the largest duty (by 25 %) and
+/// the pump curves, or 1.5 times a flow requirement; without either, 3 m/s in the
+/// discharge pipe next to the pump.
+fn flow_range(design: &Design, cases: &[CaseResult]) -> f64 {
+    let mut flow_max: f64 = 0.0;
+    for c in cases {
+        for p in &c.pumps {
+            if let Some(d) = &p.duty {
+                flow_max = flow_max.max(1.25 * d.flow);
+            }
+            if let Some(last) = p.operating_curve.last() {
+                flow_max = flow_max.max(last.flow);
+            }
+        }
+    }
+    for r in &design.requirements {
+        if r.metric == crate::model::Metric::Flow {
+            flow_max = flow_max.max(1.5 * r.limit_si);
+        }
+    }
+    if flow_max <= 0.0 {
+        // No pumps and no flow requirement: up to 3 m/s in the discharge pipe next to the pump.
+        flow_max = cases
+            .iter()
+            .filter_map(|c| c.system.as_ref())
+            .filter_map(|s| {
+                s.segments
+                    .iter()
+                    .find(|x| x.side == Side::Discharge)
+                    .map(|x| 3.0 * x.area)
+            })
+            .fold(0.0, f64::max);
+    }
+    if flow_max <= 0.0 || !flow_max.is_finite() {
+        flow_max = 0.1;
+    }
+    flow_max
+}
+
+/// Every case's system curve and NPSH available (per pump with station piping) at
+/// [`SYSTEM_CURVE_POINTS`] flows from zero to `flow_max` (m³/s).
+fn tabulate_cases(cases: &mut [CaseResult], flow_max: f64) {
+    for c in cases {
+        if let Some(s) = &c.system {
+            let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = (0..SYSTEM_CURVE_POINTS)
+                .map(|i| {
+                    let q = flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64;
+                    let l = s.losses(q);
+                    let point = SystemPoint {
+                        flow: q,
+                        head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
+                        static_head: s.static_head,
+                        friction: l.friction,
+                        minor: l.minor,
+                        network: l.network,
+                        drawdown: l.drawdown,
+                    };
+                    (point, s.npsh_available_after(l.suction + l.drawdown))
+                })
+                .unzip();
+            if s.has_station_piping() {
+                for p in &mut c.pumps {
+                    let par = match p.arrangement {
+                        ArrangementKind::Parallel => p.count.max(1) as f64,
+                        _ => 1.0,
+                    };
+                    p.npsh_available_curve = curve
+                        .iter()
+                        .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
+                        .collect();
+                }
+            }
+            c.system_curve = curve;
+            c.npsh_available_curve = npsh;
+        }
     }
 }
 

@@ -21,10 +21,10 @@ use crate::hydraulics::fittings::{self, FittingSpec, KContext};
 use crate::hydraulics::friction::{self, FlowRegime};
 use crate::hydraulics::roughness;
 use crate::message::{Kind, Message, Part};
-use crate::model::{Fluid, PipeCondition, Scenario, Side, SurfacePressure};
+use crate::model::{Fluid, PipeCondition, Scenario, Side};
 
-/// Standard acceleration of gravity, 9.80665 m/s² (CGPM 1901; NIST SP 330).
-pub const G: f64 = 9.80665;
+pub use crate::hydraulics::heads::G;
+use crate::hydraulics::heads::{AbsolutePressure, Elevation, GaugePressure, Head, SpecificWeight};
 /// Standard sea-level atmosphere, 101 325 Pa (U.S. Standard Atmosphere 1976).
 pub const STANDARD_ATMOSPHERE_PA: f64 = 101_325.0;
 
@@ -39,10 +39,17 @@ pub struct FluidState {
     pub density: f64,
     /// Dynamic viscosity, Pa·s.
     pub viscosity: f64,
-    /// Vapour pressure (absolute), Pa.
-    pub vapor_pressure: f64,
+    /// Vapour pressure (absolute).
+    pub vapor_pressure: AbsolutePressure,
     /// Where the properties come from.
     pub source: String,
+}
+
+impl FluidState {
+    /// Its specific weight ρg under standard gravity.
+    pub fn specific_weight(&self) -> SpecificWeight {
+        SpecificWeight::of_density(self.density)
+    }
 }
 
 /// The source well's drawdown law, when the source tank states one.
@@ -199,20 +206,20 @@ impl WellDrawdown {
 pub struct CaseSystem {
     /// The fluid in this case.
     pub fluid: FluidState,
-    /// Barometric pressure (absolute), Pa.
-    pub barometric_pa: f64,
+    /// Barometric pressure (absolute).
+    pub barometric: AbsolutePressure,
     /// Where the barometric pressure comes from.
     pub barometric_source: String,
-    /// Source free-surface level on the design's datum, m.
-    pub source_level: f64,
-    /// Destination free-surface level on the design's datum, m.
-    pub destination_level: f64,
-    /// Pump centreline elevation on the design's datum, m.
-    pub centreline: f64,
-    /// Absolute pressure on the source surface, Pa.
-    pub source_abs_pa: f64,
-    /// Absolute pressure on the destination surface, Pa.
-    pub destination_abs_pa: f64,
+    /// Source free-surface level on the design's datum.
+    pub source_level: Elevation,
+    /// Destination free-surface level on the design's datum.
+    pub destination_level: Elevation,
+    /// Pump centreline elevation on the design's datum.
+    pub centreline: Elevation,
+    /// Absolute pressure on the source surface.
+    pub source_surface: AbsolutePressure,
+    /// Absolute pressure on the destination surface.
+    pub destination_surface: AbsolutePressure,
     /// Static head: level difference plus surface pressure difference / ρg, m.
     pub static_head: f64,
     /// Every segment of every line, suction first.
@@ -263,13 +270,6 @@ pub struct SystemError {
     pub message: String,
 }
 
-fn absolute(p: SurfacePressure, barometric: f64) -> f64 {
-    match p {
-        SurfacePressure::Gauge(g) => barometric + g.get::<pascal>(),
-        SurfacePressure::Absolute(a) => a.get::<pascal>(),
-    }
-}
-
 /// The mixture as the outputs name it: "ethylene glycol, 30 % by mass", or "..., 35 %
 /// by volume (37.4 % by mass)".
 fn glycol_name(g: &crate::model::GlycolMixture) -> String {
@@ -304,7 +304,7 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
         temperature_k: Some(t),
         density,
         viscosity,
-        vapor_pressure,
+        vapor_pressure: AbsolutePressure::new(vapor_pressure),
         source: "Melinder, Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., IIR 2010 (density, viscosity, freezing point); vapour pressure of water, IAPWS-IF97".into(),
     })
 }
@@ -312,34 +312,33 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
 impl CaseSystem {
     /// Resolve a scenario: fluid properties, barometric pressure, pipes.
     pub fn new(s: &Scenario) -> Result<CaseSystem, SystemError> {
-        let (barometric_pa, barometric_source) = match s.site.barometric_pressure {
-            Some(p) => (p.get::<pascal>(), "given in the design".to_string()),
-            None => {
-                let z = s.site.elevation.get::<meter>();
-                let p = fluid::barometric_pressure_pa(z)
-                    .map_err(|e| SystemError { message: e.message })?;
-                (
-                    p,
-                    format!("U.S. Standard Atmosphere 1976 at {z:.2} m elevation"),
-                )
-            }
+        let barometric = s
+            .site
+            .barometric()
+            .map_err(|message| SystemError { message })?;
+        let barometric_source = match s.site.barometric_pressure {
+            Some(_) => "given in the design".to_string(),
+            None => format!(
+                "U.S. Standard Atmosphere 1976 at {:.2} m elevation",
+                s.site.elevation.get::<meter>()
+            ),
         };
-        let source_abs_pa = absolute(s.source.surface_pressure, barometric_pa);
-        let destination_abs_pa = absolute(s.destination.surface_pressure, barometric_pa);
-        if source_abs_pa <= 0.0 || destination_abs_pa <= 0.0 {
+        let source_surface = s.source.surface_pressure.absolute(barometric);
+        let destination_surface = s.destination.surface_pressure.absolute(barometric);
+        if !source_surface.is_above_vacuum() || !destination_surface.is_above_vacuum() {
             return Err(SystemError { message: "a tank's absolute surface pressure is zero or negative (a vacuum below absolute zero)".into() });
         }
         let fluid = match &s.fluid {
             Fluid::Water { temperature } => {
                 let t = temperature.get::<kelvin>();
-                let p = fluid::water(t, source_abs_pa)
+                let p = fluid::water(t, source_surface.pa())
                     .map_err(|e| SystemError { message: e.message })?;
                 FluidState {
                     name: "water".into(),
                     temperature_k: Some(t),
                     density: p.density_kg_m3,
                     viscosity: p.dynamic_viscosity_pa_s,
-                    vapor_pressure: p.vapor_pressure_pa,
+                    vapor_pressure: AbsolutePressure::new(p.vapor_pressure_pa),
                     source: "IAPWS-IF97 (density, vapour pressure) and IAPWS 2008 (viscosity)"
                         .into(),
                 }
@@ -350,7 +349,7 @@ impl CaseSystem {
                 temperature_k: c.temperature.map(|t| t.get::<kelvin>()),
                 density: c.density.get::<kilogram_per_cubic_meter>(),
                 viscosity: c.viscosity.get::<pascal_second>(),
-                vapor_pressure: c.vapor_pressure.get::<pascal>(),
+                vapor_pressure: AbsolutePressure::new(c.vapor_pressure.get::<pascal>()),
                 source: "given in the design".into(),
             },
         };
@@ -365,30 +364,36 @@ impl CaseSystem {
                 segments.push(state);
             }
         }
-        let rho_g = fluid.density * G;
-        let static_head = s.destination.level.get::<meter>() - s.source.level.get::<meter>()
-            + (destination_abs_pa - source_abs_pa) / rho_g;
+        let w = fluid.specific_weight();
+        let source_level = Elevation::new(s.source.level.get::<meter>());
+        let destination_level = Elevation::new(s.destination.level.get::<meter>());
+        // (z₂ − z₁) + (p₂ − p₁)/(ρg), both surface pressures absolute.
+        let static_head =
+            destination_level.above(source_level) + (destination_surface - source_surface).head(w);
         let (network, static_head) = match &s.network {
-            None => (None, static_head),
+            None => (None, static_head.m()),
             Some(layout) => {
-                let net = StationNetwork::build(s, layout, &fluid, barometric_pa)?;
+                let net = StationNetwork::build(s, layout, &fluid, barometric.pa())?;
                 let h0 = net.entry_head(0.0).map_err(|e| SystemError {
                     message: format!("the network: {e}"),
                 })?;
-                // The entry head (gauge-based) stands in for the destination surface; a
-                // closed loop returns to its source: no static head, exactly.
+                // The entry grade (gauge-based) stands in for the destination surface:
+                // raised by the barometric head it is on the absolute basis. A closed
+                // loop returns to its source: no static head, exactly.
                 let stat = if s.destination.name == s.source.name {
                     0.0
                 } else {
-                    h0 + barometric_pa / rho_g
-                        - s.source.level.get::<meter>()
-                        - source_abs_pa / rho_g
+                    (Elevation::new(h0)
+                        .raised(barometric.head(w))
+                        .above(source_level)
+                        - source_surface.head(w))
+                    .m()
                 };
                 (Some((net, h0)), stat)
             }
         };
         let well = well_drawdown(s)?;
-        let (destination_level, destination_abs_pa) = match network
+        let (destination_level, destination_surface) = match network
             .as_ref()
             .and_then(|(n, _)| Some((n, n.governing_at_zero()?)))
         {
@@ -397,9 +402,12 @@ impl CaseSystem {
             Some((n, i)) => {
                 let node = &n.network.nodes[i];
                 let p = node.required_pressure.unwrap_or(0.0);
-                (node.elevation, barometric_pa + p)
+                (
+                    Elevation::new(node.elevation),
+                    GaugePressure::new(p).absolute(barometric),
+                )
             }
-            None => (s.destination.level.get::<meter>(), destination_abs_pa),
+            None => (destination_level, destination_surface),
         };
         Ok(CaseSystem {
             well,
@@ -408,17 +416,40 @@ impl CaseSystem {
             network_failed: Flag::default(),
             duty_table: None,
             fluid,
-            barometric_pa,
+            barometric,
             barometric_source,
-            source_level: s.source.level.get::<meter>(),
+            source_level,
             destination_level,
-            centreline: s.centreline.get::<meter>(),
-            source_abs_pa,
-            destination_abs_pa,
+            centreline: Elevation::new(s.centreline.get::<meter>()),
+            source_surface,
+            destination_surface,
             static_head,
             segments,
             pipe_condition: s.pipe_condition,
         })
+    }
+
+    /// The gauge pressure on the source surface.
+    pub fn source_gauge(&self) -> GaugePressure {
+        self.source_surface.gauge(self.barometric)
+    }
+
+    /// The gauge pressure on the destination surface.
+    pub fn destination_gauge(&self) -> GaugePressure {
+        self.destination_surface.gauge(self.barometric)
+    }
+
+    /// The hydraulic grade of the source surface on the gauge basis (barometric
+    /// pressure is zero): its level raised by p_g/(ρg).
+    pub fn source_grade(&self) -> Elevation {
+        self.source_level
+            .raised(self.source_gauge().head(self.fluid.specific_weight()))
+    }
+
+    /// The hydraulic grade of the destination surface on the gauge basis.
+    pub fn destination_grade(&self) -> Elevation {
+        self.destination_level
+            .raised(self.destination_gauge().head(self.fluid.specific_weight()))
     }
 
     /// Reynolds number in a segment at flow q (m³/s).
@@ -534,10 +565,11 @@ impl CaseSystem {
     /// NPSH available, m, for a suction-line loss already computed (see
     /// [`CaseSystem::npsh_available`]); a well's drawdown counts as part of it.
     pub fn npsh_available_after(&self, suction_loss: f64) -> f64 {
-        let rho_g = self.fluid.density * G;
-        self.source_abs_pa / rho_g + (self.source_level - self.centreline)
-            - suction_loss
-            - self.fluid.vapor_pressure / rho_g
+        let w = self.fluid.specific_weight();
+        (self.source_surface.head(w) + self.source_level.above(self.centreline)
+            - Head::new(suction_loss)
+            - self.fluid.vapor_pressure.head(w))
+        .m()
     }
 
     /// Whether the design gives station piping (`serves = each_pump` lines).
@@ -747,7 +779,7 @@ impl CaseSystem {
 
     /// The NPSH terms with station piping at `qp` when given, else left out.
     fn npsh_terms_of(&self, q: f64, qp: Option<f64>) -> NpshTerms {
-        let rho_g = self.fluid.density * G;
+        let w = self.fluid.specific_weight();
         let (mut friction, mut minor) = (0.0, 0.0);
         for seg in self.segments.iter().filter(|s| s.side == Side::Suction) {
             let flow = match (seg.per_pump, qp) {
@@ -760,10 +792,14 @@ impl CaseSystem {
             minor += m;
         }
         NpshTerms {
-            barometric_head: self.barometric_pa / rho_g,
-            surface_pressure_head: (self.source_abs_pa - self.barometric_pa) / rho_g,
-            static_suction_head: self.source_level - self.drawdown(q) - self.centreline,
-            vapour_pressure_head: -self.fluid.vapor_pressure / rho_g,
+            barometric_head: self.barometric.head(w).m(),
+            surface_pressure_head: self.source_gauge().head(w).m(),
+            static_suction_head: self
+                .source_level
+                .lowered(Head::new(self.drawdown(q)))
+                .above(self.centreline)
+                .m(),
+            vapour_pressure_head: (-self.fluid.vapor_pressure.head(w)).m(),
             suction_friction_head: -friction,
             suction_minor_head: -minor,
         }

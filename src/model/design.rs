@@ -11,6 +11,8 @@ use uom::si::f64::{
 use crate::diagnostics::Span;
 use crate::hydraulics::catalogue::Material;
 use crate::hydraulics::fittings::FittingSpec;
+use crate::hydraulics::heads::{AbsolutePressure, GaugePressure};
+use uom::si::{length::meter, pressure::pascal};
 
 /// A whole design: what the engine analyses.
 #[derive(Clone, Debug)]
@@ -293,6 +295,46 @@ pub enum SurfacePressure {
     Gauge(Pressure),
     /// Absolute (above zero).
     Absolute(Pressure),
+}
+
+impl SurfacePressure {
+    /// The surface's absolute pressure under the site's `barometric` pressure.
+    pub fn absolute(self, barometric: AbsolutePressure) -> AbsolutePressure {
+        match self {
+            SurfacePressure::Gauge(g) => GaugePressure::new(g.get::<pascal>()).absolute(barometric),
+            SurfacePressure::Absolute(a) => AbsolutePressure::new(a.get::<pascal>()),
+        }
+    }
+    /// The surface's gauge pressure under the site's `barometric` pressure.
+    pub fn gauge(self, barometric: AbsolutePressure) -> GaugePressure {
+        match self {
+            SurfacePressure::Gauge(g) => GaugePressure::new(g.get::<pascal>()),
+            SurfacePressure::Absolute(a) => {
+                AbsolutePressure::new(a.get::<pascal>()).gauge(barometric)
+            }
+        }
+    }
+    /// The gauge pressure as the design states it, `None` when it is stated absolute.
+    pub fn stated_gauge(self) -> Option<GaugePressure> {
+        match self {
+            SurfacePressure::Gauge(g) => Some(GaugePressure::new(g.get::<pascal>())),
+            SurfacePressure::Absolute(_) => None,
+        }
+    }
+}
+
+impl Site {
+    /// The site's barometric pressure: as given, or the U.S. Standard Atmosphere 1976
+    /// at the site elevation (NOAA/NASA/USAF, 1976, Eq. 33a); `Err` with the reason
+    /// where the elevation is outside the standard atmosphere.
+    pub fn barometric(&self) -> Result<AbsolutePressure, String> {
+        match self.barometric_pressure {
+            Some(p) => Ok(AbsolutePressure::new(p.get::<pascal>())),
+            None => crate::fluid::barometric_pressure_pa(self.elevation.get::<meter>())
+                .map(AbsolutePressure::new)
+                .map_err(|e| e.message),
+        }
+    }
 }
 
 /// Which roughness of its material a pipe uses.

@@ -8,7 +8,7 @@ use uom::si::{
 
 use super::design::*;
 use super::eval::{self, expect_dim, expect_number, Env};
-use super::fields::{block_name, missing, read_fields};
+use super::fields::{block_name, missing, read_fields, Field};
 use super::{ranges, FileAccess};
 use crate::diagnostics::{Diagnostic, Span};
 use crate::syntax::ast::{
@@ -84,21 +84,7 @@ pub fn lower_pump(
         diags,
     )?;
     let name = name.clone();
-    let description = match args.get(1) {
-        Some(Arg {
-            kind: ArgKind::Text(t),
-            ..
-        }) => t.clone(),
-        Some(a) => {
-            diags.push(Diagnostic::error(
-                Code::BadPump,
-                "after the pump's name only a quoted description may follow",
-                Some(a.span),
-            ));
-            String::new()
-        }
-        None => String::new(),
-    };
+    let description = pump_description(args, diags);
     let f = read_fields(body, &format!("pump {name}"), PUMP_FIELDS, diags);
     let mut p = PumpCandidate {
         name: name.clone(),
@@ -115,124 +101,16 @@ pub fn lower_pump(
         test_grade: None,
         span,
     };
-    let mut push = |r: Result<(), Diagnostic>| {
-        if let Err(d) = r {
-            diags.push(d)
-        }
+    let mut a = AdjustFields {
+        word: "none".to_string(),
+        min_speed: 0.5,
+        max_speed: 1.0,
+        min_trim: 0.8,
     };
-    let mut adjust_word = "none".to_string();
-    let (mut min_speed, mut max_speed, mut min_trim) = (0.5, 1.0, 0.8);
     for field in &f.fields {
-        let e = field.value;
-        push((|| {
-            match field.name {
-                "speed" => {
-                    let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
-                    if v <= 0.0 {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "the speed must be greater than zero",
-                            Some(e.span),
-                        ));
-                    }
-                    p.rated_speed =
-                        Frequency::new::<hertz>(env.in_range(&ranges::PUMP_SPEED, v, e.span)?);
-                }
-                "arrangement" => {
-                    p.arrangement = match eval::expect_word(
-                        e,
-                        env,
-                        "arrangement",
-                        &["single", "parallel", "series"],
-                    )?
-                    .as_str()
-                    {
-                        "parallel" => ArrangementKind::Parallel,
-                        "series" => ArrangementKind::Series,
-                        _ => ArrangementKind::Single,
-                    }
-                }
-                "count" | "standby" => {
-                    let v = expect_number(e, env, field.name)?;
-                    let lo = if field.name == "count" { 1.0 } else { 0.0 };
-                    if v.fract() != 0.0 || v < lo || v > 12.0 {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            format!("`{}` is a whole number from {lo} to 12", field.name),
-                            Some(e.span),
-                        ));
-                    }
-                    if field.name == "count" {
-                        p.count = v as u32
-                    } else {
-                        p.standby = v as u32
-                    }
-                }
-                "impeller" => {
-                    let v = expect_dim(e, env, Dimension::LENGTH, "impeller diameter")?.si;
-                    if v <= 0.0 {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "the impeller diameter must be greater than zero",
-                            Some(e.span),
-                        ));
-                    }
-                    p.impeller = Some(Length::new::<meter>(env.in_range(
-                        &ranges::IMPELLER,
-                        v,
-                        e.span,
-                    )?));
-                }
-                "motor_rating" => {
-                    let v = expect_dim(e, env, Dimension::POWER, "motor rating")?.si;
-                    if v.is_nan() || v <= 0.0 {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "the motor rating must be greater than zero",
-                            Some(e.span),
-                        ));
-                    }
-                    p.motor_rating = Some(uom::si::f64::Power::new::<watt>(v));
-                }
-                "min_flow" => {
-                    let v =
-                        expect_dim(e, env, Dimension::VOLUME_RATE, "minimum continuous flow")?.si;
-                    if !(v.is_finite() && v > 0.0) {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "the minimum continuous flow must be greater than zero",
-                            Some(e.span),
-                        ));
-                    }
-                    p.min_flow = Some(uom::si::f64::VolumeRate::new::<
-                        uom::si::volume_rate::cubic_meter_per_second,
-                    >(v));
-                }
-                "test_grade" => p.test_grade = Some(test_grade(e)?),
-                "adjust" => {
-                    adjust_word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?
-                }
-                "min_speed" | "max_speed" | "min_trim" => {
-                    let v = expect_number(e, env, field.name)?;
-                    let hi = if field.name == "max_speed" { 1.2 } else { 1.0 };
-                    if !(v > 0.0 && v <= hi) {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            format!("`{}` is a fraction of the rated value, above 0 and at most {:.0} %", field.name, hi * 100.0),
-                            Some(e.span),
-                        )
-                        .with_help("write it as a percentage, e.g. `min_speed = 60 %`"));
-                    }
-                    match field.name {
-                        "min_speed" => min_speed = v,
-                        "max_speed" => max_speed = v,
-                        _ => min_trim = v,
-                    }
-                }
-                _ => {}
-            }
-            Ok(())
-        })());
+        if let Err(d) = pump_field(&mut p, &mut a, field, env) {
+            diags.push(d);
+        }
     }
     if p.arrangement == ArrangementKind::Single && p.count > 1 {
         if let Some(c) = f.get("count") {
@@ -240,13 +118,13 @@ pub fn lower_pump(
                 .with_help("set `arrangement = parallel` or `arrangement = series` for several running pumps"));
         }
     }
-    p.adjust = match adjust_word.as_str() {
+    p.adjust = match a.word.as_str() {
         "speed" => Adjust::Speed {
-            min_ratio: min_speed,
-            max_ratio: max_speed,
+            min_ratio: a.min_speed,
+            max_ratio: a.max_speed,
         },
         "trim" => Adjust::Trim {
-            min_ratio: min_trim,
+            min_ratio: a.min_trim,
         },
         _ => Adjust::None,
     };
@@ -258,8 +136,167 @@ pub fn lower_pump(
             "speed = 1780 rpm",
         ));
     }
+    pump_curves(&mut p, &f.rest, span, env, files, diags);
+    Some(p)
+}
+
+/// The pump's description, the quoted text after its name.
+fn pump_description(args: &[Arg], diags: &mut Vec<Diagnostic>) -> String {
+    match args.get(1) {
+        Some(Arg {
+            kind: ArgKind::Text(t),
+            ..
+        }) => t.clone(),
+        Some(a) => {
+            diags.push(Diagnostic::error(
+                Code::BadPump,
+                "after the pump's name only a quoted description may follow",
+                Some(a.span),
+            ));
+            String::new()
+        }
+        None => String::new(),
+    }
+}
+
+/// The adjustment fields of a pump, read before the `Adjust` they make.
+struct AdjustFields {
+    /// `none`, `speed` or `trim`.
+    word: String,
+    /// Lowest speed, a fraction of the rated speed.
+    min_speed: f64,
+    /// Highest speed, a fraction of the rated speed.
+    max_speed: f64,
+    /// Smallest trim, a fraction of the impeller diameter.
+    min_trim: f64,
+}
+
+/// One field of a pump into `p` (or, for the adjustment, into `a`).
+fn pump_field(
+    p: &mut PumpCandidate,
+    a: &mut AdjustFields,
+    field: &Field,
+    env: &Env,
+) -> Result<(), Diagnostic> {
+    let e = field.value;
+    match field.name {
+        "speed" => {
+            let v = expect_dim(e, env, Dimension::FREQUENCY, "pump speed")?.si;
+            if v <= 0.0 {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "the speed must be greater than zero",
+                    Some(e.span),
+                ));
+            }
+            p.rated_speed =
+                Frequency::new::<hertz>(env.in_range(&ranges::PUMP_SPEED, v, e.span)?);
+        }
+        "arrangement" => {
+            p.arrangement =
+                match eval::expect_word(e, env, "arrangement", &["single", "parallel", "series"])?
+                    .as_str()
+                {
+                    "parallel" => ArrangementKind::Parallel,
+                    "series" => ArrangementKind::Series,
+                    _ => ArrangementKind::Single,
+                }
+        }
+        "count" | "standby" => {
+            let v = expect_number(e, env, field.name)?;
+            let lo = if field.name == "count" { 1.0 } else { 0.0 };
+            if v.fract() != 0.0 || v < lo || v > 12.0 {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    format!("`{}` is a whole number from {lo} to 12", field.name),
+                    Some(e.span),
+                ));
+            }
+            if field.name == "count" {
+                p.count = v as u32
+            } else {
+                p.standby = v as u32
+            }
+        }
+        "impeller" => {
+            let v = expect_dim(e, env, Dimension::LENGTH, "impeller diameter")?.si;
+            if v <= 0.0 {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "the impeller diameter must be greater than zero",
+                    Some(e.span),
+                ));
+            }
+            p.impeller = Some(Length::new::<meter>(env.in_range(
+                &ranges::IMPELLER,
+                v,
+                e.span,
+            )?));
+        }
+        "motor_rating" => {
+            let v = expect_dim(e, env, Dimension::POWER, "motor rating")?.si;
+            if v.is_nan() || v <= 0.0 {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "the motor rating must be greater than zero",
+                    Some(e.span),
+                ));
+            }
+            p.motor_rating = Some(uom::si::f64::Power::new::<watt>(v));
+        }
+        "min_flow" => {
+            let v = expect_dim(e, env, Dimension::VOLUME_RATE, "minimum continuous flow")?.si;
+            if !(v.is_finite() && v > 0.0) {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "the minimum continuous flow must be greater than zero",
+                    Some(e.span),
+                ));
+            }
+            p.min_flow = Some(uom::si::f64::VolumeRate::new::<
+                uom::si::volume_rate::cubic_meter_per_second,
+            >(v));
+        }
+        "test_grade" => p.test_grade = Some(test_grade(e)?),
+        "adjust" => a.word = eval::expect_word(e, env, "adjust", &["none", "speed", "trim"])?,
+        "min_speed" | "max_speed" | "min_trim" => {
+            let v = expect_number(e, env, field.name)?;
+            let hi = if field.name == "max_speed" { 1.2 } else { 1.0 };
+            if !(v > 0.0 && v <= hi) {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    format!(
+                        "`{}` is a fraction of the rated value, above 0 and at most {:.0} %",
+                        field.name,
+                        hi * 100.0
+                    ),
+                    Some(e.span),
+                )
+                .with_help("write it as a percentage, e.g. `min_speed = 60 %`"));
+            }
+            match field.name {
+                "min_speed" => a.min_speed = v,
+                "max_speed" => a.max_speed = v,
+                _ => a.min_trim = v,
+            }
+        }
+        _ => {}
+    }
+    Ok(())
+}
+
+/// The pump's `curve` tables (anything else in its braces is an error), and the error
+/// for a pump without any.
+fn pump_curves(
+    p: &mut PumpCandidate,
+    rest: &[&Statement],
+    span: Span,
+    env: &Env,
+    files: &dyn FileAccess,
+    diags: &mut Vec<Diagnostic>,
+) {
     let mut curve_written = false;
-    for st in &f.rest {
+    for st in rest {
         match &st.kind {
             StatementKind::Curve {
                 keyword,
@@ -301,12 +338,11 @@ pub fn lower_pump(
     if !curve_written {
         diags.push(missing(
             "curve",
-            &format!("pump {name}"),
+            &format!("pump {}", p.name),
             span,
             "curve impeller 10 in { ... }",
         ));
     }
-    Some(p)
 }
 
 /// Lower `curve [impeller D] [speed N] [from "file.csv"] [{ table }]`.
@@ -566,6 +602,35 @@ fn lower_table(
     diags: &mut Vec<Diagnostic>,
 ) -> Option<CurveData> {
     let before = diags.len();
+    let units = table_units(t, diags);
+    if diags.len() > before || !table_size_ok(t, diags) {
+        return None;
+    }
+    let mut c = CurveData {
+        impeller,
+        speed,
+        flow: vec![],
+        head: vec![],
+        efficiency: vec![],
+        npshr: vec![],
+        shaft_power: vec![],
+        span: t.span,
+    };
+    for row in &t.rows {
+        table_row(&mut c, row, &units, env, diags);
+    }
+    if diags.len() > before {
+        return None;
+    }
+    Some(c)
+}
+
+/// The unit of each known column of a curve table, in order; errors for an unknown
+/// column, a unit of the wrong dimension, and a missing `flow` or `head`.
+fn table_units<'t>(
+    t: &'t Table,
+    diags: &mut Vec<Diagnostic>,
+) -> Vec<(&'t str, crate::units::Unit)> {
     let mut units = Vec::new();
     for c in &t.columns {
         let Some((_, dim)) = COLUMNS.iter().find(|(n, _)| *n == c.name.name) else {
@@ -602,9 +667,11 @@ fn lower_table(
             ));
         }
     }
-    if diags.len() > before {
-        return None;
-    }
+    units
+}
+
+/// Whether the table has from 3 to [`MAX_CURVE_POINTS`] rows (an error if not).
+fn table_size_ok(t: &Table, diags: &mut Vec<Diagnostic>) -> bool {
     if t.rows.len() > MAX_CURVE_POINTS {
         diags.push(Diagnostic::error(
             Code::TooMany,
@@ -614,7 +681,7 @@ fn lower_table(
             ),
             Some(t.span),
         ));
-        return None;
+        return false;
     }
     if t.rows.len() < 3 {
         diags.push(
@@ -625,112 +692,108 @@ fn lower_table(
             )
             .with_help("give points from shut-off to beyond the expected duty"),
         );
-        return None;
+        return false;
     }
-    let mut c = CurveData {
-        impeller,
-        speed,
-        flow: vec![],
-        head: vec![],
-        efficiency: vec![],
-        npshr: vec![],
-        shaft_power: vec![],
-        span: t.span,
-    };
-    for row in &t.rows {
-        if row.cells.len() != units.len() {
-            diags.push(Diagnostic::error(
-                Code::BadRow,
-                format!(
-                    "this row has {} values; the table has {} columns",
-                    row.cells.len(),
-                    units.len()
-                ),
-                Some(row.span),
-            ));
+    true
+}
+
+/// One row of a curve table into `c`: every value in its column's unit, in its range;
+/// flows increasing.
+fn table_row(
+    c: &mut CurveData,
+    row: &Row,
+    units: &[(&str, crate::units::Unit)],
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) {
+    if row.cells.len() != units.len() {
+        diags.push(Diagnostic::error(
+            Code::BadRow,
+            format!(
+                "this row has {} values; the table has {} columns",
+                row.cells.len(),
+                units.len()
+            ),
+            Some(row.span),
+        ));
+        return;
+    }
+    let mut eff = None;
+    let mut npsh = None;
+    let mut pow = None;
+    let mut flow = None;
+    let mut head = None;
+    for ((name, u), cell) in units.iter().zip(&row.cells) {
+        let Some(v) = &cell.value else {
+            if matches!(*name, "flow" | "head") {
+                diags.push(Diagnostic::error(
+                    Code::BadRow,
+                    format!("every point needs a {name}"),
+                    Some(cell.span),
+                ));
+            }
+            continue;
+        };
+        let si = crate::units::Quantity::from_value(v.value, u).si;
+        if si < 0.0 {
+            diags.push(
+                Diagnostic::error(
+                    Code::OutOfRange,
+                    format!("negative values are not allowed in the `{name}` column"),
+                    Some(cell.span),
+                )
+                .with_label("negative")
+                .with_help("a curve table gives magnitudes from shut-off (zero flow) upwards"),
+            );
             continue;
         }
-        let mut eff = None;
-        let mut npsh = None;
-        let mut pow = None;
-        let mut flow = None;
-        let mut head = None;
-        for ((name, u), cell) in units.iter().zip(&row.cells) {
-            let Some(v) = &cell.value else {
-                if matches!(*name, "flow" | "head") {
-                    diags.push(Diagnostic::error(
-                        Code::BadRow,
-                        format!("every point needs a {name}"),
-                        Some(cell.span),
-                    ));
-                }
-                continue;
-            };
-            let si = crate::units::Quantity::from_value(v.value, u).si;
-            if si < 0.0 {
-                diags.push(
-                    Diagnostic::error(
-                        Code::OutOfRange,
-                        format!("negative values are not allowed in the `{name}` column"),
-                        Some(cell.span),
-                    )
-                    .with_label("negative")
-                    .with_help("a curve table gives magnitudes from shut-off (zero flow) upwards"),
-                );
+        let range = match *name {
+            "flow" => Some(&ranges::CURVE_FLOW),
+            "head" => Some(&ranges::CURVE_HEAD),
+            "npshr" => Some(&ranges::CURVE_NPSHR),
+            "power" => Some(&ranges::CURVE_POWER),
+            _ => None,
+        };
+        if let Some(range) = range {
+            if let Err(d) = env.in_range(range, si, cell.span) {
+                diags.push(d);
                 continue;
             }
-            let range = match *name {
-                "flow" => Some(&ranges::CURVE_FLOW),
-                "head" => Some(&ranges::CURVE_HEAD),
-                "npshr" => Some(&ranges::CURVE_NPSHR),
-                "power" => Some(&ranges::CURVE_POWER),
-                _ => None,
-            };
-            if let Some(range) = range {
-                if let Err(d) = env.in_range(range, si, cell.span) {
-                    diags.push(d);
-                    continue;
-                }
-            }
-            match *name {
-                "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),
-                "head" => head = Some(Length::new::<meter>(si)),
-                "efficiency" => {
-                    if si > 1.0 {
-                        diags.push(
-                            Diagnostic::error(
-                                Code::OutOfRange,
-                                "an efficiency cannot exceed 100 %",
-                                Some(cell.span),
-                            )
-                            .with_help("is the column's unit `%`?"),
-                        );
-                    }
-                    eff = Some(Ratio::new::<ratio>(si))
-                }
-                "npshr" => npsh = Some(Length::new::<meter>(si)),
-                _ => pow = Some(Power::new::<watt>(si)),
-            }
         }
-        if let (Some(q), Some(h)) = (flow, head) {
-            if let Some(prev) = c.flow.last() {
-                if q <= *prev {
-                    diags.push(Diagnostic::error(
-                        Code::BadRow,
-                        "flows must increase down the table",
-                        Some(row.span),
-                    ));
+        match *name {
+            "flow" => flow = Some(VolumeRate::new::<cubic_meter_per_second>(si)),
+            "head" => head = Some(Length::new::<meter>(si)),
+            "efficiency" => {
+                if si > 1.0 {
+                    diags.push(
+                        Diagnostic::error(
+                            Code::OutOfRange,
+                            "an efficiency cannot exceed 100 %",
+                            Some(cell.span),
+                        )
+                        .with_help("is the column's unit `%`?"),
+                    );
                 }
+                eff = Some(Ratio::new::<ratio>(si))
             }
-            c.flow.push(q);
-            c.head.push(h);
-            c.efficiency.push(eff);
-            c.npshr.push(npsh);
-            c.shaft_power.push(pow);
+            "npshr" => npsh = Some(Length::new::<meter>(si)),
+            _ => pow = Some(Power::new::<watt>(si)),
         }
     }
-    if diags.len() > before {
-        return None;
+    if let (Some(q), Some(h)) = (flow, head) {
+        if let Some(prev) = c.flow.last() {
+            if q <= *prev {
+                diags.push(Diagnostic::error(
+                    Code::BadRow,
+                    "flows must increase down the table",
+                    Some(row.span),
+                ));
+            }
+        }
+        c.flow.push(q);
+        c.head.push(h);
+        c.efficiency.push(eff);
+        c.npshr.push(npsh);
+        c.shaft_power.push(pow);
     }
-    Some(c)
 }

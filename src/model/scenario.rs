@@ -491,20 +491,88 @@ pub fn lower_pipe(
     env: &Env,
     diags: &mut Vec<Diagnostic>,
 ) -> Option<Segment> {
-    let fail = |diags: &mut Vec<Diagnostic>, at: Span, msg: &str| {
-        diags.push(
-            Diagnostic::error(Code::BadPipe, msg.to_string(), Some(at)).with_help(
-                "write e.g. `pipe steel 6 in schedule 40 { length = 120 ft }`, `pipe copper 2 in type L`, `pipe hdpe 10 in DR 17` or `pipe pvc bore 146.3 mm`",
-            ),
-        );
-        None
+    let material = pipe_material(args, span, diags)?;
+    let mut wall = WallData::default();
+    let (size_label, inner, source) = match args.get(1).map(|a| &a.kind) {
+        Some(ArgKind::Word(w)) if w == "bore" => pipe_bore(args, span, env, diags)?,
+        Some(_) => pipe_nominal(material, args, &mut wall, diags)?,
+        None => return bad_pipe(diags, span, "a pipe needs a size after its material"),
     };
-    let material = match args.first() {
+    let mut seg = Segment {
+        material,
+        size_label,
+        inner_diameter: length(inner),
+        diameter_source: source,
+        length: length(0.0),
+        roughness: None,
+        hazen_williams_c: None,
+        fittings: Vec::new(),
+        losses: Vec::new(),
+        wall,
+        span,
+    };
+    pipe_fields(&mut seg, body, env, diags);
+    Some(seg)
+}
+
+/// A pipe's fields (length, roughness, Hazen-Williams C ...), with a warning for a
+/// zero length.
+fn pipe_fields(seg: &mut Segment, body: &[Statement], env: &Env, diags: &mut Vec<Diagnostic>) {
+    let span = seg.span;
+    let f = read_fields(body, "a pipe", SEGMENT_FIELDS, diags);
+    for st in &f.rest {
+        diags.push(
+            Diagnostic::error(
+                Code::Unexpected,
+                "a pipe's braces hold only its fields",
+                Some(st.span),
+            )
+            .with_help("fittings follow the pipe on their own lines, outside its braces"),
+        );
+    }
+    if f.get("length").is_none() {
+        diags.push(missing("length", "a pipe", span, "length = 120 ft"));
+    }
+    let mut length_failed = false;
+    for field in &f.fields {
+        if let Err(d) = set_segment(seg, field.name, field.value, env) {
+            length_failed |= field.name == "length";
+            diags.push(d);
+        }
+    }
+    if let Some(l) = f
+        .get("length")
+        .filter(|_| seg.length.get::<meter>() == 0.0 && !length_failed)
+    {
+        diags.push(
+            Diagnostic::warning(
+                Code::ZeroLength,
+                "a pipe of zero length: no wall friction is counted; its fittings and losses still use its bore",
+                Some(l.value.span),
+            )
+            .with_help("give the pipe's length, or keep it at zero only to carry fittings"),
+        );
+    }
+}
+
+/// A pipe error: what is wrong, and the forms a pipe may take.
+fn bad_pipe<T>(diags: &mut Vec<Diagnostic>, at: Span, msg: &str) -> Option<T> {
+    diags.push(
+        Diagnostic::error(Code::BadPipe, msg.to_string(), Some(at)).with_help(
+            "write e.g. `pipe steel 6 in schedule 40 { length = 120 ft }`, `pipe copper 2 in type L`, `pipe hdpe 10 in DR 17` or `pipe pvc bore 146.3 mm`",
+        ),
+    );
+    None
+}
+
+/// The pipe's material, its first word.
+fn pipe_material(args: &[Arg], span: Span, diags: &mut Vec<Diagnostic>) -> Option<Material> {
+    match args.first() {
         Some(Arg {
             kind: ArgKind::Word(w),
             span: s,
         }) => match Material::from_keyword(w) {
-            Some(m) => m,
+            Some(m) => Some(m),
             None => {
                 let names: Vec<&str> = Material::all().iter().map(|m| m.keyword()).collect();
                 let near = nearest(w, names.iter().copied());
@@ -525,182 +593,143 @@ pub fn lower_pipe(
                         eval::quote_list(&names)
                     )),
                 );
+                None
+            }
+        },
+        Some(a) => bad_pipe(diags, a.span, "a pipe starts with its material"),
+        None => bad_pipe(diags, span, "a pipe needs a material and a size"),
+    }
+}
+
+/// `bore <length>`: (size label, inner diameter m, its source).
+fn pipe_bore(
+    args: &[Arg],
+    span: Span,
+    env: &Env,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<(String, f64, String)> {
+    let Some(a) = args.get(2) else {
+        return bad_pipe(diags, span, "`bore` needs an inner diameter");
+    };
+    let q = match &a.kind {
+        ArgKind::Quantity { value, unit } => match eval::quantity_literal(value, unit) {
+            Ok(q) => q,
+            Err(d) => {
+                diags.push(d);
                 return None;
             }
         },
-        Some(a) => return fail(diags, a.span, "a pipe starts with its material"),
-        None => return fail(diags, span, "a pipe needs a material and a size"),
+        _ => return bad_pipe(diags, a.span, "`bore` needs an inner diameter with a unit"),
     };
-    let mut wall = WallData::default();
-    let (size_label, inner, source) = match args.get(1).map(|a| &a.kind) {
-        Some(ArgKind::Word(w)) if w == "bore" => {
-            let Some(a) = args.get(2) else {
-                return fail(diags, span, "`bore` needs an inner diameter");
-            };
-            let q = match &a.kind {
-                ArgKind::Quantity { value, unit } => match eval::quantity_literal(value, unit) {
-                    Ok(q) => q,
-                    Err(d) => {
-                        diags.push(d);
-                        return None;
-                    }
-                },
-                _ => return fail(diags, a.span, "`bore` needs an inner diameter with a unit"),
-            };
-            if q.dim != Dimension::LENGTH {
-                diags.push(
-                    Diagnostic::error(
-                        Code::UnitMismatch,
-                        format!("pipe bore: expected a length, found {}", q.dim.describe()),
-                        Some(a.span),
-                    )
-                    .with_label("expected a length"),
-                );
-                return None;
-            }
-            if q.si <= 0.0 {
-                return fail(diags, a.span, "the bore must be greater than zero");
-            }
-            // Out of range: an error, but the segment is kept so its fittings do not
-            // also report that they come before any pipe.
-            if let Err(d) = env.in_range(&ranges::PIPE_BORE, q.si, a.span) {
-                diags.push(d);
-            }
-            let ArgKind::Quantity { value, unit } = &a.kind else {
-                return None;
-            };
-            (
-                format!("bore {} {}", value.text, unit.text),
-                q.si,
-                "given in the design".to_string(),
-            )
-        }
-        Some(_) => {
-            let size_arg = args.get(1)?;
-            let nominal = match &size_arg.kind {
-                ArgKind::Quantity { value, unit } if unit.text == "in" => value.text.clone(),
-                ArgKind::Word(w) if w.starts_with("DN") => w.clone(),
-                _ => {
-                    return fail(
-                        diags,
-                        size_arg.span,
-                        "expected a nominal size such as `6 in`, `1-1/2 in` or `DN150`",
-                    )
-                }
-            };
-            let (Some(kind_arg), Some(value_arg)) = (args.get(2), args.get(3)) else {
-                return fail(
-                    diags,
-                    size_arg.span,
-                    "the nominal size needs a schedule, type, class or DR after it",
-                );
-            };
-            let kind = match &kind_arg.kind {
-                ArgKind::Word(w) if ["schedule", "type", "class", "DR"].contains(&w.as_str()) => {
-                    w.clone()
-                }
-                _ => {
-                    return fail(
-                        diags,
-                        kind_arg.span,
-                        "expected `schedule`, `type`, `class` or `DR`",
-                    )
-                }
-            };
-            let value = match &value_arg.kind {
-                ArgKind::Number(n) => n.text.clone(),
-                ArgKind::Word(w) => w.clone(),
-                ArgKind::Quantity { value, unit } => format!("{}{}", value.text, unit.text),
-                _ => {
-                    return fail(
-                        diags,
-                        value_arg.span,
-                        "expected a schedule, type, class or DR value",
-                    )
-                }
-            };
-            let schedule = match kind.as_str() {
-                "class" => format!("class {value}"),
-                "DR" => format!("DR{value}"),
-                _ => value.clone(),
-            };
-            let label = match kind.as_str() {
-                "DR" => format!("{nominal} in DR {value}"),
-                _ if nominal.starts_with("DN") => format!("{nominal} {kind} {value}"),
-                _ => format!("{nominal} in {kind} {value}"),
-            };
-            match catalogue::pipe_size(material, &nominal, &schedule) {
-                Ok(p) => {
-                    wall.outer_diameter = Some(length(p.outer_diameter_m));
-                    wall.thickness = Some(length(p.wall_m));
-                    wall.designation = Some(match kind.as_str() {
-                        "DR" => format!("DR {value}"),
-                        _ => format!("{kind} {value}"),
-                    });
-                    (label, p.inner_diameter_m, p.standard.to_string())
-                }
-                Err(e) => {
-                    let at = size_arg.span.join(value_arg.span);
-                    let mut d = Diagnostic::error(Code::UnknownPipeSize, e.message, Some(at))
-                        .with_label("not in the pipe catalogue");
-                    if !e.nearest.is_empty() {
-                        d = d.with_help(format!("nearest valid sizes: {}", e.nearest.join(", ")));
-                    }
-                    diags.push(d);
-                    return None;
-                }
-            }
-        }
-        None => return fail(diags, span, "a pipe needs a size after its material"),
-    };
-    let mut seg = Segment {
-        material,
-        size_label,
-        inner_diameter: length(inner),
-        diameter_source: source,
-        length: length(0.0),
-        roughness: None,
-        hazen_williams_c: None,
-        fittings: Vec::new(),
-        losses: Vec::new(),
-        wall,
-        span,
-    };
-    let f = read_fields(body, "a pipe", SEGMENT_FIELDS, diags);
-    for st in &f.rest {
+    if q.dim != Dimension::LENGTH {
         diags.push(
             Diagnostic::error(
-                Code::Unexpected,
-                "a pipe's braces hold only its fields",
-                Some(st.span),
+                Code::UnitMismatch,
+                format!("pipe bore: expected a length, found {}", q.dim.describe()),
+                Some(a.span),
             )
-            .with_help("fittings follow the pipe on their own lines, outside its braces"),
+            .with_label("expected a length"),
         );
+        return None;
     }
-    if f.get("length").is_none() {
-        diags.push(missing("length", "a pipe", span, "length = 120 ft"));
+    if q.si <= 0.0 {
+        return bad_pipe(diags, a.span, "the bore must be greater than zero");
     }
-    let mut length_failed = false;
-    for field in &f.fields {
-        if let Err(d) = set_segment(&mut seg, field.name, field.value, env) {
-            length_failed |= field.name == "length";
+    // Out of range: an error, but the segment is kept so its fittings do not
+    // also report that they come before any pipe.
+    if let Err(d) = env.in_range(&ranges::PIPE_BORE, q.si, a.span) {
+        diags.push(d);
+    }
+    let ArgKind::Quantity { value, unit } = &a.kind else {
+        return None;
+    };
+    Some((
+        format!("bore {} {}", value.text, unit.text),
+        q.si,
+        "given in the design".to_string(),
+    ))
+}
+
+/// A nominal size with its schedule, type, class or DR, from the pipe catalogue:
+/// (size label, inner diameter m, the standard); the wall data go into `wall`.
+fn pipe_nominal(
+    material: Material,
+    args: &[Arg],
+    wall: &mut WallData,
+    diags: &mut Vec<Diagnostic>,
+) -> Option<(String, f64, String)> {
+    let size_arg = args.get(1)?;
+    let nominal = match &size_arg.kind {
+        ArgKind::Quantity { value, unit } if unit.text == "in" => value.text.clone(),
+        ArgKind::Word(w) if w.starts_with("DN") => w.clone(),
+        _ => {
+            return bad_pipe(
+                diags,
+                size_arg.span,
+                "expected a nominal size such as `6 in`, `1-1/2 in` or `DN150`",
+            )
+        }
+    };
+    let (Some(kind_arg), Some(value_arg)) = (args.get(2), args.get(3)) else {
+        return bad_pipe(
+            diags,
+            size_arg.span,
+            "the nominal size needs a schedule, type, class or DR after it",
+        );
+    };
+    let kind = match &kind_arg.kind {
+        ArgKind::Word(w) if ["schedule", "type", "class", "DR"].contains(&w.as_str()) => w.clone(),
+        _ => {
+            return bad_pipe(
+                diags,
+                kind_arg.span,
+                "expected `schedule`, `type`, `class` or `DR`",
+            )
+        }
+    };
+    let value = match &value_arg.kind {
+        ArgKind::Number(n) => n.text.clone(),
+        ArgKind::Word(w) => w.clone(),
+        ArgKind::Quantity { value, unit } => format!("{}{}", value.text, unit.text),
+        _ => {
+            return bad_pipe(
+                diags,
+                value_arg.span,
+                "expected a schedule, type, class or DR value",
+            )
+        }
+    };
+    let schedule = match kind.as_str() {
+        "class" => format!("class {value}"),
+        "DR" => format!("DR{value}"),
+        _ => value.clone(),
+    };
+    let label = match kind.as_str() {
+        "DR" => format!("{nominal} in DR {value}"),
+        _ if nominal.starts_with("DN") => format!("{nominal} {kind} {value}"),
+        _ => format!("{nominal} in {kind} {value}"),
+    };
+    match catalogue::pipe_size(material, &nominal, &schedule) {
+        Ok(p) => {
+            wall.outer_diameter = Some(length(p.outer_diameter_m));
+            wall.thickness = Some(length(p.wall_m));
+            wall.designation = Some(match kind.as_str() {
+                "DR" => format!("DR {value}"),
+                _ => format!("{kind} {value}"),
+            });
+            Some((label, p.inner_diameter_m, p.standard.to_string()))
+        }
+        Err(e) => {
+            let at = size_arg.span.join(value_arg.span);
+            let mut d = Diagnostic::error(Code::UnknownPipeSize, e.message, Some(at))
+                .with_label("not in the pipe catalogue");
+            if !e.nearest.is_empty() {
+                d = d.with_help(format!("nearest valid sizes: {}", e.nearest.join(", ")));
+            }
             diags.push(d);
+            None
         }
     }
-    if let Some(l) = f
-        .get("length")
-        .filter(|_| seg.length.get::<meter>() == 0.0 && !length_failed)
-    {
-        diags.push(
-            Diagnostic::warning(
-                Code::ZeroLength,
-                "a pipe of zero length: no wall friction is counted; its fittings and losses still use its bore",
-                Some(l.value.span),
-            )
-            .with_help("give the pipe's length, or keep it at zero only to carry fittings"),
-        );
-    }
-    Some(seg)
 }
 
 /// The fields in a fitting's braces.
@@ -1180,17 +1209,15 @@ pub fn water_state_errors(
             );
             continue;
         }
-        let site = &case.scenario.site;
-        let barometric = match site.barometric_pressure {
-            Some(p) => Ok(p.get::<pascal>()),
-            None => crate::fluid::barometric_pressure_pa(site.elevation.get::<meter>())
-                .map_err(|e| e.message),
+        let Ok(barometric) = case.scenario.site.barometric() else {
+            continue;
         };
-        let Ok(barometric) = barometric else { continue };
-        let surface = match case.scenario.source.surface_pressure {
-            SurfacePressure::Gauge(g) => barometric + g.get::<pascal>(),
-            SurfacePressure::Absolute(a) => a.get::<pascal>(),
-        };
+        let surface = case
+            .scenario
+            .source
+            .surface_pressure
+            .absolute(barometric)
+            .pa();
         let boils = match crate::fluid::saturation_pressure_pa(t) {
             Ok(pv) => (pv >= surface).then_some(pv),
             Err(_) => Some(f64::INFINITY),

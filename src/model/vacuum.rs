@@ -4,9 +4,7 @@
 
 use crate::diagnostics::{Code, Diagnostic, Span};
 use crate::message::{self, Kind, Message};
-use crate::model::{Design, Scenario, SurfacePressure, Tank};
-use uom::si::length::meter;
-use uom::si::pressure::pascal;
+use crate::model::Design;
 
 /// Check-time errors for every case in which a tank's absolute surface pressure
 /// (barometric + gauge, Pa) is zero or negative. The barometric pressure is the
@@ -18,20 +16,22 @@ pub fn absolute_pressure_errors(
     render: &dyn Fn(&Message) -> String,
 ) -> Vec<Diagnostic> {
     let gauge_of = |si| message::value(Kind::GaugePressure, si);
-    let absolute = |si| message::value(Kind::AbsolutePressure, si);
+    let absolute_of = |si| message::value(Kind::AbsolutePressure, si);
     let mut out = Vec::new();
     for case in &design.cases {
-        let Some(barometric) = barometric_pa(&case.scenario) else {
+        let Ok(barometric) = case.scenario.site.barometric() else {
             continue;
         };
         let tanks = [&case.scenario.source, &case.scenario.destination];
         for tank in tanks {
-            let Some(gauge) = gauge_pa(tank) else {
+            let Some(gauge) = tank.surface_pressure.stated_gauge() else {
                 continue;
             };
-            if barometric + gauge > 0.0 {
+            let absolute = gauge.absolute(barometric);
+            if absolute.is_above_vacuum() {
                 continue;
             }
+            let (gauge, barometric) = (gauge.pa(), barometric.pa());
             let message = render(&crate::message![
                 format!(
                     "case {}: tank {} has a gauge pressure of ",
@@ -39,9 +39,9 @@ pub fn absolute_pressure_errors(
                 ),
                 gauge_of(gauge),
                 " where the barometric pressure is ",
-                absolute(barometric),
+                absolute_of(barometric),
                 ": its absolute pressure would be ",
-                absolute(barometric + gauge),
+                absolute_of(absolute.pa()),
                 ", below absolute zero"
             ]);
             let at = if case.span == Span::new(0, 0) {
@@ -61,21 +61,4 @@ pub fn absolute_pressure_errors(
         }
     }
     out
-}
-
-/// The case's barometric pressure in Pa, absolute; `None` where the site elevation is
-/// outside the standard atmosphere (an error reported elsewhere).
-fn barometric_pa(scenario: &Scenario) -> Option<f64> {
-    match scenario.site.barometric_pressure {
-        Some(p) => Some(p.get::<pascal>()),
-        None => crate::fluid::barometric_pressure_pa(scenario.site.elevation.get::<meter>()).ok(),
-    }
-}
-
-/// The tank's gauge surface pressure in Pa, when it is given as gauge.
-fn gauge_pa(tank: &Tank) -> Option<f64> {
-    match tank.surface_pressure {
-        SurfacePressure::Gauge(g) => Some(g.get::<pascal>()),
-        SurfacePressure::Absolute(_) => None,
-    }
 }

@@ -3,23 +3,17 @@
 
 use std::fmt::Write as _;
 
-use crate::analysis::Analysis;
+use crate::analysis::duty::PumpResult;
+use crate::analysis::system::CaseSystem;
+use crate::analysis::{Analysis, CaseResult};
 use crate::display::{percent, Units};
 use crate::model::Design;
 
 /// The text summary.
 pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     let u = Units::new(design.project.units);
-    let (fl, hd, vel, len, dia) = (u.flow(), u.head(), u.velocity(), u.length(), u.diameter());
     let mut o = String::new();
-    let p = &design.project;
-    let _ = writeln!(o, "dutyline results {}", crate::VERSION);
-    let _ = writeln!(o, "project: {}", p.title);
-    let _ = writeln!(o, "number: {}", p.number);
-    if let Some(r) = design.revisions.last() {
-        let _ = writeln!(o, "revision: {} {} {}", r.id, r.date, r.description);
-    }
-    let _ = writeln!(o, "units: {}", p.units.keyword());
+    header(&mut o, design);
     for c in &analysis.cases {
         let _ = writeln!(o, "\ncase {}", c.name);
         for ov in &c.overrides {
@@ -33,158 +27,194 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
             );
             continue;
         };
-        let _ = writeln!(
-            o,
-            "  fluid: {}{}, density {}, viscosity {}, vapour pressure {}",
-            s.fluid.name,
-            s.fluid
-                .temperature_k
-                .map(|t| format!(" at {}", u.temperature().fmt(t)))
-                .unwrap_or_default(),
-            u.density().fmt(s.fluid.density),
-            u.viscosity().fmt(s.fluid.viscosity),
-            u.absolute_pressure().fmt(s.fluid.vapor_pressure)
-        );
-        let _ = writeln!(
-            o,
-            "  barometric pressure: {}",
-            u.absolute_pressure().fmt(s.barometric_pa)
-        );
-        let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
-        let _ = writeln!(
-            o,
-            "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {}; pipe condition {}",
-            u.elevation().fmt(s.source_level),
-            u.elevation().fmt(s.destination_level),
-            u.elevation().fmt(s.centreline),
-            u.absolute_pressure().fmt(s.source_abs_pa),
-            u.absolute_pressure().fmt(s.destination_abs_pa),
-            s.pipe_condition.keyword()
-        );
-        for g in &s.segments {
-            let _ = writeln!(
-                o,
-                "  segment {} {}: {}, ID {}, length {}, {}",
-                g.line,
-                g.index + 1,
-                crate::display::pipe(g.material, &g.size_label, g.inner_diameter, &u),
-                dia.fmt(g.inner_diameter),
-                len.fmt(g.length),
-                match g.hazen_williams_c {
-                    Some(cv) => format!("Hazen-Williams C {cv}"),
-                    None => format!(
-                        "roughness {} (source: {})",
-                        u.roughness().fmt(g.roughness),
-                        crate::report::sections::sources::publication(
-                            g.roughness_source.trim_start_matches("roughness: "),
-                            &u
-                        )
-                    ),
-                }
-            );
-        }
-        let networked = s.network.is_some();
-        let well = s.well.is_some();
-        let _ = writeln!(
-            o,
-            "  system curve ({} | {} = static + friction + minor{}{}):",
-            fl.label,
-            hd.label,
-            if networked { " + network" } else { "" },
-            if well { " + drawdown" } else { "" }
-        );
-        for pt in c.system_curve.iter().step_by(3) {
-            let _ = writeln!(
-                o,
-                "    {:>9} | {:>8} = {} + {} + {}{}{}",
-                fl.num(pt.flow),
-                hd.num(pt.head),
-                hd.num(pt.static_head),
-                hd.num(pt.friction),
-                hd.num(pt.minor),
-                if networked {
-                    format!(" + {}", hd.num(pt.network))
-                } else {
-                    String::new()
-                },
-                if well {
-                    format!(" + {}", hd.num(pt.drawdown))
-                } else {
-                    String::new()
-                }
-            );
-        }
+        case_system(&mut o, &u, c, s);
         for r in &c.pumps {
-            let _ = writeln!(
-                o,
-                "  pump {} at {:.0} rpm{}:",
-                r.name,
-                r.speed_rpm,
-                r.impeller_diameter_m
-                    .map(|d| format!(", impeller {}", dia.fmt(d)))
-                    .unwrap_or_default()
-            );
-            match &r.duty {
-                Some(d) => {
-                    let _ = writeln!(o, "    duty: {} at {}", fl.fmt(d.flow), hd.fmt(d.head));
-                    if let Some(e) = d.efficiency {
-                        let _ = writeln!(o, "    efficiency: {}", percent(e));
-                    }
-                    if let Some(b) = d.flow_ratio_to_bep {
-                        let _ = writeln!(o, "    flow / BEP flow: {}", percent(b));
-                    }
-                    duty_detail(&mut o, &u, d);
-                    if let (Some(v1), Some(v2)) = (d.suction_velocity, d.discharge_velocity) {
-                        let _ = writeln!(
-                            o,
-                            "    velocity suction / discharge: {} / {}",
-                            vel.fmt(v1),
-                            vel.fmt(v2)
-                        );
-                    }
-                    if let Some(n) = &r.network {
-                        network_detail(&mut o, &u, n);
-                    }
-                }
-                None => {
-                    let _ = writeln!(
-                        o,
-                        "    {}",
-                        r.failure
-                            .as_ref()
-                            .map_or("no duty point".to_string(), |m| u.render(m))
-                    );
-                }
-            }
-            if let Some(q) = r.capacity_flow {
-                let _ = writeln!(o, "    capacity at the limit: {}", fl.fmt(q));
-            }
-            if let Some(e) = r.energy {
-                let _ = writeln!(
-                    o,
-                    "    per year: {} h, {}, {}",
-                    format_args!("{:.0}", e.hours),
-                    u.volume().fmt(e.volume_m3),
-                    u.energy().fmt(e.energy_j)
-                );
-            }
-            for ch in &r.checks {
-                let _ = writeln!(
-                    o,
-                    "    check {} {}: {}",
-                    ch.id,
-                    ch.status.keyword(),
-                    u.render(&ch.message)
-                );
-            }
-            for w in &r.warnings {
-                let _ = writeln!(o, "    warning: {}", u.render(w));
-            }
+            pump(&mut o, &u, r);
         }
     }
     candidates(&mut o, design, analysis);
     super::operation_text::operation(&mut o, design, analysis);
     super::envelope_text::envelope(&mut o, design, analysis);
+    selection(&mut o, design, analysis, &u);
+    safety(&mut o, analysis, &u);
+    for w in &analysis.warnings {
+        let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
+    }
+    o
+}
+
+/// The project's lines: title, number, last revision, units.
+fn header(o: &mut String, design: &Design) {
+    let p = &design.project;
+    let _ = writeln!(o, "dutyline results {}", crate::VERSION);
+    let _ = writeln!(o, "project: {}", p.title);
+    let _ = writeln!(o, "number: {}", p.number);
+    if let Some(r) = design.revisions.last() {
+        let _ = writeln!(o, "revision: {} {} {}", r.id, r.date, r.description);
+    }
+    let _ = writeln!(o, "units: {}", p.units.keyword());
+}
+
+/// One case's system: fluid, barometric pressure, static head, levels, segments and
+/// the system curve (every third point).
+fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
+    let (fl, hd, len, dia) = (u.flow(), u.head(), u.length(), u.diameter());
+    let _ = writeln!(
+        o,
+        "  fluid: {}{}, density {}, viscosity {}, vapour pressure {}",
+        s.fluid.name,
+        s.fluid
+            .temperature_k
+            .map(|t| format!(" at {}", u.temperature().fmt(t)))
+            .unwrap_or_default(),
+        u.density().fmt(s.fluid.density),
+        u.viscosity().fmt(s.fluid.viscosity),
+        u.absolute_pressure().fmt(s.fluid.vapor_pressure.pa())
+    );
+    let _ = writeln!(
+        o,
+        "  barometric pressure: {}",
+        u.absolute_pressure().fmt(s.barometric.pa())
+    );
+    let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
+    let _ = writeln!(
+        o,
+        "  levels: source {}, destination {}, pump datum {}; surface pressures {} / {}; pipe condition {}",
+        u.elevation().fmt(s.source_level.m()),
+        u.elevation().fmt(s.destination_level.m()),
+        u.elevation().fmt(s.centreline.m()),
+        u.absolute_pressure().fmt(s.source_surface.pa()),
+        u.absolute_pressure().fmt(s.destination_surface.pa()),
+        s.pipe_condition.keyword()
+    );
+    for g in &s.segments {
+        let _ = writeln!(
+            o,
+            "  segment {} {}: {}, ID {}, length {}, {}",
+            g.line,
+            g.index + 1,
+            crate::display::pipe(g.material, &g.size_label, g.inner_diameter, u),
+            dia.fmt(g.inner_diameter),
+            len.fmt(g.length),
+            match g.hazen_williams_c {
+                Some(cv) => format!("Hazen-Williams C {cv}"),
+                None => format!(
+                    "roughness {} (source: {})",
+                    u.roughness().fmt(g.roughness),
+                    crate::report::sections::sources::publication(
+                        g.roughness_source.trim_start_matches("roughness: "),
+                        u
+                    )
+                ),
+            }
+        );
+    }
+    let networked = s.network.is_some();
+    let well = s.well.is_some();
+    let _ = writeln!(
+        o,
+        "  system curve ({} | {} = static + friction + minor{}{}):",
+        fl.label,
+        hd.label,
+        if networked { " + network" } else { "" },
+        if well { " + drawdown" } else { "" }
+    );
+    for pt in c.system_curve.iter().step_by(3) {
+        let _ = writeln!(
+            o,
+            "    {:>9} | {:>8} = {} + {} + {}{}{}",
+            fl.num(pt.flow),
+            hd.num(pt.head),
+            hd.num(pt.static_head),
+            hd.num(pt.friction),
+            hd.num(pt.minor),
+            if networked {
+                format!(" + {}", hd.num(pt.network))
+            } else {
+                String::new()
+            },
+            if well {
+                format!(" + {}", hd.num(pt.drawdown))
+            } else {
+                String::new()
+            }
+        );
+    }
+}
+
+/// One pump of a case: its duty and what follows from it, or why there is none; its
+/// checks and warnings.
+fn pump(o: &mut String, u: &Units, r: &PumpResult) {
+    let (fl, hd, vel, dia) = (u.flow(), u.head(), u.velocity(), u.diameter());
+    let _ = writeln!(
+        o,
+        "  pump {} at {:.0} rpm{}:",
+        r.name,
+        r.speed_rpm,
+        r.impeller_diameter_m
+            .map(|d| format!(", impeller {}", dia.fmt(d)))
+            .unwrap_or_default()
+    );
+    match &r.duty {
+        Some(d) => {
+            let _ = writeln!(o, "    duty: {} at {}", fl.fmt(d.flow), hd.fmt(d.head));
+            if let Some(e) = d.efficiency {
+                let _ = writeln!(o, "    efficiency: {}", percent(e));
+            }
+            if let Some(b) = d.flow_ratio_to_bep {
+                let _ = writeln!(o, "    flow / BEP flow: {}", percent(b));
+            }
+            duty_detail(o, u, d);
+            if let (Some(v1), Some(v2)) = (d.suction_velocity, d.discharge_velocity) {
+                let _ = writeln!(
+                    o,
+                    "    velocity suction / discharge: {} / {}",
+                    vel.fmt(v1),
+                    vel.fmt(v2)
+                );
+            }
+            if let Some(n) = &r.network {
+                network_detail(o, u, n);
+            }
+        }
+        None => {
+            let _ = writeln!(
+                o,
+                "    {}",
+                r.failure
+                    .as_ref()
+                    .map_or("no duty point".to_string(), |m| u.render(m))
+            );
+        }
+    }
+    if let Some(q) = r.capacity_flow {
+        let _ = writeln!(o, "    capacity at the limit: {}", fl.fmt(q));
+    }
+    if let Some(e) = r.energy {
+        let _ = writeln!(
+            o,
+            "    per year: {} h, {}, {}",
+            format_args!("{:.0}", e.hours),
+            u.volume().fmt(e.volume_m3),
+            u.energy().fmt(e.energy_j)
+        );
+    }
+    for ch in &r.checks {
+        let _ = writeln!(
+            o,
+            "    check {} {}: {}",
+            ch.id,
+            ch.status.keyword(),
+            u.render(&ch.message)
+        );
+    }
+    for w in &r.warnings {
+        let _ = writeln!(o, "    warning: {}", u.render(w));
+    }
+}
+
+/// The selection: the ranking with its basis, the recommendation or the refusal.
+fn selection(o: &mut String, design: &Design, analysis: &Analysis, u: &Units) {
     let sel = &analysis.selection;
     let _ = writeln!(o, "\nselection by {}:", sel.criterion);
     let _ = writeln!(o, "  basis: {}", u.render(&sel.basis));
@@ -231,11 +261,6 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     if let Some(remark) = &sel.close_call {
         let _ = writeln!(o, "close call: {remark}");
     }
-    safety(&mut o, analysis, &u);
-    for w in &analysis.warnings {
-        let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
-    }
-    o
 }
 
 /// The pressure and surge screen: the checks that do not pass, per case (screening

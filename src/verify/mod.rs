@@ -1,6 +1,6 @@
 //! Self-verifying packages. `build` attaches to the PDF the design file exactly as
 //! read, every file it imported, the style file, the compared revision and the results
-//! JSON, with a build record ([`sources::Manifest`]); [`compile`] is the one way from
+//! JSON, with a build record ([`sources::Manifest`]); [`compile()`] is the one way from
 //! those sources to a package, so [`verify`] can recompile the attachments and compare
 //! the result with the package byte for byte.
 //!

@@ -110,3 +110,32 @@ pub fn k100_in_6in_sch40_ft_per_gpm2() -> f64 {
     let v_per_gpm = (gal_m3 / 0.3048_f64.powi(3)) / 60.0 / area;
     100.0 * v_per_gpm * v_per_gpm / (2.0 * 32.174_048_556)
 }
+
+/// The setting and suction line of a small invented SI lift shared by several test
+/// files: water at 15 °C at sea level, tank `a` at 10 m, tank `b` at 40 m, the pump
+/// centreline at 9 m, 10 m of 4 in schedule 40 steel with a flush entrance (line `s`).
+pub const SMALL_LIFT_SUCTION: &str = r#"project { title = "Small lift", units = si }
+fluid water { temperature = 15 degC }
+site { elevation = 0 m }
+tank a { level = 10 m }
+tank b { level = 40 m }
+station { centreline = 9 m }
+line s from a to pump {
+    pipe steel 4 in schedule 40 { length = 10 m }
+    fitting entrance_flush
+}
+"#;
+
+/// The discharge of the small lift: 100 m of 4 in schedule 40 steel to tank `b` with an
+/// exit loss (line `d`), and one case `normal`.
+pub const SMALL_LIFT_DISCHARGE: &str = r#"line d from pump to b {
+    pipe steel 4 in schedule 40 { length = 100 m }
+    fitting exit
+}
+case normal { }
+"#;
+
+/// The whole small lift ([`SMALL_LIFT_SUCTION`] then [`SMALL_LIFT_DISCHARGE`]), no pump.
+pub fn small_lift() -> String {
+    format!("{SMALL_LIFT_SUCTION}{SMALL_LIFT_DISCHARGE}")
+}

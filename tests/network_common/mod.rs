@@ -17,7 +17,7 @@ pub fn fluid(density: f64, viscosity: f64) -> FluidState {
         temperature_k: Some(293.15),
         density,
         viscosity,
-        vapor_pressure: 2339.0,
+        vapor_pressure: dutyline::hydraulics::heads::AbsolutePressure::new(2339.0),
         source: "test".into(),
     }
 }

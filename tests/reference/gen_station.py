@@ -20,33 +20,19 @@ Writes station_scipy.csv next to this script. Run: python3 gen_station.py
 (pip install fluids iapws scipy)
 """
 import csv
-import math
 import os
 
-from fluids.friction import Colebrook
-from iapws import IAPWS97
 from scipy.optimize import brentq
 
-G = 9.80665
-FT = 0.3048
-GPM = 3.785411784e-3 / 60.0
-T_K = (60.0 - 32.0) / 1.8 + 273.15
-P_BARO = 101325.0
-ROUGH = 0.00015 * FT
+from reference_common import FT, G, GPM, INCH, P_BARO, pipe_loss, water
 
-water = IAPWS97(T=T_K, P=P_BARO / 1e6)
-RHO = water.rho
-MU = water.mu
-PV = IAPWS97(T=T_K, x=0).P * 1e6
+T_K = (60.0 - 32.0) / 1.8 + 273.15
+RHO, MU, PV = water(T_K)
 
 
 def loss(q, d_in, length_ft, k):
     """Head loss, m: Darcy-Weisbach with Colebrook, plus K v^2/2g."""
-    d = d_in * 0.0254
-    v = q / (math.pi * d * d / 4.0)
-    re = RHO * v * d / MU
-    f = Colebrook(re, ROUGH / d)
-    return (f * length_ft * FT / d + k) * v * v / (2.0 * G)
+    return pipe_loss(q, d_in * INCH, length_ft * FT, k, RHO, MU)
 
 
 def common_suction(q):

@@ -15,29 +15,19 @@ Duty: H(q) = (130 - (95 - s(q))) + losses(q) by scipy.optimize.brentq; NPSH avai
 Writes well_scipy.csv next to this script. Run: python3 gen_well.py
 (pip install fluids iapws scipy)
 """
-import math
 import os
 
-from fluids.friction import Colebrook
-from iapws import IAPWS97
 from scipy.optimize import brentq
 
-G = 9.80665
-M3H = 1.0 / 3600.0
-ROUGH = 0.00015 * 0.3048
-D = 6.065 * 0.0254
-P_BARO = 101325.0
-T_K = 288.15
+from reference_common import G, INCH, M3H, P_BARO, pipe_loss, water
 
-water = IAPWS97(T=T_K, P=P_BARO / 1e6)
-RHO, MU = water.rho, water.mu
-PV = IAPWS97(T=T_K, x=0).P * 1e6
+D = 6.065 * INCH  # 6 in schedule 40 (ASME B36.10M)
+T_K = 288.15
+RHO, MU, PV = water(T_K)
 
 
 def loss(q, length, k):
-    v = q / (math.pi * D * D / 4.0)
-    f = Colebrook(RHO * v * D / MU, ROUGH / D)
-    return (f * length / D + k) * v * v / (2.0 * G)
+    return pipe_loss(q, D, length, k, RHO, MU)
 
 
 def drawdown(q, s_test=8.0, q_test=100.0 * M3H, s_well=2.0):

@@ -240,7 +240,7 @@ mod tests {
             temperature_k: Some(293.15),
             density: 998.2,
             viscosity: 1.0e-3,
-            vapor_pressure: 2339.0,
+            vapor_pressure: crate::hydraulics::heads::AbsolutePressure::new(2339.0),
             source: "test".into(),
         }
     }

@@ -108,7 +108,7 @@ pub fn solve_field(
                 pumping_level: w.static_level - drawdown,
                 drawdown,
                 npsh_available: barometric_pa / rho_g + (h_s - w.pump_elevation)
-                    - net.fluid.vapor_pressure / rho_g,
+                    - net.fluid.vapor_pressure.pa() / rho_g,
                 closed: sol.links[pump_link].closed,
             }
         })

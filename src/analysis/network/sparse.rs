@@ -190,12 +190,12 @@ impl<'p> Matrix<'p> {
         }
     }
 
-    /// Add `v` to A[i,i] (caller's numbering).
+    /// Add `v` to `A[i,i]` (caller's numbering).
     pub fn add_diagonal(&mut self, i: usize, v: f64) {
         self.diag[self.pattern.position[i]] += v;
     }
 
-    /// Add `v` to A[i,j] and A[j,i], i ≠ j (caller's numbering); the pair must have been
+    /// Add `v` to `A[i,j]` and `A[j,i]`, i ≠ j (caller's numbering); the pair must have been
     /// given to [`Pattern::new`].
     pub fn add_off_diagonal(&mut self, i: usize, j: usize, v: f64) {
         let (pi, pj) = (self.pattern.position[i], self.pattern.position[j]);

@@ -459,7 +459,7 @@ impl StationNetwork {
                     below_required: n.required_pressure.is_some_and(|r| st.pressure < r - slack),
                     below_atmospheric: !fixed && st.pressure < 0.0,
                     near_vapour: !fixed
-                        && absolute < net.fluid.vapor_pressure + NEAR_VAPOUR_HEAD_M * rho_g,
+                        && absolute < net.fluid.vapor_pressure.pa() + NEAR_VAPOUR_HEAD_M * rho_g,
                 }
             })
             .collect();

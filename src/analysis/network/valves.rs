@@ -228,7 +228,7 @@ mod tests {
                 temperature_k: Some(293.15),
                 density: 1000.0,
                 viscosity: 1.0e-3,
-                vapor_pressure: 2339.0,
+                vapor_pressure: crate::hydraulics::heads::AbsolutePressure::new(2339.0),
                 source: "test".into(),
             },
             nodes: vec![node("A", 0.0), node("B", 0.0), node("C", 0.01)],

@@ -10,6 +10,7 @@
 
 use super::geometry::LineProfile;
 use crate::analysis::system::{CaseSystem, G};
+use crate::hydraulics::heads::Head;
 use crate::model::Side;
 
 /// One point of a line where the grade is evaluated.
@@ -75,11 +76,13 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
 /// each pump `qp` (m³/s; station piping carries `qp`), m (gauge datum: barometric
 /// pressure is zero), with each segment's (wall, minor) loss.
 fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
-    let rho_g = sys.fluid.density * G;
     // A well's surface is its pumping level at the flow.
-    let source =
-        sys.source_level - sys.drawdown(q) + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
-    let destination = discharge_end_head(sys, q, rho_g);
+    let source = sys
+        .source_level
+        .lowered(Head::new(sys.drawdown(q)))
+        .raised(sys.source_gauge().head(sys.fluid.specific_weight()))
+        .m();
+    let destination = discharge_end_head(sys, q);
     let losses: Vec<(f64, f64)> = sys
         .segments
         .iter()
@@ -115,8 +118,8 @@ fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
 /// loop), the network's entry node head at that flow. The network's losses and
 /// delivery pressures lie between that node and the tanks beyond it, so a tank's head
 /// would understate every discharge pressure by them (unconservative for ratings).
-fn discharge_end_head(sys: &CaseSystem, q: f64, rho_g: f64) -> f64 {
-    let surface = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
+fn discharge_end_head(sys: &CaseSystem, q: f64) -> f64 {
+    let surface = sys.destination_grade().m();
     match &sys.network {
         Some((net, _)) => net.entry_head(q).unwrap_or(surface),
         None => surface,
@@ -160,9 +163,7 @@ pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64, qp: f64) -> Vec<
 /// The static grade with the pumps stopped, m: the source surface's head on the
 /// suction side, the destination's on the discharge side (held by the check valve).
 pub fn static_grade(sys: &CaseSystem, stations: &[Station]) -> Vec<f64> {
-    let rho_g = sys.fluid.density * G;
-    let source = sys.source_level + (sys.source_abs_pa - sys.barometric_pa) / rho_g;
-    let destination = sys.destination_level + (sys.destination_abs_pa - sys.barometric_pa) / rho_g;
+    let (source, destination) = (sys.source_grade().m(), sys.destination_grade().m());
     stations
         .iter()
         .map(|st| match sys.segments[st.segment].side {

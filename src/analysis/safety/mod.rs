@@ -309,8 +309,12 @@ fn shutoff(
 
 /// Static gauge pressure at the pump suction with no flow, Pa.
 pub fn suction_static_pressure(sys: &CaseSystem) -> f64 {
-    (sys.source_abs_pa - sys.barometric_pa)
-        + sys.fluid.density * G * (sys.source_level - sys.centreline)
+    (sys.source_gauge()
+        + sys
+            .source_level
+            .above(sys.centreline)
+            .pressure(sys.fluid.specific_weight()))
+    .pa()
 }
 
 /// The screen of one case: every line, then its checks.
@@ -363,11 +367,11 @@ fn line_screen(
             net.network.nodes[net.entry].elevation,
             "the network's entry node",
         ),
-        None => (sys.destination_level, "the destination level"),
+        None => (sys.destination_level.m(), "the destination level"),
     };
     let ends = match line.side {
-        Side::Suction => (sys.source_level, sys.centreline),
-        Side::Discharge => (sys.centreline, discharge_end),
+        Side::Suction => (sys.source_level.m(), sys.centreline.m()),
+        Side::Discharge => (sys.centreline.m(), discharge_end),
     };
     let profile = geometry::line_profile(line, ends, end_name);
     notes.extend(profile.warning.clone());
@@ -386,7 +390,7 @@ fn line_screen(
                 .map(|st| {
                     so.suction_pressure
                         + so.pressure_rise
-                        + so.density * G * (sys.centreline - st.elevation)
+                        + so.density * G * (sys.centreline.m() - st.elevation)
                 })
                 .collect(),
         ),
@@ -412,11 +416,13 @@ fn line_screen(
             .as_ref()
             .map(|p| p.iter().sum::<f64>() / p.len().max(1) as f64)
             .unwrap_or(0.0)
-            + sys.barometric_pa;
+            + sys.barometric.pa();
         let waves = line
             .segments
             .iter()
-            .map(|s| surge::segment_wave(s, line, k, rho, p_mean.max(sys.fluid.vapor_pressure)))
+            .map(|s| {
+                surge::segment_wave(s, line, k, rho, p_mean.max(sys.fluid.vapor_pressure.pa()))
+            })
             .collect();
         let areas: Vec<f64> = (0..line.segments.len())
             .map(|i| sys.segments[first_segment + i].area)
@@ -428,7 +434,7 @@ fn line_screen(
             p.iter()
                 .map(|p| {
                     (p - rho * G * sg.joukowsky_head)
-                        .max(sys.fluid.vapor_pressure - sys.barometric_pa)
+                        .max(sys.fluid.vapor_pressure.gauge(sys.barometric).pa())
                 })
                 .collect(),
         ),
@@ -463,7 +469,7 @@ fn line_screen(
         ratings,
         rating_at,
         transient_at,
-        vapour_gauge: sys.fluid.vapor_pressure - sys.barometric_pa,
+        vapour_gauge: sys.fluid.vapor_pressure.gauge(sys.barometric).pa(),
         density: rho,
         velocities,
         surge,

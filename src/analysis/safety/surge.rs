@@ -78,7 +78,7 @@ pub fn bulk_modulus(sys: &CaseSystem, fluid: &crate::model::Fluid) -> Option<f64
     if sys.fluid.name != "water" {
         return None;
     }
-    crate::fluid::water_bulk_modulus_pa(t, sys.source_abs_pa).ok()
+    crate::fluid::water_bulk_modulus_pa(t, sys.source_surface.pa()).ok()
 }
 
 /// The wave speeds of one segment for liquid bulk modulus `k` and density `rho`, at a

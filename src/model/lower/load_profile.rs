@@ -6,10 +6,10 @@ use super::{duplicate_name, Block, Blocks};
 use crate::diagnostics::{Code, Diagnostic, Span};
 use crate::model::design::{Case, PumpCandidate, Requirement};
 use crate::model::eval::{self, expect_dim, expect_number, Env};
-use crate::model::fields::{block_name, read_fields};
+use crate::model::fields::{block_name, read_fields, Field};
 use crate::model::operation::*;
 use crate::model::FileAccess;
-use crate::syntax::ast::{Arg, ArgKind, StatementKind, Table};
+use crate::syntax::ast::{Arg, ArgKind, Statement, StatementKind, Table};
 use crate::units::{Dimension, Quantity};
 
 const PROFILE_FIELDS: &[&str] = &[
@@ -183,113 +183,143 @@ fn lower_profile(
         binning: None,
         span: block.span,
     };
-    let mut bins = DEFAULT_HOURLY_BINS;
-    let mut bins_span: Option<Span> = None;
-    let mut control_word = "throttle".to_string();
-    let mut control_head: Option<(f64, Span)> = None;
+    let mut x = ProfileExtras {
+        bins: DEFAULT_HOURLY_BINS,
+        bins_span: None,
+        control_word: "throttle".to_string(),
+        control_head: None,
+    };
     for field in &f.fields {
-        let r: Result<(), Diagnostic> = (|| {
-            let positive = |dim: Dimension, what: &str| -> Result<f64, Diagnostic> {
-                let q = expect_dim(field.value, env, dim, what)?;
-                if !(q.si.is_finite() && q.si > 0.0) {
-                    return Err(Diagnostic::error(
-                        Code::OutOfRange,
-                        format!("{what} must be greater than zero"),
-                        Some(field.value.span),
-                    ));
-                }
-                Ok(q.si)
-            };
-            match field.name {
-                "control" => {
-                    control_word = eval::expect_word(field.value, env, "control", CONTROLS)?
-                }
-                "control_head" => {
-                    let q = expect_dim(field.value, env, Dimension::LENGTH, "control head")?;
-                    if !(0.0..=3000.0).contains(&q.si) {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "a control head lies between 0 and 3000 m",
-                            Some(field.value.span),
-                        ));
-                    }
-                    control_head = Some((q.si, field.value.span));
-                }
-                "staging" => {
-                    p.staging = match eval::expect_word(
-                        field.value,
-                        env,
-                        "staging",
-                        &["least_power", "all_running"],
-                    )?
-                    .as_str()
-                    {
-                        "all_running" => Staging::AllRunning,
-                        _ => Staging::LeastPower,
-                    }
-                }
-                "design_flow" => p.design_flow = positive(Dimension::VOLUME_RATE, "design flow")?,
-                "deadhead_margin" => {
-                    p.deadhead_margin = Some(
-                        expect_dim(field.value, env, Dimension::LENGTH, "deadhead margin")?
-                            .si
-                            .max(0.0),
-                    )
-                }
-                "min_flow" => {
-                    let v = expect_number(field.value, env, "minimum continuous flow")?;
-                    if !(0.05..=1.0).contains(&v) {
-                        return Err(Diagnostic::error(Code::OutOfRange, "the minimum continuous flow is a share of the best-efficiency flow, 5 % to 100 %", Some(field.value.span)).with_help("write e.g. `min_flow = 40 %`"));
-                    }
-                    p.min_flow_ratio = Some(v);
-                }
-                "storage" => {
-                    p.storage_volume = Some(positive(Dimension::VOLUME, "storage volume")?)
-                }
-                "level_band" => {
-                    p.level_band = expect_dim(field.value, env, Dimension::LENGTH, "level band")?
-                        .si
-                        .clamp(0.0, 100.0)
-                }
-                "bins" => {
-                    let v = expect_number(field.value, env, "number of bins")?;
-                    if !(v.fract() == 0.0 && (1.0..=MAX_HOURLY_BINS as f64).contains(&v)) {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            format!("the bins of an hourly profile are a whole number from 1 to {MAX_HOURLY_BINS}"),
-                            Some(field.value.span),
-                        ));
-                    }
-                    bins = v as usize;
-                    bins_span = Some(field.value.span);
-                }
-                _ => {
-                    let v = expect_number(field.value, env, "starts per hour")?;
-                    if !(0.5..=60.0).contains(&v) {
-                        return Err(Diagnostic::error(
-                            Code::OutOfRange,
-                            "starts per hour lie between 0.5 and 60",
-                            Some(field.value.span),
-                        ));
-                    }
-                    p.max_starts_per_hour = Some(v);
-                }
-            }
-            Ok(())
-        })();
-        if let Err(e) = r {
+        if let Err(e) = profile_field(&mut p, &mut x, field, env) {
             d.push(e);
         }
     }
-    p.control = control_of(&control_word, control_head, block, d)?;
+    p.control = control_of(&x.control_word, x.control_head, block, d)?;
     if p.control == Control::OnOff && p.storage_volume.is_none() {
         d.push(
             crate::model::fields::missing("storage", "an on/off profile", block.keyword_span(), "storage = 180 m^3")
                 .with_help("on/off control needs the active storage volume between the start and stop levels, e.g. `storage = 180 m^3`"),
         );
     }
-    let tables: Vec<(Source, Span)> = f
-        .rest
+    profile_table(&mut p, &f.rest, &x, block, env, files, d);
+    (d.len() == before).then_some(p)
+}
+
+/// What a profile's fields say beyond the `LoadProfile` itself.
+struct ProfileExtras {
+    /// Flow bins of an hourly profile.
+    bins: usize,
+    /// Where `bins` was written, if it was.
+    bins_span: Option<Span>,
+    /// The control keyword.
+    control_word: String,
+    /// `control_head`, m, where it was written.
+    control_head: Option<(f64, Span)>,
+}
+
+/// One field of a profile into `p` (or `x`).
+fn profile_field(
+    p: &mut LoadProfile,
+    x: &mut ProfileExtras,
+    field: &Field,
+    env: &Env,
+) -> Result<(), Diagnostic> {
+    let positive = |dim: Dimension, what: &str| -> Result<f64, Diagnostic> {
+        let q = expect_dim(field.value, env, dim, what)?;
+        if !(q.si.is_finite() && q.si > 0.0) {
+            return Err(Diagnostic::error(
+                Code::OutOfRange,
+                format!("{what} must be greater than zero"),
+                Some(field.value.span),
+            ));
+        }
+        Ok(q.si)
+    };
+    match field.name {
+        "control" => x.control_word = eval::expect_word(field.value, env, "control", CONTROLS)?,
+        "control_head" => {
+            let q = expect_dim(field.value, env, Dimension::LENGTH, "control head")?;
+            if !(0.0..=3000.0).contains(&q.si) {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "a control head lies between 0 and 3000 m",
+                    Some(field.value.span),
+                ));
+            }
+            x.control_head = Some((q.si, field.value.span));
+        }
+        "staging" => {
+            p.staging = match eval::expect_word(
+                field.value,
+                env,
+                "staging",
+                &["least_power", "all_running"],
+            )?
+            .as_str()
+            {
+                "all_running" => Staging::AllRunning,
+                _ => Staging::LeastPower,
+            }
+        }
+        "design_flow" => p.design_flow = positive(Dimension::VOLUME_RATE, "design flow")?,
+        "deadhead_margin" => {
+            p.deadhead_margin = Some(
+                expect_dim(field.value, env, Dimension::LENGTH, "deadhead margin")?
+                    .si
+                    .max(0.0),
+            )
+        }
+        "min_flow" => {
+            let v = expect_number(field.value, env, "minimum continuous flow")?;
+            if !(0.05..=1.0).contains(&v) {
+                return Err(Diagnostic::error(Code::OutOfRange, "the minimum continuous flow is a share of the best-efficiency flow, 5 % to 100 %", Some(field.value.span)).with_help("write e.g. `min_flow = 40 %`"));
+            }
+            p.min_flow_ratio = Some(v);
+        }
+        "storage" => p.storage_volume = Some(positive(Dimension::VOLUME, "storage volume")?),
+        "level_band" => {
+            p.level_band = expect_dim(field.value, env, Dimension::LENGTH, "level band")?
+                .si
+                .clamp(0.0, 100.0)
+        }
+        "bins" => {
+            let v = expect_number(field.value, env, "number of bins")?;
+            if !(v.fract() == 0.0 && (1.0..=MAX_HOURLY_BINS as f64).contains(&v)) {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    format!("the bins of an hourly profile are a whole number from 1 to {MAX_HOURLY_BINS}"),
+                    Some(field.value.span),
+                ));
+            }
+            x.bins = v as usize;
+            x.bins_span = Some(field.value.span);
+        }
+        _ => {
+            let v = expect_number(field.value, env, "starts per hour")?;
+            if !(0.5..=60.0).contains(&v) {
+                return Err(Diagnostic::error(
+                    Code::OutOfRange,
+                    "starts per hour lie between 0.5 and 60",
+                    Some(field.value.span),
+                ));
+            }
+            p.max_starts_per_hour = Some(v);
+        }
+    }
+    Ok(())
+}
+
+/// The profile's one table: inline points, or an hourly CSV summarised into bins.
+fn profile_table(
+    p: &mut LoadProfile,
+    rest: &[&Statement],
+    x: &ProfileExtras,
+    block: &Block,
+    env: &Env,
+    files: &dyn FileAccess,
+    d: &mut Vec<Diagnostic>,
+) {
+    let tables: Vec<(Source, Span)> = rest
         .iter()
         .filter_map(|st| match source_of(st) {
             Ok(s) => Some((s, st.span)),
@@ -301,7 +331,7 @@ fn lower_profile(
         .collect();
     match tables.as_slice() {
         [(Source::Inline(t), _)] => {
-            if let Some(at) = bins_span {
+            if let Some(at) = x.bins_span {
                 d.push(Diagnostic::error(Code::UnusedField, "`bins` has no meaning for a profile table", Some(at))
                     .with_help("`bins` sets how many flow bins `curve hourly from \"file.csv\"` summarises a year of hourly flows into"));
             }
@@ -309,7 +339,7 @@ fn lower_profile(
         }
         [(Source::Hourly(path, at), _)] => {
             if let Some((points, binning)) =
-                super::hourly::hourly_points(files, path, *at, bins, p.design_flow, d)
+                super::hourly::hourly_points(files, path, *at, x.bins, p.design_flow, d)
             {
                 p.points = points;
                 p.binning = Some(binning);
@@ -321,7 +351,6 @@ fn lower_profile(
         ),
         [_, (_, second), ..] => d.push(Diagnostic::error(Code::DuplicateField, "a profile has one table", Some(*second))),
     }
-    (d.len() == before).then_some(p)
 }
 
 /// The control strategy from its keyword and `control_head`.

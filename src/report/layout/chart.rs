@@ -3,7 +3,7 @@
 //! y axis when used), series, duty-point markers with value labels, reference lines,
 //! and a legend below the plot.
 
-use super::chart_backend::{Recorder, UNITS_PER_PT};
+use super::chart_backend::{Recorder, RecorderError, UNITS_PER_PT};
 use super::chart_marks::{
     clip_polyline, draw_bands, draw_legend, draw_markers, draw_reference_lines, legend_rows,
     PlotFrame,
@@ -12,6 +12,7 @@ use super::font::{Face, FontSet};
 use super::page::Item;
 use super::style::{Colour, LineStyle, Style};
 use super::ticks::{Axis, NiceRange};
+use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 use std::cell::{Cell, RefCell};
@@ -254,49 +255,12 @@ pub(crate) fn draw(
     let desc_pt = label_pt + 0.6;
     let right_axis = chart.uses_right_axis();
     let row_h = label_pt * 1.6;
-    // The legend may take at most 40 % of the figure; rows beyond that are cut and
-    // counted in a closing note.
-    let max_rows = (((height * 0.4 - 8.0) / row_h).floor().max(1.0)) as usize;
-    let mut rows = if chart.legend {
-        legend_rows(chart, fonts, label_pt, width)
-    } else {
-        Vec::new()
-    };
-    let mut omitted = 0;
-    if rows.len() > max_rows {
-        let keep = max_rows.saturating_sub(1).max(1);
-        omitted = rows[keep..].iter().map(Vec::len).sum();
-        rows.truncate(keep);
-    }
-    let note_rows = usize::from(omitted > 0);
-    let legend_h = if rows.is_empty() {
-        0.0
-    } else {
-        (rows.len() + note_rows) as f64 * row_h + 8.0
-    };
+    let (rows, omitted, legend_h) = legend_layout(chart, fonts, label_pt, width, height);
     let plot_h = (height - legend_h).max(height * 0.5);
     let ax = axes(chart, width, plot_h);
 
-    let widest = |a: &Axis| {
-        a.ticks
-            .iter()
-            .map(|t| fonts.width(Face::Regular, &a.format(*t), label_pt))
-            .fold(0.0, f64::max)
-    };
-    let tick = 3.0;
-    let y_area = widest(&ax.y) + tick + 6.0 + desc_pt * 1.5;
-    let y2_area = if right_axis {
-        widest(&ax.y2) + tick + 6.0 + desc_pt * 1.5
-    } else {
-        0.0
-    };
-    let x_area = label_pt + tick + 6.0 + desc_pt * 1.6;
-    let last_x = ax.x.ticks.last().map_or(String::new(), |t| ax.x.format(*t));
-    let right_margin = if right_axis {
-        2.0
-    } else {
-        fonts.width(Face::Regular, &last_x, label_pt) / 2.0 + 3.0
-    };
+    let tick = TICK_PT;
+    let (y_area, y2_area, x_area, right_margin) = label_areas(&ax, fonts, label_pt, right_axis);
 
     let items = Rc::new(RefCell::new(Vec::new()));
     let dash = Rc::new(Cell::new(LineStyle::Solid));
@@ -380,59 +344,6 @@ pub(crate) fn draw(
         ctx.backend_coord(&(x, y))
     })
     .map_err(e)?;
-    for outline in &chart.fills {
-        let clamp = |&(x, y): &(f64, f64)| (x.clamp(ax.x.lo, ax.x.hi), y.clamp(ax.y.lo, ax.y.hi));
-        let pixels: Vec<(i32, i32)> = outline
-            .iter()
-            .filter(|p| p.0.is_finite() && p.1.is_finite())
-            .map(|p| ctx.backend_coord(&clamp(p)))
-            .collect();
-        if pixels.len() >= 3 {
-            root.draw(&Polygon::new(pixels, RGBColor(246, 208, 160).filled()))
-                .map_err(e)?;
-        }
-    }
-    let mut drawn_lines: Vec<Vec<(i32, i32)>> = Vec::new();
-    for series in &chart.series {
-        let (colour, line) = series_look(style, series);
-        let shape = ShapeStyle {
-            color: rgb(colour).to_rgba(),
-            filled: false,
-            stroke_width: units(cs.line_width_pt).max(1) as u32,
-        };
-        let y_axis = match series.axis {
-            YAxis::Left => &ax.y,
-            YAxis::Right => &ax.y2,
-        };
-        for piece in clip_polyline(&series.points, &ax.x, y_axis) {
-            let pixels: Vec<(i32, i32)> = match series.axis {
-                YAxis::Left => piece.iter().map(|p| ctx.backend_coord(p)).collect(),
-                YAxis::Right => piece
-                    .iter()
-                    .map(|p| ctx.borrow_secondary().backend_coord(p))
-                    .collect(),
-            };
-            dash.set(line);
-            let drawn = root.draw(&PathElement::new(pixels.clone(), shape));
-            dash.set(LineStyle::Solid);
-            drawn.map_err(e)?;
-            drawn_lines.push(pixels);
-        }
-        if series.markers {
-            for p in series
-                .points
-                .iter()
-                .filter(|p| ax.x.contains(p.0) && y_axis.contains(p.1))
-            {
-                let at = match series.axis {
-                    YAxis::Left => ctx.backend_coord(p),
-                    YAxis::Right => ctx.borrow_secondary().backend_coord(p),
-                };
-                root.draw(&Circle::new(at, units(1.6), shape.filled()))
-                    .map_err(e)?;
-            }
-        }
-    }
     let coord = |x: f64, y: f64, side: YAxis| match side {
         YAxis::Left => ctx.backend_coord(&(x, y)),
         YAxis::Right => ctx.borrow_secondary().backend_coord(&(x, y)),
@@ -445,6 +356,8 @@ pub(crate) fn draw(
         coord: &coord,
         plot: (px.clone(), py.clone()),
     };
+    draw_fills(&root, &frame).map_err(e)?;
+    let mut drawn_lines = draw_series(&root, &frame, &dash).map_err(e)?;
     let mut taken = draw_reference_lines(&root, &frame, &dash).map_err(e)?;
     taken.extend(band_boxes);
     // Reference lines count as curves a label must not hide.
@@ -461,19 +374,180 @@ pub(crate) fn draw(
     if !rows.is_empty() {
         draw_legend(&legend_area, chart, style, fonts, &rows, px.start, &dash).map_err(e)?;
         if omitted > 0 {
-            let note = format!("… and {omitted} more series not listed");
-            let y = units(8.0 + rows.len() as f64 * row_h + label_pt * 0.5);
-            let font = ("sans-serif", f64::from(units(label_pt)))
-                .into_font()
-                .color(&rgb(style.text.muted_colour))
-                .pos(Pos::new(HPos::Left, VPos::Center));
-            legend_area
-                .draw(&Text::new(note, (px.start, y), font))
-                .map_err(e)?;
+            omitted_note(
+                &legend_area,
+                style,
+                omitted,
+                rows.len() as f64 * row_h,
+                px.start,
+            )
+            .map_err(e)?;
         }
     }
     drop(ctx);
     drop(root);
     let out = items.borrow().clone();
     Ok(out)
+}
+
+/// Length of a tick mark, pt.
+const TICK_PT: f64 = 3.0;
+
+/// The room, pt, for the left axis labels, the right axis labels (zero without a right
+/// axis), the x axis labels and the right margin (half the last x label, so it is not
+/// cut).
+fn label_areas(
+    ax: &Axes,
+    fonts: &FontSet,
+    label_pt: f64,
+    right_axis: bool,
+) -> (f64, f64, f64, f64) {
+    let desc_pt = label_pt + 0.6;
+    let widest = |a: &Axis| {
+        a.ticks
+            .iter()
+            .map(|t| fonts.width(Face::Regular, &a.format(*t), label_pt))
+            .fold(0.0, f64::max)
+    };
+    let tick = TICK_PT;
+    let y_area = widest(&ax.y) + tick + 6.0 + desc_pt * 1.5;
+    let y2_area = if right_axis {
+        widest(&ax.y2) + tick + 6.0 + desc_pt * 1.5
+    } else {
+        0.0
+    };
+    let x_area = label_pt + tick + 6.0 + desc_pt * 1.6;
+    let last_x = ax.x.ticks.last().map_or(String::new(), |t| ax.x.format(*t));
+    let right_margin = if right_axis {
+        2.0
+    } else {
+        fonts.width(Face::Regular, &last_x, label_pt) / 2.0 + 3.0
+    };
+    (y_area, y2_area, x_area, right_margin)
+}
+
+/// The legend's rows of series, how many series were left out, and its height, pt. The
+/// legend may take at most 40 % of the figure; rows beyond that are cut and counted in
+/// a closing note.
+fn legend_layout(
+    chart: &Chart,
+    fonts: &FontSet,
+    label_pt: f64,
+    width: f64,
+    height: f64,
+) -> (Vec<Vec<usize>>, usize, f64) {
+    let row_h = label_pt * 1.6;
+    let max_rows = (((height * 0.4 - 8.0) / row_h).floor().max(1.0)) as usize;
+    let mut rows = if chart.legend {
+        legend_rows(chart, fonts, label_pt, width)
+    } else {
+        Vec::new()
+    };
+    let mut omitted = 0;
+    if rows.len() > max_rows {
+        let keep = max_rows.saturating_sub(1).max(1);
+        omitted = rows[keep..].iter().map(Vec::len).sum();
+        rows.truncate(keep);
+    }
+    let note_rows = usize::from(omitted > 0);
+    let legend_h = if rows.is_empty() {
+        0.0
+    } else {
+        (rows.len() + note_rows) as f64 * row_h + 8.0
+    };
+    (rows, omitted, legend_h)
+}
+
+/// The closing note of a cut legend, below its `rows_h` pt of rows, from pixel `x`.
+fn omitted_note(
+    legend_area: &DrawingArea<Recorder<'_>, Shift>,
+    style: &Style,
+    omitted: usize,
+    rows_h: f64,
+    x: i32,
+) -> Result<(), DrawingAreaErrorKind<RecorderError>> {
+    let label_pt = style.chart.label_size_pt;
+    let note = format!("… and {omitted} more series not listed");
+    let y = units(8.0 + rows_h + label_pt * 0.5);
+    let font = ("sans-serif", f64::from(units(label_pt)))
+        .into_font()
+        .color(&rgb(style.text.muted_colour))
+        .pos(Pos::new(HPos::Left, VPos::Center));
+    legend_area.draw(&Text::new(note, (x, y), font))?;
+    Ok(())
+}
+
+/// The chart's filled outlines (a duty envelope), clamped to the axes.
+fn draw_fills(
+    root: &DrawingArea<Recorder<'_>, Shift>,
+    frame: &PlotFrame,
+) -> Result<(), DrawingAreaErrorKind<RecorderError>> {
+    let PlotFrame {
+        chart, ax, coord, ..
+    } = *frame;
+    for outline in &chart.fills {
+        let clamp = |&(x, y): &(f64, f64)| (x.clamp(ax.x.lo, ax.x.hi), y.clamp(ax.y.lo, ax.y.hi));
+        let pixels: Vec<(i32, i32)> = outline
+            .iter()
+            .filter(|p| p.0.is_finite() && p.1.is_finite())
+            .map(|p| {
+                let (x, y) = clamp(p);
+                coord(x, y, YAxis::Left)
+            })
+            .collect();
+        if pixels.len() >= 3 {
+            root.draw(&Polygon::new(pixels, RGBColor(246, 208, 160).filled()))?;
+        }
+    }
+    Ok(())
+}
+
+/// Every series: its clipped polyline pieces (returned in pixels, for the labels to
+/// avoid) and its markers.
+fn draw_series(
+    root: &DrawingArea<Recorder<'_>, Shift>,
+    frame: &PlotFrame,
+    dash: &Cell<LineStyle>,
+) -> Result<Vec<Vec<(i32, i32)>>, DrawingAreaErrorKind<RecorderError>> {
+    let PlotFrame {
+        chart,
+        style,
+        ax,
+        coord,
+        ..
+    } = *frame;
+    let cs = &style.chart;
+    let mut drawn_lines: Vec<Vec<(i32, i32)>> = Vec::new();
+    for series in &chart.series {
+        let (colour, line) = series_look(style, series);
+        let shape = ShapeStyle {
+            color: rgb(colour).to_rgba(),
+            filled: false,
+            stroke_width: units(cs.line_width_pt).max(1) as u32,
+        };
+        let y_axis = match series.axis {
+            YAxis::Left => &ax.y,
+            YAxis::Right => &ax.y2,
+        };
+        for piece in clip_polyline(&series.points, &ax.x, y_axis) {
+            let pixels: Vec<(i32, i32)> =
+                piece.iter().map(|p| coord(p.0, p.1, series.axis)).collect();
+            dash.set(line);
+            let drawn = root.draw(&PathElement::new(pixels.clone(), shape));
+            dash.set(LineStyle::Solid);
+            drawn?;
+            drawn_lines.push(pixels);
+        }
+        if series.markers {
+            for p in series
+                .points
+                .iter()
+                .filter(|p| ax.x.contains(p.0) && y_axis.contains(p.1))
+            {
+                let at = coord(p.0, p.1, series.axis);
+                root.draw(&Circle::new(at, units(1.6), shape.filled()))?;
+            }
+        }
+    }
+    Ok(drawn_lines)
 }

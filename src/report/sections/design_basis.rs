@@ -49,8 +49,10 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
                     .unwrap_or_else(|| "—".into()),
                 units.density().text(system.fluid.density),
                 units.viscosity().text(system.fluid.viscosity),
-                units.absolute_pressure().text(system.fluid.vapor_pressure),
-                units.absolute_pressure().text(system.barometric_pa),
+                units
+                    .absolute_pressure()
+                    .text(system.fluid.vapor_pressure.pa()),
+                units.absolute_pressure().text(system.barometric.pa()),
             ]
         })
         .collect();
@@ -138,17 +140,17 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             .map(|(case, system)| {
                 vec![
                     case.name.clone(),
-                    units.elevation().text(system.source_level),
-                    units.elevation().text(system.destination_level),
-                    units.elevation().text(system.centreline),
+                    units.elevation().text(system.source_level.m()),
+                    units.elevation().text(system.destination_level.m()),
+                    units.elevation().text(system.centreline.m()),
                     format!(
                         "{} / {}",
                         units
                             .gauge_pressure()
-                            .figure(system.source_abs_pa - system.barometric_pa),
+                            .figure(system.source_gauge().pa()),
                         units
                             .gauge_pressure()
-                            .figure(system.destination_abs_pa - system.barometric_pa)
+                            .figure(system.destination_gauge().pa())
                     ),
                     units.head().text(system.static_head),
                 ]

@@ -424,8 +424,7 @@ fn schematic(
     let hd = units.head();
     let entry = &net.network.nodes[net.entry].name;
     let layer = layers(at, entry);
-    let source_head = sys.source_level
-        + (sys.source_abs_pa - sys.barometric_pa) / (sys.fluid.density * crate::analysis::G);
+    let source_head = sys.source_grade().m();
     let position = |name: &str| {
         at.nodes
             .iter()

@@ -220,7 +220,7 @@ fn candidate(
     op: &CandidateOperation,
     units: &Units,
 ) {
-    let (fl, hd, pw) = (units.flow(), units.head(), units.power());
+    let pw = units.power();
     blocks.push(Block::heading(
         2,
         format!("Pump {} over the profile", op.name),
@@ -234,11 +234,26 @@ fn candidate(
         ("Motor per pump".into(), format!("{} nameplate, full-load efficiency {}", pw.fmt(op.motor_rating_w), percent(op.motor_full_load_efficiency))),
         ("Drive".into(), match op.drive_full_load_efficiency { Some(e) => format!("variable-frequency drive, full-load efficiency {}, speed {:.0}–{:.0} % of {:.0} rpm", percent(e), op.speed_range.0 * 100.0, op.speed_range.1 * 100.0, op.published_speed_rpm), None => "none (fixed speed)".into() }),
     ]));
-    let pts = &op.points;
-    let s = |p: &PointResult,
-             f: &dyn Fn(&crate::analysis::operation::point::SetState) -> String| {
-        or_dash(p.state.as_ref().map(f))
-    };
+    operating_points(blocks, op, units);
+    point_powers(blocks, op, units);
+    switching_points(blocks, op, units);
+    yearly_totals(blocks, design, op, units);
+    profile_checks(blocks, op, units);
+    head_figure(blocks, analysis, op, units);
+}
+
+/// One figure of a set's state at a load point, or a dash where the point is not
+/// delivered.
+fn state_cell(
+    p: &PointResult,
+    f: &dyn Fn(&crate::analysis::operation::point::SetState) -> String,
+) -> String {
+    or_dash(p.state.as_ref().map(f))
+}
+
+/// The operating point of each running pump at every load point.
+fn operating_points(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Units) {
+    let (fl, hd, s) = (units.flow(), units.head(), state_cell);
     blocks.push(Block::Table {
         columns: vec![
             Column::new(format!("Flow ({})", fl.label), 0.09, Align::Right),
@@ -253,7 +268,8 @@ fn candidate(
             Column::new(format!("NPSHa / NPSHr ({})", hd.label), 0.13, Align::Right),
             Column::new("Remark", 0.16, Align::Left),
         ],
-        rows: pts
+        rows: op
+            .points
             .iter()
             .map(|p| {
                 vec![
@@ -292,7 +308,16 @@ fn candidate(
             op.name
         )),
     });
-    let se = units.specific_energy();
+}
+
+/// The power of all running pumps at every load point, from shaft to wire.
+fn point_powers(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Units) {
+    let (fl, pw, se, s) = (
+        units.flow(),
+        units.power(),
+        units.specific_energy(),
+        state_cell,
+    );
     // Without a drive there is no drive efficiency to print (not "100.0 %").
     let no_drive = (!op.variable_speed).then_some("none");
     blocks.push(Block::Table {
@@ -312,7 +337,8 @@ fn candidate(
             ),
             Column::new("Energy per year (kWh)", 0.15, Align::Right),
         ],
-        rows: pts
+        rows: op
+            .points
             .iter()
             .map(|p| {
                 vec![
@@ -335,6 +361,11 @@ fn candidate(
             op.name
         )),
     });
+}
+
+/// The switching points between pump counts, case by case.
+fn switching_points(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Units) {
+    let fl = units.flow();
     for (case, sw) in &op.switching {
         if !sw.is_empty() {
             let text = sw
@@ -355,6 +386,11 @@ fn candidate(
             )));
         }
     }
+}
+
+/// The year's energy, cost, volume and mean efficiencies.
+fn yearly_totals(blocks: &mut Vec<Block>, design: &Design, op: &CandidateOperation, units: &Units) {
+    let se = units.specific_energy();
     let y = &op.yearly;
     let currency = &design.energy.currency;
     blocks.push(Block::KeyValue(vec![
@@ -377,6 +413,10 @@ fn candidate(
             or_dash(y.mean_pump_efficiency.map(percent)),
         ),
     ]));
+}
+
+/// The checks across the profile.
+fn profile_checks(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Units) {
     blocks.push(Block::Table {
         columns: vec![
             Column::new("Check", 0.20, Align::Left),
@@ -398,7 +438,6 @@ fn candidate(
             .collect(),
         caption: Some(format!("Pump {}: checks across the profile", op.name)),
     });
-    head_figure(blocks, analysis, op, units);
 }
 
 /// The control curve over the speed family of the set, with the system curve and the
