@@ -505,3 +505,26 @@ fn a_network_discharge_line_ends_at_the_entry_node() {
         );
     }
 }
+
+/// A screened candidate whose pressure and surge screen fails says so in its ranking
+/// remark (a reviewer read "no failing check" in the ranking of the hillside package
+/// while its screen failed on column separation); the other candidate, not screened,
+/// says nothing of it.
+#[test]
+fn the_ranking_says_when_the_screened_candidate_fails_its_screen() {
+    let a = analyse(&demo("hillside-district"), &BTreeMap::new());
+    let screened = a.safety.candidate.clone().expect("a screened candidate");
+    let fails = a
+        .safety
+        .cases
+        .iter()
+        .flat_map(|c| &c.checks)
+        .any(|c| c.status == Status::Fail && c.id == CheckId::ColumnSeparation);
+    assert!(fails, "the demo's screen fails on column separation");
+    for r in &a.selection.ranking {
+        let says = r
+            .why
+            .contains("pressure and surge screen fails (column-separation");
+        assert_eq!(says, r.name == screened, "{}: {}", r.name, r.why);
+    }
+}

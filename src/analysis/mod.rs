@@ -201,6 +201,7 @@ pub fn analyse(design: &Design) -> Analysis {
     if !yearly.is_empty() {
         selection::rank_by_profile(design, &mut selection, &yearly);
     }
+    safety::annotate_selection(&mut selection, &safety);
     Analysis {
         report_units: design.project.units,
         safety,

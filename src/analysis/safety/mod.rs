@@ -530,3 +530,29 @@ fn high_points(stations: &[Station]) -> Vec<usize> {
     }
     out
 }
+
+/// Says in the selection remark of the screened candidate that its pressure and surge
+/// screen fails, naming the failing checks, so a package never reads "no failing check"
+/// in the ranking while its screen fails (the screen is not a ranking criterion: it
+/// screens one candidate, and its failures call for a transient analysis, not another
+/// pump).
+pub fn annotate_selection(selection: &mut super::selection::Selection, safety: &Safety) {
+    let Some(name) = safety.candidate.as_deref() else {
+        return;
+    };
+    let mut failing: Vec<&'static str> = Vec::new();
+    for check in safety.cases.iter().flat_map(|c| &c.checks) {
+        if check.status == super::checks::Status::Fail && !failing.contains(&check.id.as_str()) {
+            failing.push(check.id.as_str());
+        }
+    }
+    if failing.is_empty() {
+        return;
+    }
+    if let Some(ranked) = selection.ranking.iter_mut().find(|r| r.name == name) {
+        ranked.why.push_str(&format!(
+            "; its pressure and surge screen fails ({}): a transient (water-hammer) analysis is needed before the selection is final",
+            failing.join(", ")
+        ));
+    }
+}

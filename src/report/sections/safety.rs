@@ -18,6 +18,9 @@ pub const CAUTIONS: [&str; 3] = [
     "Column separation, check-valve slam and air in the line are not modelled. The results are to be reviewed by a licensed engineer before the design proceeds.",
 ];
 
+/// What the screen leaves out of a network design.
+const NETWORK_SCOPE: &str = "This screen covers the suction and discharge lines of the station, up to the network's entry node. The pipes, valves and equipment inside the network (its node-to-node lines) are not screened: check each against the shut-off pressure at the entry node and against the surge of a pump trip or valve closure, with the network node pressures of the duty tables, before the design proceeds.";
+
 /// The chapter; nothing when no case could be screened.
 pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Units) {
     let s = &analysis.safety;
@@ -27,6 +30,13 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
     blocks.push(Block::heading(1, "Pressure and surge screening"));
     blocks.push(Block::caution(CAUTIONS[0]));
     intro(blocks, s, analysis);
+    if analysis
+        .cases
+        .iter()
+        .any(|c| c.system.as_ref().is_some_and(|s| s.network.is_some()))
+    {
+        blocks.push(Block::caution(NETWORK_SCOPE));
+    }
     method(blocks);
     shutoff(blocks, s, units);
     ratings_table(blocks, first, units, s.closed_loop_max_pa);
