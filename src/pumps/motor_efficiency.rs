@@ -134,7 +134,12 @@ pub fn default_efficiency(rating_w: f64, poles: u32, supply_hz: f64) -> DefaultE
     DefaultEfficiency {
         efficiency: column(row) / 100.0,
         source: format!(
-            "{CLASS} class value, IEC 60034-30-1, {} poles at {:.0} Hz, {at}{note} (recalled)",
+            "{CLASS} class value, IEC 60034-30-1{}, {} poles at {:.0} Hz, {at}{note} (recalled)",
+            if fifty {
+                ""
+            } else {
+                " (the 60 Hz values are NEMA Premium's, NEMA MG 1 Table 12-12, enclosed motors)"
+            },
             poles.clamp(2, 6),
             if fifty { 50.0 } else { 60.0 }
         ),
