@@ -203,9 +203,7 @@ pub fn transitional_friction_factor(re: f64, rr: f64) -> Result<f64, FrictionErr
     if !valid_inputs(re, rr) {
         return Err(FrictionError::invalid(re, rr));
     }
-    let turbulent_end = solve_colebrook(TURBULENT_LIMIT_RE, rr, None)?.f;
-    let ln_c_low = (laminar(LAMINAR_LIMIT_RE) / churchill_1977(LAMINAR_LIMIT_RE, rr)).ln();
-    let ln_c_high = (turbulent_end / churchill_1977(TURBULENT_LIMIT_RE, rr)).ln();
+    let (ln_c_low, ln_c_high) = bridge_ends(rr)?;
     let w = (re / LAMINAR_LIMIT_RE).ln() / (TURBULENT_LIMIT_RE / LAMINAR_LIMIT_RE).ln();
     let f = churchill_1977(re, rr) * ((1.0 - w) * ln_c_low + w * ln_c_high).exp();
     if f.is_finite() && f > 0.0 {
@@ -215,6 +213,33 @@ pub fn transitional_friction_factor(re: f64, rr: f64) -> Result<f64, FrictionErr
             "transitional friction factor is not finite at Re {re}, eps/D {rr}"
         )))
     }
+}
+
+/// ln c_2000 and ln c_4000 of [`transitional_friction_factor`] for a relative roughness.
+/// They depend on eps/D alone and cost a Colebrook solve and two Churchill evaluations,
+/// so the last few are kept per thread (a network or a system curve evaluates the same
+/// few pipes many times); a kept pair is the value the computation gives, bit for bit.
+fn bridge_ends(rr: f64) -> Result<(f64, f64), FrictionError> {
+    use std::cell::Cell;
+    const SLOTS: usize = 16;
+    thread_local! {
+        static KEPT: [Cell<(u64, f64, f64)>; SLOTS] =
+            const { [const { Cell::new((u64::MAX, 0.0, 0.0)) }; SLOTS] };
+    }
+    let key = rr.to_bits();
+    // Fibonacci hashing of the bits picks the slot.
+    let slot = (key.wrapping_mul(0x9E37_79B9_7F4A_7C15) >> 60) as usize % SLOTS;
+    if let Some((lo, hi)) = KEPT.with(|k| {
+        let (bits, lo, hi) = k[slot].get();
+        (bits == key).then_some((lo, hi))
+    }) {
+        return Ok((lo, hi));
+    }
+    let turbulent_end = solve_colebrook(TURBULENT_LIMIT_RE, rr, None)?.f;
+    let ln_c_low = (laminar(LAMINAR_LIMIT_RE) / churchill_1977(LAMINAR_LIMIT_RE, rr)).ln();
+    let ln_c_high = (turbulent_end / churchill_1977(TURBULENT_LIMIT_RE, rr)).ln();
+    KEPT.with(|k| k[slot].set((key, ln_c_low, ln_c_high)));
+    Ok((ln_c_low, ln_c_high))
 }
 
 /// Warnings for a friction-factor evaluation outside the ranges where the correlations

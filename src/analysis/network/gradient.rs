@@ -59,6 +59,9 @@ pub fn solve(net: &Network, settings: &Settings) -> Result<Solution, NetworkErro
 pub struct Prepared {
     unknowns: Unknowns,
     pattern: Pattern,
+    /// Per link: where its off-diagonal entry is kept ([`Pattern::slot`]), `None` for a
+    /// link to a fixed head.
+    slots: Vec<Option<usize>>,
 }
 
 impl Prepared {
@@ -77,7 +80,19 @@ impl Prepared {
         let pattern = Pattern::new(unknowns.count, &pairs).map_err(|_| {
             NetworkError::TooLarge("the network's sparse factor would be too large".into())
         })?;
-        Ok(Prepared { unknowns, pattern })
+        let slots = net
+            .links
+            .iter()
+            .map(|l| match (unknowns.index[l.from], unknowns.index[l.to]) {
+                (Some(a), Some(b)) => pattern.slot(a, b),
+                _ => None,
+            })
+            .collect();
+        Ok(Prepared {
+            unknowns,
+            pattern,
+            slots,
+        })
     }
 }
 
@@ -88,8 +103,8 @@ pub fn solve_prepared(
     prepared: &Prepared,
     settings: &Settings,
 ) -> Result<Solution, NetworkError> {
-    let (unknowns, pattern) = (&prepared.unknowns, &prepared.pattern);
-    if unknowns.index.len() != net.nodes.len() {
+    let unknowns = &prepared.unknowns;
+    if unknowns.index.len() != net.nodes.len() || prepared.slots.len() != net.links.len() {
         return Err(NetworkError::BadLink(
             "the network changed since it was prepared".into(),
         ));
@@ -97,7 +112,7 @@ pub fn solve_prepared(
     let mut state = State::start(net, unknowns);
     let mut iterations = 0;
     for _ in 0..settings.max_status_rounds {
-        iterations += newton(net, unknowns, pattern, &mut state, settings)?;
+        iterations += newton(net, prepared, &mut state, settings)?;
         if !update_status(net, &mut state) {
             return Ok(state.finish(net, iterations));
         }
@@ -207,8 +222,7 @@ impl State {
 /// Newton iterations at fixed link status; returns the number used.
 fn newton(
     net: &Network,
-    unknowns: &Unknowns,
-    pattern: &Pattern,
+    prepared: &Prepared,
     state: &mut State,
     settings: &Settings,
 ) -> Result<usize, NetworkError> {
@@ -224,7 +238,7 @@ fn newton(
         if iteration > settings.max_iterations {
             break;
         }
-        let new_heads = solve_heads(net, unknowns, pattern, &c, &y, &live, &state.heads)?;
+        let new_heads = solve_heads(net, prepared, &c, &y, &live, &state.heads)?;
         worst = (0, 0.0);
         for (i, &h) in new_heads.iter().enumerate() {
             let change = (h - state.heads[i]).abs();
@@ -281,14 +295,14 @@ fn linearise(
 /// Assemble and solve the weighted Laplacian for the heads of all nodes.
 fn solve_heads(
     net: &Network,
-    unknowns: &Unknowns,
-    pattern: &Pattern,
+    prepared: &Prepared,
     c: &[f64],
     y: &[f64],
     live: &Live,
     heads: &[f64],
 ) -> Result<Vec<f64>, NetworkError> {
-    let mut m = Matrix::zeros(pattern);
+    let unknowns = &prepared.unknowns;
+    let mut m = Matrix::zeros(&prepared.pattern);
     let mut rhs = vec![0.0; unknowns.count];
     for (i, n) in net.nodes.iter().enumerate() {
         match (unknowns.index[i], n.kind) {
@@ -315,7 +329,10 @@ fn solve_heads(
             rhs[b] += y[k];
         }
         match (a, b) {
-            (Some(a), Some(b)) => m.add_off_diagonal(a, b, -c[k]),
+            (Some(a), Some(b)) => match prepared.slots[k] {
+                Some(slot) => m.add_at(slot, -c[k]),
+                None => m.add_off_diagonal(a, b, -c[k]),
+            },
             (Some(a), None) => rhs[a] += c[k] * net.fixed_head(l.to).unwrap_or(0.0),
             (None, Some(b)) => rhs[b] += c[k] * net.fixed_head(l.from).unwrap_or(0.0),
             (None, None) => {}

@@ -42,9 +42,12 @@ pub struct Pattern {
     col_start: Vec<usize>,
     /// Row indices (elimination numbering) of L below the diagonal, sorted per column.
     rows: Vec<usize>,
-    /// For each row j, the columns k < j with L[j,k] ≠ 0, and the index of that entry
-    /// in `rows`, so a left-looking update needs no search.
-    row_cols: Vec<Vec<(usize, usize)>>,
+    /// For each row j, the columns k < j with L[j,k] ≠ 0 (ascending), and the index of
+    /// that entry in `rows`, so a left-looking update needs no search: row j's are
+    /// `row_cols[row_start[j]..row_start[j + 1]]`.
+    row_cols: Vec<(usize, usize)>,
+    /// Start of each row's entries in `row_cols`, length n + 1.
+    row_start: Vec<usize>,
 }
 
 impl Pattern {
@@ -101,17 +104,35 @@ impl Pattern {
             position[v] = k;
         }
         let mut col_start = Vec::with_capacity(n + 1);
-        let mut rows = Vec::new();
-        let mut row_cols: Vec<Vec<(usize, usize)>> = vec![Vec::new(); n];
+        let mut rows = Vec::with_capacity(columns.iter().map(Vec::len).sum());
         col_start.push(0);
-        for (k, col) in columns.iter().enumerate() {
-            let mut r: Vec<usize> = col.iter().map(|&v| position[v]).collect();
-            r.sort_unstable();
-            for &j in &r {
-                row_cols[j].push((k, rows.len()));
-                rows.push(j);
-            }
+        for col in &columns {
+            let first = rows.len();
+            rows.extend(col.iter().map(|&v| position[v]));
+            rows[first..].sort_unstable();
             col_start.push(rows.len());
+        }
+        // Rows of L by a counting pass: columns are visited in ascending order, so each
+        // row's columns come out ascending (the order of the left-looking updates).
+        let mut row_start = vec![0usize; n + 1];
+        for &j in &rows {
+            row_start[j + 1] += 1;
+        }
+        for j in 0..n {
+            row_start[j + 1] += row_start[j];
+        }
+        let mut next = row_start.clone();
+        let mut row_cols = vec![(0usize, 0usize); rows.len()];
+        for k in 0..n {
+            for (at, &j) in rows
+                .iter()
+                .enumerate()
+                .take(col_start[k + 1])
+                .skip(col_start[k])
+            {
+                row_cols[next[j]] = (k, at);
+                next[j] += 1;
+            }
         }
         Pattern {
             n,
@@ -120,6 +141,7 @@ impl Pattern {
             col_start,
             rows,
             row_cols,
+            row_start,
         }
     }
 
@@ -137,37 +159,47 @@ impl Pattern {
     pub fn fill(&self) -> usize {
         self.rows.len()
     }
+
+    /// Where A[i,j] = A[j,i], i ≠ j (caller's numbering), is kept, for
+    /// [`Matrix::add_at`]; `None` when the pair was not given to [`Pattern::new`].
+    pub fn slot(&self, i: usize, j: usize) -> Option<usize> {
+        let (pi, pj) = (*self.position.get(i)?, *self.position.get(j)?);
+        let (row, col) = if pi > pj { (pi, pj) } else { (pj, pi) };
+        if row == col {
+            return None;
+        }
+        let range = self.col_start[col]..self.col_start[col + 1];
+        self.rows[range.clone()]
+            .binary_search(&row)
+            .ok()
+            .map(|at| range.start + at)
+    }
 }
 
 /// `out` = sorted union of the sorted `x` and `y` without the values `v` and `a`.
 fn union_without(x: &[usize], y: &[usize], v: usize, a: usize, out: &mut Vec<usize>) {
     out.clear();
+    out.reserve(x.len() + y.len());
     let (mut i, mut j) = (0, 0);
-    while i < x.len() || j < y.len() {
-        let next = match (x.get(i), y.get(j)) {
-            (Some(&p), Some(&q)) if p == q => {
-                i += 1;
-                j += 1;
-                p
-            }
-            (Some(&p), Some(&q)) if p < q => {
-                i += 1;
-                p
-            }
-            (Some(&p), None) => {
-                i += 1;
-                p
-            }
-            (_, Some(&q)) => {
-                j += 1;
-                q
-            }
-            (None, None) => break,
+    while i < x.len() && j < y.len() {
+        let (p, q) = (x[i], y[j]);
+        let next = if p < q {
+            i += 1;
+            p
+        } else if q < p {
+            j += 1;
+            q
+        } else {
+            i += 1;
+            j += 1;
+            p
         };
         if next != v && next != a {
             out.push(next);
         }
     }
+    let rest = if i < x.len() { &x[i..] } else { &y[j..] };
+    out.extend(rest.iter().copied().filter(|&t| t != v && t != a));
 }
 
 /// A symmetric matrix on a [`Pattern`], assembled entry by entry, then factorised.
@@ -198,12 +230,14 @@ impl<'p> Matrix<'p> {
     /// Add `v` to `A[i,j]` and `A[j,i]`, i ≠ j (caller's numbering); the pair must have been
     /// given to [`Pattern::new`].
     pub fn add_off_diagonal(&mut self, i: usize, j: usize, v: f64) {
-        let (pi, pj) = (self.pattern.position[i], self.pattern.position[j]);
-        let (row, col) = if pi > pj { (pi, pj) } else { (pj, pi) };
-        let range = self.pattern.col_start[col]..self.pattern.col_start[col + 1];
-        if let Ok(at) = self.pattern.rows[range.clone()].binary_search(&row) {
-            self.values[range.start + at] += v;
+        if let Some(at) = self.pattern.slot(i, j) {
+            self.values[at] += v;
         }
+    }
+
+    /// Add `v` to the off-diagonal pair kept at `slot` ([`Pattern::slot`]).
+    pub fn add_at(&mut self, slot: usize, v: f64) {
+        self.values[slot] += v;
     }
 
     /// Factorise in place (left-looking Cholesky) and solve A·x = b; `b` is in the
@@ -218,15 +252,17 @@ impl<'p> Matrix<'p> {
         let mut work = vec![0.0; p.n];
         for j in 0..p.n {
             let (start, end) = (p.col_start[j], p.col_start[j + 1]);
-            for idx in start..end {
-                work[p.rows[idx]] = self.values[idx];
+            for (&r, &v) in p.rows[start..end].iter().zip(&self.values[start..end]) {
+                work[r] = v;
             }
             let mut d = self.diag[j];
-            for &(k, at) in &p.row_cols[j] {
+            for &(k, at) in &p.row_cols[p.row_start[j]..p.row_start[j + 1]] {
                 let ljk = self.values[at];
                 d -= ljk * ljk;
-                for idx in at + 1..p.col_start[k + 1] {
-                    work[p.rows[idx]] -= self.values[idx] * ljk;
+                let stop = p.col_start[k + 1];
+                let below = p.rows[at + 1..stop].iter().zip(&self.values[at + 1..stop]);
+                for (&r, &v) in below {
+                    work[r] -= v * ljk;
                 }
             }
             // A pivot that is not positive, or lost to rounding against the original
