@@ -160,7 +160,7 @@ impl Pattern {
         self.rows.len()
     }
 
-    /// Where A[i,j] = A[j,i], i ≠ j (caller's numbering), is kept, for
+    /// Where `A[i,j] = A[j,i]`, i ≠ j (caller's numbering), is kept, for
     /// [`Matrix::add_at`]; `None` when the pair was not given to [`Pattern::new`].
     pub fn slot(&self, i: usize, j: usize) -> Option<usize> {
         let (pi, pj) = (*self.position.get(i)?, *self.position.get(j)?);
