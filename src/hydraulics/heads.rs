@@ -20,10 +20,6 @@ impl SpecificWeight {
     pub fn of_density(density_kg_m3: f64) -> SpecificWeight {
         SpecificWeight(density_kg_m3 * G)
     }
-    /// The value, N/m³.
-    pub fn n_per_m3(self) -> f64 {
-        self.0
-    }
 }
 
 /// A pressure above absolute zero (vacuum), Pa.
@@ -178,6 +174,24 @@ impl Neg for Head {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// Absolute zero is the bound (a perfect vacuum is not "above" it); a gauge
+    /// pressure keeps its value and its sign (mutation survivors of the NPSH run).
+    #[test]
+    fn absolute_zero_and_gauge_values() {
+        assert!(!AbsolutePressure::new(0.0).is_above_vacuum());
+        assert!(!AbsolutePressure::new(-1.0).is_above_vacuum());
+        assert!(AbsolutePressure::new(1e-6).is_above_vacuum());
+        // −80 kPa(g) at 101 325 Pa is 21 325 Pa absolute; its gauge value is −80 000 Pa.
+        let g = GaugePressure::new(-80_000.0);
+        assert_eq!(g.pa(), -80_000.0);
+        assert_eq!(g.absolute(AbsolutePressure::new(101_325.0)).pa(), 21_325.0);
+        // A difference of two absolute pressures, added to a gauge pressure: 300 − 100
+        // = 200 kPa, and −80 + 200 = 120 kPa(g).
+        let d = AbsolutePressure::new(300_000.0) - AbsolutePressure::new(100_000.0);
+        assert_eq!(d.pa(), 200_000.0);
+        assert_eq!((g + d).pa(), 120_000.0);
+    }
 
     #[test]
     fn gauge_and_absolute_differ_by_the_barometric_pressure() {
