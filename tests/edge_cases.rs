@@ -682,3 +682,37 @@ fn summed_fitting_k_is_consistent_with_each_fitting_at_every_regime() {
         }
     }
 }
+
+#[test]
+fn a_viscous_liquid_runs_on_the_corrected_curve() {
+    // The same gear oil: the duty must lie on the water curve corrected by the
+    // ANSI/HI 9.6.7 factors, recomputed here from the fitted water curve alone.
+    let r = run(&design(&[(
+        "fluid water { temperature = 15 degC }",
+        "fluid \"gear oil\" { density = 880 kg/m^3, viscosity = 220 cP, vapor_pressure = 0.1 kPa }",
+    )]));
+    let p = r.pump("P");
+    let d = p.duty.as_ref().expect("duty");
+    let cc = &r.analysis.candidates[0];
+    let (base, _) = cc.evaluated.as_ref().expect("curve");
+    let bep = cc.evaluated_bep.expect("bep");
+    let nu = 220e-3 / 880.0;
+    let b =
+        dutyline::pumps::viscosity_parameter_b(nu, bep.flow, bep.head, base.speed_rpm).expect("b");
+    assert!(b > 1.0 && b < 40.0, "B {b}");
+    let c_q = 2.71_f64.powf(-0.165 * b.log10().powf(3.15));
+    let c_eta = b.powf(-(0.0547 * b.powf(0.69)));
+    let q_w = d.flow_per_pump / c_q;
+    let c_h = 1.0 - (1.0 - c_q) * (q_w / bep.flow).powf(0.75);
+    let h = c_h * base.head.eval(q_w);
+    assert!(
+        (d.head_per_pump - h).abs() < 1e-6 * h,
+        "{} vs {h}",
+        d.head_per_pump
+    );
+    let eta = c_eta * base.efficiency.as_ref().expect("eta").eval(q_w);
+    assert!((d.efficiency.expect("eta") - eta).abs() < 1e-9);
+    let shaft = 880.0 * 9.80665 * d.flow_per_pump * h / eta;
+    assert!((d.shaft_power.expect("power") - shaft).abs() < 1e-6 * shaft);
+    assert!(has_warning(p, "corrected here"), "{:?}", p.warnings);
+}

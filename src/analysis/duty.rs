@@ -715,7 +715,8 @@ pub fn evaluate(
         (case_speed / base.speed_rpm, *trim),
         &mut out,
     );
-    let scaled = match ScaledPump::new(base, speed_ratio, diameter_ratio) {
+    let bep = cc.evaluated_bep.as_ref();
+    let scaled = match pump_in_case(base, speed_ratio, diameter_ratio, sys, bep) {
         Ok(s) => s,
         Err(e) => {
             fail_duty(
@@ -729,7 +730,7 @@ pub fn evaluate(
         }
     };
     let (par, ser) = (n_par as f64, n_ser as f64);
-    out.capacity_flow = capacity(p, base, *trim, case_speed / base.speed_rpm, sys, par, ser);
+    out.capacity_flow = capacity(p, cc, case_speed / base.speed_rpm, sys, par, ser);
     out.warnings
         .extend(scaled.warnings().iter().map(Message::text));
     out.speed_rpm = scaled.speed_rpm();
@@ -741,7 +742,9 @@ pub fn evaluate(
     let q_end = q_data_end * par;
     out.operating_curve = operating_curve(&scaled, sys, par, ser, q_end);
     let search_end = q_end * (1.0 + SEARCH_BEYOND_CURVE);
-    let outcome = system_table::solve_duty(&head_arr, sys, search_end, sys.scan(cc));
+    // The candidate's grid scan holds for affinity scalings only, not a viscous curve.
+    let scan = sys.scan(cc).filter(|_| scaled.viscous().is_none());
+    let outcome = system_table::solve_duty(&head_arr, sys, search_end, scan);
     let (q, h, crossings) = match &outcome {
         DutyOutcome::Point {
             flow,
@@ -786,11 +789,11 @@ pub fn evaluate(
     }
     let efficiency = scaled.eval_efficiency(qp).filter(|e| *e > 0.0);
     let shaft_power = arrangement_power(&scaled, rho, par, ser, q);
-    let bep = cc.evaluated_bep.map(|b| b.flow * scaled.flow_scale());
-    let not_water = !matches!(case.scenario.fluid, crate::model::Fluid::Water { .. });
-    if let (true, Some(b)) = (not_water, bep) {
-        let nu = sys.fluid.viscosity / sys.fluid.density;
-        let w = pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
+    let bep = cc.evaluated_bep.map(|b| scaled.bep_flow(b.flow));
+    if let (false, Some(b)) = (sys.fluid.is_water(), cc.evaluated_bep) {
+        let (q_w, h_w) = (b.flow * scaled.flow_scale(), b.head * scaled.head_scale());
+        let nu = sys.fluid.kinematic_viscosity();
+        let w = pumps::viscosity_warning(nu, q_w, h_w, scaled.speed_rpm());
         out.warnings.extend(w.into_iter().map(Message::text));
     }
     let station = station_piping(sys, q, qp);
@@ -939,19 +942,19 @@ fn operating_curve(
 /// largest impeller (the published one before trim for `adjust = trim`).
 fn capacity(
     p: &PumpCandidate,
-    base: &PumpCurves,
-    trim: f64,
+    cc: &CandidateCurves,
     case_speed_ratio: f64,
     sys: &CaseSystem,
     par: f64,
     ser: f64,
 ) -> Option<f64> {
+    let (base, trim) = cc.evaluated.as_ref()?;
     let (speed, diameter) = match p.adjust {
-        Adjust::Speed { max_ratio, .. } => (max_ratio, trim),
+        Adjust::Speed { max_ratio, .. } => (max_ratio, *trim),
         Adjust::Trim { .. } => (case_speed_ratio, 1.0),
-        Adjust::None => (case_speed_ratio, trim),
+        Adjust::None => (case_speed_ratio, *trim),
     };
-    let scaled = ScaledPump::new(base, speed, diameter).ok()?;
+    let scaled = pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref()).ok()?;
     meeting_flow(&scaled, sys, par, ser)
 }
 
@@ -960,6 +963,26 @@ pub fn fixed_volume(design: &Design, case: &Case) -> Option<f64> {
     let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
     let q = required_flow(design, &case.name)?;
     (hours > 0.0 && q > 0.0).then_some(hours * 3600.0 * q)
+}
+
+/// The candidate's curve `base` at `speed` and `diameter` ratios on the case's liquid:
+/// [`ScaledPump::new`], and on a liquid other than water the water curve corrected for
+/// viscosity by ANSI/HI 9.6.7 ([`ScaledPump::on_liquid`], from the base curve's best-
+/// efficiency point `bep`). Every stage that evaluates a candidate in a case takes its
+/// curve from here, so the correction is applied once, the same way, everywhere.
+pub fn pump_in_case<'a>(
+    base: &'a PumpCurves,
+    speed: f64,
+    diameter: f64,
+    sys: &CaseSystem,
+    bep: Option<&pumps::Bep>,
+) -> Result<ScaledPump<'a>, pumps::PumpError> {
+    let scaled = ScaledPump::new(base, speed, diameter)?;
+    Ok(if sys.fluid.is_water() {
+        scaled
+    } else {
+        scaled.on_liquid(sys.fluid.kinematic_viscosity(), bep)
+    })
 }
 
 /// Input power, specific energy, wire-to-water efficiency and the year's energy of a

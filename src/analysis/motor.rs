@@ -18,7 +18,7 @@ use super::limits::{self, CheckId};
 use super::{CaseResult, Warning};
 use crate::message::{self, Kind};
 use crate::model::{Adjust, Design, MotorStandardChoice, PumpCandidate};
-use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard, ScaledPump};
+use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard};
 
 /// Points sampled along the published curve for the run-out power.
 pub const RUN_OUT_POINTS: usize = 81;
@@ -85,7 +85,8 @@ fn run_out(
             Adjust::Trim { .. } => (case_ratio, 1.0),
             Adjust::None => (case_ratio, *trim),
         };
-        let Ok(scaled) = ScaledPump::new(base, speed, diameter) else {
+        let Ok(scaled) = duty::pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref())
+        else {
             continue;
         };
         let (_, end) = scaled.domain();

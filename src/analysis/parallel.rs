@@ -16,7 +16,6 @@ use super::motor::MotorSizing;
 use super::CaseResult;
 use crate::message::{self, flow, head, Kind, Message};
 use crate::model::{Adjust, ArrangementKind, Design, PumpCandidate};
-use crate::pumps::ScaledPump;
 
 /// One pump of a parallel set alone.
 #[derive(Clone, Debug, PartialEq)]
@@ -94,13 +93,13 @@ fn evaluate(
         Adjust::Trim { .. } => (case_ratio, 1.0),
         Adjust::None => (case_ratio, *trim),
     };
-    let scaled = ScaledPump::new(base, speed, diameter).ok()?;
+    let scaled = duty::pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref()).ok()?;
     let (_, end) = scaled.domain();
     let outcome = super::system_table::solve_duty(
         &|q| duty::set_head(&scaled, sys, 1.0, 1.0, q),
         sys,
         end * (1.0 + duty::SEARCH_BEYOND_CURVE),
-        sys.scan(cc),
+        sys.scan(cc).filter(|_| scaled.viscous().is_none()),
     );
     let mut alone = OneAlone {
         case: case.name.clone(),

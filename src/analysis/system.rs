@@ -46,6 +46,17 @@ pub struct FluidState {
 }
 
 impl FluidState {
+    /// True for water (a design's `fluid water`; no other liquid can take that name),
+    /// the liquid pump curves are tested on.
+    pub fn is_water(&self) -> bool {
+        self.name == "water"
+    }
+
+    /// Kinematic viscosity ν = μ/ρ, m²/s.
+    pub fn kinematic_viscosity(&self) -> f64 {
+        self.viscosity / self.density
+    }
+
     /// Its specific weight ρg under standard gravity.
     pub fn specific_weight(&self) -> SpecificWeight {
         SpecificWeight::of_density(self.density)

@@ -26,6 +26,7 @@
 
 use super::curves::PumpCurves;
 use super::duty::brent;
+use super::viscous::ViscousCorrection;
 use super::{require_non_negative, require_positive, PumpError};
 
 /// Trims below this fraction of the published diameter are flagged as unreliable
@@ -42,6 +43,7 @@ pub struct ScaledPump<'a> {
     speed_ratio: f64,
     diameter_ratio: f64,
     warnings: Vec<String>,
+    viscous: Option<ViscousCorrection>,
 }
 
 impl<'a> ScaledPump<'a> {
@@ -98,7 +100,41 @@ impl<'a> ScaledPump<'a> {
             speed_ratio,
             diameter_ratio,
             warnings,
+            viscous: None,
         })
+    }
+
+    /// This pump on a liquid of kinematic viscosity `kinematic_viscosity_m2_s` (m²/s): the
+    /// water curve corrected by ANSI/HI 9.6.7 ([`ViscousCorrection`]) when its parameter B,
+    /// at the water best-efficiency point `bep` of the base curve carried to this speed and
+    /// diameter, exceeds 1; unchanged otherwise (or without a BEP, which B needs).
+    pub fn on_liquid(mut self, kinematic_viscosity_m2_s: f64, bep: Option<&super::Bep>) -> Self {
+        self.viscous = bep.and_then(|b| {
+            ViscousCorrection::for_pump(
+                kinematic_viscosity_m2_s,
+                b.flow * self.flow_scale(),
+                b.head * self.head_scale(),
+                self.speed_rpm(),
+            )
+        });
+        self
+    }
+
+    /// The viscosity correction applied to the water curve, if any.
+    pub fn viscous(&self) -> Option<&ViscousCorrection> {
+        self.viscous.as_ref()
+    }
+
+    /// The water-curve flow corresponding to the flow q on this liquid (q itself on water).
+    fn water_flow(&self, q: f64) -> f64 {
+        self.viscous.map_or(q, |v| v.water_flow(q))
+    }
+
+    /// The best-efficiency flow of the base curve's `bep_flow` (m³/s) carried to this
+    /// speed, diameter and liquid.
+    pub fn bep_flow(&self, bep_flow: f64) -> f64 {
+        let q = bep_flow * self.flow_scale();
+        self.viscous.map_or(q, |v| q * v.flow)
     }
 
     /// Same as [`ScaledPump::new`] without range warnings, for callers (curve families)
@@ -109,6 +145,7 @@ impl<'a> ScaledPump<'a> {
             speed_ratio,
             diameter_ratio,
             warnings: Vec::new(),
+            viscous: None,
         }
     }
 
@@ -167,43 +204,79 @@ impl<'a> ScaledPump<'a> {
         self.flow_scale().powi(3)
     }
 
-    /// Head (m) at flow q (m³/s): H(q) = (N·D)²·H₀(q/(N·D)).
-    pub fn eval_head(&self, q: f64) -> f64 {
+    /// Head (m) at flow q (m³/s) on water: H(q) = (N·D)²·H₀(q/(N·D)).
+    fn water_head(&self, q: f64) -> f64 {
         self.head_scale() * self.base.head.eval(q / self.flow_scale())
     }
 
-    /// dH/dq of the scaled curve.
-    pub fn head_derivative(&self, q: f64) -> f64 {
-        self.flow_scale() * self.base.head.derivative(q / self.flow_scale())
+    /// Head (m) at flow q (m³/s): the water head (N·D)²·H₀(q/(N·D)), on a viscous liquid
+    /// C_H(Q_W)·H_W(Q_W) at the corresponding water flow Q_W = q/C_Q.
+    pub fn eval_head(&self, q: f64) -> f64 {
+        match &self.viscous {
+            None => self.water_head(q),
+            Some(v) => {
+                let qw = v.water_flow(q);
+                v.head_factor(qw) * self.water_head(qw)
+            }
+        }
     }
 
-    /// Efficiency (fraction) at q: η(q) = η₀(q/(N·D)); `None` without efficiency data.
+    /// dH/dq of the scaled curve (on a viscous liquid, of C_H(q/C_Q)·H_W(q/C_Q)).
+    pub fn head_derivative(&self, q: f64) -> f64 {
+        let water_slope =
+            |q: f64| self.flow_scale() * self.base.head.derivative(q / self.flow_scale());
+        match &self.viscous {
+            None => water_slope(q),
+            Some(v) => {
+                let qw = v.water_flow(q);
+                (v.head_factor_slope(qw) * self.water_head(qw)
+                    + v.head_factor(qw) * water_slope(qw))
+                    / v.flow
+            }
+        }
+    }
+
+    /// Efficiency (fraction) at q: η(q) = η₀(q/(N·D)), on a viscous liquid C_η·η_W(Q_W);
+    /// `None` without efficiency data.
     pub fn eval_efficiency(&self, q: f64) -> Option<f64> {
         let eff = self.base.efficiency.as_ref()?;
-        Some(eff.eval(q / self.flow_scale()))
+        let qw = self.water_flow(q);
+        let c_eta = self.viscous.map_or(1.0, |v| v.efficiency);
+        Some(c_eta * eff.eval(qw / self.flow_scale()))
     }
 
-    /// NPSHr (m) at q: N²·NPSHr₀(q/N) (speed scaling only; see the module docs).
+    /// NPSHr (m) at q: N²·NPSHr₀(q/N) (speed scaling only; see the module docs); on a
+    /// viscous liquid the water value at the corresponding water flow (not corrected).
     pub fn eval_npshr(&self, q: f64) -> Option<f64> {
         let n = self.base.npshr.as_ref()?;
-        Some(self.speed_ratio.powi(2) * n.eval(q / self.speed_ratio))
+        let qw = self.water_flow(q);
+        Some(self.speed_ratio.powi(2) * n.eval(qw / self.speed_ratio))
     }
 
-    /// Shaft power (W) at q from the published power curve: (N·D)³·P₀(q/(N·D)).
+    /// Shaft power (W) at q from the published power curve: (N·D)³·P₀(q/(N·D)); on a
+    /// viscous liquid P_W(Q_W)·C_Q·C_H/C_η (P = ρgQH/η with each factor applied).
     pub fn eval_shaft_power(&self, q: f64) -> Option<f64> {
         let p = self.base.shaft_power.as_ref()?;
-        Some(self.power_scale() * p.eval(q / self.flow_scale()))
+        let qw = self.water_flow(q);
+        let water = self.power_scale() * p.eval(qw / self.flow_scale());
+        Some(match &self.viscous {
+            None => water,
+            Some(v) => water * v.flow * v.head_factor(qw) / v.efficiency,
+        })
     }
 
-    /// Head data domain carried to this speed and diameter, m³/s.
+    /// Head data domain carried to this speed, diameter and liquid, m³/s.
     pub fn domain(&self) -> (f64, f64) {
         let (lo, hi) = self.base.head.domain();
-        (lo * self.flow_scale(), hi * self.flow_scale())
+        let c_q = self.viscous.map_or(1.0, |v| v.flow);
+        (lo * self.flow_scale() * c_q, hi * self.flow_scale() * c_q)
     }
 
     /// True when q lies outside the scaled head data domain.
     pub fn is_extrapolating(&self, q: f64) -> bool {
-        self.base.head.is_extrapolating(q / self.flow_scale())
+        self.base
+            .head
+            .is_extrapolating(self.water_flow(q) / self.flow_scale())
     }
 }
 

@@ -13,7 +13,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, units: &Units) {
     npsh(blocks);
     power_and_energy(blocks);
     blocks.push(Block::text(
-        "Viscous liquids: for a liquid other than water the pump-performance viscosity parameter B of ANSI/HI 9.6.7 is computed at each duty; above B = 1 a warning asks for the viscosity correction of head, flow and efficiency, which this calculation does not apply to the published water curves.",
+        "Viscous liquids: for a liquid other than water the pump-performance viscosity parameter B of ANSI/HI 9.6.7 is computed from each candidate's water best-efficiency point at the case's speed, impeller and viscosity. Above B = 1 the water curve is corrected by the standard's factors: flow C_Q = 2.71^(-0.165 (log10 B)^3.15), head C_H = 1 - (1 - C_Q)(Q_W/Q_BEP-W)^0.75 (shut-off head unchanged), efficiency C_eta = B^-(0.0547 B^0.69), so shaft power is the water value times C_Q C_H / C_eta; these corrected curves give the duty, power, run-out power for motor sizing and energy. NPSH required is the water value at the corresponding water flow (not corrected). The equations are recalled, not checked against an open transcription; a curve from the manufacturer for the liquid governs.",
     ));
 }
 
