@@ -169,3 +169,47 @@ fn a_failed_build_leaves_the_previous_pdf_untouched() {
     assert!(leftovers.is_empty());
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn references_list_what_the_design_uses() {
+    // The orchard lift: one chain of steel and PVC pipe, constant speed, NEMA motors,
+    // water; Kestrel: Hazen-Williams ductile iron, variable speed, IEC, an envelope.
+    let text = |demo: &str| {
+        let (_, _, pdf) = package(demo);
+        let pages = page_texts(&pdf).unwrap();
+        let all = pages.join("\n");
+        let at = all
+            .rfind("Publications the calculation relies on")
+            .expect("chapter");
+        let start = all[..at].rfind("References").expect("heading");
+        all[start..].to_string()
+    };
+    let orchard = text("examples-demo/orchard-lift-rev-a.duty");
+    for used in ["Colebrook", "NEMA MG 1", "ASTM D1785", "Hooper"] {
+        assert!(orchard.contains(used), "orchard lacks {used}");
+    }
+    for unused in [
+        "Todini",
+        "Jacob",
+        "ISO 9906",
+        "IEC 60072-1",
+        "ANSI/HI 9.6.7",
+        "Melinder",
+        "IEC 61800-9-2",
+    ] {
+        assert!(!orchard.contains(unused), "orchard lists {unused}");
+    }
+    let kestrel = text("examples-demo/kestrel-booster.duty");
+    for used in [
+        "Williams, G.S. and Hazen",
+        "ISO 9906",
+        "IEC 60072-1",
+        "IEC 61800-9-2",
+        "AWWA Manual M41",
+    ] {
+        assert!(kestrel.contains(used), "kestrel lacks {used}");
+    }
+    for unused in ["NEMA MG 1,", "Todini", "Uni-Bell", "ANSI/HI 9.6.7"] {
+        assert!(!kestrel.contains(unused), "kestrel lists {unused}");
+    }
+}

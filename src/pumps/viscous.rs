@@ -12,7 +12,7 @@
 ///
 /// with ν the kinematic viscosity in cSt, Q_BEP the water best-efficiency flow in m³/h,
 /// H_BEP the water head per stage at that flow in m and N the speed in rpm.
-/// Source: ANSI/HI 9.6.7-2010, *Rotodynamic Pumps — Guideline for Effects of Liquid
+/// Source: ANSI/HI 9.6.7-2015 (edition from memory), *Rotodynamic Pumps — Guideline for Effects of Liquid
 /// Viscosity on Performance*, Hydraulic Institute (the parameter B of its correction
 /// method; from memory, checked against published restatements of the standard).
 ///
@@ -91,7 +91,7 @@ pub fn viscosity_warning(
 /// - efficiency: C_η = B^−(0.0547·B^0.69), η_vis = C_η·η_W;
 ///
 /// each viscous point (Q_vis, H_vis, η_vis) corresponding to the water point
-/// (Q_W, H_W, η_W). Source: ANSI/HI 9.6.7-2010, *Rotodynamic Pumps — Guideline for
+/// (Q_W, H_W, η_W). Source: ANSI/HI 9.6.7-2015 (edition from memory), *Rotodynamic Pumps — Guideline for
 /// Effects of Liquid Viscosity on Performance*, Hydraulic Institute, the correction
 /// method's equations for C_Q, C_H and C_η (from memory; no open transcription was found
 /// to check them against, so the package says so). The standard's data cover about
@@ -210,7 +210,7 @@ mod tests {
     #[test]
     fn correction_factors_follow_the_standards_equations() {
         // Hand-evaluated from the equations in the doc comment of `ViscousCorrection`
-        // (ANSI/HI 9.6.7-2010, from memory): C_Q = 2.71^(-0.165 (log10 B)^3.15),
+        // (ANSI/HI 9.6.7-2015, from memory): C_Q = 2.71^(-0.165 (log10 B)^3.15),
         // C_eta = B^-(0.0547 B^0.69).
         for (b, c_q, c_eta) in [
             (2.0, 0.996_259_204_8, 0.940_665_300_2),

@@ -105,7 +105,7 @@ pub fn document_attached(
     checks::chapter(&mut blocks, analysis, &units, kept.is_some());
     safety::chapter(&mut blocks, analysis, &units);
     assumptions::chapter(&mut blocks, full_design, full_analysis);
-    references::chapter(&mut blocks, full_design);
+    references::chapter(&mut blocks, full_design, full_analysis);
     appendix::chapter(&mut blocks, source, sha256);
     attached::appendix(&mut blocks, &attachments);
 
