@@ -89,6 +89,31 @@ fn fluid_and_site(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis,
     }
 }
 
+/// For a network that floats on tanks: the static head is the head at zero station flow,
+/// not the lift between the surfaces; say so with each case's lift, so that a reader who
+/// subtracts the levels in the table is not misled.
+fn floating_note(analysis: &Analysis, units: &Units) -> String {
+    let lifts: Vec<String> = analysis
+        .cases
+        .iter()
+        .filter_map(|c| {
+            let s = c.system.as_ref()?;
+            let (net, _) = s.network.as_ref()?;
+            net.pattern.is_none().then(|| {
+                let lift = s.destination_level.m() - s.source_level.m();
+                format!("{} {}", c.name, units.head().text(lift))
+            })
+        })
+        .collect();
+    if lifts.is_empty() {
+        return String::new();
+    }
+    format!(
+        "; in a network case the static head is the head the station must supply at zero station flow: the entry node's head with the case's tanks floating and its demands drawn (from the tanks), less the source grade, so it differs from the lift between the surfaces (source to destination level: {}) by what the network loses or gains at zero station flow, see Network",
+        lifts.join(", ")
+    )
+}
+
 /// For a network without a downstream tank: which node the destination columns give.
 fn governing_note(analysis: &Analysis) -> String {
     let names: Vec<String> = analysis
@@ -157,12 +182,13 @@ fn levels(blocks: &mut Vec<Block>, design: &Design, analysis: &Analysis, units: 
             })
             .collect(),
         caption: Some(format!(
-            "{}{}",
+            "{}{}{}",
             match analysis.cases.iter().any(|c| c.system.as_ref().is_some_and(|s| s.well.is_some())) {
                 false => "Surface levels, pump datum, surface pressures and static head per case",
                 true => "Surface levels, pump datum, surface pressures and static head per case; a well's level is its static water level and the static head is taken from it: the drawdown at each flow is added to the system curve, and the pumping level at each duty is in the candidate chapters",
             },
-            governing_note(analysis)
+            governing_note(analysis),
+            floating_note(analysis, units)
         )),
     });
 }
