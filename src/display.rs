@@ -4,7 +4,7 @@
 
 use crate::message::{Kind, Message, Part};
 use crate::model::ReportUnits;
-pub use crate::numbers::{count, significant, significant_trimmed, typeset};
+pub use crate::numbers::{count, plain, significant, significant_trimmed, typeset};
 
 /// A unit of display: label, and SI value → displayed value.
 #[derive(Clone, Copy, Debug)]
@@ -24,11 +24,11 @@ impl Shown {
     }
     /// "123.4 gpm"
     pub fn fmt(&self, si: f64) -> String {
-        format!("{:.*} {}", self.decimals, self.value(si), self.label)
+        format!("{} {}", plain(self.value(si), self.decimals), self.label)
     }
     /// "123.4" without the unit.
     pub fn num(&self, si: f64) -> String {
-        format!("{:.*}", self.decimals, self.value(si))
+        plain(self.value(si), self.decimals)
     }
     /// A value and the limit it is compared with, each with its unit, with as many more
     /// decimals (up to four) as it takes for two different values not to print alike,
@@ -36,8 +36,8 @@ impl Shown {
     pub fn fmt_against(&self, value: f64, limit: f64) -> (String, String) {
         let decimals = decimals_apart(self.decimals, self.value(value), self.value(limit));
         (
-            format!("{:.*} {}", decimals, self.value(value), self.label),
-            format!("{:.*} {}", decimals, self.value(limit), self.label),
+            format!("{} {}", plain(self.value(value), decimals), self.label),
+            format!("{} {}", plain(self.value(limit), decimals), self.label),
         )
     }
     /// As [`Shown::fmt`], typeset for print: a minus sign (U+2212), never "−0.0".
@@ -75,14 +75,17 @@ fn decimals_apart(base: usize, a: f64, b: f64) -> usize {
 /// A ratio and its limit with two decimals or more (see [`Shown::fmt_against`]).
 pub fn ratio_against(value: f64, limit: f64) -> (String, String) {
     let decimals = decimals_apart(2, value, limit);
-    (format!("{value:.decimals$}"), format!("{limit:.decimals$}"))
+    (plain(value, decimals), plain(limit, decimals))
 }
 
 /// A fraction and its limit as percentages with one decimal or more.
 pub fn percent_against(value: f64, limit: f64) -> (String, String) {
     let (a, b) = (100.0 * value, 100.0 * limit);
     let decimals = decimals_apart(1, a, b);
-    (format!("{a:.decimals$} %"), format!("{b:.decimals$} %"))
+    (
+        format!("{} %", plain(a, decimals)),
+        format!("{} %", plain(b, decimals)),
+    )
 }
 
 /// A signed change for print, "+0.2 %", "−1.5 %", and "0.0 %" for a change that

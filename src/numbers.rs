@@ -15,6 +15,19 @@ pub fn typeset(value: f64, decimals: usize) -> String {
     }
 }
 
+/// A number with `decimals` places in plain ASCII (the text results, messages): a
+/// hyphen-minus for negatives, and a value that rounds to zero without a sign ("0.00",
+/// never "-0.00").
+pub fn plain(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(digits) if !digits.chars().any(|c| c.is_ascii_digit() && c != '0') => {
+            digits.to_string()
+        }
+        _ => text,
+    }
+}
+
 /// A count with its noun: "1 warning", "5 warnings".
 pub fn count(n: usize, one: &str, many: &str) -> String {
     format!("{n} {}", if n == 1 { one } else { many })
@@ -55,6 +68,10 @@ mod significant_tests {
         assert_eq!(significant(0.049236, 4), "0.04924");
         assert_eq!(significant(0.0329, 4), "0.03290");
         assert_eq!(significant(-0.0329, 2), "\u{2212}0.033");
+        assert_eq!(plain(-0.001, 2), "0.00");
+        assert_eq!(plain(-0.006, 2), "-0.01");
+        assert_eq!(plain(-0.0, 1), "0.0");
+        assert_eq!(plain(2.5, 0), "2");
         assert_eq!(significant(70692.4, 4), "70692");
         assert_eq!(significant_trimmed(0.118, 4), "0.118");
         assert_eq!(significant_trimmed(0.21, 4), "0.21");

@@ -49,7 +49,7 @@ fn drought_appears_and_every_common_case_and_pump_has_a_row() {
         .map(|x| (x.case.clone(), x.pump.clone()))
         .collect();
     assert_eq!(got, expected);
-    assert_eq!(got.len(), 4 * 2);
+    assert_eq!(got.len(), 5 * 2);
     // Each row holds exactly the duty points of the two analyses.
     for row in &r.rows {
         let duty = |a: &Analysis| {
@@ -220,7 +220,7 @@ fn json_has_the_documented_shape() {
     let results = &json["results"];
     assert_eq!(results["cases_added"], serde_json::json!(["drought"]));
     let rows = results["rows"].as_array().expect("rows");
-    assert_eq!(rows.len(), 8);
+    assert_eq!(rows.len(), 10);
     for key in [
         "flow_m3_s",
         "head_m",

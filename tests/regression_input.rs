@@ -192,8 +192,8 @@ fn too_many_cases_points_at_the_first_case_over() {
     let extra: String = (0..max).map(|n| format!("case c{n} {{ }}\n")).collect();
     let src = format!("{DEMO}{extra}");
     let (d, (line, _), text) = error_at(&src, Code::TooMany);
-    // The demo has 4 cases, so case MAX_CASES + 1 is `c{MAX_CASES - 4}`.
-    let first_over = format!("c{}", max - 4);
+    // The demo has 5 cases, so case MAX_CASES + 1 is `c{MAX_CASES - 5}`.
+    let first_over = format!("c{}", max - 5);
     assert_eq!(text, first_over);
     assert_eq!(line, line_of(&src, &format!("case {first_over} ")));
     assert!(d.help.is_some());
