@@ -316,7 +316,14 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
         density,
         viscosity,
         vapor_pressure: AbsolutePressure::new(vapor_pressure),
-        source: "Melinder, Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., IIR 2010 (density, viscosity, freezing point); vapour pressure of water, IAPWS-IF97".into(),
+        source: format!(
+            "Melinder, Properties of Secondary Working Fluids for Indirect Systems, 2nd ed., IIR 2010 (density, viscosity, freezing point); vapour pressure of water, IAPWS-IF97{}",
+            if t < fluid::water::TRIPLE_POINT_K {
+                " at its triple point (0.01 °C, 611.7 Pa: below 0 °C the formulation gives no liquid value, and this is higher than the mixture's, so on the safe side)"
+            } else {
+                " at the temperature (the mixture's is lower, so on the safe side)"
+            }
+        ),
     })
 }
 
