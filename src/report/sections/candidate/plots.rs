@@ -207,12 +207,17 @@ pub(super) fn head_plot(
     let mut palette = Palette::default();
     let mut series = Vec::new();
     let mut markers = Vec::new();
+    let top = head_axis_top(results).map(|h| hd.value(h));
     for (k, (case, run)) in results.iter().enumerate() {
-        let points = case
+        let points: Vec<(f64, f64)> = case
             .system_curve
             .iter()
             .map(|point| (fl.value(point.flow), hd.value(point.head)))
             .collect();
+        let points = match top {
+            Some(top) => clipped_at(&points, top),
+            None => points,
+        };
         let name = format!("system, {}", case.name);
         series.push(line(name, points, Stroke::Dashed, &mut palette));
         let same_curve = k > 0 && results[k - 1].1.operating_curve == run.operating_curve;
@@ -281,6 +286,7 @@ pub(super) fn head_plot(
             x_label: flow_title(pump, fl.label),
             y_label: format!("Head ({})", hd.label),
             y2_label: Some("Efficiency (%)".into()),
+            y_range: top.map(|top| (0.0, top)),
             y2_range: Some((0.0, 100.0)),
             series,
             points: markers,
@@ -293,6 +299,43 @@ pub(super) fn head_plot(
             pump.name
         ),
     });
+}
+
+/// The top of the head axis (m) when a system curve climbs far above every pump curve
+/// (a throttled valve's case): 1.3 × the highest pump or duty head, so that the pump
+/// curves and duty points keep the plot's height; `None` when every system curve stays
+/// below that, and the axis fits all.
+fn head_axis_top(results: &[CaseRun]) -> Option<f64> {
+    let pump_top = results
+        .iter()
+        .flat_map(|(_, run)| {
+            let curve = run.operating_curve.iter().map(|q| q.head);
+            curve.chain(run.duty.as_ref().map(|d| d.head))
+        })
+        .fold(0.0_f64, f64::max);
+    let top = 1.3 * pump_top;
+    let system_top = results
+        .iter()
+        .flat_map(|(case, _)| case.system_curve.iter().map(|p| p.head))
+        .fold(0.0_f64, f64::max);
+    (pump_top > 0.0 && system_top > top).then_some(top)
+}
+
+/// A rising curve (x, y) cut where it first passes `top`, ending on `top` there
+/// (linear interpolation between the two samples).
+fn clipped_at(points: &[(f64, f64)], top: f64) -> Vec<(f64, f64)> {
+    let mut out = Vec::with_capacity(points.len());
+    for (k, &(x, y)) in points.iter().enumerate() {
+        if y <= top {
+            out.push((x, y));
+            continue;
+        }
+        if let Some(&(x0, y0)) = k.checked_sub(1).and_then(|j| points.get(j)) {
+            out.push((x0 + (x - x0) * (top - y0) / (y - y0), top));
+        }
+        break;
+    }
+    out
 }
 
 /// The flow range, in the operating curve's flows, where the evaluated curve has
