@@ -327,3 +327,34 @@ fn loop_fields_on_an_open_system_are_warned_unused() {
     );
     assert!(checked.design.is_some());
 }
+
+#[test]
+fn a_loop_is_ranked_on_the_cost_of_its_hours_not_per_volume() {
+    // Wrenfield: a glycol loop with a design-flow requirement in three cases.
+    let src = std::fs::read_to_string("examples-demo/wrenfield-chilled-water.duty").unwrap();
+    let (design, a) = common::analyse_valid(&src, &common::DemoFiles);
+    let sel = &a.selection;
+    assert!(sel.criterion.contains("running hours"), "{}", sel.criterion);
+    for r in &sel.ranking {
+        assert_eq!(
+            Some(r.score),
+            r.life_cost,
+            "{}: the score is the life cost",
+            r.name
+        );
+    }
+    assert!(sel.ranking[0].score <= sel.ranking[1].score);
+    // A loop fixes no volume: a case with a flow requirement still runs its own hours.
+    for (case, dc) in a.cases.iter().zip(&design.cases) {
+        assert!(dutyline::analysis::duty::fixed_volume(&design, dc).is_none());
+        for p in &case.pumps {
+            if let Some(e) = p.energy {
+                assert!(
+                    (e.hours - case.hours_per_year).abs() < 1e-9,
+                    "{}",
+                    case.name
+                );
+            }
+        }
+    }
+}

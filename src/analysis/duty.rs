@@ -959,7 +959,12 @@ fn capacity(
 }
 
 /// The volume a case fixes per year, m³: its hours × its largest `flow >=` requirement.
+/// A closed loop fixes no volume: it circulates for its hours, whatever the flow (the
+/// flow requirement is its design flow, a check).
 pub fn fixed_volume(design: &Design, case: &Case) -> Option<f64> {
+    if super::closed_loop::is_closed_loop(&case.scenario) {
+        return None;
+    }
     let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
     let q = required_flow(design, &case.name)?;
     (hours > 0.0 && q > 0.0).then_some(hours * 3600.0 * q)

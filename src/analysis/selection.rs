@@ -7,7 +7,10 @@
 //! each candidate runs that volume ÷ its delivered flow; where a case states hours but
 //! no flow, each candidate runs those hours and its energy counts per volume it
 //! delivers. With an energy price the score is the life-cycle energy cost per volume,
-//! without one the specific energy, and without hours the mean pump efficiency;
+//! without one the specific energy, and without hours the mean pump efficiency. A
+//! closed loop delivers no volume: its candidates are compared on the life-cycle energy
+//! cost (or the energy) of its stated hours, each required to meet the loop's design
+//! flow where a case states one;
 //! (3) ties go to the larger smallest NPSH margin ratio.
 
 use super::checks::Status;
@@ -136,16 +139,25 @@ fn lcc_method(design: &Design) -> LccMethod {
     }
 }
 
+/// The closed loop's criteria: a loop circulates for its hours and delivers no volume,
+/// so energy per volume would favour the pump that over-circulates; candidates are
+/// compared on the cost (or energy) of running the stated hours, each required to meet
+/// the loop's design flow (a `flow >=` requirement, checked).
+const LOOP_LIFE_COST: &str = "life-cycle energy cost of the stated running hours";
+/// The closed loop's criterion without an energy price.
+const LOOP_ENERGY: &str = "energy per year of the stated running hours";
+
 /// Rank the candidates over the analysed cases.
 pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
     let priced = design.energy.price_per_joule.is_some();
     let hours: f64 = cases.iter().map(|c| c.hours_per_year).sum();
-    let criterion = if priced && hours > 0.0 {
-        "life-cycle energy cost per volume"
-    } else if hours > 0.0 {
-        "energy per volume"
-    } else {
-        "mean efficiency"
+    let closed = super::closed_loop::is_closed_loop(&design.base);
+    let criterion = match (priced, hours > 0.0, closed) {
+        (true, true, false) => "life-cycle energy cost per volume",
+        (false, true, false) => "energy per volume",
+        (true, true, true) => LOOP_LIFE_COST,
+        (false, true, true) => LOOP_ENERGY,
+        _ => "mean efficiency",
     };
     let method = lcc_method(design);
     let mut ranking: Vec<Ranked> = Vec::new();
@@ -200,6 +212,8 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
         let score = match criterion {
             "life-cycle energy cost per volume" => life_per_m3.unwrap_or(f64::INFINITY),
             "energy per volume" => specific.unwrap_or(f64::INFINITY),
+            LOOP_LIFE_COST => life.unwrap_or(f64::INFINITY),
+            LOOP_ENERGY => energy.unwrap_or(f64::INFINITY),
             _ => -mean_eff.unwrap_or(0.0),
         };
         let qualifies = fails.is_empty();
@@ -275,9 +289,9 @@ fn criteria_text(design: &Design, criterion: &str, method: LccMethod) -> String 
     format!(
         "A candidate qualifies when every case is analysed, has a duty point and no check fails; candidates that do not qualify are listed after those that do. Qualifying candidates are ranked by {criterion}{}; ties go to the larger smallest NPSH margin.",
         match (criterion, method) {
-            ("life-cycle energy cost per volume", LccMethod::Discounted { rate, escalation }) =>
+            ("life-cycle energy cost per volume" | LOOP_LIFE_COST, LccMethod::Discounted { rate, escalation }) =>
                 format!("{} over {:.0} years, discounted at {:.1} % with {:.1} % energy-price escalation", price_text(design), design.energy.years, rate * 100.0, escalation * 100.0),
-            ("life-cycle energy cost per volume", _) => format!("{} over {:.0} years, undiscounted", price_text(design), design.energy.years),
+            ("life-cycle energy cost per volume" | LOOP_LIFE_COST, _) => format!("{} over {:.0} years, undiscounted", price_text(design), design.energy.years),
             _ => String::new(),
         }
     )
@@ -311,6 +325,9 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> Message {
     if criterion == "mean efficiency" {
         return "No case states operating hours, so energy cannot be compared: qualifying candidates are ranked by their mean pump efficiency over the cases.".into();
     }
+    if criterion == LOOP_LIFE_COST || criterion == LOOP_ENERGY {
+        return loop_basis(design, criterion);
+    }
     let mut s = crate::message![
         if criterion.starts_with("life") {
             "Candidates are compared per volume delivered (life-cycle energy cost per "
@@ -337,6 +354,30 @@ fn basis(design: &Design, cases: &[CaseResult], criterion: &str) -> Message {
         s.push(format!(
             " {} hours but no flow: each candidate runs those hours and is compared by the energy per volume it delivers.",
             cases_word(&open, "states", "state")
+        ));
+    }
+    s
+}
+
+/// The basis sentence of a closed loop, and a warning when no case states its design
+/// flow (a pump that under-circulates would then rank first on energy).
+fn loop_basis(design: &Design, criterion: &str) -> Message {
+    let mut s: Message = format!(
+        "The design is a closed loop: the flow circulated is not a volume delivered, so candidates are compared by the {criterion}, not per volume (which would favour the pump that over-circulates)."
+    )
+    .into();
+    let with_flow: Vec<&str> = design
+        .cases
+        .iter()
+        .filter(|c| super::duty::required_flow(design, &c.name).is_some())
+        .map(|c| c.name.as_str())
+        .collect();
+    if with_flow.is_empty() {
+        s.push(" No case states the loop's design flow (a flow requirement), so a pump that circulates less ranks better here: state it, so that a candidate below it does not qualify.");
+    } else {
+        s.push(format!(
+            " A candidate must meet the loop's design flow in {} to qualify; above it the balancing or control valves take the surplus head at the flow the pump gives, and that flow is what it is ranked at.",
+            with_flow.join(", ")
         ));
     }
     s
