@@ -228,4 +228,21 @@ mod tests {
         assert_eq!(centreline.raised(Head::new(2.5)).m(), 102.5);
         assert_eq!(centreline.lowered(Head::new(2.5)).m(), 97.5);
     }
+
+    #[test]
+    fn heads_add_subtract_and_negate_and_pressures_turn_into_heads() {
+        // 3 m + 1.5 m, 3 m − 1.5 m, −3 m: plain arithmetic on metres of liquid.
+        let (a, b) = (Head::new(3.0), Head::new(1.5));
+        assert_eq!((a + b).m(), 4.5);
+        assert_eq!((a - b).m(), 1.5);
+        assert_eq!((-a).m(), -3.0);
+        // 19 613.3 Pa under 1000 kg/m³ × 9.80665 m/s² is exactly 2 m, gauge or as a
+        // difference; a negative gauge pressure is a negative head.
+        let w = SpecificWeight::of_density(1000.0);
+        assert!((GaugePressure::new(19_613.3).head(w).m() - 2.0).abs() < 1e-12);
+        assert!((GaugePressure::new(-19_613.3).head(w).m() + 2.0).abs() < 1e-12);
+        let d = AbsolutePressure::new(119_613.3) - AbsolutePressure::new(100_000.0);
+        assert!((d.head(w).m() - 2.0).abs() < 1e-9);
+        assert!((Head::new(2.0).pressure(w).pa() - 19_613.3).abs() < 1e-9);
+    }
 }
