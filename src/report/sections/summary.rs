@@ -26,7 +26,7 @@ pub(super) fn summarised(design: &Design) -> bool {
 }
 
 /// A governing case: its index in the design and why it is kept.
-pub(super) struct Governing {
+pub(crate) struct Governing {
     /// Index of the case in design order.
     pub index: usize,
     /// Why it is kept: the criterion ("largest flow") and the candidate it is of
@@ -37,7 +37,7 @@ pub(super) struct Governing {
 impl Governing {
     /// The reasons in words, each criterion once with its candidates: "highest static
     /// head; largest flow of every candidate; smallest NPSH ratio of A, B".
-    fn why(&self, names: &[&str]) -> String {
+    pub(crate) fn why(&self, names: &[&str]) -> String {
         let mut kinds: Vec<(&str, Vec<&str>)> = Vec::new();
         for (kind, k) in &self.reasons {
             let at = kinds
@@ -94,7 +94,7 @@ fn extreme(
 /// first case that could not be set up or has no duty, and per candidate the
 /// smallest and largest duty flow, the largest shaft power and the smallest NPSH
 /// ratio. At most [`MAX_GOVERNING`], taken in that order of criteria.
-pub(super) fn governing(analysis: &Analysis) -> Vec<Governing> {
+pub(crate) fn governing(analysis: &Analysis) -> Vec<Governing> {
     let cases = &analysis.cases;
     let static_head = |c: &CaseResult| c.system_curve.first().map(|p| p.static_head);
     type Pick = (Option<usize>, &'static str, Option<usize>);
