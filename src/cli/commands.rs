@@ -168,17 +168,19 @@ pub fn results(
     let loaded = load_in(path, options.base_dir.as_deref(), allowed)?;
     let design = design_of(&loaded)?;
     let analysis = dutyline::analysis::analyse(design);
-    let text = match options.format {
-        Format::Json => dutyline::results::to_json(
+    match options.format {
+        // Written as it is built: a 10 000-case document is never held whole.
+        Format::Json => dutyline::results::write_json(
+            &mut *out,
             design,
             &analysis,
             &path.display().to_string(),
             &loaded.source,
             &loaded.checked.diagnostics,
-        ),
-        Format::Text => dutyline::results::to_text(design, &analysis),
-    };
-    output::text(out, &text)?;
+        )
+        .map_err(CliError::stdout)?,
+        Format::Text => output::text(out, &dutyline::results::to_text(design, &analysis))?,
+    }
     if options.exit_zero {
         return Ok(ExitCode::SUCCESS);
     }

@@ -697,7 +697,11 @@ fn capacity_range(o: &mut String, analysis: &Analysis, k: usize, u: &Units) {
         o.push_str("  capacity at the limit: —");
     }
     if none > 0 {
-        let _ = write!(o, "; none in {}", crate::display::count(none, "case", "cases"));
+        let _ = write!(
+            o,
+            "; none in {}",
+            crate::display::count(none, "case", "cases")
+        );
     }
     o.push('\n');
 }
@@ -719,10 +723,20 @@ fn requirement_tally(
         .map(|(k, p)| {
             let statuses: Vec<(usize, Option<Status>)> = (0..analysis.cases.len())
                 .filter(|i| row.applies.get(*i).copied().unwrap_or(false))
-                .map(|i| (i, row.status.get(k).and_then(|r| r.get(i)).copied().flatten()))
+                .map(|i| {
+                    (
+                        i,
+                        row.status.get(k).and_then(|r| r.get(i)).copied().flatten(),
+                    )
+                })
                 .collect();
             let mut parts = Vec::new();
-            for st in [Some(Status::Pass), Some(Status::Warn), Some(Status::Fail), None] {
+            for st in [
+                Some(Status::Pass),
+                Some(Status::Warn),
+                Some(Status::Fail),
+                None,
+            ] {
                 let n = statuses.iter().filter(|(_, s)| *s == st).count();
                 if n > 0 {
                     parts.push(format!("{n} {}", st.map_or("—", |s| s.keyword())));

@@ -116,15 +116,17 @@ pub(crate) fn governing(analysis: &Analysis) -> Vec<Governing> {
         ),
     ];
     for k in 0..analysis.candidates.len() {
-        let duty = move |c: &CaseResult| c.pumps.get(k).and_then(|r| r.duty.clone());
+        fn duty(c: &CaseResult, k: usize) -> Option<&crate::analysis::duty::Duty> {
+            c.pumps.get(k).and_then(|r| r.duty.as_ref())
+        }
         let no_duty = cases
             .iter()
             .position(|c| c.pumps.get(k).is_some_and(|r| r.duty.is_none()));
         picks.push((no_duty, "no duty point", Some(k)));
-        let flow = move |c: &CaseResult| duty(c).map(|d| d.flow);
+        let flow = move |c: &CaseResult| duty(c, k).map(|d| d.flow);
         picks.push((extreme(cases, &flow, true), "smallest flow", Some(k)));
         picks.push((extreme(cases, &flow, false), "largest flow", Some(k)));
-        let power = move |c: &CaseResult| duty(c).and_then(|d| d.shaft_power);
+        let power = move |c: &CaseResult| duty(c, k).and_then(|d| d.shaft_power);
         picks.push((
             extreme(cases, &power, false),
             "largest shaft power",
