@@ -181,10 +181,15 @@ pub fn results(
         .map_err(CliError::stdout)?,
         Format::Text => output::text(out, &dutyline::results::to_text(design, &analysis))?,
     }
-    if options.exit_zero {
-        return Ok(ExitCode::SUCCESS);
-    }
-    Ok(analysis_status(&analysis))
+    let status = if options.exit_zero {
+        ExitCode::SUCCESS
+    } else {
+        analysis_status(&analysis)
+    };
+    // The process ends next: freeing a 10 000-case analysis piece by piece took 5 % of
+    // the run (issue 17); the system takes the memory back whole.
+    std::mem::forget(analysis);
+    Ok(status)
 }
 
 /// The options of `build`.
