@@ -66,7 +66,17 @@ fn npsh_available_of_orchard_low_river_pump_a_by_hand() {
                                                                   // Term 3: suction losses at the duty flow: f L/D + Σ K, on each segment's velocity head.
     let mut friction = 0.0;
     let mut minor = 0.0;
-    for seg in case["segments"].as_array().expect("segments") {
+    // Format 2: the case's segments index the top-level descriptions; the fittings'
+    // K at the case's design flow (its first duty, pump A's) are `fittings_k`.
+    let descriptions = doc["segments"].as_array().expect("segments");
+    for (j, at) in case["segments"]
+        .as_array()
+        .expect("segments")
+        .iter()
+        .enumerate()
+    {
+        let seg = &descriptions[at.as_u64().expect("index") as usize];
+        let ks = &case["fittings_k"][j];
         if seg["side"] != "suction" {
             continue;
         }
@@ -82,7 +92,8 @@ fn npsh_available_of_orchard_low_river_pump_a_by_hand() {
             .as_array()
             .expect("fittings")
             .iter()
-            .map(|x| f(x, "count") * f(x, "k"))
+            .enumerate()
+            .map(|(m, x)| f(x, "count") * ks[m].as_f64().expect("k"))
             .sum();
         let extra: f64 = seg["losses"]
             .as_array()

@@ -168,21 +168,28 @@ pub fn results(
     let loaded = load_in(path, options.base_dir.as_deref(), allowed)?;
     let design = design_of(&loaded)?;
     let analysis = dutyline::analysis::analyse(design);
-    let text = match options.format {
-        Format::Json => dutyline::results::to_json(
+    match options.format {
+        // Written as it is built: a 10 000-case document is never held whole.
+        Format::Json => dutyline::results::write_json(
+            &mut *out,
             design,
             &analysis,
             &path.display().to_string(),
             &loaded.source,
             &loaded.checked.diagnostics,
-        ),
-        Format::Text => dutyline::results::to_text(design, &analysis),
-    };
-    output::text(out, &text)?;
-    if options.exit_zero {
-        return Ok(ExitCode::SUCCESS);
+        )
+        .map_err(CliError::stdout)?,
+        Format::Text => output::text(out, &dutyline::results::to_text(design, &analysis))?,
     }
-    Ok(analysis_status(&analysis))
+    let status = if options.exit_zero {
+        ExitCode::SUCCESS
+    } else {
+        analysis_status(&analysis)
+    };
+    // The process ends next: freeing a 10 000-case analysis piece by piece took 5 % of
+    // the run (issue 17); the system takes the memory back whole.
+    std::mem::forget(analysis);
+    Ok(status)
 }
 
 /// The options of `build`.

@@ -17,10 +17,12 @@ mod engineering;
 mod envelope;
 mod inputs;
 mod operation;
+mod pretty;
 mod safety;
+mod sources;
 
 /// The format string; changes when anything is removed or renamed.
-pub const FORMAT: &str = "dutyline-results/1";
+pub const FORMAT: &str = "dutyline-results/2";
 
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
@@ -29,7 +31,15 @@ struct Doc<'a> {
     tool_version: &'static str,
     source: Source<'a>,
     project: Project<'a>,
-    cases: Vec<Case<'a>>,
+    /// Format 2: every distinct segment description over the cases, in order of first
+    /// use; `cases[].segments` holds indices into it.
+    segments: Vec<Segment<'a>>,
+    /// Format 2: every distinct line profile (stations, ratings) over the cases;
+    /// `cases[].lines[].profile` holds an index into it.
+    line_profiles: Vec<safety::ProfileOut<'a>>,
+    /// Written case by case as the document is serialised (not held whole).
+    #[cfg_attr(test, schemars(with = "Vec<Case<'static>>"))]
+    cases: CasesOut<'a>,
     /// Added field: each candidate's published curve points and fit methods.
     candidates: Vec<inputs::Candidate<'a>>,
     /// Wave 2: each requirement across the cases, with each candidate's status.
@@ -40,6 +50,11 @@ struct Doc<'a> {
     /// Issue 14: the candidate whose duties the safety screen uses, and its shut-off.
     safety: safety::SafetyOut<'a>,
     warnings: Vec<Warn>,
+    /// Format 2: every source text (of a check's limit, a fluid's properties, a motor
+    /// efficiency) once; each such `source` field is an index into it. Serialised last,
+    /// after every field that refers to it.
+    #[cfg_attr(test, schemars(with = "Vec<String>"))]
+    sources: sources::SourcesOut,
 }
 
 #[derive(Serialize)]
@@ -76,8 +91,14 @@ struct Case<'a> {
     /// Wave 2: `new` or `aged`, the pipe condition the case's roughness comes from.
     pipe_condition: Option<&'static str>,
     static_head_m: Option<f64>,
-    segments: Vec<Segment<'a>>,
-    system_curve: Vec<Point>,
+    /// Format 2: indices into the top-level `segments`, one per segment in order.
+    segments: Vec<usize>,
+    /// Format 2: per segment, the K of one piece of each of its fittings at the case's
+    /// design flow (the first duty's flow, else the middle of the system curve); `null`
+    /// where a K is not a number.
+    fittings_k: Vec<Vec<Option<f64>>>,
+    /// Format 2: the system curve as columns (one array per quantity, equal lengths).
+    system_curve: Curve,
     pumps: Vec<Pump<'a>>,
     /// Issue 14: the safety screen of every line.
     lines: Vec<safety::LineOut<'a>>,
@@ -91,7 +112,8 @@ struct Fluid<'a> {
     density_kg_m3: f64,
     dynamic_viscosity_Pa_s: f64,
     vapor_pressure_Pa: f64,
-    source: &'a str,
+    /// Format 2: an index into the top-level `sources`.
+    source: usize,
 }
 
 #[derive(Serialize)]
@@ -104,7 +126,7 @@ struct Levels {
     destination_gauge_pressure_Pa: f64,
 }
 
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Segment<'a> {
     line: &'a str,
@@ -129,12 +151,11 @@ struct Segment<'a> {
     serves: Option<&'static str>,
 }
 
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 struct Fitting<'a> {
     name: &'a str,
     count: u32,
-    k: f64,
     /// Added fields: d_small / d_large and the total included angle of size changes.
     beta: Option<f64>,
     angle_deg: Option<f64>,
@@ -143,18 +164,18 @@ struct Fitting<'a> {
 
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
-struct Point {
-    flow_m3_s: f64,
-    head_m: f64,
-    static_head_m: f64,
-    friction_head_m: f64,
-    minor_head_m: f64,
+struct Curve {
+    flow_m3_s: Vec<f64>,
+    head_m: Vec<f64>,
+    static_head_m: Vec<f64>,
+    friction_head_m: Vec<f64>,
+    minor_head_m: Vec<f64>,
     /// Wave 2, networks only: the entry head above its zero-flow value.
     #[serde(skip_serializing_if = "Option::is_none")]
-    network_head_m: Option<f64>,
+    network_head_m: Option<Vec<f64>>,
     /// Wave 2, a source well only: its drawdown at the flow.
     #[serde(skip_serializing_if = "Option::is_none")]
-    drawdown_head_m: Option<f64>,
+    drawdown_head_m: Option<Vec<f64>>,
 }
 
 #[derive(Serialize)]
@@ -182,7 +203,8 @@ struct Pump<'a> {
     annual_volume_m3: Option<f64>,
     /// Wave 2: the flow of the arrangement at its limit (maximum speed, largest impeller).
     capacity_flow_m3_s: Option<f64>,
-    motor_efficiency_source: &'a str,
+    /// Format 2: an index into the top-level `sources`.
+    motor_efficiency_source: usize,
     warnings: Vec<String>,
     /// Wave 2, networks only: the network at the duty point.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -215,7 +237,7 @@ struct Duty<'a> {
     npsh_margin_ratio: Option<f64>,
     npsh_excess_m: Option<f64>,
     npsh_terms: engineering::NpshTermsOut,
-    segments: Vec<engineering::SegmentOut<'a>>,
+    segments: engineering::SegmentsOut,
     headroom: Option<engineering::HeadroomOut>,
     /// Wave 2, station piping only: each pump's own branches and the NPSH suction path.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -236,7 +258,8 @@ pub(super) struct CheckOut<'a> {
     value: Option<f64>,
     limit: Option<f64>,
     message: String,
-    source: &'a str,
+    /// Format 2: an index into the top-level `sources`.
+    source: usize,
     /// Wave 2: what the check is about when an id repeats per duty (the velocity's
     /// side, or the requirement as written in the design).
     subject: Option<&'a str>,
@@ -292,14 +315,58 @@ pub(super) fn finite(v: f64) -> Option<f64> {
     v.is_finite().then_some(v)
 }
 
+/// The description of one segment of a case as analysed (the top-level `segments`).
+fn segment<'a>(
+    g: &'a crate::analysis::system::SegmentState,
+    d: Option<&'a crate::model::Case>,
+) -> Segment<'a> {
+    Segment {
+        line: &g.line,
+        side: g.side.keyword(),
+        index: g.index,
+        material: g.material,
+        size: &g.size_label,
+        length_m: g.length,
+        inner_diameter_m: g.inner_diameter,
+        roughness_m: g.roughness,
+        roughness_source: &g.roughness_source,
+        friction_model: if g.hazen_williams_c.is_some() {
+            "hazen-williams"
+        } else {
+            "darcy-colebrook"
+        },
+        hazen_williams_c: g.hazen_williams_c,
+        fittings: g
+            .fittings
+            .iter()
+            .map(|f| Fitting {
+                name: f.spec.name,
+                count: f.count,
+                beta: f.beta,
+                angle_deg: f.angle_rad.map(f64::to_degrees),
+                source: f.spec.source,
+            })
+            .collect(),
+        losses: inputs::losses(d, &g.line, g.index),
+        k_total: g.k_constant,
+        equivalent_length_m: g.equivalent_length,
+        serves: g.per_pump.then_some("each_pump"),
+    }
+}
+
+/// The per-case part of a case: what the tables (`segments`, `line_profiles`) do not
+/// hold. `segments` and `profiles` are the case's indices into them.
 fn case<'a>(
     c: &'a CaseResult,
     d: Option<&'a crate::model::Case>,
     safety_case: Option<&'a crate::analysis::safety::CaseSafety>,
     units: Units,
+    refs: &CaseRefs,
 ) -> Case<'a> {
     let s = c.system.as_ref();
     let site = d.map(|d| &d.scenario.site);
+    let curve = &c.system_curve;
+    let column = |f: &dyn Fn(&crate::analysis::SystemPoint) -> f64| curve.iter().map(f).collect();
     Case {
         name: &c.name,
         overrides: &c.overrides,
@@ -311,7 +378,7 @@ fn case<'a>(
             density_kg_m3: s.fluid.density,
             dynamic_viscosity_Pa_s: s.fluid.viscosity,
             vapor_pressure_Pa: s.fluid.vapor_pressure.pa(),
-            source: &s.fluid.source,
+            source: sources::index(&s.fluid.source),
         }),
         barometric_pressure_Pa: s.map(|s| s.barometric.pa()),
         barometric_pressure_given: site.is_some_and(|x| x.barometric_pressure.is_some()),
@@ -325,66 +392,137 @@ fn case<'a>(
         }),
         pipe_condition: s.map(|s| s.pipe_condition.keyword()),
         static_head_m: s.map(|s| s.static_head),
-        segments: s
+        segments: refs.segments.clone(),
+        fittings_k: s
             .map(|s| {
+                let q = design_flow(c);
                 s.segments
                     .iter()
-                    .map(|g| Segment {
-                        line: &g.line,
-                        side: g.side.keyword(),
-                        index: g.index,
-                        material: g.material,
-                        size: &g.size_label,
-                        length_m: g.length,
-                        inner_diameter_m: g.inner_diameter,
-                        roughness_m: g.roughness,
-                        roughness_source: &g.roughness_source,
-                        friction_model: if g.hazen_williams_c.is_some() {
-                            "hazen-williams"
-                        } else {
-                            "darcy-colebrook"
-                        },
-                        hazen_williams_c: g.hazen_williams_c,
-                        fittings: g
-                            .fittings
+                    .map(|g| {
+                        let re = s.reynolds(g, q);
+                        g.fittings
                             .iter()
-                            .map(|f| Fitting {
-                                name: f.spec.name,
-                                count: f.count,
-                                k: crate::analysis::system::k_of(
-                                    f,
-                                    s.reynolds(g, design_flow(c)),
-                                    g.inner_diameter,
-                                ),
-                                beta: f.beta,
-                                angle_deg: f.angle_rad.map(f64::to_degrees),
-                                source: f.spec.source,
-                            })
-                            .collect(),
-                        losses: inputs::losses(d, &g.line, g.index),
-                        k_total: g.k_constant,
-                        equivalent_length_m: g.equivalent_length,
-                        serves: g.per_pump.then_some("each_pump"),
+                            .map(|f| finite(crate::analysis::system::k_of(f, re, g.inner_diameter)))
+                            .collect()
                     })
                     .collect()
             })
             .unwrap_or_default(),
-        system_curve: c
-            .system_curve
-            .iter()
-            .map(|p| Point {
-                flow_m3_s: p.flow,
-                head_m: p.head,
-                static_head_m: p.static_head,
-                friction_head_m: p.friction,
-                minor_head_m: p.minor,
-                network_head_m: s.and_then(|s| s.network.as_ref()).map(|_| p.network),
-                drawdown_head_m: s.and_then(|s| s.well).map(|_| p.drawdown),
-            })
-            .collect(),
+        system_curve: Curve {
+            flow_m3_s: column(&|p| p.flow),
+            head_m: column(&|p| p.head),
+            static_head_m: column(&|p| p.static_head),
+            friction_head_m: column(&|p| p.friction),
+            minor_head_m: column(&|p| p.minor),
+            network_head_m: s
+                .and_then(|s| s.network.as_ref())
+                .map(|_| column(&|p| p.network)),
+            drawdown_head_m: s.and_then(|s| s.well).map(|_| column(&|p| p.drawdown)),
+        },
         pumps: c.pumps.iter().map(|p| pump(p, units)).collect(),
-        lines: safety::lines(safety_case, units),
+        lines: safety::lines(safety_case, units, &refs.profiles),
     }
+}
+
+/// One case's indices into the document's tables.
+#[derive(Default)]
+struct CaseRefs {
+    /// Into `segments`, one per segment of the case.
+    segments: Vec<usize>,
+    /// Into `line_profiles`, one per screened line of the case.
+    profiles: Vec<usize>,
+}
+
+/// Distinct values in order of first use; `index` gives a value's position, adding
+/// it when new. Values are compared only with those of the same `key` (a segment's
+/// line and position), so a lookup is a few comparisons.
+struct Table<K, T> {
+    items: Vec<T>,
+    by_key: std::collections::HashMap<K, Vec<usize>>,
+}
+
+impl<K: std::hash::Hash + Eq, T: PartialEq> Table<K, T> {
+    fn new() -> Self {
+        Table {
+            items: Vec::new(),
+            by_key: std::collections::HashMap::new(),
+        }
+    }
+
+    fn index(&mut self, key: K, value: T) -> usize {
+        let same = self.by_key.entry(key).or_default();
+        if let Some(&i) = same.iter().find(|&&i| self.items[i] == value) {
+            return i;
+        }
+        self.items.push(value);
+        same.push(self.items.len() - 1);
+        self.items.len() - 1
+    }
+}
+
+/// The cases, built one at a time while the document is written.
+struct CasesOut<'a> {
+    analysis: &'a Analysis,
+    units: Units,
+    /// The design's case of each analysed case (by name), if any.
+    design_cases: Vec<Option<&'a crate::model::Case>>,
+    refs: Vec<CaseRefs>,
+}
+
+impl serde::Serialize for CasesOut<'_> {
+    fn serialize<S: serde::Serializer>(&self, ser: S) -> Result<S::Ok, S::Error> {
+        use serde::ser::SerializeSeq;
+        let a = self.analysis;
+        let mut seq = ser.serialize_seq(Some(a.cases.len()))?;
+        let none = CaseRefs::default();
+        for (i, c) in a.cases.iter().enumerate() {
+            let mut out = case(
+                c,
+                self.design_cases.get(i).copied().flatten(),
+                a.safety.cases.get(i),
+                self.units,
+                self.refs.get(i).unwrap_or(&none),
+            );
+            if let Some(e) = &a.envelope {
+                for (j, p) in out.pumps.iter_mut().enumerate() {
+                    if let Some(d) = &mut p.duty {
+                        d.envelope = envelope::envelope(e, i, j, self.units);
+                    }
+                }
+            }
+            seq.serialize_element(&out)?;
+        }
+        seq.end()
+    }
+}
+
+/// The document's tables (`segments`, `line_profiles`) and each case's indices into
+/// them, in one pass over the cases.
+fn tables<'a>(
+    analysis: &'a Analysis,
+    design_cases: &[Option<&'a crate::model::Case>],
+) -> (Vec<Segment<'a>>, Vec<safety::ProfileOut<'a>>, Vec<CaseRefs>) {
+    let mut segments = Table::new();
+    let mut profiles = Table::new();
+    let mut refs = Vec::with_capacity(analysis.cases.len());
+    for (i, c) in analysis.cases.iter().enumerate() {
+        let d = design_cases.get(i).copied().flatten();
+        let mut r = CaseRefs::default();
+        if let Some(s) = c.system.as_ref() {
+            for g in &s.segments {
+                r.segments
+                    .push(segments.index((g.line.as_str(), g.index), segment(g, d)));
+            }
+        }
+        if let Some(sc) = analysis.safety.cases.get(i) {
+            for l in &sc.lines {
+                r.profiles
+                    .push(profiles.index(l.name.as_str(), safety::profile(l)));
+            }
+        }
+        refs.push(r);
+    }
+    (segments.items, profiles.items, refs)
 }
 
 /// The flow at which fitting K values are reported: the first duty of the case, or
@@ -409,7 +547,7 @@ pub(super) fn check(c: &Check, units: Units) -> CheckOut<'_> {
         value: c.value.and_then(finite),
         limit: c.limit.and_then(finite),
         message: units.render(&c.message),
-        source: &c.source,
+        source: sources::index(&c.source),
         subject: c.subject.as_deref(),
     }
 }
@@ -467,7 +605,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
         running_hours_per_year: p.energy.map(|e| e.hours),
         annual_volume_m3: p.energy.map(|e| e.volume_m3),
         capacity_flow_m3_s: p.capacity_flow,
-        motor_efficiency_source: &p.motor_efficiency.1,
+        motor_efficiency_source: sources::index(&p.motor_efficiency.1),
         warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
         network: p.network.as_ref().map(engineering::network),
     }
@@ -482,6 +620,25 @@ pub fn to_json(
     source: &str,
     diagnostics: &[Diagnostic],
 ) -> String {
+    let mut out = Vec::new();
+    if let Err(e) = write_json(&mut out, design, analysis, path, source, diagnostics) {
+        return format!("{{\"error\": \"{e}\"}}\n");
+    }
+    String::from_utf8(out).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}\n"))
+}
+
+/// The results document written to `w` as it is built, case by case (a design of
+/// 10 000 cases is never held whole as text or as JSON values); `to_json` in a buffer.
+pub fn write_json<W: std::io::Write>(
+    w: W,
+    design: &Design,
+    analysis: &Analysis,
+    path: &str,
+    source: &str,
+    diagnostics: &[Diagnostic],
+) -> std::io::Result<()> {
+    use std::io::Write as _;
+    sources::reset();
     let units = Units::new(design.project.units);
     let mut warnings: Vec<Warn> = diagnostics
         .iter()
@@ -505,6 +662,14 @@ pub fn to_json(
         });
     }
     let sel = &analysis.selection;
+    let by_name: std::collections::HashMap<&str, &crate::model::Case> =
+        design.cases.iter().map(|d| (d.name.as_str(), d)).collect();
+    let design_cases: Vec<Option<&crate::model::Case>> = analysis
+        .cases
+        .iter()
+        .map(|c| by_name.get(c.name.as_str()).copied())
+        .collect();
+    let (segments, line_profiles, refs) = tables(analysis, &design_cases);
     let doc = Doc {
         format: FORMAT,
         tool_version: crate::VERSION,
@@ -519,27 +684,14 @@ pub fn to_json(
             revision: design.revisions.last().map(|r| r.id.as_str()),
             units: design.project.units.keyword(),
         },
-        cases: analysis
-            .cases
-            .iter()
-            .enumerate()
-            .map(|(i, c)| {
-                let mut out = case(
-                    c,
-                    design.cases.iter().find(|d| d.name == c.name),
-                    analysis.safety.cases.get(i),
-                    units,
-                );
-                if let Some(e) = &analysis.envelope {
-                    for (j, p) in out.pumps.iter_mut().enumerate() {
-                        if let Some(d) = &mut p.duty {
-                            d.envelope = envelope::envelope(e, i, j, units);
-                        }
-                    }
-                }
-                out
-            })
-            .collect(),
+        segments,
+        line_profiles,
+        cases: CasesOut {
+            analysis,
+            units,
+            design_cases,
+            refs,
+        },
         candidates: inputs::candidates(design, analysis),
         requirement_matrix: engineering::requirement_matrix(
             design,
@@ -583,12 +735,29 @@ pub fn to_json(
         },
         safety: safety::safety(&analysis.safety),
         warnings,
+        sources: sources::SourcesOut,
     };
-    let mut s =
-        serde_json::to_string_pretty(&doc).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
-    s.push('\n');
-    s
+    let mut w = std::io::BufWriter::with_capacity(1 << 16, w);
+    let mut ser = serde_json::Serializer::with_formatter(&mut w, pretty::Formatter::new());
+    // An I/O error keeps its kind (a closed pipe stays a closed pipe).
+    doc.serialize(&mut ser).map_err(std::io::Error::from)?;
+    w.write_all(b"\n")?;
+    w.flush()
 }
 
 #[cfg(test)]
 mod schema_tests;
+
+#[cfg(test)]
+mod table_tests {
+    #[test]
+    fn a_table_keeps_each_distinct_value_once_in_order_of_first_use() {
+        let mut t = super::Table::new();
+        assert_eq!(t.index(("a", 0), 1.5), 0);
+        assert_eq!(t.index(("a", 1), 1.5), 1, "another key is another entry");
+        assert_eq!(t.index(("a", 0), 2.5), 2);
+        assert_eq!(t.index(("a", 0), 1.5), 0);
+        assert_eq!(t.index(("a", 0), 2.5), 2);
+        assert_eq!(t.items, vec![1.5, 1.5, 2.5]);
+    }
+}

@@ -6,7 +6,7 @@ mod json;
 mod operation_text;
 mod text;
 
-pub use json::{to_json, FORMAT};
+pub use json::{to_json, write_json, FORMAT};
 pub use text::to_text;
 
 use sha2::{Digest, Sha256};

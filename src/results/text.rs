@@ -8,28 +8,18 @@ use crate::analysis::system::CaseSystem;
 use crate::analysis::{Analysis, CaseResult};
 use crate::display::{percent, Units};
 use crate::model::Design;
+use crate::report::sections::summary::SUMMARY_CASES;
 
 /// The text summary.
 pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     let u = Units::new(design.project.units);
     let mut o = String::new();
     header(&mut o, design);
-    for c in &analysis.cases {
-        let _ = writeln!(o, "\ncase {}", c.name);
-        for ov in &c.overrides {
-            let _ = writeln!(o, "  override: {ov}");
-        }
-        let Some(s) = &c.system else {
-            let _ = writeln!(
-                o,
-                "  error: {}",
-                c.error.as_deref().unwrap_or("not analysed")
-            );
-            continue;
-        };
-        case_system(&mut o, &u, c, s);
-        for r in &c.pumps {
-            pump(&mut o, &u, r);
+    if analysis.cases.len() > SUMMARY_CASES {
+        summarised_cases(&mut o, design, analysis, &u);
+    } else {
+        for c in &analysis.cases {
+            case(&mut o, &u, c, None);
         }
     }
     candidates(&mut o, design, analysis);
@@ -41,6 +31,117 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
         let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
     }
     o
+}
+
+/// One case in full: overrides, system, every candidate's duty and checks; `why` says
+/// why a summarised design shows it.
+fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>) {
+    {
+        let _ = writeln!(o, "\ncase {}", c.name);
+        if let Some(why) = why {
+            let _ = writeln!(o, "  governing: {why}");
+        }
+        for ov in &c.overrides {
+            let _ = writeln!(o, "  override: {ov}");
+        }
+        let Some(s) = &c.system else {
+            let _ = writeln!(
+                o,
+                "  error: {}",
+                c.error.as_deref().unwrap_or("not analysed")
+            );
+            return;
+        };
+        case_system(o, u, c, s);
+        for r in &c.pumps {
+            pump(o, u, r);
+        }
+    }
+}
+
+/// A design of more than [`SUMMARY_CASES`] cases (the package's threshold): the
+/// governing cases in full (the package's choice, `report::sections::summary`), then
+/// every case in one line per candidate — duty, efficiency, shaft power, NPSH ratio
+/// and the checks counted by status with the first of the worst. The JSON keeps every
+/// case's detail.
+fn summarised_cases(o: &mut String, design: &Design, analysis: &Analysis, u: &Units) {
+    let names: Vec<&str> = design.pumps.iter().map(|p| p.name.as_str()).collect();
+    let kept = crate::report::sections::summary::governing(analysis);
+    let _ = writeln!(
+        o,
+        "\nsummary: {} cases, more than {SUMMARY_CASES}: the {} governing cases in full, then every case in one line per candidate (results --format json has every case in full)",
+        analysis.cases.len(),
+        kept.len()
+    );
+    for g in &kept {
+        if let Some(c) = analysis.cases.get(g.index) {
+            case(o, u, c, Some(&g.why(&names)));
+        }
+    }
+    let (fl, hd, pw) = (u.flow(), u.head(), u.power());
+    let _ = writeln!(
+        o,
+        "\nevery case (case candidate: flow at head, efficiency, shaft power, NPSHa/NPSHr, capacity at the limit; checks):"
+    );
+    for c in &analysis.cases {
+        let Some(s) = &c.system else {
+            let _ = writeln!(
+                o,
+                "  {}: error: {}",
+                c.name,
+                c.error.as_deref().unwrap_or("not analysed")
+            );
+            continue;
+        };
+        let _ = writeln!(o, "  {}: static head {}", c.name, hd.fmt(s.static_head));
+        for r in &c.pumps {
+            let _ = write!(o, "  {} {}: ", c.name, r.name);
+            match &r.duty {
+                Some(d) => {
+                    let _ = write!(o, "{} at {}", fl.fmt(d.flow), hd.fmt(d.head));
+                    if let Some(e) = d.efficiency {
+                        let _ = write!(o, ", {}", percent(e));
+                    }
+                    if let Some(p) = d.shaft_power {
+                        let _ = write!(o, ", {}", pw.fmt(p));
+                    }
+                    if let Some(n) = d.npsh_required.filter(|n| *n > 0.0) {
+                        let _ = write!(o, ", NPSH ratio {:.2}", d.npsh_available / n);
+                    }
+                }
+                None => o.push_str("no duty point"),
+            }
+            if let Some(q) = r.capacity_flow {
+                let _ = write!(o, ", capacity {}", fl.fmt(q));
+            }
+            let _ = writeln!(o, "; {}", check_tally(&r.checks));
+        }
+    }
+}
+
+/// Checks counted by status, with the first check of the worst status that is not a
+/// pass: "9 pass, 1 warn (operating-region)".
+fn check_tally(checks: &[crate::analysis::checks::Check]) -> String {
+    use crate::analysis::checks::Status;
+    let mut out = Vec::new();
+    for st in [Status::Pass, Status::Warn, Status::Fail] {
+        let n = checks.iter().filter(|c| c.status == st).count();
+        if n > 0 {
+            out.push(format!("{n} {}", st.keyword()));
+        }
+    }
+    let worst = [Status::Fail, Status::Warn]
+        .into_iter()
+        .find_map(|st| checks.iter().find(|c| c.status == st));
+    let mut s = if out.is_empty() {
+        "no checks".to_string()
+    } else {
+        out.join(", ")
+    };
+    if let Some(w) = worst {
+        let _ = write!(s, " (first {}: {})", w.status.keyword(), w.id.as_str());
+    }
+    s
 }
 
 /// The project's lines: title, number, last revision, units.
@@ -272,6 +373,10 @@ fn safety(o: &mut String, analysis: &Analysis, u: &Units) {
         return;
     };
     let _ = writeln!(o, "\npressure and surge screening (candidate {candidate}; screening estimates, not a transient analysis):");
+    if s.cases.len() > SUMMARY_CASES {
+        safety_tally(o, analysis, u);
+        return;
+    }
     let mut any = false;
     for c in &s.cases {
         for k in c.checks.iter().filter(|k| k.status != Status::Pass) {
@@ -436,6 +541,10 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
                 u.render(&alone.check.message)
             );
         }
+        if analysis.cases.len() > SUMMARY_CASES {
+            capacity_range(o, analysis, k, &u);
+            continue;
+        }
         let caps: Vec<String> = analysis
             .cases
             .iter()
@@ -457,6 +566,10 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
         let _ = writeln!(o, "  capacity at the limit: {}", caps.join("; "));
     }
     for row in &analysis.requirement_matrix {
+        if analysis.cases.len() > SUMMARY_CASES {
+            requirement_tally(o, design, analysis, row, &u);
+            continue;
+        }
         let cells: Vec<String> = analysis
             .cases
             .iter()
@@ -545,6 +658,133 @@ fn network_detail(o: &mut String, u: &Units, n: &crate::analysis::network::stati
                 .unwrap_or_default(),
             hd.fmt(l.head_loss),
             if l.closed { " [closed]" } else { "" }
+        );
+    }
+}
+
+/// A summarised design's capacity at the limit: the smallest and largest over the
+/// cases, with the case of each.
+fn capacity_range(o: &mut String, analysis: &Analysis, k: usize, u: &Units) {
+    let fl = u.flow();
+    let caps = analysis.capacity.get(k);
+    let mut least: Option<(usize, f64)> = None;
+    let mut most: Option<(usize, f64)> = None;
+    let mut none = 0usize;
+    for i in 0..analysis.cases.len() {
+        match caps.and_then(|r| r.get(i)).copied().flatten() {
+            Some(q) if q.is_finite() => {
+                if least.is_none_or(|(_, b)| q < b) {
+                    least = Some((i, q));
+                }
+                if most.is_none_or(|(_, b)| q > b) {
+                    most = Some((i, q));
+                }
+            }
+            _ => none += 1,
+        }
+    }
+    let name = |i: usize| analysis.cases.get(i).map_or("?", |c| c.name.as_str());
+    if let (Some((a, qa)), Some((b, qb))) = (least, most) {
+        let _ = write!(
+            o,
+            "  capacity at the limit: smallest {} (case {}), largest {} (case {})",
+            fl.fmt(qa),
+            name(a),
+            fl.fmt(qb),
+            name(b)
+        );
+    } else {
+        o.push_str("  capacity at the limit: —");
+    }
+    if none > 0 {
+        let _ = write!(
+            o,
+            "; none in {}",
+            crate::display::count(none, "case", "cases")
+        );
+    }
+    o.push('\n');
+}
+
+/// A summarised design's requirement: per candidate the cases counted by status and
+/// the first case of the worst.
+fn requirement_tally(
+    o: &mut String,
+    design: &Design,
+    analysis: &Analysis,
+    row: &crate::analysis::capacity::RequirementRow,
+    u: &Units,
+) {
+    use crate::analysis::checks::Status;
+    let cells: Vec<String> = design
+        .pumps
+        .iter()
+        .enumerate()
+        .map(|(k, p)| {
+            let statuses: Vec<(usize, Option<Status>)> = (0..analysis.cases.len())
+                .filter(|i| row.applies.get(*i).copied().unwrap_or(false))
+                .map(|i| {
+                    (
+                        i,
+                        row.status.get(k).and_then(|r| r.get(i)).copied().flatten(),
+                    )
+                })
+                .collect();
+            let mut parts = Vec::new();
+            for st in [
+                Some(Status::Pass),
+                Some(Status::Warn),
+                Some(Status::Fail),
+                None,
+            ] {
+                let n = statuses.iter().filter(|(_, s)| *s == st).count();
+                if n > 0 {
+                    parts.push(format!("{n} {}", st.map_or("—", |s| s.keyword())));
+                }
+            }
+            let worst = [Some(Status::Fail), None, Some(Status::Warn)]
+                .into_iter()
+                .find_map(|st| statuses.iter().find(|(_, s)| *s == st));
+            let first = worst
+                .and_then(|(i, _)| analysis.cases.get(*i))
+                .map(|c| format!(" (first {})", c.name))
+                .unwrap_or_default();
+            format!("{} {}{first}", p.name, parts.join(", "))
+        })
+        .collect();
+    let _ = writeln!(
+        o,
+        "requirement {}: {}",
+        u.render(&row.text),
+        cells.join("; ")
+    );
+}
+
+/// A summarised design's pressure and surge screen: each check that does not pass,
+/// counted over the cases, with the first case's message.
+fn safety_tally(o: &mut String, analysis: &Analysis, u: &Units) {
+    use crate::analysis::checks::Status;
+    let mut seen: Vec<(&str, Status, usize, String)> = Vec::new();
+    for c in &analysis.safety.cases {
+        for k in c.checks.iter().filter(|k| k.status != Status::Pass) {
+            let id = k.id.as_str();
+            if let Some(x) = seen.iter_mut().find(|x| x.0 == id && x.1 == k.status) {
+                x.2 += 1;
+            } else {
+                let first = format!("first {}: {}", c.case, u.render(&k.message));
+                seen.push((id, k.status, 1, first));
+            }
+        }
+    }
+    if seen.is_empty() {
+        let _ = writeln!(o, "  every screen passes");
+    }
+    for (id, st, n, first) in seen {
+        let _ = writeln!(
+            o,
+            "  {id} {} in {}; {first}",
+            st.keyword(),
+            crate::display::count(n, "case", "cases")
         );
     }
 }

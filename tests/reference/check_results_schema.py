@@ -39,7 +39,7 @@ MUTATIONS = [
     ("/warnings/0/line", "set", 1.5),
     ("/project/revision", "set", 3),
     ("/cases/0/pumps/0/duty", "set", [1, 2]),
-    ("/cases/0/system_curve/0/head_m", "set", None),
+    ("/cases/0/system_curve/head_m/0", "set", None),
     ("/selection/recommended", "set", None),
     ("/cases/0/segments", "set", []),
 ]

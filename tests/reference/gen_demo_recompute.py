@@ -86,6 +86,8 @@ from iapws.iapws97 import _PSat_T
 from scipy.interpolate import PchipInterpolator
 from scipy.optimize import brentq
 
+from results_v2 import expand_v2  # format 2 read in the shape of format 1
+
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(os.path.dirname(HERE))
 DEMOS = [
@@ -338,7 +340,7 @@ def run_engine(demo, design_path):
         with open(path, "w") as fh:
             fh.write(text)
     with open(path) as fh:
-        return json.load(fh)
+        return expand_v2(json.load(fh))
 
 
 def main():

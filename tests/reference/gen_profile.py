@@ -30,6 +30,7 @@ from scipy.optimize import brentq, minimize_scalar
 HERE = os.path.dirname(os.path.abspath(__file__))
 sys.path.insert(0, HERE)
 from gen_demo_recompute import System, fitted  # noqa: E402
+from results_v2 import expand_v2  # noqa: E402  (format 2 read in the shape of format 1)
 
 G = 9.80665
 # As written in examples-demo/kestrel-booster.duty (profile average, pump KR1, motor).
@@ -40,7 +41,7 @@ DRIVE_FULL_LOAD = 0.97
 
 
 def main():
-    doc = json.load(open(os.path.join(HERE, "demo_kestrel-booster.json")))
+    doc = expand_v2(json.load(open(os.path.join(HERE, "demo_kestrel-booster.json"))))
     case = next(c for c in doc["cases"] if c["name"] == "average")
     sys_ = System(case)
     cand = next(c for c in doc["candidates"] if c["name"] == "KR1")

@@ -36,7 +36,7 @@ pub(crate) use setting::STATION_FIELDS;
 pub(crate) use uncertainty::{UNCERTAINTY_FIELDS, UNCERTAINTY_ITEMS};
 
 /// Most cases, lines, segments and pumps accepted (grammar/LANGUAGE.md, "Limits").
-pub const MAX_CASES: usize = 1_000;
+pub const MAX_CASES: usize = 10_000;
 /// Most pipe segments over all lines.
 pub const MAX_SEGMENTS: usize = 100;
 /// Most pump candidates.

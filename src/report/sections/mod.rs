@@ -17,7 +17,7 @@ mod operation;
 mod references;
 mod safety;
 mod selection;
-mod summary;
+pub(crate) mod summary;
 pub use summary::SUMMARY_CASES;
 pub(crate) mod sources;
 mod system_curves;

@@ -26,7 +26,7 @@ pub(super) fn summarised(design: &Design) -> bool {
 }
 
 /// A governing case: its index in the design and why it is kept.
-pub(super) struct Governing {
+pub(crate) struct Governing {
     /// Index of the case in design order.
     pub index: usize,
     /// Why it is kept: the criterion ("largest flow") and the candidate it is of
@@ -37,7 +37,7 @@ pub(super) struct Governing {
 impl Governing {
     /// The reasons in words, each criterion once with its candidates: "highest static
     /// head; largest flow of every candidate; smallest NPSH ratio of A, B".
-    fn why(&self, names: &[&str]) -> String {
+    pub(crate) fn why(&self, names: &[&str]) -> String {
         let mut kinds: Vec<(&str, Vec<&str>)> = Vec::new();
         for (kind, k) in &self.reasons {
             let at = kinds
@@ -94,7 +94,7 @@ fn extreme(
 /// first case that could not be set up or has no duty, and per candidate the
 /// smallest and largest duty flow, the largest shaft power and the smallest NPSH
 /// ratio. At most [`MAX_GOVERNING`], taken in that order of criteria.
-pub(super) fn governing(analysis: &Analysis) -> Vec<Governing> {
+pub(crate) fn governing(analysis: &Analysis) -> Vec<Governing> {
     let cases = &analysis.cases;
     let static_head = |c: &CaseResult| c.system_curve.first().map(|p| p.static_head);
     type Pick = (Option<usize>, &'static str, Option<usize>);
@@ -116,15 +116,17 @@ pub(super) fn governing(analysis: &Analysis) -> Vec<Governing> {
         ),
     ];
     for k in 0..analysis.candidates.len() {
-        let duty = move |c: &CaseResult| c.pumps.get(k).and_then(|r| r.duty.clone());
+        fn duty(c: &CaseResult, k: usize) -> Option<&crate::analysis::duty::Duty> {
+            c.pumps.get(k).and_then(|r| r.duty.as_ref())
+        }
         let no_duty = cases
             .iter()
             .position(|c| c.pumps.get(k).is_some_and(|r| r.duty.is_none()));
         picks.push((no_duty, "no duty point", Some(k)));
-        let flow = move |c: &CaseResult| duty(c).map(|d| d.flow);
+        let flow = move |c: &CaseResult| duty(c, k).map(|d| d.flow);
         picks.push((extreme(cases, &flow, true), "smallest flow", Some(k)));
         picks.push((extreme(cases, &flow, false), "largest flow", Some(k)));
-        let power = move |c: &CaseResult| duty(c).and_then(|d| d.shaft_power);
+        let power = move |c: &CaseResult| duty(c, k).and_then(|d| d.shaft_power);
         picks.push((
             extreme(cases, &power, false),
             "largest shaft power",

@@ -92,42 +92,40 @@ pub(super) fn station_piping(s: &StationPiping) -> StationPipingOut<'_> {
     }
 }
 
+/// Format 2: every segment at the duty flow as columns; element i of each array is
+/// the case's segment i (`cases[].segments[i]`, the order of the analysis).
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
-pub(super) struct SegmentOut<'a> {
-    line: &'a str,
-    side: &'static str,
-    index: usize,
-    flow_m3_s: f64,
-    velocity_m_s: f64,
-    velocity_head_m: f64,
-    reynolds: f64,
-    friction_factor: Option<f64>,
-    friction_head_m: f64,
-    minor_head_m: f64,
-    fittings_k: Vec<Option<f64>>,
+pub(super) struct SegmentsOut {
+    flow_m3_s: Vec<f64>,
+    velocity_m_s: Vec<f64>,
+    velocity_head_m: Vec<f64>,
+    reynolds: Vec<f64>,
+    friction_factor: Vec<Option<f64>>,
+    friction_head_m: Vec<f64>,
+    minor_head_m: Vec<f64>,
+    fittings_k: Vec<Vec<Option<f64>>>,
 }
 
-pub(super) fn segments(s: &[SegmentAtFlow]) -> Vec<SegmentOut<'_>> {
-    s.iter()
-        .map(|g| SegmentOut {
-            line: &g.line,
-            side: g.side.keyword(),
-            index: g.index,
-            flow_m3_s: g.flow,
-            velocity_m_s: g.velocity,
-            velocity_head_m: g.velocity_head,
-            reynolds: g.reynolds,
-            friction_factor: g.friction_factor,
-            friction_head_m: g.friction_head,
-            minor_head_m: g.minor_head,
-            fittings_k: g
-                .fittings_k
-                .iter()
-                .map(|k| k.is_finite().then_some(*k))
-                .collect(),
-        })
-        .collect()
+pub(super) fn segments(s: &[SegmentAtFlow]) -> SegmentsOut {
+    SegmentsOut {
+        flow_m3_s: s.iter().map(|g| g.flow).collect(),
+        velocity_m_s: s.iter().map(|g| g.velocity).collect(),
+        velocity_head_m: s.iter().map(|g| g.velocity_head).collect(),
+        reynolds: s.iter().map(|g| g.reynolds).collect(),
+        friction_factor: s.iter().map(|g| g.friction_factor).collect(),
+        friction_head_m: s.iter().map(|g| g.friction_head).collect(),
+        minor_head_m: s.iter().map(|g| g.minor_head).collect(),
+        fittings_k: s
+            .iter()
+            .map(|g| {
+                g.fittings_k
+                    .iter()
+                    .map(|k| k.is_finite().then_some(*k))
+                    .collect()
+            })
+            .collect(),
+    }
 }
 
 #[derive(Serialize)]

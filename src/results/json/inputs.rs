@@ -18,7 +18,7 @@ use crate::model::{CurveData, Design};
 use crate::pumps::PumpCurves;
 
 /// One `loss { ... }` entry of a segment.
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 pub(super) struct Loss<'a> {
     k: Option<f64>,

@@ -50,36 +50,46 @@ pub(super) fn safety(s: &Safety) -> SafetyOut<'_> {
     }
 }
 
-#[derive(Serialize)]
+/// Format 2: a line's profile as the top-level `line_profiles` holds it: what does not
+/// change with the duty (stations, ratings), as columns; one entry for every case
+/// whose values are equal.
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
-pub(super) struct LineOut<'a> {
+pub(super) struct ProfileOut<'a> {
     name: &'a str,
     side: &'static str,
     profile_source: &'a str,
     length_m: f64,
-    duty_flow_m3_s: Option<f64>,
-    vapour_pressure_gauge_Pa: f64,
-    profile: Vec<StationOut>,
-    minimum_duty: Option<MinimumOut>,
+    chainage_m: Vec<f64>,
+    elevation_m: Vec<f64>,
+    segment: Vec<usize>,
+    rating_Pa: Vec<Option<f64>>,
+    transient_rating_Pa: Vec<Option<f64>>,
     high_points: Vec<StationRef>,
     ratings: Vec<RatingOut<'a>>,
-    surge: Option<SurgeOut>,
-    checks: Vec<CheckOut<'a>>,
+    /// Each segment's wall data for the wave speed (`null` without a surge screen; an
+    /// entry `null` for a segment without a wall); the speeds are the case's
+    /// `surge.segment_wave_speed_m_s` and `surge.segment_lowest_wave_speed_m_s`.
+    wave_segments: Option<Vec<Option<WaveOut>>>,
 }
 
+/// Format 2: one line of one case: its profile (an index into `line_profiles`) and
+/// the pressures along it as columns, element i at the profile's station i.
 #[derive(Serialize)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
-struct StationOut {
-    chainage_m: f64,
-    elevation_m: f64,
-    segment: usize,
-    grade_duty_m: Option<f64>,
-    pressure_duty_Pa: Option<f64>,
-    pressure_static_Pa: f64,
-    pressure_shutoff_Pa: Option<f64>,
-    pressure_downsurge_Pa: Option<f64>,
-    rating_Pa: Option<f64>,
-    transient_rating_Pa: Option<f64>,
+pub(super) struct LineOut<'a> {
+    name: &'a str,
+    profile: usize,
+    duty_flow_m3_s: Option<f64>,
+    vapour_pressure_gauge_Pa: f64,
+    grade_duty_m: Vec<Option<f64>>,
+    pressure_duty_Pa: Vec<Option<f64>>,
+    pressure_static_Pa: Vec<f64>,
+    pressure_shutoff_Pa: Vec<Option<f64>>,
+    pressure_downsurge_Pa: Vec<Option<f64>>,
+    minimum_duty: Option<MinimumOut>,
+    surge: Option<SurgeOut>,
+    checks: Vec<CheckOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -90,14 +100,14 @@ struct MinimumOut {
     elevation_m: f64,
 }
 
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 struct StationRef {
     chainage_m: f64,
     elevation_m: f64,
 }
 
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 struct RatingOut<'a> {
     segment: usize,
@@ -116,15 +126,16 @@ struct SurgeOut {
     period_s: f64,
     period_lowest_s: f64,
     joukowsky_head_m: f64,
-    segments: Vec<Option<WaveOut>>,
+    /// Format 2: each segment's wave speed and lowest credible wave speed (`null` for
+    /// a segment without a wall), in the order of the profile's `wave_segments`.
+    segment_wave_speed_m_s: Vec<Option<f64>>,
+    segment_lowest_wave_speed_m_s: Vec<Option<f64>>,
     valve: Option<ValveOut>,
 }
 
-#[derive(Serialize)]
+#[derive(Serialize, PartialEq)]
 #[cfg_attr(test, derive(schemars::JsonSchema))]
 struct WaveOut {
-    wave_speed_m_s: f64,
-    lowest_wave_speed_m_s: f64,
     modulus_Pa: f64,
     poisson_ratio: f64,
     restraint_factor: f64,
@@ -143,8 +154,6 @@ struct ValveOut {
 
 fn wave(w: &SegmentWave) -> WaveOut {
     WaveOut {
-        wave_speed_m_s: w.wave_speed,
-        lowest_wave_speed_m_s: w.lowest_wave_speed,
         modulus_Pa: w.modulus,
         poisson_ratio: w.poisson,
         restraint_factor: w.restraint_factor,
@@ -156,37 +165,18 @@ fn pick(v: &Option<Vec<f64>>, i: usize) -> Option<f64> {
     v.as_ref().and_then(|v| v.get(i).copied()).and_then(finite)
 }
 
-fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety, units: Units) -> LineOut<'a> {
-    let profile = l
-        .stations
-        .iter()
-        .enumerate()
-        .map(|(i, st)| StationOut {
-            chainage_m: st.chainage,
-            elevation_m: st.elevation,
-            segment: st.segment,
-            grade_duty_m: pick(&l.grade_duty, i),
-            pressure_duty_Pa: pick(&l.pressure_duty, i),
-            pressure_static_Pa: l.pressure_static[i],
-            pressure_shutoff_Pa: pick(&l.pressure_shutoff, i),
-            pressure_downsurge_Pa: pick(&l.pressure_downsurge, i),
-            rating_Pa: l.rating_at[i],
-            transient_rating_Pa: l.transient_at[i],
-        })
-        .collect();
-    LineOut {
+/// The profile of a line (the top-level `line_profiles` entry).
+pub(super) fn profile(l: &LineSafety) -> ProfileOut<'_> {
+    ProfileOut {
         name: &l.name,
         side: l.side.keyword(),
         profile_source: &l.profile_source,
         length_m: l.length,
-        duty_flow_m3_s: c.flow,
-        vapour_pressure_gauge_Pa: l.vapour_gauge,
-        profile,
-        minimum_duty: l.min_duty().map(|(p, i)| MinimumOut {
-            pressure_Pa: p,
-            chainage_m: l.stations[i].chainage,
-            elevation_m: l.stations[i].elevation,
-        }),
+        chainage_m: l.stations.iter().map(|st| st.chainage).collect(),
+        elevation_m: l.stations.iter().map(|st| st.elevation).collect(),
+        segment: l.stations.iter().map(|st| st.segment).collect(),
+        rating_Pa: l.rating_at.clone(),
+        transient_rating_Pa: l.transient_at.clone(),
         high_points: l
             .high_points
             .iter()
@@ -210,13 +200,47 @@ fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety, units: Units) -> LineOut<'a> {
                 source: &r.source,
             })
             .collect(),
+        wave_segments: l
+            .surge
+            .as_ref()
+            .map(|s| s.segments.iter().map(|w| w.as_ref().map(wave)).collect()),
+    }
+}
+
+fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety, units: Units, profile: usize) -> LineOut<'a> {
+    let n = l.stations.len();
+    let column = |v: &Option<Vec<f64>>| (0..n).map(|i| pick(v, i)).collect();
+    LineOut {
+        name: &l.name,
+        profile,
+        duty_flow_m3_s: c.flow,
+        vapour_pressure_gauge_Pa: l.vapour_gauge,
+        grade_duty_m: column(&l.grade_duty),
+        pressure_duty_Pa: column(&l.pressure_duty),
+        pressure_static_Pa: l.pressure_static.clone(),
+        pressure_shutoff_Pa: column(&l.pressure_shutoff),
+        pressure_downsurge_Pa: column(&l.pressure_downsurge),
+        minimum_duty: l.min_duty().map(|(p, i)| MinimumOut {
+            pressure_Pa: p,
+            chainage_m: l.stations[i].chainage,
+            elevation_m: l.stations[i].elevation,
+        }),
         surge: l.surge.as_ref().map(|s| SurgeOut {
             wave_speed_m_s: s.wave_speed,
             lowest_wave_speed_m_s: s.lowest_wave_speed,
             period_s: s.period,
             period_lowest_s: s.period_lowest,
             joukowsky_head_m: s.joukowsky_head,
-            segments: s.segments.iter().map(|w| w.as_ref().map(wave)).collect(),
+            segment_wave_speed_m_s: s
+                .segments
+                .iter()
+                .map(|w| w.as_ref().map(|w| w.wave_speed))
+                .collect(),
+            segment_lowest_wave_speed_m_s: s
+                .segments
+                .iter()
+                .map(|w| w.as_ref().map(|w| w.lowest_wave_speed))
+                .collect(),
             valve: s.valve.as_ref().map(|v| ValveOut {
                 stroke_s: v.stroke,
                 effective_closure_s: v.effective,
@@ -234,8 +258,18 @@ fn line<'a>(c: &'a CaseSafety, l: &'a LineSafety, units: Units) -> LineOut<'a> {
     }
 }
 
-/// The `lines[]` of a case.
-pub(super) fn lines(c: Option<&CaseSafety>, units: Units) -> Vec<LineOut<'_>> {
-    c.map(|c| c.lines.iter().map(|l| line(c, l, units)).collect())
-        .unwrap_or_default()
+/// The `lines[]` of a case; `profiles` are the lines' indices into `line_profiles`.
+pub(super) fn lines<'a>(
+    c: Option<&'a CaseSafety>,
+    units: Units,
+    profiles: &[usize],
+) -> Vec<LineOut<'a>> {
+    c.map(|c| {
+        c.lines
+            .iter()
+            .enumerate()
+            .map(|(i, l)| line(c, l, units, profiles.get(i).copied().unwrap_or(0)))
+            .collect()
+    })
+    .unwrap_or_default()
 }

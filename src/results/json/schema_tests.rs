@@ -34,7 +34,7 @@ pub fn results_schema() -> String {
     );
     map.insert(
         "$id".into(),
-        Value::String("dutyline-results-1.schema.json".into()),
+        Value::String("dutyline-results-2.schema.json".into()),
     );
     serde_json::to_string_pretty(&schema).expect("text") + "\n"
 }

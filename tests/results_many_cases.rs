@@ -1,0 +1,127 @@
+//! Results of designs with many cases (issue 17 part C): above `SUMMARY_CASES` the
+//! text summarises (the governing cases in full, one line per case and candidate);
+//! the JSON (format 2) keeps every case, with what repeats in every case in tables
+//! referred to by index.
+
+#[path = "../benches/support/large_design.rs"]
+mod large_design;
+
+use dutyline::report::SUMMARY_CASES;
+use serde_json::Value;
+
+fn analysed(cases: usize) -> (String, dutyline::Design, dutyline::analysis::Analysis) {
+    let src = large_design::large_design(cases);
+    let checked = dutyline::check(&src, &dutyline::NoFiles);
+    assert!(!checked.has_errors(), "the generated design checks");
+    let d = checked.design.expect("design");
+    let a = dutyline::analysis::analyse(&d);
+    (src, d, a)
+}
+
+#[test]
+fn the_text_of_many_cases_is_a_line_per_case_and_candidate() {
+    let n = SUMMARY_CASES + 1;
+    let (_, d, a) = analysed(n);
+    let text = dutyline::results::to_text(&d, &a);
+    assert!(text.contains(&format!("summary: {n} cases, more than {SUMMARY_CASES}")));
+    let lines: Vec<&str> = text.lines().collect();
+    let start = lines
+        .iter()
+        .position(|l| l.starts_with("every case ("))
+        .expect("the table of every case");
+    let rows: Vec<&&str> = lines[start + 1..]
+        .iter()
+        .take_while(|l| l.starts_with("  c"))
+        .collect();
+    // One line per case (its static head) and one per case and candidate.
+    assert_eq!(rows.len(), n * (1 + d.pumps.len()));
+    let duty = rows.iter().filter(|l| l.contains(" at ")).count();
+    let with_duty: usize = a
+        .cases
+        .iter()
+        .map(|c| c.pumps.iter().filter(|p| p.duty.is_some()).count())
+        .sum();
+    assert_eq!(duty, with_duty);
+    // Full detail only for the governing cases.
+    let governing = text.matches("\n  governing: ").count();
+    assert!((2..=24).contains(&governing), "{governing}");
+    assert_eq!(text.matches("\ncase ").count(), governing);
+    // The long per-case lists are tallies.
+    assert!(text.contains("capacity at the limit: smallest"));
+    assert!(!text.contains("capacity at the limit: c0 "));
+}
+
+#[test]
+fn the_text_of_few_cases_is_in_full() {
+    let (_, d, a) = analysed(SUMMARY_CASES);
+    let text = dutyline::results::to_text(&d, &a);
+    assert!(!text.contains("summary: "));
+    assert_eq!(text.matches("\ncase ").count(), SUMMARY_CASES);
+}
+
+/// Equal to the last bits serde_json's parser keeps (its default float parsing may be
+/// one unit in the last place off).
+fn same(v: &Value, x: f64) -> bool {
+    v.as_f64()
+        .is_some_and(|y| (y - x).abs() <= 1e-15 * x.abs().max(1e-300))
+}
+
+fn index(v: &Value) -> usize {
+    v.as_u64().expect("an index") as usize
+}
+
+#[test]
+fn the_json_of_many_cases_refers_to_its_tables() {
+    let n = SUMMARY_CASES + 1;
+    let (src, d, a) = analysed(n);
+    let json = dutyline::results::to_json(&d, &a, "large.duty", &src, &[]);
+    let doc: Value = serde_json::from_str(&json).expect("json");
+    assert_eq!(doc["format"], "dutyline-results/2");
+    let segments = doc["segments"].as_array().expect("segments");
+    let profiles = doc["line_profiles"].as_array().expect("profiles");
+    let sources = doc["sources"].as_array().expect("sources");
+    // 20 segments, new or aged pipe: two descriptions of each, not one per case.
+    assert_eq!(segments.len(), 40);
+    let cases = doc["cases"].as_array().expect("cases");
+    assert_eq!(cases.len(), n);
+    for (i, case) in cases.iter().enumerate() {
+        let sys = a.cases[i].system.as_ref().expect("system");
+        let refs = case["segments"].as_array().expect("indices");
+        assert_eq!(refs.len(), sys.segments.len());
+        for (j, r) in refs.iter().enumerate() {
+            let s = &segments[index(r)];
+            assert_eq!(s["line"], sys.segments[j].line.as_str());
+            assert_eq!(index(&s["index"]), sys.segments[j].index);
+            assert!(same(&s["roughness_m"], sys.segments[j].roughness));
+        }
+        let curve = &case["system_curve"];
+        assert!(same(&curve["head_m"][3], a.cases[i].system_curve[3].head));
+        for (k, p) in case["pumps"].as_array().expect("pumps").iter().enumerate() {
+            let r = &a.cases[i].pumps[k];
+            for (c, check) in p["checks"].as_array().expect("checks").iter().enumerate() {
+                assert_eq!(
+                    sources[index(&check["source"])],
+                    r.checks[c].source.as_str()
+                );
+            }
+            if let Some(duty) = r.duty.as_ref() {
+                let cols = &p["duty"]["segments"];
+                for (j, g) in duty.segments.iter().enumerate() {
+                    assert!(same(&cols["reynolds"][j], g.reynolds));
+                    assert!(same(&cols["friction_head_m"][j], g.friction_head));
+                }
+            }
+        }
+        for (l, line) in case["lines"].as_array().expect("lines").iter().enumerate() {
+            let screened = &a.safety.cases[i].lines[l];
+            let profile = &profiles[index(&line["profile"])];
+            assert_eq!(profile["name"], screened.name.as_str());
+            let stations = profile["chainage_m"].as_array().expect("chainages");
+            assert_eq!(stations.len(), screened.stations.len());
+            assert_eq!(
+                line["pressure_static_Pa"].as_array().map(Vec::len),
+                Some(stations.len())
+            );
+        }
+    }
+}
