@@ -790,12 +790,7 @@ pub fn evaluate(
     let efficiency = scaled.eval_efficiency(qp).filter(|e| *e > 0.0);
     let shaft_power = arrangement_power(&scaled, rho, par, ser, q);
     let bep = cc.evaluated_bep.map(|b| scaled.bep_flow(b.flow));
-    if let (false, Some(b)) = (sys.fluid.is_water(), cc.evaluated_bep) {
-        let (q_w, h_w) = (b.flow * scaled.flow_scale(), b.head * scaled.head_scale());
-        let nu = sys.fluid.kinematic_viscosity();
-        let w = pumps::viscosity_warning(nu, q_w, h_w, scaled.speed_rpm());
-        out.warnings.extend(w.into_iter().map(Message::text));
-    }
+    out.warnings.extend(viscosity_warning(sys, cc, &scaled));
     let station = station_piping(sys, q, qp);
     let branch = station
         .as_ref()
@@ -968,6 +963,19 @@ pub fn fixed_volume(design: &Design, case: &Case) -> Option<f64> {
     let hours = case.scenario.hours_per_year.get::<uom::si::time::hour>();
     let q = required_flow(design, &case.name)?;
     (hours > 0.0 && q > 0.0).then_some(hours * 3600.0 * q)
+}
+
+/// The ANSI/HI 9.6.7 warning of a liquid other than water, from the water BEP of the
+/// candidate at this speed and impeller ([`pumps::viscosity_warning`]).
+fn viscosity_warning(
+    sys: &CaseSystem,
+    cc: &CandidateCurves,
+    scaled: &ScaledPump,
+) -> Option<Message> {
+    let b = cc.evaluated_bep.filter(|_| !sys.fluid.is_water())?;
+    let (q_w, h_w) = (b.flow * scaled.flow_scale(), b.head * scaled.head_scale());
+    let nu = sys.fluid.kinematic_viscosity();
+    pumps::viscosity_warning(nu, q_w, h_w, scaled.speed_rpm()).map(Message::text)
 }
 
 /// The candidate's curve `base` at `speed` and `diameter` ratios on the case's liquid:
