@@ -271,6 +271,7 @@ pub fn solve_case(
         net: &net,
         wells: &wells,
         names: &names,
+        entry: &layout.entry,
     };
     let pumps = design
         .pumps
@@ -288,6 +289,8 @@ struct Field<'a> {
     wells: &'a [network::field::FieldWell],
     /// The well (tank) of each well pump.
     names: &'a [String],
+    /// The first well pump's collector node (where a valve's branch walk stops).
+    entry: &'a str,
 }
 
 /// One candidate at every well of the case.
@@ -348,6 +351,20 @@ fn evaluate(
         }
     };
     out.count = par * wells.len() as u32;
+    if let Ok(full) = network::field::field_network_set(net, wells, &set) {
+        let at = at_duty(&full, &sol, sys.barometric.pa());
+        let entry = full
+            .nodes
+            .iter()
+            .position(|n| n.name == f.entry)
+            .unwrap_or(0);
+        out.checks.extend(network::checks::node_checks(&at));
+        out.checks
+            .extend(network::checks::requirement_checks(design, &case.name, &at));
+        out.checks
+            .extend(network::valves::valve_checks_in(&full, entry, &at));
+        out.network = Some(at);
+    }
     out.wells = well_duties(design, f, &sol, &scaled, cc, p, (par, ser));
     for w in &out.wells {
         for c in checks::pump_checks(design, case, &w.duty, p) {
@@ -583,5 +600,101 @@ fn largest_per_well(cases: &[super::CaseResult], sizing: &mut [Option<super::mot
                 }
             }
         }
+    }
+}
+
+/// The field's network at the candidate's duty: every node's head and pressure with the
+/// flags of [`network::station::NodeAtDuty`] (the same rules as a station's network:
+/// below the required pressure, below atmospheric, within
+/// [`NEAR_VAPOUR_HEAD_M`](network::station::NEAR_VAPOUR_HEAD_M) of the vapour pressure),
+/// and every link's flow; `station_flow` is the field's total.
+fn at_duty(net: &Network, sol: &FieldSolution, barometric: f64) -> network::station::NetworkAtDuty {
+    use network::station::{LinkAtDuty, NodeAtDuty, NEAR_VAPOUR_HEAD_M};
+    let rho_g = net.fluid.density * G;
+    let sol_net = &sol.network;
+    // Each well's pumping-level node (the one after its static level) and its surface
+    // pressure, Pa.
+    let pumping_levels: std::collections::HashMap<usize, f64> = net
+        .nodes
+        .iter()
+        .enumerate()
+        .filter_map(|(i, n)| match n.kind {
+            NodeKind::FixedHead {
+                surface_pressure, ..
+            } if i + 1 < net.nodes.len() && n.name.ends_with(" static level") => {
+                Some((i + 1, surface_pressure))
+            }
+            _ => None,
+        })
+        .collect();
+    let nodes = net
+        .nodes
+        .iter()
+        .enumerate()
+        .map(|(i, n)| {
+            let st = sol_net.nodes[i];
+            let fixed = matches!(n.kind, NodeKind::FixedHead { .. });
+            let inflow = fixed.then(|| {
+                net.links
+                    .iter()
+                    .zip(&sol_net.links)
+                    .map(|(l, x)| match (l.to == i, l.from == i) {
+                        (true, _) => x.flow,
+                        (_, true) => -x.flow,
+                        _ => 0.0,
+                    })
+                    .sum()
+            });
+            let demand = match n.kind {
+                NodeKind::Junction { demand } => demand,
+                NodeKind::FixedHead { .. } => 0.0,
+            };
+            // A well's pumping level is a free surface at the solved head (less its
+            // surface pressure's head): its pressure is the surface's, never a vacuum.
+            let surface = pumping_levels.get(&i).copied();
+            let (elevation, pressure) = match surface {
+                Some(p) => (st.head - p / rho_g, p),
+                None => (n.elevation, st.pressure),
+            };
+            let fixed = fixed || surface.is_some();
+            NodeAtDuty {
+                name: n.name.clone(),
+                kind: n.word,
+                elevation,
+                head: st.head,
+                pressure,
+                demand,
+                inflow,
+                required_pressure: n.required_pressure,
+                below_required: n.required_pressure.is_some_and(|r| st.pressure < r),
+                below_atmospheric: !fixed && st.pressure < 0.0,
+                near_vapour: !fixed
+                    && st.pressure + barometric
+                        < net.fluid.vapor_pressure.pa() + NEAR_VAPOUR_HEAD_M * rho_g,
+            }
+        })
+        .collect();
+    let links = net
+        .links
+        .iter()
+        .zip(&sol_net.links)
+        .map(|(l, x)| LinkAtDuty {
+            name: l.name.clone(),
+            kind: l.element.kind(),
+            from: net.nodes[l.from].name.clone(),
+            to: net.nodes[l.to].name.clone(),
+            // A flow at rounding level is shown as zero (never "-0").
+            flow: if x.flow.abs() < 1e-12 { 0.0 } else { x.flow },
+            velocity: x.velocity.map(|v| if v < 1e-12 { 0.0 } else { v }),
+            head_loss: x.head_loss,
+            closed: x.closed,
+        })
+        .collect();
+    network::station::NetworkAtDuty {
+        station_flow: sol.total_flow,
+        nodes,
+        links,
+        iterations: sol_net.iterations,
+        demand_scale: None,
     }
 }

@@ -18,6 +18,7 @@ mod envelope;
 mod inputs;
 mod operation;
 mod safety;
+mod well_field;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/1";
@@ -187,6 +188,9 @@ struct Pump<'a> {
     /// Wave 2, networks only: the network at the duty point.
     #[serde(skip_serializing_if = "Option::is_none")]
     network: Option<engineering::NetworkOut<'a>>,
+    /// Well fields only: the candidate at each running well pump (`duty` is the field's total).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    wells: Vec<well_field::WellOut<'a>>,
 }
 
 #[derive(Serialize)]
@@ -470,6 +474,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
         motor_efficiency_source: &p.motor_efficiency.1,
         warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
         network: p.network.as_ref().map(engineering::network),
+        wells: well_field::wells(&p.wells),
     }
 }
 

@@ -186,9 +186,23 @@ fn lower_well_pump(
     let mut ok = true;
     if !known.tanks.iter().any(|t| t.name == from.0) {
         let tank_names: Vec<String> = known.tanks.iter().map(|t| t.name.clone()).collect();
+        let near = crate::names::nearest(&from.0, tank_names.iter().map(|n| n.as_str()));
         diags.push(
-            unknown_node(&from.0, from.1, &tank_names)
-                .with_label("a well pump draws from a tank (a well or a sump)"),
+            Diagnostic::error(
+                Code::UnknownName,
+                format!(
+                    "there is no tank `{}` for well pump `{name}` to draw from",
+                    from.0
+                ),
+                Some(from.1),
+            )
+            .with_label("a well pump draws from a tank (a well, or a sump without `drawdown`)")
+            .with_help(if near.is_empty() {
+                "define the well with `tank NAME { level = ..., drawdown = ..., test_flow = ... }`"
+                    .to_string()
+            } else {
+                format!("did you mean {}?", crate::model::eval::quote_list(&near))
+            }),
         );
         ok = false;
     }
