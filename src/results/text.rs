@@ -27,7 +27,11 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
             );
             continue;
         };
-        case_system(&mut o, &u, c, s);
+        if super::well_field_text::is_field(design) {
+            super::well_field_text::case_field(&mut o, &u, c, s);
+        } else {
+            case_system(&mut o, &u, c, s);
+        }
         for r in &c.pumps {
             pump(&mut o, &u, r);
         }
@@ -173,6 +177,7 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult) {
                     vel.fmt(v2)
                 );
             }
+            super::well_field_text::wells(o, u, r);
             if let Some(n) = &r.network {
                 network_detail(o, u, n);
             }
