@@ -234,3 +234,84 @@ fn schematic(blocks: &mut Vec<Block>, case: &str, pump: &str, at: &NetworkAtDuty
         ),
     });
 }
+
+/// The design basis of a well field (in place of the chain's levels and segments): each
+/// well pump with its well's static level and drawdown test, its setting, and its
+/// suction and discharge runs as written (the base design; cases may change them).
+pub(super) fn design_basis(blocks: &mut Vec<Block>, design: &Design, units: &Units) {
+    use uom::si::{length::meter, volume_rate::cubic_meter_per_second};
+    let Some(layout) = &design.base.network else {
+        return;
+    };
+    let (fl, hd, el, len) = (
+        units.flow(),
+        units.head(),
+        units.elevation(),
+        units.length(),
+    );
+    let base = &design.base;
+    let tank = |name: &str| {
+        [&base.source, &base.destination]
+            .into_iter()
+            .chain(&layout.tanks)
+            .find(|t| t.name == name)
+    };
+    let run = |segs: &[crate::model::Segment]| {
+        if segs.is_empty() {
+            return "none".to_string();
+        }
+        segs.iter()
+            .map(|s| {
+                format!(
+                    "{} {}, {}",
+                    s.material.keyword(),
+                    s.size_label,
+                    len.fmt(s.length.get::<meter>())
+                )
+            })
+            .collect::<Vec<_>>()
+            .join("; ")
+    };
+    blocks.push(Block::heading(2, "Wells and well pumps"));
+    let rows = layout
+        .wells
+        .iter()
+        .map(|w| {
+            let t = tank(&w.well);
+            let level = t.map_or("–".into(), |t| el.figure(t.level.get::<meter>()));
+            let test = t
+                .and_then(|t| Some((t.drawdown?, t.test_flow?, t.well_loss)))
+                .map_or("none (a sump)".to_string(), |(d, q, l)| {
+                    format!(
+                        "{} at {}{}",
+                        hd.fmt(d.get::<meter>()),
+                        fl.fmt(q.get::<cubic_meter_per_second>()),
+                        l.map(|l| format!(", well loss {}", hd.fmt(l.get::<meter>())))
+                            .unwrap_or_default()
+                    )
+                });
+            vec![
+                format!("{} ({} → {})", w.name, w.well, w.to),
+                level,
+                test,
+                el.figure(w.elevation.get::<meter>()),
+                run(&w.suction),
+                run(&w.discharge),
+            ]
+        })
+        .collect();
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Well pump (well → node)", 0.18, Align::Left),
+            Column::new(format!("Static level ({})", el.label), 0.10, Align::Right),
+            Column::new("Drawdown test", 0.22, Align::Left),
+            Column::new(format!("Setting ({})", el.label), 0.10, Align::Right),
+            Column::new("Suction run", 0.18, Align::Left),
+            Column::new("Discharge run", 0.22, Align::Left),
+        ],
+        rows,
+        caption: Some(
+            "The well pumps of the base design: each well's static level and drawdown test, the pump's setting (its suction datum) and its own piping; the collector's links are in the Network chapter".into(),
+        ),
+    });
+}
