@@ -176,6 +176,7 @@ pub fn analyse(design: &Design) -> Analysis {
     let mut motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
     well_field::motor_checks_per_well(design, &mut cases, &mut motor_sizing);
     let field = well_field::is_field(&design.base);
+    warnings.extend(well_field::unused_inputs(design));
     let one_alone = if field {
         vec![None; candidates.len()]
     } else {

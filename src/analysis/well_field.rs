@@ -248,6 +248,29 @@ fn stand_in(s: &Scenario) -> Scenario {
     t
 }
 
+/// A well-field design's inputs that its analysis does not use (module doc): a warning
+/// each, so nothing is dropped silently.
+pub fn unused_inputs(design: &Design) -> Vec<super::Warning> {
+    if !is_field(&design.base) {
+        return Vec::new();
+    }
+    let mut out = Vec::new();
+    let mut warn = |what: &str, span| {
+        out.push(super::Warning {
+            code: crate::diagnostics::Code::WellFieldNotAnalysed,
+            message: format!("{what} is not computed for a well field in this version").into(),
+            span,
+        })
+    };
+    if let Some(u) = &design.uncertainty {
+        warn("the duty envelope (`uncertainty`)", u.span);
+    }
+    if let Some(p) = design.operation.profiles.first() {
+        warn("the yearly operation (`load_profile`)", Some(p.span));
+    }
+    out
+}
+
 /// One case of a well-field design: its stand-in system (fluid, barometric pressure)
 /// and every candidate at every well.
 pub fn solve_case(
@@ -302,7 +325,7 @@ fn evaluate(
     cc: &CandidateCurves,
 ) -> PumpResult {
     let (sys, net, wells) = (f.sys, f.net, f.wells);
-    let (par, ser) = duty::stages(p);
+    let (par, ser) = duty::stages_in(p, case);
     let mut out = duty::new_result(design, p, par);
     let fail = |out: &mut PumpResult, why: Message| {
         out.checks.push(Check::typed(
@@ -332,6 +355,11 @@ fn evaluate(
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     out.warnings
         .extend(scaled.warnings().iter().map(Message::text));
+    if !matches!(p.adjust, crate::model::Adjust::None) {
+        out.warnings.push(Message::text(
+            "`adjust` is not applied in a well field: every well pump runs at the case's speed with the evaluated impeller",
+        ));
+    }
     let (_, q_end) = scaled.domain();
     let set = network::PumpSet {
         curve: Arc::new(CandidateHead {
