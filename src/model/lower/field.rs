@@ -105,6 +105,9 @@ pub fn lower_field(
             wells.push(w);
         }
     }
+    if let Some(over) = wells.get(MAX_NETWORK_ITEMS) {
+        diags.push(too_many("well pumps", wells.len(), over.span));
+    }
     well_loops(&wells, &links, diags);
     unused_nodes(&nodes, &links, &wells, diags);
     let first = wells.first()?;
