@@ -80,17 +80,22 @@ struct CandidateHead {
 }
 
 impl CandidateHead {
-    fn scaled(&self) -> Option<ScaledPump<'_>> {
-        ScaledPump::new(&self.curves, self.speed_ratio, self.diameter_ratio).ok()
+    /// N·D, the flow factor of the affinity laws ([`ScaledPump::flow_scale`]).
+    fn flow_scale(&self) -> f64 {
+        self.speed_ratio * self.diameter_ratio
     }
 }
 
 impl HeadCurve for CandidateHead {
+    /// H(q) = (N·D)²·H₀(q/(N·D)), as [`ScaledPump::eval_head`].
     fn head(&self, q: f64) -> f64 {
-        self.scaled().map_or(0.0, |s| s.eval_head(q))
+        let k = self.flow_scale();
+        k * k * self.curves.head.eval(q / k)
     }
+    /// dH/dq = (N·D)·H₀′(q/(N·D)), as [`ScaledPump::head_derivative`].
     fn slope(&self, q: f64) -> f64 {
-        self.scaled().map_or(0.0, |s| s.head_derivative(q))
+        let k = self.flow_scale();
+        k * self.curves.head.derivative(q / k)
     }
     fn max_flow(&self) -> f64 {
         self.max_flow
@@ -359,6 +364,17 @@ fn evaluate(
         out.warnings.push(Message::text(
             "`adjust` is not applied in a well field: every well pump runs at the case's speed with the evaluated impeller",
         ));
+    }
+    // The viscous-liquid screen (ANSI/HI 9.6.7) at the best efficiency point, as for a
+    // station's duty.
+    let bep = cc.evaluated_bep.map(|b| b.flow * scaled.flow_scale());
+    if let (false, Some(b)) = (
+        matches!(case.scenario.fluid, crate::model::Fluid::Water { .. }),
+        bep,
+    ) {
+        let nu = sys.fluid.viscosity / sys.fluid.density;
+        let w = crate::pumps::viscosity_warning(nu, b, scaled.eval_head(b), scaled.speed_rpm());
+        out.warnings.extend(w.into_iter().map(Message::text));
     }
     let (_, q_end) = scaled.domain();
     let set = network::PumpSet {

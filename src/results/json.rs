@@ -189,8 +189,8 @@ struct Pump<'a> {
     #[serde(skip_serializing_if = "Option::is_none")]
     network: Option<engineering::NetworkOut<'a>>,
     /// Well fields only: the candidate at each running well pump (`duty` is the field's total).
-    #[serde(skip_serializing_if = "Vec::is_empty")]
-    wells: Vec<well_field::WellOut<'a>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    wells: Option<Vec<well_field::WellOut<'a>>>,
 }
 
 #[derive(Serialize)]
@@ -474,7 +474,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
         motor_efficiency_source: &p.motor_efficiency.1,
         warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
         network: p.network.as_ref().map(engineering::network),
-        wells: well_field::wells(&p.wells),
+        wells: (!p.wells.is_empty()).then(|| well_field::wells(&p.wells)),
     }
 }
 
