@@ -246,3 +246,59 @@ fn the_test_design_builds_its_package() {
         2
     );
 }
+
+#[test]
+fn a_pump_that_cannot_lift_against_the_collector_fails_its_duty_at_that_well() {
+    let f = field("twin_wells");
+    // Well b 60 m deeper: the pump's 90 m shut-off cannot reach the collector's head,
+    // so its check valve stays shut and well a carries the field alone.
+    let extra = "case deep { hours = 100 h, well_b.level = 10 m }\n";
+    let (design, an) = analysed(&design_of(&f, extra));
+    let p = pump(&an, "deep");
+    let b = p.wells.iter().find(|w| w.name == "b").unwrap();
+    assert!(b.closed, "{b:?}");
+    assert!(b.duty.flow.abs() < 1e-9);
+    let duty_b = p
+        .checks
+        .iter()
+        .find(|c| c.id == CheckId::DutyPoint && c.subject.as_deref() == Some("b"))
+        .unwrap();
+    assert_eq!(duty_b.status, dutyline::analysis::checks::Status::Fail);
+    let total = p.duty.as_ref().unwrap().flow;
+    assert!((total - p.wells[0].duty.flow).abs() < 1e-12);
+    let src = design_of(&f, extra);
+    let json = dutyline::results::to_json(&design, &an, "deep.duty", &src, &[]);
+    let v: serde_json::Value =
+        serde_json::from_str(&json).expect("valid JSON, every number finite");
+    assert!(v["cases"][0]["pumps"][0]["wells"][1]["closed"]
+        .as_bool()
+        .unwrap());
+    // serde_json writes a non-finite number as null: the closed well's numbers are finite.
+    let wb = &v["cases"][0]["pumps"][0]["wells"][1];
+    for key in [
+        "flow_m3_s",
+        "head_m",
+        "npsh_available_m",
+        "pumping_level_m",
+        "hydraulic_power_W",
+    ] {
+        assert!(wb[key].as_f64().is_some_and(f64::is_finite), "{key}: {wb}");
+    }
+}
+
+#[test]
+fn a_flow_requirement_at_the_reservoir_reads_the_field_total() {
+    let f = field("twin_wells");
+    let extra = "case design { hours = 100 h }\nrequire { flow at reservoir >= 60 L/s }\n";
+    let (_, an) = analysed(&design_of(&f, extra));
+    let p = pump(&an, "design");
+    let c = p
+        .checks
+        .iter()
+        .find(|c| c.id == CheckId::Requirement)
+        .unwrap();
+    // The twin field delivers about 40.8 L/s: below the 60 L/s asked.
+    assert_eq!(c.status, dutyline::analysis::checks::Status::Fail);
+    let q = c.value.unwrap();
+    assert!((q - p.duty.as_ref().unwrap().flow).abs() < 1e-9, "{q}");
+}
