@@ -106,6 +106,23 @@ fn well_table(
         2,
         format!("Wells, case {case}, pump {}", p.name),
     ));
+    let terms = p
+        .wells
+        .iter()
+        .map(|w| {
+            let t = &w.duty.npsh_terms;
+            vec![
+                w.name.clone(),
+                hd.figure(t.barometric_head),
+                hd.figure(t.surface_pressure_head),
+                hd.figure(t.static_suction_head),
+                hd.figure(t.vapour_pressure_head),
+                hd.figure(t.suction_friction_head),
+                hd.figure(t.suction_minor_head),
+                hd.figure(w.duty.npsh_available),
+            ]
+        })
+        .collect();
     blocks.push(Block::Table {
         columns: vec![
             Column::new("Well pump (well)", 0.16, Align::Left),
@@ -124,6 +141,23 @@ fn well_table(
         caption: Some(format!(
             "Each well pump at its duty, case {case}, pump {}: static and pumping levels, drawdown at the well's flow, NPSH available against required{total}",
             p.name
+        )),
+    });
+    blocks.push(Block::Table {
+        columns: vec![
+            Column::new("Well pump", 0.16, Align::Left),
+            Column::new("Barometric", 0.12, Align::Right),
+            Column::new("Surface gauge", 0.12, Align::Right),
+            Column::new("Static suction", 0.12, Align::Right),
+            Column::new("Vapour pressure", 0.12, Align::Right),
+            Column::new("Suction friction", 0.12, Align::Right),
+            Column::new("Suction minor", 0.12, Align::Right),
+            Column::new("NPSHa", 0.12, Align::Right),
+        ],
+        rows: terms,
+        caption: Some(format!(
+            "NPSH available term by term per well pump, case {case}, pump {} (heads in {} of the case's fluid, signed as they add; static suction = pumping level − the pump's setting)",
+            p.name, hd.label
         )),
     });
 }
