@@ -16,12 +16,13 @@ impl dutyline::FileAccess for DemoFiles {
     }
 }
 
-const DEMOS: [&str; 5] = [
+const DEMOS: [&str; 6] = [
     "orchard-lift-rev-a",
     "orchard-lift-rev-b",
     "kestrel-booster",
     "hillside-district",
     "wrenfield-chilled-water",
+    "cedar-flats-well-field",
 ];
 
 struct Package {

@@ -29,6 +29,7 @@ fn every_key_of_the_demo_documents_is_in_docs_results_json() {
         "kestrel-booster",
         "hillside-district",
         "wrenfield-chilled-water",
+        "cedar-flats-well-field",
     ] {
         let path = format!("{}/examples-demo/{demo}.duty", env!("CARGO_MANIFEST_DIR"));
         let src = std::fs::read_to_string(&path).expect("demo");

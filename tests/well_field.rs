@@ -66,6 +66,7 @@ fn build(f: &serde_json::Value) -> (Network, Vec<FieldWell>) {
             FieldWell {
                 name: w["name"].as_str().unwrap().into(),
                 static_level: n("static_level_m"),
+                surface_pressure: 0.0,
                 drawdown: WellDrawdown {
                     drawdown: n("drawdown_m"),
                     test_flow: n("test_flow_m3_s"),

@@ -162,6 +162,32 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) ->
     out
 }
 
+/// The checks of one pump set at its own duty, without the design's requirements: the
+/// same rules as [`duty_checks`] (operating region, NPSH margin, velocities, minimum
+/// flow), for a well field's pumps, where the requirements apply to the field's total
+/// ([`requirement_checks`]).
+pub fn pump_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) -> Vec<Check> {
+    let mut out = vec![operating_region(d)];
+    out.push(npsh_margin(
+        d.npsh_available,
+        d.npsh_required,
+        npsh_limits(design, case),
+    ));
+    out.extend(velocity_checks(d, design.project.units));
+    out.extend(minimum_flow(d, p));
+    out
+}
+
+/// The design's requirements that apply to `case`, checked against a duty.
+pub fn requirement_checks(design: &Design, case: &Case, d: &Duty) -> Vec<Check> {
+    design
+        .requirements
+        .iter()
+        .filter(|r| applies(r, case))
+        .map(|r| requirement_check(r, d))
+        .collect()
+}
+
 /// Flow per pump against the stated minimum continuous flow (the manufacturer's
 /// value; running below it overheats the liquid and loads the bearings, common practice).
 fn minimum_flow(d: &Duty, p: &PumpCandidate) -> Option<Check> {

@@ -444,6 +444,9 @@ pub struct PumpResult {
     /// With station piping only: NPSH available per pump at each flow of the case's
     /// system curve (m, the set's flow shared by the pumps in parallel); else empty.
     pub npsh_available_curve: Vec<f64>,
+    /// A well field only: the candidate at each well at its own duty (`duty` is then the
+    /// field's total, see [`crate::analysis::well_field`]); else empty.
+    pub wells: Vec<crate::analysis::well_field::WellDuty>,
 }
 
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
@@ -837,7 +840,7 @@ pub fn evaluate(
 
 /// A candidate's result before its duty: name, arrangement, rated speed, the motor
 /// efficiency and its source; nothing solved yet.
-fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> PumpResult {
+pub(crate) fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> PumpResult {
     let motor_efficiency = match design.motor.efficiency {
         Some(e) => (e, "given in the design".to_string()),
         None => (
@@ -866,6 +869,7 @@ fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> PumpResult {
         motor_efficiency,
         network: None,
         npsh_available_curve: Vec::new(),
+        wells: Vec::new(),
         headroom: None,
         capacity_flow: None,
         affinity_scale: 1.0,

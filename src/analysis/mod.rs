@@ -21,6 +21,7 @@ pub mod selection;
 pub mod stability;
 pub mod system;
 pub mod system_table;
+pub mod well_field;
 
 use crate::model::{ArrangementKind, Design, Side};
 pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
@@ -167,10 +168,20 @@ pub fn analyse(design: &Design) -> Analysis {
         });
     }
     let flow_max = flow_range(design, &cases);
-    tabulate_cases(&mut cases, flow_max);
+    // A well field has no single station flow, so no system curve (`well_field`).
+    if !well_field::is_field(&design.base) {
+        tabulate_cases(&mut cases, flow_max);
+    }
     warnings.extend(system_warnings(design, &cases));
-    let motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
-    let one_alone = parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases);
+    let mut motor_sizing = motor::motor_pass(design, &candidates, &mut cases, &mut warnings);
+    well_field::motor_checks_per_well(design, &mut cases, &mut motor_sizing);
+    let field = well_field::is_field(&design.base);
+    warnings.extend(well_field::unused_inputs(design));
+    let one_alone = if field {
+        vec![None; candidates.len()]
+    } else {
+        parallel::one_pump_alone(design, &candidates, &motor_sizing, &mut cases)
+    };
     warnings.extend(capacity::governing_warnings(design, &cases));
     let rising = stability::rising_regions(&candidates);
     warnings.extend(stability::unstable_warnings(
@@ -181,12 +192,17 @@ pub fn analyse(design: &Design) -> Analysis {
     ));
     let mut selection = selection::rank(design, &cases);
     stability::annotate_selection(&mut selection, design, &rising);
-    let safety = safety::screen(
-        design,
-        &cases,
-        &candidates,
-        selection.recommended.as_deref(),
-    );
+    // A well field has no station line to screen (module doc of `well_field`).
+    let safety = if field {
+        safety::Safety::default()
+    } else {
+        safety::screen(
+            design,
+            &cases,
+            &candidates,
+            selection.recommended.as_deref(),
+        )
+    };
     for c in &safety.cases {
         for n in &c.notes {
             warnings.push(Warning {
@@ -196,8 +212,14 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
-    let envelope = envelope::analyse(design, &cases, &candidates, &motor_sizing, &mut warnings);
-    let yearly = operation::analyse(design, &cases, &candidates, &motor_sizing);
+    let (envelope, yearly) = if field {
+        (None, Vec::new())
+    } else {
+        (
+            envelope::analyse(design, &cases, &candidates, &motor_sizing, &mut warnings),
+            operation::analyse(design, &cases, &candidates, &motor_sizing),
+        )
+    };
     if !yearly.is_empty() {
         selection::rank_by_profile(design, &mut selection, &yearly);
     }
@@ -309,6 +331,9 @@ fn solve_case(
     case: &crate::model::Case,
     candidates: &[duty::CandidateCurves],
 ) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
+    if well_field::is_field(&case.scenario) {
+        return well_field::solve_case(design, case, candidates);
+    }
     if closed_loop::is_closed_loop(&case.scenario)
         && case.scenario.source.reference.on_discharge.is_some()
     {
@@ -366,7 +391,7 @@ fn system_warnings(design: &Design, cases: &[CaseResult]) -> Vec<Warning> {
             });
         }
     }
-    for c in cases {
+    for c in cases.iter().filter(|_| !well_field::is_field(base)) {
         if let Some(s) = &c.system {
             if s.static_head <= 0.0 && open {
                 out.push(Warning {

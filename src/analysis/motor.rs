@@ -228,7 +228,7 @@ fn size(
 /// alone, a low static head); warn when the run-out is above the nameplate but within
 /// the service factor (NEMA MG 1: margin for abnormal conditions, not for continuous
 /// duty); else pass (rule: common practice).
-fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
+pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
     let rating = m.choice.rating_w;
     let above_at_duty = shaft_per_pump > rating * (1.0 + 1e-9);
     let beyond_service_factor =

@@ -110,6 +110,9 @@ codes! {
     BadLink = "bad-link": "a network link not of the form `KIND NAME from A to B`, or from a node to itself";
     UnusedNode = "unused-node": "a network node joined to no link, or nodes without a discharge line ending at one";
     NoDownstreamTank = "no-downstream-tank": "a network that reaches no tank downstream of the station and draws no demand";
+    WellFieldWithStation = "well-field-with-station": "a design with well pumps (`wellpump`) that also gives a `station` or a line to or from `pump`";
+    WellPumpInLoop = "well-pump-in-loop": "a well pump whose well a network link returns to, or that discharges into another well (a closed loop through a well)";
+    WellFieldNotAnalysed = "well-field-not-analysed": "a well field with a `load_profile` or `uncertainty` block, which are not computed for a well field (warning)";
     ExpansionTankDischarge = "expansion-tank-discharge": "a closed loop's expansion tank connected on the pump discharge (warning; its cases are not analysed)";
     BadNode = "bad-node": "a network node (`junction`, `delivery`) without a name";
     BadProfile = "bad-profile": "a pipe profile whose chainage does not start at 0 or does not increase";

@@ -217,7 +217,13 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
     ];
     // A closed loop's one reference tank is both ends: listed once.
     let closed = s.destination.name == s.source.name;
-    for t in std::iter::once(&s.source).chain((!closed).then_some(&s.destination)) {
+    // A well field (issue 12): its other wells are tanks of the network.
+    let field = s.network.as_ref().filter(|n| !n.wells.is_empty());
+    let wells = field.map(|n| n.tanks.as_slice()).unwrap_or_default();
+    for t in std::iter::once(&s.source)
+        .chain((!closed).then_some(&s.destination))
+        .chain(wells)
+    {
         let level = v(t.level.value, Measure::Length);
         let pressure = match t.surface_pressure {
             SurfacePressure::Gauge(p) => v(p.value, Measure::GaugePressure),
@@ -263,14 +269,17 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
             fields,
         ));
     }
-    out.push(Node::group(
-        "station",
-        "",
-        vec![Node::leaf(
-            "centreline",
-            v(s.centreline.value, Measure::Length),
-        )],
-    ));
+    match field {
+        Some(n) => out.extend(n.wells.iter().map(|w| well_pump(w, units))),
+        None => out.push(Node::group(
+            "station",
+            "",
+            vec![Node::leaf(
+                "centreline",
+                v(s.centreline.value, Measure::Length),
+            )],
+        )),
+    }
     for l in &s.lines {
         out.push(line(l, units));
     }
@@ -292,6 +301,38 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
         }
     }
     out
+}
+
+/// A well pump of a well field: its ends, setting, whether it runs, and its suction and
+/// discharge runs as lines.
+fn well_pump(w: &crate::model::network::WellPump, units: ReportUnits) -> Node {
+    let run = |side: Side, what: &str, segments: &[Segment]| Line {
+        name: format!("{} {what}", w.name),
+        side,
+        from: w.well.clone(),
+        to: w.to.clone(),
+        segments: segments.to_vec(),
+        profile: None,
+        closure_time: None,
+        restraint: Default::default(),
+        per_pump: false,
+        span: w.span,
+    };
+    let mut children = vec![
+        Node::leaf("from", w.well.clone()),
+        Node::leaf("to", w.to.clone()),
+        Node::leaf("elevation", show(w.elevation.value, Measure::Length, units)),
+    ];
+    if !w.running {
+        children.push(Node::leaf("running", "0"));
+    }
+    children.push(line(&run(Side::Suction, "suction", &w.suction), units));
+    children.push(line(
+        &run(Side::Discharge, "discharge", &w.discharge),
+        units,
+    ));
+    let summary = format!("from {} to {}", w.well, w.to);
+    Node::group(format!("wellpump {}", w.name), summary, children)
 }
 
 fn line(l: &Line, units: ReportUnits) -> Node {

@@ -30,6 +30,7 @@ pub const STATEMENTS: &[&str] = &[
     "delivery",
     "valve",
     "equipment",
+    "wellpump",
     "load_profile",
     "cost",
     "uncertainty",

@@ -37,7 +37,35 @@ pub struct NetworkLayout {
     pub tanks: Vec<Tank>,
     /// Links in file order.
     pub links: Vec<NetLink>,
+    /// The well pumps of a well field (`wellpump NAME from WELL to NODE`), in file
+    /// order; empty for a station design.
+    pub wells: Vec<WellPump>,
 }
+
+/// One well pump of a well field: the candidate pump set in its well, with its own
+/// suction and discharge piping (grammar/LANGUAGE.md, "Well fields").
+#[derive(Clone, Debug)]
+pub struct WellPump {
+    /// The well pump's name.
+    pub name: String,
+    /// The tank (well, or a sump without `drawdown`) it draws from.
+    pub well: String,
+    /// The collector node (or tank) its discharge ends at.
+    pub to: String,
+    /// The pump's setting: the elevation of its suction (bowl) in the design's datum.
+    pub elevation: Length,
+    /// From the pumping level to the pump (`suction { ... }`; may be empty).
+    pub suction: Vec<Segment>,
+    /// From the pump to `to`: column pipe, check valve, connection (may be empty).
+    pub discharge: Vec<Segment>,
+    /// Whether the pump runs in this case (`NAME.running = 0` stops it).
+    pub running: bool,
+    /// Where the well pump is written.
+    pub span: Span,
+}
+
+/// Fields of a `wellpump` block (besides its pipes, fittings, losses and `suction`).
+pub const WELLPUMP_FIELDS: &[&str] = &["elevation"];
 
 /// A junction or a delivery point.
 #[derive(Clone, Debug)]
@@ -305,6 +333,37 @@ pub fn set_equipment(
     Ok(())
 }
 
+/// A case override of a well pump: `NAME.running = 0` (stopped) or `1` (running),
+/// `NAME.elevation` (its setting).
+fn set_well_pump(w: &mut WellPump, field: &str, e: &Expr, env: &Env) -> Result<(), Diagnostic> {
+    match field {
+        "running" => {
+            let n = expect_number(e, env, "well pump running")?;
+            if n != 0.0 && n != 1.0 {
+                return Err(out_of_range(
+                    "a well pump's `running`",
+                    "must be 0 (stopped) or 1 (running)",
+                    e.span,
+                ));
+            }
+            w.running = n == 1.0;
+        }
+        "elevation" => {
+            let z = expect_dim(e, env, Dimension::LENGTH, "well pump elevation")?.si;
+            w.elevation = Length::new::<meter>(env.in_range(&ranges::LEVEL, z, e.span)?);
+        }
+        other => {
+            return Err(Diagnostic::error(
+                Code::UnknownPath,
+                format!("a case cannot set `{other}` of well pump `{}`", w.name),
+                Some(e.span),
+            )
+            .with_help("a case may set a well pump's `running` (0 or 1) or `elevation`"))
+        }
+    }
+    Ok(())
+}
+
 fn unknown_field(what: &str, field: &str, span: Span) -> Diagnostic {
     Diagnostic::error(
         Code::UnknownField,
@@ -319,6 +378,7 @@ impl NetworkLayout {
         self.nodes.iter().any(|n| n.name == name)
             || self.tanks.iter().any(|t| t.name == name)
             || self.links.iter().any(|l| l.name == name)
+            || self.wells.iter().any(|w| w.name == name)
     }
 
     /// Apply a case override `NAME.field = value` to a node, valve, equipment or
@@ -338,6 +398,9 @@ impl NetworkLayout {
         }
         if let Some(t) = self.tanks.iter_mut().find(|t| t.name == name) {
             return Some(super::scenario::set_tank(t, field, e, env));
+        }
+        if let Some(w) = self.wells.iter_mut().find(|w| w.name == name) {
+            return Some(set_well_pump(w, field, e, env));
         }
         let link = self.links.iter_mut().find(|l| l.name == name)?;
         Some(match &mut link.kind {

@@ -20,6 +20,7 @@ mod operation;
 mod pretty;
 mod safety;
 mod sources;
+mod well_field;
 
 /// The format string; changes when anything is removed or renamed.
 pub const FORMAT: &str = "dutyline-results/2";
@@ -209,6 +210,9 @@ struct Pump<'a> {
     /// Wave 2, networks only: the network at the duty point.
     #[serde(skip_serializing_if = "Option::is_none")]
     network: Option<engineering::NetworkOut<'a>>,
+    /// Well fields only: the candidate at each running well pump (`duty` is the field's total).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    wells: Option<Vec<well_field::WellOut<'a>>>,
 }
 
 #[derive(Serialize)]
@@ -608,6 +612,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
         motor_efficiency_source: sources::index(&p.motor_efficiency.1),
         warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
         network: p.network.as_ref().map(engineering::network),
+        wells: (!p.wells.is_empty()).then(|| well_field::wells(&p.wells)),
     }
 }
 

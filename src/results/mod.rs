@@ -5,6 +5,7 @@ mod envelope_text;
 mod json;
 mod operation_text;
 mod text;
+mod well_field_text;
 
 pub use json::{to_json, write_json, FORMAT};
 pub use text::to_text;

@@ -15,11 +15,12 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
     let u = Units::new(design.project.units);
     let mut o = String::new();
     header(&mut o, design);
+    let field = super::well_field_text::is_field(design);
     if analysis.cases.len() > SUMMARY_CASES {
         summarised_cases(&mut o, design, analysis, &u);
     } else {
         for c in &analysis.cases {
-            case(&mut o, &u, c, None);
+            case(&mut o, &u, c, None, field);
         }
     }
     candidates(&mut o, design, analysis);
@@ -35,7 +36,7 @@ pub fn to_text(design: &Design, analysis: &Analysis) -> String {
 
 /// One case in full: overrides, system, every candidate's duty and checks; `why` says
 /// why a summarised design shows it.
-fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>) {
+fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>, field: bool) {
     {
         let _ = writeln!(o, "\ncase {}", c.name);
         if let Some(why) = why {
@@ -52,7 +53,11 @@ fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>) {
             );
             return;
         };
-        case_system(o, u, c, s);
+        if field {
+            super::well_field_text::case_field(o, u, c, s);
+        } else {
+            case_system(o, u, c, s);
+        }
         for r in &c.pumps {
             pump(o, u, r);
         }
@@ -75,7 +80,8 @@ fn summarised_cases(o: &mut String, design: &Design, analysis: &Analysis, u: &Un
     );
     for g in &kept {
         if let Some(c) = analysis.cases.get(g.index) {
-            case(o, u, c, Some(&g.why(&names)));
+            let field = super::well_field_text::is_field(design);
+            case(o, u, c, Some(&g.why(&names)), field);
         }
     }
     let (fl, hd, pw) = (u.flow(), u.head(), u.power());
@@ -274,6 +280,7 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult) {
                     vel.fmt(v2)
                 );
             }
+            super::well_field_text::wells(o, u, r);
             if let Some(n) = &r.network {
                 network_detail(o, u, n);
             }

@@ -17,8 +17,8 @@
 //! losses) and z_p the pump's elevation (ANSI/HI 9.6.1; Karassik et al., *Pump
 //! Handbook*, 4th ed., 2008, ch. 2), the velocity head left out as in the chain.
 //!
-//! Not wired to the language yet: a design cannot state a well field (see
-//! DEVELOPERS.md, "Well fields").
+//! A design states a field with `wellpump` links; [`crate::analysis::well_field`]
+//! builds the wells from it and evaluates every candidate (DEVELOPERS.md, "Well fields").
 
 use std::sync::Arc;
 
@@ -35,6 +35,8 @@ pub struct FieldWell {
     pub name: String,
     /// Static water level, m (datum of the network).
     pub static_level: f64,
+    /// Gauge pressure on the well's water surface, Pa (0 for a well open to the air).
+    pub surface_pressure: f64,
     /// The well's drawdown law.
     pub drawdown: WellDrawdown,
     /// Elevation of the pump (its suction datum), m.
@@ -86,7 +88,23 @@ pub fn solve_field(
     curve: Arc<dyn HeadCurve>,
     barometric_pa: f64,
 ) -> Result<FieldSolution, NetworkError> {
-    let net = field_network(collector, wells, curve)?;
+    let set = PumpSet {
+        curve,
+        parallel: 1,
+        series: 1,
+    };
+    solve_field_set(collector, wells, &set, barometric_pa)
+}
+
+/// [`solve_field`] with the candidate as arranged at every well: `set` is the pump set
+/// (its curve, pumps in parallel and in series) installed in each well.
+pub fn solve_field_set(
+    collector: &Network,
+    wells: &[FieldWell],
+    set: &PumpSet,
+    barometric_pa: f64,
+) -> Result<FieldSolution, NetworkError> {
+    let net = field_network_set(collector, wells, set)?;
     let sol = solve(&net, &Settings::default())?;
     let rho_g = net.fluid.density * G;
     let base_nodes = collector.nodes.len();
@@ -121,11 +139,26 @@ pub fn solve_field(
     })
 }
 
-/// The collector with every well's nodes and links appended (see the module's doc).
+/// The collector with every well's nodes and links appended (see the module's doc),
+/// one pump at each well.
 pub fn field_network(
     collector: &Network,
     wells: &[FieldWell],
     curve: Arc<dyn HeadCurve>,
+) -> Result<Network, NetworkError> {
+    let set = PumpSet {
+        curve,
+        parallel: 1,
+        series: 1,
+    };
+    field_network_set(collector, wells, &set)
+}
+
+/// [`field_network`] with the pump set `set` at every well.
+pub fn field_network_set(
+    collector: &Network,
+    wells: &[FieldWell],
+    set: &PumpSet,
 ) -> Result<Network, NetworkError> {
     let mut net = collector.clone();
     for w in wells {
@@ -149,7 +182,7 @@ pub fn field_network(
             w.static_level,
             NodeKind::FixedHead {
                 level: w.static_level,
-                surface_pressure: 0.0,
+                surface_pressure: w.surface_pressure,
             },
             "tank",
         ));
@@ -188,11 +221,7 @@ pub fn field_network(
             "pump",
             first + 2,
             first + 3,
-            Element::Pump(PumpSet {
-                curve: curve.clone(),
-                parallel: 1,
-                series: 1,
-            }),
+            Element::Pump(set.clone()),
             // A well pump has a check valve (common practice): no backflow into a well.
             true,
         ));

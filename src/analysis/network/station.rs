@@ -265,7 +265,8 @@ impl StationNetwork {
     }
 }
 
-fn element(
+/// A design link's element (pipe run, valve, equipment) for the solve.
+pub fn element(
     s: &Scenario,
     name: &str,
     kind: &NetLinkKind,

@@ -25,8 +25,14 @@ use crate::message::{Message, Part};
 /// The valve checks at one duty: an opening check per open valve and an authority
 /// check per open control valve.
 pub fn valve_checks(net: &StationNetwork, at: &NetworkAtDuty) -> Vec<Check> {
+    valve_checks_in(&net.network, net.entry, at)
+}
+
+/// [`valve_checks`] on any solved network with the node where the walk of a valve's
+/// branch stops as the station's entry (a well field: its first well pump's node).
+pub fn valve_checks_in(network: &Network, entry: usize, at: &NetworkAtDuty) -> Vec<Check> {
     let mut out = Vec::new();
-    for (k, l) in net.network.links.iter().enumerate() {
+    for (k, l) in network.links.iter().enumerate() {
         let Element::Valve(v) = &l.element else {
             continue;
         };
@@ -35,7 +41,7 @@ pub fn valve_checks(net: &StationNetwork, at: &NetworkAtDuty) -> Vec<Check> {
         }
         out.push(opening_check(&l.name, v));
         if v.control {
-            if let Some(n) = authority(&net.network, net.entry, &at.links, k, v) {
+            if let Some(n) = authority(network, entry, &at.links, k, v) {
                 out.push(authority_check(&l.name, n));
             }
         }

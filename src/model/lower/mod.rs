@@ -8,6 +8,7 @@ mod blocks;
 mod candidates;
 mod cases;
 mod constants;
+mod field;
 mod hourly;
 mod lines;
 mod load_profile;
@@ -52,16 +53,22 @@ pub fn lower(
     let env = constants::lower_constants(file, &mut diags);
     let blocks = Blocks::group(file, &mut diags);
     let texts = project::lower_texts(&blocks, &env, &mut diags);
-    let setting = setting::lower_setting(&blocks, &env, &mut diags);
+    let is_field = field::is_field(&blocks);
+    let mut setting = setting::lower_setting(&blocks, &env, !is_field, &mut diags);
     let tanks = tanks::lower_tanks(&blocks, &env, &mut diags);
     let nodes = network::lower_nodes(&blocks, &tanks, &env, &mut diags);
-    let node_names: Vec<String> = nodes.iter().map(|n| n.name.clone()).collect();
-    let mut network = lines::lower_lines(&blocks, &tanks, &node_names, &env, files, &mut diags);
-    let (layout, downstream) =
-        network::lower_network(&blocks, &tanks, nodes, &network, &env, &mut diags);
-    if layout.is_some() {
-        network.destination = downstream;
-    }
+    let (network, layout) = if is_field {
+        lower_well_field(&blocks, &tanks, nodes, &env, &mut setting, &mut diags)
+    } else {
+        let node_names: Vec<String> = nodes.iter().map(|n| n.name.clone()).collect();
+        let mut network = lines::lower_lines(&blocks, &tanks, &node_names, &env, files, &mut diags);
+        let (layout, downstream) =
+            network::lower_network(&blocks, &tanks, nodes, &network, &env, &mut diags);
+        if layout.is_some() {
+            network.destination = downstream;
+        }
+        (network, layout)
+    };
     expansion_tank_side(&network, &mut diags);
     let pump_list = candidates::lower_candidates(&blocks, &env, files, &mut diags);
     let motor = operation::lower_motor(blocks.body("motor"), texts.project.units, &env, &mut diags);
@@ -107,6 +114,36 @@ pub fn lower(
         _ => None,
     };
     (design, diags)
+}
+
+/// A well field's network in the chain's slots: no lines, the first well as the source,
+/// the downstream tank as the destination, the first well pump's setting as the
+/// centreline (the field's own stage reads the wells from the layout).
+fn lower_well_field(
+    blocks: &Blocks,
+    tanks: &[Tank],
+    nodes: Vec<crate::model::network::NetNode>,
+    env: &crate::model::eval::Env,
+    setting: &mut setting::Setting,
+    diags: &mut Vec<Diagnostic>,
+) -> (lines::Network, Option<crate::model::network::NetworkLayout>) {
+    let Some(f) = field::lower_field(blocks, tanks, nodes, env, diags) else {
+        let none = lines::Network {
+            lines: Vec::new(),
+            source: None,
+            destination: None,
+            entry: None,
+        };
+        return (none, None);
+    };
+    setting.centreline = Some(f.centreline);
+    let network = lines::Network {
+        lines: Vec::new(),
+        source: Some(f.source),
+        destination: Some(f.destination),
+        entry: Some(f.layout.entry.clone()),
+    };
+    (network, Some(f.layout))
 }
 
 /// The base scenario, when fluid, both ends and the centreline are known.

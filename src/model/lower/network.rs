@@ -45,7 +45,7 @@ pub fn lower_nodes(
     nodes
 }
 
-fn too_many(what: &str, n: usize, span: Span) -> Diagnostic {
+pub(super) fn too_many(what: &str, n: usize, span: Span) -> Diagnostic {
     Diagnostic::error(
         Code::TooMany,
         format!("the design has {n} network {what}; at most {MAX_NETWORK_ITEMS} are accepted"),
@@ -196,6 +196,7 @@ pub fn lower_network(
             nodes,
             tanks: Vec::new(),
             links,
+            wells: Vec::new(),
         };
         return (Some(layout), Some(src.clone()));
     }
@@ -216,6 +217,7 @@ pub fn lower_network(
                 nodes,
                 tanks: reached,
                 links,
+                wells: Vec::new(),
             }),
             Some(stand_in),
         );
@@ -227,6 +229,7 @@ pub fn lower_network(
             nodes,
             tanks: reached,
             links,
+            wells: Vec::new(),
         }),
         Some(destination),
     )
@@ -239,7 +242,7 @@ pub const DEMAND_ONLY_DESTINATION: &str = "network demands";
 /// The stand-in destination of a network without a downstream tank: the engine
 /// replaces its level and pressure by the governing node's
 /// ([`crate::analysis::network::station`]); it only fills the scenario's slot.
-fn demand_only_destination(span: Span) -> Tank {
+pub(super) fn demand_only_destination(span: Span) -> Tank {
     Tank {
         name: DEMAND_ONLY_DESTINATION.into(),
         level: Length::new::<meter>(0.0),
@@ -252,7 +255,7 @@ fn demand_only_destination(span: Span) -> Tank {
     }
 }
 
-fn lower_link(
+pub(super) fn lower_link(
     block: &Block,
     earlier: &[NetLink],
     chain: &[Line],
@@ -333,7 +336,7 @@ fn lower_link(
     })
 }
 
-fn unknown_node(name: &str, span: Span, names: &[String]) -> Diagnostic {
+pub(super) fn unknown_node(name: &str, span: Span, names: &[String]) -> Diagnostic {
     let near = nearest(name, names.iter().map(|n| n.as_str()));
     Diagnostic::error(
         Code::UnknownName,

@@ -23,7 +23,14 @@ pub struct Setting {
 }
 
 /// Fluid, site and station, in that order.
-pub fn lower_setting(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) -> Setting {
+/// `station` is read only when `station` is true (a well field has none: its well
+/// pumps give their own settings).
+pub fn lower_setting(
+    blocks: &Blocks,
+    env: &Env,
+    station: bool,
+    diags: &mut Vec<Diagnostic>,
+) -> Setting {
     let fluid = match blocks.one("fluid") {
         Some(block) => lower_fluid(block.args, block.statements(), block.span, env, diags),
         None => {
@@ -39,7 +46,11 @@ pub fn lower_setting(blocks: &Blocks, env: &Env, diags: &mut Vec<Diagnostic>) ->
     Setting {
         fluid,
         site: lower_site(blocks, env, diags),
-        centreline: lower_station(blocks, env, diags),
+        centreline: if station {
+            lower_station(blocks, env, diags)
+        } else {
+            None
+        },
     }
 }
 

@@ -16,6 +16,12 @@ pub(super) fn chapter(
 ) {
     blocks.push(Block::heading(1, "Design basis"));
     fluid_and_site(blocks, design, analysis, units);
+    if crate::analysis::well_field::is_field(&design.base) {
+        super::well_field::design_basis(blocks, design, units);
+        cases(blocks, analysis);
+        requirements(blocks, design, units);
+        return;
+    }
     levels(blocks, design, analysis, units);
     blocks.push(Block::heading(2, "Pipe segments"));
     if let Some((case, system)) = analysis

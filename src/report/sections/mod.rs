@@ -21,6 +21,7 @@ pub(crate) mod summary;
 pub use summary::SUMMARY_CASES;
 pub(crate) mod sources;
 mod system_curves;
+mod well_field;
 mod wording;
 
 use super::layout::document::{Attachment, Block, Document, PageMeta, PdfInfo};
@@ -96,6 +97,7 @@ pub fn document_attached(
     }
     system_curves::chapter(&mut blocks, analysis, &units);
     network::chapter(&mut blocks, design, analysis, &units);
+    well_field::chapter(&mut blocks, design, analysis, &units);
     for (index, _) in design.pumps.iter().enumerate() {
         candidate::chapter(&mut blocks, design, analysis, index, &units);
     }

@@ -30,9 +30,25 @@ pub(super) fn chapter(
         "valves follow Δp = (ρ/ρ₀)·(Q/Kv)² with Δp in bar and Q in m³/h (IEC 60534-2-1, ρ₀ \
          of water, 1000 kg/m³; Cv = 1.156 Kv)"
     };
+    let field = crate::analysis::well_field::is_field(&design.base);
+    let (opening, closing) = if field {
+        (
+            "The well pumps discharge into the collector (see Well field); from there the \
+             flow goes to the delivery points, junction demands and the downstream tanks.",
+            "Each well adds its static level (a fixed head), its drawdown, suction, pump and \
+             discharge links to the network, named after its well pump.",
+        )
+    } else {
+        (
+            "The discharge lines end at the network's entry node; from there the flow \
+             divides between the delivery points, junction demands and the downstream tanks.",
+            "The system curve is the head the station must supply at each flow with the \
+             split solved at that flow: its 'network' part is the entry node's head above \
+             its value at zero station flow.",
+        )
+    };
     blocks.push(Block::text(format!(
-        "The discharge lines end at the network's entry node; from there the flow divides \
-         between the delivery points, junction demands and the downstream tanks. Heads at \
+        "{opening} Heads at \
          the junctions and flows in the links are solved together by the global gradient \
          algorithm (Todini, E. and Pilati, S., \"A gradient algorithm for the analysis of \
          pipe networks\", Computer Applications in Water Supply, vol. 1, 1988): every link's \
@@ -40,9 +56,7 @@ pub(super) fn chapter(
          junction, both far below the printed precision. Pipe runs use the same friction and \
          fitting methods as the chain; {valve_law}, at the Kv of their inherent \
          characteristic (linear Kv = x·Kvs, equal percentage Kv = Kvs·R⁽ˣ⁻¹⁾ with R the rangeability, x the \
-         opening); equipment scales its stated drop as (Q/Q_rated)ⁿ. The system curve is the \
-         head the station must supply at each flow with the split solved at that flow: its \
-         'network' part is the entry node's head above its value at zero station flow."
+         opening); equipment scales its stated drop as (Q/Q_rated)ⁿ. {closing}"
     )));
     if let Some(text) = closed_loop_method(design, units) {
         blocks.push(Block::text(text));

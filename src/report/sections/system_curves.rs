@@ -9,6 +9,16 @@ use crate::report::layout::document::{Align, Block, Column};
 /// The system curves chapter, in groups of cases.
 pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Units) {
     blocks.push(Block::heading(1, "System curves"));
+    if analysis
+        .cases
+        .iter()
+        .any(|c| c.pumps.iter().any(|p| !p.wells.is_empty()))
+    {
+        blocks.push(Block::text(
+            "A well field has no single station flow and so no system curve: each well \
+             pump's duty is solved with the collector network (see Well field).",
+        ));
+    }
     let (fl, hd) = (units.flow(), units.head());
     let cases: Vec<&CaseResult> = analysis
         .cases

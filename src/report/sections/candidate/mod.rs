@@ -36,14 +36,20 @@ pub(super) fn chapter(
     plots::published_plot(blocks, pump, curves, units);
     let per_plot = plots::cases_per_plot(&all_results);
     let groups = all_results.len().div_ceil(per_plot).max(1);
-    for (group, results) in all_results.chunks(per_plot).enumerate() {
+    // A well field's duty is the field's total, not a point on one pump's curve: its
+    // duties are plotted per well in the Well field chapter.
+    let field = crate::analysis::well_field::is_field(&design.base);
+    for (group, results) in all_results.chunks(per_plot).enumerate().filter(|_| !field) {
         let part = group_label(group, groups);
         plots::head_plot(blocks, pump, results, &part, units);
         plots::npsh_plot(blocks, pump, curves, results, &part, units);
         plots::power_plot(blocks, pump, motor, results, &part, units);
     }
     duty_table(blocks, pump, &all_results, units);
-    detail::npsh_terms(blocks, pump, &all_results, units);
+    if !field {
+        // A field's NPSH terms are per well (Well field chapter).
+        detail::npsh_terms(blocks, pump, &all_results, units);
+    }
     detail::station_piping(blocks, pump, &all_results, units);
     detail::well_levels(blocks, pump, &all_results, units);
     detail::power(blocks, pump, &all_results, units);
@@ -299,7 +305,11 @@ fn duty_table(blocks: &mut Vec<Block>, pump: &PumpCandidate, results: &[CaseRun]
             Column::new(format!("Input ({})", pw.label), 0.09, Align::Right),
         ],
         rows,
-        caption: Some(format!("Flow, head and power are for the whole arrangement ({arrangement}{}); efficiency, BEP ratio and NPSHr per pump", fewer_running(pump, results))),
+        caption: Some(if results.iter().any(|(_, r)| !r.wells.is_empty()) {
+            "A well field: flow and power are the field's totals and head the flow-weighted mean over the running wells; efficiency is the field's; BEP ratio, NPSH and velocities are the governing well's (least NPSH excess); each well is in the Well field chapter".to_string()
+        } else {
+            format!("Flow, head and power are for the whole arrangement ({arrangement}{}); efficiency, BEP ratio and NPSHr per pump", fewer_running(pump, results))
+        }),
     });
 }
 
