@@ -67,3 +67,36 @@ fn a_design_at_the_threshold_is_not_summarised() {
         "every case is shown"
     );
 }
+
+#[test]
+fn a_summarised_package_attaches_the_governing_cases_results() {
+    use dutyline::verify::{DesignFiles, Sources, StyleSource};
+    let n = SUMMARY_CASES + 20;
+    let src = large_design::large_design(n);
+    let d = dutyline::check(&src, &dutyline::NoFiles).design.expect("design");
+    let sources = Sources {
+        design: DesignFiles {
+            name: "large.duty".into(),
+            source: src.clone(),
+            imports: Default::default(),
+        },
+        style: StyleSource::Builtin(dutyline::report::builtin_style_for(&d).to_string()),
+        compare: None,
+    };
+    let package = dutyline::verify::compile(&sources).expect("compiles");
+    let json: serde_json::Value = serde_json::from_str(&package.results_json).expect("json");
+    let cases = json["cases"].as_array().expect("cases").len();
+    assert!(cases > 0 && cases < n, "{cases} of {n} cases attached");
+    let results = package
+        .attachments
+        .iter()
+        .find(|a| a.name.ends_with(".json") && a.description.contains("results"))
+        .expect("results attached");
+    assert!(results.description.contains("governing"), "{}", results.description);
+    // The ranking still covers every case: the same as the whole design's.
+    let whole = dutyline::analysis::analyse(&d);
+    assert_eq!(
+        json["selection"]["recommended"].as_str(),
+        whole.selection.recommended.as_deref()
+    );
+}

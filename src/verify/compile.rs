@@ -91,14 +91,25 @@ pub fn compile(sources: &Sources) -> Result<Package, CompileError> {
         }
         None => None,
     };
+    // A summarised package attaches the governing cases' results only (see
+    // `summary::governing_only`).
+    let governing = crate::report::sections::summary::governing_only(&design, &analysis);
+    let (in_json, analysed) = governing
+        .as_ref()
+        .map_or((&design, &analysis), |(d, a)| (d, a));
     let results_json = crate::results::to_json(
-        &design,
-        &analysis,
+        in_json,
+        analysed,
         &sources.design.name,
         &sources.design.source,
         &diagnostics,
     );
-    let attachments = attachments(sources, &results_json);
+    drop(governing);
+    let scope = match crate::report::sections::summary::summarised(&design) {
+        true => ResultsScope::Governing,
+        false => ResultsScope::Every,
+    };
+    let attachments = attachments(sources, &results_json, scope);
     let bytes = crate::report::render_pdf_attached(
         &design,
         &analysis,
@@ -128,8 +139,17 @@ fn checked(files: &DesignFiles, compared: bool) -> Result<(Design, Vec<Diagnosti
     }
 }
 
+/// Which cases the attached results JSON holds.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum ResultsScope {
+    /// Every case of the design.
+    Every,
+    /// The governing cases of a summarised package (the design recomputes the rest).
+    Governing,
+}
+
 /// The files a package carries: sources, results JSON and the build record.
-pub fn attachments(sources: &Sources, results_json: &str) -> Vec<Attachment> {
+pub fn attachments(sources: &Sources, results_json: &str, scope: ResultsScope) -> Vec<Attachment> {
     let mut list = Vec::new();
     let mut record = Vec::new();
     let mut add = |list: &mut Vec<Attachment>, file: AttachedFile| {
@@ -171,7 +191,10 @@ pub fn attachments(sources: &Sources, results_json: &str) -> Vec<Attachment> {
             reads_as: None,
             text: results_json.to_string(),
             mime: "application/json",
-            description: "results (JSON)",
+            description: match scope {
+                ResultsScope::Every => "results (JSON)",
+                ResultsScope::Governing => "results of the governing cases (JSON)",
+            },
             relationship: Relationship::Data,
         },
     );

@@ -5,7 +5,7 @@ use crate::report::layout::document::{Align, Attachment, Block, Column, Span};
 use sha2::{Digest, Sha256};
 
 /// The cover's note on the attached sources (nothing when there are none).
-pub(super) fn cover_note(blocks: &mut Vec<Block>, attachments: &[Attachment]) {
+pub(super) fn cover_note(blocks: &mut Vec<Block>, attachments: &[Attachment], summarised: bool) {
     if attachments.is_empty() {
         return;
     }
@@ -24,6 +24,13 @@ pub(super) fn cover_note(blocks: &mut Vec<Block>, attachments: &[Attachment]) {
         Span::mono("dutyline extract THIS.pdf -o DIR"),
         Span::plain(" writes them out to rebuild or compare."),
     ]));
+    if summarised {
+        blocks.push(Block::Paragraph(vec![
+            Span::plain("This package is summarised: its attached results hold the governing cases shown one by one, with the ranking, motor sizing and totals over every case; the results of every case come from the attached design: "),
+            Span::mono("dutyline results --format json"),
+            Span::plain("."),
+        ]));
+    }
 }
 
 /// The appendix table of attached files, with size and SHA-256 of each.

@@ -74,7 +74,7 @@ pub fn document_attached(
         .unwrap_or_else(|| "no revision".into());
     let mut blocks: Vec<Block> = Vec::new();
     front::title_block(&mut blocks, design, sha256);
-    attached::cover_note(&mut blocks, &attachments);
+    attached::cover_note(&mut blocks, &attachments, summary::summarised(design));
     front::revision_history(&mut blocks, design);
     front::purpose(&mut blocks, design, analysis);
     if let Some(changes) = changes {

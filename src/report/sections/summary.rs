@@ -21,8 +21,19 @@ pub const MAX_GOVERNING: usize = 24;
 const FLOW_BINS: usize = 10;
 
 /// Whether the package of `design` is summarised.
-pub(super) fn summarised(design: &Design) -> bool {
+pub(crate) fn summarised(design: &Design) -> bool {
     design.cases.len() > SUMMARY_CASES
+}
+
+/// The design and analysis restricted to the governing cases when the package of
+/// `design` is summarised (`None` otherwise): what a summarised package attaches as
+/// its results, so that a package of thousands of cases does not carry gigabytes of
+/// JSON; the attached design recomputes every case (`dutyline results`).
+pub(crate) fn governing_only(design: &Design, analysis: &Analysis) -> Option<(Design, Analysis)> {
+    summarised(design).then(|| {
+        let keep: Vec<usize> = governing(analysis).iter().map(|g| g.index).collect();
+        restricted(design, analysis, &keep)
+    })
 }
 
 /// A governing case: its index in the design and why it is kept.
@@ -155,7 +166,7 @@ pub(crate) fn governing(analysis: &Analysis) -> Vec<Governing> {
 /// The design and analysis restricted to the cases at `keep` (design order), for the
 /// per-case chapters. Everything computed over all cases (ranking, motors, operation,
 /// warnings) is kept whole.
-pub(super) fn restricted(
+pub(crate) fn restricted(
     design: &Design,
     analysis: &Analysis,
     keep: &[usize],
