@@ -152,8 +152,14 @@ pub fn checked_darcy_friction_factor(re: f64, rr: f64) -> Result<Friction, Frict
             }
             (laminar(re), LAMINAR_NAME)
         }
-        FlowRegime::Transitional => (transitional_friction_factor(re, rr)?, TRANSITIONAL_NAME),
-        FlowRegime::Turbulent => (solve_colebrook(re, rr, None)?.f, TURBULENT_NAME),
+        FlowRegime::Transitional => (
+            kept(re, rr, || transitional_friction_factor(re, rr))?,
+            TRANSITIONAL_NAME,
+        ),
+        FlowRegime::Turbulent => (
+            kept(re, rr, || solve_colebrook(re, rr, None).map(|s| s.f))?,
+            TURBULENT_NAME,
+        ),
     };
     if !f.is_finite() {
         return Err(FrictionError::new(format!(
@@ -240,6 +246,38 @@ fn bridge_ends(rr: f64) -> Result<(f64, f64), FrictionError> {
     let ln_c_high = (turbulent_end / churchill_1977(TURBULENT_LIMIT_RE, rr)).ln();
     KEPT.with(|k| k[slot].set((key, ln_c_low, ln_c_high)));
     Ok((ln_c_low, ln_c_high))
+}
+
+/// The friction factor at (Re, eps/D) from `solve`, or the one it gave there last: the
+/// last few are kept per thread, keyed by the bits of both numbers, so a kept value is
+/// the value the computation gives, bit for bit. The same pipe at the same flow in the
+/// same fluid is often evaluated again (a case's systems that differ only in a level, a
+/// head and the NPSH at one flow), and a Colebrook solve costs a power and several
+/// logarithms. Errors are not kept.
+fn kept(
+    re: f64,
+    rr: f64,
+    solve: impl FnOnce() -> Result<f64, FrictionError>,
+) -> Result<f64, FrictionError> {
+    use std::cell::Cell;
+    const SLOTS: usize = 64;
+    thread_local! {
+        static KEPT: [Cell<(u64, u64, f64)>; SLOTS] =
+            const { [const { Cell::new((u64::MAX, u64::MAX, 0.0)) }; SLOTS] };
+    }
+    let (kr, ke) = (re.to_bits(), rr.to_bits());
+    // Fibonacci hashing of both numbers' bits picks the slot.
+    let hash = (kr ^ ke.rotate_left(29)).wrapping_mul(0x9E37_79B9_7F4A_7C15);
+    let slot = (hash >> 58) as usize % SLOTS;
+    if let Some(f) = KEPT.with(|k| {
+        let (a, b, f) = k[slot].get();
+        (a == kr && b == ke).then_some(f)
+    }) {
+        return Ok(f);
+    }
+    let f = solve()?;
+    KEPT.with(|k| k[slot].set((kr, ke, f)));
+    Ok(f)
 }
 
 /// Warnings for a friction-factor evaluation outside the ranges where the correlations
@@ -346,6 +384,25 @@ mod tests {
                 let loss = f * re * re;
                 assert!(loss > previous, "rr {rr}: f Re^2 fell at Re {re}");
                 previous = loss;
+            }
+        }
+    }
+
+    #[test]
+    fn kept_values_are_the_computed_ones_to_the_bit() {
+        // Many (Re, eps/D) pairs, more than the slots, each asked twice in two orders:
+        // every answer is the fresh solve's (Colebrook) or bridge's value.
+        let pairs: Vec<(f64, f64)> = (0..200)
+            .map(|i| (2500.0 + 997.0 * i as f64, 1e-5 * (1 + i % 7) as f64))
+            .collect();
+        for round in 0..2 {
+            for &(re, rr) in pairs.iter().rev().skip(round) {
+                let kept = checked_darcy_friction_factor(re, rr).unwrap().f;
+                let fresh = match flow_regime(re) {
+                    FlowRegime::Turbulent => colebrook::solve_colebrook(re, rr, None).unwrap().f,
+                    _ => transitional_friction_factor(re, rr).unwrap(),
+                };
+                assert_eq!(kept.to_bits(), fresh.to_bits(), "Re {re}, eps/D {rr}");
             }
         }
     }

@@ -403,13 +403,26 @@ fn duty_envelope(
 /// Every point of the combination on its system, for the pump shifted by `shifted(u)`.
 fn evaluate_points<'a>(ctx: &Ctx, shifted: &dyn Fn(f64) -> Shifted<'a>) -> Vec<Corner> {
     let sample = matches!(ctx.u.combine, Combine::Samples(_));
+    // The pump's grid scan depends on its state alone: one per state (three for
+    // corners), not one per point.
+    let mut scans: Vec<(u64, Option<crate::pumps::PumpScan>)> = Vec::new();
     points(ctx.u, ctx.tolerance.grade.unilateral())
         .into_iter()
         .enumerate()
         .map(|(i, (pump, x))| {
             let sys = ctx.systems.iter().find(|(y, _)| *y == x).map(|(_, s)| s);
             let duty = match sys {
-                Some(Ok(sys)) => corner_duty(&shifted(pump), sys, ctx.tolerance),
+                Some(Ok(sys)) => {
+                    let s = shifted(pump);
+                    let at = match scans.iter().position(|(b, _)| *b == pump.to_bits()) {
+                        Some(at) => at,
+                        None => {
+                            scans.push((pump.to_bits(), s.scan()));
+                            scans.len() - 1
+                        }
+                    };
+                    corner_duty(&s, sys, scans[at].1.as_ref(), ctx.tolerance)
+                }
                 Some(Err(e)) => Err(e.clone()),
                 None => Err("no system".into()),
             };
@@ -482,8 +495,13 @@ fn region(
     out
 }
 
-fn corner_duty(s: &Shifted, sys: &CaseSystem, t: &Tolerance) -> Result<CornerDuty, String> {
-    let d = s.duty(sys)?;
+fn corner_duty(
+    s: &Shifted,
+    sys: &CaseSystem,
+    scan: Option<&crate::pumps::PumpScan>,
+    t: &Tolerance,
+) -> Result<CornerDuty, String> {
+    let d = s.duty_scanned(sys, scan)?;
     Ok(CornerDuty {
         flow: d.flow,
         head: d.head,

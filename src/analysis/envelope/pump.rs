@@ -4,7 +4,7 @@
 use crate::analysis::duty::{arrangement_power, SEARCH_BEYOND_CURVE};
 use crate::analysis::system::CaseSystem;
 use crate::pumps::tolerance::Shift;
-use crate::pumps::{self, ScaledPump};
+use crate::pumps::{self, PumpScan, ScaledPump};
 
 /// The arrangement on a shifted curve.
 pub struct Shifted<'a> {
@@ -52,14 +52,40 @@ impl Shifted<'_> {
         self.scaled.eval_npshr(qp / self.shift.flow)
     }
 
+    /// The flow range a duty search covers: the shifted data end × (1 +
+    /// [`SEARCH_BEYOND_CURVE`]), m³/s.
+    fn search_end(&self) -> f64 {
+        self.end_per_pump() * self.parallel * (1.0 + SEARCH_BEYOND_CURVE)
+    }
+
+    /// The grid scan of this shifted curve ([`PumpScan`]): it depends on the pump alone,
+    /// so one scan serves the duty on every system of the envelope. `None` when the
+    /// search range is not a positive finite flow (the solve then says so).
+    pub fn scan(&self) -> Option<PumpScan> {
+        let q_end = self.search_end();
+        (q_end.is_finite() && q_end > 0.0).then(|| PumpScan::new(&|q| self.head(q), q_end))
+    }
+
     /// Where the shifted curve meets the system, within the shifted published data.
     pub fn duty(&self, sys: &CaseSystem) -> Result<ShiftedDuty, String> {
+        self.duty_scanned(sys, self.scan().as_ref())
+    }
+
+    /// [`Shifted::duty`] with this curve's [`Shifted::scan`] already taken: the same
+    /// solve as [`pumps::solve_duty`] ([`pumps::solve_duty_scanned`]), the same outcome.
+    pub fn duty_scanned(
+        &self,
+        sys: &CaseSystem,
+        scan: Option<&PumpScan>,
+    ) -> Result<ShiftedDuty, String> {
         let end = self.end_per_pump() * self.parallel;
-        let outcome = pumps::solve_duty(
-            &|q| self.head(q),
-            &|q| sys.head(q),
-            end * (1.0 + SEARCH_BEYOND_CURVE),
-        );
+        let q_end = self.search_end();
+        let outcome = match scan {
+            Some(scan) => {
+                pumps::solve_duty_scanned(&|q| self.head(q), &|q| sys.head(q), q_end, scan)
+            }
+            None => pumps::solve_duty(&|q| self.head(q), &|q| sys.head(q), q_end),
+        };
         match outcome.point() {
             Some((q, _)) if q <= end * (1.0 + 1e-9) => Ok(ShiftedDuty {
                 flow: q,

@@ -402,17 +402,35 @@ struct Live {
 impl Live {
     fn new(net: &Network, closed: &[bool]) -> Result<Live, NetworkError> {
         let n = net.nodes.len();
-        let mut adjacency = vec![Vec::new(); n];
-        for (k, l) in net.links.iter().enumerate() {
-            if !closed[k] {
-                adjacency[l.from].push(l.to);
-                adjacency[l.to].push(l.from);
-            }
+        // The open links' adjacency in one flat array (counting sort by node): no list
+        // per node to allocate.
+        let open = || {
+            net.links
+                .iter()
+                .zip(closed)
+                .filter(|(_, &c)| !c)
+                .map(|(l, _)| l)
+        };
+        let mut start = vec![0usize; n + 1];
+        for l in open() {
+            start[l.from + 1] += 1;
+            start[l.to + 1] += 1;
+        }
+        for i in 0..n {
+            start[i + 1] += start[i];
+        }
+        let mut next = start.clone();
+        let mut adjacency = vec![0usize; start[n]];
+        for l in open() {
+            adjacency[next[l.from]] = l.to;
+            next[l.from] += 1;
+            adjacency[next[l.to]] = l.from;
+            next[l.to] += 1;
         }
         let mut reached: Vec<bool> = (0..n).map(|i| net.fixed_head(i).is_some()).collect();
         let mut stack: Vec<usize> = (0..n).filter(|&i| reached[i]).collect();
         while let Some(i) = stack.pop() {
-            for &j in &adjacency[i] {
+            for &j in &adjacency[start[i]..start[i + 1]] {
                 if !reached[j] {
                     reached[j] = true;
                     stack.push(j);

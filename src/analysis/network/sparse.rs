@@ -9,11 +9,8 @@
 //! Ties in the degree are broken by the lower node index, so the ordering (and the
 //! rounding of every result) is deterministic.
 //!
-//! Cost: the ordering is O(Σ fill · log n) with the lazy heap below; a factorisation is
+//! Cost: the ordering is O(Σ fill · log n) with the indexed heap below; a factorisation is
 //! O(Σ_j |L_{:,j}|²). Pipe networks are nearly planar, so the fill stays small.
-
-use std::cmp::Reverse;
-use std::collections::BinaryHeap;
 
 /// Largest number of unknowns a pattern accepts (a size cap for untrusted designs).
 pub const MAX_UNKNOWNS: usize = 200_000;
@@ -57,8 +54,11 @@ impl Pattern {
         if n > MAX_UNKNOWNS {
             return Err(SparseError::TooLarge);
         }
-        // Adjacency of the elimination graph as sorted vectors: eliminating v joins its
-        // neighbours into a clique by one sorted merge per neighbour.
+        // Adjacency of the elimination graph: eliminating v joins its neighbours into a
+        // clique. The lists are kept as sets (no order): each neighbour's list is marked
+        // with a stamp, then the clique's members it lacks are appended, so one union
+        // costs one pass over both lists. The degrees, and so the ordering, are those of
+        // the sets alone.
         let mut adj: Vec<Vec<usize>> = vec![Vec::new(); n];
         for &(i, j) in pairs {
             if i != j && i < n && j < n {
@@ -70,27 +70,23 @@ impl Pattern {
             a.sort_unstable();
             a.dedup();
         }
-        let mut heap: BinaryHeap<Reverse<(usize, usize)>> =
-            (0..n).map(|i| Reverse((adj[i].len(), i))).collect();
-        let mut eliminated = vec![false; n];
+        let mut heap = DegreeHeap::new(adj.iter().map(Vec::len).collect());
         let mut order = Vec::with_capacity(n);
         let mut columns: Vec<Vec<usize>> = Vec::with_capacity(n);
         let mut fill = 0usize;
-        let mut merged = Vec::new();
-        while let Some(Reverse((degree, v))) = heap.pop() {
-            if eliminated[v] || degree != adj[v].len() {
-                continue; // a stale heap entry
-            }
-            eliminated[v] = true;
+        // mark[x] == stamp: x is in the list being extended.
+        let mut mark = vec![0usize; n];
+        let mut stamp = 0usize;
+        while let Some(v) = heap.pop() {
             let neighbours = std::mem::take(&mut adj[v]);
             fill += neighbours.len();
             if fill > MAX_FILL {
                 return Err(SparseError::TooLarge);
             }
             for &a in &neighbours {
-                union_without(&adj[a], &neighbours, v, a, &mut merged);
-                std::mem::swap(&mut adj[a], &mut merged);
-                heap.push(Reverse((adj[a].len(), a)));
+                stamp += 1;
+                join_clique(&mut adj[a], &neighbours, v, a, &mut mark, stamp);
+                heap.set(a, adj[a].len());
             }
             order.push(v);
             columns.push(neighbours);
@@ -176,30 +172,122 @@ impl Pattern {
     }
 }
 
-/// `out` = sorted union of the sorted `x` and `y` without the values `v` and `a`.
-fn union_without(x: &[usize], y: &[usize], v: usize, a: usize, out: &mut Vec<usize>) {
-    out.clear();
-    out.reserve(x.len() + y.len());
-    let (mut i, mut j) = (0, 0);
-    while i < x.len() && j < y.len() {
-        let (p, q) = (x[i], y[j]);
-        let next = if p < q {
-            i += 1;
-            p
-        } else if q < p {
-            j += 1;
-            q
-        } else {
-            i += 1;
-            j += 1;
-            p
+/// The nodes not yet eliminated by (degree, index), least first: a binary heap that
+/// knows where each node sits, so a node's degree is changed in place (no stale
+/// entries). The least (degree, index) is the node a minimum-degree step eliminates.
+struct DegreeHeap {
+    /// Current degree of each node.
+    degree: Vec<usize>,
+    /// The heap of nodes.
+    heap: Vec<usize>,
+    /// Where each node sits in `heap` (`usize::MAX` once popped).
+    at: Vec<usize>,
+}
+
+impl DegreeHeap {
+    fn new(degree: Vec<usize>) -> DegreeHeap {
+        let n = degree.len();
+        let mut h = DegreeHeap {
+            degree,
+            heap: (0..n).collect(),
+            at: (0..n).collect(),
         };
-        if next != v && next != a {
-            out.push(next);
+        for i in (0..n / 2).rev() {
+            h.down(i);
+        }
+        h
+    }
+
+    fn less(&self, a: usize, b: usize) -> bool {
+        (self.degree[a], a) < (self.degree[b], b)
+    }
+
+    fn swap(&mut self, i: usize, j: usize) {
+        self.heap.swap(i, j);
+        self.at[self.heap[i]] = i;
+        self.at[self.heap[j]] = j;
+    }
+
+    fn up(&mut self, mut i: usize) {
+        while i > 0 {
+            let parent = (i - 1) / 2;
+            if !self.less(self.heap[i], self.heap[parent]) {
+                break;
+            }
+            self.swap(i, parent);
+            i = parent;
         }
     }
-    let rest = if i < x.len() { &x[i..] } else { &y[j..] };
-    out.extend(rest.iter().copied().filter(|&t| t != v && t != a));
+
+    fn down(&mut self, mut i: usize) {
+        loop {
+            let (l, r) = (2 * i + 1, 2 * i + 2);
+            let mut least = i;
+            if l < self.heap.len() && self.less(self.heap[l], self.heap[least]) {
+                least = l;
+            }
+            if r < self.heap.len() && self.less(self.heap[r], self.heap[least]) {
+                least = r;
+            }
+            if least == i {
+                break;
+            }
+            self.swap(i, least);
+            i = least;
+        }
+    }
+
+    /// Remove and return the node of least (degree, index).
+    fn pop(&mut self) -> Option<usize> {
+        let top = *self.heap.first()?;
+        let last = self.heap.len() - 1;
+        self.swap(0, last);
+        self.heap.pop();
+        self.at[top] = usize::MAX;
+        if !self.heap.is_empty() {
+            self.down(0);
+        }
+        Some(top)
+    }
+
+    /// Set the degree of a node still in the heap.
+    fn set(&mut self, v: usize, degree: usize) {
+        let i = self.at[v];
+        if i == usize::MAX {
+            return;
+        }
+        let old = self.degree[v];
+        self.degree[v] = degree;
+        if degree < old {
+            self.up(i);
+        } else if degree > old {
+            self.down(i);
+        }
+    }
+}
+
+/// `list` (the neighbours of `a`, a set) becomes `list` ∪ `clique` without `v` and `a`:
+/// `v` is dropped in place, the rest is marked with `stamp`, and each member of `clique`
+/// not marked is appended.
+fn join_clique(
+    list: &mut Vec<usize>,
+    clique: &[usize],
+    v: usize,
+    a: usize,
+    mark: &mut [usize],
+    stamp: usize,
+) {
+    list.retain(|&x| {
+        mark[x] = stamp;
+        x != v
+    });
+    mark[a] = stamp;
+    for &x in clique {
+        if mark[x] != stamp {
+            mark[x] = stamp;
+            list.push(x);
+        }
+    }
 }
 
 /// A symmetric matrix on a [`Pattern`], assembled entry by entry, then factorised.

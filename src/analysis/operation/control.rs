@@ -18,9 +18,21 @@ use crate::model::operation::Control;
 /// floor of the system head. `design_flow` is Q_d (m³/s). `None` for fixed-speed
 /// strategies (throttle, on/off), whose head is the pump curve's.
 pub fn control_head(control: Control, sys: &CaseSystem, design_flow: f64, q: f64) -> Option<f64> {
+    control_head_with(control, sys, design_flow, q, || sys.head(q))
+}
+
+/// [`control_head`] with the system head at `q` given by `head_at_q` (taken only when the
+/// control needs it).
+fn control_head_with(
+    control: Control,
+    sys: &CaseSystem,
+    design_flow: f64,
+    q: f64,
+    head_at_q: impl FnOnce() -> f64,
+) -> Option<f64> {
     match control {
         Control::ConstantPressure { head } => Some(head),
-        Control::SystemCurve { residual } => Some(sys.head(q) + residual),
+        Control::SystemCurve { residual } => Some(head_at_q() + residual),
         Control::Proportional { zero_flow_head } => {
             let h_design = sys.head(design_flow);
             let x = if design_flow > 0.0 {
@@ -42,8 +54,18 @@ pub fn required_head(
     design_flow: f64,
     q: f64,
 ) -> Option<(f64, bool)> {
-    let hc = control_head(control, sys, design_flow, q)?;
-    let hs = sys.head(q);
+    required_head_at(control, sys, design_flow, q, sys.head(q))
+}
+
+/// [`required_head`] with the system head at `q` (m) already taken.
+pub fn required_head_at(
+    control: Control,
+    sys: &CaseSystem,
+    design_flow: f64,
+    q: f64,
+    hs: f64,
+) -> Option<(f64, bool)> {
+    let hc = control_head_with(control, sys, design_flow, q, || hs)?;
     Some(if hc + 1e-9 < hs {
         (hs, true)
     } else {

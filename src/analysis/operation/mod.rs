@@ -258,14 +258,20 @@ fn candidate(
             continue;
         };
         let min_flow = profile.min_flow_ratio.unwrap_or(AOR.0);
+        let first = out.points.len();
         for lp in &profile.points {
             out.points.push(run_point(
                 profile, control, &m, sys, lp.flow, lp.hours, min_flow,
             ));
         }
         if m.parallel > 1 && profile.staging == crate::model::operation::Staging::LeastPower {
-            let flows: Vec<f64> = profile.points.iter().map(|x| x.flow).collect();
-            let sw = staging::switching_points(&flows, SWITCH_BISECTIONS, |q| {
+            // The count at each load point is the one just chosen there (it does not
+            // depend on the hours), so only the bisections run new points.
+            let known: Vec<(f64, Option<u32>)> = out.points[first..]
+                .iter()
+                .map(|x| (x.flow, x.state.as_ref().map(|s| s.running)))
+                .collect();
+            let sw = staging::switching_points_from(&known, SWITCH_BISECTIONS, |q| {
                 run_point(profile, control, &m, sys, q, 1.0, min_flow)
                     .state
                     .map(|s| s.running)
@@ -338,12 +344,14 @@ fn run_point(
             in_region,
         )
     } else {
-        let head = control::required_head(control, sys, profile.design_flow, q);
+        // The system at q once for every count (the head and the common suction).
+        let at = point::AtFlow::new(sys, q);
+        let head = control::required_head_at(control, sys, profile.design_flow, q, at.system_head);
         staging::choose(
             m.parallel,
             profile.staging,
             |k| {
-                point::evaluate(m, sys, k, q, head).map(|s| {
+                point::evaluate_at(m, sys, &at, k, head).map(|s| {
                     let w = s.input_power;
                     (s, w)
                 })

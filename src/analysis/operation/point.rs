@@ -106,6 +106,40 @@ pub struct SetState {
     pub below_system_curve: bool,
 }
 
+/// What the system gives at one total flow, shared by every running count of a load
+/// point: the system head and the common suction piping's loss (with a well's drawdown),
+/// from one evaluation of the system's losses instead of one per count and use.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct AtFlow {
+    /// Total flow, m³/s.
+    pub flow: f64,
+    /// System head at the flow, m: bit for bit [`CaseSystem::head`].
+    pub system_head: f64,
+    /// Common suction loss plus drawdown at the flow, m: what
+    /// [`CaseSystem::npsh_available_per_pump`] adds the pump's own branch to.
+    pub suction: f64,
+}
+
+impl AtFlow {
+    /// The system at total flow `q` (m³/s), from one [`CaseSystem::losses`]: the sums are
+    /// those of [`CaseSystem::head`] and [`CaseSystem::npsh_available_per_pump`], in
+    /// their order, so every result is the same to the bit.
+    pub fn new(sys: &CaseSystem, q: f64) -> AtFlow {
+        let l = sys.losses(q);
+        AtFlow {
+            flow: q,
+            system_head: sys.static_head + l.friction + l.minor + l.network + l.drawdown,
+            suction: l.suction + l.drawdown,
+        }
+    }
+
+    /// NPSH available of one pump carrying `qp` (m³/s), m, as
+    /// [`CaseSystem::npsh_available_per_pump`] at this flow.
+    fn npsh_available(&self, sys: &CaseSystem, qp: f64) -> f64 {
+        sys.npsh_available_after(self.suction + sys.station_losses(qp).0)
+    }
+}
+
 /// The pump at speed ratio `r` with the model's trim.
 fn scaled<'a>(m: &SetModel<'a>, r: f64) -> ScaledPump<'a> {
     ScaledPump::quiet(m.base, r, m.trim)
@@ -145,10 +179,23 @@ pub fn evaluate(
     q: f64,
     set_head: Option<(f64, bool)>,
 ) -> Result<SetState, Message> {
+    evaluate_at(m, sys, &AtFlow::new(sys, q), k, set_head)
+}
+
+/// [`evaluate`] with the system at the total flow already taken ([`AtFlow::new`]), so
+/// that the counts of one load point share it.
+pub fn evaluate_at(
+    m: &SetModel,
+    sys: &CaseSystem,
+    at: &AtFlow,
+    k: u32,
+    set_head: Option<(f64, bool)>,
+) -> Result<SetState, Message> {
+    let q = at.flow;
     let k = k.clamp(1, m.parallel.max(1));
     let qp = q / k as f64;
     let ser = m.series.max(1) as f64;
-    let system_head = sys.head(q);
+    let system_head = at.system_head;
     let branch = sys.station_loss(qp);
     let (ratio, at_min, below) = match (m.speed, set_head) {
         (SpeedRange::Variable { min, max }, Some((h, below))) => {
@@ -183,17 +230,7 @@ pub fn evaluate(
             " the line needs"
         ]);
     }
-    power_chain(
-        m,
-        sys,
-        k,
-        ratio,
-        q,
-        head_per_pump,
-        system_head,
-        at_min,
-        below,
-    )
+    power_chain(m, sys, at, k, ratio, head_per_pump, at_min, below)
 }
 
 /// Efficiency, NPSH and the power chain of a set whose speed and head are known.
@@ -201,14 +238,14 @@ pub fn evaluate(
 fn power_chain(
     m: &SetModel,
     sys: &CaseSystem,
+    at: &AtFlow,
     k: u32,
     ratio: f64,
-    q: f64,
     head_per_pump: f64,
-    system_head: f64,
     at_min_speed: bool,
     below_system_curve: bool,
 ) -> Result<SetState, Message> {
+    let (q, system_head) = (at.flow, at.system_head);
     let pump = scaled(m, ratio);
     let qp = q / k as f64;
     let ser = m.series.max(1) as f64;
@@ -252,7 +289,7 @@ fn power_chain(
             .map(|b| b * pump.flow_scale())
             .filter(|b| *b > 0.0)
             .map(|b| qp / b),
-        npsh_available: sys.npsh_available_per_pump(q, qp),
+        npsh_available: at.npsh_available(sys, qp),
         npsh_required: pump.eval_npshr(qp),
         shaft_power: shaft_per_pump * running,
         motor_load,
@@ -288,10 +325,35 @@ pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, Mes
             ]
         })?;
     let h = pump.eval_head(q / k as f64);
-    power_chain(m, sys, k, ratio, q, h, sys.head(q), false, false)
+    power_chain(m, sys, &AtFlow::new(sys, q), k, ratio, h, false, false)
 }
 
 /// "1 pump" or "k pumps": the count running, for messages.
 fn pumps_running(k: u32) -> String {
     crate::numbers::count(k as usize, "pump", "pumps")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::{check, NoFiles};
+
+    #[test]
+    fn at_flow_is_the_system_head_and_npsh_to_the_bit() {
+        let src = include_str!("../../../examples-demo/orchard-lift-rev-a.duty");
+        let design = check(src, &NoFiles).design.expect("the demo checks");
+        for case in &design.cases {
+            let sys = CaseSystem::new(&case.scenario).expect("system");
+            for i in 0..=40 {
+                let q = 0.12 * i as f64 / 40.0;
+                let at = AtFlow::new(&sys, q);
+                assert_eq!(at.system_head.to_bits(), sys.head(q).to_bits(), "q {q}");
+                for k in 1..=3 {
+                    let qp = q / k as f64;
+                    let npsh = sys.npsh_available_per_pump(q, qp);
+                    assert_eq!(at.npsh_available(&sys, qp).to_bits(), npsh.to_bits());
+                }
+            }
+        }
+    }
 }

@@ -84,16 +84,29 @@ pub fn switching_points(
     bisections: usize,
     running: impl Fn(f64) -> Option<u32>,
 ) -> Vec<Switch> {
-    let mut qs: Vec<f64> = flows
+    let known: Vec<(f64, Option<u32>)> = flows.iter().map(|&q| (q, None)).collect();
+    switching_points_from(&known, bisections, running)
+}
+
+/// [`switching_points`] where the count at some flows is already known: each pair is a
+/// flow (m³/s) and its count when known (`None`: `running` is asked, as for a flow that
+/// nothing delivers, which asks again and gets `None` once more). The brackets, and so
+/// the switching points, are those of [`switching_points`] over the same flows.
+pub fn switching_points_from(
+    flows: &[(f64, Option<u32>)],
+    bisections: usize,
+    running: impl Fn(f64) -> Option<u32>,
+) -> Vec<Switch> {
+    let mut qs: Vec<(f64, Option<u32>)> = flows
         .iter()
         .copied()
-        .filter(|q| q.is_finite() && *q >= 0.0)
+        .filter(|(q, _)| q.is_finite() && *q >= 0.0)
         .collect();
-    qs.sort_by(f64::total_cmp);
-    qs.dedup();
+    qs.sort_by(|a, b| a.0.total_cmp(&b.0));
+    qs.dedup_by(|b, a| a.0 == b.0);
     let known: Vec<(f64, u32)> = qs
         .iter()
-        .filter_map(|&q| running(q).map(|k| (q, k)))
+        .filter_map(|&(q, k)| k.or_else(|| running(q)).map(|k| (q, k)))
         .collect();
     let mut out = Vec::new();
     for w in known.windows(2) {

@@ -38,8 +38,33 @@ pub fn hazen_williams_head_loss_m(flow_m3_s: f64, diameter_m: f64, length_m: f64
         return f64::NAN;
     }
     let magnitude = HAZEN_WILLIAMS_SI_CONSTANT * length_m * flow_m3_s.abs().powf(1.852)
-        / (c.powf(1.852) * diameter_m.powf(4.8704));
+        / si_denominator(c, diameter_m);
     magnitude.copysign(flow_m3_s)
+}
+
+/// C^1.852 · D^4.8704 of the SI form, or the value it gave last for the same C and D:
+/// the last few are kept per thread, keyed by the bits of both, so a kept value is the
+/// computed one bit for bit. A segment's C and bore stay while its flow changes (a
+/// system curve, a duty solve), and the two powers cost more than the rest of the loss.
+fn si_denominator(c: f64, diameter_m: f64) -> f64 {
+    use std::cell::Cell;
+    const SLOTS: usize = 8;
+    thread_local! {
+        static KEPT: [Cell<(u64, u64, f64)>; SLOTS] =
+            const { [const { Cell::new((u64::MAX, u64::MAX, 0.0)) }; SLOTS] };
+    }
+    let (kc, kd) = (c.to_bits(), diameter_m.to_bits());
+    let hash = (kc ^ kd.rotate_left(31)).wrapping_mul(0x9E37_79B9_7F4A_7C15);
+    let slot = (hash >> 61) as usize % SLOTS;
+    if let Some(v) = KEPT.with(|k| {
+        let (a, b, v) = k[slot].get();
+        (a == kc && b == kd).then_some(v)
+    }) {
+        return v;
+    }
+    let v = c.powf(1.852) * diameter_m.powf(4.8704);
+    KEPT.with(|k| k[slot].set((kc, kd, v)));
+    v
 }
 
 /// Hazen–Williams pressure loss (psi per foot of pipe) in US customary form
@@ -162,6 +187,23 @@ pub fn hazen_williams_validity(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn kept_denominators_are_the_computed_ones_to_the_bit() {
+        // More (C, D) pairs than slots, asked in two orders: each loss is the one of the
+        // formula written out.
+        let pairs: Vec<(f64, f64)> = (0..40)
+            .map(|i| (80.0 + 3.0 * i as f64, 0.05 + 0.01 * (i % 9) as f64))
+            .collect();
+        for round in 0..2 {
+            for &(c, d) in pairs.iter().rev().skip(round) {
+                let h = hazen_williams_head_loss_m(0.03, d, 250.0, c);
+                let by_hand = HAZEN_WILLIAMS_SI_CONSTANT * 250.0 * 0.03f64.powf(1.852)
+                    / (c.powf(1.852) * d.powf(4.8704));
+                assert_eq!(h.to_bits(), by_hand.to_bits(), "C {c}, D {d}");
+            }
+        }
+    }
 
     #[test]
     fn worked_si_number() {
