@@ -124,6 +124,8 @@ fn staging_matches_brute_force_over_every_count() {
         base,
         trim: *trim,
         bep_flow: cc.evaluated_bep.map(|b| b.flow),
+        bep: cc.evaluated_bep,
+        liquid_viscosity: None,
         parallel: 2,
         series: 1,
         speed: point::SpeedRange::Variable {

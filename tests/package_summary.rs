@@ -73,7 +73,9 @@ fn a_summarised_package_attaches_the_governing_cases_results() {
     use dutyline::verify::{DesignFiles, Sources, StyleSource};
     let n = SUMMARY_CASES + 20;
     let src = large_design::large_design(n);
-    let d = dutyline::check(&src, &dutyline::NoFiles).design.expect("design");
+    let d = dutyline::check(&src, &dutyline::NoFiles)
+        .design
+        .expect("design");
     let sources = Sources {
         design: DesignFiles {
             name: "large.duty".into(),
@@ -92,7 +94,11 @@ fn a_summarised_package_attaches_the_governing_cases_results() {
         .iter()
         .find(|a| a.name.ends_with(".json") && a.description.contains("results"))
         .expect("results attached");
-    assert!(results.description.contains("governing"), "{}", results.description);
+    assert!(
+        results.description.contains("governing"),
+        "{}",
+        results.description
+    );
     // The ranking still covers every case: the same as the whole design's.
     let whole = dutyline::analysis::analyse(&d);
     assert_eq!(

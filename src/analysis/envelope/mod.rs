@@ -323,15 +323,20 @@ struct Ctx<'a> {
     motor_w: Option<f64>,
 }
 
-/// The nominal pump as installed: the nominal duty's speed and impeller.
-fn installed<'a>(pr: &PumpResult, cc: &'a CandidateCurves) -> Option<ScaledPump<'a>> {
+/// The nominal pump as installed: the nominal duty's speed and impeller, on the case's
+/// liquid (corrected for viscosity as the duty is: [`crate::analysis::duty::pump_in_case`]).
+fn installed<'a>(
+    pr: &PumpResult,
+    cc: &'a CandidateCurves,
+    sys: &CaseSystem,
+) -> Option<ScaledPump<'a>> {
     let (base, trim) = cc.evaluated.as_ref()?;
     let speed = pr.speed_rpm / base.speed_rpm;
     let diameter = match (pr.impeller_diameter_m, base.impeller_diameter_m) {
         (Some(a), Some(b)) if b > 0.0 => a / b,
         _ => *trim,
     };
-    ScaledPump::new(base, speed, diameter).ok()
+    crate::analysis::duty::pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref()).ok()
 }
 
 fn duty_envelope(
@@ -341,7 +346,16 @@ fn duty_envelope(
     cc: &CandidateCurves,
 ) -> Option<DutyEnvelope> {
     let nominal = pr.duty.as_ref()?;
-    let scaled = installed(pr, cc)?;
+    // The pump curve on the nominal liquid (the corner with every input at its nominal
+    // value; a temperature corner moves the viscosity only a little against the
+    // correction's own uncertainty), else the first corner analysed.
+    let nominal_sys = ctx
+        .systems
+        .iter()
+        .find(|(x, s)| s.is_ok() && x.iter().all(|v| *v == 0.0))
+        .or_else(|| ctx.systems.iter().find(|(_, s)| s.is_ok()));
+    let sys = nominal_sys?.1.as_ref().ok()?;
+    let scaled = installed(pr, cc, sys)?;
     // The pumps running in this case (`PUMP.running`), as the nominal duty has them.
     let (par, ser) = stages_in(p, ctx.case);
     let (par, ser) = (f64::from(par), f64::from(ser));

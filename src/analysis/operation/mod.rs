@@ -199,6 +199,8 @@ fn set_model<'a>(
         base,
         trim: *trim,
         bep_flow: cc.evaluated_bep.map(|b| b.flow),
+        bep: cc.evaluated_bep,
+        liquid_viscosity: None,
         parallel,
         series,
         speed,
@@ -258,6 +260,7 @@ fn candidate(
             continue;
         };
         let min_flow = profile.min_flow_ratio.unwrap_or(AOR.0);
+        let m = m.on_liquid(sys);
         let first = out.points.len();
         for lp in &profile.points {
             out.points.push(run_point(

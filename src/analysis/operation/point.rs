@@ -41,6 +41,11 @@ pub struct SetModel<'a> {
     pub trim: f64,
     /// Best-efficiency flow of `base` at its own speed, m³/s (before trim).
     pub bep_flow: Option<f64>,
+    /// Best-efficiency point of `base` (for the viscosity correction's parameter B).
+    pub bep: Option<crate::pumps::Bep>,
+    /// Kinematic viscosity of the liquid, m²/s, when it is not water: the curve is then
+    /// corrected by ANSI/HI 9.6.7 as in the duty solve ([`SetModel::on_liquid`]).
+    pub liquid_viscosity: Option<f64>,
     /// Duty pumps of a parallel set (1 otherwise).
     pub parallel: u32,
     /// Pumps in series (1 otherwise).
@@ -140,9 +145,24 @@ impl AtFlow {
     }
 }
 
-/// The pump at speed ratio `r` with the model's trim.
+impl SetModel<'_> {
+    /// The model on the liquid of `sys`: water leaves it as it is; another liquid's
+    /// viscosity is kept so that every evaluation of the curve is corrected as
+    /// [`crate::analysis::duty::pump_in_case`] corrects the duty's.
+    pub fn on_liquid(&self, sys: &CaseSystem) -> Self {
+        let mut m = self.clone();
+        m.liquid_viscosity = (!sys.fluid.is_water()).then(|| sys.fluid.kinematic_viscosity());
+        m
+    }
+}
+
+/// The pump at speed ratio `r` with the model's trim, on the model's liquid.
 fn scaled<'a>(m: &SetModel<'a>, r: f64) -> ScaledPump<'a> {
-    ScaledPump::quiet(m.base, r, m.trim)
+    let pump = ScaledPump::quiet(m.base, r, m.trim);
+    match m.liquid_viscosity {
+        Some(nu) => pump.on_liquid(nu, m.bep.as_ref()),
+        None => pump,
+    }
 }
 
 /// Speed ratio at which one pump gives `head` (m) at `qp` (m³/s) within `min..max`:
@@ -286,7 +306,7 @@ fn power_chain(
         efficiency,
         bep_ratio: m
             .bep_flow
-            .map(|b| b * pump.flow_scale())
+            .map(|b| pump.bep_flow(b))
             .filter(|b| *b > 0.0)
             .map(|b| qp / b),
         npsh_available: at.npsh_available(sys, qp),
