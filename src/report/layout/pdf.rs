@@ -34,12 +34,7 @@ pub fn write(
     id_seed: &str,
     attachments: &[Attachment],
 ) -> Result<Vec<u8>, LayoutError> {
-    let mut used: [BTreeSet<char>; 3] = Default::default();
-    for page in &layout.pages {
-        for t in page.texts() {
-            used[t.face.index()].extend(t.text.chars());
-        }
-    }
+    let used = used_chars(layout);
     let mut doc = PdfDocument::new(title);
     doc.metadata.info.producer = "dutyline".to_string();
     doc.metadata.info.creator = "dutyline".to_string();
@@ -118,7 +113,9 @@ const DEFLATE_LEVEL: u32 = 6;
 /// does (FlateDecode, ISO 32000-1, 7.4.4; kept only when it saves more than the
 /// filter entry costs), at [`DEFLATE_LEVEL`].
 fn compress(doc: &mut lopdf::Document) {
-    use std::io::Write;
+    // One compressor for every stream, reset between them: zlib-rs allocates and
+    // clears its window and hash tables when a compressor is made.
+    let mut deflate = flate2::Compress::new(flate2::Compression::new(DEFLATE_LEVEL), true);
     for object in doc.objects.values_mut() {
         let lopdf::Object::Stream(stream) = object else {
             continue;
@@ -126,19 +123,36 @@ fn compress(doc: &mut lopdf::Document) {
         if !stream.allows_compression || stream.dict.get(b"Filter").is_ok() {
             continue;
         }
-        let mut encoder = flate2::write::ZlibEncoder::new(
-            Vec::with_capacity(stream.content.len() / 3),
-            flate2::Compression::new(DEFLATE_LEVEL),
-        );
-        let Ok(packed) = encoder
-            .write_all(&stream.content)
-            .and_then(|()| encoder.finish())
-        else {
+        deflate.reset();
+        let Some(packed) = deflate_all(&mut deflate, &stream.content) else {
             continue;
         };
         if packed.len() + 19 < stream.content.len() {
             stream.dict.set("Filter", "FlateDecode");
             stream.set_content(packed);
+        }
+    }
+}
+
+/// The zlib stream (RFC 1950) of `data` from a freshly reset compressor.
+fn deflate_all(deflate: &mut flate2::Compress, data: &[u8]) -> Option<Vec<u8>> {
+    // zlib's deflateBound for the default settings: room for the whole stream in
+    // one call, even for data that does not compress.
+    let mut out = Vec::with_capacity(data.len() + (data.len() >> 12) + (data.len() >> 14) + 64);
+    loop {
+        let consumed = usize::try_from(deflate.total_in()).ok()?;
+        let status = deflate
+            .compress_vec(
+                data.get(consumed..)?,
+                &mut out,
+                flate2::FlushCompress::Finish,
+            )
+            .ok()?;
+        match status {
+            flate2::Status::StreamEnd => return Some(out),
+            flate2::Status::Ok | flate2::Status::BufError => {
+                out.reserve(out.capacity().max(64));
+            }
         }
     }
 }
@@ -340,4 +354,35 @@ fn set_page_contents(lo: &mut lopdf::Document, contents: Vec<Vec<u8>>) -> Result
         stream.set_content(content);
     }
     Ok(())
+}
+
+/// The characters each face draws. ASCII is marked in a table first (most of the
+/// text), the rest in a set, so a package does not insert every character it draws
+/// into a tree.
+fn used_chars(layout: &Layout) -> [BTreeSet<char>; 3] {
+    let mut ascii = [[false; 128]; 3];
+    let mut used: [BTreeSet<char>; 3] = Default::default();
+    for page in &layout.pages {
+        for t in page.texts() {
+            let i = t.face.index();
+            for c in t.text.chars() {
+                match ascii[i].get_mut(c as usize) {
+                    Some(seen) => *seen = true,
+                    None => {
+                        used[i].insert(c);
+                    }
+                }
+            }
+        }
+    }
+    for (set, table) in used.iter_mut().zip(&ascii) {
+        set.extend(
+            table
+                .iter()
+                .enumerate()
+                .filter(|(_, &seen)| seen)
+                .map(|(b, _)| char::from(b as u8)),
+        );
+    }
+    used
 }
