@@ -30,6 +30,7 @@ mod listing;
 pub mod page;
 mod paginate;
 mod pdf;
+mod stream;
 pub mod style;
 mod subset;
 mod table;

@@ -10,27 +10,19 @@
 
 use super::document::{Attachment, PdfInfo};
 use super::font::{Face, FontSet};
-use super::page::{Item, Layout, Stroke};
-use super::style::{Colour, LineStyle};
+use super::page::Layout;
+use super::stream::{page_content, resource_name, Glyphs};
 use super::subset::subset;
 use super::LayoutError;
 use printpdf::{
-    Color, FontId, LineCapStyle, LineDashPattern, LineJoinStyle, LinePoint, Mm, Op, PaintMode,
-    ParsedFont, PdfDocument, PdfFont, PdfFontHandle, PdfPage, PdfSaveOptions, Point, Polygon,
-    PolygonRing, Pt, Rgb, TextItem, TextMatrix, WindingOrder,
+    FontId, Mm, Op, ParsedFont, PdfDocument, PdfFont, PdfFontHandle, PdfPage, PdfSaveOptions, Pt,
+    TextItem,
 };
 use std::collections::BTreeSet;
 
 /// Resource name of each face in the PDF.
 fn resource(face: Face) -> FontId {
-    FontId(
-        match face {
-            Face::Regular => "DLSans",
-            Face::Bold => "DLSansBold",
-            Face::Mono => "DLMono",
-        }
-        .to_string(),
-    )
+    FontId(resource_name(face).to_string())
 }
 
 /// Writes the laid-out pages as PDF bytes.
@@ -42,12 +34,7 @@ pub fn write(
     id_seed: &str,
     attachments: &[Attachment],
 ) -> Result<Vec<u8>, LayoutError> {
-    let mut used: [BTreeSet<char>; 3] = Default::default();
-    for page in &layout.pages {
-        for t in page.texts() {
-            used[t.face.index()].extend(t.text.chars());
-        }
-    }
+    let used = used_chars(layout);
     let mut doc = PdfDocument::new(title);
     doc.metadata.info.producer = "dutyline".to_string();
     doc.metadata.info.creator = "dutyline".to_string();
@@ -73,26 +60,19 @@ pub fn write(
         doc.metadata.info.modification_date = date;
         doc.metadata.info.metadata_date = date;
     }
-    for face in Face::ALL {
-        let chars = &used[face.index()];
-        if chars.is_empty() {
-            continue;
-        }
-        let bytes = subset(fonts.file(face), chars).map_err(LayoutError::Font)?;
-        let mut warnings = Vec::new();
-        let mut parsed = ParsedFont::from_bytes(&bytes, 0, &mut warnings).ok_or_else(|| {
-            LayoutError::Font(format!("subset of {} unreadable", face.font_name()))
-        })?;
-        let tag = subset_tag(face, chars);
-        parsed.font_name = Some(format!("{tag}+{}", face.font_name()));
-        doc.resources
-            .fonts
-            .map
-            .insert(resource(face), PdfFont::new(parsed));
-    }
+    let glyphs = embed_fonts(&mut doc, fonts, &used)?;
     let (w, h) = (layout.page_width, layout.page_height);
-    for page in &layout.pages {
-        let ops = page_ops(&page.items, h);
+    let contents: Vec<Vec<u8>> = layout
+        .pages
+        .iter()
+        .map(|page| page_content(&page.items, h, &glyphs))
+        .collect();
+    // printpdf learns which glyphs each font uses from the pages' text operators
+    // (its widths and ToUnicode map); the first page carries one text run per face
+    // for that, and every page's content stream is replaced after translation.
+    let usage = glyph_usage_ops(layout, &glyphs);
+    for i in 0..layout.pages.len() {
+        let ops = if i == 0 { usage.clone() } else { Vec::new() };
         doc.pages.push(PdfPage::new(
             Mm(w as f32 * 25.4 / 72.0),
             Mm(h as f32 * 25.4 / 72.0),
@@ -109,6 +89,7 @@ pub fn write(
     // printpdf's own `save` is `to_lopdf_document`, `compress`, `save_to`; the
     // attachments go in between, so a document without them is written as before.
     let mut lo = doc.to_lopdf_document(&opts, &mut warnings);
+    set_page_contents(&mut lo, contents)?;
     drop_empty_info_keys(&mut lo);
     super::attach::embed(&mut lo, attachments, &pdf_date(info.date))?;
     compress(&mut lo);
@@ -132,7 +113,9 @@ const DEFLATE_LEVEL: u32 = 6;
 /// does (FlateDecode, ISO 32000-1, 7.4.4; kept only when it saves more than the
 /// filter entry costs), at [`DEFLATE_LEVEL`].
 fn compress(doc: &mut lopdf::Document) {
-    use std::io::Write;
+    // One compressor for every stream, reset between them: zlib-rs allocates and
+    // clears its window and hash tables when a compressor is made.
+    let mut deflate = flate2::Compress::new(flate2::Compression::new(DEFLATE_LEVEL), true);
     for object in doc.objects.values_mut() {
         let lopdf::Object::Stream(stream) = object else {
             continue;
@@ -140,19 +123,36 @@ fn compress(doc: &mut lopdf::Document) {
         if !stream.allows_compression || stream.dict.get(b"Filter").is_ok() {
             continue;
         }
-        let mut encoder = flate2::write::ZlibEncoder::new(
-            Vec::with_capacity(stream.content.len() / 3),
-            flate2::Compression::new(DEFLATE_LEVEL),
-        );
-        let Ok(packed) = encoder
-            .write_all(&stream.content)
-            .and_then(|()| encoder.finish())
-        else {
+        deflate.reset();
+        let Some(packed) = deflate_all(&mut deflate, &stream.content) else {
             continue;
         };
         if packed.len() + 19 < stream.content.len() {
             stream.dict.set("Filter", "FlateDecode");
             stream.set_content(packed);
+        }
+    }
+}
+
+/// The zlib stream (RFC 1950) of `data` from a freshly reset compressor.
+fn deflate_all(deflate: &mut flate2::Compress, data: &[u8]) -> Option<Vec<u8>> {
+    // zlib's deflateBound for the default settings: room for the whole stream in
+    // one call, even for data that does not compress.
+    let mut out = Vec::with_capacity(data.len() + (data.len() >> 12) + (data.len() >> 14) + 64);
+    loop {
+        let consumed = usize::try_from(deflate.total_in()).ok()?;
+        let status = deflate
+            .compress_vec(
+                data.get(consumed..)?,
+                &mut out,
+                flate2::FlushCompress::Finish,
+            )
+            .ok()?;
+        match status {
+            flate2::Status::StreamEnd => return Some(out),
+            flate2::Status::Ok | flate2::Status::BufError => {
+                out.reserve(out.capacity().max(64));
+            }
         }
     }
 }
@@ -261,213 +261,128 @@ fn find_last(hay: &[u8], needle: &[u8]) -> Option<usize> {
     hay.windows(needle.len()).rposition(|w| w == needle)
 }
 
-fn pdf_colour(c: Colour) -> Color {
-    Color::Rgb(Rgb {
-        r: f32::from(c.r) / 255.0,
-        g: f32::from(c.g) / 255.0,
-        b: f32::from(c.b) / 255.0,
-        icc_profile: None,
-    })
-}
-
-fn dash_pattern(dash: LineStyle, width: f64) -> LineDashPattern {
-    let w = width.max(0.5) as f32;
-    match dash {
-        LineStyle::Solid => LineDashPattern::new(0.0, &[]),
-        LineStyle::Dashed => LineDashPattern::new(0.0, &[5.0 * w.sqrt(), 3.0 * w.sqrt()]),
-        LineStyle::Dotted => LineDashPattern::new(0.0, &[0.0, 2.2 * w.max(1.0)]),
-        LineStyle::DashDot => LineDashPattern::new(0.0, &[6.0, 2.5, 0.0, 2.5]),
+/// Embeds the subset of each face that draws any character, under its fixed resource
+/// name; returns each face's glyph table for the content streams.
+fn embed_fonts(
+    doc: &mut PdfDocument,
+    fonts: &FontSet,
+    used: &[BTreeSet<char>; 3],
+) -> Result<[Glyphs; 3], LayoutError> {
+    let mut glyphs: [Glyphs; 3] = Default::default();
+    for face in Face::ALL {
+        let chars = &used[face.index()];
+        if chars.is_empty() {
+            continue;
+        }
+        let bytes = subset(fonts.file(face), chars).map_err(LayoutError::Font)?;
+        let mut warnings = Vec::new();
+        let mut parsed = ParsedFont::from_bytes(&bytes, 0, &mut warnings).ok_or_else(|| {
+            LayoutError::Font(format!("subset of {} unreadable", face.font_name()))
+        })?;
+        let tag = subset_tag(face, chars);
+        parsed.font_name = Some(format!("{tag}+{}", face.font_name()));
+        // The same lookup printpdf's text encoding makes (the subset's cmap).
+        glyphs[face.index()] = Glyphs::new(chars.iter().copied(), |c| {
+            parsed.lookup_glyph_index(c as u32)
+        });
+        doc.resources
+            .fonts
+            .map
+            .insert(resource(face), PdfFont::new(parsed));
     }
+    Ok(glyphs)
 }
 
-/// Graphics state already set in the content stream, to skip redundant operators.
-#[derive(Default)]
-struct State {
-    fill: Option<Colour>,
-    stroke: Option<Stroke>,
-    font: Option<(Face, u64)>,
-    in_text: bool,
-}
-
-fn page_ops(items: &[Item], page_h: f64) -> Vec<Op> {
-    let mut ops = vec![
-        Op::SetLineJoinStyle {
-            join: LineJoinStyle::Round,
-        },
-        Op::SetLineCapStyle {
-            cap: LineCapStyle::Round,
-        },
-    ];
-    let mut st = State::default();
-    let point = |(x, y): (f64, f64)| Point {
-        x: Pt(x as f32),
-        y: Pt((page_h - y) as f32),
-    };
-    for item in items {
-        match item {
-            Item::Text(t) => {
-                if !st.in_text {
-                    ops.push(Op::StartTextSection);
-                    st.in_text = true;
+/// One text run per face holding, for each glyph it draws, the character printpdf
+/// would have recorded for it: the last one drawn with that glyph in page order (its
+/// glyph-usage pass keeps the last), so the font's widths and ToUnicode map are the
+/// ones the full operators gave.
+fn glyph_usage_ops(layout: &Layout, glyphs: &[Glyphs; 3]) -> Vec<Op> {
+    let mut last: [Vec<Option<char>>; 3] = Default::default();
+    for page in &layout.pages {
+        for t in page.texts() {
+            let slots = &mut last[t.face.index()];
+            for c in t.text.chars() {
+                if let Some(gid) = glyphs[t.face.index()].get(c) {
+                    let gid = usize::from(gid);
+                    if slots.len() <= gid {
+                        slots.resize(gid + 1, None);
+                    }
+                    slots[gid] = Some(c);
                 }
-                let key = (t.face, t.size.to_bits());
-                if st.font != Some(key) {
-                    ops.push(Op::SetFont {
-                        font: PdfFontHandle::External(resource(t.face)),
-                        size: Pt(t.size as f32),
-                    });
-                    st.font = Some(key);
-                }
-                set_fill(&mut ops, &mut st, t.colour);
-                let p = point((t.x, t.baseline));
-                let (cos, sin) = (
-                    t.angle_deg.to_radians().cos() as f32,
-                    t.angle_deg.to_radians().sin() as f32,
-                );
-                let matrix = if t.angle_deg == 0.0 {
-                    TextMatrix::Translate(p.x, p.y)
-                } else {
-                    TextMatrix::Raw([cos, sin, -sin, cos, p.x.0, p.y.0])
-                };
-                ops.push(Op::SetTextMatrix { matrix });
-                ops.push(Op::ShowText {
-                    items: vec![TextItem::Text(t.text.clone())],
-                });
-            }
-            Item::Path {
-                points,
-                closed,
-                stroke,
-                fill,
-            } => {
-                end_text(&mut ops, &mut st);
-                if points.len() < 2 {
-                    continue;
-                }
-                let pts: Vec<LinePoint> = points
-                    .iter()
-                    .map(|p| LinePoint {
-                        p: point(*p),
-                        bezier: false,
-                    })
-                    .collect();
-                paint(&mut ops, &mut st, pts, *closed, *stroke, *fill);
-            }
-            Item::Circle {
-                centre,
-                radius,
-                stroke,
-                fill,
-            } => {
-                end_text(&mut ops, &mut st);
-                paint(
-                    &mut ops,
-                    &mut st,
-                    circle_points(*centre, *radius, &point),
-                    true,
-                    *stroke,
-                    *fill,
-                );
             }
         }
     }
-    end_text(&mut ops, &mut st);
+    let mut ops = vec![Op::StartTextSection];
+    for face in Face::ALL {
+        let text: String = last[face.index()].iter().flatten().collect();
+        if text.is_empty() {
+            continue;
+        }
+        ops.push(Op::SetFont {
+            font: PdfFontHandle::External(resource(face)),
+            size: Pt(1.0),
+        });
+        ops.push(Op::ShowText {
+            items: vec![TextItem::Text(text)],
+        });
+    }
+    ops.push(Op::EndTextSection);
     ops
 }
 
-fn end_text(ops: &mut Vec<Op>, st: &mut State) {
-    if st.in_text {
-        ops.push(Op::EndTextSection);
-        st.in_text = false;
+/// Replaces the content stream of every page, in page order, by `contents`.
+fn set_page_contents(lo: &mut lopdf::Document, contents: Vec<Vec<u8>>) -> Result<(), LayoutError> {
+    let pages = lo.get_pages();
+    if pages.len() != contents.len() {
+        return Err(LayoutError::Pdf(format!(
+            "{} pages written for {} laid out",
+            pages.len(),
+            contents.len()
+        )));
     }
+    for (page_id, content) in pages.into_values().zip(contents) {
+        let stream_id = lo
+            .get_dictionary(page_id)
+            .and_then(|page| page.get(b"Contents"))
+            .and_then(lopdf::Object::as_reference)
+            .map_err(|e| LayoutError::Pdf(format!("a page without contents: {e}")))?;
+        let stream = lo
+            .get_object_mut(stream_id)
+            .and_then(lopdf::Object::as_stream_mut)
+            .map_err(|e| LayoutError::Pdf(format!("a page's contents: {e}")))?;
+        stream.set_content(content);
+    }
+    Ok(())
 }
 
-fn set_fill(ops: &mut Vec<Op>, st: &mut State, c: Colour) {
-    if st.fill != Some(c) {
-        ops.push(Op::SetFillColor { col: pdf_colour(c) });
-        st.fill = Some(c);
+/// The characters each face draws. ASCII is marked in a table first (most of the
+/// text), the rest in a set, so a package does not insert every character it draws
+/// into a tree.
+fn used_chars(layout: &Layout) -> [BTreeSet<char>; 3] {
+    let mut ascii = [[false; 128]; 3];
+    let mut used: [BTreeSet<char>; 3] = Default::default();
+    for page in &layout.pages {
+        for t in page.texts() {
+            let i = t.face.index();
+            for c in t.text.chars() {
+                match ascii[i].get_mut(c as usize) {
+                    Some(seen) => *seen = true,
+                    None => {
+                        used[i].insert(c);
+                    }
+                }
+            }
+        }
     }
-}
-
-fn set_stroke(ops: &mut Vec<Op>, st: &mut State, s: Stroke) {
-    let old = st.stroke;
-    if old.map(|o| o.colour) != Some(s.colour) {
-        ops.push(Op::SetOutlineColor {
-            col: pdf_colour(s.colour),
-        });
+    for (set, table) in used.iter_mut().zip(&ascii) {
+        set.extend(
+            table
+                .iter()
+                .enumerate()
+                .filter(|(_, &seen)| seen)
+                .map(|(b, _)| char::from(b as u8)),
+        );
     }
-    if old.map(|o| o.width) != Some(s.width) {
-        ops.push(Op::SetOutlineThickness {
-            pt: Pt(s.width as f32),
-        });
-    }
-    if old.map(|o| (o.dash, o.width)) != Some((s.dash, s.width)) {
-        ops.push(Op::SetLineDashPattern {
-            dash: dash_pattern(s.dash, s.width),
-        });
-    }
-    st.stroke = Some(s);
-}
-
-fn paint(
-    ops: &mut Vec<Op>,
-    st: &mut State,
-    points: Vec<LinePoint>,
-    closed: bool,
-    stroke: Option<Stroke>,
-    fill: Option<Colour>,
-) {
-    if let Some(s) = stroke {
-        set_stroke(ops, st, s);
-    }
-    if let Some(f) = fill {
-        set_fill(ops, st, f);
-    }
-    let mode = match (stroke.is_some(), fill.is_some()) {
-        (true, true) => PaintMode::FillStroke,
-        (false, true) => PaintMode::Fill,
-        (true, false) => PaintMode::Stroke,
-        (false, false) => return,
-    };
-    if !closed && fill.is_none() {
-        ops.push(Op::DrawLine {
-            line: printpdf::Line {
-                points,
-                is_closed: false,
-            },
-        });
-        return;
-    }
-    ops.push(Op::DrawPolygon {
-        polygon: Polygon {
-            rings: vec![PolygonRing { points }],
-            mode,
-            winding_order: WindingOrder::NonZero,
-        },
-    });
-}
-
-/// A circle as four cubic Bézier arcs (control distance 0.5523 r).
-fn circle_points(c: (f64, f64), r: f64, point: &dyn Fn((f64, f64)) -> Point) -> Vec<LinePoint> {
-    let k = 0.552_284_75 * r;
-    let (x, y) = c;
-    let p = |px: f64, py: f64, bezier: bool| LinePoint {
-        p: point((px, py)),
-        bezier,
-    };
-    vec![
-        p(x + r, y, false),
-        p(x + r, y + k, true),
-        p(x + k, y + r, true),
-        p(x, y + r, false),
-        p(x - k, y + r, true),
-        p(x - r, y + k, true),
-        p(x - r, y, false),
-        p(x - r, y - k, true),
-        p(x - k, y - r, true),
-        p(x, y - r, false),
-        p(x + k, y - r, true),
-        p(x + r, y - k, true),
-        p(x + r, y, false),
-    ]
+    used
 }
