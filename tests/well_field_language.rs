@@ -302,3 +302,19 @@ fn a_flow_requirement_at_the_reservoir_reads_the_field_total() {
     let q = c.value.unwrap();
     assert!((q - p.duty.as_ref().unwrap().flow).abs() < 1e-9, "{q}");
 }
+
+#[test]
+fn the_motor_loading_and_the_ranking_basis_follow_the_field_demo() {
+    // Review of the Cedar Flats package: the printed loading must be the printed
+    // largest shaft power over the rating (it was the field mean's), and a design that
+    // prices energy but gives no life is ranked per volume, not on a zero life cost.
+    let src = std::fs::read_to_string("examples-demo/cedar-flats-well-field.duty").unwrap();
+    let (design, a) = common::analyse_valid(&src, &common::DemoFiles);
+    assert_eq!(design.energy.years, 0.0);
+    for m in a.motor_sizing.iter().flatten() {
+        let ratio = m.max_operating_shaft_power / m.choice.rating_w;
+        assert!((m.choice.loading_ratio - ratio).abs() < 1e-12);
+    }
+    assert_eq!(a.selection.criterion, "energy per volume");
+    assert!(a.selection.ranking.iter().all(|r| r.annual_cost.is_some()));
+}

@@ -149,7 +149,8 @@ const LOOP_ENERGY: &str = "energy per year of the stated running hours";
 
 /// Rank the candidates over the analysed cases.
 pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
-    let priced = design.energy.price_per_joule.is_some();
+    // A life-cycle cost needs a life: without `years` the priced energy ranks per volume.
+    let priced = design.energy.price_per_joule.is_some() && design.energy.years > 0.0;
     let hours: f64 = cases.iter().map(|c| c.hours_per_year).sum();
     let closed = super::closed_loop::is_closed_loop(&design.base);
     let criterion = match (priced, hours > 0.0, closed) {
@@ -180,7 +181,7 @@ pub fn rank(design: &Design, cases: &[CaseResult]) -> Selection {
             .iter()
             .filter_map(|r| Some(r.duty.as_ref()?.hydraulic_power * r.energy?.hours * 3600.0))
             .sum();
-        let cost: Option<f64> = if priced {
+        let cost: Option<f64> = if design.energy.price_per_joule.is_some() {
             with_hours
                 .iter()
                 .map(|r| r.energy.and_then(|e| e.cost))

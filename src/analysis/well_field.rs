@@ -641,6 +641,8 @@ fn largest_per_well(cases: &[super::CaseResult], sizing: &mut [Option<super::mot
                 if per_pump > m.max_operating_shaft_power {
                     m.max_operating_shaft_power = per_pump;
                     m.max_operating_case = c.name.clone();
+                    // The loading printed beside it is of this power, not the mean's.
+                    m.choice.loading_ratio = per_pump / m.choice.rating_w;
                 }
             }
         }

@@ -40,9 +40,15 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
         }
     }
     blocks.push(Block::heading(2, "Cautions"));
+    let screened = analysis.safety.cases.iter().any(|c| !c.lines.is_empty());
+    let surge = if screened {
+        "Surge and pressure ratings are screened in the chapter \"Pressure and surge screening\" only: a screen is not a transient analysis, and the manufacturers' certified ratings govern. Thrust restraint, structural supports, electrical design and controls are outside this calculation. Pump trips and valve closures on long mains can raise pressures far above the steady values here."
+    } else {
+        "Surge and pipe pressure ratings are not screened in this package: the shut-off pressures, the ratings of pipe, valves and flanges and the surge of pump trips and valve closures must be checked separately (a transient analysis where mains are long), against the manufacturers' certified ratings. Thrust restraint, structural supports, electrical design and controls are outside this calculation."
+    };
     for c in [
         "The results depend on the pump manufacturer's certified curves and on the installed conditions. Confirm every selected duty point, NPSH required and motor rating against certified test data before purchase.",
-        "Surge and pressure ratings are screened in the chapter \"Pressure and surge screening\" only: a screen is not a transient analysis, and the manufacturers' certified ratings govern. Thrust restraint, structural supports, electrical design and controls are outside this calculation. Pump trips and valve closures on long mains can raise pressures far above the steady values here.",
+        surge,
         "Cavitation damages pumps: an NPSH margin below the limits shown must be resolved before the design proceeds. A motor that overloads at run-out needs protection or a larger rating.",
         "This work is to be reviewed by a licensed engineer and checked against the codes and the authority having jurisdiction where the system is built.",
     ] {

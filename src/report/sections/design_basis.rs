@@ -351,7 +351,7 @@ fn cases(blocks: &mut Vec<Block>, analysis: &Analysis) {
                 ]
             })
             .collect(),
-        caption: Some("Operating cases, their hours per year and what each changes; the values each case uses are in the fluid, level and roughness tables above".into()),
+        caption: Some("Operating cases, their hours per year and what each changes; the values each case uses are in the design-basis tables above".into()),
     });
 }
 
