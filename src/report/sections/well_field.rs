@@ -41,17 +41,19 @@ pub(super) fn chapter(
          set alone, the surge screen, the yearly operation and duty envelopes are not \
          computed for a well field.",
     ));
-    for case in &analysis.cases {
-        for p in case.pumps.iter().filter(|p| !p.wells.is_empty()) {
-            well_table(blocks, &case.name, p, units);
-        }
-    }
+    // The schematic first, under the chapter's own heading: it shows the first case and
+    // candidate, which its caption names, and the per-case sections follow it.
     if let Some((case, p, at)) = analysis.cases.iter().find_map(|c| {
         c.pumps
             .iter()
             .find_map(|p| p.network.as_ref().map(|at| (c, p, at)))
     }) {
         schematic(blocks, &case.name, &p.name, at, units);
+    }
+    for case in &analysis.cases {
+        for p in case.pumps.iter().filter(|p| !p.wells.is_empty()) {
+            well_table(blocks, &case.name, p, units);
+        }
     }
 }
 
