@@ -47,6 +47,9 @@ pub struct MotorSizing {
     pub run_out_speed_rpm: f64,
     /// Fluid density there, kg/m³.
     pub run_out_density: f64,
+    /// The largest run-out power is at the end of the published curve with the power
+    /// still rising there, so "non-overloading" holds over the published range only.
+    pub run_out_at_data_end: bool,
     /// Full-load motor efficiency used for input power (fraction), and its source.
     pub efficiency: f64,
     /// Where the motor efficiency comes from.
@@ -65,15 +68,17 @@ fn standard(design: &Design) -> MotorStandard {
 }
 
 /// The largest shaft power per pump along the curve to its end at the limit (maximum
-/// speed, largest impeller allowed) over the analysed cases: (W, case, flow m³/s, rpm, kg/m³).
+/// speed, largest impeller allowed) over the analysed cases: (W, case, flow m³/s, rpm,
+/// kg/m³, whether it is the curve's last point with the power still rising there).
+#[allow(clippy::type_complexity)]
 fn run_out(
     design: &Design,
     p: &PumpCandidate,
     cc: &CandidateCurves,
     cases: &[CaseResult],
-) -> Option<(f64, String, f64, f64, f64)> {
+) -> Option<(f64, String, f64, f64, f64, bool)> {
     let (base, trim) = cc.evaluated.as_ref()?;
-    let mut best: Option<(f64, String, f64, f64, f64)> = None;
+    let mut best: Option<(f64, String, f64, f64, f64, bool)> = None;
     for (c, dc) in cases.iter().zip(&design.cases) {
         let Some(sys) = &c.system else { continue };
         let case_ratio = dc
@@ -90,14 +95,18 @@ fn run_out(
             continue;
         };
         let (_, end) = scaled.domain();
+        let mut previous: Option<f64> = None;
         for i in 0..RUN_OUT_POINTS {
             let q = end * i as f64 / (RUN_OUT_POINTS - 1) as f64;
             let Some(w) = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q) else {
                 continue;
             };
             if best.as_ref().is_none_or(|b| w > b.0) {
-                best = Some((w, c.name.clone(), q, scaled.speed_rpm(), sys.fluid.density));
+                let rising_at_end = i == RUN_OUT_POINTS - 1 && previous.is_some_and(|p| w > p);
+                let at = (q, scaled.speed_rpm(), sys.fluid.density);
+                best = Some((w, c.name.clone(), at.0, at.1, at.2, rising_at_end));
             }
+            previous = Some(w);
         }
     }
     best
@@ -175,8 +184,8 @@ fn size(
     if max_shaft <= 0.0 {
         return None;
     }
-    let (ro_w, ro_case, ro_flow, ro_speed, ro_density) =
-        run_out(design, p, cc, cases).unwrap_or((max_shaft, max_case.clone(), 0.0, 0.0, 0.0));
+    let (ro_w, ro_case, ro_flow, ro_speed, ro_density, ro_at_end) = run_out(design, p, cc, cases)
+        .unwrap_or((max_shaft, max_case.clone(), 0.0, 0.0, 0.0, false));
     let variable_speed = matches!(p.adjust, Adjust::Speed { .. });
     let service_factor = if variable_speed {
         1.0
@@ -215,6 +224,7 @@ fn size(
         run_out_flow: ro_flow,
         run_out_speed_rpm: ro_speed,
         run_out_density: ro_density,
+        run_out_at_data_end: ro_at_end && ro_w >= max_shaft,
         efficiency,
         efficiency_source,
         poles,
@@ -276,7 +286,9 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
         m.run_out_case,
         100.0 * m.choice.runout_loading_ratio,
     ));
-    msg.push_str(if m.choice.non_overloading {
+    msg.push_str(if m.choice.non_overloading && m.run_out_at_data_end {
+        ": non-overloading over the published curve, but the largest is at its last point with the power still rising: beyond it (filling an empty main, a burst) the motor may overload; confirm the manufacturer's maximum flow or protect the motor"
+    } else if m.choice.non_overloading {
         ": non-overloading"
     } else if beyond_service_factor {
         ": above the nameplate × service factor towards run-out, choose a larger motor or limit the flow"

@@ -444,10 +444,10 @@ pub(super) fn motor(
                 fl.text(sizing.run_out_flow),
                 sizing.run_out_speed_rpm,
                 percent(choice.runout_loading_ratio),
-                if choice.non_overloading {
-                    "non-overloading"
-                } else {
-                    "overloads before the end of the curve"
+                match (choice.non_overloading, sizing.run_out_at_data_end) {
+                    (true, true) => "non-overloading over the published curve; power still rising at its last point",
+                    (true, false) => "non-overloading",
+                    (false, _) => "overloads before the end of the curve",
                 }
             ),
         ),
