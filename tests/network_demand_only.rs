@@ -11,14 +11,13 @@
 //! - The design path: the duty, the governing node at its required pressure, and the
 //!   `design-demand` check against the design demands.
 
+mod network_common;
 mod report_common;
+
+use network_common::reference;
 
 use dutyline::analysis::{analyse, Analysis};
 use dutyline::NoFiles;
-
-fn reference() -> serde_json::Value {
-    serde_json::from_str(include_str!("reference/network_scipy.json")).unwrap()
-}
 
 /// A design holding a reference network: a custom fluid of the reference's density and
 /// viscosity, a short chain to the entry node, pipes by bore and roughness.

@@ -7,12 +7,9 @@
 
 mod network_common;
 
-use dutyline::analysis::network::{solve, Settings};
+use network_common::reference;
 
-fn reference() -> serde_json::Value {
-    let text = include_str!("reference/network_scipy.json");
-    serde_json::from_str(text).unwrap()
-}
+use dutyline::analysis::network::{solve, Settings};
 
 fn check_network(name: &str) {
     let doc = reference();

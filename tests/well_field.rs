@@ -16,21 +16,7 @@ use std::sync::Arc;
 use dutyline::analysis::network::field::{solve_field, FieldSolution, FieldWell};
 use dutyline::analysis::network::{Element, Network, PipeRun};
 use dutyline::analysis::system::WellDrawdown;
-use network_common::{fluid, from_reference, segment, Quadratic};
-
-fn reference() -> serde_json::Value {
-    serde_json::from_str(include_str!("reference/network_scipy.json")).unwrap()
-}
-
-fn field(name: &str) -> serde_json::Value {
-    reference()["well_fields"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .find(|f| f["name"] == name)
-        .unwrap()
-        .clone()
-}
+use network_common::{fluid, from_reference, segment, well_field, Quadratic};
 
 fn run_of(p: &serde_json::Value) -> PipeRun {
     let n = |k: &str| p[k].as_f64().unwrap();
@@ -107,7 +93,7 @@ fn close(a: f64, b: f64, rel: f64) -> bool {
 
 #[test]
 fn three_unequal_wells_match_scipy() {
-    let f = field("three_wells");
+    let f = well_field("three_wells");
     let (sol, net) = solve_reference(&f);
     let want = &f["solution"];
     for (p, w) in sol.pumps.iter().zip(want["pumps"].as_array().unwrap()) {
@@ -144,7 +130,7 @@ fn three_unequal_wells_match_scipy() {
 #[test]
 fn the_field_conserves_flow() {
     for name in ["three_wells", "twin_wells"] {
-        let (sol, net) = solve_reference(&field(name));
+        let (sol, net) = solve_reference(&well_field(name));
         for (i, node) in net.nodes.iter().enumerate() {
             if matches!(
                 node.kind,
@@ -181,7 +167,7 @@ fn the_field_conserves_flow() {
 
 #[test]
 fn two_identical_wells_split_equally() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     let (sol, _) = solve_reference(&f);
     let (a, b) = (&sol.pumps[0], &sol.pumps[1]);
     // Hand solution: by symmetry each well gives half the total.

@@ -12,25 +12,13 @@
 //!   the package built.
 
 mod common;
+mod network_common;
 
 use dutyline::analysis::duty::PumpResult;
 use dutyline::analysis::limits::CheckId;
 use dutyline::analysis::Analysis;
 use dutyline::NoFiles;
-
-fn reference() -> serde_json::Value {
-    serde_json::from_str(include_str!("reference/network_scipy.json")).unwrap()
-}
-
-fn field(name: &str) -> serde_json::Value {
-    reference()["well_fields"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .find(|f| f["name"] == name)
-        .unwrap()
-        .clone()
-}
+use network_common::well_field;
 
 /// A pipe by bore and roughness with its K as a stated loss.
 fn pipe(p: &serde_json::Value) -> String {
@@ -123,7 +111,7 @@ fn pump<'a>(a: &'a Analysis, case: &str) -> &'a PumpResult {
 
 #[test]
 fn the_three_well_field_as_a_design_matches_scipy() {
-    let f = field("three_wells");
+    let f = well_field("three_wells");
     let (_, a) = analysed(&design_of(&f, "case design { hours = 1000 h }\n"));
     let p = pump(&a, "design");
     let want = &f["solution"];
@@ -169,7 +157,7 @@ fn the_three_well_field_as_a_design_matches_scipy() {
 
 #[test]
 fn two_identical_wells_split_equally() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     let (_, a) = analysed(&design_of(&f, "case design { hours = 1000 h }\n"));
     let p = pump(&a, "design");
     let (q0, q1) = (p.wells[0].duty.flow, p.wells[1].duty.flow);
@@ -181,7 +169,7 @@ fn two_identical_wells_split_equally() {
 
 #[test]
 fn a_pump_set_above_its_pumping_level_fails_npsh_there_only() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     // Setting pump a at its static level (above the pumping level): NPSH available
     // falls by the drop of its setting; the hydraulics do not change.
     let extra = "case low { hours = 100 h }\ncase high { hours = 100 h, a.elevation = 70 m }\n";
@@ -207,7 +195,7 @@ fn a_pump_set_above_its_pumping_level_fails_npsh_there_only() {
 
 #[test]
 fn a_stopped_well_pump_leaves_the_field() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     let extra = "case both { hours = 100 h }\ncase one { hours = 100 h, b.running = 0 }\n";
     let (_, an) = analysed(&design_of(&f, extra));
     let (both, one) = (pump(&an, "both"), pump(&an, "one"));
@@ -227,7 +215,7 @@ fn the_test_design_builds_its_package() {
     let src = std::fs::read_to_string("tests/designs/well-field-three.duty").unwrap();
     let (design, a) = analysed(&src);
     let p = pump(&a, "all_wells");
-    let want = &field("three_wells")["solution"];
+    let want = &well_field("three_wells")["solution"];
     let total = want["total_flow_m3_s"].as_f64().unwrap();
     assert!((p.duty.as_ref().unwrap().flow - total).abs() <= 1e-6 * total);
     assert!(p
@@ -249,7 +237,7 @@ fn the_test_design_builds_its_package() {
 
 #[test]
 fn a_pump_that_cannot_lift_against_the_collector_fails_its_duty_at_that_well() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     // Well b 60 m deeper: the pump's 90 m shut-off cannot reach the collector's head,
     // so its check valve stays shut and well a carries the field alone.
     let extra = "case deep { hours = 100 h, well_b.level = 10 m }\n";
@@ -288,7 +276,7 @@ fn a_pump_that_cannot_lift_against_the_collector_fails_its_duty_at_that_well() {
 
 #[test]
 fn a_flow_requirement_at_the_reservoir_reads_the_field_total() {
-    let f = field("twin_wells");
+    let f = well_field("twin_wells");
     let extra = "case design { hours = 100 h }\nrequire { flow at reservoir >= 60 L/s }\n";
     let (_, an) = analysed(&design_of(&f, extra));
     let p = pump(&an, "design");

@@ -148,13 +148,7 @@ pub fn npsh_ratio_limit(design: &Design, case: &Case) -> Limit {
 
 /// Checks of one duty point that need nothing beyond the case.
 pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) -> Vec<Check> {
-    let mut out = vec![operating_region(d)];
-    out.push(npsh_margin(
-        d.npsh_available,
-        d.npsh_required,
-        npsh_limits(design, case),
-    ));
-    out.extend(velocity_checks(d, design.project.units));
+    let mut out = pump_point_checks(design, case, d);
     for r in design.requirements.iter().filter(|r| applies(r, case)) {
         out.push(requirement_check(r, d));
     }
@@ -167,6 +161,14 @@ pub fn duty_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) ->
 /// flow), for a well field's pumps, where the requirements apply to the field's total
 /// ([`requirement_checks`]).
 pub fn pump_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) -> Vec<Check> {
+    let mut out = pump_point_checks(design, case, d);
+    out.extend(minimum_flow(d, p));
+    out
+}
+
+/// Operating region, NPSH margin and velocities of one duty, the first checks of both
+/// [`duty_checks`] and [`pump_checks`].
+fn pump_point_checks(design: &Design, case: &Case, d: &Duty) -> Vec<Check> {
     let mut out = vec![operating_region(d)];
     out.push(npsh_margin(
         d.npsh_available,
@@ -174,7 +176,6 @@ pub fn pump_checks(design: &Design, case: &Case, d: &Duty, p: &PumpCandidate) ->
         npsh_limits(design, case),
     ));
     out.extend(velocity_checks(d, design.project.units));
-    out.extend(minimum_flow(d, p));
     out
 }
 

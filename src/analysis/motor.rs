@@ -67,18 +67,32 @@ fn standard(design: &Design) -> MotorStandard {
     }
 }
 
+/// Where a candidate's shaft power per pump is largest along the curve to run-out.
+struct RunOut {
+    /// Shaft power per pump, W.
+    power: f64,
+    /// The case.
+    case: String,
+    /// Flow per pump, m³/s.
+    flow: f64,
+    /// Speed, rpm.
+    speed_rpm: f64,
+    /// Fluid density, kg/m³.
+    density: f64,
+    /// It is the curve's last point, with the power still rising there.
+    rising_at_end: bool,
+}
+
 /// The largest shaft power per pump along the curve to its end at the limit (maximum
-/// speed, largest impeller allowed) over the analysed cases: (W, case, flow m³/s, rpm,
-/// kg/m³, whether it is the curve's last point with the power still rising there).
-#[allow(clippy::type_complexity)]
+/// speed, largest impeller allowed) over the analysed cases.
 fn run_out(
     design: &Design,
     p: &PumpCandidate,
     cc: &CandidateCurves,
     cases: &[CaseResult],
-) -> Option<(f64, String, f64, f64, f64, bool)> {
+) -> Option<RunOut> {
     let (base, trim) = cc.evaluated.as_ref()?;
-    let mut best: Option<(f64, String, f64, f64, f64, bool)> = None;
+    let mut best: Option<RunOut> = None;
     for (c, dc) in cases.iter().zip(&design.cases) {
         let Some(sys) = &c.system else { continue };
         let case_ratio = dc
@@ -101,10 +115,15 @@ fn run_out(
             let Some(w) = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q) else {
                 continue;
             };
-            if best.as_ref().is_none_or(|b| w > b.0) {
-                let rising_at_end = i == RUN_OUT_POINTS - 1 && previous.is_some_and(|p| w > p);
-                let at = (q, scaled.speed_rpm(), sys.fluid.density);
-                best = Some((w, c.name.clone(), at.0, at.1, at.2, rising_at_end));
+            if best.as_ref().is_none_or(|b| w > b.power) {
+                best = Some(RunOut {
+                    power: w,
+                    case: c.name.clone(),
+                    flow: q,
+                    speed_rpm: scaled.speed_rpm(),
+                    density: sys.fluid.density,
+                    rising_at_end: i == RUN_OUT_POINTS - 1 && previous.is_some_and(|p| w > p),
+                });
             }
             previous = Some(w);
         }
@@ -184,8 +203,14 @@ fn size(
     if max_shaft <= 0.0 {
         return None;
     }
-    let (ro_w, ro_case, ro_flow, ro_speed, ro_density, ro_at_end) = run_out(design, p, cc, cases)
-        .unwrap_or((max_shaft, max_case.clone(), 0.0, 0.0, 0.0, false));
+    let ro = run_out(design, p, cc, cases).unwrap_or(RunOut {
+        power: max_shaft,
+        case: max_case.clone(),
+        flow: 0.0,
+        speed_rpm: 0.0,
+        density: 0.0,
+        rising_at_end: false,
+    });
     let variable_speed = matches!(p.adjust, Adjust::Speed { .. });
     let service_factor = if variable_speed {
         1.0
@@ -193,7 +218,7 @@ fn size(
         design.motor.service_factor
     };
     let std = standard(design);
-    let run_out_w = ro_w.max(max_shaft);
+    let run_out_w = ro.power.max(max_shaft);
     let choice = match p.motor_rating {
         Some(r) => {
             pumps::motor_of_rating(std, r.get::<watt>(), max_shaft, run_out_w, service_factor)
@@ -220,11 +245,11 @@ fn size(
         max_operating_shaft_power: max_shaft,
         max_operating_case: max_case,
         run_out_shaft_power: run_out_w,
-        run_out_case: ro_case,
-        run_out_flow: ro_flow,
-        run_out_speed_rpm: ro_speed,
-        run_out_density: ro_density,
-        run_out_at_data_end: ro_at_end && ro_w >= max_shaft,
+        run_out_at_data_end: ro.rising_at_end && ro.power >= max_shaft,
+        run_out_case: ro.case,
+        run_out_flow: ro.flow,
+        run_out_speed_rpm: ro.speed_rpm,
+        run_out_density: ro.density,
         efficiency,
         efficiency_source,
         poles,

@@ -27,18 +27,18 @@
 
 use std::sync::Arc;
 
-use uom::si::{length::meter, pressure::pascal, volume_rate::cubic_meter_per_second};
+use uom::si::{length::meter, volume_rate::cubic_meter_per_second};
 
 use super::checks::{self, Check, Status};
 use super::duty::{self, CandidateCurves, Duty, PumpResult};
 use super::limits::{CheckId, Source};
-use super::network::{self, field::FieldSolution, HeadCurve, Network, Node, NodeKind};
+use super::network::{self, field::FieldSolution, HeadCurve, Network, NodeKind};
 use super::system::{
     resolve_segment, segment_losses_in, CaseSystem, FluidState, NpshTerms, WellDrawdown, G,
 };
 use crate::message::{flow, Message};
 use crate::model::network::NetworkLayout;
-use crate::model::{Case, Design, PumpCandidate, Scenario, Side, SurfacePressure, Tank};
+use crate::model::{Case, Design, PumpCandidate, Scenario, Side, Tank};
 use crate::pumps::{PumpCurves, ScaledPump};
 
 /// True when the scenario is a well field (its network has well pumps).
@@ -111,13 +111,6 @@ fn tank<'a>(s: &'a Scenario, layout: &'a NetworkLayout, name: &str) -> Option<&'
         .find(|t| t.name == name)
 }
 
-fn gauge_pa(t: &Tank, barometric: f64) -> f64 {
-    match t.surface_pressure {
-        SurfacePressure::Gauge(g) => g.get::<pascal>(),
-        SurfacePressure::Absolute(a) => a.get::<pascal>() - barometric,
-    }
-}
-
 /// The case's collector: junctions and deliveries, the tanks no well pump draws from,
 /// and the links between them.
 fn collector(
@@ -126,19 +119,7 @@ fn collector(
     fluid: &FluidState,
     barometric: f64,
 ) -> Result<Network, String> {
-    let mut nodes: Vec<Node> = layout
-        .nodes
-        .iter()
-        .map(|n| Node {
-            name: n.name.clone(),
-            kind: NodeKind::Junction {
-                demand: n.demand.get::<cubic_meter_per_second>(),
-            },
-            elevation: n.elevation.get::<meter>(),
-            required_pressure: n.required_pressure.map(|p| p.get::<pascal>()),
-            word: if n.delivery { "delivery" } else { "junction" },
-        })
-        .collect();
+    let mut nodes = network::station::junction_nodes(layout);
     let is_well = |name: &str| layout.wells.iter().any(|w| w.well == name);
     for t in std::iter::once(&s.destination).chain(&layout.tanks) {
         let reached = layout
@@ -147,16 +128,7 @@ fn collector(
             .any(|l| l.from == t.name || l.to == t.name)
             || layout.wells.iter().any(|w| w.to == t.name);
         if reached && !is_well(&t.name) && !nodes.iter().any(|n| n.name == t.name) {
-            nodes.push(Node {
-                name: t.name.clone(),
-                kind: NodeKind::FixedHead {
-                    level: t.level.get::<meter>(),
-                    surface_pressure: gauge_pa(t, barometric),
-                },
-                elevation: t.level.get::<meter>(),
-                required_pressure: None,
-                word: "tank",
-            });
+            nodes.push(network::station::tank_node(t, barometric));
         }
     }
     let at = |name: &str| nodes.iter().position(|n| n.name == name);
@@ -209,7 +181,7 @@ fn field_wells(
             network::field::FieldWell {
                 name: w.name.clone(),
                 static_level: t.level.get::<meter>(),
-                surface_pressure: gauge_pa(t, barometric),
+                surface_pressure: network::station::gauge(t.surface_pressure, barometric),
                 drawdown: drawdown_of(t),
                 pump_elevation: w.elevation.get::<meter>(),
                 suction: run(&w.suction, Side::Suction)?,

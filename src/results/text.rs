@@ -162,10 +162,8 @@ fn header(o: &mut String, design: &Design) {
     let _ = writeln!(o, "units: {}", p.units.keyword());
 }
 
-/// One case's system: fluid, barometric pressure, static head, levels, segments and
-/// the system curve (every third point).
-fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
-    let (fl, hd, len, dia) = (u.flow(), u.head(), u.length(), u.diameter());
+/// A case's fluid (its properties at the case's temperature) and barometric pressure.
+pub(super) fn fluid_and_barometric(o: &mut String, u: &Units, s: &CaseSystem) {
     let _ = writeln!(
         o,
         "  fluid: {}{}, density {}, viscosity {}, vapour pressure {}",
@@ -183,6 +181,13 @@ fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
         "  barometric pressure: {}",
         u.absolute_pressure().fmt(s.barometric.pa())
     );
+}
+
+/// One case's system: fluid, barometric pressure, static head, levels, segments and
+/// the system curve (every third point).
+fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
+    let (fl, hd, len, dia) = (u.flow(), u.head(), u.length(), u.diameter());
+    fluid_and_barometric(o, u, s);
     let _ = writeln!(o, "  static head: {}", hd.fmt(s.static_head));
     let _ = writeln!(
         o,

@@ -17,23 +17,7 @@ pub(super) fn is_field(design: &Design) -> bool {
 /// A well-field case's fluid and barometric pressure, and what stands in for the
 /// system curve.
 pub(super) fn case_field(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
-    let _ = writeln!(
-        o,
-        "  fluid: {}{}, density {}, viscosity {}, vapour pressure {}",
-        s.fluid.name,
-        s.fluid
-            .temperature_k
-            .map(|t| format!(" at {}", u.temperature().fmt(t)))
-            .unwrap_or_default(),
-        u.density().fmt(s.fluid.density),
-        u.viscosity().fmt(s.fluid.viscosity),
-        u.absolute_pressure().fmt(s.fluid.vapor_pressure.pa())
-    );
-    let _ = writeln!(
-        o,
-        "  barometric pressure: {}",
-        u.absolute_pressure().fmt(s.barometric.pa())
-    );
+    super::text::fluid_and_barometric(o, u, s);
     let running = c.pumps.first().map_or(0, |p| p.wells.len());
     let _ = writeln!(
         o,

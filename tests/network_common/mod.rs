@@ -259,3 +259,20 @@ pub fn grid(w: usize, h: usize, feeds: usize) -> Network {
         links,
     }
 }
+
+/// The networks `tests/reference/gen_network.py` solved by scipy's root finder with
+/// fluids' friction factors (`tests/reference/network_scipy.json`).
+pub fn reference() -> serde_json::Value {
+    serde_json::from_str(include_str!("../reference/network_scipy.json")).unwrap()
+}
+
+/// The reference's well field named `name`.
+pub fn well_field(name: &str) -> serde_json::Value {
+    reference()["well_fields"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|f| f["name"] == name)
+        .unwrap()
+        .clone()
+}

@@ -64,14 +64,16 @@ impl DemandPattern {
     }
 }
 
-fn gauge(p: SurfacePressure, barometric: f64) -> f64 {
+/// A surface pressure as gauge, Pa, at the barometric pressure `barometric` (Pa).
+pub(crate) fn gauge(p: SurfacePressure, barometric: f64) -> f64 {
     match p {
         SurfacePressure::Gauge(g) => g.get::<pascal>(),
         SurfacePressure::Absolute(a) => a.get::<pascal>() - barometric,
     }
 }
 
-fn tank_node(t: &Tank, barometric: f64) -> Node {
+/// A tank as a fixed-head node of the network.
+pub(crate) fn tank_node(t: &Tank, barometric: f64) -> Node {
     Node {
         name: t.name.clone(),
         kind: NodeKind::FixedHead {
@@ -84,6 +86,23 @@ fn tank_node(t: &Tank, barometric: f64) -> Node {
     }
 }
 
+/// The layout's junctions and deliveries as network nodes, in file order.
+pub(crate) fn junction_nodes(layout: &NetworkLayout) -> Vec<Node> {
+    layout
+        .nodes
+        .iter()
+        .map(|n| Node {
+            name: n.name.clone(),
+            kind: NodeKind::Junction {
+                demand: n.demand.get::<cubic_meter_per_second>(),
+            },
+            elevation: n.elevation.get::<meter>(),
+            required_pressure: n.required_pressure.map(|p| p.get::<pascal>()),
+            word: if n.delivery { "delivery" } else { "junction" },
+        })
+        .collect()
+}
+
 impl StationNetwork {
     /// Build the case's network from its scenario.
     pub fn build(
@@ -92,19 +111,7 @@ impl StationNetwork {
         fluid: &FluidState,
         barometric_pa: f64,
     ) -> Result<StationNetwork, SystemError> {
-        let mut nodes: Vec<Node> = layout
-            .nodes
-            .iter()
-            .map(|n| Node {
-                name: n.name.clone(),
-                kind: NodeKind::Junction {
-                    demand: n.demand.get::<cubic_meter_per_second>(),
-                },
-                elevation: n.elevation.get::<meter>(),
-                required_pressure: n.required_pressure.map(|p| p.get::<pascal>()),
-                word: if n.delivery { "delivery" } else { "junction" },
-            })
-            .collect();
+        let mut nodes = junction_nodes(layout);
         for t in std::iter::once(&s.destination)
             .chain(&layout.tanks)
             .chain(std::iter::once(&s.source))

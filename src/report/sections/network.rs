@@ -392,16 +392,15 @@ fn coefficient(units: &Units, kv: f64, suffix: &str) -> String {
     }
 }
 
-/// Layers of the schematic: the source tank 0, the entry node 1, then each node one more
-/// than the nearest node upstream (breadth first along the links, either direction).
-fn layers(at: &NetworkAtDuty, entry: &str) -> Vec<usize> {
-    let n = at.nodes.len();
+/// Each node's layer for a schematic: breadth-first over the links from `roots`, which
+/// are at layer `first`; a node no link reaches is drawn at `first` too.
+pub(super) fn layers_from(at: &NetworkAtDuty, roots: &[usize], first: usize) -> Vec<usize> {
     let index = |name: &str| at.nodes.iter().position(|x| x.name == name);
-    let mut layer = vec![usize::MAX; n];
+    let mut layer = vec![usize::MAX; at.nodes.len()];
     let mut queue = std::collections::VecDeque::new();
-    if let Some(e) = index(entry) {
-        layer[e] = 1;
-        queue.push_back(e);
+    for &r in roots {
+        layer[r] = first;
+        queue.push_back(r);
     }
     while let Some(i) = queue.pop_front() {
         for l in &at.links {
@@ -418,8 +417,54 @@ fn layers(at: &NetworkAtDuty, entry: &str) -> Vec<usize> {
     }
     layer
         .iter()
-        .map(|&l| if l == usize::MAX { 1 } else { l })
+        .map(|&l| if l == usize::MAX { first } else { l })
         .collect()
+}
+
+/// Where node `name` is drawn in a schematic: (layer, head in report units).
+pub(super) fn node_position(
+    at: &NetworkAtDuty,
+    layer: &[usize],
+    hd: &crate::display::Shown,
+    name: &str,
+) -> Option<(f64, f64)> {
+    at.nodes
+        .iter()
+        .position(|x| x.name == name)
+        .map(|i| (layer[i] as f64, hd.value(at.nodes[i].head)))
+}
+
+/// The schematic figure: the links `series` and node `points` on axes fitted to the
+/// layers and heads (8 % head margin, at least one unit of head).
+pub(super) fn schematic_figure(
+    blocks: &mut Vec<Block>,
+    series: Vec<Series>,
+    points: Vec<Marker>,
+    layer: &[usize],
+    labels: (String, String),
+    caption: String,
+) {
+    let deepest = layer.iter().copied().max().unwrap_or(1) as f64;
+    let (lo, hi) = points
+        .iter()
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), m| {
+            (a.min(m.y), b.max(m.y))
+        });
+    let pad = 0.08 * (hi - lo).max(1.0);
+    blocks.push(Block::Figure {
+        chart: Chart {
+            x_label: labels.0,
+            y_label: labels.1,
+            x_range: Some((-0.3, deepest + 0.8)),
+            y_range: Some((lo - pad, hi + pad)),
+            series,
+            points,
+            legend: false,
+            ..Default::default()
+        },
+        height_mm: 110.0,
+        caption,
+    });
 }
 
 /// A hydraulic-grade schematic of the network at one duty: every node at its layer from
@@ -437,14 +482,17 @@ fn schematic(
     };
     let hd = units.head();
     let entry = &net.network.nodes[net.entry].name;
-    let layer = layers(at, entry);
+    // The source tank at layer 0, the entry node at 1, each node one more than the
+    // nearest node upstream (breadth first along the links, either direction).
+    let roots: Vec<usize> = at
+        .nodes
+        .iter()
+        .position(|x| &x.name == entry)
+        .into_iter()
+        .collect();
+    let layer = layers_from(at, &roots, 1);
     let source_head = sys.source_grade().m();
-    let position = |name: &str| {
-        at.nodes
-            .iter()
-            .position(|x| x.name == name)
-            .map(|i| (layer[i] as f64, hd.value(at.nodes[i].head)))
-    };
+    let position = |name: &str| node_position(at, &layer, &hd, name);
     let mut series = Vec::new();
     let mut points = Vec::new();
     let src = (0.0, hd.value(source_head));
@@ -488,29 +536,14 @@ fn schematic(
             ..Default::default()
         });
     }
-    let deepest = layer.iter().copied().max().unwrap_or(1) as f64;
-    let (lo, hi) = points
-        .iter()
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), m| {
-            (a.min(m.y), b.max(m.y))
-        });
-    let pad = 0.08 * (hi - lo).max(1.0);
-    blocks.push(Block::Figure {
-        chart: Chart {
-            x_label: "Layer from the source (links)".into(),
-            y_label: format!("Head ({})", hd.label),
-            x_range: Some((-0.3, deepest + 0.8)),
-            y_range: Some((lo - pad, hi + pad)),
-            series,
-            points,
-            legend: false,
-            ..Default::default()
-        },
-        height_mm: 110.0,
-        caption: format!(
-            "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
-        ),
-    });
+    let labels = (
+        "Layer from the source (links)".to_string(),
+        format!("Head ({})", hd.label),
+    );
+    let caption = format!(
+        "Network schematic at the duty, case {case}, pump {pump}: nodes at their layer from the source and their head; lines are links"
+    );
+    schematic_figure(blocks, series, points, &layer, labels, caption);
 }
 
 /// The closed-loop paragraph: the reference tank, the cancelled static head, the minimum

@@ -8,7 +8,7 @@ use crate::analysis::well_field::is_field;
 use crate::analysis::Analysis;
 use crate::display::{percent, Units};
 use crate::model::Design;
-use crate::report::layout::chart::{Chart, Marker, Series};
+use crate::report::layout::chart::{Marker, Series};
 use crate::report::layout::document::{Align, Block, Column};
 
 /// The chapter, when the design is a well field.
@@ -112,17 +112,11 @@ fn well_table(
         .wells
         .iter()
         .map(|w| {
-            let t = &w.duty.npsh_terms;
-            vec![
-                w.name.clone(),
-                hd.figure(t.barometric_head),
-                hd.figure(t.surface_pressure_head),
-                hd.figure(t.static_suction_head),
-                hd.figure(t.vapour_pressure_head),
-                hd.figure(t.suction_friction_head),
-                hd.figure(t.suction_minor_head),
-                hd.figure(w.duty.npsh_available),
-            ]
+            let mut row = vec![w.name.clone()];
+            let cells =
+                super::candidate::npsh_term_cells(hd, &w.duty.npsh_terms, w.duty.npsh_available);
+            row.extend(cells);
+            row
         })
         .collect();
     blocks.push(Block::Table {
@@ -164,48 +158,16 @@ fn well_table(
     });
 }
 
-/// Layers from the wells' static levels (several sources at layer 0) along the links.
-fn layers(at: &NetworkAtDuty) -> Vec<usize> {
-    let n = at.nodes.len();
-    let index = |name: &str| at.nodes.iter().position(|x| x.name == name);
-    let mut layer = vec![usize::MAX; n];
-    let mut queue = std::collections::VecDeque::new();
-    for (i, node) in at.nodes.iter().enumerate() {
-        if node.name.ends_with(" static level") {
-            layer[i] = 0;
-            queue.push_back(i);
-        }
-    }
-    while let Some(i) = queue.pop_front() {
-        for l in &at.links {
-            let (a, b) = (index(&l.from), index(&l.to));
-            for (x, y) in [(a, b), (b, a)] {
-                if let (Some(x), Some(y)) = (x, y) {
-                    if x == i && layer[y] == usize::MAX {
-                        layer[y] = layer[i] + 1;
-                        queue.push_back(y);
-                    }
-                }
-            }
-        }
-    }
-    layer
-        .iter()
-        .map(|&l| if l == usize::MAX { 0 } else { l })
-        .collect()
-}
-
 /// The field at one duty: every node at its layer from the wells and its head, the
 /// links between them, each well pump marked at the middle of its link.
 fn schematic(blocks: &mut Vec<Block>, case: &str, pump: &str, at: &NetworkAtDuty, units: &Units) {
     let hd = units.head();
-    let layer = layers(at);
-    let position = |name: &str| {
-        at.nodes
-            .iter()
-            .position(|x| x.name == name)
-            .map(|i| (layer[i] as f64, hd.value(at.nodes[i].head)))
-    };
+    // Every well's static level at layer 0, each node one more than the nearest before it.
+    let roots: Vec<usize> = (0..at.nodes.len())
+        .filter(|&i| at.nodes[i].name.ends_with(" static level"))
+        .collect();
+    let layer = super::network::layers_from(at, &roots, 0);
+    let position = |name: &str| super::network::node_position(at, &layer, &hd, name);
     let mut series = Vec::new();
     let mut points = Vec::new();
     for l in &at.links {
@@ -246,29 +208,14 @@ fn schematic(blocks: &mut Vec<Block>, case: &str, pump: &str, at: &NetworkAtDuty
             ..Default::default()
         });
     }
-    let deepest = layer.iter().copied().max().unwrap_or(1) as f64;
-    let (lo, hi) = points
-        .iter()
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), m| {
-            (a.min(m.y), b.max(m.y))
-        });
-    let pad = 0.08 * (hi - lo).max(1.0);
-    blocks.push(Block::Figure {
-        chart: Chart {
-            x_label: "Layer from the wells' static levels (links)".into(),
-            y_label: format!("Head ({})", hd.label),
-            x_range: Some((-0.3, deepest + 0.8)),
-            y_range: Some((lo - pad, hi + pad)),
-            series,
-            points,
-            legend: false,
-            ..Default::default()
-        },
-        height_mm: 110.0,
-        caption: format!(
-            "Well field schematic at the duty, case {case}, pump {pump}: nodes at their layer from the wells and their head; dashed links are the well pumps (static level, drawdown to the pumping level, suction, pump, discharge to the collector)"
-        ),
-    });
+    let labels = (
+        "Layer from the wells' static levels (links)".to_string(),
+        format!("Head ({})", hd.label),
+    );
+    let caption = format!(
+        "Well field schematic at the duty, case {case}, pump {pump}: nodes at their layer from the wells and their head; dashed links are the well pumps (static level, drawdown to the pumping level, suction, pump, discharge to the collector)"
+    );
+    super::network::schematic_figure(blocks, series, points, &layer, labels, caption);
 }
 
 /// The design basis of a well field (in place of the chain's levels and segments): each

@@ -17,6 +17,24 @@ fn or_dash(value: Option<String>) -> String {
 }
 
 /// NPSH available per case, term by term, against NPSH required (NPSH3).
+/// The NPSH available terms as table cells, in the order they add (barometric, surface
+/// gauge, static suction, vapour, suction friction, suction minor), then their sum.
+pub(in crate::report::sections) fn npsh_term_cells(
+    hd: crate::display::Shown,
+    t: &crate::analysis::system::NpshTerms,
+    npsh_available: f64,
+) -> Vec<String> {
+    vec![
+        hd.figure(t.barometric_head),
+        hd.figure(t.surface_pressure_head),
+        hd.figure(t.static_suction_head),
+        hd.figure(t.vapour_pressure_head),
+        hd.figure(t.suction_friction_head),
+        hd.figure(t.suction_minor_head),
+        hd.figure(npsh_available),
+    ]
+}
+
 pub(super) fn npsh_terms(
     blocks: &mut Vec<Block>,
     pump: &PumpCandidate,
@@ -36,19 +54,14 @@ pub(super) fn npsh_terms(
             let excess = duty
                 .npsh_required
                 .map(|r| hd.figure(duty.npsh_available - r));
-            Some(vec![
-                case.name.clone(),
-                hd.figure(t.barometric_head),
-                hd.figure(t.surface_pressure_head),
-                hd.figure(t.static_suction_head),
-                hd.figure(t.vapour_pressure_head),
-                hd.figure(t.suction_friction_head),
-                hd.figure(t.suction_minor_head),
-                hd.figure(duty.npsh_available),
+            let mut row = vec![case.name.clone()];
+            row.extend(npsh_term_cells(hd, t, duty.npsh_available));
+            row.extend([
                 or_dash(duty.npsh_required.map(|r| hd.figure(r))),
                 or_dash(ratio),
                 or_dash(excess),
-            ])
+            ]);
+            Some(row)
         })
         .collect();
     if rows.is_empty() {

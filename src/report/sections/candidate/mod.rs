@@ -4,6 +4,8 @@
 mod detail;
 mod plots;
 
+pub(super) use detail::npsh_term_cells;
+
 use super::{dedup, group_label};
 use crate::analysis::duty::{CandidateCurves, PumpResult};
 use crate::analysis::{Analysis, CaseResult};
