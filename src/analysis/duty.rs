@@ -45,6 +45,9 @@ pub struct CandidateCurves {
     /// [`SEARCH_BEYOND_CURVE`] past its data: the same for every case, speed and trim
     /// (see [`pumps::PumpScan`]).
     pub duty_scan: Option<pumps::PumpScan>,
+    /// The same scan searched to the data end only: the capacity solve's
+    /// ([`meeting_flow`]), again the same for every case, speed and trim.
+    pub capacity_scan: Option<pumps::PumpScan>,
 }
 
 impl CandidateCurves {
@@ -110,15 +113,19 @@ impl CandidateCurves {
                     .collect()
             })
             .collect();
-        let duty_scan = evaluated.as_ref().map(|(c, _)| {
-            let (_, end) = c.head.domain();
-            pumps::PumpScan::new(&|q| c.head.eval(q), end * (1.0 + SEARCH_BEYOND_CURVE))
-        });
+        let scan_to = |beyond: f64| {
+            evaluated.as_ref().map(|(c, _)| {
+                let (_, end) = c.head.domain();
+                pumps::PumpScan::new(&|q| c.head.eval(q), end * beyond)
+            })
+        };
+        let (duty_scan, capacity_scan) = (scan_to(1.0 + SEARCH_BEYOND_CURVE), scan_to(1.0));
         CandidateCurves {
             name: p.name.clone(),
             span: p.span,
             published,
             duty_scan,
+            capacity_scan,
             evaluated,
             evaluated_bep,
             published_head_samples,
@@ -646,16 +653,18 @@ pub fn set_head(scaled: &ScaledPump, sys: &CaseSystem, parallel: f64, series: f6
 }
 
 /// The flow of an arrangement (m³/s) where its curve meets the system curve within the
-/// published data, or `None`.
+/// published data, or `None`; `scan` is the candidate's [`CandidateCurves::capacity_scan`]
+/// where it holds ([`CaseSystem::scan`]), else the pump is scanned here.
 pub fn meeting_flow(
     scaled: &ScaledPump,
     sys: &CaseSystem,
-    parallel: f64,
-    series: f64,
+    (parallel, series): (f64, f64),
+    scan: Option<&pumps::PumpScan>,
 ) -> Option<f64> {
     let (_, end) = scaled.domain();
     let head = |q: f64| set_head(scaled, sys, parallel, series, q);
-    system_table::solve_duty(&head, sys, end * parallel, None)
+    let scan = scan.filter(|_| scaled.viscous().is_none());
+    system_table::solve_duty(&head, sys, end * parallel, scan)
         .point()
         .map(|(q, _)| q)
 }
@@ -954,7 +963,8 @@ fn capacity(
         Adjust::None => (case_speed_ratio, *trim),
     };
     let scaled = pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref()).ok()?;
-    meeting_flow(&scaled, sys, par, ser)
+    let scan = sys.scan(cc).and(cc.capacity_scan.as_ref());
+    meeting_flow(&scaled, sys, (par, ser), scan)
 }
 
 /// The volume a case fixes per year, m³: its hours × its largest `flow >=` requirement.

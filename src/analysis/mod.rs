@@ -142,7 +142,10 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
-    let solved = concurrent::map(&design.cases, |case| solve_case(design, case, &candidates));
+    let tables = system_table::SharedTables::default();
+    let solved = concurrent::map(&design.cases, |case| {
+        solve_case(design, case, &candidates, &tables)
+    });
     let mut cases: Vec<CaseResult> = Vec::new();
     for (case, solved) in design.cases.iter().zip(solved) {
         let (system, error, pumps) = match solved {
@@ -285,41 +288,59 @@ fn flow_range(design: &Design, cases: &[CaseResult]) -> f64 {
 }
 
 /// Every case's system curve and NPSH available (per pump with station piping) at
-/// [`SYSTEM_CURVE_POINTS`] flows from zero to `flow_max` (m³/s).
+/// [`SYSTEM_CURVE_POINTS`] flows from zero to `flow_max` (m³/s). Cases with the same
+/// losses ([`system_table::LossKey`]: levels aside) share one evaluation of them.
 fn tabulate_cases(cases: &mut [CaseResult], flow_max: f64) {
+    let flows: Vec<f64> = (0..SYSTEM_CURVE_POINTS)
+        .map(|i| flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64)
+        .collect();
+    let mut kept: Vec<(system_table::LossKey, Vec<Losses>)> = Vec::new();
     for c in cases {
-        if let Some(s) = &c.system {
-            let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = (0..SYSTEM_CURVE_POINTS)
-                .map(|i| {
-                    let q = flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64;
-                    let l = s.losses(q);
-                    let point = SystemPoint {
-                        flow: q,
-                        head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
-                        static_head: s.static_head,
-                        friction: l.friction,
-                        minor: l.minor,
-                        network: l.network,
-                        drawdown: l.drawdown,
-                    };
-                    (point, s.npsh_available_after(l.suction + l.drawdown))
-                })
-                .unzip();
-            if s.has_station_piping() {
-                for p in &mut c.pumps {
-                    let par = match p.arrangement {
-                        ArrangementKind::Parallel => p.count.max(1) as f64,
-                        _ => 1.0,
-                    };
-                    p.npsh_available_curve = curve
-                        .iter()
-                        .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
-                        .collect();
+        let Some(s) = &c.system else { continue };
+        let losses = match system_table::LossKey::of(s) {
+            Some(key) => match kept.iter().find(|(k, _)| *k == key) {
+                Some((_, l)) => l.clone(),
+                None => {
+                    let l: Vec<Losses> = flows.iter().map(|&q| s.losses(q)).collect();
+                    if kept.len() == system_table::SharedTables::KEPT {
+                        kept.remove(0);
+                    }
+                    kept.push((key, l.clone()));
+                    l
                 }
+            },
+            None => flows.iter().map(|&q| s.losses(q)).collect(),
+        };
+        let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = flows
+            .iter()
+            .zip(&losses)
+            .map(|(&q, l)| {
+                let point = SystemPoint {
+                    flow: q,
+                    head: s.static_head + l.friction + l.minor + l.network + l.drawdown,
+                    static_head: s.static_head,
+                    friction: l.friction,
+                    minor: l.minor,
+                    network: l.network,
+                    drawdown: l.drawdown,
+                };
+                (point, s.npsh_available_after(l.suction + l.drawdown))
+            })
+            .unzip();
+        if s.has_station_piping() {
+            for p in &mut c.pumps {
+                let par = match p.arrangement {
+                    ArrangementKind::Parallel => p.count.max(1) as f64,
+                    _ => 1.0,
+                };
+                p.npsh_available_curve = curve
+                    .iter()
+                    .map(|x| s.npsh_available_per_pump(x.flow, x.flow / par))
+                    .collect();
             }
-            c.system_curve = curve;
-            c.npsh_available_curve = npsh;
         }
+        c.system_curve = curve;
+        c.npsh_available_curve = npsh;
     }
 }
 
@@ -330,6 +351,7 @@ fn solve_case(
     design: &Design,
     case: &crate::model::Case,
     candidates: &[duty::CandidateCurves],
+    tables: &system_table::SharedTables,
 ) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
     if well_field::is_field(&case.scenario) {
         return well_field::solve_case(design, case, candidates);
@@ -340,7 +362,7 @@ fn solve_case(
         return Err(format!("the expansion tank {} connects on the pump discharge: the pressure at the pump suction is the reference less the pump head, which this version does not calculate; connect it at the suction", case.scenario.source.name));
     }
     let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
-    sys.tabulate(duty::search_reach(case, design, candidates));
+    sys.tabulate_shared(duty::search_reach(case, design, candidates), tables);
     let mut pumps: Vec<duty::PumpResult> = candidates
         .iter()
         .zip(&design.pumps)

@@ -248,7 +248,7 @@ pub struct CaseSystem {
     pub closed_loop: bool,
     /// The system curve tabulated for the fast duty path ([`CaseSystem::tabulate`]);
     /// `None` until tabulated, and for a network.
-    pub duty_table: Option<SystemTable>,
+    pub duty_table: Option<std::sync::Arc<SystemTable>>,
 }
 
 /// A flag that can be raised through a shared reference: an atomic, so that a
@@ -529,7 +529,13 @@ impl CaseSystem {
     /// Tabulate the system curve on [0, q_max] (m³/s) for the duty solves
     /// ([`SystemTable`]); a network is not tabulated.
     pub fn tabulate(&mut self, q_max: f64) {
-        self.duty_table = SystemTable::new(self, q_max);
+        self.duty_table = SystemTable::new(self, q_max).map(std::sync::Arc::new);
+    }
+
+    /// [`CaseSystem::tabulate`] with a table shared with other cases of equal losses
+    /// where there is one ([`super::system_table::SharedTables`]).
+    pub fn tabulate_shared(&mut self, q_max: f64, tables: &super::system_table::SharedTables) {
+        self.duty_table = tables.table(self, q_max);
     }
 
     /// The pump scan of a candidate for the fast duty path, when it holds for this

@@ -47,7 +47,8 @@ pub struct SystemTable {
     q_max: f64,
     /// Per node k (flow k·step): the losses (system head above the static head), m,
     /// and their slope dH/dq, s/m². The static head is not tabulated, so a copy of the
-    /// system with another static head (a level band) reads the table unchanged.
+    /// system with another static head (a level band, another case's levels) reads the
+    /// table unchanged ([`SharedTables`]).
     nodes: Vec<(f64, f64)>,
     /// Per interval: a node value is not finite (the exact head is read there).
     exact: Vec<bool>,
@@ -66,8 +67,8 @@ impl SystemTable {
         let mut regimes: Vec<Vec<FlowRegime>> = Vec::with_capacity(TABLE_INTERVALS + 1);
         for k in 0..=TABLE_INTERVALS {
             let q = q_max * k as f64 / TABLE_INTERVALS as f64;
-            let (head, slope) = sys.head_and_slope(q);
-            nodes.push((head - sys.static_head, slope));
+            let (l, slope) = sys.losses_with_slope(q);
+            nodes.push((l.friction + l.minor + l.network + l.drawdown, slope));
             regimes.push(
                 sys.segments
                     .iter()
@@ -137,6 +138,95 @@ impl SystemTable {
             + (t3 - 2.0 * t2 + t) * self.step * d0
             + (-2.0 * t3 + 3.0 * t2) * h1
             + (t3 - t2) * self.step * d1
+    }
+}
+
+/// What a chain's losses at a flow depend on, as the bits of the numbers: the fluid's
+/// density and viscosity, every segment's side, geometry, roughness or C and K sums,
+/// and the source well's drawdown law; not the levels or surface pressures. Two case
+/// systems with equal keys have bit-identical [`CaseSystem::losses`] at every flow
+/// (the same operations on the same numbers), so they can share a [`SystemTable`].
+/// `None` for a network (not tabulated).
+#[derive(Clone, Debug, PartialEq, Eq)]
+pub struct LossKey(Vec<u64>);
+
+impl LossKey {
+    /// The key of `sys`.
+    pub fn of(sys: &CaseSystem) -> Option<LossKey> {
+        if sys.network.is_some() {
+            return None;
+        }
+        let mut bits = vec![sys.fluid.density.to_bits(), sys.fluid.viscosity.to_bits()];
+        if let Some(w) = sys.well {
+            bits.extend([w.drawdown, w.test_flow, w.well_loss].map(f64::to_bits));
+        }
+        for s in &sys.segments {
+            bits.push(
+                u64::from(s.per_pump) | (u64::from(s.side == crate::model::Side::Suction) << 1),
+            );
+            bits.extend(
+                [
+                    s.length,
+                    s.inner_diameter,
+                    s.area,
+                    s.roughness,
+                    s.hazen_williams_c.unwrap_or(f64::NAN),
+                    s.k_constant,
+                    s.k_laminar_sum,
+                    s.k_fixed_sum,
+                    s.equivalent_length,
+                ]
+                .map(f64::to_bits),
+            );
+        }
+        Some(LossKey(bits))
+    }
+}
+
+/// The system tables of an analysis's cases, shared between cases whose losses are
+/// the same ([`LossKey`]) and whose tables reach the same flow: an hourly design of
+/// thousands of cases that differ only in levels tabulates its pipes once. A table
+/// is a pure function of its key and reach, so which thread builds it first does not
+/// change a bit. The last [`SharedTables::KEPT`] tables are kept.
+#[derive(Debug, Default)]
+pub struct SharedTables {
+    kept: std::sync::Mutex<Vec<(LossKey, u64, std::sync::Arc<SystemTable>)>>,
+}
+
+impl SharedTables {
+    /// Tables kept for reuse (the oldest is dropped first).
+    pub const KEPT: usize = 16;
+
+    /// The table of `sys` on [0, q_max] (m³/s), built or reused; `None` where
+    /// [`SystemTable::new`] gives none.
+    pub fn table(&self, sys: &CaseSystem, q_max: f64) -> Option<std::sync::Arc<SystemTable>> {
+        let Some(key) = LossKey::of(sys) else {
+            return SystemTable::new(sys, q_max).map(std::sync::Arc::new);
+        };
+        let reach = q_max.to_bits();
+        let found = self
+            .lock()
+            .iter()
+            .find(|(k, r, _)| *r == reach && *k == key)
+            .map(|e| e.2.clone());
+        if found.is_some() {
+            return found;
+        }
+        let table = std::sync::Arc::new(SystemTable::new(sys, q_max)?);
+        let mut kept = self.lock();
+        if kept.len() == Self::KEPT {
+            kept.remove(0);
+        }
+        kept.push((key, reach, table.clone()));
+        Some(table)
+    }
+
+    fn lock(&self) -> std::sync::MutexGuard<'_, Vec<(LossKey, u64, std::sync::Arc<SystemTable>)>> {
+        // A panic while the lock was held cannot leave a half-written entry (a push is
+        // the only write), so a poisoned lock's data is still good.
+        self.kept
+            .lock()
+            .unwrap_or_else(std::sync::PoisonError::into_inner)
     }
 }
 

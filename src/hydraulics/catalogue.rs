@@ -30,6 +30,24 @@ mod steel;
 pub use nominal::size_for_print;
 pub use series::{pipe_size, sizes};
 
+/// The schedule 40 table as (inner diameter, nominal size), in, in the table's order:
+/// built once (each fitting's K at each flow asks for it).
+fn schedule_40_bores() -> &'static [(f64, f64)] {
+    static BORES: std::sync::OnceLock<Vec<(f64, f64)>> = std::sync::OnceLock::new();
+    BORES.get_or_init(|| {
+        steel::B3610_SCH40
+            .iter()
+            .filter_map(|&(eighths, wall)| {
+                let od = steel::IPS_OUTSIDE_DIAMETER_IN
+                    .iter()
+                    .find(|(e, _)| *e == eighths)
+                    .map(|(_, od)| *od)?;
+                Some((od - 2.0 * wall, f64::from(eighths) / 8.0))
+            })
+            .collect()
+    })
+}
+
 /// The nominal diameter Dn (inches) that Darby's 3-K method needs, from an actual
 /// inner diameter in inches: linear interpolation of NPS against inner diameter over
 /// ASME B36.10M schedule 40, NPS 1/8-24, so Dn = NPS exactly for schedule 40 pipe.
@@ -42,16 +60,9 @@ pub(crate) fn darby_nominal_diameter_in(inner_diameter_in: f64) -> f64 {
     } else {
         0.0
     };
-    let point = |(eighths, wall): (u16, f64)| -> Option<(f64, f64)> {
-        let od = steel::IPS_OUTSIDE_DIAMETER_IN
-            .iter()
-            .find(|(e, _)| *e == eighths)
-            .map(|(_, od)| *od)?;
-        Some((od - 2.0 * wall, f64::from(eighths) / 8.0))
-    };
     let mut previous: Option<(f64, f64)> = None;
     let mut last_two: Option<((f64, f64), (f64, f64))> = None;
-    for (x, y) in steel::B3610_SCH40.iter().copied().filter_map(point) {
+    for &(x, y) in schedule_40_bores() {
         match previous {
             None if id <= x => return y * id / x,
             Some((x0, y0)) if id <= x => return y0 + (y - y0) * (id - x0) / (x - x0),

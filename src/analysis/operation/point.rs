@@ -337,8 +337,9 @@ pub fn full_flow(m: &SetModel, sys: &CaseSystem, k: u32) -> Result<SetState, Mes
     };
     let pump = scaled(m, ratio);
     let k = k.clamp(1, m.parallel.max(1));
-    let q = crate::analysis::duty::meeting_flow(&pump, sys, k as f64, m.series.max(1) as f64)
-        .ok_or_else(|| {
+    let q =
+        crate::analysis::duty::meeting_flow(&pump, sys, (k as f64, m.series.max(1) as f64), None)
+            .ok_or_else(|| {
             crate::message![
                 pumps_running(k),
                 " at fixed speed do not meet the system curve within the published data"
