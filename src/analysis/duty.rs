@@ -431,7 +431,7 @@ pub struct PumpResult {
     /// The checks of this case × candidate.
     pub checks: Vec<Check>,
     /// The arrangement's curve as installed in this case.
-    pub operating_curve: Vec<PumpPoint>,
+    pub operating_curve: std::sync::Arc<[PumpPoint]>,
     /// Energy over a year, when the case has hours.
     pub energy: Option<YearEnergy>,
     /// Remarks on this case × candidate.
@@ -701,6 +701,7 @@ pub fn evaluate(
     sys: &CaseSystem,
     p: &PumpCandidate,
     cc: &CandidateCurves,
+    shared: &SharedCurves,
 ) -> PumpResult {
     let (n_par, n_ser) = stages_in(p, case);
     let mut out = new_result(design, p, n_par);
@@ -752,7 +753,7 @@ pub fn evaluate(
     let head_arr = |q: f64| set_head(&scaled, sys, par, ser, q);
     let (_, q_data_end) = scaled.domain();
     let q_end = q_data_end * par;
-    out.operating_curve = operating_curve(&scaled, sys, par, ser, q_end);
+    out.operating_curve = shared.curve(&scaled, sys, (par, ser), q_end);
     let search_end = q_end * (1.0 + SEARCH_BEYOND_CURVE);
     // The candidate's grid scan holds for affinity scalings only, not a viscous curve.
     let scan = sys.scan(cc).filter(|_| scaled.viscous().is_none());
@@ -872,7 +873,7 @@ pub(crate) fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> Pump
         duty: None,
         failure: None,
         checks: Vec::new(),
-        operating_curve: Vec::new(),
+        operating_curve: std::sync::Arc::from(Vec::new()),
         energy: None,
         warnings: Vec::new(),
         motor_efficiency,
@@ -927,10 +928,9 @@ fn failure_values(outcome: &DutyOutcome) -> (Option<f64>, Option<f64>) {
 fn operating_curve(
     scaled: &ScaledPump,
     sys: &CaseSystem,
-    par: f64,
-    ser: f64,
+    (par, ser): (f64, f64),
     q_end: f64,
-) -> Vec<PumpPoint> {
+) -> std::sync::Arc<[PumpPoint]> {
     let rho = sys.fluid.density;
     (0..PUMP_CURVE_POINTS)
         .map(|i| {
@@ -944,6 +944,54 @@ fn operating_curve(
             }
         })
         .collect()
+}
+
+/// What an operating curve ([`operating_curve`]) depends on: the published curve it is
+/// scaled from (by address: one per candidate), the speed and impeller ratios, the
+/// viscous correction, the liquid's density, the pumps in parallel and in series and
+/// the flow range, as bits. Station piping (each pump's own losses) is not in it, so a
+/// system with station piping is never shared.
+#[derive(Clone, Debug, PartialEq)]
+struct CurveKey {
+    base: usize,
+    bits: [u64; 6],
+    viscous: Option<pumps::viscous::ViscousCorrection>,
+}
+
+/// Operating curves shared between cases where the candidate runs alike
+/// ([`super::shared`]): an hourly design at one speed computes each candidate's once.
+#[derive(Debug, Default)]
+pub struct SharedCurves(super::shared::Kept<CurveKey, [PumpPoint]>);
+
+impl SharedCurves {
+    /// The operating curve of `scaled` in `sys` with (parallel, series) pumps to total
+    /// flow `q_end` (m³/s): a kept one where the key matches, else computed.
+    fn curve(
+        &self,
+        scaled: &ScaledPump,
+        sys: &CaseSystem,
+        stages: (f64, f64),
+        q_end: f64,
+    ) -> std::sync::Arc<[PumpPoint]> {
+        let build = || operating_curve(scaled, sys, stages, q_end);
+        if sys.has_station_piping() {
+            return build();
+        }
+        let key = CurveKey {
+            base: std::ptr::from_ref(scaled.base()) as usize,
+            bits: [
+                scaled.speed_ratio(),
+                scaled.diameter_ratio(),
+                sys.fluid.density,
+                stages.0,
+                stages.1,
+                q_end,
+            ]
+            .map(f64::to_bits),
+            viscous: scaled.viscous().copied(),
+        };
+        self.0.get_or(key, || Some(build())).unwrap_or_else(build)
+    }
 }
 
 /// The arrangement's flow at the limit the design allows: the maximum speed and the

@@ -18,6 +18,7 @@ pub mod operation;
 pub mod parallel;
 pub mod safety;
 pub mod selection;
+pub mod shared;
 pub mod stability;
 pub mod system;
 pub mod system_table;
@@ -142,9 +143,9 @@ pub fn analyse(design: &Design) -> Analysis {
             });
         }
     }
-    let tables = system_table::SharedTables::default();
+    let shared = shared::Shared::default();
     let solved = concurrent::map(&design.cases, |case| {
-        solve_case(design, case, &candidates, &tables)
+        solve_case(design, case, &candidates, &shared)
     });
     let mut cases: Vec<CaseResult> = Vec::new();
     for (case, solved) in design.cases.iter().zip(solved) {
@@ -294,26 +295,18 @@ fn tabulate_cases(cases: &mut [CaseResult], flow_max: f64) {
     let flows: Vec<f64> = (0..SYSTEM_CURVE_POINTS)
         .map(|i| flow_max * i as f64 / (SYSTEM_CURVE_POINTS - 1) as f64)
         .collect();
-    let mut kept: Vec<(system_table::LossKey, Vec<Losses>)> = Vec::new();
+    let kept: shared::Kept<system_table::LossKey, [Losses]> = shared::Kept::default();
     for c in cases {
         let Some(s) = &c.system else { continue };
-        let losses = match system_table::LossKey::of(s) {
-            Some(key) => match kept.iter().find(|(k, _)| *k == key) {
-                Some((_, l)) => l.clone(),
-                None => {
-                    let l: Vec<Losses> = flows.iter().map(|&q| s.losses(q)).collect();
-                    if kept.len() == system_table::SharedTables::KEPT {
-                        kept.remove(0);
-                    }
-                    kept.push((key, l.clone()));
-                    l
-                }
-            },
-            None => flows.iter().map(|&q| s.losses(q)).collect(),
-        };
+        let build = || Some(flows.iter().map(|&q| s.losses(q)).collect());
+        let losses: std::sync::Arc<[Losses]> = match system_table::LossKey::of(s) {
+            Some(key) => kept.get_or(key, build),
+            None => build(),
+        }
+        .unwrap_or_default();
         let (curve, npsh): (Vec<SystemPoint>, Vec<f64>) = flows
             .iter()
-            .zip(&losses)
+            .zip(losses.iter())
             .map(|(&q, l)| {
                 let point = SystemPoint {
                     flow: q,
@@ -351,7 +344,7 @@ fn solve_case(
     design: &Design,
     case: &crate::model::Case,
     candidates: &[duty::CandidateCurves],
-    tables: &system_table::SharedTables,
+    shared: &shared::Shared,
 ) -> Result<(CaseSystem, Vec<duty::PumpResult>), String> {
     if well_field::is_field(&case.scenario) {
         return well_field::solve_case(design, case, candidates);
@@ -362,11 +355,11 @@ fn solve_case(
         return Err(format!("the expansion tank {} connects on the pump discharge: the pressure at the pump suction is the reference less the pump head, which this version does not calculate; connect it at the suction", case.scenario.source.name));
     }
     let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
-    sys.tabulate_shared(duty::search_reach(case, design, candidates), tables);
+    sys.tabulate_shared(duty::search_reach(case, design, candidates), &shared.tables);
     let mut pumps: Vec<duty::PumpResult> = candidates
         .iter()
         .zip(&design.pumps)
-        .map(|(cc, p)| duty::evaluate(design, case, &sys, p, cc))
+        .map(|(cc, p)| duty::evaluate(design, case, &sys, p, cc, &shared.curves))
         .collect();
     network::checks::at_duties(design, &case.name, &sys, &mut pumps)?;
     let loop_checks = closed_loop::case_checks(&case.scenario, &sys);

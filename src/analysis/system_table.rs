@@ -185,48 +185,20 @@ impl LossKey {
 
 /// The system tables of an analysis's cases, shared between cases whose losses are
 /// the same ([`LossKey`]) and whose tables reach the same flow: an hourly design of
-/// thousands of cases that differ only in levels tabulates its pipes once. A table
-/// is a pure function of its key and reach, so which thread builds it first does not
-/// change a bit. The last [`SharedTables::KEPT`] tables are kept.
+/// thousands of cases that differ only in levels tabulates its pipes once
+/// ([`super::shared`]).
 #[derive(Debug, Default)]
-pub struct SharedTables {
-    kept: std::sync::Mutex<Vec<(LossKey, u64, std::sync::Arc<SystemTable>)>>,
-}
+pub struct SharedTables(super::shared::Kept<(LossKey, u64), SystemTable>);
 
 impl SharedTables {
-    /// Tables kept for reuse (the oldest is dropped first).
-    pub const KEPT: usize = 16;
-
     /// The table of `sys` on [0, q_max] (m³/s), built or reused; `None` where
     /// [`SystemTable::new`] gives none.
     pub fn table(&self, sys: &CaseSystem, q_max: f64) -> Option<std::sync::Arc<SystemTable>> {
-        let Some(key) = LossKey::of(sys) else {
-            return SystemTable::new(sys, q_max).map(std::sync::Arc::new);
-        };
-        let reach = q_max.to_bits();
-        let found = self
-            .lock()
-            .iter()
-            .find(|(k, r, _)| *r == reach && *k == key)
-            .map(|e| e.2.clone());
-        if found.is_some() {
-            return found;
+        let build = || SystemTable::new(sys, q_max).map(std::sync::Arc::new);
+        match LossKey::of(sys) {
+            Some(key) => self.0.get_or((key, q_max.to_bits()), build),
+            None => build(),
         }
-        let table = std::sync::Arc::new(SystemTable::new(sys, q_max)?);
-        let mut kept = self.lock();
-        if kept.len() == Self::KEPT {
-            kept.remove(0);
-        }
-        kept.push((key, reach, table.clone()));
-        Some(table)
-    }
-
-    fn lock(&self) -> std::sync::MutexGuard<'_, Vec<(LossKey, u64, std::sync::Arc<SystemTable>)>> {
-        // A panic while the lock was held cannot leave a half-written entry (a push is
-        // the only write), so a poisoned lock's data is still good.
-        self.kept
-            .lock()
-            .unwrap_or_else(std::sync::PoisonError::into_inner)
     }
 }
 
