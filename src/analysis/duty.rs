@@ -456,6 +456,19 @@ pub struct PumpResult {
     pub wells: Vec<crate::analysis::well_field::WellDuty>,
 }
 
+impl PumpResult {
+    /// Gives back the spare capacity of its growing lists (checks, their messages,
+    /// warnings), keeping room for the motor pass's check: an analysis of thousands of
+    /// cases holds every result, and a list grown by doubling is up to half spare.
+    pub fn compact(&mut self) {
+        self.checks.shrink_to(self.checks.len() + 1);
+        for c in &mut self.checks {
+            c.message.parts.shrink_to_fit();
+        }
+        self.warnings.shrink_to_fit();
+    }
+}
+
 /// Motor efficiency used before the motor is sized (the sizing pass replaces it by the
 /// class value of the selected rating): 93 %, a typical premium-efficiency motor of
 /// 10–50 kW at full load (common practice).

@@ -366,6 +366,7 @@ fn solve_case(
     for p in pumps.iter_mut().filter(|p| p.duty.is_some()) {
         p.checks.extend(loop_checks.iter().cloned());
     }
+    pumps.iter_mut().for_each(duty::PumpResult::compact);
     Ok((sys, pumps))
 }
 
