@@ -125,3 +125,47 @@ fn the_json_of_many_cases_refers_to_its_tables() {
         }
     }
 }
+
+/// Cases whose pipes and liquid are equal share the system table, the tabulated losses
+/// and the operating curves (`analysis::shared`): each case analysed alone (nothing to
+/// share) gives the same duty, to the bit, as the case among the others. The generated
+/// design's cases differ in level and pipe age, so some share and some do not.
+#[test]
+fn sharing_between_cases_changes_no_bit_of_a_duty() {
+    let (src, _, all) = analysed(7);
+    for (k, case) in all.cases.iter().enumerate() {
+        let own = format!("case c{k} {{");
+        let alone: String = src
+            .lines()
+            .filter(|l| !l.starts_with("case c") || l.starts_with(&own))
+            .map(|l| format!("{l}\n"))
+            .collect();
+        let d = dutyline::check(&alone, &dutyline::NoFiles)
+            .design
+            .expect("one case checks");
+        let a = dutyline::analysis::analyse(&d);
+        assert_eq!(a.cases.len(), 1);
+        for (shared, single) in case.pumps.iter().zip(&a.cases[0].pumps) {
+            let (x, y) = (
+                shared.duty.as_ref().expect("a duty"),
+                single.duty.as_ref().expect("a duty"),
+            );
+            let bits = |d: &dutyline::analysis::duty::Duty| {
+                [
+                    d.flow,
+                    d.head,
+                    d.efficiency.unwrap_or(-1.0),
+                    d.shaft_power.unwrap_or(-1.0),
+                    d.npsh_available,
+                ]
+                .map(f64::to_bits)
+            };
+            assert_eq!(bits(x), bits(y), "case c{k} pump {}", shared.name);
+            assert_eq!(
+                shared.capacity_flow.map(f64::to_bits),
+                single.capacity_flow.map(f64::to_bits)
+            );
+            assert_eq!(shared.operating_curve, single.operating_curve);
+        }
+    }
+}
