@@ -251,7 +251,10 @@ pub fn build(
         files::write_atomically(&target, &bytes)?;
         output::text(out, &wrote)?;
     }
-    Ok(analysis_status(&analysis))
+    let status = analysis_status(&analysis);
+    // As in `results`: the process ends next, and the system takes the memory back whole.
+    std::mem::forget(analysis);
+    Ok(status)
 }
 
 /// The output may be written: not the design itself, and a kind of file `build` replaces.
