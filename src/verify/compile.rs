@@ -3,8 +3,6 @@
 
 use std::collections::BTreeMap;
 
-use sha2::{Digest, Sha256};
-
 use super::sources::{
     import_name, results_name, DesignFiles, Manifest, ManifestFile, Sources, StyleSource,
     COMPARE_PREFIX, FORMAT, MANIFEST_NAME,
@@ -153,20 +151,21 @@ pub fn attachments(sources: &Sources, results_json: &str, scope: ResultsScope) -
     let mut list = Vec::new();
     let mut record = Vec::new();
     let mut add = |list: &mut Vec<Attachment>, file: AttachedFile| {
+        let attachment = Attachment::new(
+            file.name,
+            file.mime,
+            file.description.to_string(),
+            file.relationship,
+            file.text.into_bytes(),
+        );
         record.push(ManifestFile {
-            name: file.name.clone(),
+            name: attachment.name.clone(),
             role: file.role.to_string(),
             reads_as: file.reads_as,
-            sha256: sha256_hex(file.text.as_bytes()),
-            bytes: file.text.len(),
+            sha256: attachment.sha256.clone(),
+            bytes: attachment.bytes.len(),
         });
-        list.push(Attachment {
-            name: file.name,
-            mime: file.mime,
-            description: file.description.to_string(),
-            relationship: file.relationship,
-            bytes: file.text.into_bytes(),
-        });
+        list.push(attachment);
     };
     design_files(&sources.design, "", &mut |f| add(&mut list, f));
     if let Some(old) = &sources.compare {
@@ -216,13 +215,13 @@ pub fn attachments(sources: &Sources, results_json: &str, scope: ResultsScope) -
         files: record,
     };
     let json = serde_json::to_string_pretty(&manifest).unwrap_or_default() + "\n";
-    list.push(Attachment {
-        name: MANIFEST_NAME.to_string(),
-        mime: "application/json",
-        description: "build record".into(),
-        relationship: Relationship::Supplement,
-        bytes: json.into_bytes(),
-    });
+    list.push(Attachment::new(
+        MANIFEST_NAME.to_string(),
+        "application/json",
+        "build record".into(),
+        Relationship::Supplement,
+        json.into_bytes(),
+    ));
     list
 }
 
@@ -299,10 +298,7 @@ fn mime_of(name: &str) -> &'static str {
 
 /// SHA-256 as lowercase hex.
 pub fn sha256_hex(bytes: &[u8]) -> String {
-    Sha256::digest(bytes)
-        .iter()
-        .map(|b| format!("{b:02x}"))
-        .collect()
+    crate::report::layout::document::sha256_hex(bytes)
 }
 
 /// The imports of the compared revision in a record: reads-as path → attachment name.

@@ -10,7 +10,6 @@
 use super::document::Attachment;
 use super::LayoutError;
 use lopdf::{Dictionary, Object, Stream, StringFormat};
-use sha2::{Digest, Sha256};
 
 /// Adds `attachments` to `doc`; `date` is the PDF date string of the document
 /// (`D:YYYYMMDDHHmmSSZ`). Two attachments with the same name are an error.
@@ -18,6 +17,7 @@ pub(super) fn embed(
     doc: &mut lopdf::Document,
     attachments: &[Attachment],
     date: &str,
+    deflater: &mut super::pdf::Deflater,
 ) -> Result<(), LayoutError> {
     if attachments.is_empty() {
         return Ok(());
@@ -33,7 +33,7 @@ pub(super) fn embed(
     let mut names = Vec::new();
     let mut associated = Vec::new();
     for attachment in sorted {
-        let spec = file_spec(doc, attachment, date);
+        let spec = file_spec(doc, attachment, date, deflater);
         names.push(text_string(&attachment.name));
         names.push(Object::Reference(spec));
         associated.push(Object::Reference(spec));
@@ -54,7 +54,12 @@ pub(super) fn embed(
 }
 
 /// The embedded file stream and its file specification; returns the specification.
-fn file_spec(doc: &mut lopdf::Document, attachment: &Attachment, date: &str) -> lopdf::ObjectId {
+fn file_spec(
+    doc: &mut lopdf::Document,
+    attachment: &Attachment,
+    date: &str,
+    deflater: &mut super::pdf::Deflater,
+) -> lopdf::ObjectId {
     let params = Dictionary::from_iter(vec![
         ("Size", Object::Integer(attachment.bytes.len() as i64)),
         (
@@ -67,15 +72,22 @@ fn file_spec(doc: &mut lopdf::Document, attachment: &Attachment, date: &str) -> 
         ("Subtype", Object::Name(attachment.mime.as_bytes().to_vec())),
         ("Params", Object::Dictionary(params)),
     ]);
-    let stream = doc.add_object(Stream::new(stream_dict, attachment.bytes.clone()));
+    // Deflated here, from the attachment's own bytes, as the writer's last pass would
+    // (the same dictionary and bytes), instead of copying them raw first.
+    let stream = match deflater.pack(&attachment.bytes) {
+        Some(packed) => {
+            let mut stream = Stream::new(stream_dict, packed);
+            stream.dict.set("Filter", "FlateDecode");
+            stream
+        }
+        None => Stream::new(stream_dict, attachment.bytes.clone()),
+    };
+    let stream = doc.add_object(stream);
     let ef = Dictionary::from_iter(vec![
         ("F", Object::Reference(stream)),
         ("UF", Object::Reference(stream)),
     ]);
-    let sha: String = Sha256::digest(&attachment.bytes)
-        .iter()
-        .map(|b| format!("{b:02x}"))
-        .collect();
+    let sha = &attachment.sha256;
     let spec = Dictionary::from_iter(vec![
         ("Type", Object::Name(b"Filespec".to_vec())),
         ("F", ascii_string(&attachment.name)),

@@ -38,6 +38,41 @@ pub struct Attachment {
     pub relationship: Relationship,
     /// The file's bytes, exactly.
     pub bytes: Vec<u8>,
+    /// SHA-256 of `bytes` as 64 lowercase hex digits (FIPS 180-4), computed once by
+    /// [`Attachment::new`] for the build record, the appendix and the PDF description.
+    pub sha256: String,
+}
+
+impl Attachment {
+    /// An attachment of `bytes`, with their SHA-256.
+    pub fn new(
+        name: String,
+        mime: &'static str,
+        description: String,
+        relationship: Relationship,
+        bytes: Vec<u8>,
+    ) -> Attachment {
+        Attachment {
+            sha256: sha256_hex(&bytes),
+            name,
+            mime,
+            description,
+            relationship,
+            bytes,
+        }
+    }
+}
+
+/// SHA-256 (FIPS 180-4) as lowercase hex.
+pub fn sha256_hex(bytes: &[u8]) -> String {
+    use sha2::{Digest, Sha256};
+    const HEX: &[u8; 16] = b"0123456789abcdef";
+    let mut out = String::with_capacity(64);
+    for b in Sha256::digest(bytes) {
+        out.push(char::from(HEX[usize::from(b >> 4)]));
+        out.push(char::from(HEX[usize::from(b & 0xf)]));
+    }
+    out
 }
 
 /// The PDF/A-3 `AFRelationship` of an associated file (ISO 19005-3, 6.8).

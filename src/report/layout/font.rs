@@ -122,6 +122,10 @@ impl FontFile {
 #[derive(Debug)]
 pub struct FontSet {
     files: [FontFile; 3],
+    /// [`FontSet::resolve`] and the advance in em of every ASCII character in each
+    /// face, worked out once: most of a package's text is ASCII and is measured
+    /// character by character.
+    ascii: [[(Face, char, f64); 128]; 3],
 }
 
 /// Character drawn for a code point that no face has.
@@ -137,6 +141,13 @@ impl FontSet {
     /// itself when it has the glyph, else DejaVu Sans, else the replacement character.
     /// Control characters (other than none) become the replacement character too.
     pub fn resolve(&self, face: Face, ch: char) -> (Face, char) {
+        if let Some(&(face, ch, _)) = self.ascii[face.index()].get(ch as usize) {
+            return (face, ch);
+        }
+        self.resolve_uncached(face, ch)
+    }
+
+    fn resolve_uncached(&self, face: Face, ch: char) -> (Face, char) {
         if !ch.is_control() {
             if self.file(face).glyph(ch).is_some() {
                 return (face, ch);
@@ -154,9 +165,35 @@ impl FontSet {
 
     /// Width in points of one character at `size` points (after fallback).
     pub fn char_width(&self, face: Face, ch: char, size: f64) -> f64 {
-        let (face, ch) = self.resolve(face, ch);
+        match self.ascii[face.index()].get(ch as usize) {
+            Some(&(_, _, em)) => em * size,
+            None => self.char_em(face, ch) * size,
+        }
+    }
+
+    /// Advance in em of `ch` requested in `face` (after fallback).
+    fn char_em(&self, face: Face, ch: char) -> f64 {
+        let (face, ch) = self.resolve_uncached(face, ch);
         let file = self.file(face);
-        file.glyph(ch).map_or(0.0, |gid| file.advance_em(gid)) * size
+        file.glyph(ch).map_or(0.0, |gid| file.advance_em(gid))
+    }
+
+    /// The set of `files` with its ASCII table.
+    fn new(files: [FontFile; 3]) -> FontSet {
+        let mut set = FontSet {
+            files,
+            ascii: [[(Face::Regular, '\0', 0.0); 128]; 3],
+        };
+        let mut ascii = set.ascii;
+        for face in Face::ALL {
+            for (code, slot) in ascii[face.index()].iter_mut().enumerate() {
+                let ch = char::from(code as u8);
+                let (f, c) = set.resolve_uncached(face, ch);
+                *slot = (f, c, set.char_em(face, ch));
+            }
+        }
+        set.ascii = ascii;
+        set
     }
 
     /// Width in points of `text` set in `face` at `size` points.
@@ -182,13 +219,11 @@ pub fn fonts() -> Result<&'static FontSet, String> {
     static FONTS: OnceLock<Result<FontSet, String>> = OnceLock::new();
     FONTS
         .get_or_init(|| {
-            Ok(FontSet {
-                files: [
-                    FontFile::parse(REGULAR).map_err(|e| format!("DejaVuSans.ttf: {e}"))?,
-                    FontFile::parse(BOLD).map_err(|e| format!("DejaVuSans-Bold.ttf: {e}"))?,
-                    FontFile::parse(MONO).map_err(|e| format!("DejaVuSansMono.ttf: {e}"))?,
-                ],
-            })
+            Ok(FontSet::new([
+                FontFile::parse(REGULAR).map_err(|e| format!("DejaVuSans.ttf: {e}"))?,
+                FontFile::parse(BOLD).map_err(|e| format!("DejaVuSans-Bold.ttf: {e}"))?,
+                FontFile::parse(MONO).map_err(|e| format!("DejaVuSansMono.ttf: {e}"))?,
+            ]))
         })
         .as_ref()
         .map_err(Clone::clone)

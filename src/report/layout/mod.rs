@@ -30,6 +30,7 @@ mod listing;
 pub mod page;
 mod paginate;
 mod pdf;
+mod real;
 mod stream;
 pub mod style;
 mod subset;
@@ -123,10 +124,11 @@ pub fn layout(doc: &Document, style: &Style) -> Result<Layout, LayoutError> {
             chunks.relayout_contents(&ctx, &headings);
         }
         let mut placed = headings.clone();
-        let mut pages = paginate::flow(&chunks.chunks, style, &mut placed);
+        let (at, count) = paginate::place(&chunks.chunks, style, &mut placed);
         let settled = placed.iter().zip(&headings).all(|(a, b)| a.page == b.page);
         headings = placed;
         if settled || !has_contents {
+            let mut pages = paginate::draw(chunks.chunks, &at, count, style);
             let m = &doc.meta;
             paginate::decorate(&mut pages, fonts, style, m);
             return Ok(Layout {

@@ -33,29 +33,36 @@ pub struct Chunk {
 /// Longest keep-with-next chain honoured; longer chains break anywhere.
 const MAX_KEEP_CHAIN: usize = 12;
 
-/// Flows chunks into pages of the body height; records heading pages. Returns the
-/// pages (body content only, in page coordinates).
-pub fn flow(chunks: &[Chunk], style: &Style, headings: &mut [HeadingEntry]) -> Vec<Page> {
-    let body_top = style.page.margin_top_mm * PT_PER_MM;
-    let left = style.page.margin_left_mm * PT_PER_MM;
+/// Where one chunk lands: its page (0-based), its top in the body, and the top of
+/// the repeated table header drawn above it at the top of a page.
+#[derive(Debug, Clone, Copy)]
+pub struct Placed {
+    page: usize,
+    y: f64,
+    header_y: Option<f64>,
+}
+
+/// Where the chunks land in pages of the body height (`None`: dropped at the top of
+/// a page), and how many pages they fill; records heading pages. Nothing is drawn:
+/// the pages are made by [`draw`] once the contents' page numbers have settled.
+pub fn place(
+    chunks: &[Chunk],
+    style: &Style,
+    headings: &mut [HeadingEntry],
+) -> (Vec<Option<Placed>>, usize) {
     let body_height = style.body_height_mm() * PT_PER_MM;
-    let mut pages = vec![Page::default()];
+    let mut placed = Vec::with_capacity(chunks.len());
+    let mut page = 0;
     let mut y = 0.0;
     let mut empty = true;
-    let place = |page: &mut Page, chunk: &Chunk, y: f64| {
-        for item in &chunk.items {
-            let mut item = item.clone();
-            item.translate(left, body_top + y);
-            page.items.push(item);
-        }
-    };
     for (i, chunk) in chunks.iter().enumerate() {
         if chunk.new_page && !empty {
-            pages.push(Page::default());
+            page += 1;
             y = 0.0;
             empty = true;
         }
         if empty && chunk.drop_at_top {
+            placed.push(None);
             continue;
         }
         let space = if empty { 0.0 } else { chunk.space_before };
@@ -66,31 +73,62 @@ pub fn flow(chunks: &[Chunk], style: &Style, headings: &mut [HeadingEntry]) -> V
             chunk.height
         };
         if !empty && y + space + need > body_height + 1e-6 {
-            pages.push(Page::default());
+            page += 1;
             y = 0.0;
             empty = true;
             if chunk.drop_at_top {
+                placed.push(None);
                 continue;
             }
         }
         let space = if empty { 0.0 } else { chunk.space_before };
+        let mut header_y = None;
         if empty {
             if let Some(header) = &chunk.repeat {
-                if let Some(page) = pages.last_mut() {
-                    place(page, header, y);
-                }
+                header_y = Some(y);
                 y += header.height;
             }
         }
         y += space;
         if let Some(h) = chunk.heading.and_then(|h| headings.get_mut(h)) {
-            h.page = pages.len();
+            h.page = page + 1;
         }
-        if let Some(page) = pages.last_mut() {
-            place(page, chunk, y);
-        }
+        placed.push(Some(Placed { page, y, header_y }));
         y += chunk.height;
         empty = false;
+    }
+    (placed, page + 1)
+}
+
+/// The pages of `chunks` placed by [`place`] (body content only, in page
+/// coordinates); the chunks' items are moved, not copied.
+pub fn draw(
+    chunks: Vec<Chunk>,
+    placed: &[Option<Placed>],
+    count: usize,
+    style: &Style,
+) -> Vec<Page> {
+    let body_top = style.page.margin_top_mm * PT_PER_MM;
+    let left = style.page.margin_left_mm * PT_PER_MM;
+    let mut pages = vec![Page::default(); count.max(1)];
+    for (chunk, at) in chunks.into_iter().zip(placed) {
+        let Some(at) = at else {
+            continue;
+        };
+        let Some(page) = pages.get_mut(at.page) else {
+            continue;
+        };
+        if let (Some(header), Some(header_y)) = (&chunk.repeat, at.header_y) {
+            for item in &header.items {
+                let mut item = item.clone();
+                item.translate(left, body_top + header_y);
+                page.items.push(item);
+            }
+        }
+        for mut item in chunk.items {
+            item.translate(left, body_top + at.y);
+            page.items.push(item);
+        }
     }
     pages
 }

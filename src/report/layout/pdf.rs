@@ -89,11 +89,20 @@ pub fn write(
     // printpdf's own `save` is `to_lopdf_document`, `compress`, `save_to`; the
     // attachments go in between, so a document without them is written as before.
     let mut lo = doc.to_lopdf_document(&opts, &mut warnings);
-    set_page_contents(&mut lo, contents)?;
+    let mut deflater = Deflater::new();
+    set_page_contents(&mut lo, contents, &mut deflater)?;
     drop_empty_info_keys(&mut lo);
-    super::attach::embed(&mut lo, attachments, &pdf_date(info.date))?;
-    compress(&mut lo);
-    let mut bytes = Vec::new();
+    super::attach::embed(&mut lo, attachments, &pdf_date(info.date), &mut deflater)?;
+    compress(&mut lo, &mut deflater);
+    // Room for the whole file at once: every stream is in memory, compressed, and the
+    // objects around them are small.
+    let stream_bytes: usize = lo
+        .objects
+        .values()
+        .filter_map(|o| o.as_stream().ok())
+        .map(|s| s.content.len() + 256)
+        .sum();
+    let mut bytes = Vec::with_capacity(stream_bytes + 64 * lo.objects.len() + 4096);
     lo.save_to(&mut bytes)
         .map_err(|e| LayoutError::Pdf(format!("the PDF could not be written: {e}")))?;
     // Everything before the trailer is deterministic; the trailer holds printpdf's
@@ -112,10 +121,7 @@ const DEFLATE_LEVEL: u32 = 6;
 /// Deflates every stream that has no filter yet, as lopdf's `Document::compress`
 /// does (FlateDecode, ISO 32000-1, 7.4.4; kept only when it saves more than the
 /// filter entry costs), at [`DEFLATE_LEVEL`].
-fn compress(doc: &mut lopdf::Document) {
-    // One compressor for every stream, reset between them: zlib-rs allocates and
-    // clears its window and hash tables when a compressor is made.
-    let mut deflate = flate2::Compress::new(flate2::Compression::new(DEFLATE_LEVEL), true);
+fn compress(doc: &mut lopdf::Document, deflater: &mut Deflater) {
     for object in doc.objects.values_mut() {
         let lopdf::Object::Stream(stream) = object else {
             continue;
@@ -123,14 +129,32 @@ fn compress(doc: &mut lopdf::Document) {
         if !stream.allows_compression || stream.dict.get(b"Filter").is_ok() {
             continue;
         }
-        deflate.reset();
-        let Some(packed) = deflate_all(&mut deflate, &stream.content) else {
-            continue;
-        };
-        if packed.len() + 19 < stream.content.len() {
+        if let Some(packed) = deflater.pack(&stream.content) {
             stream.dict.set("Filter", "FlateDecode");
             stream.set_content(packed);
         }
+    }
+}
+
+/// The package's deflate compressor, one for every stream, reset between them:
+/// zlib-rs allocates and clears its window and hash tables when a compressor is made.
+pub(super) struct Deflater {
+    deflate: flate2::Compress,
+}
+
+impl Deflater {
+    pub(super) fn new() -> Deflater {
+        Deflater {
+            deflate: flate2::Compress::new(flate2::Compression::new(DEFLATE_LEVEL), true),
+        }
+    }
+
+    /// The zlib stream (RFC 1950) of `data` when it saves more than the 19 bytes a
+    /// `/Filter /FlateDecode` entry costs (lopdf's rule), else `None` (kept raw).
+    pub(super) fn pack(&mut self, data: &[u8]) -> Option<Vec<u8>> {
+        self.deflate.reset();
+        let packed = deflate_all(&mut self.deflate, data)?;
+        (packed.len() + 19 < data.len()).then_some(packed)
     }
 }
 
@@ -331,8 +355,13 @@ fn glyph_usage_ops(layout: &Layout, glyphs: &[Glyphs; 3]) -> Vec<Op> {
     ops
 }
 
-/// Replaces the content stream of every page, in page order, by `contents`.
-fn set_page_contents(lo: &mut lopdf::Document, contents: Vec<Vec<u8>>) -> Result<(), LayoutError> {
+/// Replaces the content stream of every page, in page order, by `contents`, deflated
+/// as [`compress`] would.
+fn set_page_contents(
+    lo: &mut lopdf::Document,
+    contents: Vec<Vec<u8>>,
+    deflater: &mut Deflater,
+) -> Result<(), LayoutError> {
     let pages = lo.get_pages();
     if pages.len() != contents.len() {
         return Err(LayoutError::Pdf(format!(
@@ -351,6 +380,13 @@ fn set_page_contents(lo: &mut lopdf::Document, contents: Vec<Vec<u8>>) -> Result
             .get_object_mut(stream_id)
             .and_then(lopdf::Object::as_stream_mut)
             .map_err(|e| LayoutError::Pdf(format!("a page's contents: {e}")))?;
+        if stream.allows_compression && stream.dict.get(b"Filter").is_err() {
+            if let Some(packed) = deflater.pack(&content) {
+                stream.dict.set("Filter", "FlateDecode");
+                stream.set_content(packed);
+                continue;
+            }
+        }
         stream.set_content(content);
     }
     Ok(())

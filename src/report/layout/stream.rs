@@ -5,22 +5,33 @@
 //! The bytes are those printpdf 0.12 writes for the same drawing (its
 //! `translate_operations` building lopdf operations, then `Content::encode`): one
 //! operator a line, operands each followed by a space, reals as Rust prints an `f32`
-//! (shortest round-trip form), text as hexadecimal glyph ids of the subset font
+//! (shortest round-trip form, written by `real.rs`), text as hexadecimal glyph ids of the subset font
 //! (Identity-H, two bytes a glyph). Writing them here skips building a printpdf `Op`
 //! and a lopdf `Operation` (with its operand vector) for every operator, the
 //! largest cost of the package after compression (DEVELOPERS.md "Benchmarks").
 
 use super::font::Face;
 use super::page::{Item, Stroke};
+use super::real::push_f32;
 use super::style::{Colour, LineStyle};
-use std::fmt::Write;
 
 /// The glyph id of each character a face draws, from the subset font's `cmap`
 /// (`None` where the subset has none; written as glyph 0, as printpdf does).
-#[derive(Debug, Default, Clone)]
+#[derive(Debug, Clone)]
 pub(super) struct Glyphs {
-    /// `(character, glyph id)`, sorted by character.
+    /// The glyph id of each ASCII character (most of the text), looked up directly.
+    ascii: [Option<u16>; 128],
+    /// `(character, glyph id)` of the other characters, sorted by character.
     table: Vec<(char, Option<u16>)>,
+}
+
+impl Default for Glyphs {
+    fn default() -> Glyphs {
+        Glyphs {
+            ascii: [None; 128],
+            table: Vec::new(),
+        }
+    }
 }
 
 impl Glyphs {
@@ -29,13 +40,21 @@ impl Glyphs {
         chars: impl Iterator<Item = char>,
         lookup: impl Fn(char) -> Option<u16>,
     ) -> Glyphs {
-        Glyphs {
-            table: chars.map(|c| (c, lookup(c))).collect(),
+        let mut glyphs = Glyphs::default();
+        for c in chars {
+            match glyphs.ascii.get_mut(c as usize) {
+                Some(slot) => *slot = lookup(c),
+                None => glyphs.table.push((c, lookup(c))),
+            }
         }
+        glyphs
     }
 
     /// The glyph id of `c`, if the subset has one.
     pub(super) fn get(&self, c: char) -> Option<u16> {
+        if let Some(&gid) = self.ascii.get(c as usize) {
+            return gid;
+        }
         self.table
             .binary_search_by_key(&c, |&(k, _)| k)
             .ok()
@@ -134,8 +153,8 @@ impl Writer<'_> {
     }
 
     fn real(&mut self, v: f32) {
-        // `write!` into a String cannot fail.
-        let _ = write!(self.out, "{v} ");
+        push_f32(&mut self.out, v);
+        self.out.push(' ');
     }
 
     fn text(&mut self, t: &super::page::TextRun) {
@@ -225,7 +244,7 @@ impl Writer<'_> {
                 if i > 0 {
                     self.out.push(' ');
                 }
-                let _ = write!(self.out, "{v}");
+                push_f32(&mut self.out, *v);
             }
             self.out.push_str("] 0 d");
         }

@@ -69,8 +69,9 @@ struct Glyph {
     width: f64,
 }
 
+/// A word (a range of the glyph buffer), a space, or a forced break.
 enum Token {
-    Word(Vec<Glyph>),
+    Word(usize, usize),
     Space(Glyph),
     Break,
 }
@@ -79,19 +80,22 @@ enum Token {
 /// Runs of spaces collapse to one; `'\n'` forces a line break. Always returns at
 /// least one line.
 pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64) -> Vec<Line> {
+    // Every word's glyphs in one buffer, the words as ranges of it.
+    let mut glyphs: Vec<Glyph> = Vec::with_capacity(pieces.iter().map(|p| p.1.len()).sum());
     let mut tokens = Vec::new();
-    let mut word: Vec<Glyph> = Vec::new();
+    let mut word_start = 0;
     for &(face, text) in pieces {
         let mut chars = text.chars().filter(|c| *c != '\r').peekable();
         while let Some(ch) = chars.next() {
             // A space before a percent sign does not break: "130 %" stays on one line.
-            if ch == ' ' && chars.peek() == Some(&'%') && !word.is_empty() {
-                word.push(glyph(fonts, face, ' ', size));
+            if ch == ' ' && chars.peek() == Some(&'%') && glyphs.len() > word_start {
+                glyphs.push(glyph(fonts, face, ' ', size));
                 continue;
             }
             if ch == '\n' || ch == ' ' || ch == '\t' {
-                if !word.is_empty() {
-                    tokens.push(Token::Word(std::mem::take(&mut word)));
+                if glyphs.len() > word_start {
+                    tokens.push(Token::Word(word_start, glyphs.len()));
+                    word_start = glyphs.len();
                 }
                 tokens.push(if ch == '\n' {
                     Token::Break
@@ -99,12 +103,12 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     Token::Space(glyph(fonts, face, ' ', size))
                 });
             } else {
-                word.push(glyph(fonts, face, ch, size));
+                glyphs.push(glyph(fonts, face, ch, size));
             }
         }
     }
-    if !word.is_empty() {
-        tokens.push(Token::Word(word));
+    if glyphs.len() > word_start {
+        tokens.push(Token::Word(word_start, glyphs.len()));
     }
 
     let mut lines = Vec::new();
@@ -124,7 +128,8 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     pending_space = Some(g);
                 }
             }
-            Token::Word(w) => {
+            Token::Word(a, b) => {
+                let w = &glyphs[a..b];
                 let word_width: f64 = w.iter().map(|g| g.width).sum();
                 let space = pending_space.take();
                 let space_width = space.map_or(0.0, |g| g.width);
@@ -132,7 +137,7 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     if let Some(s) = space {
                         line.push(s);
                     }
-                    line.extend(w);
+                    line.extend_from_slice(w);
                     line_width += space_width + word_width;
                     continue;
                 }
@@ -140,7 +145,7 @@ pub fn wrap(fonts: &FontSet, pieces: &[(Face, &str)], size: f64, max_width: f64)
                     lines.push(finish(fonts, &line));
                     line.clear();
                 }
-                let mut rest: &[Glyph] = &w;
+                let mut rest: &[Glyph] = w;
                 let mut rest_width = word_width;
                 // Each pass takes at least one glyph, so the loop ends even when
                 // `max_width` is negative (an empty rest is never "too wide").
@@ -273,19 +278,24 @@ fn finish(fonts: &FontSet, glyphs: &[Glyph]) -> Line {
 
 fn finish_keep_spaces(fonts: &FontSet, glyphs: &[Glyph]) -> Line {
     let mut line = Line::default();
-    for g in glyphs {
+    for (i, g) in glyphs.iter().enumerate() {
         let (face, ch) = fonts.resolve(g.face, g.ch);
         match line.runs.last_mut() {
             Some(run) if run.face == face => {
                 run.text.push(ch);
                 run.width += g.width;
             }
-            _ => line.runs.push(Run {
-                face,
-                text: ch.to_string(),
-                x: line.width,
-                width: g.width,
-            }),
+            _ => {
+                // Room for the rest of the line in this run (one byte a glyph).
+                let mut text = String::with_capacity(glyphs.len() - i);
+                text.push(ch);
+                line.runs.push(Run {
+                    face,
+                    text,
+                    x: line.width,
+                    width: g.width,
+                });
+            }
         }
         line.width += g.width;
     }

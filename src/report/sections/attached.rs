@@ -2,7 +2,6 @@
 //! verify it, and a table of the attached files in the appendix.
 
 use crate::report::layout::document::{Align, Attachment, Block, Column, Span};
-use sha2::{Digest, Sha256};
 
 /// The cover's note on the attached sources (nothing when there are none).
 pub(super) fn cover_note(blocks: &mut Vec<Block>, attachments: &[Attachment], summarised: bool) {
@@ -59,15 +58,11 @@ pub(super) fn appendix(blocks: &mut Vec<Block>, attachments: &[Attachment]) {
         rows: sorted
             .iter()
             .map(|a| {
-                let sha: String = Sha256::digest(&a.bytes)
-                    .iter()
-                    .map(|b| format!("{b:02x}"))
-                    .collect();
                 vec![
                     a.name.clone(),
                     format!("{} ({})", a.description, a.relationship.as_str()),
                     a.bytes.len().to_string(),
-                    sha,
+                    a.sha256.clone(),
                 ]
             })
             .collect(),

@@ -94,13 +94,22 @@ pub fn fitting(description: &str) -> String {
 pub fn plain(text: &str) -> String {
     let mut out = text.replace('`', "");
     for (typed, printed) in SYMBOLS {
-        out = out.replace(typed, printed);
+        if out.contains(typed) {
+            out = out.replace(typed, printed);
+        }
     }
-    out.split(' ').map(field_path).collect::<Vec<_>>().join(" ")
+    let mut joined = String::with_capacity(out.len() + 16);
+    for (i, word) in out.split(' ').enumerate() {
+        if i > 0 {
+            joined.push(' ');
+        }
+        joined.push_str(&field_path(word));
+    }
+    joined
 }
 
 /// One word: a dotted field path or a field keyword in words; anything else as is.
-fn field_path(word: &str) -> String {
+fn field_path(word: &str) -> std::borrow::Cow<'_, str> {
     let core = word.trim_end_matches([',', ';', ':', ')']);
     let tail = &word[core.len()..];
     let parts: Vec<&str> = core.split('.').collect();
@@ -121,7 +130,7 @@ fn field_path(word: &str) -> String {
             .unwrap_or_else(|| p.to_string())
     };
     if core == "deg" {
-        return format!("°{tail}");
+        return format!("°{tail}").into();
     }
     if is_path {
         let words: Vec<String> = parts
@@ -134,11 +143,11 @@ fn field_path(word: &str) -> String {
                 }
             })
             .collect();
-        format!("{}{tail}", words.join(" "))
+        format!("{}{tail}", words.join(" ")).into()
     } else if FIELD_WORDS.iter().any(|(typed, _)| *typed == core) {
-        format!("{}{tail}", field(core))
+        format!("{}{tail}", field(core)).into()
     } else {
-        word.to_string()
+        word.into()
     }
 }
 
