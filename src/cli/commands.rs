@@ -2,6 +2,7 @@
 //! [`CliError`] returned to `run`.
 
 use dutyline::diagnostics::Code;
+use std::collections::BTreeMap;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -10,7 +11,7 @@ use dutyline::analysis::Analysis;
 use dutyline::diagnostics::Diagnostic;
 use dutyline::model::FileError;
 use dutyline::report::layout::style::{Style, StyleError};
-use dutyline::verify::StyleSource;
+use dutyline::verify::{Recording, StyleSource};
 
 use super::error::{CliError, EXIT_DESIGN, EXIT_NO_SELECTION};
 use super::files::{self, DiskFiles};
@@ -23,11 +24,14 @@ pub enum Format {
     Json,
 }
 
-/// A design read and checked, with the files it may read.
+/// A design read and checked, with the files it may read and those its check read.
 pub struct Loaded {
     pub source: String,
     pub checked: dutyline::Checked,
     pub files: DiskFiles,
+    /// The files the check read: path as the design names it → text (what a package
+    /// attaches beside the design).
+    pub imports: BTreeMap<String, String>,
 }
 
 /// Read and check a design; diagnostics with any error make it a [`CliError::Rejected`].
@@ -43,11 +47,14 @@ pub fn load_in(path: &Path, base: Option<&Path>, allowed: &[PathBuf]) -> Result<
         Some(folder) => DiskFiles::in_folder(folder, allowed)?,
         None => DiskFiles::for_design(path, allowed)?,
     };
-    let checked = checked(path, &source, &files)?;
+    let recording = Recording::new(&files);
+    let checked = checked(path, &source, &recording)?;
+    let imports = recording.into_files();
     Ok(Loaded {
         source,
         checked,
         files,
+        imports,
     })
 }
 

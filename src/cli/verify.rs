@@ -8,7 +8,7 @@ use std::process::ExitCode;
 use dutyline::diagnostics::{Code, Diagnostic};
 use dutyline::verify::read::{Embedded, MAX_PACKAGE_BYTES};
 use dutyline::verify::sources::MANIFEST_NAME;
-use dutyline::verify::{DesignFiles, Recording, Verdict};
+use dutyline::verify::{DesignFiles, Verdict};
 
 use super::commands::Loaded;
 use super::error::{CliError, WriteProblem, EXIT_DESIGN, EXIT_NO_SELECTION};
@@ -26,15 +26,12 @@ pub fn file_name(path: &Path, fallback: &str) -> String {
     }
 }
 
-/// A loaded design with the files it reads, as the package attaches them: the design
-/// is checked once more through a [`Recording`] of its file access.
+/// A loaded design with the files its check read, as the package attaches them.
 pub fn design_files(path: &Path, loaded: &Loaded) -> DesignFiles {
-    let recording = Recording::new(&loaded.files);
-    let _ = dutyline::check(&loaded.source, &recording);
     DesignFiles {
         name: file_name(path, "design.duty"),
         source: loaded.source.clone(),
-        imports: recording.into_files(),
+        imports: loaded.imports.clone(),
     }
 }
 
