@@ -99,10 +99,7 @@ fn the_json_of_many_cases_refers_to_its_tables() {
         for (k, p) in case["pumps"].as_array().expect("pumps").iter().enumerate() {
             let r = &a.cases[i].pumps[k];
             for (c, check) in p["checks"].as_array().expect("checks").iter().enumerate() {
-                assert_eq!(
-                    sources[index(&check["source"])],
-                    r.checks[c].source.as_str()
-                );
+                assert_eq!(sources[index(&check["source"])], r.checks[c].source());
             }
             if let Some(duty) = r.duty.as_ref() {
                 let cols = &p["duty"]["segments"];

@@ -46,9 +46,7 @@ pub struct Check {
     pub limit: Option<f64>,
     /// Plain language with typed quantities (printed in report units by the outputs).
     pub message: Message,
-    /// Where the limit comes from, as printed (`origin.text()`).
-    pub source: String,
-    /// Where the limit comes from, typed.
+    /// Where the limit comes from (printed by [`Check::source`]).
     pub origin: Source,
     /// What the check is about when an id has several per duty: the velocity's side
     /// (`suction`, `discharge`) or the requirement as written in the design.
@@ -71,10 +69,15 @@ impl Check {
             value,
             limit,
             message: message.into(),
-            source: origin.text(),
             origin,
             subject: None,
         }
+    }
+
+    /// Where the limit comes from, as printed: the text of [`Check::origin`], made when
+    /// an output asks (a case's checks are many and most are never printed).
+    pub fn source(&self) -> String {
+        self.origin.text()
     }
 
     /// The same check about a subject (see [`Check::subject`]).

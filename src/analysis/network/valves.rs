@@ -318,6 +318,10 @@ mod tests {
         assert_eq!((low.status, low.limit), (Status::Warn, Some(0.10)));
         let high = opening_check("v", &valve(40.0, 0.95));
         assert_eq!((high.status, high.limit), (Status::Warn, Some(0.90)));
-        assert!(high.source.ends_with("common practice"), "{}", high.source);
+        assert!(
+            high.source().ends_with("common practice"),
+            "{}",
+            high.source()
+        );
     }
 }

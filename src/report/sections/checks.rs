@@ -37,7 +37,7 @@ pub(super) fn chapter(
                     check_name(&check.id.to_string()),
                     mark.to_string(),
                     super::wording::plain(&units.render(&check.message)),
-                    super::sources::publication(&check.source, units),
+                    super::sources::publication(&check.source(), units),
                 ]);
             }
         }

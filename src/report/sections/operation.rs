@@ -432,7 +432,7 @@ fn profile_checks(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Unit
                     c.id.as_str().to_string(),
                     c.status.keyword().to_uppercase(),
                     super::wording::plain(&units.render(&c.message)),
-                    c.source.clone(),
+                    c.source(),
                 ]
             })
             .collect(),

@@ -524,7 +524,7 @@ fn checks_table(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
                 }
                 .to_string(),
                 super::wording::plain(&units.render(&check.message)),
-                super::sources::publication(&check.source, units),
+                super::sources::publication(&check.source(), units),
             ]);
         }
     }
