@@ -157,6 +157,31 @@ pub struct FittingState {
     pub beta_from_bores: bool,
     /// Included angle of a taper, rad.
     pub angle_rad: Option<f64>,
+    /// K without its laminar term K1/Re, in the segment's bore: K at Re = 0 for the
+    /// Reynolds-dependent methods (2-K, 3-K), the whole K for the others.
+    pub k_fixed: f64,
+}
+
+impl FittingState {
+    /// K of one piece at Reynolds number `re` in the segment's bore: K1/Re + K_fixed.
+    /// The same bits as [`k_of`] at that bore, which evaluates K_fixed anew at every call
+    /// (`fittings::k_value` adds the laminar term last, and drops it at Re = 0); NaN
+    /// where [`k_of`] gives NaN (Re negative or NaN, K not finite).
+    pub fn k_at(&self, re: f64) -> f64 {
+        if re.is_nan() || re < 0.0 {
+            return f64::NAN;
+        }
+        let k = if fittings::is_constant(self.spec) || re == 0.0 {
+            self.k_fixed
+        } else {
+            fittings::k_laminar_coefficient(self.spec) / re + self.k_fixed
+        };
+        if k.is_finite() {
+            k
+        } else {
+            f64::NAN
+        }
+    }
 }
 
 /// Head losses at one flow, m of fluid.
@@ -859,11 +884,7 @@ impl CaseSystem {
                     },
                     friction_head,
                     minor_head,
-                    fittings_k: seg
-                        .fittings
-                        .iter()
-                        .map(|f| k_of(f, reynolds, seg.inner_diameter))
-                        .collect(),
+                    fittings_k: seg.fittings.iter().map(|f| f.k_at(reynolds)).collect(),
                 }
             })
             .collect()
@@ -1072,13 +1093,23 @@ pub fn resolve_segment(
                 f.spec.name, line_name, e.message
             ),
         })?;
-        fits.push(FittingState {
+        let mut state = FittingState {
             spec: f.spec,
             count: f.count,
             beta: f.beta,
             beta_from_bores: f.beta_from_bores,
             angle_rad: f.angle_rad,
-        });
+            k_fixed: 0.0,
+        };
+        // At Re = 0 the K1/Re term is dropped, leaving K_fixed; a constant K is the same
+        // at any Re.
+        let re = if fittings::is_constant(f.spec) {
+            1e6
+        } else {
+            0.0
+        };
+        state.k_fixed = k_of(&state, re, d);
+        fits.push(state);
     }
     let mut equivalent_length = 0.0;
     for l in &seg.losses {
@@ -1089,11 +1120,10 @@ pub fn resolve_segment(
     for f in &fits {
         let n = f.count as f64;
         if fittings::is_constant(f.spec) {
-            k_constant += n * k_of(f, 1e6, d);
+            k_constant += n * f.k_fixed;
         } else {
-            // At Re = 0 the K1/Re term is dropped, leaving K_fixed.
             k_laminar_sum += n * fittings::k_laminar_coefficient(f.spec);
-            k_fixed_sum += n * k_of(f, 0.0, d);
+            k_fixed_sum += n * f.k_fixed;
         }
     }
     Ok(SegmentState {
@@ -1116,4 +1146,43 @@ pub fn resolve_segment(
         equivalent_length,
         per_pump: false,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// [`FittingState::k_at`] (K_fixed kept from the set-up) gives the bits of [`k_of`]
+    /// (K evaluated whole) for every fitting of the table, over bores and Reynolds
+    /// numbers from zero flow to far beyond turbulent.
+    #[test]
+    fn k_at_is_k_of_to_the_bit_for_every_fitting() {
+        for spec in fittings::all_fittings() {
+            for d in [0.0127, 0.0525, 0.2027, 0.61, 1.5] {
+                let mut f = FittingState {
+                    spec,
+                    count: 1,
+                    beta: spec.needs_beta.then_some(0.6),
+                    beta_from_bores: false,
+                    angle_rad: spec.needs_angle.then_some(0.5),
+                    k_fixed: 0.0,
+                };
+                let re = if fittings::is_constant(spec) {
+                    1e6
+                } else {
+                    0.0
+                };
+                f.k_fixed = k_of(&f, re, d);
+                for re in [0.0, 1e-3, 1.0, 850.0, 2000.0, 4000.0, 1.3e5, 2e7, 1e300] {
+                    assert_eq!(
+                        f.k_at(re).to_bits(),
+                        k_of(&f, re, d).to_bits(),
+                        "{} at D = {d} m, Re = {re}",
+                        spec.name
+                    );
+                }
+                assert!(f.k_at(-1.0).is_nan() && f.k_at(f64::NAN).is_nan());
+            }
+        }
+    }
 }
