@@ -5,6 +5,7 @@
 use crate::message::{Kind, Message, Part};
 use crate::model::ReportUnits;
 pub use crate::numbers::{count, plain, significant, significant_trimmed, typeset};
+use crate::numbers::{fixed, Fixed};
 
 /// A unit of display: label, and SI value → displayed value.
 #[derive(Clone, Copy, Debug)]
@@ -66,7 +67,7 @@ impl Shown {
 /// differently (or `base` when they are equal).
 fn decimals_apart(base: usize, a: f64, b: f64) -> usize {
     let mut decimals = base;
-    while a != b && decimals < base + 4 && format!("{a:.decimals$}") == format!("{b:.decimals$}") {
+    while a != b && decimals < base + 4 && fixed(a, decimals) == fixed(b, decimals) {
         decimals += 1;
     }
     decimals
@@ -553,7 +554,7 @@ pub fn pipe(material_keyword: &str, label: &str, inner_diameter_m: f64, units: &
 
 /// A fraction as a percentage, "76.5 %".
 pub fn percent(f: f64) -> String {
-    format!("{:.1} %", 100.0 * f)
+    format!("{} %", Fixed(100.0 * f, 1))
 }
 
 /// An input range of the design's uncertainty in words and report units: what varies,

@@ -10,6 +10,7 @@ use super::duty::{Duty, Headroom};
 use super::limits::{self, CheckId, Limit, Source};
 use crate::message::{self, flow, head, Kind, Message, Part};
 use crate::model::{Case, Design, Metric, PumpCandidate, ReportUnits, Requirement};
+use crate::numbers::Fixed;
 
 /// The outcome of a check.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord)]
@@ -254,12 +255,12 @@ fn operating_region(d: &Duty) -> Check {
         Some(r),
         Some(limit.value),
         format!(
-            "flow per pump is {:.0} % of BEP flow (preferred {:.0}–{:.0} %, outside {:.0}–{:.0} % fails)",
-            100.0 * r,
-            100.0 * POR.0,
-            100.0 * POR.1,
-            100.0 * AOR.0,
-            100.0 * AOR.1
+            "flow per pump is {} % of BEP flow (preferred {}–{} %, outside {}–{} % fails)",
+            Fixed(100.0 * r, 0),
+            Fixed(100.0 * POR.0, 0),
+            Fixed(100.0 * POR.1, 0),
+            Fixed(100.0 * AOR.0, 0),
+            Fixed(100.0 * AOR.1, 0)
         ),
         origin,
     )
@@ -420,7 +421,7 @@ pub fn metric_value(m: Metric, si: f64) -> Part {
     match m {
         Metric::Flow => flow(si),
         Metric::Head | Metric::NpshExcess => head(si),
-        Metric::NpshMargin => Part::Text(format!("{si:.2}")),
+        Metric::NpshMargin => Part::Text(crate::numbers::fixed(si, 2)),
         Metric::Efficiency => Part::Percent(si),
         Metric::SuctionVelocity | Metric::DischargeVelocity => message::value(Kind::Velocity, si),
         Metric::ShaftPower => message::value(Kind::Power, si),

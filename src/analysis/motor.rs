@@ -18,6 +18,7 @@ use super::limits::{self, CheckId};
 use super::{CaseResult, Warning};
 use crate::message::{self, Kind};
 use crate::model::{Adjust, Design, MotorStandardChoice, PumpCandidate};
+use crate::numbers::Fixed;
 use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard};
 
 /// Points sampled along the published curve for the run-out power.
@@ -288,8 +289,8 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
         ),
         power(shaft_per_pump, rating),
         format!(
-            " is {:.0} % of the nameplate ",
-            100.0 * shaft_per_pump / rating
+            " is {} % of the nameplate ",
+            Fixed(100.0 * shaft_per_pump / rating, 0)
         ),
         power(rating, shaft_per_pump),
         "; largest at any duty ",
@@ -300,16 +301,16 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
         msg.push_str(": above the nameplate at duty, choose a larger motor");
     }
     msg.push(format!(
-        "; along the curve to run-out at {:.0} rpm and the largest impeller allowed the largest is ",
-        m.run_out_speed_rpm
+        "; along the curve to run-out at {} rpm and the largest impeller allowed the largest is ",
+        Fixed(m.run_out_speed_rpm, 0)
     ));
     msg.push(power(m.run_out_shaft_power, rating));
     msg.push(" at ");
     msg.push(message::flow(m.run_out_flow));
     msg.push(format!(
-        " per pump (case {}), {:.0} % of nameplate",
+        " per pump (case {}), {} % of nameplate",
         m.run_out_case,
-        100.0 * m.choice.runout_loading_ratio,
+        Fixed(100.0 * m.choice.runout_loading_ratio, 0),
     ));
     msg.push_str(if m.choice.non_overloading && m.run_out_at_data_end {
         ": non-overloading over the published curve, but the largest is at its last point with the power still rising: beyond it (filling an empty main, a burst) the motor may overload; confirm the manufacturer's maximum flow or protect the motor"
@@ -324,8 +325,8 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
         "; on a variable-frequency drive the service factor is taken as 1.0".to_string()
     } else {
         format!(
-            "; service factor {:.2} is margin only, not used for sizing",
-            m.choice.service_factor
+            "; service factor {} is margin only, not used for sizing",
+            Fixed(m.choice.service_factor, 2)
         )
     });
     Check::typed(

@@ -8,6 +8,7 @@ use crate::analysis::system::CaseSystem;
 use crate::analysis::{Analysis, CaseResult};
 use crate::display::{percent, Units};
 use crate::model::Design;
+use crate::numbers::{fixed, Fixed};
 use crate::report::sections::summary::SUMMARY_CASES;
 
 /// The text summary.
@@ -112,7 +113,7 @@ fn summarised_cases(o: &mut String, design: &Design, analysis: &Analysis, u: &Un
                         let _ = write!(o, ", {}", pw.fmt(p));
                     }
                     if let Some(n) = d.npsh_required.filter(|n| *n > 0.0) {
-                        let _ = write!(o, ", NPSH ratio {:.2}", d.npsh_available / n);
+                        let _ = write!(o, ", NPSH ratio {}", Fixed(d.npsh_available / n, 2));
                     }
                 }
                 None => o.push_str("no duty point"),
@@ -260,9 +261,9 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult) {
     let (fl, hd, vel, dia) = (u.flow(), u.head(), u.velocity(), u.diameter());
     let _ = writeln!(
         o,
-        "  pump {} at {:.0} rpm{}:",
+        "  pump {} at {} rpm{}:",
         r.name,
-        r.speed_rpm,
+        Fixed(r.speed_rpm, 0),
         r.impeller_diameter_m
             .map(|d| format!(", impeller {}", dia.fmt(d)))
             .unwrap_or_default()
@@ -307,7 +308,7 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult) {
         let _ = writeln!(
             o,
             "    per year: {} h, {}, {}",
-            format_args!("{:.0}", e.hours),
+            Fixed(e.hours, 0),
             u.volume().fmt(e.volume_m3),
             u.energy().fmt(e.energy_j)
         );
@@ -429,7 +430,7 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
             "    NPSHr (NPSH3): {}; margin ratio {}; excess {}",
             hd.fmt(n),
             if n > 0.0 {
-                format!("{:.2}", d.npsh_available / n)
+                fixed(d.npsh_available / n, 2)
             } else {
                 "—".to_string()
             },
@@ -484,14 +485,14 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
     for g in &d.segments {
         let _ = writeln!(
             o,
-            "    at duty, segment {} {}: {}, {}, Re {:.0}, f {}, friction {}, minor {}, K {}",
+            "    at duty, segment {} {}: {}, {}, Re {}, f {}, friction {}, minor {}, K {}",
             g.line,
             g.index + 1,
             fl.fmt(g.flow),
             vel.fmt(g.velocity),
-            g.reynolds,
+            Fixed(g.reynolds, 0),
             g.friction_factor
-                .map(|f| format!("{f:.5}"))
+                .map(|f| fixed(f, 5))
                 .unwrap_or_else(|| "— (Hazen-Williams)".into()),
             hd.fmt(g.friction_head),
             hd.fmt(g.minor_head),
@@ -500,7 +501,7 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
             } else {
                 g.fittings_k
                     .iter()
-                    .map(|k| format!("{k:.4}"))
+                    .map(|k| fixed(*k, 4))
                     .collect::<Vec<_>>()
                     .join(", ")
             }
@@ -517,10 +518,10 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
         if let Some(Some(m)) = analysis.motor_sizing.get(k) {
             let _ = writeln!(
                 o,
-                "  motor: {} per pump{}, service factor {:.2}{}; efficiency {} ({})",
+                "  motor: {} per pump{}, service factor {}{}; efficiency {} ({})",
                 m.choice.rating_label,
                 if m.rating_stated { " (stated)" } else { "" },
-                m.choice.service_factor,
+                Fixed(m.choice.service_factor, 2),
                 if m.variable_speed {
                     " (variable-frequency drive)"
                 } else {
@@ -531,10 +532,10 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
             );
             let _ = writeln!(
                 o,
-                "  largest shaft power at duty: {} (case {}); to run-out at {:.0} rpm: {} at {} per pump (case {}); {}",
+                "  largest shaft power at duty: {} (case {}); to run-out at {} rpm: {} at {} per pump (case {}); {}",
                 pw.fmt(m.max_operating_shaft_power),
                 m.max_operating_case,
-                m.run_out_speed_rpm,
+                Fixed(m.run_out_speed_rpm, 0),
                 pw.fmt(m.run_out_shaft_power),
                 fl.fmt(m.run_out_flow),
                 m.run_out_case,
