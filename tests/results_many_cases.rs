@@ -90,7 +90,7 @@ fn the_json_of_many_cases_refers_to_its_tables() {
         assert_eq!(refs.len(), sys.segments.len());
         for (j, r) in refs.iter().enumerate() {
             let s = &segments[index(r)];
-            assert_eq!(s["line"], sys.segments[j].line.as_str());
+            assert_eq!(s["line"], &*sys.segments[j].line);
             assert_eq!(index(&s["index"]), sys.segments[j].index);
             assert!(same(&s["roughness_m"], sys.segments[j].roughness));
         }

@@ -140,7 +140,7 @@ fn each_pump_carries_its_own_branch_losses_at_its_own_flow() {
     assert_eq!(path[1].0, "own_suction");
     assert!((path[1].1 - d.flow_per_pump).abs() < 1e-15);
     // The segments at the duty carry the same flows.
-    let seg = |name: &str| d.segments.iter().find(|s| s.line == name).expect(name);
+    let seg = |name: &str| d.segments.iter().find(|s| &*s.line == name).expect(name);
     assert!((seg("own_discharge").flow - d.flow_per_pump).abs() < 1e-15);
     assert!((seg("header_out").flow - d.flow).abs() < 1e-15);
 }
@@ -271,7 +271,7 @@ fn the_pressure_screen_takes_station_piping_at_the_flow_per_pump() {
     let losses: f64 = d
         .segments
         .iter()
-        .filter(|s| s.line == "own_discharge" || s.line == "header_out")
+        .filter(|s| &*s.line == "own_discharge" || &*s.line == "header_out")
         .map(|s| s.friction_head + s.minor_head)
         .sum();
     assert!((out - (140.0 * FT + losses)).abs() < 0.5 * FT, "{out}");

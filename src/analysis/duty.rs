@@ -386,7 +386,7 @@ fn station_piping(sys: &CaseSystem, q: f64, qp: f64) -> Option<StationPiping> {
         .segments
         .iter()
         .filter(|s| s.side == Side::Suction)
-        .map(|s| (s.line.clone(), s.index, sys.segment_flow(s, q, qp)))
+        .map(|s| (s.line.to_string(), s.index, sys.segment_flow(s, q, qp)))
         .collect();
     Some(StationPiping {
         flow_per_pump: qp,

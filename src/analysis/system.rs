@@ -105,7 +105,7 @@ fn well_drawdown(s: &Scenario) -> Result<Option<WellDrawdown>, SystemError> {
 #[derive(Clone, Debug)]
 pub struct SegmentState {
     /// Name of the line the segment belongs to.
-    pub line: String,
+    pub line: std::sync::Arc<str>,
     /// Suction or discharge.
     pub side: Side,
     /// Position within its line (0-based).
@@ -790,7 +790,7 @@ impl NpshTerms {
 #[derive(Clone, Debug, PartialEq)]
 pub struct SegmentAtFlow {
     /// Name of the line.
-    pub line: String,
+    pub line: std::sync::Arc<str>,
     /// Suction or discharge.
     pub side: Side,
     /// Position within its line (0-based).
@@ -1127,7 +1127,7 @@ pub fn resolve_segment(
         }
     }
     Ok(SegmentState {
-        line: line_name.to_string(),
+        line: line_name.into(),
         side,
         index: i,
         material: seg.material.keyword(),

@@ -515,7 +515,7 @@ fn tables<'a>(
         if let Some(s) = c.system.as_ref() {
             for g in &s.segments {
                 r.segments
-                    .push(segments.index((g.line.as_str(), g.index), segment(g, d)));
+                    .push(segments.index((&*g.line, g.index), segment(g, d)));
             }
         }
         if let Some(sc) = analysis.safety.cases.get(i) {

@@ -40,7 +40,7 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
         .segments
         .iter()
         .enumerate()
-        .filter(|(_, s)| s.line == line)
+        .filter(|(_, s)| *s.line == *line)
     {
         let at = |c: f64, before| Station {
             chainage: c,
