@@ -3,7 +3,8 @@
 //!
 //! Run: `cargo bench --bench envelope -- --warm-up-time 1 --measurement-time 3`.
 //! Target: under 2 ms added to `results`; measured 7.5–9.7 ms on the shared 2-core
-//! machine (2026-12-02), 2.29 ms against 4.85 ms before on 2026-12-03 (DEVELOPERS.md,
+//! machine (2026-12-02), 2.29 ms against 4.85 ms before on 2026-12-03, 2.04–2.11 ms idle at
+//! 11:30 UTC (DEVELOPERS.md,
 //! "Benchmarks"), not yet met.
 
 use std::hint::black_box;
