@@ -103,7 +103,7 @@ fn the_json_of_many_cases_refers_to_its_tables() {
             }
             if let Some(duty) = r.duty.as_ref() {
                 let cols = &p["duty"]["segments"];
-                for (j, g) in duty.segments.iter().enumerate() {
+                for (j, g) in duty.segments(sys).iter().enumerate() {
                     assert!(same(&cols["reynolds"][j], g.reynolds));
                     assert!(same(&cols["friction_head_m"][j], g.friction_head));
                 }

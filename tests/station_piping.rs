@@ -140,7 +140,8 @@ fn each_pump_carries_its_own_branch_losses_at_its_own_flow() {
     assert_eq!(path[1].0, "own_suction");
     assert!((path[1].1 - d.flow_per_pump).abs() < 1e-15);
     // The segments at the duty carry the same flows.
-    let seg = |name: &str| d.segments.iter().find(|s| &*s.line == name).expect(name);
+    let segments = d.segments(a.cases[0].system.as_ref().expect("system"));
+    let seg = |name: &str| segments.iter().find(|s| &*s.line == name).expect(name);
     assert!((seg("own_discharge").flow - d.flow_per_pump).abs() < 1e-15);
     assert!((seg("header_out").flow - d.flow).abs() < 1e-15);
 }
@@ -269,7 +270,7 @@ fn the_pressure_screen_takes_station_piping_at_the_flow_per_pump() {
     // loss and the pump's own: 140 ft + the losses of both at their flows.
     let out = own.grade_duty.as_ref().expect("grade")[0];
     let losses: f64 = d
-        .segments
+        .segments(a.cases[0].system.as_ref().expect("system"))
         .iter()
         .filter(|s| &*s.line == "own_discharge" || &*s.line == "header_out")
         .map(|s| s.friction_head + s.minor_head)

@@ -323,8 +323,6 @@ pub struct Duty {
     pub suction_velocity: Option<f64>,
     /// Velocity in the discharge segment next to the pump, m/s.
     pub discharge_velocity: Option<f64>,
-    /// Every segment at the duty flow (station piping at the flow per pump).
-    pub segments: Vec<SegmentAtFlow>,
     /// Each pump's own station piping at the duty (`serves = each_pump` lines), or `None`.
     pub station: Option<StationPiping>,
     /// The source well at the duty flow, or `None` for a tank.
@@ -333,6 +331,17 @@ pub struct Duty {
     pub extrapolated: bool,
     /// How many times the pump and system curves cross (more than one warns).
     pub crossings: usize,
+}
+
+impl Duty {
+    /// Every segment of `sys`, the system of the case this duty was solved on, at the duty
+    /// flow (station piping at the flow per pump). Made when an output asks rather than
+    /// kept with every duty: a design of many cases holds a duty per case × candidate,
+    /// and the segments were a seventh of its memory. A well field's system has no
+    /// segments (its wells' piping is in its network).
+    pub fn segments(&self, sys: &CaseSystem) -> Vec<SegmentAtFlow> {
+        sys.segments_at_set(self.flow, self.flow_per_pump)
+    }
 }
 
 /// One pump's own station piping at a duty: the branch losses taken from its head and
@@ -841,7 +850,6 @@ pub fn evaluate(
         npsh_required: scaled.eval_npshr(qp),
         suction_velocity: sys.pump_velocity_set(Side::Suction, q, qp),
         discharge_velocity: sys.pump_velocity_set(Side::Discharge, q, qp),
-        segments: sys.segments_at_set(q, qp),
         station,
         well: well_at(sys, q),
         extrapolated: false,

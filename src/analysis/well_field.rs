@@ -505,7 +505,6 @@ fn well_duties(
                 npsh_required: scaled.eval_npshr(qp),
                 suction_velocity: velocity(w.suction.segments.last()),
                 discharge_velocity: velocity(w.discharge.segments.first()),
-                segments: Vec::new(),
                 station: None,
                 well: None,
                 extrapolated: false,

@@ -8,6 +8,7 @@ use serde::Serialize;
 
 use crate::analysis::checks::Check;
 use crate::analysis::duty::PumpResult;
+use crate::analysis::system::CaseSystem;
 use crate::analysis::{Analysis, CaseResult};
 use crate::diagnostics::{line_col, Diagnostic};
 use crate::display::Units;
@@ -423,7 +424,7 @@ fn case<'a>(
                 .map(|_| column(&|p| p.network)),
             drawdown_head_m: s.and_then(|s| s.well).map(|_| column(&|p| p.drawdown)),
         },
-        pumps: c.pumps.iter().map(|p| pump(p, units)).collect(),
+        pumps: c.pumps.iter().map(|p| pump(p, s, units)).collect(),
         lines: safety::lines(safety_case, units, &refs.profiles),
     }
 }
@@ -556,7 +557,7 @@ pub(super) fn check(c: &Check, units: Units) -> CheckOut<'_> {
     }
 }
 
-fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
+fn pump<'a>(p: &'a PumpResult, sys: Option<&CaseSystem>, units: Units) -> Pump<'a> {
     Pump {
         name: &p.name,
         arrangement: Arrangement {
@@ -596,7 +597,7 @@ fn pump(p: &PumpResult, units: Units) -> Pump<'_> {
                 .map(|n| d.npsh_available / n),
             npsh_excess_m: d.npsh_required.map(|n| d.npsh_available - n),
             npsh_terms: engineering::npsh_terms(&d.npsh_terms),
-            segments: engineering::segments(&d.segments),
+            segments: engineering::segments(&sys.map(|s| d.segments(s)).unwrap_or_default()),
             headroom: p.headroom.as_ref().map(engineering::headroom),
             station_piping: d.station.as_ref().map(engineering::station_piping),
             well: d.well.as_ref().map(engineering::well),

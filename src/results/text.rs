@@ -60,7 +60,7 @@ fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>, field: boo
             case_system(o, u, c, s);
         }
         for r in &c.pumps {
-            pump(o, u, r);
+            pump(o, u, r, s);
         }
     }
 }
@@ -257,7 +257,7 @@ fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
 
 /// One pump of a case: its duty and what follows from it, or why there is none; its
 /// checks and warnings.
-fn pump(o: &mut String, u: &Units, r: &PumpResult) {
+fn pump(o: &mut String, u: &Units, r: &PumpResult, sys: &CaseSystem) {
     let (fl, hd, vel, dia) = (u.flow(), u.head(), u.velocity(), u.diameter());
     let _ = writeln!(
         o,
@@ -277,7 +277,7 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult) {
             if let Some(b) = d.flow_ratio_to_bep {
                 let _ = writeln!(o, "    flow / BEP flow: {}", percent(b));
             }
-            duty_detail(o, u, d);
+            duty_detail(o, u, d, sys);
             if let (Some(v1), Some(v2)) = (d.suction_velocity, d.discharge_velocity) {
                 let _ = writeln!(
                     o,
@@ -410,7 +410,7 @@ fn safety(o: &mut String, analysis: &Analysis, u: &Units) {
 }
 
 /// The terms a reviewer recomputes at one duty.
-fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
+fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty, sys: &CaseSystem) {
     let (hd, pw, fl, vel) = (u.head(), u.power(), u.flow(), u.velocity());
     let t = &d.npsh_terms;
     let _ = writeln!(
@@ -482,7 +482,7 @@ fn duty_detail(o: &mut String, u: &Units, d: &crate::analysis::duty::Duty) {
             percent(w)
         );
     }
-    for g in &d.segments {
+    for g in &d.segments(sys) {
         let _ = writeln!(
             o,
             "    at duty, segment {} {}: {}, {}, Re {}, f {}, friction {}, minor {}, K {}",

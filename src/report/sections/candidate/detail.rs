@@ -215,8 +215,10 @@ pub(super) fn segments(
     let (fl, hd, vel) = (units.flow(), units.head(), units.velocity());
     let mut rows = Vec::new();
     for (case, run) in results {
-        let Some(duty) = &run.duty else { continue };
-        for segment in &duty.segments {
+        let (Some(duty), Some(sys)) = (&run.duty, &case.system) else {
+            continue;
+        };
+        for segment in &duty.segments(sys) {
             rows.push(vec![
                 case.name.clone(),
                 format!("{} {}", segment.line, segment.index + 1),
