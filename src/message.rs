@@ -106,6 +106,12 @@ impl Message {
             parts: vec![Part::Text(text.into())],
         }
     }
+    /// An empty message with room for `parts` parts.
+    pub fn with_capacity(parts: usize) -> Message {
+        Message {
+            parts: Vec::with_capacity(parts),
+        }
+    }
     /// Appends one part.
     pub fn push(&mut self, part: impl Into<Part>) {
         self.parts.push(part.into());
@@ -174,7 +180,9 @@ pub fn against(kind: Kind, si: f64, against: f64) -> Part {
 macro_rules! message {
     ($($part:expr),* $(,)?) => {{
         #[allow(unused_mut)]
-        let mut m = $crate::message::Message::new();
+        let mut m = $crate::message::Message::with_capacity(
+            [$(stringify!($part)),*].len(),
+        );
         $( m.push($part); )*
         m
     }};

@@ -69,7 +69,12 @@ impl Check {
             status,
             value,
             limit,
-            message: message.into(),
+            message: {
+                // Kept for the whole analysis: no room left from its growth.
+                let mut m: Message = message.into();
+                m.parts.shrink_to_fit();
+                m
+            },
             origin,
             subject: None,
         }

@@ -466,14 +466,12 @@ pub struct PumpResult {
 }
 
 impl PumpResult {
-    /// Gives back the spare capacity of its growing lists (checks, their messages,
-    /// warnings), keeping room for the motor pass's check: an analysis of thousands of
-    /// cases holds every result, and a list grown by doubling is up to half spare.
+    /// Gives back the spare capacity of its growing lists (checks, warnings; a check's
+    /// message is made tight by [`Check::typed`]), keeping room for the motor pass's
+    /// check: an analysis of thousands of cases holds every result, and a list grown by
+    /// doubling is up to half spare.
     pub fn compact(&mut self) {
         self.checks.shrink_to(self.checks.len() + 1);
-        for c in &mut self.checks {
-            c.message.parts.shrink_to_fit();
-        }
         self.warnings.shrink_to_fit();
     }
 }
