@@ -3,6 +3,8 @@
 //! report units (through [`crate::display::Units::render`]). A stage below the
 //! outputs never formats a quantity itself.
 
+use std::borrow::Cow;
+
 /// The kind of a quantity in a message: which report unit shows it (see the
 /// methods of the same names on [`crate::display::Units`]).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -46,8 +48,8 @@ pub enum Kind {
 /// One piece of a message.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Part {
-    /// Plain words, printed as they are.
-    Text(String),
+    /// Plain words, printed as they are (most are the program's own, borrowed).
+    Text(Cow<'static, str>),
     /// A quantity (SI value of its kind), printed with its report unit.
     Value(Kind, f64),
     /// A quantity printed with as many more decimals as it takes not to read like
@@ -70,21 +72,21 @@ pub enum Part {
     VolumeCostUnit,
 }
 
-impl From<&str> for Part {
-    fn from(text: &str) -> Part {
-        Part::Text(text.to_string())
+impl From<&'static str> for Part {
+    fn from(text: &'static str) -> Part {
+        Part::Text(Cow::Borrowed(text))
     }
 }
 
 impl From<String> for Part {
     fn from(text: String) -> Part {
-        Part::Text(text)
+        Part::Text(Cow::Owned(text))
     }
 }
 
 impl From<&String> for Part {
     fn from(text: &String) -> Part {
-        Part::Text(text.clone())
+        Part::Text(Cow::Owned(text.clone()))
     }
 }
 
@@ -101,7 +103,7 @@ impl Message {
         Message::default()
     }
     /// A message of plain words only.
-    pub fn text(text: impl Into<String>) -> Message {
+    pub fn text(text: impl Into<Cow<'static, str>>) -> Message {
         Message {
             parts: vec![Part::Text(text.into())],
         }
@@ -117,15 +119,15 @@ impl Message {
         self.parts.push(part.into());
     }
     /// Appends plain words.
-    pub fn push_str(&mut self, text: &str) {
-        self.parts.push(Part::Text(text.to_string()));
+    pub fn push_str(&mut self, text: impl Into<Cow<'static, str>>) {
+        self.parts.push(Part::Text(text.into()));
     }
     /// Appends every part of `other`.
     pub fn append(&mut self, other: &Message) {
         self.parts.extend(other.parts.iter().cloned());
     }
     /// `text` followed by this message.
-    pub fn prefixed(mut self, text: impl Into<String>) -> Message {
+    pub fn prefixed(mut self, text: impl Into<Cow<'static, str>>) -> Message {
         self.parts.insert(0, Part::Text(text.into()));
         self
     }
@@ -142,8 +144,8 @@ impl Message {
     }
 }
 
-impl From<&str> for Message {
-    fn from(text: &str) -> Message {
+impl From<&'static str> for Message {
+    fn from(text: &'static str) -> Message {
         Message::text(text)
     }
 }

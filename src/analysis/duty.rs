@@ -165,7 +165,7 @@ fn choose(
         let (lo, hi) = fam.range();
         if want >= lo && want <= hi {
             let point = fam.at(want).ok()?;
-            warnings.extend(point.warnings().iter().map(Message::text));
+            warnings.extend(point.warnings().iter().map(|w| Message::text(w.clone())));
             warnings.push(Message::text(format!(
                 "impeller {:.1} mm interpolated between the published diameters",
                 want * 1000.0
@@ -765,7 +765,7 @@ pub fn evaluate(
     let (par, ser) = (n_par as f64, n_ser as f64);
     out.capacity_flow = capacity(p, cc, case_speed / base.speed_rpm, sys, par, ser);
     out.warnings
-        .extend(scaled.warnings().iter().map(Message::text));
+        .extend(scaled.warnings().iter().map(|w| Message::text(w.clone())));
     out.speed_rpm = scaled.speed_rpm();
     out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
@@ -786,7 +786,8 @@ pub fn evaluate(
             warnings,
             ..
         } => {
-            out.warnings.extend(warnings.iter().map(Message::text));
+            out.warnings
+                .extend(warnings.iter().map(|w| Message::text(w.clone())));
             (*flow, *head, *crossings)
         }
         other => {

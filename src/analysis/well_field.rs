@@ -331,7 +331,7 @@ fn evaluate(
     out.affinity_scale = scaled.flow_scale();
     out.impeller_diameter_m = scaled.impeller_diameter_m();
     out.warnings
-        .extend(scaled.warnings().iter().map(Message::text));
+        .extend(scaled.warnings().iter().map(|w| Message::text(w.clone())));
     if !matches!(p.adjust, crate::model::Adjust::None) {
         out.warnings.push(Message::text(
             "`adjust` is not applied in a well field: every well pump runs at the case's speed with the evaluated impeller",
