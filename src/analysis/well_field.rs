@@ -218,7 +218,7 @@ fn drawdown_of(t: &Tank) -> WellDrawdown {
 fn stand_in(s: &Scenario) -> Scenario {
     let mut t = s.clone();
     t.network = None;
-    t.lines.clear();
+    t.lines = Default::default();
     t.source.drawdown = None;
     t.source.test_flow = None;
     t.source.well_loss = None;

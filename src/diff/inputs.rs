@@ -280,7 +280,7 @@ fn scenario(s: &Scenario, units: ReportUnits, speeds: bool) -> Vec<Node> {
             )],
         )),
     }
-    for l in &s.lines {
+    for l in s.lines.iter() {
         out.push(line(l, units));
     }
     out.push(Node::leaf("roughness", s.pipe_condition.keyword()));

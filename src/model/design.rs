@@ -115,8 +115,9 @@ pub struct Scenario {
     pub destination: Tank,
     /// Pump centreline elevation (the datum of NPSH), on the design's datum.
     pub centreline: Length,
-    /// Suction and discharge lines in file order.
-    pub lines: Vec<Line>,
+    /// Suction and discharge lines in file order, shared by the cases that do not change
+    /// them (a case override copies them first: `Arc::make_mut`).
+    pub lines: std::sync::Arc<Vec<Line>>,
     /// The network the discharge lines feed (general form); `None` for a single chain.
     pub network: Option<super::network::NetworkLayout>,
     /// New or aged pipe: which material roughness every segment uses.

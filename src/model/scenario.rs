@@ -1084,7 +1084,10 @@ pub fn apply_override(
             if !s.lines.iter().any(|l| l.name == *line) {
                 return Err(no_such_path(path, s));
             }
-            let Some(l) = s.lines.iter_mut().find(|l| l.name == *line) else {
+            let Some(l) = std::sync::Arc::make_mut(&mut s.lines)
+                .iter_mut()
+                .find(|l| l.name == *line)
+            else {
                 return Err(no_such_path(path, s));
             };
             let count = l.segments.len();
@@ -1132,7 +1135,7 @@ fn no_such_path(path: &Path, s: &Scenario) -> Diagnostic {
         valid.push(format!("{}.level", t.name));
         valid.push(format!("{}.pressure", t.name));
     }
-    for l in &s.lines {
+    for l in s.lines.iter() {
         for i in 1..=l.segments.len() {
             valid.push(format!("{}.{i}.length", l.name));
         }

@@ -171,7 +171,7 @@ fn base_scenario(
             source,
             destination,
             centreline,
-            lines,
+            lines: std::sync::Arc::new(lines),
             network: layout,
             pipe_condition: PipeCondition::New,
             hours_per_year: Time::new::<second>(0.0),

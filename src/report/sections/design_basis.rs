@@ -287,7 +287,7 @@ fn fittings(
             ]);
         }
     }
-    for line in &design.base.lines {
+    for line in design.base.lines.iter() {
         for (i, seg) in line.segments.iter().enumerate() {
             for l in &seg.losses {
                 let what = match (l.k, l.equivalent_length) {
