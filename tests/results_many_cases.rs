@@ -166,3 +166,38 @@ fn sharing_between_cases_changes_no_bit_of_a_duty() {
         }
     }
 }
+
+/// Cases share the base scenario's lines until an override changes a segment: the
+/// override reaches its own case only, and the base and the other cases keep theirs.
+#[test]
+fn a_segment_override_changes_its_own_case_only() {
+    let src = large_design::large_design(3);
+    let plain = "case c1 { low.level = 99.03 m, hours = 80 h }";
+    assert!(src.contains(plain), "the generated design's second case");
+    let src = src.replace(
+        plain,
+        "case c1 { low.level = 99.03 m, hours = 80 h, discharge.2.length = 500 m }",
+    );
+    let checked = dutyline::check(&src, &dutyline::NoFiles);
+    assert!(!checked.has_errors(), "{:?}", checked.diagnostics);
+    let d = checked.design.expect("design");
+    let length = |scenario: &dutyline::model::Scenario, seg: usize| {
+        let line = scenario
+            .lines
+            .iter()
+            .find(|l| l.name == "discharge")
+            .expect("line");
+        line.segments[seg].length.get::<uom::si::length::meter>()
+    };
+    let case = |n: &str| &d.cases.iter().find(|k| k.name == n).expect(n).scenario;
+    assert_eq!(length(&d.base, 1), 47.0);
+    assert_eq!(length(case("c1"), 1), 500.0);
+    assert_eq!(length(case("c1"), 0), 40.0);
+    assert_eq!(length(case("c0"), 1), 47.0);
+    assert_eq!(length(case("c2"), 1), 47.0);
+    assert!(std::sync::Arc::ptr_eq(&case("c0").lines, &case("c2").lines));
+    assert!(!std::sync::Arc::ptr_eq(
+        &case("c0").lines,
+        &case("c1").lines
+    ));
+}
