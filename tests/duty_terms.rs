@@ -56,7 +56,7 @@ fn printed_terms_add_up_to_the_totals_in_every_demo() {
                 let v = d.suction_velocity.expect("velocity");
                 assert!((v - d.flow / area).abs() < 1e-12 * v.max(1.0), "{at}");
                 // Reynolds ρvD/μ and velocity per segment.
-                for (g, seg) in segments.iter().zip(&s.segments) {
+                for (g, seg) in segments.iter().zip(s.segments.iter()) {
                     let v = d.flow / (std::f64::consts::PI * seg.inner_diameter.powi(2) / 4.0);
                     assert!((g.velocity - v).abs() < 1e-12 * v, "{at}");
                     let re = s.fluid.density * v * seg.inner_diameter / s.fluid.viscosity;

@@ -225,7 +225,7 @@ fn laminar_gear_oil_uses_64_over_re_and_warns_about_the_water_curve() {
     let p = r.pump("P");
     let d = p.duty.as_ref().expect("duty");
     let sys = r.analysis.cases[0].system.as_ref().expect("system");
-    for seg in &sys.segments {
+    for seg in sys.segments.iter() {
         let re = sys.reynolds(seg, d.flow);
         assert!(re < 2000.0, "Re {re}");
         let f = sys.friction(seg, d.flow);
@@ -664,7 +664,7 @@ fn summed_fitting_k_is_consistent_with_each_fitting_at_every_regime() {
         .expect("design");
     let sys = dutyline::analysis::CaseSystem::new(&design.cases[0].scenario).expect("system");
     for q in [1e-6, 1e-4, 0.01, 0.05, 0.2] {
-        for seg in &sys.segments {
+        for seg in sys.segments.iter() {
             let re = sys.reynolds(seg, q);
             let v = q / seg.area;
             let each: f64 = seg

@@ -258,8 +258,9 @@ pub struct CaseSystem {
     pub destination_surface: AbsolutePressure,
     /// Static head: level difference plus surface pressure difference / ρg, m.
     pub static_head: f64,
-    /// Every segment of every line, suction first.
-    pub segments: Vec<SegmentState>,
+    /// Every segment of every line, suction first; shared by the cases whose lines and
+    /// pipe condition are the same (see [`chain_segments`]).
+    pub segments: std::sync::Arc<Vec<SegmentState>>,
     /// New or aged pipe in this case.
     pub pipe_condition: PipeCondition,
     /// The network the discharge lines feed (general form), with its entry head at
@@ -396,17 +397,7 @@ impl CaseSystem {
                 source: "given in the design".into(),
             },
         };
-        let mut segments = Vec::new();
-        let mut ordered: Vec<&crate::model::Line> =
-            s.lines.iter().filter(|l| l.side == Side::Suction).collect();
-        ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
-        for line in ordered {
-            for (i, seg) in line.segments.iter().enumerate() {
-                let mut state = resolve_segment(s, &line.name, line.side, i, seg)?;
-                state.per_pump = line.per_pump;
-                segments.push(state);
-            }
-        }
+        let segments = chain_segments(s)?;
         let w = fluid.specific_weight();
         let source_level = Elevation::new(s.source.level.get::<meter>());
         let destination_level = Elevation::new(s.destination.level.get::<meter>());
@@ -1055,6 +1046,51 @@ fn segment_losses_with<const SLOPE: bool>(
         wall_slope: exponent * wall / q,
         minor_slope: ((2.0 * k_quadratic + laminar) * velocity_head + exponent * equivalent) / q,
     }
+}
+
+/// Every segment of the scenario's lines, suction first, resolved for its pipe condition
+/// ([`resolve_segment`]). The segments are a function of the lines and the condition
+/// alone, and cases share their lines with the base scenario unless an override changes
+/// a segment (`Scenario::lines`), so the last result is kept per thread, keyed by those
+/// very lines (`Arc::ptr_eq`; the key holds them, so the address is not reused) and the
+/// condition: consecutive cases get the same segments without resolving them again.
+fn chain_segments(s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, SystemError> {
+    use std::cell::RefCell;
+    use std::sync::Arc;
+    type Key = (Arc<Vec<crate::model::Line>>, PipeCondition);
+    thread_local! {
+        static LAST: RefCell<Option<(Key, Arc<Vec<SegmentState>>)>> = const { RefCell::new(None) };
+    }
+    let hit = LAST.with(|last| {
+        last.borrow()
+            .as_ref()
+            .and_then(|((lines, condition), segments)| {
+                (Arc::ptr_eq(lines, &s.lines) && *condition == s.pipe_condition)
+                    .then(|| Arc::clone(segments))
+            })
+    });
+    if let Some(segments) = hit {
+        return Ok(segments);
+    }
+    let mut segments = Vec::new();
+    let mut ordered: Vec<&crate::model::Line> =
+        s.lines.iter().filter(|l| l.side == Side::Suction).collect();
+    ordered.extend(s.lines.iter().filter(|l| l.side == Side::Discharge));
+    for line in ordered {
+        for (i, seg) in line.segments.iter().enumerate() {
+            let mut state = resolve_segment(s, &line.name, line.side, i, seg)?;
+            state.per_pump = line.per_pump;
+            segments.push(state);
+        }
+    }
+    let segments = Arc::new(segments);
+    LAST.with(|last| {
+        *last.borrow_mut() = Some((
+            (Arc::clone(&s.lines), s.pipe_condition),
+            Arc::clone(&segments),
+        ))
+    });
+    Ok(segments)
 }
 
 /// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,

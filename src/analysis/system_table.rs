@@ -160,7 +160,7 @@ impl LossKey {
         if let Some(w) = sys.well {
             bits.extend([w.drawdown, w.test_flow, w.well_loss].map(f64::to_bits));
         }
-        for s in &sys.segments {
+        for s in sys.segments.iter() {
             bits.push(
                 u64::from(s.per_pump) | (u64::from(s.side == crate::model::Side::Suction) << 1),
             );

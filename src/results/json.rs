@@ -514,7 +514,7 @@ fn tables<'a>(
         let d = design_cases.get(i).copied().flatten();
         let mut r = CaseRefs::default();
         if let Some(s) = c.system.as_ref() {
-            for g in &s.segments {
+            for g in s.segments.iter() {
                 r.segments
                     .push(segments.index((&*g.line, g.index), segment(g, d)));
             }

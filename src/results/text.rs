@@ -200,7 +200,7 @@ fn case_system(o: &mut String, u: &Units, c: &CaseResult, s: &CaseSystem) {
         u.absolute_pressure().fmt(s.destination_surface.pa()),
         s.pipe_condition.keyword()
     );
-    for g in &s.segments {
+    for g in s.segments.iter() {
         let _ = writeln!(
             o,
             "  segment {} {}: {}, ID {}, length {}, {}",

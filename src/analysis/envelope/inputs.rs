@@ -36,7 +36,7 @@ pub fn system_at(s: &Scenario, inputs: &[InputRange], x: &[f64]) -> Result<CaseS
     }
     let mut sys = CaseSystem::new(&s).map_err(|e| e.message)?;
     for (r, &x) in inputs.iter().zip(x) {
-        for seg in &mut sys.segments {
+        for seg in std::sync::Arc::make_mut(&mut sys.segments).iter_mut() {
             match (&r.kind, seg.hazen_williams_c) {
                 (RangeKind::Roughness(sp), None) => {
                     seg.roughness = InputRange::spread_at(*sp, seg.roughness, x)

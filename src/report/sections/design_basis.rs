@@ -272,7 +272,7 @@ fn fittings(
         .iter()
         .find_map(|run| run.duty.as_ref().map(|duty| duty.flow));
     let mut rows = Vec::new();
-    for g in &system.segments {
+    for g in system.segments.iter() {
         let re = q.map(|q| system.reynolds(g, q)).unwrap_or(1e5);
         for f in &g.fittings {
             rows.push(vec![
