@@ -1051,23 +1051,25 @@ fn segment_losses_with<const SLOPE: bool>(
 /// Every segment of the scenario's lines, suction first, resolved for its pipe condition
 /// ([`resolve_segment`]). The segments are a function of the lines and the condition
 /// alone, and cases share their lines with the base scenario unless an override changes
-/// a segment (`Scenario::lines`), so the last result is kept per thread, keyed by those
-/// very lines (`Arc::ptr_eq`; the key holds them, so the address is not reused) and the
-/// condition: consecutive cases get the same segments without resolving them again.
+/// a segment (`Scenario::lines`), so the last [`KEPT_SEGMENTS`] results are kept per
+/// thread, keyed by those very lines (`Arc::ptr_eq`; the key holds them, so the address
+/// is not reused) and the condition: cases of new and aged pipe, in any order, get the
+/// same segments without resolving them again.
 fn chain_segments(s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, SystemError> {
     use std::cell::RefCell;
     use std::sync::Arc;
     type Key = (Arc<Vec<crate::model::Line>>, PipeCondition);
     thread_local! {
-        static LAST: RefCell<Option<(Key, Arc<Vec<SegmentState>>)>> = const { RefCell::new(None) };
+        static KEPT: RefCell<Vec<(Key, Arc<Vec<SegmentState>>)>> =
+            const { RefCell::new(Vec::new()) };
     }
-    let hit = LAST.with(|last| {
-        last.borrow()
-            .as_ref()
-            .and_then(|((lines, condition), segments)| {
-                (Arc::ptr_eq(lines, &s.lines) && *condition == s.pipe_condition)
-                    .then(|| Arc::clone(segments))
+    let hit = KEPT.with(|kept| {
+        kept.borrow()
+            .iter()
+            .find(|((lines, condition), _)| {
+                Arc::ptr_eq(lines, &s.lines) && *condition == s.pipe_condition
             })
+            .map(|(_, segments)| Arc::clone(segments))
     });
     if let Some(segments) = hit {
         return Ok(segments);
@@ -1084,14 +1086,22 @@ fn chain_segments(s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, Sys
         }
     }
     let segments = Arc::new(segments);
-    LAST.with(|last| {
-        *last.borrow_mut() = Some((
+    KEPT.with(|kept| {
+        let mut kept = kept.borrow_mut();
+        if kept.len() == KEPT_SEGMENTS {
+            kept.remove(0);
+        }
+        kept.push((
             (Arc::clone(&s.lines), s.pipe_condition),
             Arc::clone(&segments),
-        ))
+        ));
     });
     Ok(segments)
 }
+
+/// How many resolved segment lists [`chain_segments`] keeps per thread: both pipe
+/// conditions of a design's shared lines, and a few cases with lines of their own.
+const KEPT_SEGMENTS: usize = 4;
 
 /// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,
 /// fittings validated, their K sums split into constant and Reynolds-dependent parts.
