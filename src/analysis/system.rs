@@ -259,7 +259,7 @@ pub struct CaseSystem {
     /// Static head: level difference plus surface pressure difference / ρg, m.
     pub static_head: f64,
     /// Every segment of every line, suction first; shared by the cases whose lines and
-    /// pipe condition are the same (see [`chain_segments`]).
+    /// pipe condition are the same (kept by the private `chain_segments`).
     pub segments: std::sync::Arc<Vec<SegmentState>>,
     /// New or aged pipe in this case.
     pub pipe_condition: PipeCondition,
