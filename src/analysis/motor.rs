@@ -94,6 +94,9 @@ fn run_out(
 ) -> Option<RunOut> {
     let (base, trim) = cc.evaluated.as_ref()?;
     let mut best: Option<RunOut> = None;
+    // The scan is a function of the speed, the impeller and the liquid: a case that scans
+    // the same curve as an earlier one cannot raise `best` (only a larger power does).
+    let mut scanned = std::collections::HashSet::new();
     for (c, dc) in cases.iter().zip(&design.cases) {
         let Some(sys) = &c.system else { continue };
         let case_ratio = dc
@@ -105,6 +108,21 @@ fn run_out(
             Adjust::Trim { .. } => (case_ratio, 1.0),
             Adjust::None => (case_ratio, *trim),
         };
+        let fluid = &sys.fluid;
+        let viscosity = match fluid.is_water() {
+            true => 0,
+            false => fluid.kinematic_viscosity().to_bits(),
+        };
+        let key = (
+            speed.to_bits(),
+            diameter.to_bits(),
+            fluid.is_water(),
+            viscosity,
+            fluid.density.to_bits(),
+        );
+        if !scanned.insert(key) {
+            continue;
+        }
         let Ok(scaled) = duty::pump_in_case(base, speed, diameter, sys, cc.evaluated_bep.as_ref())
         else {
             continue;
