@@ -93,7 +93,16 @@ fn fixed_exact(value: f64, decimals: usize, out: &mut [u8; 40]) -> Option<usize>
             kept + u128::from(rest > half || (rest == half && kept & 1 == 1))
         }
     };
-    let (whole, part) = (rounded / scale, rounded % scale);
+    // The whole part is below 10¹⁵ and the decimals below 10⁹: both fit 64 bits, and so
+    // does `rounded` for every value below about 1.8·10¹⁹ / 10^N (64-bit division is
+    // several times faster than 128-bit).
+    let (whole, part) = match u64::try_from(rounded) {
+        Ok(r) => (
+            r / 10u64.pow(decimals as u32),
+            r % 10u64.pow(decimals as u32),
+        ),
+        Err(_) => ((rounded / scale) as u64, (rounded % scale) as u64),
+    };
     let mut len = 0;
     if value.is_sign_negative() {
         out[0] = b'-';
@@ -109,8 +118,8 @@ fn fixed_exact(value: f64, decimals: usize, out: &mut [u8; 40]) -> Option<usize>
 }
 
 /// The decimal digits of `n`, at least `width` of them (leading zeros), into `out`;
-/// their count. `n` < 10²⁴ here, so 24 places suffice.
-fn write_digits(mut n: u128, width: usize, out: &mut [u8]) -> usize {
+/// their count (at most 20, the digits of a `u64`).
+fn write_digits(mut n: u64, width: usize, out: &mut [u8]) -> usize {
     let mut digits = [0u8; 24];
     let mut count = 0;
     while n > 0 || count < width {

@@ -97,6 +97,17 @@ impl Check {
 pub const POR: (f64, f64) = (limits::POR_LOW.value, limits::POR_HIGH.value);
 /// Fail outside this band of BEP flow (see [`limits::AOR_LOW`]).
 pub const AOR: (f64, f64) = (limits::AOR_LOW.value, limits::AOR_HIGH.value);
+/// The bands of [`POR`] and [`AOR`] in words, as the operating-region check ends: made
+/// once, not for every duty.
+static REGION_BANDS: std::sync::LazyLock<String> = std::sync::LazyLock::new(|| {
+    format!(
+        " (preferred {}–{} %, outside {}–{} % fails)",
+        Fixed(100.0 * POR.0, 0),
+        Fixed(100.0 * POR.1, 0),
+        Fixed(100.0 * AOR.0, 0),
+        Fixed(100.0 * AOR.1, 0)
+    )
+});
 /// Default NPSH margin ratio (see [`limits::NPSH_RATIO`]).
 pub const DEFAULT_NPSH_RATIO: f64 = limits::NPSH_RATIO.value;
 /// Typical suction velocities in the design's practice, m/s (see
@@ -259,14 +270,10 @@ fn operating_region(d: &Duty) -> Check {
         status,
         Some(r),
         Some(limit.value),
-        format!(
-            "flow per pump is {} % of BEP flow (preferred {}–{} %, outside {}–{} % fails)",
-            Fixed(100.0 * r, 0),
-            Fixed(100.0 * POR.0, 0),
-            Fixed(100.0 * POR.1, 0),
-            Fixed(100.0 * AOR.0, 0),
-            Fixed(100.0 * AOR.1, 0)
-        ),
+        crate::message![
+            format!("flow per pump is {} % of BEP flow", Fixed(100.0 * r, 0)),
+            REGION_BANDS.as_str()
+        ],
         origin,
     )
 }
