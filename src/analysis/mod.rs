@@ -354,7 +354,8 @@ fn solve_case(
     {
         return Err(format!("the expansion tank {} connects on the pump discharge: the pressure at the pump suction is the reference less the pump head, which this version does not calculate; connect it at the suction", case.scenario.source.name));
     }
-    let mut sys = CaseSystem::new(&case.scenario).map_err(|e| e.message)?;
+    let mut sys =
+        CaseSystem::new_shared(&case.scenario, &shared.segments).map_err(|e| e.message)?;
     sys.tabulate_shared(duty::search_reach(case, design, candidates), &shared.tables);
     let mut pumps: Vec<duty::PumpResult> = candidates
         .iter()

@@ -29,8 +29,17 @@ impl<K: PartialEq, V: ?Sized> Kept<K, V> {
     /// The value of `key`: a kept one, else `build()` (run without the lock held), kept
     /// when it is `Some`.
     pub fn get_or(&self, key: K, build: impl FnOnce() -> Option<Arc<V>>) -> Option<Arc<V>> {
+        self.try_get_or(key, || build().ok_or(())).ok()
+    }
+
+    /// As [`Kept::get_or`] for a `build` that can fail: its error is returned, not kept.
+    pub fn try_get_or<E>(
+        &self,
+        key: K,
+        build: impl FnOnce() -> Result<Arc<V>, E>,
+    ) -> Result<Arc<V>, E> {
         if let Some((_, v)) = self.lock().iter().find(|(k, _)| *k == key) {
-            return Some(v.clone());
+            return Ok(v.clone());
         }
         let value = build()?;
         let mut kept = self.lock();
@@ -38,7 +47,7 @@ impl<K: PartialEq, V: ?Sized> Kept<K, V> {
             kept.remove(0);
         }
         kept.push((key, value.clone()));
-        Some(value)
+        Ok(value)
     }
 
     fn lock(&self) -> MutexGuard<'_, Vec<(K, Arc<V>)>> {
@@ -55,6 +64,8 @@ pub struct Shared {
     pub tables: super::system_table::SharedTables,
     /// Candidates' operating curves ([`super::duty::SharedCurves`]).
     pub curves: super::duty::SharedCurves,
+    /// Resolved segments by lines and pipe condition ([`super::system::SharedSegments`]).
+    pub segments: super::system::SharedSegments,
 }
 
 #[cfg(test)]
@@ -75,5 +86,20 @@ mod tests {
         // 40 first builds; 30..40 are kept; 0 and 1 were dropped and are built again.
         assert_eq!(builds, 42);
         assert_eq!(kept.get_or(99, || None), None);
+    }
+
+    #[test]
+    fn an_error_is_returned_and_not_kept() {
+        let kept: Kept<u32, u32> = Kept::default();
+        assert_eq!(kept.try_get_or(7, || Err("no")), Err("no"));
+        assert_eq!(
+            kept.try_get_or(7, || Ok::<_, &str>(Arc::new(70)))
+                .as_deref(),
+            Ok(&70)
+        );
+        assert_eq!(
+            kept.try_get_or(7, || Err("built again")).as_deref(),
+            Ok(&70)
+        );
     }
 }

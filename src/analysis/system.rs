@@ -259,7 +259,7 @@ pub struct CaseSystem {
     /// Static head: level difference plus surface pressure difference / ρg, m.
     pub static_head: f64,
     /// Every segment of every line, suction first; shared by the cases whose lines and
-    /// pipe condition are the same (kept by the private `chain_segments`).
+    /// pipe condition are the same ([`SharedSegments`]).
     pub segments: std::sync::Arc<Vec<SegmentState>>,
     /// New or aged pipe in this case.
     pub pipe_condition: PipeCondition,
@@ -356,6 +356,21 @@ fn glycol_state(g: &crate::model::GlycolMixture) -> Result<FluidState, SystemErr
 impl CaseSystem {
     /// Resolve a scenario: fluid properties, barometric pressure, pipes.
     pub fn new(s: &Scenario) -> Result<CaseSystem, SystemError> {
+        CaseSystem::with_segments(s, || chain_segments(s).map(std::sync::Arc::new))
+    }
+
+    /// [`CaseSystem::new`] with the segments shared with other cases of the same lines
+    /// and pipe condition where there are some ([`SharedSegments`]).
+    pub fn new_shared(s: &Scenario, shared: &SharedSegments) -> Result<CaseSystem, SystemError> {
+        CaseSystem::with_segments(s, || shared.segments(s))
+    }
+
+    /// [`CaseSystem::new`] with its segments from `segments` (asked for where `new`
+    /// resolves them, so a design's first error stays the same).
+    fn with_segments(
+        s: &Scenario,
+        segments: impl FnOnce() -> Result<std::sync::Arc<Vec<SegmentState>>, SystemError>,
+    ) -> Result<CaseSystem, SystemError> {
         let barometric = s
             .site
             .barometric()
@@ -397,7 +412,7 @@ impl CaseSystem {
                 source: "given in the design".into(),
             },
         };
-        let segments = chain_segments(s)?;
+        let segments = segments()?;
         let w = fluid.specific_weight();
         let source_level = Elevation::new(s.source.level.get::<meter>());
         let destination_level = Elevation::new(s.destination.level.get::<meter>());
@@ -1049,31 +1064,8 @@ fn segment_losses_with<const SLOPE: bool>(
 }
 
 /// Every segment of the scenario's lines, suction first, resolved for its pipe condition
-/// ([`resolve_segment`]). The segments are a function of the lines and the condition
-/// alone, and cases share their lines with the base scenario unless an override changes
-/// a segment (`Scenario::lines`), so the last [`KEPT_SEGMENTS`] results are kept per
-/// thread, keyed by those very lines (`Arc::ptr_eq`; the key holds them, so the address
-/// is not reused) and the condition: cases of new and aged pipe, in any order, get the
-/// same segments without resolving them again.
-fn chain_segments(s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, SystemError> {
-    use std::cell::RefCell;
-    use std::sync::Arc;
-    type Key = (Arc<Vec<crate::model::Line>>, PipeCondition);
-    thread_local! {
-        static KEPT: RefCell<Vec<(Key, Arc<Vec<SegmentState>>)>> =
-            const { RefCell::new(Vec::new()) };
-    }
-    let hit = KEPT.with(|kept| {
-        kept.borrow()
-            .iter()
-            .find(|((lines, condition), _)| {
-                Arc::ptr_eq(lines, &s.lines) && *condition == s.pipe_condition
-            })
-            .map(|(_, segments)| Arc::clone(segments))
-    });
-    if let Some(segments) = hit {
-        return Ok(segments);
-    }
+/// ([`resolve_segment`]).
+fn chain_segments(s: &Scenario) -> Result<Vec<SegmentState>, SystemError> {
     let mut segments = Vec::new();
     let mut ordered: Vec<&crate::model::Line> =
         s.lines.iter().filter(|l| l.side == Side::Suction).collect();
@@ -1085,23 +1077,36 @@ fn chain_segments(s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, Sys
             segments.push(state);
         }
     }
-    let segments = Arc::new(segments);
-    KEPT.with(|kept| {
-        let mut kept = kept.borrow_mut();
-        if kept.len() == KEPT_SEGMENTS {
-            kept.remove(0);
-        }
-        kept.push((
-            (Arc::clone(&s.lines), s.pipe_condition),
-            Arc::clone(&segments),
-        ));
-    });
     Ok(segments)
 }
 
-/// How many resolved segment lists [`chain_segments`] keeps per thread: both pipe
-/// conditions of a design's shared lines, and a few cases with lines of their own.
-const KEPT_SEGMENTS: usize = 4;
+/// The resolved segments of an analysis's cases, shared between cases of the same lines
+/// and pipe condition ([`LinesKey`]): the segments are a function of those alone, and
+/// cases share their lines with the base scenario unless an override changes a segment
+/// (`Scenario::lines`), so a design of thousands of cases of new and aged pipe resolves
+/// its segments twice ([`super::shared`]).
+#[derive(Debug, Default)]
+pub struct SharedSegments(super::shared::Kept<LinesKey, Vec<SegmentState>>);
+
+impl SharedSegments {
+    /// The segments of `s`, resolved or reused; an error is not kept.
+    pub fn segments(&self, s: &Scenario) -> Result<std::sync::Arc<Vec<SegmentState>>, SystemError> {
+        let key = LinesKey(std::sync::Arc::clone(&s.lines), s.pipe_condition);
+        self.0
+            .try_get_or(key, || chain_segments(s).map(std::sync::Arc::new))
+    }
+}
+
+/// Lines by identity (`Arc::ptr_eq`: the very lines a case shares, which the key holds,
+/// so the address is not reused) and a pipe condition.
+#[derive(Debug)]
+pub struct LinesKey(std::sync::Arc<Vec<crate::model::Line>>, PipeCondition);
+
+impl PartialEq for LinesKey {
+    fn eq(&self, other: &LinesKey) -> bool {
+        std::sync::Arc::ptr_eq(&self.0, &other.0) && self.1 == other.1
+    }
+}
 
 /// Resolve one pipe segment of a line for a scenario: roughness for the pipe condition,
 /// fittings validated, their K sums split into constant and Reynolds-dependent parts.
