@@ -513,7 +513,13 @@ impl Units {
     /// A typed message in these units: each quantity with its report unit.
     pub fn render(&self, message: &Message) -> String {
         let mut out = String::new();
-        for part in &message.parts {
+        self.render_into(&message.parts, &mut out);
+        out
+    }
+
+    /// Appends `parts` in these units to `out`.
+    fn render_into(&self, parts: &[Part], out: &mut String) {
+        for part in parts {
             match part {
                 Part::Text(text) => out.push_str(text),
                 Part::Value(kind, si) => out.push_str(&self.of(*kind).fmt(*si)),
@@ -527,9 +533,9 @@ impl Units {
                 Part::RatioAgainst(r, other) => out.push_str(&ratio_against(*r, *other).0),
                 Part::Significant(v, digits) => out.push_str(&significant_trimmed(*v, *digits)),
                 Part::VolumeCostUnit => out.push_str(self.volume_cost_unit()),
+                Part::Shared(shared) => self.render_into(shared, out),
             }
         }
-        out
     }
 }
 

@@ -70,6 +70,9 @@ pub enum Part {
     Significant(f64, usize),
     /// The name of the volume a cost per volume is given in (`m³`, `1000 gal`).
     VolumeCostUnit,
+    /// Parts shared by many messages, read in place (a candidate's motor findings,
+    /// repeated in the motor check of every case): one copy for all of them.
+    Shared(std::sync::Arc<[Part]>),
 }
 
 impl From<&'static str> for Part {
@@ -134,14 +137,20 @@ impl Message {
     /// The message's text when it holds no quantity (plain words only), else `None`.
     pub fn plain(&self) -> Option<String> {
         let mut out = String::new();
-        for part in &self.parts {
-            match part {
-                Part::Text(t) => out.push_str(t),
-                _ => return None,
-            }
-        }
-        Some(out)
+        plain_into(&self.parts, &mut out).then_some(out)
     }
+}
+
+/// Appends the words of `parts` to `out`; false at the first quantity.
+fn plain_into(parts: &[Part], out: &mut String) -> bool {
+    parts.iter().all(|part| match part {
+        Part::Text(t) => {
+            out.push_str(t);
+            true
+        }
+        Part::Shared(shared) => plain_into(shared, out),
+        _ => false,
+    })
 }
 
 impl From<&'static str> for Message {

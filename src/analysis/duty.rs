@@ -14,6 +14,7 @@ use crate::diagnostics::Span;
 use crate::message::{flow, head, Kind, Message, Part};
 use crate::model::{Adjust, ArrangementKind, Case, Design, Metric, PumpCandidate, Side};
 use crate::pumps::{self, DutyOutcome, PumpCurves, ScaledPump};
+use std::sync::{Arc, LazyLock};
 
 /// How far past the end of the published curve the duty solve searches, as a fraction
 /// of it, so that a crossing just beyond the data is found and reported as a failure
@@ -446,7 +447,7 @@ pub struct PumpResult {
     /// Remarks on this case × candidate.
     pub warnings: Vec<Message>,
     /// Motor input efficiency used, and where it comes from.
-    pub motor_efficiency: (f64, String),
+    pub motor_efficiency: (f64, Arc<str>),
     /// Speed or diameter needed against its limit (`adjust = speed` or `trim` only).
     pub headroom: Option<Headroom>,
     /// Flow of the arrangement at the limit (maximum speed, largest impeller allowed),
@@ -871,12 +872,13 @@ pub fn evaluate(
 /// A candidate's result before its duty: name, arrangement, rated speed, the motor
 /// efficiency and its source; nothing solved yet.
 pub(crate) fn new_result(design: &Design, p: &PumpCandidate, n_par: u32) -> PumpResult {
+    // One copy of each source text for all results (an analysis may hold 100 000).
+    static GIVEN: LazyLock<Arc<str>> = LazyLock::new(|| "given in the design".into());
+    static ASSUMED: LazyLock<Arc<str>> =
+        LazyLock::new(|| "assumed: typical premium-efficiency motor (common practice)".into());
     let motor_efficiency = match design.motor.efficiency {
-        Some(e) => (e, "given in the design".to_string()),
-        None => (
-            DEFAULT_MOTOR_EFFICIENCY,
-            "assumed: typical premium-efficiency motor (common practice)".to_string(),
-        ),
+        Some(e) => (e, GIVEN.clone()),
+        None => (DEFAULT_MOTOR_EFFICIENCY, ASSUMED.clone()),
     };
     PumpResult {
         name: p.name.clone(),
@@ -1087,7 +1089,7 @@ pub fn set_input_power(
     design: &Design,
     case: &Case,
     out: &mut PumpResult,
-    motor_efficiency: Option<(f64, String)>,
+    motor_efficiency: Option<(f64, Arc<str>)>,
 ) {
     if let Some(m) = motor_efficiency {
         out.motor_efficiency = m;

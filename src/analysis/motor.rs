@@ -16,10 +16,11 @@ use super::checks::{Check, Status};
 use super::duty::{self, CandidateCurves};
 use super::limits::{self, CheckId};
 use super::{CaseResult, Warning};
-use crate::message::{self, Kind};
+use crate::message::{self, Kind, Part};
 use crate::model::{Adjust, Design, MotorStandardChoice, PumpCandidate};
 use crate::numbers::Fixed;
 use crate::pumps::{self, motor_efficiency, MotorChoice, MotorStandard};
+use std::sync::Arc;
 
 /// Points sampled along the published curve for the run-out power.
 pub const RUN_OUT_POINTS: usize = 81;
@@ -161,24 +162,27 @@ pub fn motor_pass(
     let mut out = Vec::new();
     for (i, (p, cc)) in design.pumps.iter().zip(candidates).enumerate() {
         let sizing = size(design, p, cc, i, cases);
+        let words = sizing.as_ref().map(MotorWords::of);
+        let source: Option<Arc<str>> = sizing.as_ref().map(|m| {
+            if design.motor.efficiency.is_some() {
+                "given in the design".into()
+            } else {
+                m.efficiency_source.as_str().into()
+            }
+        });
         for (c, dc) in cases.iter_mut().zip(&design.cases) {
             let Some(r) = c.pumps.get_mut(i) else {
                 continue;
             };
-            if let Some(m) = &sizing {
-                let source = if design.motor.efficiency.is_some() {
-                    "given in the design".to_string()
-                } else {
-                    m.efficiency_source.clone()
-                };
-                duty::set_input_power(design, dc, r, Some((m.efficiency, source)));
+            if let (Some(m), Some(source)) = (&sizing, &source) {
+                duty::set_input_power(design, dc, r, Some((m.efficiency, source.clone())));
             }
-            match (&sizing, &r.duty) {
-                (Some(m), Some(d)) => {
+            match (&sizing, &words, &r.duty) {
+                (Some(m), Some(words), Some(d)) => {
                     let per_pump = d.shaft_power.unwrap_or(0.0) / r.count.max(1) as f64;
-                    r.checks.push(motor_check(m, per_pump));
+                    r.checks.push(motor_check(m, words, per_pump));
                 }
-                (None, Some(d)) if d.shaft_power.is_some() => r.checks.push(Check::typed(
+                (None, _, Some(d)) if d.shaft_power.is_some() => r.checks.push(Check::typed(
                     CheckId::Motor,
                     Status::Fail,
                     None,
@@ -282,7 +286,7 @@ fn size(
 /// alone, a low static head); warn when the run-out is above the nameplate but within
 /// the service factor (NEMA MG 1: margin for abnormal conditions, not for continuous
 /// duty); else pass (rule: common practice).
-pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
+pub(crate) fn motor_check(m: &MotorSizing, words: &MotorWords, shaft_per_pump: f64) -> Check {
     let rating = m.choice.rating_w;
     let above_at_duty = shaft_per_pump > rating * (1.0 + 1e-9);
     let beyond_service_factor =
@@ -296,57 +300,19 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
     };
     let power = |si, other| message::against(Kind::Power, si, other);
     let mut msg = crate::message![
-        format!(
-            "{} motor per pump{}: shaft power here ",
-            m.choice.rating_label,
-            if m.rating_stated {
-                " (stated in the design)"
-            } else {
-                ""
-            }
-        ),
+        Part::Shared(words.rating.clone()),
         power(shaft_per_pump, rating),
         format!(
             " is {} % of the nameplate ",
             Fixed(100.0 * shaft_per_pump / rating, 0)
         ),
         power(rating, shaft_per_pump),
-        "; largest at any duty ",
-        message::value(Kind::Power, m.max_operating_shaft_power),
-        format!(" (case {})", m.max_operating_case),
+        Part::Shared(words.largest.clone()),
     ];
     if above_at_duty {
         msg.push_str(": above the nameplate at duty, choose a larger motor");
     }
-    msg.push(format!(
-        "; along the curve to run-out at {} rpm and the largest impeller allowed the largest is ",
-        Fixed(m.run_out_speed_rpm, 0)
-    ));
-    msg.push(power(m.run_out_shaft_power, rating));
-    msg.push(" at ");
-    msg.push(message::flow(m.run_out_flow));
-    msg.push(format!(
-        " per pump (case {}), {} % of nameplate",
-        m.run_out_case,
-        Fixed(100.0 * m.choice.runout_loading_ratio, 0),
-    ));
-    msg.push_str(if m.choice.non_overloading && m.run_out_at_data_end {
-        ": non-overloading over the published curve, but the largest is at its last point with the power still rising: beyond it (filling an empty main, a burst) the motor may overload; confirm the manufacturer's maximum flow or protect the motor"
-    } else if m.choice.non_overloading {
-        ": non-overloading"
-    } else if beyond_service_factor {
-        ": above the nameplate × service factor towards run-out, choose a larger motor or limit the flow"
-    } else {
-        ": overloads towards run-out within the service factor, protect the motor, limit the flow or choose a larger motor"
-    });
-    msg.push(if m.variable_speed {
-        "; on a variable-frequency drive the service factor is taken as 1.0".to_string()
-    } else {
-        format!(
-            "; service factor {} is margin only, not used for sizing",
-            Fixed(m.choice.service_factor, 2)
-        )
-    });
+    msg.push(Part::Shared(words.run_out.clone()));
     Check::typed(
         CheckId::Motor,
         status,
@@ -355,6 +321,77 @@ pub(crate) fn motor_check(m: &MotorSizing, shaft_per_pump: f64) -> Check {
         msg,
         limits::MOTOR_RATING_SOURCE,
     )
+}
+
+/// The words of a candidate's motor check that are the same in every case (the rating,
+/// the largest duty, the run-out and the service factor), made once per candidate and
+/// shared by the checks of all its cases ([`Part::Shared`]).
+pub(crate) struct MotorWords {
+    /// `"<rating> motor per pump: shaft power here "`.
+    rating: Arc<[Part]>,
+    /// `"; largest at any duty <power> (case <name>)"`.
+    largest: Arc<[Part]>,
+    /// The run-out finding and the service factor.
+    run_out: Arc<[Part]>,
+}
+
+impl MotorWords {
+    /// The shared words of `m`'s motor check.
+    pub(crate) fn of(m: &MotorSizing) -> MotorWords {
+        let rating = m.choice.rating_w;
+        let power = |si, other| message::against(Kind::Power, si, other);
+        let stated = if m.rating_stated {
+            " (stated in the design)"
+        } else {
+            ""
+        };
+        let beyond_service_factor =
+            m.choice.runout_loading_ratio > m.choice.service_factor * (1.0 + 1e-9);
+        let finding = if m.choice.non_overloading && m.run_out_at_data_end {
+            ": non-overloading over the published curve, but the largest is at its last point with the power still rising: beyond it (filling an empty main, a burst) the motor may overload; confirm the manufacturer's maximum flow or protect the motor"
+        } else if m.choice.non_overloading {
+            ": non-overloading"
+        } else if beyond_service_factor {
+            ": above the nameplate × service factor towards run-out, choose a larger motor or limit the flow"
+        } else {
+            ": overloads towards run-out within the service factor, protect the motor, limit the flow or choose a larger motor"
+        };
+        let service_factor = if m.variable_speed {
+            "; on a variable-frequency drive the service factor is taken as 1.0".to_string()
+        } else {
+            format!(
+                "; service factor {} is margin only, not used for sizing",
+                Fixed(m.choice.service_factor, 2)
+            )
+        };
+        MotorWords {
+            rating: Arc::from([Part::from(format!(
+                "{} motor per pump{stated}: shaft power here ",
+                m.choice.rating_label
+            ))]),
+            largest: Arc::from([
+                Part::from("; largest at any duty "),
+                message::value(Kind::Power, m.max_operating_shaft_power),
+                Part::from(format!(" (case {})", m.max_operating_case)),
+            ]),
+            run_out: Arc::from([
+                Part::from(format!(
+                    "; along the curve to run-out at {} rpm and the largest impeller allowed the largest is ",
+                    Fixed(m.run_out_speed_rpm, 0)
+                )),
+                power(m.run_out_shaft_power, rating),
+                Part::from(" at "),
+                message::flow(m.run_out_flow),
+                Part::from(format!(
+                    " per pump (case {}), {} % of nameplate",
+                    m.run_out_case,
+                    Fixed(100.0 * m.choice.runout_loading_ratio, 0),
+                )),
+                Part::from(finding),
+                Part::from(service_factor),
+            ]),
+        }
+    }
 }
 
 /// Motor ratings hold to 1000 m altitude and 40 °C ambient: a warning above that.

@@ -565,8 +565,12 @@ pub fn motor_checks_per_well(
         return;
     }
     largest_per_well(cases, sizing);
+    let words: Vec<_> = sizing
+        .iter()
+        .map(|m| m.as_ref().map(super::motor::MotorWords::of))
+        .collect();
     for c in cases.iter_mut() {
-        for (r, m) in c.pumps.iter_mut().zip(sizing.iter()) {
+        for ((r, m), words) in c.pumps.iter_mut().zip(sizing.iter()).zip(&words) {
             let eff = r
                 .duty
                 .as_ref()
@@ -584,13 +588,18 @@ pub fn motor_checks_per_well(
                         .map(|x| d.hydraulic_power / x);
                 }
             }
-            let Some(m) = m else { continue };
+            let (Some(m), Some(words)) = (m, words) else {
+                continue;
+            };
             let per_well: Vec<Check> = r
                 .wells
                 .iter()
                 .filter_map(|w| {
                     let per_pump = w.duty.shaft_power? / par;
-                    Some(about_well(super::motor::motor_check(m, per_pump), &w.name))
+                    Some(about_well(
+                        super::motor::motor_check(m, words, per_pump),
+                        &w.name,
+                    ))
                 })
                 .collect();
             r.checks.retain(|c| c.id != CheckId::Motor);
