@@ -292,7 +292,7 @@ fn the_discharge_grade_of_a_loop_starts_from_the_loop_not_the_tank() {
     // the coil's loss, which is the whole duty head less 4e-6 m of friction.
     let expect = 400e3 + rho * G * (2.0 + d.head - 0.5);
     let line = a.safety.cases[0]
-        .lines
+        .lines()
         .iter()
         .find(|l| l.name == "discharge")
         .expect("screened");

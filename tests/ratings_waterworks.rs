@@ -26,7 +26,7 @@ fn analysed(src: &str) -> Analysis {
 fn segment_2(src: &str) -> (f64, f64, String, String) {
     let a = analysed(src);
     let line = a.safety.cases[0]
-        .lines
+        .lines()
         .iter()
         .find(|l| l.name == "discharge")
         .unwrap();

@@ -20,9 +20,11 @@ fn writes_sample_pdfs() {
             elapsed
         );
         assert!(rendered.page_count >= 12, "{} pages", rendered.page_count);
-        // Generous bound for a debug build on a loaded machine (typically 0.1-0.2 s).
-        assert!(elapsed.as_secs_f64() < 5.0, "render took {elapsed:?}");
-        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("target");
+        // Speed is measured by the benchmarks (benches/package.rs), not asserted here.
+        let dir = std::env::var_os("CARGO_TARGET_DIR")
+            .map(std::path::PathBuf::from)
+            .unwrap_or_else(|| std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("target"));
+        std::fs::create_dir_all(&dir).expect("target folder");
         std::fs::write(dir.join(file), &rendered.bytes).expect("write sample");
     }
 }

@@ -110,7 +110,7 @@ fn the_json_of_many_cases_refers_to_its_tables() {
             }
         }
         for (l, line) in case["lines"].as_array().expect("lines").iter().enumerate() {
-            let screened = &a.safety.cases[i].lines[l];
+            let screened = &a.safety.cases[i].lines()[l];
             let profile = &profiles[index(&line["profile"])];
             assert_eq!(profile["name"], screened.name.as_str());
             let stations = profile["chainage_m"].as_array().expect("chainages");

@@ -54,7 +54,7 @@ fn demos_match_the_independent_recomputation() {
         let c = case(a, text(row, "case"));
         let want = num(row, "value");
         let quantity = text(row, "quantity");
-        let line = c.lines.iter().find(|l| l.name == text(row, "line"));
+        let line = c.lines().iter().find(|l| l.name == text(row, "line"));
         let index: Option<usize> = text(row, "index").parse().ok();
         // Pressures: 0.2 % (the two duty solves differ in their last digits and the
         // fluid is evaluated by two IF97 codes) with a 50 Pa floor.

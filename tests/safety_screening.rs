@@ -279,7 +279,7 @@ fn steel_rating_follows_b31_3_by_hand() {
 fn orchard_high_point_is_screened_for_column_separation() {
     let a = analyse(&demo("orchard-lift-rev-a"), &BTreeMap::new());
     let c = case(&a, "normal");
-    let d = c.lines.iter().find(|l| l.name == "discharge").unwrap();
+    let d = c.lines().iter().find(|l| l.name == "discharge").unwrap();
     // The surveyed high point at chainage 1900 ft is the lowest pressure in the pipe.
     let (_, i) = d.min_duty().unwrap();
     assert!((d.stations[i].chainage - 1900.0 * FT).abs() < 1e-6);
@@ -299,7 +299,7 @@ fn orchard_high_point_is_screened_for_column_separation() {
         assert!((p[k] - d.density * G * (g[k] - st.elevation)).abs() < 1e-6);
     }
     // Both sides meet at the pump: discharge grade − suction grade = the duty head.
-    let s = c.lines.iter().find(|l| l.name == "suction").unwrap();
+    let s = c.lines().iter().find(|l| l.name == "suction").unwrap();
     // The screened candidate's duty (the recommended one).
     let screened = a.safety.candidate.as_deref().expect("a screened candidate");
     let duty = a.cases[0]
@@ -326,7 +326,7 @@ fn a_straight_grade_without_the_high_point_keeps_pressure_up() {
     let plain = format!("{}{}", &src[..start], &src[end..]);
     let a = analyse(&plain, &BTreeMap::new());
     let c = case(&a, "normal");
-    let d = c.lines.iter().find(|l| l.name == "discharge").unwrap();
+    let d = c.lines().iter().find(|l| l.name == "discharge").unwrap();
     assert!(d.profile_source.starts_with("straight grade"));
     assert!(d.high_points.is_empty());
     assert_eq!(
@@ -339,7 +339,7 @@ fn a_straight_grade_without_the_high_point_keeps_pressure_up() {
 fn kestrel_valve_rating_governs_the_header_and_fails_the_surge_screen_at_peak() {
     let a = analyse(&demo("kestrel-booster"), &demo_files());
     let c = case(&a, "peak");
-    let d = c.lines.iter().find(|l| l.name == "discharge").unwrap();
+    let d = c.lines().iter().find(|l| l.name == "discharge").unwrap();
     // The PN16 butterfly valve (1600 kPa) is weaker than the stainless header.
     assert!((d.ratings[0].working.unwrap() - 1.6e6).abs() < 1e-6);
     assert!(d.ratings[0].note.contains("butterfly valve"));
@@ -420,7 +420,7 @@ fn profile_from_a_csv_file_and_segment_elevations() {
         "# surveyed\nchainage ft, elevation ft\n0, 1204\n1900, 1336\n2700, 1330\n".to_string(),
     );
     let a = analyse(&with_csv, &files);
-    let d = &case(&a, "normal").lines[1];
+    let d = &case(&a, "normal").lines()[1];
     assert_eq!(d.profile_source, "from survey.csv");
     assert_eq!(d.high_points.len(), 1);
     // Per-segment elevations: the PVC main rises to 1350 ft at its end: linear between.
@@ -430,7 +430,7 @@ fn profile_from_a_csv_file_and_segment_elevations() {
         1,
     );
     let a = analyse(&seg, &BTreeMap::new());
-    let d = &case(&a, "normal").lines[1];
+    let d = &case(&a, "normal").lines()[1];
     assert!(d.profile_source.starts_with("segment end elevations"));
     assert!((d.stations.last().unwrap().elevation - 1338.0 * FT).abs() < 1e-9);
 }
@@ -466,7 +466,7 @@ fn a_named_liquid_with_a_bulk_modulus_is_surge_screened() {
             "{:?}",
             c.notes
         );
-        let line = c.lines.iter().find(|l| l.name == "discharge").unwrap();
+        let line = c.lines().iter().find(|l| l.name == "discharge").unwrap();
         line.surge.as_ref().expect("a surge screen").wave_speed
     };
     let (soft, stiff) = (wave(1.2), wave(1.8));
@@ -489,7 +489,7 @@ fn a_network_discharge_line_ends_at_the_entry_node() {
         let pump = case.pumps.iter().find(|p| p.name == screened).unwrap();
         let net = pump.network.as_ref().expect("the network at the duty");
         let entry = net.nodes.iter().find(|n| n.name == "manifold").unwrap();
-        let line = cs.lines.iter().find(|l| l.name == "discharge").unwrap();
+        let line = cs.lines().iter().find(|l| l.name == "discharge").unwrap();
         let last = line.stations.len() - 1;
         assert!((line.stations[last].elevation - entry.elevation).abs() < 1e-9);
         let p = line.pressure_duty.as_ref().expect("pressures at the duty")[last];

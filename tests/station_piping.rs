@@ -249,7 +249,7 @@ fn duty_and_npsh_per_pump_match_an_independent_solve_with_friction() {
 fn the_pressure_screen_takes_station_piping_at_the_flow_per_pump() {
     let a = analyse(&design(true));
     let d = a.cases[0].pumps[0].duty.as_ref().expect("duty");
-    let lines = &a.safety.cases[0].lines;
+    let lines = &a.safety.cases[0].lines();
     let line = |name: &str| lines.iter().find(|l| l.name == name).expect(name);
     // The same 6 in pipe: a pump's own discharge carries half the common discharge's
     // velocity, and so (Joukowsky, Δh = a·Δv/g) half its surge head.

@@ -27,6 +27,11 @@ pub mod well_field;
 use crate::model::{ArrangementKind, Design, Side};
 pub use system::{CaseSystem, FluidState, Losses, NpshTerms, SegmentAtFlow, SegmentState, G};
 
+/// Most cases the outputs show one by one; a design with more is summarised (the
+/// governing cases in full, tables over every case), and its safety screen keeps its
+/// line screens only when asked for ([`safety::CaseSafety::lines`]).
+pub const SUMMARY_CASES: usize = 40;
+
 /// Number of points of each tabulated system curve.
 pub const SYSTEM_CURVE_POINTS: usize = 31;
 
@@ -114,8 +119,10 @@ pub struct CaseResult {
     pub overrides: Vec<String>,
     /// Operating hours per year, h.
     pub hours_per_year: f64,
-    /// `None` when the case could not be set up (the error is in `error`).
-    pub system: Option<CaseSystem>,
+    /// `None` when the case could not be set up (the error is in `error`); shared with
+    /// the safety screen, which may make its line screens again from it
+    /// ([`safety::CaseSafety::lines`]).
+    pub system: Option<std::sync::Arc<CaseSystem>>,
     /// Why the case could not be set up, if it could not.
     pub error: Option<String>,
     /// The system curve, tabulated from zero flow.
@@ -150,7 +157,7 @@ pub fn analyse(design: &Design) -> Analysis {
     let mut cases: Vec<CaseResult> = Vec::new();
     for (case, solved) in design.cases.iter().zip(solved) {
         let (system, error, pumps) = match solved {
-            Ok((s, pumps)) => (Some(s), None, pumps),
+            Ok((s, pumps)) => (Some(std::sync::Arc::new(s)), None, pumps),
             Err(e) => {
                 warnings.push(Warning {
                     code: Code::CaseFailed,

@@ -368,7 +368,7 @@ fn case<'a>(
     units: Units,
     refs: &CaseRefs,
 ) -> Case<'a> {
-    let s = c.system.as_ref();
+    let s = c.system.as_deref();
     let site = d.map(|d| &d.scenario.site);
     let curve = &c.system_curve;
     let column = |f: &dyn Fn(&crate::analysis::SystemPoint) -> f64| curve.iter().map(f).collect();
@@ -520,7 +520,7 @@ fn tables<'a>(
             }
         }
         if let Some(sc) = analysis.safety.cases.get(i) {
-            for l in &sc.lines {
+            for l in sc.lines() {
                 r.profiles
                     .push(profiles.index(l.name.as_str(), safety::profile(l)));
             }

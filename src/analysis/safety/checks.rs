@@ -4,7 +4,7 @@
 //! plus operating pressure against the transient rating. Limits live in
 //! [`crate::analysis::limits`].
 
-use super::{max_at, CaseSafety, LineSafety};
+use super::{max_at, LineSafety};
 use crate::analysis::checks::{Check, Status};
 use crate::analysis::limits::{self, CheckId, Source};
 use crate::analysis::system::G;
@@ -37,9 +37,9 @@ fn pressure_against(si: f64, other: f64) -> message::Part {
 }
 
 /// All safety checks of a case.
-pub fn line_checks(c: &CaseSafety) -> Vec<Check> {
+pub fn line_checks(lines: &[LineSafety]) -> Vec<Check> {
     let mut out = Vec::new();
-    for l in &c.lines {
+    for l in lines {
         if let Some(p) = &l.pressure_duty {
             out.extend(rating_check(l, p, CheckId::PressureRating, "operating"));
             out.extend(minimum_checks(l));

@@ -22,6 +22,7 @@ use super::limits::{self, CheckId};
 use super::system::{CaseSystem, G};
 use super::CaseResult;
 use crate::model::{Adjust, Design, Fluid, Line, Side};
+use std::sync::Arc;
 
 pub use grade::Station;
 pub use rating::SegmentRating;
@@ -72,12 +73,82 @@ pub struct CaseSafety {
     pub case: String,
     /// The duty flow screened, m³/s (`None`: no duty in this case).
     pub flow: Option<f64>,
-    /// Each line's screen in this case.
-    pub lines: Vec<LineSafety>,
+    /// Each line's screen in this case ([`CaseSafety::lines`]): kept from the screen
+    /// when the design has at most [`crate::analysis::SUMMARY_CASES`], else made again
+    /// from `inputs` when an output first reads it.
+    lines: std::sync::OnceLock<Vec<LineSafety>>,
+    /// What the line screens are made from (`None`: the case has no system).
+    inputs: Option<Arc<ScreenInputs>>,
     /// The pressure-safety checks of this case.
     pub checks: Vec<Check>,
     /// Remarks (profile length, unrated segments, liquids without a bulk modulus).
     pub notes: Vec<String>,
+}
+
+impl CaseSafety {
+    /// Whether the case's lines were screened (it has a system and lines): whether
+    /// [`CaseSafety::lines`] is not empty, without making them.
+    pub fn screened(&self) -> bool {
+        self.inputs.as_ref().is_some_and(|i| !i.lines.is_empty())
+    }
+
+    /// Each line's screen in this case (empty when the case has no system).
+    ///
+    /// A design of thousands of cases (hourly operation) would hold every station of
+    /// every line of every case, about a third of its analysis, although a summarised
+    /// output reads the lines of a few governing cases only; so beyond
+    /// [`crate::analysis::SUMMARY_CASES`] cases (where the outputs summarise) the screen keeps its checks and notes and makes a case's lines again, by
+    /// the same function from the same inputs (so the same numbers), when asked.
+    pub fn lines(&self) -> &[LineSafety] {
+        self.lines.get_or_init(|| {
+            self.inputs
+                .as_deref()
+                .map(|i| i.line_screens().0)
+                .unwrap_or_default()
+        })
+    }
+}
+
+/// A case's inputs to its line screens.
+#[derive(Debug)]
+struct ScreenInputs {
+    /// The case's lines (shared with its scenario).
+    lines: Arc<Vec<Line>>,
+    /// The case's fluid as written.
+    fluid: Fluid,
+    /// The case's system.
+    system: Arc<CaseSystem>,
+    /// A closed loop's system at its highest reference pressure (ratings, shut-off).
+    raised: Option<CaseSystem>,
+    /// The set's and each pump's flow at the screened duty, m³/s.
+    flow: Option<(f64, f64)>,
+    /// The screened candidate at shut-off.
+    shutoff: Option<Arc<Shutoff>>,
+    /// The case's name.
+    name: String,
+}
+
+impl ScreenInputs {
+    /// The line screens, their checks and the notes: at the case's system, or for a
+    /// closed loop at both reference pressures ([`at_both_pressures`]).
+    fn line_screens(&self) -> (Vec<LineSafety>, Vec<Check>, Vec<String>) {
+        let low = self.screen_at(&self.system);
+        match &self.raised {
+            Some(high) => at_both_pressures(low, self.screen_at(high)),
+            None => low,
+        }
+    }
+
+    fn screen_at(&self, sys: &CaseSystem) -> (Vec<LineSafety>, Vec<Check>, Vec<String>) {
+        case_screen(
+            &self.lines,
+            &self.fluid,
+            sys,
+            self.flow,
+            self.shutoff.as_deref(),
+            &self.name,
+        )
+    }
 }
 
 /// One line's screen in one case.
@@ -167,33 +238,43 @@ pub fn screen(
 ) -> Safety {
     let k = screened_candidate(design, cases, recommended);
     let shutoff = k.and_then(|k| shutoff(design, cases, &candidates[k], k));
+    let shared_shutoff = shutoff.clone().map(Arc::new);
+    let keep = design.cases.len() <= crate::analysis::SUMMARY_CASES;
     let cases_out = design
         .cases
         .iter()
         .zip(cases)
         .map(|(case, result)| {
+            let Some(system) = &result.system else {
+                return CaseSafety {
+                    case: result.name.clone(),
+                    ..Default::default()
+                };
+            };
             let flow = k.and_then(|k| {
                 let d = result.pumps.get(k)?.duty.as_ref()?;
                 Some((d.flow, d.flow_per_pump))
             });
-            let screen_at = |sys: &CaseSystem| {
-                case_screen(
-                    &case.scenario.lines,
-                    &case.scenario.fluid,
-                    sys,
-                    flow,
-                    shutoff.as_ref(),
-                    &result.name,
-                )
+            let inputs = ScreenInputs {
+                lines: Arc::clone(&case.scenario.lines),
+                fluid: case.scenario.fluid.clone(),
+                system: Arc::clone(system),
+                raised: crate::analysis::closed_loop::rating_system(&case.scenario),
+                flow,
+                shutoff: shared_shutoff.clone(),
+                name: result.name.clone(),
             };
-            let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
-            match (&result.system, raised.as_ref()) {
-                (Some(sys), Some(high)) => at_both_pressures(screen_at(sys), screen_at(high)),
-                (Some(sys), None) => screen_at(sys),
-                _ => CaseSafety {
-                    case: result.name.clone(),
-                    ..Default::default()
+            let (lines, checks, notes) = inputs.line_screens();
+            CaseSafety {
+                case: result.name.clone(),
+                flow: flow.map(|(q, _)| q),
+                lines: match keep {
+                    true => lines.into(),
+                    false => Default::default(),
                 },
+                inputs: Some(Arc::new(inputs)),
+                checks,
+                notes,
             }
         })
         .collect();
@@ -216,20 +297,22 @@ pub fn screen(
 /// column-separation checks (and the plotted grades) from the screen at the minimum
 /// (fill) pressure `low`; the rating, shut-off and surge checks and the shut-off
 /// pressures from the screen at the maximum `high`.
-fn at_both_pressures(mut low: CaseSafety, high: CaseSafety) -> CaseSafety {
+fn at_both_pressures(
+    (mut lines, low_checks, notes): (Vec<LineSafety>, Vec<Check>, Vec<String>),
+    (high_lines, high_checks, _): (Vec<LineSafety>, Vec<Check>, Vec<String>),
+) -> (Vec<LineSafety>, Vec<Check>, Vec<String>) {
     let minimum = |c: &Check| {
         matches!(
             c.id,
             CheckId::MinimumPressure | CheckId::VapourMargin | CheckId::ColumnSeparation
         )
     };
-    let mut checks: Vec<Check> = low.checks.into_iter().filter(|c| minimum(c)).collect();
-    checks.extend(high.checks.into_iter().filter(|c| !minimum(c)));
-    low.checks = checks;
-    for (l, h) in low.lines.iter_mut().zip(high.lines) {
+    let mut checks: Vec<Check> = low_checks.into_iter().filter(|c| minimum(c)).collect();
+    checks.extend(high_checks.into_iter().filter(|c| !minimum(c)));
+    for (l, h) in lines.iter_mut().zip(high_lines) {
         l.pressure_shutoff = h.pressure_shutoff;
     }
-    low
+    (lines, checks, notes)
 }
 
 /// The recommended candidate, else the first with a duty in some case.
@@ -288,7 +371,7 @@ fn shutoff(
             let raised = crate::analysis::closed_loop::rating_system(&case.scenario);
             raised
                 .as_ref()
-                .or(c.system.as_ref())
+                .or(c.system.as_deref())
                 .map(|s| (suction_static_pressure(s), c.name.clone()))
         })
         .max_by(|a, b| a.0.total_cmp(&b.0))?;
@@ -325,28 +408,24 @@ fn case_screen(
     flow: Option<(f64, f64)>,
     shutoff: Option<&Shutoff>,
     name: &str,
-) -> CaseSafety {
+) -> (Vec<LineSafety>, Vec<Check>, Vec<String>) {
     let temperature = match fluid {
         Fluid::Water { .. } | Fluid::Glycol(_) => sys.fluid.temperature_k,
         Fluid::Custom(c) => c
             .temperature
             .map(|t| t.get::<uom::si::thermodynamic_temperature::kelvin>()),
     };
-    let mut out = CaseSafety {
-        case: name.to_string(),
-        flow: flow.map(|(q, _)| q),
-        ..Default::default()
-    };
+    let mut notes = Vec::new();
     let k = surge::bulk_modulus(sys, fluid);
     if k.is_none() {
-        out.notes.push(format!("case {name}: no bulk modulus for `{}`; the surge screen needs water or a liquid with a stated bulk modulus, and is not done", sys.fluid.name));
+        notes.push(format!("case {name}: no bulk modulus for `{}`; the surge screen needs water or a liquid with a stated bulk modulus, and is not done", sys.fluid.name));
     }
-    for line in lines {
-        let ls = line_screen(line, sys, flow, shutoff, temperature, k, &mut out.notes);
-        out.lines.push(ls);
-    }
-    out.checks = checks::line_checks(&out);
-    out
+    let screens: Vec<LineSafety> = lines
+        .iter()
+        .map(|line| line_screen(line, sys, flow, shutoff, temperature, k, &mut notes))
+        .collect();
+    let checks = checks::line_checks(&screens);
+    (screens, checks, notes)
 }
 
 /// The screen of one line; `flow` is the set's and each pump's flow at the duty (m³/s),
@@ -554,5 +633,85 @@ pub fn annotate_selection(selection: &mut super::selection::Selection, safety: &
             "; its pressure and surge screen fails ({}): a transient (water-hammer) analysis is needed before the selection is final",
             failing.join(", ")
         ));
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    /// Every demo (a chain, a station with a network, a closed loop screened at both
+    /// reference pressures, a well field) analysed, with its CSV curve files.
+    fn demos() -> Vec<(String, crate::analysis::Analysis)> {
+        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples-demo");
+        let mut files = std::collections::BTreeMap::new();
+        let mut designs = Vec::new();
+        for entry in std::fs::read_dir(&dir).expect("demo folder") {
+            let path = entry.expect("entry").path();
+            let text = std::fs::read_to_string(&path).expect("demo file");
+            let name = path
+                .file_name()
+                .expect("name")
+                .to_string_lossy()
+                .into_owned();
+            match path.extension().and_then(|e| e.to_str()) {
+                Some("duty") => designs.push((name, text)),
+                _ => drop(files.insert(name, text)),
+            }
+        }
+        designs.sort();
+        designs
+            .into_iter()
+            .map(|(name, text)| {
+                let checked = crate::check(&text, &files);
+                let design = checked.design.unwrap_or_else(|| panic!("{name} checks"));
+                (name, crate::analysis::analyse(&design))
+            })
+            .collect()
+    }
+
+    #[test]
+    fn lines_made_again_from_the_inputs_are_the_screens_kept() {
+        let mut compared = 0;
+        for (name, analysis) in demos() {
+            for c in &analysis.safety.cases {
+                let Some(inputs) = &c.inputs else { continue };
+                // The demos have few cases, so the screen kept its lines.
+                assert!(c.lines.get().is_some(), "{name} {}: lines kept", c.case);
+                let (lines, checks, notes) = inputs.line_screens();
+                assert_eq!(
+                    format!("{lines:?}"),
+                    format!("{:?}", c.lines()),
+                    "{name} {}",
+                    c.case
+                );
+                assert_eq!(checks, c.checks, "{name} {}", c.case);
+                assert_eq!(notes, c.notes, "{name} {}", c.case);
+                assert_eq!(c.screened(), !c.lines().is_empty(), "{name} {}", c.case);
+                compared += 1;
+            }
+        }
+        // The chain demos, the network station and the closed loop have screens.
+        assert!(compared >= 10, "{compared} case screens compared");
+    }
+
+    #[test]
+    fn a_screen_not_kept_is_made_when_read() {
+        let (_, analysis) = demos()
+            .into_iter()
+            .find(|(n, _)| n.starts_with("wrenfield"))
+            .expect("closed-loop demo");
+        let both = analysis
+            .safety
+            .cases
+            .iter()
+            .filter(|c| c.inputs.as_ref().is_some_and(|i| i.raised.is_some()));
+        assert!(both.count() > 0, "screened at both reference pressures");
+        for kept in &analysis.safety.cases {
+            let mut remade = kept.clone();
+            remade.lines = Default::default();
+            assert_eq!(
+                format!("{:?}", remade.lines()),
+                format!("{:?}", kept.lines())
+            );
+        }
     }
 }

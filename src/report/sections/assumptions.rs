@@ -40,7 +40,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, design: &Design, analysis: &Analy
         }
     }
     blocks.push(Block::heading(2, "Cautions"));
-    let screened = analysis.safety.cases.iter().any(|c| !c.lines.is_empty());
+    let screened = analysis.safety.cases.iter().any(|c| c.screened());
     let surge = if screened {
         "Surge and pressure ratings are screened in the chapter \"Pressure and surge screening\" only: a screen is not a transient analysis, and the manufacturers' certified ratings govern. Thrust restraint, structural supports, electrical design and controls are outside this calculation. Pump trips and valve closures on long mains can raise pressures far above the steady values here."
     } else {

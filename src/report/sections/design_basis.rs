@@ -433,7 +433,7 @@ fn changed_fields(overrides: &[String]) -> String {
 
 /// A case with its system, for the cases that could be set up.
 fn analysed(case: &CaseResult) -> Option<(&CaseResult, &CaseSystem)> {
-    case.system.as_ref().map(|system| (case, system))
+    case.system.as_deref().map(|system| (case, system))
 }
 
 /// A segment as the tables name it: its line and its 1-based number ("discharge 2").

@@ -93,7 +93,7 @@ impl Uses {
             wells: systems().any(|s| s.well.is_some())
                 || links().any(|l| matches!(l.element, Element::Drawdown(_))),
             station_piping: segments.iter().any(|s| s.per_pump),
-            safety: analysis.safety.cases.iter().any(|c| !c.lines.is_empty()),
+            safety: analysis.safety.cases.iter().any(|c| c.screened()),
         }
     }
 

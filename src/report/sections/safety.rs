@@ -24,7 +24,7 @@ const NETWORK_SCOPE: &str = "This screen covers the suction and discharge lines 
 /// The chapter; nothing when no case could be screened.
 pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Units) {
     let s = &analysis.safety;
-    let Some(first) = s.cases.iter().find(|c| !c.lines.is_empty()) else {
+    let Some(first) = s.cases.iter().find(|c| c.screened()) else {
         return;
     };
     blocks.push(Block::heading(1, "Pressure and surge screening"));
@@ -40,7 +40,7 @@ pub(super) fn chapter(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Unit
     method(blocks);
     shutoff(blocks, s, units);
     ratings_table(blocks, first, units, s.closed_loop_max_pa);
-    for (i, line) in first.lines.iter().enumerate() {
+    for (i, line) in first.lines().iter().enumerate() {
         blocks.push(Block::heading(2, format!("Line {}", line.name)));
         blocks.push(Block::text(format!(
             "Profile: {}. Length {}.",
@@ -156,7 +156,7 @@ fn ratings_table(
     }
     let pr = units.rating();
     let mut rows = Vec::new();
-    for l in &c.lines {
+    for l in c.lines() {
         for (i, r) in l.ratings.iter().enumerate() {
             rows.push(vec![
                 l.name.clone(),
@@ -194,7 +194,7 @@ fn head_of(z: f64, p: f64, rho: f64) -> f64 {
 fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
     let ln = units.length();
     let hd = units.elevation();
-    let Some(base) = s.cases.iter().find_map(|c| c.lines.get(i)) else {
+    let Some(base) = s.cases.iter().find_map(|c| c.lines().get(i)) else {
         return;
     };
     let pts = |f: &dyn Fn(usize) -> Option<f64>, l: &LineSafety| -> Vec<(f64, f64)> {
@@ -213,7 +213,7 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
         ..Default::default()
     }];
     for (j, c) in s.cases.iter().enumerate() {
-        let Some(l) = c.lines.get(i) else { continue };
+        let Some(l) = c.lines().get(i) else { continue };
         let Some(g) = &l.grade_duty else { continue };
         series.push(Series {
             name: format!("HGL, {}", c.case),
@@ -251,7 +251,7 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
                 "after pump-trip downsurge, {}",
                 s.cases
                     .iter()
-                    .find(|c| c.lines.get(i).is_some())
+                    .find(|c| c.lines().get(i).is_some())
                     .map(|c| c.case.as_str())
                     .unwrap_or("")
             ),
@@ -284,7 +284,7 @@ fn grade_plot(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) {
     blocks.push(Block::Figure {
         chart,
         height_mm: 105.0,
-        caption: format!("Line {}: pipe profile, hydraulic grade line per case and at shut-off, rating envelope (above the plot where not drawn) and vapour pressure; rating and vapour lines are elevation + pressure/(ρg) of case {}; where the pump-trip downsurge would fall below vapour pressure the column separates and its line is held on the vapour-pressure line", base.name, s.cases.iter().find(|c| c.lines.get(i).is_some()).map(|c| c.case.as_str()).unwrap_or("")),
+        caption: format!("Line {}: pipe profile, hydraulic grade line per case and at shut-off, rating envelope (above the plot where not drawn) and vapour pressure; rating and vapour lines are elevation + pressure/(ρg) of case {}; where the pump-trip downsurge would fall below vapour pressure the column separates and its line is held on the vapour-pressure line", base.name, s.cases.iter().find(|c| c.lines().get(i).is_some()).map(|c| c.case.as_str()).unwrap_or("")),
     });
 }
 
@@ -322,11 +322,11 @@ fn pressure_table(blocks: &mut Vec<Block>, s: &Safety, i: usize, units: &Units) 
     let cases: Vec<(&CaseSafety, &LineSafety)> = s
         .cases
         .iter()
-        .filter_map(|c| c.lines.get(i).map(|l| (c, l)))
+        .filter_map(|c| c.lines().get(i).map(|l| (c, l)))
         .filter(|(_, l)| l.pressure_duty.is_some())
         .take(super::CASES_PER_GROUP)
         .collect();
-    let Some(base) = s.cases.iter().find_map(|c| c.lines.get(i)) else {
+    let Some(base) = s.cases.iter().find_map(|c| c.lines().get(i)) else {
         return;
     };
     let n = 5 + cases.len();
@@ -397,7 +397,7 @@ fn surge_tables(blocks: &mut Vec<Block>, s: &Safety, first: &CaseSafety, units: 
     blocks.push(Block::heading(2, "Surge screening"));
     let (dia, md, ws) = (units.diameter(), units.modulus(), units.wave_speed());
     let mut rows = Vec::new();
-    for l in &first.lines {
+    for l in first.lines() {
         let Some(sg) = &l.surge else {
             rows.push(vec![
                 l.name.clone(),
@@ -454,7 +454,7 @@ fn surge_tables(blocks: &mut Vec<Block>, s: &Safety, first: &CaseSafety, units: 
     let hd = units.head();
     let mut rows = Vec::new();
     for c in &s.cases {
-        for l in &c.lines {
+        for l in c.lines() {
             let Some(sg) = &l.surge else { continue };
             let valve = sg
                 .valve

@@ -11,8 +11,7 @@ use crate::display::{count, Units};
 use crate::model::Design;
 use crate::report::layout::document::{Align, Block, Column};
 
-/// Most cases shown one by one; designs with more are summarised.
-pub const SUMMARY_CASES: usize = 40;
+pub use crate::analysis::SUMMARY_CASES;
 
 /// Most governing cases kept for the per-case chapters of a summarised package.
 pub const MAX_GOVERNING: usize = 24;

@@ -265,7 +265,7 @@ pub(super) fn lines<'a>(
     profiles: &[usize],
 ) -> Vec<LineOut<'a>> {
     c.map(|c| {
-        c.lines
+        c.lines()
             .iter()
             .enumerate()
             .map(|(i, l)| line(c, l, units, profiles.get(i).copied().unwrap_or(0)))
