@@ -522,6 +522,7 @@ impl Units {
         for part in parts {
             match part {
                 Part::Text(text) => out.push_str(text),
+                Part::Owned(text) => out.push_str(text),
                 Part::Value(kind, si) => out.push_str(&self.of(*kind).fmt(*si)),
                 Part::Against(kind, si, other) => {
                     out.push_str(&self.of(*kind).fmt_against(*si, *other).0)

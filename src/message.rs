@@ -48,8 +48,11 @@ pub enum Kind {
 /// One piece of a message.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Part {
-    /// Plain words, printed as they are (most are the program's own, borrowed).
-    Text(Cow<'static, str>),
+    /// Plain words of the program's own, printed as they are.
+    Text(&'static str),
+    /// Plain words made when the message is (names, numbers already worded), printed as
+    /// they are; held at their length (an analysis may hold a million messages).
+    Owned(Box<str>),
     /// A quantity (SI value of its kind), printed with its report unit.
     Value(Kind, f64),
     /// A quantity printed with as many more decimals as it takes not to read like
@@ -77,19 +80,28 @@ pub enum Part {
 
 impl From<&'static str> for Part {
     fn from(text: &'static str) -> Part {
-        Part::Text(Cow::Borrowed(text))
+        Part::Text(text)
     }
 }
 
 impl From<String> for Part {
     fn from(text: String) -> Part {
-        Part::Text(Cow::Owned(text))
+        Part::Owned(text.into_boxed_str())
     }
 }
 
 impl From<&String> for Part {
     fn from(text: &String) -> Part {
-        Part::Text(Cow::Owned(text.clone()))
+        Part::Owned(text.as_str().into())
+    }
+}
+
+impl From<Cow<'static, str>> for Part {
+    fn from(text: Cow<'static, str>) -> Part {
+        match text {
+            Cow::Borrowed(words) => Part::Text(words),
+            Cow::Owned(words) => Part::from(words),
+        }
     }
 }
 
@@ -108,7 +120,7 @@ impl Message {
     /// A message of plain words only.
     pub fn text(text: impl Into<Cow<'static, str>>) -> Message {
         Message {
-            parts: vec![Part::Text(text.into())],
+            parts: vec![Part::from(text.into())],
         }
     }
     /// An empty message with room for `parts` parts.
@@ -123,7 +135,7 @@ impl Message {
     }
     /// Appends plain words.
     pub fn push_str(&mut self, text: impl Into<Cow<'static, str>>) {
-        self.parts.push(Part::Text(text.into()));
+        self.parts.push(Part::from(text.into()));
     }
     /// Appends every part of `other`.
     pub fn append(&mut self, other: &Message) {
@@ -131,7 +143,7 @@ impl Message {
     }
     /// `text` followed by this message.
     pub fn prefixed(mut self, text: impl Into<Cow<'static, str>>) -> Message {
-        self.parts.insert(0, Part::Text(text.into()));
+        self.parts.insert(0, Part::from(text.into()));
         self
     }
     /// The message's text when it holds no quantity (plain words only), else `None`.
@@ -145,6 +157,10 @@ impl Message {
 fn plain_into(parts: &[Part], out: &mut String) -> bool {
     parts.iter().all(|part| match part {
         Part::Text(t) => {
+            out.push_str(t);
+            true
+        }
+        Part::Owned(t) => {
             out.push_str(t);
             true
         }

@@ -433,7 +433,7 @@ pub fn metric_value(m: Metric, si: f64) -> Part {
     match m {
         Metric::Flow => flow(si),
         Metric::Head | Metric::NpshExcess => head(si),
-        Metric::NpshMargin => Part::Text(crate::numbers::fixed(si, 2).into()),
+        Metric::NpshMargin => Part::from(crate::numbers::fixed(si, 2)),
         Metric::Efficiency => Part::Percent(si),
         Metric::SuctionVelocity | Metric::DischargeVelocity => message::value(Kind::Velocity, si),
         Metric::ShaftPower => message::value(Kind::Power, si),
