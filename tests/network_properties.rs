@@ -1,6 +1,7 @@
 //! Conservation on random networks: after a solve the flows balance at every junction
-//! to 1e-9 m³/s and the head losses h_k(Q_k) (each link's own law at its solved flow)
-//! sum to zero around every independent loop to 1e-6 m, and nothing is non-finite.
+//! to 1e-9 m³/s (per kilometre of the largest head, above one), the head losses
+//! h_k(Q_k) (each link's own law at its solved flow) sum to zero around every
+//! independent loop to 1e-6 m, and nothing is non-finite.
 
 mod network_common;
 
@@ -78,7 +79,12 @@ fn network(seed: u64, tanks: usize, junctions: usize, extra: usize) -> Network {
             &nodes[b].name.clone(),
             element,
         );
-        l.check = matches!(l.element, Element::Pump(_)) && next() < 0.5;
+        // Check valves only on the links that close loops: one on a tree link may close
+        // (its pump cannot lift against the heads behind it) and cut the nodes beyond it
+        // off every tank, which the solve rightly refuses (`Unsupplied`); that refusal is
+        // tested in network_behaviour, not conservation.
+        let closes_loop = k >= n - 1;
+        l.check = matches!(l.element, Element::Pump(_)) && next() < 0.5 && closes_loop;
         links.push(l);
     }
     Network {
@@ -90,6 +96,11 @@ fn network(seed: u64, tanks: usize, junctions: usize, extra: usize) -> Network {
 
 fn check_conservation(net: &Network) {
     let sol = solve(net, &Settings::default()).expect("random network solves");
+    // A link's flow is y + c·(H_from − H_to), rounded relative to the heads: above a
+    // kilometre of head (a pump against a nearly shut valve) the balance is held to
+    // 1e-9 m³/s per kilometre.
+    let largest = sol.nodes.iter().fold(0.0f64, |a, n| a.max(n.head.abs()));
+    let balance_tolerance = 1e-9 * (largest / 1000.0).max(1.0);
     for (i, node) in net.nodes.iter().enumerate() {
         assert!(sol.nodes[i].head.is_finite() && sol.nodes[i].pressure.is_finite());
         if let NodeKind::Junction { demand } = node.kind {
@@ -103,7 +114,7 @@ fn check_conservation(net: &Network) {
                 }
             }
             assert!(
-                balance.abs() < 1e-9,
+                balance.abs() < balance_tolerance,
                 "node {}: imbalance {balance:e}",
                 node.name
             );
@@ -123,7 +134,11 @@ fn check_conservation(net: &Network) {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig { cases: 48, ..ProptestConfig::default() })]
+    // 48 networks per run; DUTYLINE_PROPTEST_CASES=N runs N (a deeper search before a release).
+    #![proptest_config(ProptestConfig {
+        cases: std::env::var("DUTYLINE_PROPTEST_CASES").ok().and_then(|n| n.parse().ok()).unwrap_or(48),
+        ..ProptestConfig::default()
+    })]
     #[test]
     fn random_networks_conserve_flow_and_energy(
         seed in any::<u64>(),
@@ -133,6 +148,36 @@ proptest! {
     ) {
         check_conservation(&network(seed, tanks, junctions, extra));
     }
+}
+
+/// Found by the property above (a check-valved pump on a tree link closed and cut
+/// junctions off): the generator now keeps check valves to loop-closing links.
+#[test]
+fn a_check_valve_on_a_tree_link_no_longer_cuts_the_random_network() {
+    check_conservation(&network(7184055614435173844, 3, 35, 1));
+}
+
+/// Found by the property above: full Newton steps cycled (heads moving about 7e-8 m to
+/// and fro) until the limit; the solve now goes on with halved steps.
+#[test]
+fn a_cycling_random_network_converges_by_halved_steps() {
+    check_conservation(&network(14508612959486499928, 3, 38, 1));
+}
+
+/// Found by the property above: heads of 3 000 m behind a nearly shut valve, which
+/// the rounding of the solve moves 1e-6 m at every step while every law holds to
+/// 1e-12 m; the settling steps stop at the rounding of heads of that size.
+#[test]
+fn heads_of_thousands_of_metres_settle_at_their_rounding() {
+    check_conservation(&network(914796528716705734, 2, 27, 0));
+}
+
+/// Found by the property above: heads of 34 km (pumps against nearly shut valves),
+/// where a flow y + c·ΔH with c up to 1e3 m²/s rounds by a few 1e-9 m³/s; balanced to
+/// the rounding of its heads.
+#[test]
+fn heads_of_kilometres_balance_to_their_rounding() {
+    check_conservation(&network(3747837965568465304, 1, 31, 9));
 }
 
 #[test]
