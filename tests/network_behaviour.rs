@@ -42,6 +42,30 @@ fn a_pump_with_a_check_valve_stops_against_a_higher_tank() {
 }
 
 #[test]
+fn a_demand_behind_a_closed_check_valve_is_a_named_error() {
+    // The pump set points from the junction into the tank, so the junction's demand
+    // would need reverse flow through it: its check valve closes and the junction
+    // reaches the tank through nothing that carries flow.
+    let nodes = vec![tank("upper", 30.0), junction("J", 5.0, 0.01)];
+    let mut links = vec![link(
+        &nodes,
+        "pumps",
+        "J",
+        "upper",
+        pumps(40.0, 20_000.0, 1),
+    )];
+    links[0].check = true;
+    let net = Network {
+        fluid: fluid(998.2, 1.0e-3),
+        nodes,
+        links,
+    };
+    let err = solve(&net, &Settings::default()).unwrap_err();
+    assert_eq!(err, NetworkError::Unsupplied { node: "J".into() });
+    assert!(err.to_string().contains("node J draws a demand"), "{err}");
+}
+
+#[test]
 fn a_check_valve_opens_when_the_pump_can_deliver() {
     let sol = solve(&pumped(30.0, true), &Settings::default()).unwrap();
     assert!(!sol.links[0].closed);
