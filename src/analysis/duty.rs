@@ -456,8 +456,9 @@ pub struct PumpResult {
     /// Affinity factor N·D of this case's pump against the evaluated published curve
     /// (speed ratio × impeller diameter ratio, dimensionless); 1 when not evaluated.
     pub affinity_scale: f64,
-    /// The network at the duty point (general-form designs with a duty only).
-    pub network: Option<crate::analysis::network::station::NetworkAtDuty>,
+    /// The network at the duty point (general-form designs with a duty only; boxed, as
+    /// most results have none).
+    pub network: Option<Box<crate::analysis::network::station::NetworkAtDuty>>,
     /// With station piping only: NPSH available per pump at each flow of the case's
     /// system curve (m, the set's flow shared by the pumps in parallel); else empty.
     pub npsh_available_curve: Vec<f64>,

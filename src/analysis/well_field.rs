@@ -379,7 +379,7 @@ fn evaluate(
             .extend(network::checks::requirement_checks(design, &case.name, &at));
         out.checks
             .extend(network::valves::valve_checks_in(&full, entry, &at));
-        out.network = Some(at);
+        out.network = Some(Box::new(at));
     }
     out.wells = well_duties(design, f, &sol, &scaled, cc, p, (par, ser));
     for w in &out.wells {

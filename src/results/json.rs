@@ -612,7 +612,7 @@ fn pump<'a>(p: &'a PumpResult, sys: Option<&CaseSystem>, units: Units) -> Pump<'
         capacity_flow_m3_s: p.capacity_flow,
         motor_efficiency_source: sources::index(&p.motor_efficiency.1),
         warnings: p.warnings.iter().map(|w| units.render(w)).collect(),
-        network: p.network.as_ref().map(engineering::network),
+        network: p.network.as_deref().map(engineering::network),
         wells: (!p.wells.is_empty()).then(|| well_field::wells(&p.wells)),
     }
 }

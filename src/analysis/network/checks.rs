@@ -39,7 +39,7 @@ pub fn at_duties(
         p.checks.extend(design_demand_check(&at));
         p.checks.extend(requirement_checks(design, case, &at));
         p.checks.extend(super::valves::valve_checks(net, &at));
-        p.network = Some(at);
+        p.network = Some(Box::new(at));
     }
     if system.network_failed.get() {
         return Err("the network could not be solved at every flow of the system curve (see the network's nodes and links)".into());
