@@ -240,44 +240,41 @@ pub fn screen(
     let shutoff = k.and_then(|k| shutoff(design, cases, &candidates[k], k));
     let shared_shutoff = shutoff.clone().map(Arc::new);
     let keep = design.cases.len() <= crate::analysis::SUMMARY_CASES;
-    let cases_out = design
-        .cases
-        .iter()
-        .zip(cases)
-        .map(|(case, result)| {
-            let Some(system) = &result.system else {
-                return CaseSafety {
-                    case: result.name.clone(),
-                    ..Default::default()
-                };
-            };
-            let flow = k.and_then(|k| {
-                let d = result.pumps.get(k)?.duty.as_ref()?;
-                Some((d.flow, d.flow_per_pump))
-            });
-            let inputs = ScreenInputs {
-                lines: Arc::clone(&case.scenario.lines),
-                fluid: case.scenario.fluid.clone(),
-                system: Arc::clone(system),
-                raised: crate::analysis::closed_loop::rating_system(&case.scenario),
-                flow,
-                shutoff: shared_shutoff.clone(),
-                name: result.name.clone(),
-            };
-            let (lines, checks, notes) = inputs.line_screens();
-            CaseSafety {
+    // Each case is screened on its own: on every core (`concurrent::map`, in order).
+    let pairs: Vec<_> = design.cases.iter().zip(cases).collect();
+    let cases_out = super::concurrent::map(&pairs, |&(case, result)| {
+        let Some(system) = &result.system else {
+            return CaseSafety {
                 case: result.name.clone(),
-                flow: flow.map(|(q, _)| q),
-                lines: match keep {
-                    true => lines.into(),
-                    false => Default::default(),
-                },
-                inputs: Some(Arc::new(inputs)),
-                checks,
-                notes,
-            }
-        })
-        .collect();
+                ..Default::default()
+            };
+        };
+        let flow = k.and_then(|k| {
+            let d = result.pumps.get(k)?.duty.as_ref()?;
+            Some((d.flow, d.flow_per_pump))
+        });
+        let inputs = ScreenInputs {
+            lines: Arc::clone(&case.scenario.lines),
+            fluid: case.scenario.fluid.clone(),
+            system: Arc::clone(system),
+            raised: crate::analysis::closed_loop::rating_system(&case.scenario),
+            flow,
+            shutoff: shared_shutoff.clone(),
+            name: result.name.clone(),
+        };
+        let (lines, checks, notes) = inputs.line_screens();
+        CaseSafety {
+            case: result.name.clone(),
+            flow: flow.map(|(q, _)| q),
+            lines: match keep {
+                true => lines.into(),
+                false => Default::default(),
+            },
+            inputs: Some(Arc::new(inputs)),
+            checks,
+            notes,
+        }
+    });
     let closed_loop_max_pa = design
         .base
         .source
