@@ -46,7 +46,7 @@ pub enum Kind {
 }
 
 /// One piece of a message.
-#[derive(Clone, Debug, PartialEq)]
+#[derive(Clone, Debug)]
 pub enum Part {
     /// Plain words of the program's own, printed as they are.
     Text(&'static str),
@@ -76,6 +76,38 @@ pub enum Part {
     /// Parts shared by many messages, read in place (a candidate's motor findings,
     /// repeated in the motor check of every case): one copy for all of them.
     Shared(std::sync::Arc<[Part]>),
+}
+
+impl Part {
+    /// The words of a `Text` or `Owned` part.
+    fn words(&self) -> Option<&str> {
+        match self {
+            Part::Text(t) => Some(t),
+            Part::Owned(t) => Some(t),
+            _ => None,
+        }
+    }
+}
+
+/// Parts are equal when they read the same: words by their text, whether borrowed or
+/// owned (as `Cow` compared them); the others by kind and value.
+impl PartialEq for Part {
+    fn eq(&self, other: &Part) -> bool {
+        use Part::*;
+        match (self, other) {
+            (Value(k, a), Value(l, b))
+            | (Typeset(k, a), Typeset(l, b))
+            | (Figure(k, a), Figure(l, b)) => k == l && a == b,
+            (Against(k, a, x), Against(l, b, y)) => k == l && a == b && x == y,
+            (Percent(a), Percent(b)) => a == b,
+            (PercentAgainst(a, x), PercentAgainst(b, y))
+            | (RatioAgainst(a, x), RatioAgainst(b, y)) => a == b && x == y,
+            (Significant(a, m), Significant(b, n)) => a == b && m == n,
+            (VolumeCostUnit, VolumeCostUnit) => true,
+            (Shared(a), Shared(b)) => a == b,
+            _ => matches!((self.words(), other.words()), (Some(a), Some(b)) if a == b),
+        }
+    }
 }
 
 impl From<&'static str> for Part {
@@ -213,4 +245,34 @@ macro_rules! message {
         $( m.push($part); )*
         m
     }};
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn words_compare_by_their_text_whether_borrowed_or_owned() {
+        assert_eq!(Part::Text("pump A"), Part::from("pump A".to_string()));
+        assert_ne!(Part::Text("pump A"), Part::from("pump B".to_string()));
+        assert_ne!(Part::Text("1"), Part::Percent(1.0));
+        assert_eq!(head(2.0), Part::Value(Kind::Head, 2.0));
+        assert_ne!(head(2.0), flow(2.0));
+        let shared = Part::Shared(std::sync::Arc::from([Part::Text("a"), head(1.0)]));
+        assert_eq!(shared.clone(), shared);
+    }
+
+    #[test]
+    fn plain_reads_through_shared_parts_and_stops_at_a_quantity() {
+        let words = Message {
+            parts: vec![
+                Part::Text("a "),
+                Part::Shared(std::sync::Arc::from([Part::from("b ".to_string())])),
+                Part::Text("c"),
+            ],
+        };
+        assert_eq!(words.plain().as_deref(), Some("a b c"));
+        let with_value = crate::message!["a ", Part::Shared(std::sync::Arc::from([head(1.0)]))];
+        assert_eq!(with_value.plain(), None);
+    }
 }

@@ -151,7 +151,8 @@ proptest! {
 }
 
 /// Found by the property above (a check-valved pump on a tree link closed and cut
-/// junctions off): the generator now keeps check valves to loop-closing links.
+/// junctions off, a true `Unsupplied`, tested in network_behaviour): the generator now
+/// keeps check valves to loop-closing links, and this seed guards that rule.
 #[test]
 fn a_check_valve_on_a_tree_link_no_longer_cuts_the_random_network() {
     check_conservation(&network(7184055614435173844, 3, 35, 1));
@@ -161,7 +162,18 @@ fn a_check_valve_on_a_tree_link_no_longer_cuts_the_random_network() {
 /// and fro) until the limit; the solve now goes on with halved steps.
 #[test]
 fn a_cycling_random_network_converges_by_halved_steps() {
-    check_conservation(&network(14508612959486499928, 3, 38, 1));
+    let net = network(14508612959486499928, 3, 38, 1);
+    check_conservation(&net);
+    assert!(
+        settled(&net),
+        "the full steps converge: the test no longer settles"
+    );
+}
+
+/// Whether the solve of `net` went on past the full steps' limit (halved steps).
+fn settled(net: &Network) -> bool {
+    let sol = solve(net, &Settings::default()).expect("solves");
+    sol.iterations > Settings::default().max_iterations
 }
 
 /// Found by the property above: heads of 3 000 m behind a nearly shut valve, which
@@ -169,7 +181,12 @@ fn a_cycling_random_network_converges_by_halved_steps() {
 /// 1e-12 m; the settling steps stop at the rounding of heads of that size.
 #[test]
 fn heads_of_thousands_of_metres_settle_at_their_rounding() {
-    check_conservation(&network(914796528716705734, 2, 27, 0));
+    let net = network(914796528716705734, 2, 27, 0);
+    check_conservation(&net);
+    assert!(
+        settled(&net),
+        "the full steps converge: the test no longer settles"
+    );
 }
 
 /// Found by the property above: heads of 34 km (pumps against nearly shut valves),

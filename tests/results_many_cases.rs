@@ -201,3 +201,25 @@ fn a_segment_override_changes_its_own_case_only() {
         &case("c1").lines
     ));
 }
+
+/// Above `SUMMARY_CASES` the safety screen keeps each case's checks and makes its line
+/// screens again when they are read (`CaseSafety::lines`): the checks drawn from the
+/// lines made again are the ones the screen drew from its own (an open chain, so every
+/// check of the screen comes from these lines).
+#[test]
+fn line_screens_made_again_give_the_checks_the_screen_kept() {
+    let (_, _, a) = analysed(SUMMARY_CASES + 1);
+    assert_eq!(a.safety.cases.len(), SUMMARY_CASES + 1);
+    for c in &a.safety.cases {
+        assert!(c.screened(), "case {}", c.case);
+        let lines = c.lines();
+        assert!(!lines.is_empty(), "case {}", c.case);
+        assert!(!c.checks.is_empty(), "case {}", c.case);
+        assert_eq!(
+            dutyline::analysis::safety::checks::line_checks(lines),
+            c.checks,
+            "case {}",
+            c.case
+        );
+    }
+}

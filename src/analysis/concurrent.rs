@@ -4,7 +4,8 @@
 //! Each piece is a pure function of the design and its own inputs, and the results are
 //! collected in the input order, so the output is the same whatever the number of
 //! threads (tests/thread_count.rs compares the results JSON at 1 and 2 threads). Used
-//! for the cases of an analysis and the candidates of the yearly operation.
+//! for the cases of an analysis, their safety screens, and the candidates of the yearly
+//! operation.
 
 use rayon::prelude::*;
 

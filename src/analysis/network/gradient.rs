@@ -236,10 +236,24 @@ fn newton(
     state: &mut State,
     settings: &Settings,
 ) -> Result<usize, NetworkError> {
+    let limit = settings.max_iterations;
     match newton_steps(net, prepared, state, settings, Steps::Full) {
-        Err(NetworkError::NotConverged { .. }) => {
-            newton_steps(net, prepared, state, settings, Steps::Settling)
-                .map(|more| settings.max_iterations + more)
+        // The limit reached (not a solve that gave non-finite heads, which settling
+        // would only repeat): settle from there.
+        Err(NetworkError::NotConverged { iterations, .. }) if iterations == limit => {
+            match newton_steps(net, prepared, state, settings, Steps::Settling) {
+                Ok(more) => Ok(limit + more),
+                Err(NetworkError::NotConverged {
+                    iterations,
+                    worst_node,
+                    head_change,
+                }) if iterations == limit => Err(NetworkError::NotConverged {
+                    iterations: 2 * limit,
+                    worst_node,
+                    head_change,
+                }),
+                other => other,
+            }
         }
         done => done,
     }

@@ -112,7 +112,8 @@ pub enum NetworkError {
     },
     /// The iterations did not converge; the node whose head moved most is named.
     NotConverged {
-        /// Newton iterations used.
+        /// Newton iterations used: the limit in full steps, then as many halved
+        /// (`gradient::Steps`), so twice the limit.
         iterations: usize,
         /// The node whose head moved most in the last iteration.
         worst_node: String,

@@ -77,7 +77,8 @@ pub struct CaseSafety {
     /// when the design has at most [`crate::analysis::SUMMARY_CASES`], else made again
     /// from `inputs` when an output first reads it.
     lines: std::sync::OnceLock<Vec<LineSafety>>,
-    /// What the line screens are made from (`None`: the case has no system).
+    /// What the line screens are made from when they were not kept (`None`: kept, or
+    /// the case has no system).
     inputs: Option<Arc<ScreenInputs>>,
     /// The pressure-safety checks of this case.
     pub checks: Vec<Check>,
@@ -89,7 +90,10 @@ impl CaseSafety {
     /// Whether the case's lines were screened (it has a system and lines): whether
     /// [`CaseSafety::lines`] is not empty, without making them.
     pub fn screened(&self) -> bool {
-        self.inputs.as_ref().is_some_and(|i| !i.lines.is_empty())
+        match self.lines.get() {
+            Some(lines) => !lines.is_empty(),
+            None => self.inputs.as_ref().is_some_and(|i| !i.lines.is_empty()),
+        }
     }
 
     /// Each line's screen in this case (empty when the case has no system).
@@ -236,10 +240,22 @@ pub fn screen(
     candidates: &[CandidateCurves],
     recommended: Option<&str>,
 ) -> Safety {
+    let keep = design.cases.len() <= crate::analysis::SUMMARY_CASES;
+    screen_keeping(design, cases, candidates, recommended, keep)
+}
+
+/// [`screen`], keeping every case's line screens (`keep`) or the inputs to make them
+/// again.
+fn screen_keeping(
+    design: &Design,
+    cases: &[CaseResult],
+    candidates: &[CandidateCurves],
+    recommended: Option<&str>,
+    keep: bool,
+) -> Safety {
     let k = screened_candidate(design, cases, recommended);
     let shutoff = k.and_then(|k| shutoff(design, cases, &candidates[k], k));
     let shared_shutoff = shutoff.clone().map(Arc::new);
-    let keep = design.cases.len() <= crate::analysis::SUMMARY_CASES;
     // Each case is screened on its own: on every core (`concurrent::map`, in order).
     let pairs: Vec<_> = design.cases.iter().zip(cases).collect();
     let cases_out = super::concurrent::map(&pairs, |&(case, result)| {
@@ -270,7 +286,7 @@ pub fn screen(
                 true => lines.into(),
                 false => Default::default(),
             },
-            inputs: Some(Arc::new(inputs)),
+            inputs: (!keep).then(|| Arc::new(inputs)),
             checks,
             notes,
         }
@@ -635,20 +651,25 @@ pub fn annotate_selection(selection: &mut super::selection::Selection, safety: &
 
 #[cfg(test)]
 mod tests {
-    /// Every demo (a chain, a station with a network, a closed loop screened at both
+    use crate::analysis::Analysis;
+    use crate::model::Design;
+
+    /// Every demo (chains, a station with a network, a closed loop screened at both
     /// reference pressures, a well field) analysed, with its CSV curve files.
-    fn demos() -> Vec<(String, crate::analysis::Analysis)> {
+    fn demos() -> Vec<(String, Design, Analysis)> {
         let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples-demo");
         let mut files = std::collections::BTreeMap::new();
         let mut designs = Vec::new();
         for entry in std::fs::read_dir(&dir).expect("demo folder") {
             let path = entry.expect("entry").path();
-            let text = std::fs::read_to_string(&path).expect("demo file");
             let name = path
                 .file_name()
                 .expect("name")
                 .to_string_lossy()
                 .into_owned();
+            let Ok(text) = std::fs::read_to_string(&path) else {
+                continue;
+            };
             match path.extension().and_then(|e| e.to_str()) {
                 Some("duty") => designs.push((name, text)),
                 _ => drop(files.insert(name, text)),
@@ -660,55 +681,56 @@ mod tests {
             .map(|(name, text)| {
                 let checked = crate::check(&text, &files);
                 let design = checked.design.unwrap_or_else(|| panic!("{name} checks"));
-                (name, crate::analysis::analyse(&design))
+                let analysis = crate::analysis::analyse(&design);
+                (name, design, analysis)
             })
             .collect()
     }
 
     #[test]
-    fn lines_made_again_from_the_inputs_are_the_screens_kept() {
-        let mut compared = 0;
-        for (name, analysis) in demos() {
+    fn a_design_of_few_cases_keeps_its_line_screens() {
+        for (name, _, analysis) in demos() {
             for c in &analysis.safety.cases {
-                let Some(inputs) = &c.inputs else { continue };
-                // The demos have few cases, so the screen kept its lines.
-                assert!(c.lines.get().is_some(), "{name} {}: lines kept", c.case);
-                let (lines, checks, notes) = inputs.line_screens();
-                assert_eq!(
-                    format!("{lines:?}"),
-                    format!("{:?}", c.lines()),
-                    "{name} {}",
-                    c.case
-                );
-                assert_eq!(checks, c.checks, "{name} {}", c.case);
-                assert_eq!(notes, c.notes, "{name} {}", c.case);
+                assert!(c.inputs.is_none(), "{name} {}: no inputs kept", c.case);
                 assert_eq!(c.screened(), !c.lines().is_empty(), "{name} {}", c.case);
-                compared += 1;
             }
         }
-        // The chain demos, the network station and the closed loop have screens.
-        assert!(compared >= 10, "{compared} case screens compared");
     }
 
     #[test]
-    fn a_screen_not_kept_is_made_when_read() {
-        let (_, analysis) = demos()
-            .into_iter()
-            .find(|(n, _)| n.starts_with("wrenfield"))
-            .expect("closed-loop demo");
-        let both = analysis
-            .safety
-            .cases
-            .iter()
-            .filter(|c| c.inputs.as_ref().is_some_and(|i| i.raised.is_some()));
-        assert!(both.count() > 0, "screened at both reference pressures");
-        for kept in &analysis.safety.cases {
-            let mut remade = kept.clone();
-            remade.lines = Default::default();
-            assert_eq!(
-                format!("{:?}", remade.lines()),
-                format!("{:?}", kept.lines())
-            );
+    fn line_screens_made_again_are_those_kept() {
+        let mut compared = 0;
+        let mut both_pressures = 0;
+        for (name, design, a) in demos() {
+            let recommended = a.selection.recommended.as_deref();
+            let kept = super::screen_keeping(&design, &a.cases, &a.candidates, recommended, true);
+            let again = super::screen_keeping(&design, &a.cases, &a.candidates, recommended, false);
+            for (k, g) in kept.cases.iter().zip(&again.cases) {
+                assert!(
+                    g.lines.get().is_none(),
+                    "{name} {}: not made before asked",
+                    g.case
+                );
+                assert_eq!(k.screened(), g.screened(), "{name} {}", k.case);
+                assert_eq!(
+                    format!("{:?}", k.lines()),
+                    format!("{:?}", g.lines()),
+                    "{name} {}",
+                    k.case
+                );
+                assert_eq!(k.checks, g.checks, "{name} {}", k.case);
+                assert_eq!(k.notes, g.notes, "{name} {}", k.case);
+                compared += usize::from(k.screened());
+                both_pressures +=
+                    usize::from(g.inputs.as_ref().is_some_and(|i| i.raised.is_some()));
+            }
         }
+        // The chain demos, the network station and the closed loop have screens; the
+        // closed loop is screened at both reference pressures.
+        assert!(compared >= 10, "{compared} case screens compared");
+        assert!(
+            both_pressures > 0,
+            "a closed loop at both reference pressures"
+        );
     }
 }
