@@ -75,14 +75,14 @@ pub fn stations(sys: &CaseSystem, line: &str, profile: &LineProfile) -> Vec<Stat
 /// Energy head at the upstream end of every case segment when the set carries `q` and
 /// each pump `qp` (m³/s; station piping carries `qp`), m (gauge datum: barometric
 /// pressure is zero), with each segment's (wall, minor) loss.
-fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
+fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Result<Vec<(f64, f64, f64)>, String> {
     // A well's surface is its pumping level at the flow.
     let source = sys
         .source_level
         .lowered(Head::new(sys.drawdown(q)))
         .raised(sys.source_gauge().head(sys.fluid.specific_weight()))
         .m();
-    let destination = discharge_end_head(sys, q);
+    let destination = discharge_end_head(sys, q)?;
     let losses: Vec<(f64, f64)> = sys
         .segments
         .iter()
@@ -110,26 +110,31 @@ fn segment_energy(sys: &CaseSystem, q: f64, qp: f64) -> Vec<(f64, f64, f64)> {
             e -= w + m;
         }
     }
-    out
+    Ok(out)
 }
 
 /// Energy head at the far end of the discharge lines at station flow `q`, m (gauge
 /// datum): the destination surface's head for a chain; for a network (open or a closed
 /// loop), the network's entry node head at that flow. The network's losses and
 /// delivery pressures lie between that node and the tanks beyond it, so a tank's head
-/// would understate every discharge pressure by them (unconservative for ratings).
-fn discharge_end_head(sys: &CaseSystem, q: f64) -> f64 {
-    let surface = sys.destination_grade().m();
+/// would understate every discharge pressure by them (unconservative for ratings), so a
+/// network that cannot be solved at `q` is an error (why, in words), not the tank's head.
+fn discharge_end_head(sys: &CaseSystem, q: f64) -> Result<f64, String> {
     match &sys.network {
-        Some((net, _)) => net.entry_head(q).unwrap_or(surface),
-        None => surface,
+        Some((net, _)) => net.entry_head(q).map_err(|e| e.to_string()),
+        None => Ok(sys.destination_grade().m()),
     }
 }
 
 /// Hydraulic grade (m) at each station when the set carries `q` and each pump `qp`
-/// (m³/s).
-pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64, qp: f64) -> Vec<f64> {
-    let energy = segment_energy(sys, q, qp);
+/// (m³/s); `Err` with why when the network beyond the station cannot be solved at `q`.
+pub fn grade_at(
+    sys: &CaseSystem,
+    stations: &[Station],
+    q: f64,
+    qp: f64,
+) -> Result<Vec<f64>, String> {
+    let energy = segment_energy(sys, q, qp)?;
     let mut starts = vec![0.0; sys.segments.len()];
     // Chainage where each segment starts (the first non-"before" station of it).
     let mut seen = vec![false; sys.segments.len()];
@@ -139,7 +144,7 @@ pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64, qp: f64) -> Vec<
             starts[st.segment] = st.chainage;
         }
     }
-    stations
+    let grade = stations
         .iter()
         .map(|st| {
             let seg = &sys.segments[st.segment];
@@ -157,7 +162,8 @@ pub fn grade_at(sys: &CaseSystem, stations: &[Station], q: f64, qp: f64) -> Vec<
             };
             e0 - minor - wall * frac - hv
         })
-        .collect()
+        .collect();
+    Ok(grade)
 }
 
 /// The static grade with the pumps stopped, m: the source surface's head on the

@@ -435,14 +435,23 @@ fn case_screen(
     }
     let screens: Vec<LineSafety> = lines
         .iter()
-        .map(|line| line_screen(line, sys, flow, shutoff, temperature, k, &mut notes))
+        .map(|line| {
+            let (screen, unsolved) = line_screen(line, sys, flow, shutoff, temperature, k, &mut notes);
+            if let Some(why) = unsolved {
+                notes.push(format!("case {name}: line {}: the network beyond the station could not be solved at the duty flow ({why}); this line's pressures at duty are not screened", line.name));
+            }
+            screen
+        })
         .collect();
     let checks = checks::line_checks(&screens);
     (screens, checks, notes)
 }
 
 /// The screen of one line; `flow` is the set's and each pump's flow at the duty (m³/s),
-/// station piping (`serves = each_pump`) carrying the latter.
+/// station piping (`serves = each_pump`) carrying the latter. With the screen, why the
+/// network beyond the station could not be solved at the duty, if it could not (then
+/// the line has no pressures at duty: a tank's level in place of the network's entry
+/// head would understate them).
 fn line_screen(
     line: &Line,
     sys: &CaseSystem,
@@ -451,7 +460,7 @@ fn line_screen(
     temperature: Option<f64>,
     k: Option<f64>,
     notes: &mut Vec<String>,
-) -> LineSafety {
+) -> (LineSafety, Option<String>) {
     let rho = sys.fluid.density;
     // Discharge lines end at the destination surface, or at a network's entry node.
     let (discharge_end, end_name) = match &sys.network {
@@ -468,7 +477,11 @@ fn line_screen(
     let profile = geometry::line_profile(line, ends, end_name);
     notes.extend(profile.warning.clone());
     let stations = grade::stations(sys, &line.name, &profile);
-    let grade_duty = flow.map(|(q, qp)| grade::grade_at(sys, &stations, q, qp));
+    let (grade_duty, unsolved) = match flow.map(|(q, qp)| grade::grade_at(sys, &stations, q, qp)) {
+        Some(Ok(g)) => (Some(g), None),
+        Some(Err(why)) => (None, Some(why)),
+        None => (None, None),
+    };
     let line_flow = flow.map(|(q, qp)| if line.per_pump { qp } else { q });
     let pressure_duty = grade_duty
         .as_ref()
@@ -533,7 +546,7 @@ fn line_screen(
         _ => None,
     };
     let high_points = high_points(&stations);
-    LineSafety {
+    let screen = LineSafety {
         name: line.name.clone(),
         side: line.side,
         profile_source: profile.source.clone(),
@@ -566,7 +579,8 @@ fn line_screen(
         velocities,
         surge,
         high_points,
-    }
+    };
+    (screen, unsolved)
 }
 
 /// A per-segment rating at each station; at a joint (the same chainage as the
@@ -695,6 +709,61 @@ mod tests {
                 assert_eq!(c.screened(), !c.lines().is_empty(), "{name} {}", c.case);
             }
         }
+    }
+
+    #[test]
+    fn a_network_unsolved_at_the_duty_leaves_the_line_unscreened_and_says_so() {
+        use crate::analysis::network::NodeKind;
+        let (_, design, a) = demos()
+            .into_iter()
+            .find(|(n, _, _)| n.starts_with("hillside"))
+            .expect("network demo");
+        let case = &design.cases[0];
+        let mut sys = (**a.cases[0].system.as_ref().expect("system")).clone();
+        let (net, _) = sys.network.as_mut().expect("a station network");
+        // A demand that is not a number: no solve can balance it.
+        for node in &mut net.network.nodes {
+            if let NodeKind::Junction { demand } = &mut node.kind {
+                *demand = f64::NAN;
+            }
+        }
+        let line = case
+            .scenario
+            .lines
+            .iter()
+            .find(|l| l.side == crate::model::Side::Discharge)
+            .expect("discharge line");
+        let d = a.cases[0]
+            .pumps
+            .iter()
+            .find_map(|p| p.duty.as_ref())
+            .expect("a duty");
+        let mut notes = Vec::new();
+        let (screen, unsolved) = super::line_screen(
+            line,
+            &sys,
+            Some((d.flow, d.flow_per_pump)),
+            None,
+            None,
+            None,
+            &mut notes,
+        );
+        assert!(unsolved.is_some(), "the solve failed");
+        assert!(screen.grade_duty.is_none() && screen.pressure_duty.is_none());
+        // The whole case: the failure is a note that names the case and the line.
+        let (_, _, notes) = super::case_screen(
+            &case.scenario.lines,
+            &case.scenario.fluid,
+            &sys,
+            Some((d.flow, d.flow_per_pump)),
+            None,
+            &case.name,
+        );
+        let said = format!(
+            "case {}: line {}: the network beyond the station could not be solved at the duty flow",
+            case.name, line.name
+        );
+        assert!(notes.iter().any(|n| n.starts_with(&said)), "{notes:?}");
     }
 
     #[test]
