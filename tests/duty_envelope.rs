@@ -278,7 +278,7 @@ fn malformed_ranges_are_refused_with_bad_uncertainty() {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig { cases: 12, ..ProptestConfig::default() })]
+    #![proptest_config(ProptestConfig { cases: std::env::var("DUTYLINE_PROPTEST_CASES").ok().and_then(|n| n.parse().ok()).unwrap_or(12), ..ProptestConfig::default() })]
 
     /// For a design monotone in each input (levels, stated losses, roughness, the
     /// pump's tolerance), every quasi-random sample lies within the corners' bounds.

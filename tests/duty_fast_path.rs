@@ -176,7 +176,7 @@ fn compare(c: &Case, reach_factor: f64) -> Result<usize, String> {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig { cases: 160, ..ProptestConfig::default() })]
+    #![proptest_config(ProptestConfig { cases: std::env::var("DUTYLINE_PROPTEST_CASES").ok().and_then(|n| n.parse().ok()).unwrap_or(160), ..ProptestConfig::default() })]
 
     #[test]
     fn fast_duty_agrees_with_the_exact_solve(c in case_strategy(), reach in 1.0..2.5f64) {

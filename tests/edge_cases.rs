@@ -619,7 +619,7 @@ mod random_systems {
     }
 
     proptest! {
-        #![proptest_config(ProptestConfig { cases: 48, .. ProptestConfig::default() })]
+        #![proptest_config(ProptestConfig { cases: std::env::var("DUTYLINE_PROPTEST_CASES").ok().and_then(|n| n.parse().ok()).unwrap_or(48), ..ProptestConfig::default() })]
         #[test]
         fn analysis_and_results_stay_finite(
             levels in (0.0f64..20.0, -10.0f64..80.0, 0.0f64..20.0),
