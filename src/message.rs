@@ -201,6 +201,52 @@ fn plain_into(parts: &[Part], out: &mut String) -> bool {
     })
 }
 
+/// A message, or how to make it when it is read: a check of one of thousands of cases
+/// holds the few numbers its words need instead of the words, which most outputs never
+/// print (the text of a summarised design prints the governing cases' only). Made
+/// again at every read, from the same numbers, so the same every time.
+#[derive(Clone)]
+pub enum Words {
+    /// The message itself.
+    Made(Message),
+    /// The function that makes it (a closure over the numbers it needs).
+    Later(std::sync::Arc<dyn Fn() -> Message + Send + Sync>),
+}
+
+impl Words {
+    /// Words made when read from `make`.
+    pub fn later(make: impl Fn() -> Message + Send + Sync + 'static) -> Words {
+        Words::Later(std::sync::Arc::new(make))
+    }
+
+    /// The message (made now for [`Words::Later`]).
+    pub fn get(&self) -> Cow<'_, Message> {
+        match self {
+            Words::Made(m) => Cow::Borrowed(m),
+            Words::Later(make) => Cow::Owned(make()),
+        }
+    }
+}
+
+impl From<Message> for Words {
+    fn from(message: Message) -> Words {
+        Words::Made(message)
+    }
+}
+
+impl std::fmt::Debug for Words {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        self.get().fmt(f)
+    }
+}
+
+/// Words are equal when their messages are, however they are held.
+impl PartialEq for Words {
+    fn eq(&self, other: &Words) -> bool {
+        self.get() == other.get()
+    }
+}
+
 impl From<&'static str> for Message {
     fn from(text: &'static str) -> Message {
         Message::text(text)

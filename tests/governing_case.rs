@@ -114,7 +114,7 @@ fn headroom_is_the_speed_needed_against_the_maximum() {
         .iter()
         .find(|c| c.id == "headroom")
         .expect("check");
-    assert_eq!(c.status, Status::Pass, "{}", said(&a, &c.message));
+    assert_eq!(c.status, Status::Pass, "{}", said(&a, &c.message.get()));
 }
 
 #[test]
@@ -129,7 +129,7 @@ fn a_requirement_beyond_the_maximum_speed_fails_the_headroom() {
         .iter()
         .find(|c| c.id == "headroom")
         .expect("check");
-    assert_eq!(c.status, Status::Fail, "{}", said(&a, &c.message));
+    assert_eq!(c.status, Status::Fail, "{}", said(&a, &c.message.get()));
     // The pump runs at its maximum speed, which is the published 1480 rpm.
     assert!((peak.speed_rpm - 1480.0).abs() < 1e-9);
 }

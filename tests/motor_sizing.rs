@@ -99,15 +99,16 @@ fn a_duty_needing_5_64_hp_gets_7_5_hp_not_5_hp() {
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Pass);
     assert!(
-        said(&a, &c.message).contains("margin only"),
+        said(&a, &c.message.get()).contains("margin only"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
     // A US package: hp, no kW, in the message.
     assert!(
-        said(&a, &c.message).contains("5.64 hp") && !said(&a, &c.message).contains("kW"),
+        said(&a, &c.message.get()).contains("5.64 hp")
+            && !said(&a, &c.message.get()).contains("kW"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
 }
 
@@ -155,9 +156,9 @@ fn a_stated_nameplate_below_the_duty_fails() {
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Fail);
     assert!(
-        said(&a, &c.message).contains("above the nameplate"),
+        said(&a, &c.message.get()).contains("above the nameplate"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
     assert!(a.selection.recommended.is_none());
 }
@@ -187,14 +188,15 @@ fn run_out_above_the_nameplate_warns_with_case_and_flow() {
     let c = motor_check(pump(&a, 0));
     assert_eq!(c.status, Status::Warn);
     assert!(
-        said(&a, &c.message).contains("400 gpm") && said(&a, &c.message).contains("case normal"),
+        said(&a, &c.message.get()).contains("400 gpm")
+            && said(&a, &c.message.get()).contains("case normal"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
     assert!(
-        said(&a, &c.message).contains("overloads"),
+        said(&a, &c.message.get()).contains("overloads"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
 }
 
@@ -222,11 +224,11 @@ fn run_out_above_nameplate_times_service_factor_fails_and_selection_is_non_overl
     );
     let (_, a) = analyse(&src);
     let c = motor_check(pump(&a, 0));
-    assert_eq!(c.status, Status::Fail, "{}", said(&a, &c.message));
+    assert_eq!(c.status, Status::Fail, "{}", said(&a, &c.message.get()));
     assert!(
-        said(&a, &c.message).contains("service factor"),
+        said(&a, &c.message.get()).contains("service factor"),
         "{}",
-        said(&a, &c.message)
+        said(&a, &c.message.get())
     );
     assert!(a.selection.recommended.is_none());
 }
@@ -243,7 +245,7 @@ fn on_a_variable_frequency_drive_the_service_factor_is_one() {
     let m = a.motor_sizing[0].as_ref().expect("motor");
     assert!(m.variable_speed);
     assert_eq!(m.choice.service_factor, 1.0);
-    assert!(said(&a, &motor_check(pump(&a, 0)).message).contains("taken as 1.0"));
+    assert!(said(&a, &motor_check(pump(&a, 0)).message.get()).contains("taken as 1.0"));
     // Input power counts the drive: 97 % by default (common practice).
     let d = pump(&a, 0).duty.as_ref().expect("duty");
     assert_eq!(d.drive_efficiency, 0.97);

@@ -150,7 +150,7 @@ fn statuses(a: &Analysis, id: &str) -> Vec<(String, &'static str)> {
         .flat_map(|c| &c.pumps)
         .flat_map(|p| &p.checks)
         .filter(|k| k.id.as_str() == id)
-        .map(|k| (said(a, &k.message), k.status.keyword()))
+        .map(|k| (said(a, &k.message.get()), k.status.keyword()))
         .collect()
 }
 

@@ -83,7 +83,7 @@ fn one_pump_alone_runs_out_against_the_lowest_head_case() {
         alone.check.status,
         Status::Pass,
         "{}",
-        said(&a, &alone.check.message)
+        said(&a, &alone.check.message.get())
     );
     // The check sits in the case it was evaluated against.
     let in_case = a.cases[1].pumps[0]
@@ -93,9 +93,9 @@ fn one_pump_alone_runs_out_against_the_lowest_head_case() {
         .expect("check in high_suction");
     assert_eq!(in_case.status, Status::Pass);
     assert!(
-        said(&a, &in_case.message).contains("377 gpm"),
+        said(&a, &in_case.message.get()).contains("377 gpm"),
         "{}",
-        said(&a, &in_case.message)
+        said(&a, &in_case.message.get())
     );
     assert!(a.cases[0].pumps[0]
         .checks
@@ -113,9 +113,9 @@ fn one_pump_alone_beyond_the_published_curve_fails() {
     assert!(alone.flow.is_none());
     assert_eq!(alone.check.status, Status::Fail);
     assert!(
-        said(&a, &alone.check.message).contains("no published data there"),
+        said(&a, &alone.check.message.get()).contains("no published data there"),
         "{}",
-        said(&a, &alone.check.message)
+        said(&a, &alone.check.message.get())
     );
     assert!(a.selection.recommended.is_none());
 }

@@ -8,7 +8,7 @@
 
 use super::duty::{Duty, Headroom};
 use super::limits::{self, CheckId, Limit, Source};
-use crate::message::{self, flow, head, Kind, Message, Part};
+use crate::message::{self, flow, head, Kind, Message, Part, Words};
 use crate::model::{Case, Design, Metric, PumpCandidate, ReportUnits, Requirement};
 use crate::numbers::Fixed;
 
@@ -45,8 +45,9 @@ pub struct Check {
     pub value: Option<f64>,
     /// The limit it is compared with, in the same unit.
     pub limit: Option<f64>,
-    /// Plain language with typed quantities (printed in report units by the outputs).
-    pub message: Message,
+    /// Plain language with typed quantities (printed in report units by the outputs);
+    /// for the checks every duty has, made when read ([`Words::Later`]).
+    pub message: Words,
     /// Where the limit comes from (printed by [`Check::source`]).
     pub origin: Source,
     /// What the check is about when an id has several per duty: the velocity's side
@@ -73,8 +74,29 @@ impl Check {
                 // Kept for the whole analysis: no room left from its growth.
                 let mut m: Message = message.into();
                 m.parts.shrink_to_fit();
-                m
+                Words::Made(m)
             },
+            origin,
+            subject: None,
+        }
+    }
+
+    /// A check whose words are made when read, by `words` from the numbers it holds
+    /// (see [`Words`]); otherwise as [`Check::typed`].
+    pub fn worded_later(
+        id: CheckId,
+        status: Status,
+        value: Option<f64>,
+        limit: Option<f64>,
+        words: impl Fn() -> Message + Send + Sync + 'static,
+        origin: Source,
+    ) -> Check {
+        Check {
+            id,
+            status,
+            value,
+            limit,
+            message: Words::later(words),
             origin,
             subject: None,
         }
@@ -265,15 +287,17 @@ fn operating_region(d: &Duty) -> Check {
     } else {
         limit.source
     };
-    Check::typed(
+    Check::worded_later(
         CheckId::OperatingRegion,
         status,
         Some(r),
         Some(limit.value),
-        crate::message![
-            format!("flow per pump is {} % of BEP flow", Fixed(100.0 * r, 0)),
-            REGION_BANDS.as_str()
-        ],
+        move || {
+            crate::message![
+                format!("flow per pump is {} % of BEP flow", Fixed(100.0 * r, 0)),
+                REGION_BANDS.as_str()
+            ]
+        },
         origin,
     )
 }
@@ -308,7 +332,28 @@ pub fn npsh_margin(available: f64, required: Option<f64>, npsh: NpshLimits) -> C
     } else {
         Status::Pass
     };
-    let limit_ratio = Part::RatioAgainst(ratio.value, r);
+    let origin = if status == Status::Warn {
+        npsh.excess.source
+    } else {
+        ratio.source
+    };
+    let limit = ratio.value;
+    Check::worded_later(
+        CheckId::NpshMargin,
+        status,
+        Some(r),
+        Some(limit),
+        move || npsh_margin_words(available, nr, limit, min_excess),
+        origin,
+    )
+}
+
+/// The words of the NPSH-margin check: NPSH available and required (m), the limit
+/// ratio and the least excess (m).
+fn npsh_margin_words(available: f64, nr: f64, ratio: f64, min_excess: f64) -> Message {
+    let r = available / nr;
+    let excess = available - nr;
+    let limit_ratio = Part::RatioAgainst(ratio, r);
     let mut msg = if available <= 0.0 {
         crate::message![
             "NPSH available is ",
@@ -324,7 +369,7 @@ pub fn npsh_margin(available: f64, required: Option<f64>, npsh: NpshLimits) -> C
             "NPSH available ",
             head(available),
             " is ",
-            Part::RatioAgainst(r, ratio.value),
+            Part::RatioAgainst(r, ratio),
             " times the NPSH required ",
             head(nr),
             " (limit ",
@@ -339,19 +384,7 @@ pub fn npsh_margin(available: f64, required: Option<f64>, npsh: NpshLimits) -> C
     if available <= nr {
         msg.push_str(": the pump will cavitate");
     }
-    let origin = if status == Status::Warn {
-        npsh.excess.source
-    } else {
-        ratio.source
-    };
-    Check::typed(
-        CheckId::NpshMargin,
-        status,
-        Some(r),
-        Some(ratio.value),
-        msg,
-        origin,
-    )
+    msg
 }
 
 fn velocity_checks(d: &Duty, units: ReportUnits) -> Vec<Check> {
@@ -376,22 +409,25 @@ fn velocity_checks(d: &Duty, units: ReportUnits) -> Vec<Check> {
         } else {
             (Status::Pass, "within the typical range", hi)
         };
-        let speed = |si, other| message::against(Kind::Velocity, si, other);
+        let words = move || {
+            let speed = |si, other| message::against(Kind::Velocity, si, other);
+            crate::message![
+                format!("{label} velocity at the pump "),
+                speed(v, bound),
+                format!(", {note} ("),
+                speed(lo, v),
+                " to ",
+                speed(hi, v),
+                ")"
+            ]
+        };
         out.push(
-            Check::typed(
+            Check::worded_later(
                 CheckId::Velocity,
                 status,
                 Some(v),
                 Some(hi),
-                crate::message![
-                    format!("{label} velocity at the pump "),
-                    speed(v, bound),
-                    format!(", {note} ("),
-                    speed(lo, v),
-                    " to ",
-                    speed(hi, v),
-                    ")"
-                ],
+                words,
                 limits::SUCTION_VELOCITY_LOW.for_units(units).source,
             )
             .about(label),

@@ -128,7 +128,8 @@ fn evaluate(
             format!("{prefix}: it runs out beyond the end of the published curve at "),
             flow(end),
             ": no published data there"
-        ];
+        ]
+        .into();
         return Some((i, alone));
     };
     let shaft = duty::arrangement_power(&scaled, sys.fluid.density, 1.0, 1.0, q);
@@ -150,7 +151,7 @@ fn evaluate(
         }
     }
     msg.push("; ");
-    msg.append(&npsh.message);
+    msg.append(&npsh.message.get());
     alone.flow = Some(q);
     alone.head = Some(h);
     alone.shaft_power = shaft;

@@ -413,7 +413,12 @@ fn about_well(c: Check, well: &str) -> Check {
         None => well.to_string(),
     };
     let mut c = c.about(subject);
-    c.message = c.message.prefixed(format!("well pump {well}: "));
+    c.message = c
+        .message
+        .get()
+        .into_owned()
+        .prefixed(format!("well pump {well}: "))
+        .into();
     c
 }
 

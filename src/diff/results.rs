@@ -307,7 +307,7 @@ fn check_changes(
                 after: status(a),
                 message: a
                     .or(b)
-                    .map(|c| units.render(&c.message))
+                    .map(|c| units.render(&c.message.get()))
                     .unwrap_or_default(),
             });
         }

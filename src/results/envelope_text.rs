@@ -75,7 +75,7 @@ pub fn envelope(o: &mut String, design: &Design, analysis: &Analysis) {
                     w.nominal.status.keyword(),
                     w.worst.status.keyword(),
                     w.corner,
-                    u.render(&w.worst.message)
+                    u.render(&w.worst.message.get())
                 );
             }
         }

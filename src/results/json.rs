@@ -551,7 +551,7 @@ pub(super) fn check(c: &Check, units: Units) -> CheckOut<'_> {
         status: c.status.keyword(),
         value: c.value.and_then(finite),
         limit: c.limit.and_then(finite),
-        message: units.render(&c.message),
+        message: units.render(&c.message.get()),
         source: sources::index(&c.source()),
         subject: c.subject.as_deref(),
     }

@@ -54,7 +54,7 @@ pub(super) fn operation(o: &mut String, design: &Design, analysis: &Analysis) {
                 "  check {} {}: {}",
                 c.id,
                 c.status.keyword(),
-                u.render(&c.message)
+                u.render(&c.message.get())
             );
         }
         if let Some(l) = &op.lcc {

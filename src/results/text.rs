@@ -319,7 +319,7 @@ fn pump(o: &mut String, u: &Units, r: &PumpResult, sys: &CaseSystem) {
             "    check {} {}: {}",
             ch.id,
             ch.status.keyword(),
-            u.render(&ch.message)
+            u.render(&ch.message.get())
         );
     }
     for w in &r.warnings {
@@ -400,7 +400,7 @@ fn safety(o: &mut String, analysis: &Analysis, u: &Units) {
                 c.case,
                 k.id,
                 k.status.keyword(),
-                u.render(&k.message)
+                u.render(&k.message.get())
             );
         }
     }
@@ -551,7 +551,7 @@ fn candidates(o: &mut String, design: &Design, analysis: &Analysis) {
                 o,
                 "  one pump alone {}: {}",
                 alone.check.status.keyword(),
-                u.render(&alone.check.message)
+                u.render(&alone.check.message.get())
             );
         }
         if analysis.cases.len() > SUMMARY_CASES {
@@ -784,7 +784,7 @@ fn safety_tally(o: &mut String, analysis: &Analysis, u: &Units) {
             if let Some(x) = seen.iter_mut().find(|x| x.0 == id && x.1 == k.status) {
                 x.2 += 1;
             } else {
-                let first = format!("first {}: {}", c.case, u.render(&k.message));
+                let first = format!("first {}: {}", c.case, u.render(&k.message.get()));
                 seen.push((id, k.status, 1, first));
             }
         }

@@ -36,7 +36,7 @@ pub(super) fn chapter(
                     p.name.clone(),
                     check_name(&check.id.to_string()),
                     mark.to_string(),
-                    super::wording::plain(&units.render(&check.message)),
+                    super::wording::plain(&units.render(&check.message.get())),
                     super::sources::publication(&check.source(), units),
                 ]);
             }

@@ -243,7 +243,7 @@ fn checks_table(blocks: &mut Vec<Block>, e: &Envelopes, i: usize, name: &str, un
                 what.into(),
                 w.nominal.status.keyword().into(),
                 w.worst.status.keyword().into(),
-                format!("{}: {}", w.corner, units.render(&w.worst.message)),
+                format!("{}: {}", w.corner, units.render(&w.worst.message.get())),
             ]);
         }
     }

@@ -431,7 +431,7 @@ fn profile_checks(blocks: &mut Vec<Block>, op: &CandidateOperation, units: &Unit
                 vec![
                     c.id.as_str().to_string(),
                     c.status.keyword().to_uppercase(),
-                    super::wording::plain(&units.render(&c.message)),
+                    super::wording::plain(&units.render(&c.message.get())),
                     c.source(),
                 ]
             })

@@ -523,7 +523,7 @@ fn checks_table(blocks: &mut Vec<Block>, s: &Safety, units: &Units) {
                     Status::Fail => "FAIL",
                 }
                 .to_string(),
-                super::wording::plain(&units.render(&check.message)),
+                super::wording::plain(&units.render(&check.message.get())),
                 super::sources::publication(&check.source(), units),
             ]);
         }

@@ -433,7 +433,11 @@ fn checks_tally(blocks: &mut Vec<Block>, analysis: &Analysis, units: &Units) {
                 counts[rank] += 1;
                 let worse = worst.as_ref().is_none_or(|(s, _, _)| rank > *s as usize);
                 if rank > 0 && worse {
-                    *worst = Some((check.status, c.name.as_str(), units.render(&check.message)));
+                    *worst = Some((
+                        check.status,
+                        c.name.as_str(),
+                        units.render(&check.message.get()),
+                    ));
                 }
             }
         }

@@ -233,7 +233,7 @@ pub(super) fn one_alone(a: &OneAlone, units: Units) -> OneAloneOut<'_> {
             _ => None,
         },
         status: a.check.status.keyword(),
-        message: units.render(&a.check.message),
+        message: units.render(&a.check.message.get()),
     }
 }
 

@@ -540,7 +540,7 @@ pub(super) fn one_alone(
         ),
         (
             "Finding".into(),
-            super::super::wording::plain(&units.render(&alone.check.message)),
+            super::super::wording::plain(&units.render(&alone.check.message.get())),
         ),
     ]));
 }
