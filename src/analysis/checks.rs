@@ -52,7 +52,7 @@ pub struct Check {
     pub origin: Source,
     /// What the check is about when an id has several per duty: the velocity's side
     /// (`suction`, `discharge`) or the requirement as written in the design.
-    pub subject: Option<String>,
+    pub subject: Option<std::borrow::Cow<'static, str>>,
 }
 
 impl Check {
@@ -109,7 +109,7 @@ impl Check {
     }
 
     /// The same check about a subject (see [`Check::subject`]).
-    pub fn about(mut self, subject: impl Into<String>) -> Check {
+    pub fn about(mut self, subject: impl Into<std::borrow::Cow<'static, str>>) -> Check {
         self.subject = Some(subject.into());
         self
     }
