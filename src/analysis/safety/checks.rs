@@ -10,20 +10,33 @@ use crate::analysis::limits::{self, CheckId, Source};
 use crate::analysis::system::G;
 use crate::message::{self, head, Kind, Message};
 use crate::model::Side;
+use std::sync::Arc;
 
 /// The sentence every failing surge screen ends with.
 pub const TRANSIENT_ADVICE: &str =
     "a screening estimate: a full transient (water-hammer) analysis is needed";
 
-/// Where a station is ("at chainage 805 ft, elevation 1352.0 ft" in report units).
-fn place(l: &LineSafety, i: usize) -> Message {
+/// Where station `i` is: its chainage and elevation, m, for [`place_words`].
+fn place(l: &LineSafety, i: usize) -> (f64, f64) {
     let st = &l.stations[i];
+    (st.chainage, st.elevation)
+}
+
+/// Where a station is ("at chainage 805 ft, elevation 1352.0 ft" in report units), from
+/// its chainage and elevation (m).
+fn place_words((chainage, elevation): (f64, f64)) -> Message {
     crate::message![
         "at chainage ",
-        message::value(Kind::Length, st.chainage),
+        message::value(Kind::Length, chainage),
         ", elevation ",
-        message::value(Kind::Elevation, st.elevation)
+        message::value(Kind::Elevation, elevation)
     ]
+}
+
+/// A line's name shared by the words of its checks (made when read, see
+/// [`crate::message::Words`]).
+fn shared_name(l: &LineSafety) -> Arc<str> {
+    Arc::from(l.name.as_str())
 }
 
 /// A pressure rating or screened pressure (Pa) that must not read like `other`.
@@ -53,7 +66,7 @@ pub fn line_checks(lines: &[LineSafety]) -> Vec<Check> {
 }
 
 /// Pressure against the working rating along a line: the station nearest its rating.
-fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &str) -> Option<Check> {
+fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &'static str) -> Option<Check> {
     let rated: Vec<(usize, f64, f64)> = p
         .iter()
         .zip(&l.rating_at)
@@ -65,19 +78,20 @@ fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &str) -> Option<Ch
     );
     if rated.is_empty() {
         let (pmax, i) = max_at(p)?;
+        let (name, at) = (shared_name(l), place(l, i));
         return Some(
-            Check::typed(
+            Check::worded_later(
                 id,
                 Status::Warn,
                 Some(pmax),
                 None,
-                {
+                move || {
                     let mut m = crate::message![
-                        format!("line {}: highest {what} pressure ", l.name),
+                        format!("line {name}: highest {what} pressure "),
                         message::value(Kind::Rating, pmax),
                         " "
                     ];
-                    m.append(&place(l, i));
+                    m.append(&place_words(at));
                     m.push("; no segment has a rating (give `rating = ...` from the manufacturer)");
                     m
                 },
@@ -97,21 +111,22 @@ fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &str) -> Option<Ch
     } else {
         ""
     };
+    let (name, at) = (shared_name(l), place(l, i));
     Some(
-        Check::typed(
+        Check::worded_later(
             id,
             status,
             Some(pv),
             Some(r),
-            {
+            move || {
                 let mut m = crate::message![
-                    format!("line {}: {what} pressure ", l.name),
+                    format!("line {name}: {what} pressure "),
                     rating_against(pv, r),
                     " against the rating ",
                     rating_against(r, pv),
                     " "
                 ];
-                m.append(&place(l, i));
+                m.append(&place_words(at));
                 m.push(note);
                 m
             },
@@ -128,12 +143,14 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
         return Vec::new();
     };
     let mut out = Vec::new();
+    let (name, at) = (shared_name(l), place(l, i));
     // The suction line of a lift (source below the pump) runs below atmospheric by
     // design; the stated minimum is for lines under positive pressure.
     if l.side == Side::Discharge {
+        let name = Arc::clone(&name);
         let lim = limits::MIN_STEADY_PRESSURE_PA;
         out.push(
-            Check::typed(
+            Check::worded_later(
                 CheckId::MinimumPressure,
                 if pmin < lim.value {
                     Status::Warn
@@ -142,13 +159,13 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
                 },
                 Some(pmin),
                 Some(lim.value),
-                {
+                move || {
                     let mut m = crate::message![
-                        format!("line {}: lowest operating pressure ", l.name),
+                        format!("line {name}: lowest operating pressure "),
                         pressure_against(pmin, lim.value),
                         " "
                     ];
-                    m.append(&place(l, i));
+                    m.append(&place_words(at));
                     m.push("; at least ");
                     m.push(pressure_against(lim.value, pmin));
                     m.push(" keeps air valves from admitting air");
@@ -162,7 +179,7 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
     let margin = limits::VAPOUR_MARGIN_PA;
     let floor = l.vapour_gauge + margin.value;
     out.push(
-        Check::typed(
+        Check::worded_later(
             CheckId::VapourMargin,
             if pmin < floor {
                 Status::Fail
@@ -171,13 +188,13 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
             },
             Some(pmin),
             Some(floor),
-            {
+            move || {
                 let mut m = crate::message![
-                    format!("line {}: lowest operating pressure ", l.name),
+                    format!("line {name}: lowest operating pressure "),
                     pressure_against(pmin, floor),
                     " "
                 ];
-                m.append(&place(l, i));
+                m.append(&place_words(at));
                 m.push(" against vapour pressure plus margin ");
                 m.push(pressure_against(floor, pmin));
                 m
@@ -208,21 +225,22 @@ fn surge_checks(l: &LineSafety) -> Vec<Check> {
         if let Some((room, i)) = worst {
             let down = sg.joukowsky_head;
             let fails = down >= room;
+            let (name, at) = (shared_name(l), place(l, i));
             out.push(
-                Check::typed(
+                Check::worded_later(
                     CheckId::ColumnSeparation,
                     if fails { Status::Fail } else { Status::Pass },
                     Some(down),
                     Some(room),
-                    {
+                    move || {
                         let mut m = crate::message![
-                            format!("line {}: a pump-trip downsurge of ", l.name),
+                            format!("line {name}: a pump-trip downsurge of "),
                             message::against(Kind::Head, down, room),
                             " against ",
                             message::against(Kind::Head, room, down),
                             " of head above vapour pressure "
                         ];
-                        m.append(&place(l, i));
+                        m.append(&place_words(at));
                         if fails {
                             m.push(format!("; the column may separate there, and its rejoin and check-valve slam can exceed the Joukowsky rise: {TRANSIENT_ADVICE}"));
                         }
@@ -255,21 +273,22 @@ fn surge_checks(l: &LineSafety) -> Vec<Check> {
         .max_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)));
     if let Some((i, ps, r)) = worst {
         let fails = ps > r;
+        let (name, at) = (shared_name(l), place(l, i));
         out.push(
-            Check::typed(
+            Check::worded_later(
                 CheckId::Surge,
                 if fails { Status::Fail } else { Status::Pass },
                 Some(ps),
                 Some(r),
-                {
+                move || {
                     let mut m = crate::message![
-                        format!("line {}: operating pressure plus a surge of ", l.name),
+                        format!("line {name}: operating pressure plus a surge of "),
                         head(surge_head),
                         " reaches ",
                         rating_against(ps, r),
                         " "
                     ];
-                    m.append(&place(l, i));
+                    m.append(&place_words(at));
                     m.push(" against the transient rating ");
                     m.push(rating_against(r, ps));
                     if fails {
