@@ -65,20 +65,10 @@ impl Check {
         message: impl Into<Message>,
         origin: Source,
     ) -> Check {
-        Check {
-            id,
-            status,
-            value,
-            limit,
-            message: {
-                // Kept for the whole analysis: no room left from its growth.
-                let mut m: Message = message.into();
-                m.parts.shrink_to_fit();
-                Words::Made(m)
-            },
-            origin,
-            subject: None,
-        }
+        // Kept for the whole analysis: no room left from its growth.
+        let mut m: Message = message.into();
+        m.parts.shrink_to_fit();
+        Check::worded(id, status, value, limit, Words::Made(m), origin)
     }
 
     /// A check whose words are made when read, by `words` from the numbers it holds
@@ -91,12 +81,23 @@ impl Check {
         words: impl Fn() -> Message + Send + Sync + 'static,
         origin: Source,
     ) -> Check {
+        Check::worded(id, status, value, limit, Words::later(words), origin)
+    }
+
+    fn worded(
+        id: CheckId,
+        status: Status,
+        value: Option<f64>,
+        limit: Option<f64>,
+        message: Words,
+        origin: Source,
+    ) -> Check {
         Check {
             id,
             status,
             value,
             limit,
-            message: Words::later(words),
+            message,
             origin,
             subject: None,
         }

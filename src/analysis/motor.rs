@@ -62,6 +62,13 @@ pub struct MotorSizing {
     pub supply_hz: f64,
 }
 
+impl MotorSizing {
+    /// The curve to run-out loads the motor above its nameplate × service factor.
+    fn beyond_service_factor(&self) -> bool {
+        self.choice.runout_loading_ratio > self.choice.service_factor * (1.0 + 1e-9)
+    }
+}
+
 fn standard(design: &Design) -> MotorStandard {
     match design.motor.standard {
         MotorStandardChoice::Nema => MotorStandard::Nema,
@@ -289,9 +296,7 @@ fn size(
 pub(crate) fn motor_check(m: &MotorSizing, words: &MotorWords, shaft_per_pump: f64) -> Check {
     let rating = m.choice.rating_w;
     let above_at_duty = shaft_per_pump > rating * (1.0 + 1e-9);
-    let beyond_service_factor =
-        m.choice.runout_loading_ratio > m.choice.service_factor * (1.0 + 1e-9);
-    let status = if above_at_duty || beyond_service_factor {
+    let status = if above_at_duty || m.beyond_service_factor() {
         Status::Fail
     } else if !m.choice.non_overloading {
         Status::Warn
@@ -345,13 +350,11 @@ impl MotorWords {
         } else {
             ""
         };
-        let beyond_service_factor =
-            m.choice.runout_loading_ratio > m.choice.service_factor * (1.0 + 1e-9);
         let finding = if m.choice.non_overloading && m.run_out_at_data_end {
             ": non-overloading over the published curve, but the largest is at its last point with the power still rising: beyond it (filling an empty main, a burst) the motor may overload; confirm the manufacturer's maximum flow or protect the motor"
         } else if m.choice.non_overloading {
             ": non-overloading"
-        } else if beyond_service_factor {
+        } else if m.beyond_service_factor() {
             ": above the nameplate × service factor towards run-out, choose a larger motor or limit the flow"
         } else {
             ": overloads towards run-out within the service factor, protect the motor, limit the flow or choose a larger motor"

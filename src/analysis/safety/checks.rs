@@ -53,20 +53,39 @@ fn pressure_against(si: f64, other: f64) -> message::Part {
 pub fn line_checks(lines: &[LineSafety]) -> Vec<Check> {
     let mut out = Vec::new();
     for l in lines {
+        let name = shared_name(l);
         if let Some(p) = &l.pressure_duty {
-            out.extend(rating_check(l, p, CheckId::PressureRating, "operating"));
-            out.extend(minimum_checks(l));
+            out.extend(rating_check(
+                l,
+                &name,
+                p,
+                CheckId::PressureRating,
+                "operating",
+            ));
+            out.extend(minimum_checks(l, &name));
         }
         if let Some(p) = &l.pressure_shutoff {
-            out.extend(rating_check(l, p, CheckId::ShutoffPressure, "shut-off"));
+            out.extend(rating_check(
+                l,
+                &name,
+                p,
+                CheckId::ShutoffPressure,
+                "shut-off",
+            ));
         }
-        out.extend(surge_checks(l));
+        out.extend(surge_checks(l, &name));
     }
     out
 }
 
 /// Pressure against the working rating along a line: the station nearest its rating.
-fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &'static str) -> Option<Check> {
+fn rating_check(
+    l: &LineSafety,
+    name: &Arc<str>,
+    p: &[f64],
+    id: CheckId,
+    what: &'static str,
+) -> Option<Check> {
     let rated: Vec<(usize, f64, f64)> = p
         .iter()
         .zip(&l.rating_at)
@@ -78,7 +97,7 @@ fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &'static str) -> O
     );
     if rated.is_empty() {
         let (pmax, i) = max_at(p)?;
-        let (name, at) = (shared_name(l), place(l, i));
+        let (name, at) = (Arc::clone(name), place(l, i));
         return Some(
             Check::worded_later(
                 id,
@@ -111,7 +130,7 @@ fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &'static str) -> O
     } else {
         ""
     };
-    let (name, at) = (shared_name(l), place(l, i));
+    let (name, at) = (Arc::clone(name), place(l, i));
     Some(
         Check::worded_later(
             id,
@@ -138,12 +157,12 @@ fn rating_check(l: &LineSafety, p: &[f64], id: CheckId, what: &'static str) -> O
 
 /// Lowest duty pressure against the stated minimum and against vapour pressure plus
 /// the margin.
-fn minimum_checks(l: &LineSafety) -> Vec<Check> {
+fn minimum_checks(l: &LineSafety, name: &Arc<str>) -> Vec<Check> {
     let Some((pmin, i)) = l.min_duty() else {
         return Vec::new();
     };
     let mut out = Vec::new();
-    let (name, at) = (shared_name(l), place(l, i));
+    let (name, at) = (Arc::clone(name), place(l, i));
     // The suction line of a lift (source below the pump) runs below atmospheric by
     // design; the stated minimum is for lines under positive pressure.
     if l.side == Side::Discharge {
@@ -208,7 +227,7 @@ fn minimum_checks(l: &LineSafety) -> Vec<Check> {
 
 /// The surge screens of a line: pump-trip downsurge against vapour pressure
 /// (discharge lines) and surge plus operating pressure against the transient rating.
-fn surge_checks(l: &LineSafety) -> Vec<Check> {
+fn surge_checks(l: &LineSafety, name: &Arc<str>) -> Vec<Check> {
     let (Some(sg), Some(p)) = (&l.surge, &l.pressure_duty) else {
         return Vec::new();
     };
@@ -225,7 +244,7 @@ fn surge_checks(l: &LineSafety) -> Vec<Check> {
         if let Some((room, i)) = worst {
             let down = sg.joukowsky_head;
             let fails = down >= room;
-            let (name, at) = (shared_name(l), place(l, i));
+            let (name, at) = (Arc::clone(name), place(l, i));
             out.push(
                 Check::worded_later(
                     CheckId::ColumnSeparation,
@@ -273,7 +292,7 @@ fn surge_checks(l: &LineSafety) -> Vec<Check> {
         .max_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)));
     if let Some((i, ps, r)) = worst {
         let fails = ps > r;
-        let (name, at) = (shared_name(l), place(l, i));
+        let (name, at) = (Arc::clone(name), place(l, i));
         out.push(
             Check::worded_later(
                 CheckId::Surge,
