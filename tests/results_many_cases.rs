@@ -223,3 +223,65 @@ fn line_screens_made_again_give_the_checks_the_screen_kept() {
         );
     }
 }
+
+/// A stream that takes `room` bytes, then fails every write.
+struct Full {
+    taken: Vec<u8>,
+    room: usize,
+    writes: usize,
+}
+
+impl std::io::Write for Full {
+    fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
+        self.writes += 1;
+        if self.taken.len() + buf.len() > self.room {
+            return Err(std::io::Error::other("no room left"));
+        }
+        self.taken.extend_from_slice(buf);
+        Ok(buf.len())
+    }
+    fn flush(&mut self) -> std::io::Result<()> {
+        Ok(())
+    }
+}
+
+#[test]
+fn the_text_written_in_pieces_is_the_text_made_whole() {
+    for n in [3, SUMMARY_CASES + 200] {
+        let (_, d, a) = analysed(n);
+        let whole = dutyline::results::to_text(&d, &a);
+        let mut out = Full {
+            taken: Vec::new(),
+            room: usize::MAX,
+            writes: 0,
+        };
+        dutyline::results::write_text(&mut out, &d, &a).expect("room for all");
+        assert_eq!(
+            String::from_utf8(out.taken).expect("UTF-8"),
+            whole,
+            "{n} cases"
+        );
+        if n > SUMMARY_CASES {
+            // Written in pieces, not held whole: 240 cases make about 300 KB.
+            assert!(whole.len() > 4 * 64 * 1024, "{}", whole.len());
+            assert!(out.writes > 3, "{} writes", out.writes);
+        }
+    }
+}
+
+#[test]
+fn a_failed_write_of_the_text_is_reported_and_ends_the_writing() {
+    let (_, d, a) = analysed(SUMMARY_CASES + 200);
+    let mut out = Full {
+        taken: Vec::new(),
+        room: 100 * 1024,
+        writes: 0,
+    };
+    let err = dutyline::results::write_text(&mut out, &d, &a).expect_err("the stream fills");
+    assert_eq!(err.to_string(), "no room left");
+    // The first failure ends the writing: no later piece is tried.
+    let whole = dutyline::results::to_text(&d, &a);
+    let tried = out.writes;
+    assert!(tried < whole.len() / (64 * 1024), "{tried} writes");
+    assert!(whole.starts_with(std::str::from_utf8(&out.taken).expect("UTF-8")));
+}

@@ -186,7 +186,10 @@ pub fn results(
             &loaded.checked.diagnostics,
         )
         .map_err(CliError::stdout)?,
-        Format::Text => output::text(out, &dutyline::results::to_text(design, &analysis))?,
+        // Written in pieces as it is made: a many-case text is never held whole.
+        Format::Text => {
+            dutyline::results::write_text(&mut *out, design, &analysis).map_err(CliError::stdout)?
+        }
     }
     let status = if options.exit_zero {
         ExitCode::SUCCESS

@@ -8,7 +8,7 @@ mod text;
 mod well_field_text;
 
 pub use json::{to_json, write_json, FORMAT};
-pub use text::to_text;
+pub use text::{to_text, write_text};
 
 use sha2::{Digest, Sha256};
 

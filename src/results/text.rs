@@ -11,28 +11,117 @@ use crate::model::Design;
 use crate::numbers::{fixed, Fixed};
 use crate::report::sections::summary::SUMMARY_CASES;
 
-/// The text summary.
+/// The text summary, whole.
 pub fn to_text(design: &Design, analysis: &Analysis) -> String {
-    let u = Units::new(design.project.units);
-    let mut o = String::new();
-    header(&mut o, design);
-    let field = super::well_field_text::is_field(design);
-    if analysis.cases.len() > SUMMARY_CASES {
-        summarised_cases(&mut o, design, analysis, &u);
-    } else {
-        for c in &analysis.cases {
-            case(&mut o, &u, c, None, field);
+    let mut o = Sink::memory();
+    text_into(&mut o, design, analysis);
+    o.text
+}
+
+/// The text summary written to `out` as it is made, in pieces of about
+/// [`Sink::PIECE`] bytes: the same bytes as [`to_text`], without holding a many-case
+/// text whole (10 000 cases make 12 MB). The first write error ends the writing and is
+/// returned.
+pub fn write_text(
+    out: &mut dyn std::io::Write,
+    design: &Design,
+    analysis: &Analysis,
+) -> std::io::Result<()> {
+    let mut o = Sink::writer(out);
+    text_into(&mut o, design, analysis);
+    o.finish()
+}
+
+/// Where the text goes: a string that, when it writes to a stream, is handed on in
+/// pieces ([`Sink::pass_on`]) at the places that call for it (between the cases).
+struct Sink<'a> {
+    text: String,
+    out: Option<&'a mut dyn std::io::Write>,
+    error: Option<std::io::Error>,
+}
+
+impl<'a> Sink<'a> {
+    /// About how much text is held before it is handed on, bytes.
+    const PIECE: usize = 64 * 1024;
+
+    fn memory() -> Sink<'a> {
+        Sink {
+            text: String::new(),
+            out: None,
+            error: None,
         }
     }
-    candidates(&mut o, design, analysis);
-    super::operation_text::operation(&mut o, design, analysis);
-    super::envelope_text::envelope(&mut o, design, analysis);
-    selection(&mut o, design, analysis, &u);
-    safety(&mut o, analysis, &u);
-    for w in &analysis.warnings {
-        let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
+
+    fn writer(out: &'a mut dyn std::io::Write) -> Sink<'a> {
+        Sink {
+            text: String::with_capacity(Self::PIECE + Self::PIECE / 4),
+            out: Some(out),
+            error: None,
+        }
     }
-    o
+
+    /// Hands the text held on to the stream once it reaches [`Sink::PIECE`] (a string
+    /// sink keeps it all).
+    fn pass_on(&mut self) {
+        if self.text.len() >= Self::PIECE {
+            self.write_held();
+        }
+    }
+
+    fn write_held(&mut self) {
+        let Some(out) = self.out.as_mut() else { return };
+        if self.error.is_none() {
+            if let Err(e) = out.write_all(self.text.as_bytes()) {
+                self.error = Some(e);
+            }
+        }
+        self.text.clear();
+    }
+
+    /// Writes the rest and says whether every write succeeded.
+    fn finish(mut self) -> std::io::Result<()> {
+        self.write_held();
+        match self.error {
+            Some(e) => Err(e),
+            None => Ok(()),
+        }
+    }
+}
+
+impl std::ops::Deref for Sink<'_> {
+    type Target = String;
+    fn deref(&self) -> &String {
+        &self.text
+    }
+}
+
+impl std::ops::DerefMut for Sink<'_> {
+    fn deref_mut(&mut self) -> &mut String {
+        &mut self.text
+    }
+}
+
+fn text_into(o: &mut Sink, design: &Design, analysis: &Analysis) {
+    let o = &mut *o;
+    let u = Units::new(design.project.units);
+    header(o, design);
+    let field = super::well_field_text::is_field(design);
+    if analysis.cases.len() > SUMMARY_CASES {
+        summarised_cases(o, design, analysis, &u);
+    } else {
+        for c in &analysis.cases {
+            case(o, &u, c, None, field);
+            o.pass_on();
+        }
+    }
+    candidates(o, design, analysis);
+    super::operation_text::operation(o, design, analysis);
+    super::envelope_text::envelope(o, design, analysis);
+    selection(o, design, analysis, &u);
+    safety(o, analysis, &u);
+    for w in &analysis.warnings {
+        let _ = writeln!(o.text, "warning {}: {}", w.code, u.render(&w.message));
+    }
 }
 
 /// One case in full: overrides, system, every candidate's duty and checks; `why` says
@@ -70,7 +159,7 @@ fn case(o: &mut String, u: &Units, c: &CaseResult, why: Option<&str>, field: boo
 /// every case in one line per candidate — duty, efficiency, shaft power, NPSH ratio
 /// and the checks counted by status with the first of the worst. The JSON keeps every
 /// case's detail.
-fn summarised_cases(o: &mut String, design: &Design, analysis: &Analysis, u: &Units) {
+fn summarised_cases(o: &mut Sink, design: &Design, analysis: &Analysis, u: &Units) {
     let names: Vec<&str> = design.pumps.iter().map(|p| p.name.as_str()).collect();
     let kept = crate::report::sections::summary::governing(analysis);
     let _ = writeln!(
@@ -100,6 +189,7 @@ fn summarised_cases(o: &mut String, design: &Design, analysis: &Analysis, u: &Un
             );
             continue;
         };
+        o.pass_on();
         let _ = writeln!(o, "  {}: static head {}", c.name, hd.fmt(s.static_head));
         for r in &c.pumps {
             let _ = write!(o, "  {} {}: ", c.name, r.name);
