@@ -22,6 +22,15 @@ mod cli {
 use cli::commands::{self, Format};
 use cli::error::CliError;
 
+/// The process's allocator: jemalloc. With glibc's malloc the worker threads' arenas grow
+/// a page at a time (58 000 `mprotect` calls in a 10 000-case analysis, by `strace -c`),
+/// and each block carries a header; jemalloc's size classes and extents took that run from
+/// 1.4-1.8 s to 1.0-1.3 s of CPU and 326 to 308 MB (DEVELOPERS.md, Decisions,
+/// "Allocator"). Output is the same byte for byte: no result depends on addresses.
+#[cfg(all(feature = "jemalloc", not(target_env = "msvc")))]
+#[global_allocator]
+static ALLOCATOR: tikv_jemallocator::Jemalloc = tikv_jemallocator::Jemalloc;
+
 #[derive(Parser)]
 #[command(
     name = "dutyline",
