@@ -102,7 +102,6 @@ impl std::ops::DerefMut for Sink<'_> {
 }
 
 fn text_into(o: &mut Sink, design: &Design, analysis: &Analysis) {
-    let o = &mut *o;
     let u = Units::new(design.project.units);
     header(o, design);
     let field = super::well_field_text::is_field(design);
@@ -120,7 +119,7 @@ fn text_into(o: &mut Sink, design: &Design, analysis: &Analysis) {
     selection(o, design, analysis, &u);
     safety(o, analysis, &u);
     for w in &analysis.warnings {
-        let _ = writeln!(o.text, "warning {}: {}", w.code, u.render(&w.message));
+        let _ = writeln!(o, "warning {}: {}", w.code, u.render(&w.message));
     }
 }
 
@@ -180,6 +179,7 @@ fn summarised_cases(o: &mut Sink, design: &Design, analysis: &Analysis, u: &Unit
         "\nevery case (case candidate: flow at head, efficiency, shaft power, NPSHa/NPSHr, capacity at the limit; checks):"
     );
     for c in &analysis.cases {
+        o.pass_on();
         let Some(s) = &c.system else {
             let _ = writeln!(
                 o,
@@ -189,7 +189,6 @@ fn summarised_cases(o: &mut Sink, design: &Design, analysis: &Analysis, u: &Unit
             );
             continue;
         };
-        o.pass_on();
         let _ = writeln!(o, "  {}: static head {}", c.name, hd.fmt(s.static_head));
         for r in &c.pumps {
             let _ = write!(o, "  {} {}: ", c.name, r.name);
